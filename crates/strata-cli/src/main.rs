@@ -1,0 +1,113 @@
+//! `strata`: validate specs, render charts to SVG, print scenes.
+
+use clap::{Parser, Subcommand};
+use std::path::{Path, PathBuf};
+use std::process::ExitCode;
+use strata::scene::SceneOptions;
+use strata::{DataBytes, Errors, RenderOptions};
+
+#[derive(Parser)]
+#[command(name = "strata", version, about = "Charts from a JSON spec and a table, as SVG")]
+struct Cli {
+    #[command(subcommand)]
+    command: Command,
+}
+
+#[derive(Subcommand)]
+enum Command {
+    /// Render a chart to SVG (or print its scene as JSON).
+    Render {
+        /// The spec file (JSON).
+        spec: PathBuf,
+        /// Data file; overrides the spec's `data.url`.
+        #[arg(long)]
+        data: Option<PathBuf>,
+        /// Output file; standard output when absent.
+        #[arg(short = 'o', long)]
+        output: Option<PathBuf>,
+        /// Print the scene (marks in pixels with their data) as JSON instead of SVG.
+        #[arg(long)]
+        scene: bool,
+        /// Width in pixels when the spec sets none.
+        #[arg(long, default_value_t = 640.0)]
+        width: f64,
+    },
+    /// Validate a spec (and its data, when found); exit non-zero on error.
+    Check {
+        spec: PathBuf,
+        #[arg(long)]
+        data: Option<PathBuf>,
+    },
+}
+
+fn main() -> ExitCode {
+    let cli = Cli::parse();
+    match run(cli.command) {
+        Ok(()) => ExitCode::SUCCESS,
+        Err(msg) => {
+            eprintln!("{msg}");
+            ExitCode::FAILURE
+        }
+    }
+}
+
+/// Read the spec and the data it names (relative to the spec's folder).
+fn load(spec_path: &Path, data: Option<&Path>) -> Result<(String, strata::spec::Spec, Option<(Vec<u8>, String)>), String> {
+    let text = std::fs::read_to_string(spec_path).map_err(|e| format!("strata: cannot read {}: {e}", spec_path.display()))?;
+    let spec = strata::spec::parse_spec(&text).map_err(|e| report(spec_path, &e))?;
+    let data_path = match data {
+        Some(p) => Some(p.to_path_buf()),
+        None => spec.data.as_ref().and_then(|d| d.object().url).map(|u| {
+            let base = spec_path.parent().unwrap_or(Path::new("."));
+            base.join(u)
+        }),
+    };
+    let bytes = match data_path {
+        Some(p) => Some((
+            std::fs::read(&p).map_err(|e| format!("strata: {}: error at data.url: cannot read {}: {e}", spec_path.display(), p.display()))?,
+            p.display().to_string(),
+        )),
+        None => None,
+    };
+    Ok((text, spec, bytes))
+}
+
+fn report(spec_path: &Path, e: &Errors) -> String {
+    e.0.iter().map(|d| format!("strata: {}: {d}", spec_path.display())).collect::<Vec<_>>().join("\n")
+}
+
+fn run(cmd: Command) -> Result<(), String> {
+    match cmd {
+        Command::Render { spec, data, output, scene, width } => {
+            let (_, parsed, bytes) = load(&spec, data.as_deref())?;
+            let opts = RenderOptions { scene: SceneOptions { width } };
+            let data = bytes.as_ref().map(|(b, n)| DataBytes { bytes: b, name: n });
+            let r = strata::render_spec(&parsed, data, &opts).map_err(|e| report(&spec, &e))?;
+            for w in &r.warnings {
+                eprintln!("strata: {}: {w}", spec.display());
+            }
+            let out = if scene {
+                serde_json::to_string_pretty(&r.scene).map_err(|e| e.to_string())? + "\n"
+            } else {
+                r.svg
+            };
+            match output {
+                Some(p) => std::fs::write(&p, out).map_err(|e| format!("strata: cannot write {}: {e}", p.display()))?,
+                None => print!("{out}"),
+            }
+            Ok(())
+        }
+        Command::Check { spec, data } => {
+            let (_, parsed, bytes) = load(&spec, data.as_deref())?;
+            if bytes.is_some() || parsed.data.as_ref().is_some_and(|d| d.object().rows.is_some()) {
+                let data = bytes.as_ref().map(|(b, n)| DataBytes { bytes: b, name: n });
+                let r = strata::render_spec(&parsed, data, &RenderOptions::default()).map_err(|e| report(&spec, &e))?;
+                for w in &r.warnings {
+                    eprintln!("strata: {}: {w}", spec.display());
+                }
+            }
+            println!("{}: ok", spec.display());
+            Ok(())
+        }
+    }
+}

@@ -1,0 +1,58 @@
+//! WebAssembly bindings: one call renders a spec and data bytes to SVG.
+//!
+//! The answer is always a JSON string, never a thrown exception, so the
+//! element can show any failure in the chart's place:
+//! `{"ok": true, "svg": "...", "warnings": [...]}` or
+//! `{"ok": false, "errors": [{"code", "message", "path", "line", "column", "hint"}]}`.
+
+use serde::Serialize;
+use strata::scene::SceneOptions;
+use strata::{DataBytes, Diagnostic, RenderOptions};
+use wasm_bindgen::prelude::*;
+
+#[derive(Serialize)]
+struct Answer<'a> {
+    ok: bool,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    svg: Option<&'a str>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    width: Option<f64>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    height: Option<f64>,
+    #[serde(skip_serializing_if = "<[Diagnostic]>::is_empty")]
+    warnings: &'a [Diagnostic],
+    #[serde(skip_serializing_if = "<[Diagnostic]>::is_empty")]
+    errors: &'a [Diagnostic],
+}
+
+/// Render `spec` (JSON text) with optional data bytes named `data_name`
+/// (a URL or file name; its extension hints the format). `width` is the
+/// container's width in CSS pixels, used when the spec sets none.
+pub fn render_json(spec: &str, data: Option<&[u8]>, data_name: &str, width: f64) -> String {
+    let opts = RenderOptions { scene: SceneOptions { width: if width.is_finite() && width > 0.0 { width } else { 640.0 } } };
+    let data = data.map(|bytes| DataBytes { bytes, name: data_name });
+    let answer = match strata::render(spec, data, &opts) {
+        Ok(r) => serde_json::to_string(&Answer {
+            ok: true,
+            svg: Some(&r.svg),
+            width: Some(r.scene.width),
+            height: Some(r.scene.height),
+            warnings: &r.warnings,
+            errors: &[],
+        }),
+        Err(e) => serde_json::to_string(&Answer { ok: false, svg: None, width: None, height: None, warnings: &[], errors: &e.0 }),
+    };
+    answer.unwrap_or_else(|_| r#"{"ok":false,"errors":[{"severity":"error","code":"internal","message":"could not encode the answer"}]}"#.to_string())
+}
+
+/// JavaScript entry point; `data` may be `undefined` for specs with inline rows.
+#[wasm_bindgen]
+pub fn render(spec: &str, data: Option<Vec<u8>>, data_name: &str, width: f64) -> String {
+    render_json(spec, data.as_deref(), data_name, width)
+}
+
+/// The engine's version, for the element's diagnostics.
+#[wasm_bindgen]
+pub fn version() -> String {
+    env!("CARGO_PKG_VERSION").to_string()
+}

@@ -1,0 +1,89 @@
+//! Strata: a layered grammar-of-graphics engine.
+//!
+//! The pipeline, one stage a module, each handing a small typed value to the
+//! next:
+//!
+//! 1. [`spec`]  — JSON text to [`spec::Spec`]
+//! 2. [`data`]  — bytes to [`data::Table`] (Arrow columns); [`expr`] derives and filters
+//! 3. [`plan`]  — spec + table to [`plan::Plan`]: statistics, positions, trained scales
+//! 4. [`scene`] — plan to [`scene::Scene`]: marks, axes and legends in pixels
+//! 5. [`svg`]   — scene to SVG text
+//!
+//! Libraries the stages share: [`stat`] (numerics), [`scale`] (mapping and
+//! ticks), [`format`] (labels), [`color`], [`text`] (measurement), [`math`].
+
+pub mod color;
+pub mod data;
+pub mod error;
+pub mod expr;
+pub mod format;
+pub mod math;
+pub mod plan;
+pub mod scale;
+pub mod scene;
+pub mod spec;
+pub mod stat;
+pub mod summary;
+pub mod svg;
+pub mod text;
+
+pub use error::{Diagnostic, Errors, Severity};
+
+use spec::Spec;
+
+/// Data handed to [`render`]: bytes from a file or URL, with a name for
+/// format guessing and messages.
+#[derive(Debug, Clone, Copy)]
+pub struct DataBytes<'a> {
+    pub bytes: &'a [u8],
+    pub name: &'a str,
+}
+
+/// Everything a render produces.
+#[derive(Debug, Clone)]
+pub struct Rendered {
+    pub svg: String,
+    pub scene: scene::Scene,
+    pub warnings: Vec<Diagnostic>,
+}
+
+/// Options the host sets.
+#[derive(Debug, Clone, Copy, Default)]
+pub struct RenderOptions {
+    pub scene: scene::SceneOptions,
+}
+
+/// Read the table a spec asks for: inline `rows`, or the given bytes.
+pub fn load_table(spec: &Spec, data: Option<DataBytes>) -> Result<data::Table, Errors> {
+    let obj = spec.data.as_ref().map(|d| d.object()).unwrap_or_default();
+    if let Some(d) = data {
+        let format = obj.format.or_else(|| data::format_from_name(d.name));
+        let opts = data::ReadOptions { format, types: obj.types.clone() };
+        return data::read(d.bytes, &opts);
+    }
+    if let Some(rows) = &obj.rows {
+        return data::from_rows(rows, &obj.types);
+    }
+    Err(Diagnostic::error("data.missing", "the chart has no data")
+        .at_path("data")
+        .with_hint("give `data.url` (or the element's `src` attribute, or `--data FILE`) or inline `data.rows`")
+        .into())
+}
+
+/// The whole pipeline for a parsed spec.
+pub fn render_spec(spec: &Spec, data: Option<DataBytes>, opts: &RenderOptions) -> Result<Rendered, Errors> {
+    let table = load_table(spec, data)?;
+    let table = expr::apply(table, &spec.derive, spec.where_.as_deref())?;
+    let plan = plan::build(spec, &table)?;
+    let scene = scene::build(spec, &plan, &opts.scene);
+    let svg = svg::write(&scene);
+    let mut warnings = table.warnings;
+    warnings.extend(plan.warnings);
+    Ok(Rendered { svg, scene, warnings })
+}
+
+/// The whole pipeline from spec text.
+pub fn render(spec_text: &str, data: Option<DataBytes>, opts: &RenderOptions) -> Result<Rendered, Errors> {
+    let spec = spec::parse_spec(spec_text)?;
+    render_spec(&spec, data, opts)
+}

@@ -1,0 +1,85 @@
+//! Pull a layer's channels out of the table.
+
+use super::{LayerData, Values};
+use crate::data::Table;
+use crate::error::{Diagnostic, Errors};
+use crate::spec::{ColumnType, Layer};
+use arrow_array::cast::AsArray;
+use arrow_array::types::{Date32Type, Float64Type, Int64Type, TimestampMillisecondType};
+use arrow_array::{Array, ArrayRef};
+use arrow_schema::DataType;
+
+pub fn extract(index: usize, layer: &Layer, table: &Table) -> Result<LayerData, Errors> {
+    let names = table.column_names();
+    let mut out = LayerData { len: table.num_rows(), ..Default::default() };
+    let mut errors = Vec::new();
+    for (ch, channel) in layer.channels() {
+        let Some(pos) = names.iter().position(|n| *n == channel.column) else {
+            let mut d = Diagnostic::error(
+                "spec.unknown_column",
+                format!("there is no column `{}` in the data", channel.column),
+            )
+            .at_path(format!("layers[{index}].{ch}"));
+            d = match closest(&channel.column, &names) {
+                Some(s) => d.with_hint(format!("did you mean `{s}`? The columns are: {}", names.join(", "))),
+                None => d.with_hint(format!("the columns are: {}", names.join(", "))),
+            };
+            errors.push(d);
+            continue;
+        };
+        let values = to_values(table.batch.column(pos), channel.as_type);
+        out.channels.insert(ch, values);
+        out.names.insert(ch, channel.column.clone());
+    }
+    if errors.is_empty() { Ok(out) } else { Err(Errors(errors)) }
+}
+
+/// Convert an Arrow column to layer values, honouring an `as` override.
+pub fn to_values(col: &ArrayRef, as_type: Option<ColumnType>) -> Values {
+    let base = match col.data_type() {
+        DataType::Float64 => Values::Num(col.as_primitive::<Float64Type>().iter().map(|v| v.filter(|x| x.is_finite())).collect()),
+        DataType::Int64 => Values::Num(col.as_primitive::<Int64Type>().iter().map(|v| v.map(|x| x as f64)).collect()),
+        DataType::Date32 => Values::Time(col.as_primitive::<Date32Type>().iter().map(|v| v.map(|d| d as f64 * 86_400_000.0)).collect()),
+        DataType::Timestamp(_, _) => {
+            Values::Time(col.as_primitive::<TimestampMillisecondType>().iter().map(|v| v.map(|x| x as f64)).collect())
+        }
+        DataType::Boolean => Values::Text(col.as_boolean().iter().map(|v| v.map(|b| b.to_string())).collect()),
+        DataType::Utf8 => Values::Text(col.as_string::<i32>().iter().map(|v| v.map(str::to_string)).collect()),
+        _ => Values::Text((0..col.len()).map(|_| None).collect()),
+    };
+    match (as_type, base) {
+        (Some(ColumnType::Text), v @ (Values::Num(_) | Values::Time(_))) => {
+            let time = matches!(v, Values::Time(_));
+            Values::Text((0..v.len()).map(|i| match (time, v.num(i)) {
+                (_, None) => None,
+                (true, Some(ms)) => Some(crate::format::date_label(ms)),
+                (false, Some(x)) if x.fract() == 0.0 && x.abs() < 1e15 => Some(format!("{}", x as i64)),
+                (false, Some(x)) => Some(format!("{x}")),
+            }).collect())
+        }
+        (_, v) => v,
+    }
+}
+
+/// The candidate closest to `word` by edit distance, if close enough.
+pub fn closest<'a>(word: &str, candidates: &'a [String]) -> Option<&'a str> {
+    candidates
+        .iter()
+        .map(|c| (levenshtein(&word.to_lowercase(), &c.to_lowercase()), c))
+        .filter(|(d, c)| *d <= (c.chars().count().max(word.chars().count()) / 3).max(1))
+        .min_by_key(|(d, _)| *d)
+        .map(|(_, c)| c.as_str())
+}
+
+fn levenshtein(a: &str, b: &str) -> usize {
+    let b: Vec<char> = b.chars().collect();
+    let mut prev: Vec<usize> = (0..=b.len()).collect();
+    for (i, ca) in a.chars().enumerate() {
+        let mut cur = vec![i + 1; b.len() + 1];
+        for (j, cb) in b.iter().enumerate() {
+            cur[j + 1] = (prev[j] + usize::from(ca != *cb)).min(prev[j + 1] + 1).min(cur[j] + 1);
+        }
+        prev = cur;
+    }
+    prev[b.len()]
+}

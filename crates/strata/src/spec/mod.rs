@@ -1,0 +1,470 @@
+//! Stage 1 — the spec: serde types for the chart vocabulary
+//! (`shared/design/spec-language.md`) and parsing with located errors.
+//!
+//! Hand-off: [`Spec`], a typed, validated description of the chart. Nothing in
+//! here looks at data.
+
+mod parse;
+mod words;
+
+pub use parse::parse_spec;
+pub use words::FromWord;
+
+use indexmap::IndexMap;
+use serde::{Deserialize, Serialize};
+
+/// A whole chart spec.
+#[derive(Debug, Clone, Default, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Spec {
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub title: Option<String>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub subtitle: Option<String>,
+    /// Source line under the chart ("Source: ...").
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub source: Option<String>,
+    /// Author-written text alternative; replaces the automatic summary.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub description: Option<String>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub data: Option<DataRef>,
+    /// New columns from SQL-subset expressions, evaluated in order.
+    #[serde(default, skip_serializing_if = "IndexMap::is_empty")]
+    pub derive: IndexMap<String, String>,
+    /// SQL-subset boolean expression that keeps rows.
+    #[serde(default, rename = "where", skip_serializing_if = "Option::is_none")]
+    pub where_: Option<String>,
+    pub layers: Vec<Layer>,
+    /// Scales keyed by channel name (`x`, `y`, `color`, ...).
+    #[serde(default, skip_serializing_if = "IndexMap::is_empty")]
+    pub scales: IndexMap<String, ScaleSpec>,
+    #[serde(default)]
+    pub coords: Coords,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub panels: Option<Panels>,
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub notes: Vec<Note>,
+    #[serde(default)]
+    pub size: Size,
+    #[serde(default)]
+    pub theme: Theme,
+}
+
+// ---------------------------------------------------------------- data
+
+/// `data`: a URL string or an object.
+#[derive(Debug, Clone, Serialize)]
+#[serde(untagged)]
+pub enum DataRef {
+    Url(String),
+    Object(DataObject),
+}
+
+#[derive(Debug, Clone, Default, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct DataObject {
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub url: Option<String>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub format: Option<DataFormat>,
+    /// Per-column type overrides.
+    #[serde(default, skip_serializing_if = "IndexMap::is_empty")]
+    pub types: IndexMap<String, ColumnType>,
+    /// Hex SHA-256 of the data bytes; a mismatch refuses the data.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub sha256: Option<String>,
+    /// Inline records for small tables.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub rows: Option<Vec<serde_json::Map<String, serde_json::Value>>>,
+}
+
+impl DataRef {
+    pub fn object(&self) -> DataObject {
+        match self {
+            DataRef::Url(u) => DataObject { url: Some(u.clone()), ..Default::default() },
+            DataRef::Object(o) => o.clone(),
+        }
+    }
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum DataFormat {
+    Csv,
+    Tsv,
+    Arrow,
+    Json,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum ColumnType {
+    Number,
+    Text,
+    Date,
+    Bool,
+}
+
+// ---------------------------------------------------------------- layers
+
+#[derive(Debug, Clone, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Layer {
+    pub draw: Geometry,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub x: Option<Channel>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub y: Option<Channel>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub x_end: Option<Channel>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub y_end: Option<Channel>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub color: Option<Channel>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub size: Option<Channel>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub shape: Option<Channel>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub opacity: Option<Channel>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub text: Option<Channel>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub group: Option<Channel>,
+    /// Columns shown on hover or focus.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub tip: Vec<String>,
+    #[serde(default)]
+    pub style: Style,
+    #[serde(default)]
+    pub stat: Stat,
+    #[serde(default)]
+    pub arrange: Arrange,
+}
+
+/// The geometry of a layer. It keeps its name in every coordinate system.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Geometry {
+    Point,
+    Line,
+    Step,
+    Area,
+    Bar,
+    Ribbon,
+    Rule,
+    Label,
+    Tile,
+    Box,
+    Range,
+}
+
+impl Geometry {
+    pub fn word(self) -> &'static str {
+        match self {
+            Geometry::Point => "point",
+            Geometry::Line => "line",
+            Geometry::Step => "step",
+            Geometry::Area => "area",
+            Geometry::Bar => "bar",
+            Geometry::Ribbon => "ribbon",
+            Geometry::Rule => "rule",
+            Geometry::Label => "label",
+            Geometry::Tile => "tile",
+            Geometry::Box => "box",
+            Geometry::Range => "range",
+        }
+    }
+}
+
+/// A channel: a column name, or `{ "column": "c", "as": "date" }`.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Channel {
+    pub column: String,
+    #[serde(default, rename = "as", skip_serializing_if = "Option::is_none")]
+    pub as_type: Option<ColumnType>,
+}
+
+/// Constant styling of a layer; never data-driven.
+#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Style {
+    /// CSS colour for marks.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub color: Option<String>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub opacity: Option<f64>,
+    /// Stroke width in pixels for lines and outlines.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub width: Option<f64>,
+    /// Point radius in pixels.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub radius: Option<f64>,
+    /// Dash pattern in pixels, such as `[4, 2]`.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub dash: Option<Vec<f64>>,
+    /// Fraction of a band a bar fills (0..1).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub band: Option<f64>,
+}
+
+/// The statistic of a layer.
+#[derive(Debug, Clone, Default, PartialEq, Serialize)]
+#[serde(untagged)]
+pub enum Stat {
+    #[default]
+    Identity,
+    Count,
+    Box,
+    Object(StatObject),
+}
+
+/// Object form of a statistic: exactly one of `bin`, `summary`, `fit`,
+/// `density`, `window`, with its options beside it.
+#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct StatObject {
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub bin: Option<BinSpec>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub summary: Option<String>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub interval: Option<String>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub fit: Option<String>,
+    /// Confidence level of a fit's band, such as 0.95.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub band: Option<f64>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub density: Option<serde_json::Value>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub window: Option<serde_json::Value>,
+}
+
+#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct BinSpec {
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub rule: Option<String>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub width: Option<f64>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub count: Option<u32>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub boundary: Option<f64>,
+}
+
+/// Position adjustment.
+#[derive(Debug, Clone, Copy, Default, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Arrange {
+    #[default]
+    None,
+    Stack,
+    Beside,
+    Proportion,
+    Jitter,
+}
+
+// ---------------------------------------------------------------- scales
+
+#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct ScaleSpec {
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub kind: Option<ScaleKind>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub domain: Option<Vec<serde_json::Value>>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub zero: Option<bool>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub nice: Option<bool>,
+    #[serde(default, skip_serializing_if = "std::ops::Not::not")]
+    pub reverse: bool,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub title: Option<String>,
+    /// LDML number or date pattern for labels.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub format: Option<String>,
+    /// Wanted number of ticks.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub ticks: Option<u32>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub palette: Option<String>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub axis: Option<Placement>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub legend: Option<Placement>,
+    #[serde(default, skip_serializing_if = "std::ops::Not::not")]
+    pub hide: bool,
+    /// Base of a log scale (default 10).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub base: Option<f64>,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum ScaleKind {
+    Linear,
+    Log,
+    Sqrt,
+    Symlog,
+    Time,
+    Category,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Placement {
+    Top,
+    Bottom,
+    Left,
+    Right,
+    None,
+}
+
+// ---------------------------------------------------------------- coords, panels, notes, size, theme
+
+#[derive(Debug, Clone, Default, PartialEq, Serialize)]
+#[serde(untagged)]
+pub enum Coords {
+    #[default]
+    Cartesian,
+    Flip,
+    Polar(Polar),
+}
+
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Polar {
+    pub kind: PolarKind,
+    /// Which position channel becomes the angle.
+    #[serde(default = "default_angle")]
+    pub angle: AngleChannel,
+    /// Start angle in degrees clockwise from 12 o'clock.
+    #[serde(default)]
+    pub start: f64,
+    /// Inner radius as a fraction of the outer one.
+    #[serde(default)]
+    pub inner: f64,
+}
+
+fn default_angle() -> AngleChannel {
+    AngleChannel::X
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum PolarKind {
+    Polar,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum AngleChannel {
+    X,
+    Y,
+}
+
+#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Panels {
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub by: Option<String>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub columns: Option<u32>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub rows: Option<String>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub cols: Option<String>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub free: Option<FreeAxes>,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum FreeAxes {
+    X,
+    Y,
+    Both,
+}
+
+/// An annotation at data positions: text, a shaded span, or a reference line.
+#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Note {
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub x: Option<serde_json::Value>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub y: Option<serde_json::Value>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub x_end: Option<serde_json::Value>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub y_end: Option<serde_json::Value>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub text: Option<String>,
+}
+
+#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Size {
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub width: Option<f64>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub height: Option<f64>,
+    /// Width divided by height.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub aspect: Option<f64>,
+}
+
+#[derive(Debug, Clone, Default, PartialEq, Serialize)]
+#[serde(untagged)]
+pub enum Theme {
+    #[default]
+    Auto,
+    Light,
+    Dark,
+    Custom(ThemeOverrides),
+}
+
+/// Theme overrides: any CSS colour; absent keys keep the base theme's value.
+#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct ThemeOverrides {
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub base: Option<String>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub background: Option<String>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub text: Option<String>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub muted: Option<String>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub grid: Option<String>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub axis: Option<String>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub mark: Option<String>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub font_size: Option<f64>,
+}
+
+impl Layer {
+    /// The layer's channels that are set, by name, in a fixed order.
+    pub fn channels(&self) -> Vec<(&'static str, &Channel)> {
+        let all: [(&'static str, &Option<Channel>); 10] = [
+            ("x", &self.x),
+            ("y", &self.y),
+            ("x_end", &self.x_end),
+            ("y_end", &self.y_end),
+            ("color", &self.color),
+            ("size", &self.size),
+            ("shape", &self.shape),
+            ("opacity", &self.opacity),
+            ("text", &self.text),
+            ("group", &self.group),
+        ];
+        all.into_iter().filter_map(|(n, c)| c.as_ref().map(|c| (n, c))).collect()
+    }
+}

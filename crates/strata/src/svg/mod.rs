@@ -1,0 +1,179 @@
+//! Stage 5 — SVG text from a [`Scene`].
+//!
+//! Presentation attributes only (no `style` attribute, no `<style>`), so a
+//! page with a strict Content-Security-Policy can host it; every text and
+//! attribute escaped; numbers to two decimals; ids derived from the content
+//! so that two charts on a page never clash and output is reproducible.
+
+use crate::scene::{Anchor, Node, Paint, Scene};
+use std::fmt::Write;
+
+/// A number with at most two decimals, no trailing zeros, never `-0`.
+pub fn num(v: f64) -> String {
+    if !v.is_finite() {
+        return "0".into();
+    }
+    let r = (v * 100.0).round() / 100.0;
+    let mut s = format!("{r:.2}");
+    while s.ends_with('0') {
+        s.pop();
+    }
+    if s.ends_with('.') {
+        s.pop();
+    }
+    if s == "-0" {
+        s = "0".into();
+    }
+    s
+}
+
+/// Escape text for element content and attribute values.
+pub fn escape(s: &str) -> String {
+    let mut out = String::with_capacity(s.len());
+    for c in s.chars() {
+        match c {
+            '&' => out.push_str("&amp;"),
+            '<' => out.push_str("&lt;"),
+            '>' => out.push_str("&gt;"),
+            '"' => out.push_str("&quot;"),
+            '\'' => out.push_str("&#39;"),
+            // Control characters other than tab and newline are not allowed in XML 1.0.
+            c if (c as u32) < 0x20 && c != '\t' && c != '\n' => out.push(' '),
+            c => out.push(c),
+        }
+    }
+    out
+}
+
+/// 64-bit FNV-1a, for content-derived ids (Fowler, Noll, Vo; public domain).
+fn fnv1a(bytes: &[u8]) -> u64 {
+    let mut h: u64 = 0xcbf29ce484222325;
+    for b in bytes {
+        h ^= *b as u64;
+        h = h.wrapping_mul(0x100000001b3);
+    }
+    h
+}
+
+fn paint(out: &mut String, p: &Paint) {
+    if let Some(f) = &p.fill {
+        let _ = write!(out, " fill=\"{}\"", escape(f));
+    }
+    if let Some(s) = &p.stroke {
+        let _ = write!(out, " stroke=\"{}\"", escape(s));
+    }
+    if let Some(w) = p.stroke_width {
+        let _ = write!(out, " stroke-width=\"{}\"", num(w));
+    }
+    if let Some(o) = p.opacity {
+        let _ = write!(out, " opacity=\"{}\"", num(o.clamp(0.0, 1.0)));
+    }
+    if let Some(d) = &p.dash {
+        let parts: Vec<String> = d.iter().map(|v| num(*v)).collect();
+        let _ = write!(out, " stroke-dasharray=\"{}\"", parts.join(" "));
+    }
+}
+
+fn node(out: &mut String, n: &Node, depth: usize) {
+    let indent = "  ".repeat(depth);
+    out.push_str(&indent);
+    match n {
+        Node::Group { class, role, label, children } => {
+            let _ = write!(out, "<g class=\"{}\"", escape(class));
+            if let Some(r) = role {
+                let _ = write!(out, " role=\"{}\"", escape(r));
+            }
+            if let Some(l) = label {
+                let _ = write!(out, " aria-label=\"{}\"", escape(l));
+            }
+            if children.is_empty() {
+                out.push_str("/>\n");
+                return;
+            }
+            out.push_str(">\n");
+            for c in children {
+                node(out, c, depth + 1);
+            }
+            out.push_str(&indent);
+            out.push_str("</g>\n");
+        }
+        Node::Rect { x, y, width, height, paint: p, .. } => {
+            let _ = write!(out, "<rect x=\"{}\" y=\"{}\" width=\"{}\" height=\"{}\"", num(*x), num(*y), num(*width), num(*height));
+            paint(out, p);
+            out.push_str("/>\n");
+        }
+        Node::Circle { cx, cy, r, paint: p, .. } => {
+            let _ = write!(out, "<circle cx=\"{}\" cy=\"{}\" r=\"{}\"", num(*cx), num(*cy), num(*r));
+            paint(out, p);
+            out.push_str("/>\n");
+        }
+        Node::Line { x1, y1, x2, y2, paint: p } => {
+            let _ = write!(out, "<line x1=\"{}\" y1=\"{}\" x2=\"{}\" y2=\"{}\"", num(*x1), num(*y1), num(*x2), num(*y2));
+            paint(out, p);
+            out.push_str("/>\n");
+        }
+        Node::Path { d, paint: p, .. } => {
+            let _ = write!(out, "<path d=\"{}\"", escape(d));
+            paint(out, p);
+            out.push_str("/>\n");
+        }
+        Node::Text { x, y, text, size, anchor, bold, angle, fill, class } => {
+            let _ = write!(out, "<text class=\"{}\" x=\"{}\" y=\"{}\" font-size=\"{}\"", escape(class), num(*x), num(*y), num(*size));
+            match anchor {
+                Anchor::Start => {}
+                Anchor::Middle => out.push_str(" text-anchor=\"middle\""),
+                Anchor::End => out.push_str(" text-anchor=\"end\""),
+            }
+            if *bold {
+                out.push_str(" font-weight=\"bold\"");
+            }
+            if *angle != 0.0 {
+                let _ = write!(out, " transform=\"rotate({} {} {})\"", num(*angle), num(*x), num(*y));
+            }
+            let _ = write!(out, " fill=\"{}\">{}</text>\n", escape(fill), escape(text));
+        }
+    }
+}
+
+/// Write the scene as a standalone SVG document fragment (no XML prolog, so
+/// it can be inlined into HTML as is).
+pub fn write(scene: &Scene) -> String {
+    let mut body = String::with_capacity(4096);
+    let _ = writeln!(body, "  <rect class=\"strata-background\" width=\"{}\" height=\"{}\" fill=\"{}\"/>", num(scene.width), num(scene.height), escape(&scene.background));
+    for c in &scene.children {
+        node(&mut body, c, 1);
+    }
+    let id = format!("strata-{:08x}", fnv1a(format!("{}\u{0}{}\u{0}{}", scene.label, scene.description, body).as_bytes()) as u32);
+    let mut out = String::with_capacity(body.len() + 512);
+    let _ = write!(
+        out,
+        "<svg xmlns=\"http://www.w3.org/2000/svg\" class=\"strata\" width=\"{w}\" height=\"{h}\" viewBox=\"0 0 {w} {h}\" role=\"graphics-document document\" aria-roledescription=\"chart\" aria-labelledby=\"{id}-title\" aria-describedby=\"{id}-desc\" font-family=\"{f}\">\n",
+        w = num(scene.width),
+        h = num(scene.height),
+        f = escape(&scene.font_family),
+    );
+    let _ = writeln!(out, "  <title id=\"{id}-title\">{}</title>", escape(&scene.label));
+    let _ = writeln!(out, "  <desc id=\"{id}-desc\">{}</desc>", escape(&scene.description));
+    out.push_str(&body);
+    out.push_str("</svg>\n");
+    out
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn numbers_are_short_and_stable() {
+        assert_eq!(num(1.0), "1");
+        assert_eq!(num(1.005), "1");
+        assert_eq!(num(2.345), "2.35");
+        assert_eq!(num(-0.001), "0");
+        assert_eq!(num(f64::NAN), "0");
+    }
+
+    #[test]
+    fn text_is_escaped() {
+        assert_eq!(escape("<script>&\"'"), "&lt;script&gt;&amp;&quot;&#39;");
+    }
+}

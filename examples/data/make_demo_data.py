@@ -1,0 +1,31 @@
+"""Writes the invented demo data of Strata's examples (Harrow Hill community
+orchard). Every number here is made up; run with any Python 3 to regenerate."""
+import csv, math, random
+
+rng = random.Random(20261201)
+varieties = ["Bramley", "Cox", "Russet", "Discovery"]
+with open("orchard_trees.csv", "w", newline="") as f:
+    w = csv.writer(f)
+    w.writerow(["tree", "variety", "age_years", "yield_kg", "planted"])
+    for i in range(48):
+        v = varieties[i % 4]
+        age = rng.randint(3, 40)
+        base = {"Bramley": 1.6, "Cox": 1.1, "Russet": 0.9, "Discovery": 1.3}[v]
+        y = max(2.0, base * 40 * (1 - math.exp(-age / 12)) + rng.gauss(0, 5))
+        w.writerow([f"T{i+1:02d}", v, age, f"{y:.1f}", f"{2026-age}-{rng.randint(1,12):02d}-{rng.randint(1,28):02d}"])
+
+months = ["Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"]
+with open("orchard_visitors.csv", "w", newline="") as f:
+    w = csv.writer(f)
+    w.writerow(["month", "gate", "visitors"])
+    for gate, scale in [("Lane gate", 1.0), ("River gate", 0.6)]:
+        for k, m in enumerate(months):
+            season = 0.5 + 0.5 * math.sin((k - 3) / 12 * 2 * math.pi)
+            w.writerow([m, gate, int(round(scale * (120 + 480 * season + rng.gauss(0, 25))))])
+
+with open("orchard_harvest.csv", "w", newline="") as f:
+    w = csv.writer(f)
+    w.writerow(["variety", "season", "harvest_kg"])
+    for v in varieties:
+        for s in ["2024", "2025"]:
+            w.writerow([v, s, rng.randint(180, 720)])
