@@ -56,3 +56,26 @@ pub fn render(spec: &str, data: Option<Vec<u8>>, data_name: &str, width: f64) ->
 pub fn version() -> String {
     env!("CARGO_PKG_VERSION").to_string()
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn answer_is_json_with_svg() {
+        let out = render_json(r#"{"data":{"rows":[{"a":1,"b":2}]},"layers":[{"draw":"point","x":"a","y":"b"}]}"#, None, "", 300.0);
+        let v: serde_json::Value = serde_json::from_str(&out).unwrap();
+        assert_eq!(v["ok"], true);
+        assert_eq!(v["width"], 300.0);
+        assert!(v["svg"].as_str().unwrap().contains("<circle"));
+    }
+
+    #[test]
+    fn located_error_is_json() {
+        let out = render_json(r#"{"layers":[{"draw":"point","x":"nope"}],"data":{"rows":[{"a":1}]}}"#, None, "", 300.0);
+        let v: serde_json::Value = serde_json::from_str(&out).unwrap();
+        assert_eq!(v["ok"], false);
+        assert_eq!(v["errors"][0]["path"], "layers[0].x");
+        assert_eq!(v["errors"][0]["code"], "spec.unknown_column");
+    }
+}

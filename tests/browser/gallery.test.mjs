@@ -1,0 +1,80 @@
+// The demo gallery in Chromium draws exactly the bytes the CLI writes for the
+// same spec and data.
+import { test, before, after } from 'node:test';
+import assert from 'node:assert/strict';
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { ROOT, serve, launch, cli, settled } from './harness.mjs';
+
+let server, browser, page, errors;
+
+before(async () => {
+  server = await serve();
+  browser = await launch();
+  page = await browser.context.newPage();
+  errors = [];
+  page.on('pageerror', (e) => errors.push(String(e)));
+  page.on('console', (m) => {
+    if (m.type() === 'error') errors.push(m.text());
+  });
+  await page.goto(`${server.url}/www/index.html`);
+  await settled(page);
+});
+
+after(async () => {
+  await browser?.close();
+  await server?.close();
+});
+
+for (const id of ['points', 'lines', 'bars']) {
+  test(`gallery chart "${id}" is byte-identical to the CLI`, async () => {
+    const got = await page.evaluate((id) => {
+      const el = document.getElementById(id);
+      return {
+        svgText: el.svgText,
+        spec: el.querySelector('script[type="application/json"]').textContent,
+        src: el.getAttribute('src'),
+        error: el.querySelector('.strata-error')?.textContent || null,
+      };
+    }, id);
+    assert.equal(got.error, null);
+    assert.ok(got.svgText.startsWith('<svg'), 'the element drew an SVG');
+
+    // The same spec and data through the native CLI.
+    const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'strata-gallery-'));
+    const specFile = path.join(dir, `${id}.json`);
+    fs.writeFileSync(specFile, got.spec);
+    const dataFile = path.resolve(ROOT, 'www', got.src);
+    const out = path.join(dir, `${id}.svg`);
+    const r = cli(['render', specFile, '--data', dataFile, '-o', out]);
+    assert.equal(r.status, 0, r.stderr);
+    const expected = fs.readFileSync(out, 'utf8');
+    assert.equal(got.svgText, expected, 'engine output in the page equals the CLI file');
+
+    // What the browser holds in its DOM equals the CLI file parsed by the browser.
+    const same = await page.evaluate(
+      ([id, expected]) => {
+        const ser = new XMLSerializer();
+        const dom = ser.serializeToString(document.getElementById(id).querySelector(':scope > svg'));
+        const ref = ser.serializeToString(new DOMParser().parseFromString(expected, 'image/svg+xml').documentElement);
+        return dom === ref;
+      },
+      [id, expected]
+    );
+    assert.ok(same, 'DOM serialisation equals the parsed CLI file');
+    fs.rmSync(dir, { recursive: true, force: true });
+  });
+}
+
+test('a misspelt column shows a located message in the chart\'s place', async () => {
+  const text = await page.evaluate(() => document.querySelector('#typo .strata-error')?.textContent);
+  assert.match(text, /layers\[0\]\.y/);
+  assert.match(text, /did you mean `yield_kg`/);
+  const role = await page.evaluate(() => document.querySelector('#typo .strata-error').getAttribute('role'));
+  assert.equal(role, 'alert');
+});
+
+test('the gallery page runs under its strict CSP without errors', () => {
+  assert.deepEqual(errors, []);
+});

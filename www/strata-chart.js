@@ -1,0 +1,293 @@
+// <strata-chart>: draws a Strata chart spec as SVG in the page.
+//
+//   <strata-chart src="data.csv">
+//     <script type="application/json">{ "layers": [ ... ] }</script>
+//   </strata-chart>
+//   <script type="module" src="strata/strata-chart.js"></script>
+//
+// The WebAssembly engine loads once per page, on first use. Any failure (bad
+// spec, unreachable data, a parse error) shows a message in the chart's
+// place and fires `strata-error`; nothing is thrown into the page, and a
+// pre-rendered <svg> already inside the element is kept until a new drawing
+// replaces it. Nothing from the spec or the data is ever run as script or
+// parsed as HTML: the engine escapes all text, and messages are set as text.
+
+const ENGINE_URL = new URL('./pkg/strata_wasm.js', import.meta.url);
+const SVG_NS = 'http://www.w3.org/2000/svg';
+
+let enginePromise = null;
+
+/** Load the engine module once for the whole page. */
+function loadEngine() {
+  if (!enginePromise) {
+    enginePromise = import(ENGINE_URL.href).then(async (m) => {
+      await m.default();
+      return m;
+    });
+    // A failed load may be retried by the next chart.
+    enginePromise.catch(() => { enginePromise = null; });
+  }
+  return enginePromise;
+}
+
+let styled = false;
+/** Element defaults through a constructed stylesheet: allowed under a strict CSP. */
+function adoptStyles() {
+  if (styled || typeof CSSStyleSheet === 'undefined' || !('adoptedStyleSheets' in document)) return;
+  styled = true;
+  try {
+    const sheet = new CSSStyleSheet();
+    sheet.replaceSync(
+      'strata-chart{display:block;max-width:100%}' +
+      'strata-chart>svg.strata{display:block;max-width:100%;height:auto}' +
+      'strata-chart>.strata-error{font:14px/1.4 system-ui,sans-serif;padding:.75em 1em;' +
+      'border:1px solid var(--strata-error-border,#b3261e);color:var(--strata-error-text,#8c1d18);' +
+      'background:var(--strata-error-background,#fdf3f2);white-space:pre-wrap;overflow-wrap:anywhere}'
+    );
+    document.adoptedStyleSheets = [...document.adoptedStyleSheets, sheet];
+  } catch {
+    /* styling is a nicety; drawing does not depend on it */
+  }
+}
+
+let policy;
+/** A Trusted Types policy for the engine's SVG, where the page enforces them. */
+function trusted(svgText) {
+  if (typeof window.trustedTypes === 'undefined') return svgText;
+  if (policy === undefined) {
+    try {
+      policy = window.trustedTypes.createPolicy('strata', { createHTML: (s) => s });
+    } catch {
+      policy = null;
+    }
+  }
+  return policy ? policy.createHTML(svgText) : svgText;
+}
+
+/** One diagnostic from the engine as a line of text. */
+export function describeError(d) {
+  let where = '';
+  if (d.path) where += ` at ${d.path}`;
+  if (d.line != null) where += d.column != null ? ` (data line ${d.line}, column ${d.column})` : ` (data line ${d.line})`;
+  return `${d.severity === 'warning' ? 'Warning' : 'Chart error'}${where}: ${d.message}${d.hint ? `\nHint: ${d.hint}` : ''}`;
+}
+
+class ChartError extends Error {
+  constructor(errors) {
+    super(errors.map(describeError).join('\n'));
+    this.errors = errors;
+  }
+}
+
+const fail = (code, message, extra = {}) => new ChartError([{ severity: 'error', code, message, ...extra }]);
+
+export class StrataChart extends HTMLElement {
+  static get observedAttributes() {
+    return ['src', 'spec-src', 'theme'];
+  }
+
+  #spec = null; // object set from JavaScript
+  #rows = null;
+  #table = null;
+  #svgText = '';
+  #generation = 0;
+  #scheduled = false;
+  #resize = null;
+  #lastWidth = 0;
+
+  connectedCallback() {
+    adoptStyles();
+    this.#schedule();
+  }
+
+  disconnectedCallback() {
+    this.#resize?.disconnect();
+    this.#resize = null;
+  }
+
+  attributeChangedCallback() {
+    if (this.isConnected) this.#schedule();
+  }
+
+  /** The spec as an object; setting it redraws. */
+  get spec() {
+    return this.#spec;
+  }
+  set spec(value) {
+    this.#spec = value;
+    this.#schedule();
+  }
+  /** Records to draw instead of fetched data. */
+  set rows(value) {
+    this.#rows = value;
+    this.#schedule();
+  }
+  /** Arrow IPC bytes to draw instead of fetched data. */
+  set table(value) {
+    this.#table = value;
+    this.#schedule();
+  }
+  /** The SVG text of the last drawing, exactly as the engine wrote it. */
+  get svgText() {
+    return this.#svgText;
+  }
+
+  /** Redraw now; resolves when done (errors are shown, not thrown). */
+  render() {
+    return this.#draw();
+  }
+
+  #schedule() {
+    if (this.#scheduled) return;
+    this.#scheduled = true;
+    queueMicrotask(() => {
+      this.#scheduled = false;
+      this.#draw();
+    });
+  }
+
+  async #specSource() {
+    if (this.#spec) return { text: JSON.stringify(this.#spec), base: document.baseURI };
+    const specSrc = this.getAttribute('spec-src');
+    if (specSrc) {
+      const url = new URL(specSrc, document.baseURI);
+      const res = await fetch(url).catch((e) => {
+        throw fail('spec.fetch', `could not load the spec from ${url}: ${e.message}`);
+      });
+      if (!res.ok) throw fail('spec.fetch', `could not load the spec from ${url}: HTTP ${res.status}`);
+      return { text: await res.text(), base: url.href };
+    }
+    const script = this.querySelector(':scope > script[type="application/json"]');
+    if (!script) {
+      throw fail('spec.missing', 'this <strata-chart> has no spec', {
+        hint: 'put the spec in a child <script type="application/json">, or set the spec-src attribute',
+      });
+    }
+    return { text: script.textContent, base: document.baseURI };
+  }
+
+  async #fetchData(url) {
+    let res;
+    try {
+      res = await fetch(url);
+    } catch (e) {
+      throw fail('data.fetch', `could not load the data from ${url}: ${e.message}`, { path: 'data.url' });
+    }
+    if (!res.ok) {
+      throw fail('data.fetch', `could not load the data from ${url}: HTTP ${res.status} ${res.statusText}`.trim(), {
+        path: 'data.url',
+      });
+    }
+    return new Uint8Array(await res.arrayBuffer());
+  }
+
+  #width(spec) {
+    const fixed = spec && spec.size && typeof spec.size.width === 'number';
+    if (fixed) {
+      this.#resize?.disconnect();
+      this.#resize = null;
+      return spec.size.width;
+    }
+    // No width in the spec: fill the container and redraw when it resizes.
+    if (!this.#resize && typeof ResizeObserver !== 'undefined') {
+      this.#resize = new ResizeObserver((entries) => {
+        const w = Math.round(entries[entries.length - 1].contentRect.width);
+        if (w > 0 && Math.abs(w - this.#lastWidth) >= 1) this.#schedule();
+      });
+      this.#resize.observe(this);
+    }
+    const w = Math.round(this.clientWidth || this.getBoundingClientRect().width || 0);
+    return w > 0 ? w : 640;
+  }
+
+  async #draw() {
+    const generation = ++this.#generation;
+    try {
+      const source = await this.#specSource();
+      let text = source.text;
+      let spec = null;
+      try {
+        spec = JSON.parse(text);
+      } catch {
+        // Leave it to the engine, which names the line and column.
+      }
+      let bytes;
+      let name = '';
+      if (spec && typeof spec === 'object' && !Array.isArray(spec)) {
+        let changed = false;
+        const theme = this.getAttribute('theme');
+        if (theme) {
+          spec.theme = theme;
+          changed = true;
+        }
+        if (this.#rows) {
+          spec.data = { ...(typeof spec.data === 'object' && spec.data ? spec.data : {}), rows: this.#rows };
+          delete spec.data.url;
+          changed = true;
+        }
+        if (changed) text = JSON.stringify(spec);
+        if (this.#table) {
+          bytes = this.#table instanceof Uint8Array ? this.#table : new Uint8Array(this.#table);
+          name = 'table.arrow';
+        } else if (!this.#rows) {
+          const declared = typeof spec.data === 'string' ? spec.data : spec.data && spec.data.url;
+          const src = this.getAttribute('src');
+          const url = src ? new URL(src, document.baseURI) : declared ? new URL(declared, source.base) : null;
+          if (url) {
+            bytes = await this.#fetchData(url);
+            name = url.pathname;
+          }
+        }
+      }
+      const width = this.#width(spec);
+      const engine = await loadEngine();
+      if (generation !== this.#generation) return;
+      const answer = JSON.parse(engine.render(text, bytes, name, width));
+      if (generation !== this.#generation) return;
+      if (!answer.ok) throw new ChartError(answer.errors);
+      this.#lastWidth = width;
+      this.#show(answer.svg);
+      this.dispatchEvent(
+        new CustomEvent('strata-render', {
+          bubbles: true,
+          detail: { width: answer.width, height: answer.height, warnings: answer.warnings || [] },
+        })
+      );
+    } catch (e) {
+      if (generation !== this.#generation) return;
+      const errors = e instanceof ChartError ? e.errors : [{ severity: 'error', code: 'internal', message: String(e && e.message ? e.message : e) }];
+      this.#showError(errors);
+      this.dispatchEvent(new CustomEvent('strata-error', { bubbles: true, detail: { errors } }));
+    }
+  }
+
+  #show(svgText) {
+    const doc = new DOMParser().parseFromString(trusted(svgText), 'image/svg+xml');
+    const root = doc.documentElement;
+    if (!root || root.namespaceURI !== SVG_NS || root.localName !== 'svg') {
+      throw fail('internal', 'the engine returned SVG the browser could not parse');
+    }
+    const svg = document.importNode(root, true);
+    const old = this.querySelector(':scope > svg');
+    if (old) old.replaceWith(svg);
+    else this.append(svg);
+    this.querySelector(':scope > .strata-error')?.remove();
+    this.#svgText = svgText;
+  }
+
+  #showError(errors) {
+    let box = this.querySelector(':scope > .strata-error');
+    if (!box) {
+      box = document.createElement('div');
+      box.className = 'strata-error';
+      box.setAttribute('role', 'alert');
+      // Before a pre-rendered chart, which stays in place.
+      const svg = this.querySelector(':scope > svg');
+      if (svg) svg.before(box);
+      else this.append(box);
+    }
+    box.textContent = errors.map(describeError).join('\n');
+  }
+}
+
+if (!customElements.get('strata-chart')) customElements.define('strata-chart', StrataChart);
