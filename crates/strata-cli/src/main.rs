@@ -1,5 +1,7 @@
 //! `strata`: validate specs, render charts to SVG, print scenes.
 
+mod bake;
+
 use clap::{Parser, Subcommand};
 use std::path::{Path, PathBuf};
 use std::process::ExitCode;
@@ -31,6 +33,18 @@ enum Command {
         /// Width in pixels when the spec sets none.
         #[arg(long, default_value_t = 640.0)]
         width: f64,
+    },
+    /// Pre-render every <strata-chart> of HTML pages in place.
+    Bake {
+        /// The pages to rewrite.
+        #[arg(required = true)]
+        pages: Vec<PathBuf>,
+        /// Width in pixels for charts whose spec sets none.
+        #[arg(long, default_value_t = 640.0)]
+        width: f64,
+        /// Write the baked page here instead of in place (one page only).
+        #[arg(short = 'o', long)]
+        output: Option<PathBuf>,
     },
     /// Validate a spec (and its data, when found); exit non-zero on error.
     Check {
@@ -96,6 +110,27 @@ fn run(cmd: Command) -> Result<(), String> {
                 None => print!("{out}"),
             }
             Ok(())
+        }
+        Command::Bake { pages, width, output } => {
+            if output.is_some() && pages.len() != 1 {
+                return Err("strata: bake -o takes exactly one page".into());
+            }
+            let mut failures = Vec::new();
+            for page in &pages {
+                let html = std::fs::read_to_string(page).map_err(|e| format!("strata: cannot read {}: {e}", page.display()))?;
+                let (out, report) = bake::bake_html(page, &html, width).map_err(|e| format!("strata: {}: {e}", page.display()))?;
+                let dest = output.clone().unwrap_or_else(|| page.clone());
+                if out != html || output.is_some() {
+                    std::fs::write(&dest, out).map_err(|e| format!("strata: cannot write {}: {e}", dest.display()))?;
+                }
+                eprintln!("strata: {}: baked {} chart{}", page.display(), report.baked, if report.baked == 1 { "" } else { "s" });
+                failures.extend(report.failures);
+            }
+            if failures.is_empty() {
+                Ok(())
+            } else {
+                Err(failures.iter().map(|f| format!("strata: {f}")).collect::<Vec<_>>().join("\n"))
+            }
         }
         Command::Check { spec, data } => {
             let (_, parsed, bytes) = load(&spec, data.as_deref())?;

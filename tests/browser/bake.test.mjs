@@ -1,0 +1,56 @@
+// `strata bake` pre-renders the gallery: the charts show with scripting off,
+// and once the module loads the element draws the very same bytes.
+import { test, before, after } from 'node:test';
+import assert from 'node:assert/strict';
+import fs from 'node:fs';
+import path from 'node:path';
+import { ROOT, serve, launch, cli, settled } from './harness.mjs';
+
+const BAKED = path.join(ROOT, 'www', 'index.baked.html');
+let server, browser, bake;
+
+before(async () => {
+  bake = cli(['bake', path.join(ROOT, 'www', 'index.html'), '-o', BAKED]);
+  server = await serve();
+  browser = await launch();
+});
+
+after(async () => {
+  await browser?.close();
+  await server?.close();
+  fs.rmSync(BAKED, { force: true });
+});
+
+test('bake reports the broken chart by page and id and bakes the rest', () => {
+  assert.equal(bake.status, 1, 'a chart failed, so the exit status says so');
+  assert.match(bake.stderr, /index\.html: #typo: .*layers\[0\]\.y/);
+  assert.match(bake.stderr, /baked 3 charts/);
+  const html = fs.readFileSync(BAKED, 'utf8');
+  assert.equal((html.match(/<svg xmlns/g) || []).length, 3);
+});
+
+test('with scripting off the baked charts are in the page', async () => {
+  // Block every script the page would load: what shows is the baked HTML alone.
+  const page = await browser.context.newPage();
+  await page.route('**/*.js', (r) => r.abort());
+  await page.goto(`${server.url}/www/index.baked.html`);
+  const n = await page.evaluate(() => document.querySelectorAll('strata-chart > svg.strata').length);
+  assert.equal(n, 3);
+  const box = await page.evaluate(() => document.querySelector('#bars > svg').getBoundingClientRect().height);
+  assert.ok(box > 100, 'the SVG has its size without any script');
+  await page.close();
+});
+
+test('the element redraws a baked chart byte for byte', async () => {
+  const page = await browser.context.newPage();
+  await page.goto(`${server.url}/www/index.baked.html`);
+  await settled(page);
+  const html = fs.readFileSync(BAKED, 'utf8');
+  for (const id of ['points', 'lines', 'bars']) {
+    const svgText = await page.evaluate((id) => document.getElementById(id).svgText, id);
+    assert.ok(html.includes(svgText.trimEnd()), `${id}: baked bytes equal the element's`);
+    const count = await page.evaluate((id) => document.querySelectorAll(`#${id} > svg`).length, id);
+    assert.equal(count, 1, `${id}: the baked SVG was replaced, not doubled`);
+  }
+  await page.close();
+});
