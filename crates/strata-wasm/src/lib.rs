@@ -51,6 +51,18 @@ pub fn render(spec: &str, data: Option<Vec<u8>>, data_name: &str, width: f64) ->
     render_json(spec, data.as_deref(), data_name, width)
 }
 
+/// Read data bytes into a table and report its shape as JSON
+/// (`{"ok":true,"rows":N,"columns":M}` or located errors); used by the
+/// browser benchmark of the readers.
+#[wasm_bindgen]
+pub fn table_shape(data: &[u8], data_name: &str) -> String {
+    let opts = strata::data::ReadOptions { format: strata::data::format_from_name(data_name), ..Default::default() };
+    match strata::data::read(data, &opts) {
+        Ok(t) => format!("{{\"ok\":true,\"rows\":{},\"columns\":{}}}", t.num_rows(), t.batch.num_columns()),
+        Err(e) => serde_json::json!({ "ok": false, "errors": e.0 }).to_string(),
+    }
+}
+
 /// The engine's version, for the element's diagnostics.
 #[wasm_bindgen]
 pub fn version() -> String {
