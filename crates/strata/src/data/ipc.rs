@@ -29,7 +29,7 @@ use std::sync::Arc;
 
 fn ipc_error(e: ArrowError) -> Errors {
     Diagnostic::error("data.arrow_invalid", format!("the Arrow IPC data could not be read: {e}"))
-        .with_hint("check that the file is a complete Arrow IPC file or stream (uncompressed or LZ4 is not supported; write it without compression)")
+        .with_hint("check that the file is a complete Arrow IPC file or stream (compressed IPC bodies are not supported: write it without compression)")
         .into()
 }
 
@@ -63,7 +63,7 @@ pub fn read(bytes: &[u8], opts: &ReadOptions) -> Result<Table, Errors> {
     warnings.extend(super::unknown_type_keys(&opts.types, &names));
     let mut fields = Vec::new();
     let mut arrays = Vec::new();
-    'columns: for (i, (field, name)) in schema.fields().iter().zip(&names).enumerate() {
+    for (i, (field, name)) in schema.fields().iter().zip(&names).enumerate() {
         let mut parts = Vec::with_capacity(batches.len().max(1));
         if batches.is_empty() {
             parts.push(new_empty_array(field.data_type()));
@@ -71,24 +71,18 @@ pub fn read(bytes: &[u8], opts: &ReadOptions) -> Result<Table, Errors> {
         for b in &batches {
             parts.push(b.column(i).clone());
         }
-        let mut norm = Vec::with_capacity(parts.len());
-        for p in &parts {
-            match normalise(p) {
-                Some(a) => norm.push(a),
-                None => {
-                    warnings.push(Diagnostic::warning(
-                        "data.unsupported_column",
-                        format!("column `{name}` has Arrow type {}, which Strata cannot chart; it was left out", field.data_type()),
-                    ));
-                    continue 'columns;
-                }
-            }
-        }
-        let arr = if norm.len() == 1 {
-            norm.pop().unwrap_or_else(|| new_empty_array(&DataType::Utf8))
+        let whole = if parts.len() == 1 {
+            parts.pop().unwrap_or_else(|| new_empty_array(field.data_type()))
         } else {
-            let refs: Vec<&dyn Array> = norm.iter().map(|a| a.as_ref()).collect();
+            let refs: Vec<&dyn Array> = parts.iter().map(|a| a.as_ref()).collect();
             arrow_select::concat::concat(&refs).map_err(ipc_error)?
+        };
+        let Some(arr) = normalise(&whole) else {
+            warnings.push(Diagnostic::warning(
+                "data.unsupported_column",
+                format!("column `{name}` has Arrow type {}, which Strata cannot chart; it was left out", field.data_type()),
+            ));
+            continue;
         };
         let arr = match opts.types.get(name) {
             Some(t) => apply_override(arr, *t, name)?,
