@@ -58,7 +58,7 @@ pub fn load_table(spec: &Spec, data: Option<DataBytes>) -> Result<data::Table, E
     let obj = spec.data.as_ref().map(|d| d.object()).unwrap_or_default();
     if let Some(d) = data {
         let format = obj.format.or_else(|| data::format_from_name(d.name));
-        let opts = data::ReadOptions { format, types: obj.types.clone() };
+        let opts = data::ReadOptions { format, types: obj.types.clone(), sha256: obj.sha256.clone(), ..Default::default() };
         return data::read(d.bytes, &opts);
     }
     if let Some(rows) = &obj.rows {

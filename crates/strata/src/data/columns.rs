@@ -1,18 +1,89 @@
 //! Text cells to typed Arrow columns: inference over all rows, or an override.
+//!
+//! Cells live in a [`TextColumn`]: one byte buffer and one offset per cell,
+//! the same layout as an Arrow Utf8 array, so a text column becomes an Arrow
+//! array without copying.
 
-use super::time::{parse_date, parse_datetime};
+use super::time::{parse_date_bytes, parse_datetime_bytes};
 use crate::spec::ColumnType;
 use arrow_array::{ArrayRef, BooleanArray, Date32Array, Float64Array, Int64Array, StringArray, TimestampMillisecondArray};
+use arrow_buffer::{BooleanBufferBuilder, Buffer, NullBuffer, OffsetBuffer, ScalarBuffer};
 use std::sync::Arc;
 
-/// Cells read as missing values.
+/// Cells read as missing values unless the reader is told otherwise.
 pub const NULL_TOKENS: [&str; 6] = ["", "NA", "N/A", "null", "NULL", "-"];
 
-pub fn is_null(s: &str) -> bool {
-    NULL_TOKENS.contains(&s)
+/// One column of cells as text: `values[offsets[i]..offsets[i+1]]` is cell `i`.
+#[derive(Debug, Clone)]
+pub struct TextColumn {
+    pub values: Vec<u8>,
+    pub offsets: Vec<i32>,
 }
 
-/// The type inferred for a column, narrowest first.
+impl Default for TextColumn {
+    fn default() -> Self {
+        TextColumn { values: Vec::new(), offsets: vec![0] }
+    }
+}
+
+impl TextColumn {
+    pub fn len(&self) -> usize {
+        self.offsets.len() - 1
+    }
+    pub fn is_empty(&self) -> bool {
+        self.len() == 0
+    }
+    #[inline]
+    pub fn cell(&self, i: usize) -> &[u8] {
+        &self.values[self.offsets[i] as usize..self.offsets[i + 1] as usize]
+    }
+    /// Append a cell; `false` when the column would pass Arrow's 2 GiB
+    /// offset limit.
+    #[inline]
+    pub fn push(&mut self, cell: &[u8]) -> bool {
+        self.values.extend_from_slice(cell);
+        match i32::try_from(self.values.len()) {
+            Ok(end) => {
+                self.offsets.push(end);
+                true
+            }
+            Err(_) => false,
+        }
+    }
+    /// The cell holding byte `pos` of `values`.
+    pub fn cell_at_byte(&self, pos: usize) -> usize {
+        self.offsets.partition_point(|o| (*o as usize) <= pos).saturating_sub(1).min(self.len().saturating_sub(1))
+    }
+}
+
+/// How cells become values.
+#[derive(Debug, Clone)]
+pub struct CellRules {
+    nulls: Vec<Vec<u8>>,
+    max_null_len: usize,
+    /// `1,5` is one and a half.
+    pub decimal_comma: bool,
+}
+
+impl CellRules {
+    pub fn new<S: AsRef<str>>(null_tokens: &[S], decimal_comma: bool) -> Self {
+        let nulls: Vec<Vec<u8>> = null_tokens.iter().map(|s| s.as_ref().as_bytes().to_vec()).collect();
+        let max_null_len = nulls.iter().map(Vec::len).max().unwrap_or(0);
+        CellRules { nulls, max_null_len, decimal_comma }
+    }
+    #[inline]
+    pub fn is_null(&self, c: &[u8]) -> bool {
+        c.len() <= self.max_null_len && self.nulls.iter().any(|t| t.as_slice() == c)
+    }
+}
+
+impl Default for CellRules {
+    fn default() -> Self {
+        CellRules::new(&NULL_TOKENS, false)
+    }
+}
+
+/// The type inferred for a column.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Inferred {
     Int,
@@ -23,131 +94,363 @@ pub enum Inferred {
     Text,
 }
 
-pub fn parse_number(s: &str) -> Option<f64> {
-    let b = s.as_bytes();
-    let first = *b.first()?;
-    if !(first.is_ascii_digit() || first == b'-' || first == b'+' || first == b'.') {
+#[inline]
+fn trim(b: &[u8]) -> &[u8] {
+    let mut s = 0;
+    let mut e = b.len();
+    while s < e && (b[s] == b' ' || b[s] == b'\t') {
+        s += 1;
+    }
+    while e > s && (b[e - 1] == b' ' || b[e - 1] == b'\t') {
+        e -= 1;
+    }
+    &b[s..e]
+}
+
+/// A whole decimal integer that fits i64: optional sign, then digits only.
+#[inline]
+pub fn parse_int(b: &[u8]) -> Option<i64> {
+    let b = trim(b);
+    let (neg, d) = match b.first()? {
+        b'-' => (true, &b[1..]),
+        b'+' => (false, &b[1..]),
+        _ => (false, b),
+    };
+    if d.is_empty() || d.len() > 19 {
         return None;
     }
-    if !b.iter().any(u8::is_ascii_digit) || b.iter().any(|c| c.is_ascii_alphabetic() && *c != b'e' && *c != b'E') {
+    let mut v: u64 = 0;
+    for &c in d {
+        let x = c.wrapping_sub(b'0');
+        if x > 9 {
+            return None;
+        }
+        v = v * 10 + x as u64;
+    }
+    if neg {
+        if v > i64::MAX as u64 + 1 { None } else { Some((v as i64).wrapping_neg()) }
+    } else if v > i64::MAX as u64 {
+        None
+    } else {
+        Some(v as i64)
+    }
+}
+
+/// A finite decimal number (`1`, `-2.5`, `.5`, `1e-3`); with `decimal_comma`
+/// the fraction mark is `,` and `.` is refused.
+#[inline]
+pub fn parse_float(b: &[u8], decimal_comma: bool) -> Option<f64> {
+    let b = trim(b);
+    if b.is_empty() || b.len() > 64 {
         return None;
     }
+    let mut digit = false;
+    let mut buf = [0u8; 64];
+    for (i, &c) in b.iter().enumerate() {
+        buf[i] = match c {
+            b'0'..=b'9' => {
+                digit = true;
+                c
+            }
+            b'+' | b'-' | b'e' | b'E' => c,
+            b'.' if !decimal_comma => c,
+            b',' if decimal_comma => b'.',
+            _ => return None,
+        };
+    }
+    if !digit {
+        return None;
+    }
+    let s = std::str::from_utf8(&buf[..b.len()]).ok()?;
     s.parse::<f64>().ok().filter(|v| v.is_finite())
 }
 
-fn parse_int(s: &str) -> Option<i64> {
-    let b = s.as_bytes();
-    let digits = if b.first() == Some(&b'-') || b.first() == Some(&b'+') { &b[1..] } else { b };
-    if digits.is_empty() || !digits.iter().all(u8::is_ascii_digit) {
-        return None;
-    }
-    s.parse::<i64>().ok()
-}
-
-fn parse_bool(s: &str) -> Option<bool> {
-    match s {
-        "true" | "TRUE" | "True" => Some(true),
-        "false" | "FALSE" | "False" => Some(false),
+#[inline]
+pub fn parse_bool(b: &[u8]) -> Option<bool> {
+    match trim(b) {
+        b"true" | b"TRUE" | b"True" => Some(true),
+        b"false" | b"FALSE" | b"False" => Some(false),
         _ => None,
     }
 }
 
-/// Infer the narrowest type that every non-null cell fits.
-pub fn infer(cells: &[Option<&str>]) -> Inferred {
-    let mut cands = [true; 5]; // int, float, bool, date, datetime
-    let mut any = false;
-    for c in cells.iter().flatten() {
-        any = true;
-        if cands[0] && parse_int(c).is_none() {
-            cands[0] = false;
-        }
-        if cands[1] && parse_number(c).is_none() {
-            cands[1] = false;
-        }
-        if cands[2] && parse_bool(c).is_none() {
-            cands[2] = false;
-        }
-        if cands[3] && parse_date(c).is_none() {
-            cands[3] = false;
-        }
-        if cands[4] && parse_datetime(c).is_none() && parse_date(c).is_none() {
-            cands[4] = false;
-        }
-        if !cands.iter().any(|b| *b) {
-            return Inferred::Text;
-        }
-    }
-    if !any {
-        return Inferred::Text;
-    }
-    [Inferred::Int, Inferred::Float, Inferred::Bool, Inferred::Date, Inferred::DateTime]
-        .into_iter()
-        .zip(cands)
-        .find(|(_, ok)| *ok)
-        .map(|(t, _)| t)
-        .unwrap_or(Inferred::Text)
+fn parse_date(b: &[u8]) -> Option<i32> {
+    parse_date_bytes(trim(b)).and_then(|d| i32::try_from(d).ok())
 }
 
-/// A cell that does not fit the column's override type.
+fn parse_datetime(b: &[u8]) -> Option<i64> {
+    let b = trim(b);
+    parse_datetime_bytes(b).or_else(|| parse_date_bytes(b).map(|d| d * 86_400_000))
+}
+
+/// The family the first non-null cell belongs to.
+fn first_kind(col: &TextColumn, rules: &CellRules) -> Inferred {
+    for i in 0..col.len() {
+        let c = col.cell(i);
+        if rules.is_null(c) {
+            continue;
+        }
+        return if parse_int(c).is_some() {
+            Inferred::Int
+        } else if parse_float(c, rules.decimal_comma).is_some() {
+            Inferred::Float
+        } else if parse_bool(c).is_some() {
+            Inferred::Bool
+        } else if parse_date(c).is_some() {
+            Inferred::Date
+        } else if parse_datetime(c).is_some() {
+            Inferred::DateTime
+        } else {
+            Inferred::Text
+        };
+    }
+    Inferred::Text
+}
+
+/// Parse every non-null cell with `f`; `Err(row)` names the first that fails.
+fn scan<T: Default + Copy>(
+    col: &TextColumn,
+    rules: &CellRules,
+    f: impl Fn(&[u8]) -> Option<T>,
+) -> Result<(Vec<T>, Option<NullBuffer>), usize> {
+    let n = col.len();
+    let mut vals = Vec::with_capacity(n);
+    let mut nulls: Option<BooleanBufferBuilder> = None;
+    for i in 0..n {
+        let c = col.cell(i);
+        match f(c) {
+            Some(v) => {
+                vals.push(v);
+                if let Some(b) = nulls.as_mut() {
+                    b.append(true);
+                }
+            }
+            None if rules.is_null(c) => {
+                vals.push(T::default());
+                nulls
+                    .get_or_insert_with(|| {
+                        let mut b = BooleanBufferBuilder::new(n);
+                        b.append_n(i, true);
+                        b
+                    })
+                    .append(false);
+            }
+            None => return Err(i),
+        }
+    }
+    Ok((vals, nulls.map(|mut b| NullBuffer::new(b.finish()))))
+}
+
+/// A cell that does not fit the column's type.
 #[derive(Debug, Clone, PartialEq)]
 pub struct CellError {
+    /// 0-based data row.
     pub row: usize,
     pub value: String,
     pub expected: &'static str,
+    /// The cell is not valid UTF-8 (byte offset inside the cell).
+    pub invalid_utf8: Option<usize>,
 }
 
-/// Build one Arrow column from text cells (`None` is missing).
-pub fn build(cells: &[Option<&str>], forced: Option<ColumnType>) -> Result<ArrayRef, CellError> {
+const EXPECT_NUMBER: &str = "a number";
+const EXPECT_BOOL: &str = "true or false";
+const EXPECT_DATE: &str = "a date (yyyy-MM-dd) or an ISO 8601 date-time";
+
+fn cell_error(col: &TextColumn, row: usize, expected: &'static str) -> CellError {
+    CellError { row, value: String::from_utf8_lossy(col.cell(row)).into_owned(), expected, invalid_utf8: None }
+}
+
+/// Build one Arrow column from text cells: the override type if given, else
+/// the narrowest of integer, number, bool, date, date-time and text that
+/// every non-null cell fits.
+pub fn build(col: TextColumn, forced: Option<ColumnType>, rules: &CellRules) -> Result<ArrayRef, CellError> {
+    let dc = rules.decimal_comma;
     let kind = match forced {
-        None => infer(cells),
+        None => first_kind(&col, rules),
         Some(ColumnType::Number) => Inferred::Float,
         Some(ColumnType::Text) => Inferred::Text,
         Some(ColumnType::Bool) => Inferred::Bool,
-        Some(ColumnType::Date) => {
-            if cells.iter().flatten().all(|c| parse_date(c).is_some()) { Inferred::Date } else { Inferred::DateTime }
-        }
+        Some(ColumnType::Date) => Inferred::Date,
     };
-    fn typed<T>(cells: &[Option<&str>], expected: &'static str, f: impl Fn(&str) -> Option<T>) -> Result<Vec<Option<T>>, CellError> {
-        cells
-            .iter()
-            .enumerate()
-            .map(|(row, c)| match c {
-                None => Ok(None),
-                Some(s) => f(s).map(Some).ok_or_else(|| CellError { row, value: s.to_string(), expected }),
-            })
-            .collect()
+    let strict = forced.is_some();
+    let fallback = |col: TextColumn, row: usize, expected| {
+        if strict { Err(cell_error(&col, row, expected)) } else { text(col, rules) }
+    };
+    match kind {
+        Inferred::Int => match scan(&col, rules, parse_int) {
+            Ok((v, n)) => Ok(Arc::new(Int64Array::new(ScalarBuffer::from(v), n))),
+            Err(_) => float(col, rules, dc, strict),
+        },
+        Inferred::Float => float(col, rules, dc, strict),
+        Inferred::Bool => match scan(&col, rules, parse_bool) {
+            Ok((v, n)) => Ok(Arc::new(BooleanArray::new(v.into_iter().collect(), n))),
+            Err(row) => fallback(col, row, EXPECT_BOOL),
+        },
+        Inferred::Date => match scan(&col, rules, parse_date) {
+            Ok((v, n)) => Ok(Arc::new(Date32Array::new(ScalarBuffer::from(v), n))),
+            Err(_) => datetime(col, rules, strict),
+        },
+        Inferred::DateTime => datetime(col, rules, strict),
+        Inferred::Text => text(col, rules),
     }
-    Ok(match kind {
-        Inferred::Int => Arc::new(Int64Array::from(typed(cells, "an integer", parse_int)?)),
-        Inferred::Float => Arc::new(Float64Array::from(typed(cells, "a number", parse_number)?)),
-        Inferred::Bool => Arc::new(BooleanArray::from(typed(cells, "true or false", parse_bool)?)),
-        Inferred::Date => Arc::new(Date32Array::from(typed(cells, "a date (yyyy-MM-dd)", |s| parse_date(s).map(|d| d as i32))?)),
-        Inferred::DateTime => Arc::new(
-            TimestampMillisecondArray::from(typed(cells, "an ISO 8601 date or date-time", |s| {
-                parse_datetime(s).or_else(|| parse_date(s).map(|d| d * 86_400_000))
-            })?)
-            .with_timezone("UTC"),
-        ),
-        Inferred::Text => Arc::new(StringArray::from(cells.to_vec())),
-    })
+}
+
+fn float(col: TextColumn, rules: &CellRules, dc: bool, strict: bool) -> Result<ArrayRef, CellError> {
+    match scan(&col, rules, |c| parse_float(c, dc)) {
+        Ok((v, n)) => Ok(Arc::new(Float64Array::new(ScalarBuffer::from(v), n))),
+        Err(row) if strict => Err(cell_error(&col, row, if dc { "a number (decimal comma)" } else { EXPECT_NUMBER })),
+        Err(_) => text(col, rules),
+    }
+}
+
+fn datetime(col: TextColumn, rules: &CellRules, strict: bool) -> Result<ArrayRef, CellError> {
+    match scan(&col, rules, parse_datetime) {
+        Ok((v, n)) => Ok(Arc::new(TimestampMillisecondArray::new(ScalarBuffer::from(v), n).with_timezone("UTC"))),
+        Err(row) if strict => Err(cell_error(&col, row, EXPECT_DATE)),
+        Err(_) => text(col, rules),
+    }
+}
+
+/// The cells as an Arrow Utf8 array without copying the bytes; null tokens
+/// become nulls.
+fn text(col: TextColumn, rules: &CellRules) -> Result<ArrayRef, CellError> {
+    if let Err(e) = std::str::from_utf8(&col.values) {
+        let pos = e.valid_up_to();
+        let row = col.cell_at_byte(pos);
+        let at = pos - col.offsets[row] as usize;
+        return Err(CellError {
+            row,
+            value: String::from_utf8_lossy(col.cell(row)).into_owned(),
+            expected: "UTF-8 text",
+            invalid_utf8: Some(at),
+        });
+    }
+    let n = col.len();
+    let nulls = text_nulls(&col, rules);
+    let TextColumn { values, offsets } = col;
+    let offsets = OffsetBuffer::new(ScalarBuffer::from(offsets));
+    StringArray::try_new(offsets, Buffer::from_vec(values), nulls)
+        .map(|a| Arc::new(a) as ArrayRef)
+        .map_err(|e| CellError { row: n, value: e.to_string(), expected: "UTF-8 text", invalid_utf8: Some(0) })
+}
+
+fn text_nulls(col: &TextColumn, rules: &CellRules) -> Option<NullBuffer> {
+    let n = col.len();
+    let mut any = false;
+    let mut b = BooleanBufferBuilder::new(n);
+    for i in 0..n {
+        let null = rules.is_null(col.cell(i));
+        any |= null;
+        b.append(!null);
+    }
+    any.then(|| NullBuffer::new(b.finish()))
+}
+
+pub(crate) fn type_word(t: ColumnType) -> &'static str {
+    match t {
+        ColumnType::Number => "number",
+        ColumnType::Text => "text",
+        ColumnType::Date => "date",
+        ColumnType::Bool => "bool",
+    }
 }
 
 /// Make header names unique and non-empty; returns warnings for renamed ones.
 pub fn unique_names(raw: Vec<String>) -> (Vec<String>, Vec<String>) {
     let mut out: Vec<String> = Vec::with_capacity(raw.len());
+    let mut seen = std::collections::HashSet::new();
     let mut notes = Vec::new();
     for (i, name) in raw.into_iter().enumerate() {
         let base = if name.trim().is_empty() { format!("column_{}", i + 1) } else { name.clone() };
         let mut candidate = base.clone();
         let mut k = 2;
-        while out.contains(&candidate) {
+        while seen.contains(&candidate) {
             candidate = format!("{base}_{k}");
             k += 1;
         }
         if candidate != name {
             notes.push(format!("header {} `{}` renamed to `{}`", i + 1, name, candidate));
         }
+        seen.insert(candidate.clone());
         out.push(candidate);
     }
     (out, notes)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use arrow_array::Array;
+    use arrow_schema::{DataType, TimeUnit};
+
+    fn col(cells: &[&str]) -> TextColumn {
+        let mut c = TextColumn::default();
+        for s in cells {
+            assert!(c.push(s.as_bytes()));
+        }
+        c
+    }
+
+    fn ty(cells: &[&str]) -> DataType {
+        build(col(cells), None, &CellRules::default()).unwrap().data_type().clone()
+    }
+
+    #[test]
+    fn inference_widens_within_a_family_only() {
+        assert_eq!(ty(&["1", "NA", "-3"]), DataType::Int64);
+        assert_eq!(ty(&["1", "2.5"]), DataType::Float64);
+        assert_eq!(ty(&["", "1e3", "-.5"]), DataType::Float64);
+        assert_eq!(ty(&["true", "False"]), DataType::Boolean);
+        assert_eq!(ty(&["2024-01-02", "2024-01-03"]), DataType::Date32);
+        assert_eq!(ty(&["2024-01-02", "2024-01-03T04:05:06Z"]), DataType::Timestamp(TimeUnit::Millisecond, Some("UTC".into())));
+        assert_eq!(ty(&["1", "true"]), DataType::Utf8);
+        assert_eq!(ty(&["1", "inf"]), DataType::Utf8);
+        assert_eq!(ty(&["NaN"]), DataType::Utf8);
+        assert_eq!(ty(&["", "NA"]), DataType::Utf8);
+        // 2^63 does not fit i64, so the column is a float one.
+        assert_eq!(ty(&["9223372036854775808"]), DataType::Float64);
+        assert_eq!(ty(&["-9223372036854775808"]), DataType::Int64);
+    }
+
+    #[test]
+    fn integers_at_the_edges() {
+        assert_eq!(parse_int(b"-9223372036854775808"), Some(i64::MIN));
+        assert_eq!(parse_int(b"9223372036854775807"), Some(i64::MAX));
+        assert_eq!(parse_int(b"9223372036854775808"), None);
+        assert_eq!(parse_int(b"99999999999999999999"), None);
+        assert_eq!(parse_int(b" 42 "), Some(42));
+        assert_eq!(parse_int(b"+"), None);
+        assert_eq!(parse_int(b"4 2"), None);
+    }
+
+    #[test]
+    fn decimal_comma() {
+        assert_eq!(parse_float(b"1,5", true), Some(1.5));
+        assert_eq!(parse_float(b"1.5", true), None);
+        assert_eq!(parse_float(b"1,5", false), None);
+    }
+
+    #[test]
+    fn text_keeps_bytes_and_nulls() {
+        let a = build(col(&["a", "NA", "c"]), None, &CellRules::default()).unwrap();
+        let s = a.as_any().downcast_ref::<StringArray>().unwrap();
+        assert_eq!(s.value(0), "a");
+        assert!(s.is_null(1));
+        assert_eq!(s.value(2), "c");
+    }
+
+    #[test]
+    fn invalid_utf8_is_located() {
+        let mut c = col(&["ok"]);
+        c.push(b"bad\xff");
+        let e = build(c, None, &CellRules::default()).unwrap_err();
+        assert_eq!(e.row, 1);
+        assert_eq!(e.invalid_utf8, Some(3));
+    }
+
+    #[test]
+    fn override_mismatch_is_an_error_not_text() {
+        let e = build(col(&["1", "x"]), Some(ColumnType::Number), &CellRules::default()).unwrap_err();
+        assert_eq!((e.row, e.value.as_str()), (1, "x"));
+    }
 }

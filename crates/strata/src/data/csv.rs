@@ -1,168 +1,393 @@
-//! Delimited text (RFC 4180 CSV, TSV) tokenised with `csv-core` straight into
-//! column cells, then typed into Arrow arrays.
+//! Delimited text (RFC 4180 CSV, TSV, other single-byte delimiters)
+//! tokenised with `csv-core` straight into per-column byte buffers, then
+//! typed into Arrow arrays column by column.
+//!
+//! No per-row or per-field objects are made: each column is one `Vec<u8>`
+//! plus one `i32` end offset per cell, which is already the layout of an
+//! Arrow Utf8 array. Line numbers are not tracked while reading; an error
+//! finds its line afterwards from the record's byte offset.
 
-use super::columns::{build, is_null, unique_names};
-use super::Table;
+use super::columns::{build, type_word, unique_names, CellError, CellRules, TextColumn};
+use super::{ReadOptions, Table};
 use crate::error::{Diagnostic, Errors};
-use crate::spec::ColumnType;
 use arrow_array::RecordBatch;
 use arrow_schema::{Field, Schema};
-use csv_core::{ReadFieldResult, Reader, ReaderBuilder};
-use indexmap::IndexMap;
+use csv_core::{ReadRecordResult, ReaderBuilder};
 use std::sync::Arc;
 
-/// Read delimited text with a header row.
-pub fn read(bytes: &[u8], delimiter: u8, types: &IndexMap<String, ColumnType>) -> Result<Table, Errors> {
-    let bytes = bytes.strip_prefix(b"\xEF\xBB\xBF").unwrap_or(bytes);
-    let text = std::str::from_utf8(bytes).map_err(|e| {
-        let line = 1 + bytes[..e.valid_up_to()].iter().filter(|b| **b == b'\n').count() as u64;
-        Diagnostic::error("data.invalid_utf8", format!("the data is not valid UTF-8 (byte {})", e.valid_up_to())).at_data(line, None)
-    })?;
-    let mut rdr: Reader = ReaderBuilder::new().delimiter(delimiter).build();
-    // Field text for every cell, row-major, with the row's starting line.
-    let mut fields: Vec<String> = Vec::new();
-    let mut row_lens: Vec<usize> = Vec::new();
-    let mut row_lines: Vec<u64> = Vec::new();
-    let mut input = text.as_bytes();
-    let mut out = vec![0u8; 4096];
-    let mut field = Vec::<u8>::new();
-    let mut cur_len = 0usize;
-    let mut line: u64 = 1;
-    let mut row_line: u64 = 1;
+/// Most errors of one kind listed before reading stops.
+const MAX_LISTED: usize = 5;
+
+/// Call `f(start, fields, ends)` for each record: `start` is the byte offset
+/// where the record's text begins (blank lines before it included), `fields`
+/// the unescaped field bytes back to back and `ends` each field's end in
+/// `fields`. `f` returns `false` to stop. Returns the start of the last
+/// record seen when the input ran out, `None` when `f` stopped early.
+pub(crate) fn for_each_record<F>(bytes: &[u8], delimiter: u8, mut f: F) -> Option<Option<usize>>
+where
+    F: FnMut(usize, &[u8], &[usize]) -> bool,
+{
+    let mut rdr = ReaderBuilder::new().delimiter(delimiter).build();
+    let mut out = vec![0u8; 1 << 16];
+    let mut ends = vec![0usize; 64];
+    let (mut pos, mut nout, mut nend, mut start) = (0usize, 0usize, 0usize, 0usize);
+    let mut last = None;
     loop {
-        let (res, nin, nout) = rdr.read_field(input, &mut out);
-        line += input[..nin].iter().filter(|b| **b == b'\n').count() as u64;
-        input = &input[nin..];
-        field.extend_from_slice(&out[..nout]);
+        let (res, i, o, e) = rdr.read_record(&bytes[pos..], &mut out[nout..], &mut ends[nend..]);
+        pos += i;
+        nout += o;
+        nend += e;
         match res {
-            ReadFieldResult::InputEmpty => {
-                if input.is_empty() {
-                    // Signal end of input on the next call.
-                    let (res2, _, nout2) = rdr.read_field(&[], &mut out);
-                    field.extend_from_slice(&out[..nout2]);
-                    match res2 {
-                        ReadFieldResult::Field { record_end } => {
-                            push_field(&mut fields, &mut field, &mut cur_len);
-                            if record_end {
-                                end_row(&mut row_lens, &mut row_lines, &mut cur_len, row_line);
-                            }
-                        }
-                        _ => {}
-                    }
-                    break;
-                }
+            ReadRecordResult::InputEmpty => {}
+            ReadRecordResult::OutputFull => {
+                let n = out.len() * 2;
+                out.resize(n, 0);
             }
-            ReadFieldResult::OutputFull => out.resize(out.len() * 2, 0),
-            ReadFieldResult::Field { record_end } => {
-                push_field(&mut fields, &mut field, &mut cur_len);
-                if record_end {
-                    end_row(&mut row_lens, &mut row_lines, &mut cur_len, row_line);
-                    row_line = line;
-                }
+            ReadRecordResult::OutputEndsFull => {
+                let n = ends.len() * 2;
+                ends.resize(n, 0);
             }
-            ReadFieldResult::End => break,
+            ReadRecordResult::Record => {
+                if !f(start, &out[..nout], &ends[..nend]) {
+                    return None;
+                }
+                last = Some(start);
+                start = pos;
+                nout = 0;
+                nend = 0;
+            }
+            ReadRecordResult::End => return Some(last),
         }
     }
-    if row_lens.is_empty() {
-        return Err(Diagnostic::error("data.empty", "the data has no header row").at_data(1, None).into());
+}
+
+/// 1-based line of the first record text at or after byte `off` (blank
+/// lines skipped). LF, CRLF and a lone CR each end a line.
+pub(crate) fn line_at(bytes: &[u8], off: usize) -> u64 {
+    let mut p = off.min(bytes.len());
+    while p < bytes.len() && (bytes[p] == b'\n' || bytes[p] == b'\r') {
+        p += 1;
     }
-    let ncols = row_lens[0];
-    let header: Vec<String> = fields[..ncols].to_vec();
-    let (names, notes) = unique_names(header);
-    let mut errors = Vec::new();
-    for (r, len) in row_lens.iter().enumerate().skip(1) {
-        if *len != ncols && !(*len == 1 && ncols > 1 && fields_row_is_blank(&fields, &row_lens, r)) {
-            errors.push(
-                Diagnostic::error(
-                    "data.ragged_row",
-                    format!("row has {len} fields but the header has {ncols}"),
-                )
-                .at_data(row_lines[r], Some((*len).min(ncols) as u64 + 1)),
-            );
-            if errors.len() >= 5 {
-                break;
+    line_of_byte(bytes, p)
+}
+
+/// 1-based line holding byte `p`.
+pub(crate) fn line_of_byte(bytes: &[u8], p: usize) -> u64 {
+    let head = &bytes[..p.min(bytes.len())];
+    let mut line = 1u64;
+    for (i, &b) in head.iter().enumerate() {
+        if b == b'\n' || (b == b'\r' && bytes.get(i + 1) != Some(&b'\n')) {
+            line += 1;
+        }
+    }
+    line
+}
+
+/// Byte offset where record `k` (0 = header) starts.
+fn record_start(bytes: &[u8], delimiter: u8, k: usize) -> usize {
+    let mut n = 0;
+    let mut found = bytes.len();
+    for_each_record(bytes, delimiter, |start, _, _| {
+        if n == k {
+            found = start;
+            return false;
+        }
+        n += 1;
+        true
+    });
+    found
+}
+
+/// If the text of the last record leaves a quoted field open at the end of
+/// the input, the byte offset of its opening quote and its field number.
+fn open_quote(raw: &[u8], delimiter: u8) -> Option<(usize, usize)> {
+    let mut i = 0;
+    let mut field = 0;
+    let mut at_start = true;
+    while i < raw.len() {
+        let c = raw[i];
+        if at_start && c == b'"' {
+            let open = i;
+            i += 1;
+            loop {
+                match raw[i.min(raw.len())..].iter().position(|b| *b == b'"') {
+                    None => return Some((open, field)),
+                    Some(j) => {
+                        let q = i + j;
+                        if raw.get(q + 1) == Some(&b'"') {
+                            i = q + 2;
+                        } else {
+                            i = q + 1;
+                            break;
+                        }
+                    }
+                }
             }
+            at_start = false;
+            continue;
+        }
+        if c == delimiter {
+            field += 1;
+            at_start = true;
+        } else if c == b'\n' || c == b'\r' {
+            field = 0;
+            at_start = true;
+        } else {
+            at_start = false;
+        }
+        i += 1;
+    }
+    None
+}
+
+/// The tokenised table: header cells and one text column per header cell.
+pub(crate) struct Parsed {
+    pub header: Vec<Vec<u8>>,
+    pub columns: Vec<TextColumn>,
+}
+
+fn tokenize(bytes: &[u8], delimiter: u8, max_rows: usize) -> Result<Parsed, Errors> {
+    let mut header: Option<Vec<Vec<u8>>> = None;
+    let mut columns: Vec<TextColumn> = Vec::new();
+    let mut errors: Vec<Diagnostic> = Vec::new();
+    let mut fatal: Option<Diagnostic> = None;
+    let mut rows = 0usize;
+    let done = for_each_record(bytes, delimiter, |start, buf, ends| {
+        let Some(h) = &header else {
+            let mut s = 0;
+            let cells: Vec<Vec<u8>> = ends
+                .iter()
+                .map(|&e| {
+                    let c = buf[s..e].to_vec();
+                    s = e;
+                    c
+                })
+                .collect();
+            // Reserve a share of the input per column; pages are only
+            // touched as they fill.
+            let share = bytes.len() / cells.len().max(1) + 16;
+            columns = (0..cells.len())
+                .map(|_| {
+                    let mut c = TextColumn::default();
+                    c.values.reserve(share);
+                    c
+                })
+                .collect();
+            header = Some(cells);
+            return true;
+        };
+        let ncols = h.len();
+        if ends.len() != ncols {
+            let n = ends.len();
+            errors.push(
+                Diagnostic::error("data.ragged_row", format!("this row has {n} fields but the header has {ncols}"))
+                    .at_data(line_at(bytes, start), Some(n.min(ncols) as u64 + 1))
+                    .with_hint(if n > ncols {
+                        "quote fields that hold the delimiter, or add the missing header names"
+                    } else {
+                        "every row needs as many fields as the header; leave a field empty for a missing value"
+                    }),
+            );
+            return errors.len() < MAX_LISTED;
+        }
+        if !errors.is_empty() {
+            return true;
+        }
+        rows += 1;
+        if rows > max_rows {
+            fatal = Some(
+                Diagnostic::error("data.too_many_rows", format!("the data has more than {max_rows} rows, the row cap"))
+                    .at_data(line_at(bytes, start), None)
+                    .with_hint("raise the row cap (`ReadOptions::max_rows`) where the data is loaded, or filter the file before charting it"),
+            );
+            return false;
+        }
+        let mut s = 0;
+        for (col, &e) in columns.iter_mut().zip(ends) {
+            if !col.push(&buf[s..e]) {
+                fatal = Some(
+                    Diagnostic::error("data.too_large", "a column holds more than 2 GiB of text, more than one Arrow column can hold")
+                        .at_data(line_at(bytes, start), None),
+                );
+                return false;
+            }
+            s = e;
+        }
+        true
+    });
+    if let Some(d) = fatal {
+        return Err(d.into());
+    }
+    if let Some(Some(last)) = done {
+        if let Some((open, field)) = open_quote(&bytes[last..], delimiter) {
+            let at = last + open;
+            let line = line_of_byte(bytes, at);
+            errors.retain(|e| e.at.line.is_some_and(|l| l < line));
+            errors.push(
+                Diagnostic::error("data.unterminated_quote", "a quoted field is never closed: expected a closing `\"` before the end of the data")
+                    .at_data(line, Some(field as u64 + 1))
+                    .with_hint("close the quote, or double a quote that is part of the text (`\"\"`)"),
+            );
         }
     }
     if !errors.is_empty() {
         return Err(Errors(errors));
     }
-    // Gather column cells, skipping blank lines.
-    let mut starts = Vec::with_capacity(row_lens.len());
-    let mut acc = 0;
-    for len in &row_lens {
-        starts.push(acc);
-        acc += len;
+    let Some(header) = header else {
+        return Err(Diagnostic::error("data.empty", "the data is empty: expected a header row").at_data(1, None).into());
+    };
+    Ok(Parsed { header, columns })
+}
+
+/// Every record's cells as text, header first, for tests against other
+/// readers. Errors as [`read`] reports them (unterminated quote).
+pub fn records(bytes: &[u8], delimiter: u8) -> Result<Vec<Vec<String>>, Errors> {
+    let bytes = bytes.strip_prefix(b"\xEF\xBB\xBF").unwrap_or(bytes);
+    let mut rows = Vec::new();
+    let done = for_each_record(bytes, delimiter, |_, buf, ends| {
+        let mut s = 0;
+        rows.push(
+            ends.iter()
+                .map(|&e| {
+                    let c = String::from_utf8_lossy(&buf[s..e]).into_owned();
+                    s = e;
+                    c
+                })
+                .collect(),
+        );
+        true
+    });
+    if let Some(Some(last)) = done {
+        if let Some((open, field)) = open_quote(&bytes[last..], delimiter) {
+            return Err(Diagnostic::error("data.unterminated_quote", "a quoted field is never closed")
+                .at_data(line_of_byte(bytes, last + open), Some(field as u64 + 1))
+                .into());
+        }
     }
-    let data_rows: Vec<usize> = (1..row_lens.len()).filter(|r| row_lens[*r] == ncols).collect();
-    let mut arrays = Vec::with_capacity(ncols);
-    let mut schema_fields = Vec::with_capacity(ncols);
-    for (c, name) in names.iter().enumerate() {
-        let cells: Vec<Option<&str>> = data_rows
-            .iter()
-            .map(|r| {
-                let s = fields[starts[*r] + c].as_str();
-                if is_null(s) { None } else { Some(s) }
-            })
-            .collect();
-        let forced = types.get(name).copied();
-        let arr = build(&cells, forced).map_err(|e| {
-            let r = data_rows[e.row];
-            Diagnostic::error(
-                "data.type_mismatch",
-                format!("column `{name}` is declared `{}` but holds `{}`, which is not {}", forced.map(type_word).unwrap_or("?"), e.value, e.expected),
-            )
-            .at_path(format!("data.types.{name}"))
-            .at_data(row_lines[r], Some(c as u64 + 1))
-        })?;
-        schema_fields.push(Field::new(name, arr.data_type().clone(), true));
+    Ok(rows)
+}
+
+/// Pick the delimiter among comma, semicolon, tab and pipe: the one that
+/// splits the first records into the same number (above one) of fields,
+/// the most fields winning; comma when none does.
+pub fn sniff_delimiter(bytes: &[u8]) -> u8 {
+    const CANDIDATES: [u8; 4] = [b',', b';', b'\t', b'|'];
+    const SAMPLE: usize = 64 * 1024;
+    const RECORDS: usize = 50;
+    let bytes = bytes.strip_prefix(b"\xEF\xBB\xBF").unwrap_or(bytes);
+    let truncated = bytes.len() > SAMPLE;
+    let sample = &bytes[..bytes.len().min(SAMPLE)];
+    let mut best: Option<(usize, bool, u8)> = None; // (fields, consistent, delimiter)
+    for d in CANDIDATES {
+        let mut counts = Vec::new();
+        for_each_record(sample, d, |_, _, ends| {
+            counts.push(ends.len());
+            counts.len() <= RECORDS
+        });
+        if truncated && counts.len() > 1 && counts.len() <= RECORDS {
+            counts.pop();
+        }
+        let Some(&first) = counts.first() else { continue };
+        let consistent = counts.iter().all(|c| *c == first);
+        if first < 2 {
+            continue;
+        }
+        let better = match best {
+            None => true,
+            Some((f, c, _)) => (consistent && !c) || (consistent == c && first > f),
+        };
+        if better {
+            best = Some((first, consistent, d));
+        }
+    }
+    best.map(|b| b.2).unwrap_or(b',')
+}
+
+/// Read delimited text with a header row.
+pub fn read(bytes: &[u8], delimiter: u8, opts: &ReadOptions) -> Result<Table, Errors> {
+    let bytes = bytes.strip_prefix(b"\xEF\xBB\xBF").unwrap_or(bytes);
+    if opts.decimal_comma && delimiter == b',' {
+        return Err(Diagnostic::error("data.decimal_comma", "a decimal comma needs a delimiter other than the comma")
+            .with_hint("use semicolon- or tab-separated data with a decimal comma")
+            .into());
+    }
+    let Parsed { header, columns } = tokenize(bytes, delimiter, opts.max_rows)?;
+    let mut raw_names = Vec::with_capacity(header.len());
+    for (c, h) in header.into_iter().enumerate() {
+        match String::from_utf8(h) {
+            Ok(s) => raw_names.push(s),
+            Err(e) => {
+                return Err(Diagnostic::error(
+                    "data.invalid_utf8",
+                    format!("the header is not valid UTF-8 (byte {} of header cell {})", e.utf8_error().valid_up_to() + 1, c + 1),
+                )
+                .at_data(line_at(bytes, 0), Some(c as u64 + 1))
+                .with_hint("save the file as UTF-8")
+                .into());
+            }
+        }
+    }
+    let (names, notes) = unique_names(raw_names.clone());
+    let mut warnings: Vec<Diagnostic> = notes
+        .into_iter()
+        .zip(raw_names.iter().zip(&names).enumerate().filter(|(_, (r, n))| r != n).map(|(i, _)| i))
+        .map(|(n, i)| Diagnostic::warning("data.renamed_header", n).at_data(line_at(bytes, 0), Some(i as u64 + 1)))
+        .collect();
+    warnings.extend(super::unknown_type_keys(&opts.types, &names));
+    let rules = CellRules::new(&opts.null_tokens, opts.decimal_comma);
+    let mut arrays = Vec::with_capacity(names.len());
+    let mut fields = Vec::with_capacity(names.len());
+    for (c, (col, name)) in columns.into_iter().zip(&names).enumerate() {
+        let forced = opts.types.get(name).copied();
+        let arr = build(col, forced, &rules).map_err(|e| cell_error(bytes, delimiter, name, c, forced, e))?;
+        fields.push(Field::new(name, arr.data_type().clone(), true));
         arrays.push(arr);
     }
-    let batch = RecordBatch::try_new(Arc::new(Schema::new(schema_fields)), arrays)
-        .map_err(|e| Diagnostic::error("data.internal", e.to_string()))?;
-    let warnings = notes.into_iter().map(|n| Diagnostic::warning("data.renamed_header", n).at_data(1, None)).collect();
+    let schema = Arc::new(Schema::new(fields));
+    let batch = if arrays.is_empty() {
+        RecordBatch::new_empty(schema)
+    } else {
+        RecordBatch::try_new(schema, arrays).map_err(|e| Diagnostic::error("data.internal", e.to_string()))?
+    };
     Ok(Table { batch, warnings })
 }
 
-pub(crate) fn type_word(t: ColumnType) -> &'static str {
-    match t {
-        ColumnType::Number => "number",
-        ColumnType::Text => "text",
-        ColumnType::Date => "date",
-        ColumnType::Bool => "bool",
-    }
-}
-
-fn fields_row_is_blank(fields: &[String], row_lens: &[usize], r: usize) -> bool {
-    let start: usize = row_lens[..r].iter().sum();
-    fields[start].is_empty()
-}
-
-fn push_field(fields: &mut Vec<String>, field: &mut Vec<u8>, cur_len: &mut usize) {
-    // csv-core hands back bytes of valid UTF-8 input split only at ASCII
-    // delimiters, so each field is valid UTF-8.
-    fields.push(String::from_utf8_lossy(field).into_owned());
-    field.clear();
-    *cur_len += 1;
-}
-
-fn end_row(row_lens: &mut Vec<usize>, row_lines: &mut Vec<u64>, cur_len: &mut usize, line: u64) {
-    row_lens.push(*cur_len);
-    row_lines.push(line);
-    *cur_len = 0;
+fn cell_error(bytes: &[u8], delimiter: u8, name: &str, c: usize, forced: Option<crate::spec::ColumnType>, e: CellError) -> Errors {
+    let line = line_at(bytes, record_start(bytes, delimiter, e.row + 1));
+    let d = match (e.invalid_utf8, forced) {
+        (Some(at), _) => Diagnostic::error(
+            "data.invalid_utf8",
+            format!("the data is not valid UTF-8: byte {} of the cell in column `{name}` is not part of a UTF-8 character", at + 1),
+        )
+        .with_hint("save the file as UTF-8"),
+        (None, Some(t)) => Diagnostic::error(
+            "data.type_mismatch",
+            format!("column `{name}` is declared `{}` but holds `{}`: expected {}", type_word(t), e.value, e.expected),
+        )
+        .at_path(format!("data.types.{name}"))
+        .with_hint(format!("fix the cell, make it empty for a missing value, or drop `{name}` from `data.types`")),
+        (None, None) => Diagnostic::error("data.internal", format!("column `{name}`: {}", e.value)),
+    };
+    d.at_data(line, Some(c as u64 + 1)).into()
 }
 
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::spec::ColumnType;
     use arrow_array::{Array, Float64Array, Int64Array, StringArray};
+    use indexmap::IndexMap;
+
+    fn opts() -> ReadOptions {
+        ReadOptions::default()
+    }
 
     fn t(s: &str) -> Table {
-        read(s.as_bytes(), b',', &IndexMap::new()).unwrap()
+        read(s.as_bytes(), b',', &opts()).unwrap()
     }
 
     #[test]
-    fn rfc4180_quotes_crlf_and_bom() {
+    fn quotes_crlf_and_bom() {
         // RFC 4180 (Shafranovich 2005) section 2, rules 6 and 7: quoted
         // fields may hold commas, line breaks and doubled quotes.
         let tb = t("\u{feff}a,b\r\n1,\"x, \"\"y\"\"\r\nz\"\r\n2,w\r\n");
@@ -171,10 +396,11 @@ mod tests {
         assert_eq!(b.value(0), "x, \"y\"\r\nz");
         let a = tb.batch.column(0).as_any().downcast_ref::<Int64Array>().unwrap();
         assert_eq!(a.value(1), 2);
+        assert_eq!(tb.column_names(), vec!["a", "b"]);
     }
 
     #[test]
-    fn nulls_and_floats() {
+    fn nulls_floats_and_blank_lines() {
         let tb = t("v\n1.5\nNA\n\n-2\n");
         let v = tb.batch.column(0).as_any().downcast_ref::<Float64Array>().unwrap();
         assert_eq!(v.len(), 3);
@@ -183,19 +409,107 @@ mod tests {
     }
 
     #[test]
-    fn ragged_row_is_located() {
-        let e = read(b"a,b\n1,2\n3\n4,5,6\n", b',', &IndexMap::new()).unwrap_err();
+    fn lone_cr_ends_lines() {
+        let tb = t("a,b\r1,2\r3,4");
+        assert_eq!(tb.num_rows(), 2);
+        let e = read(b"a,b\r1,2\r3\r", b',', &opts()).unwrap_err();
         assert_eq!(e.0[0].at.line, Some(3));
-        assert_eq!(e.0[1].at.line, Some(4));
+    }
+
+    #[test]
+    fn ragged_rows_are_located() {
+        let e = read(b"a,b\n1,2\n3\n\n4,5,6\n", b',', &opts()).unwrap_err();
+        assert_eq!(e.0.len(), 2);
+        assert_eq!((e.0[0].at.line, e.0[0].at.column), (Some(3), Some(2)));
+        assert_eq!((e.0[1].at.line, e.0[1].at.column), (Some(5), Some(3)));
         assert_eq!(e.0[0].code, "data.ragged_row");
     }
 
     #[test]
+    fn unterminated_quote_is_located() {
+        let e = read(b"a,b\n1,2\n3,\"oops\n4,5\n", b',', &opts()).unwrap_err();
+        assert_eq!(e.0[0].code, "data.unterminated_quote");
+        assert_eq!((e.0[0].at.line, e.0[0].at.column), (Some(3), Some(2)));
+        // A closed quote followed by more text is not an open quote.
+        assert!(read(b"a\n\"x\"\"y\"z\n", b',', &opts()).is_ok());
+    }
+
+    #[test]
+    fn invalid_utf8_is_located() {
+        let e = read(b"a,b\n1,ok\n2,b\xffd\n", b',', &opts()).unwrap_err();
+        assert_eq!(e.0[0].code, "data.invalid_utf8");
+        assert_eq!((e.0[0].at.line, e.0[0].at.column), (Some(3), Some(2)));
+        let e = read(b"a,\xc3\n1,2\n", b',', &opts()).unwrap_err();
+        assert_eq!((e.0[0].at.line, e.0[0].at.column), (Some(1), Some(2)));
+    }
+
+    #[test]
     fn override_mismatch_names_spec_path() {
-        let mut types = IndexMap::new();
-        types.insert("a".to_string(), ColumnType::Number);
-        let e = read(b"a\n1\nabc\n", b',', &types).unwrap_err();
+        let mut o = opts();
+        o.types.insert("a".to_string(), ColumnType::Number);
+        let e = read(b"a\n1\n\"multi\nline\"\nabc\n", b',', &o).unwrap_err();
         assert_eq!(e.0[0].at.path, "data.types.a");
         assert_eq!(e.0[0].at.line, Some(3));
+        assert!(e.0[0].message.contains("multi"), "{}", e.0[0].message);
+    }
+
+    #[test]
+    fn headers_made_unique_with_warnings() {
+        let tb = t("x,,x\n1,2,3\n");
+        assert_eq!(tb.column_names(), vec!["x", "column_2", "x_2"]);
+        assert_eq!(tb.warnings.len(), 2);
+        assert_eq!(tb.warnings[1].at.column, Some(3));
+    }
+
+    #[test]
+    fn row_cap_names_itself() {
+        let mut o = opts();
+        o.max_rows = 2;
+        assert!(read(b"a\n1\n2\n", b',', &o).is_ok());
+        let e = read(b"a\n1\n2\n3\n", b',', &o).unwrap_err();
+        assert_eq!(e.0[0].code, "data.too_many_rows");
+        assert!(e.0[0].message.contains('2'));
+        assert!(e.0[0].hint.as_deref().unwrap().contains("max_rows"));
+    }
+
+    #[test]
+    fn sniffs_delimiters() {
+        assert_eq!(sniff_delimiter(b"a;b;c\n1;2,5;3\n"), b';');
+        assert_eq!(sniff_delimiter(b"a\tb\n1\t2\n"), b'\t');
+        assert_eq!(sniff_delimiter(b"a|b\n\"1|x\"|2\n"), b'|');
+        assert_eq!(sniff_delimiter(b"a,b;c\n1,2;3\n"), b',');
+        assert_eq!(sniff_delimiter(b"\"a,b\";c\n\"1,2\";3\n"), b';');
+        assert_eq!(sniff_delimiter(b"single\n1\n"), b',');
+    }
+
+    #[test]
+    fn decimal_comma_with_semicolons() {
+        let mut o = opts();
+        o.decimal_comma = true;
+        let tb = read(b"a;b\n1,5;x\n-2,25;y\n", b';', &o).unwrap();
+        let a = tb.batch.column(0).as_any().downcast_ref::<Float64Array>().unwrap();
+        assert_eq!((a.value(0), a.value(1)), (1.5, -2.25));
+        assert!(read(b"a\n1\n", b',', &o).is_err());
+    }
+
+    #[test]
+    fn custom_null_tokens() {
+        let mut o = opts();
+        o.null_tokens = vec!["".into(), "missing".into()];
+        let tb = read(b"a,b\n1,NA\nmissing,x\n", b',', &o).unwrap();
+        assert_eq!(tb.batch.column(0).null_count(), 1);
+        // `NA` is text now that it is not a null token.
+        let b = tb.batch.column(1).as_any().downcast_ref::<StringArray>().unwrap();
+        assert_eq!(b.value(0), "NA");
+    }
+
+    #[test]
+    fn header_only_and_empty() {
+        let tb = t("a,b\n");
+        assert_eq!(tb.num_rows(), 0);
+        assert_eq!(tb.batch.num_columns(), 2);
+        assert_eq!(read(b"", b',', &opts()).unwrap_err().0[0].code, "data.empty");
+        assert_eq!(read(b"\n\r\n", b',', &opts()).unwrap_err().0[0].code, "data.empty");
+        let _ = IndexMap::<String, ColumnType>::new();
     }
 }

@@ -1,73 +1,117 @@
 //! JSON arrays of records (and the spec's inline `rows`) into Arrow columns.
 
-use super::columns::{build, unique_names};
-use super::Table;
+use super::columns::{build, type_word, unique_names, CellRules, TextColumn};
+use super::{ReadOptions, Table};
 use crate::error::{Diagnostic, Errors};
 use crate::spec::ColumnType;
-use arrow_array::{ArrayRef, Float64Array, RecordBatch};
+use arrow_array::{ArrayRef, BooleanArray, Float64Array, Int64Array, RecordBatch};
 use arrow_schema::{Field, Schema};
-use indexmap::IndexMap;
+use indexmap::IndexSet;
 use serde_json::{Map, Value};
 use std::sync::Arc;
 
-pub fn read(bytes: &[u8], types: &IndexMap<String, ColumnType>) -> Result<Table, Errors> {
+pub fn read(bytes: &[u8], opts: &ReadOptions) -> Result<Table, Errors> {
     let bytes = bytes.strip_prefix(b"\xEF\xBB\xBF").unwrap_or(bytes);
     let v: Value = serde_json::from_slice(bytes).map_err(|e| {
         Diagnostic::error("data.json_syntax", format!("the data is not valid JSON: {}", strip(&e.to_string())))
-            .at_data(e.line() as u64, Some(e.column() as u64))
+            .at_data(e.line().max(1) as u64, Some(e.column().max(1) as u64))
     })?;
     let Value::Array(items) = v else {
         return Err(Diagnostic::error("data.json_shape", "JSON data must be an array of records (objects)").at_data(1, Some(1)).into());
     };
+    if items.len() > opts.max_rows {
+        return Err(too_many_rows(opts.max_rows));
+    }
     let mut rows = Vec::with_capacity(items.len());
     for (i, it) in items.into_iter().enumerate() {
         match it {
             Value::Object(m) => rows.push(m),
-            _ => {
-                return Err(Diagnostic::error("data.json_shape", format!("item {i} of the JSON array is not an object")).into());
+            other => {
+                return Err(Diagnostic::error(
+                    "data.json_shape",
+                    format!("record {} of the JSON array is {}, expected an object", i + 1, kind(&other)),
+                )
+                .into());
             }
         }
     }
-    from_records(&rows, types)
+    from_records(&rows, opts)
+}
+
+fn too_many_rows(cap: usize) -> Errors {
+    Diagnostic::error("data.too_many_rows", format!("the data has more than {cap} rows, the row cap"))
+        .with_hint("raise the row cap (`ReadOptions::max_rows`) where the data is loaded, or filter the data before charting it")
+        .into()
+}
+
+fn kind(v: &Value) -> &'static str {
+    match v {
+        Value::Null => "null",
+        Value::Bool(_) => "a boolean",
+        Value::Number(_) => "a number",
+        Value::String(_) => "a string",
+        Value::Array(_) => "an array",
+        Value::Object(_) => "an object",
+    }
 }
 
 fn strip(msg: &str) -> &str {
     msg.rfind(" at line ").map(|i| &msg[..i]).unwrap_or(msg)
 }
 
-/// Records to a table; columns in order of first appearance.
-pub fn from_records(rows: &[Map<String, Value>], types: &IndexMap<String, ColumnType>) -> Result<Table, Errors> {
-    let mut names: Vec<String> = Vec::new();
-    for r in rows {
-        for k in r.keys() {
-            if !names.contains(k) {
-                names.push(k.clone());
-            }
-        }
+/// Records to a table; columns in order of first appearance. JSON numbers
+/// become Int64 (all integers) or Float64, JSON booleans Boolean; strings
+/// are typed like delimited text cells; nested values are kept as JSON text.
+pub fn from_records(rows: &[Map<String, Value>], opts: &ReadOptions) -> Result<Table, Errors> {
+    if rows.len() > opts.max_rows {
+        return Err(too_many_rows(opts.max_rows));
     }
-    let (unique, _) = unique_names(names.clone());
+    let mut names: IndexSet<&String> = IndexSet::new();
+    for r in rows {
+        names.extend(r.keys());
+    }
+    let names: Vec<String> = names.into_iter().cloned().collect();
+    let (unique, notes) = unique_names(names.clone());
+    let mut warnings: Vec<Diagnostic> = notes.into_iter().map(|n| Diagnostic::warning("data.renamed_header", n)).collect();
+    warnings.extend(super::unknown_type_keys(&opts.types, &names));
+    // JSON null (and the empty string) is missing; text keeps "NA" and the like.
+    let rules = CellRules::new(&[""], false);
     let mut arrays: Vec<ArrayRef> = Vec::new();
     let mut fields = Vec::new();
     for (name, uname) in names.iter().zip(&unique) {
         let vals: Vec<&Value> = rows.iter().map(|r| r.get(name).unwrap_or(&Value::Null)).collect();
-        let forced = types.get(name).copied();
-        let all_numbers = vals.iter().all(|v| v.is_number() || v.is_null()) && vals.iter().any(|v| v.is_number());
-        let arr: ArrayRef = if all_numbers && matches!(forced, None | Some(ColumnType::Number)) {
+        let forced = opts.types.get(name).copied();
+        let any = vals.iter().any(|v| !v.is_null());
+        let numbers = any && vals.iter().all(|v| v.is_number() || v.is_null());
+        let bools = any && vals.iter().all(|v| v.is_boolean() || v.is_null());
+        let arr: ArrayRef = if numbers && forced.is_none() && vals.iter().all(|v| v.is_null() || v.as_i64().is_some()) {
+            Arc::new(Int64Array::from(vals.iter().map(|v| v.as_i64()).collect::<Vec<_>>()))
+        } else if numbers && matches!(forced, None | Some(ColumnType::Number)) {
             Arc::new(Float64Array::from(vals.iter().map(|v| v.as_f64()).collect::<Vec<_>>()))
+        } else if bools && matches!(forced, None | Some(ColumnType::Bool)) {
+            Arc::new(BooleanArray::from(vals.iter().map(|v| v.as_bool()).collect::<Vec<_>>()))
         } else {
-            let texts: Vec<Option<String>> = vals
-                .iter()
-                .map(|v| match v {
-                    Value::Null => None,
-                    Value::String(s) => Some(s.clone()),
-                    other => Some(other.to_string()),
-                })
-                .collect();
-            let cells: Vec<Option<&str>> = texts.iter().map(|s| s.as_deref()).collect();
-            build(&cells, forced).map_err(|e| {
+            let mut col = TextColumn::default();
+            for v in &vals {
+                let ok = match v {
+                    Value::Null => col.push(b""),
+                    Value::String(s) => col.push(s.as_bytes()),
+                    other => col.push(other.to_string().as_bytes()),
+                };
+                if !ok {
+                    return Err(Diagnostic::error("data.too_large", format!("column `{name}` holds more than 2 GiB of text")).into());
+                }
+            }
+            build(col, forced, &rules).map_err(|e| {
                 Diagnostic::error(
                     "data.type_mismatch",
-                    format!("column `{name}`: record {} holds `{}`, which is not {}", e.row, e.value, e.expected),
+                    format!(
+                        "column `{name}` is declared `{}` but record {} holds `{}`: expected {}",
+                        forced.map(type_word).unwrap_or("?"),
+                        e.row + 1,
+                        e.value,
+                        e.expected
+                    ),
                 )
                 .at_path(format!("data.types.{name}"))
             })?
@@ -81,5 +125,5 @@ pub fn from_records(rows: &[Map<String, Value>], types: &IndexMap<String, Column
     } else {
         RecordBatch::try_new(schema, arrays).map_err(|e| Diagnostic::error("data.internal", e.to_string()))?
     };
-    Ok(Table { batch, warnings: vec![] })
+    Ok(Table { batch, warnings })
 }

@@ -2,10 +2,13 @@
 //! [`Table`] of Arrow columns.
 //!
 //! Hand-off: [`Table`], an Arrow `RecordBatch` whose columns are one of
-//! Float64, Int64, Boolean, Utf8, Date32 or Timestamp(ms, UTC).
+//! Float64, Int64, Boolean, Utf8, Date32 or Timestamp(ms, UTC). Every
+//! reader normalises to these; later stages read nothing else.
 
 pub mod columns;
 pub mod csv;
+#[cfg(feature = "ipc")]
+pub mod ipc;
 pub mod json;
 pub mod time;
 
@@ -31,13 +34,49 @@ impl Table {
     }
 }
 
+/// Default row cap.
+pub const DEFAULT_MAX_ROWS: usize = 5_000_000;
+/// Default byte cap: 256 MiB.
+pub const DEFAULT_MAX_BYTES: usize = 256 * 1024 * 1024;
+
 /// How to read the bytes.
-#[derive(Debug, Clone, Default)]
+#[derive(Debug, Clone)]
 pub struct ReadOptions {
-    /// `None`: guess from the name's extension, then from the bytes.
+    /// `None`: guess from the bytes (Arrow magic, a JSON array, else
+    /// delimited text with a sniffed delimiter).
     pub format: Option<DataFormat>,
     /// Per-column type overrides from `data.types`.
     pub types: IndexMap<String, ColumnType>,
+    /// Expected hex SHA-256 of the bytes (`data.sha256`); checked before
+    /// parsing.
+    pub sha256: Option<String>,
+    /// Field delimiter for delimited text; `None`: comma for CSV, tab for
+    /// TSV, sniffed when the format is not given.
+    pub delimiter: Option<u8>,
+    /// Cells read as missing values in delimited text.
+    pub null_tokens: Vec<String>,
+    /// Numbers in delimited text use a decimal comma (`1,5`); needs a
+    /// delimiter other than the comma.
+    pub decimal_comma: bool,
+    /// Most data rows accepted.
+    pub max_rows: usize,
+    /// Most input bytes accepted.
+    pub max_bytes: usize,
+}
+
+impl Default for ReadOptions {
+    fn default() -> Self {
+        ReadOptions {
+            format: None,
+            types: IndexMap::new(),
+            sha256: None,
+            delimiter: None,
+            null_tokens: columns::NULL_TOKENS.iter().map(|s| s.to_string()).collect(),
+            decimal_comma: false,
+            max_rows: DEFAULT_MAX_ROWS,
+            max_bytes: DEFAULT_MAX_BYTES,
+        }
+    }
 }
 
 /// Guess a format from a file name or URL.
@@ -58,35 +97,156 @@ pub fn format_from_name(name: &str) -> Option<DataFormat> {
 
 /// Read bytes into a table.
 pub fn read(bytes: &[u8], opts: &ReadOptions) -> Result<Table, Errors> {
+    if bytes.len() > opts.max_bytes {
+        return Err(Diagnostic::error(
+            "data.too_large",
+            format!("the data is {} bytes, over the byte cap of {} bytes", bytes.len(), opts.max_bytes),
+        )
+        .with_hint("raise the byte cap (`ReadOptions::max_bytes`) where the data is loaded, or chart a smaller extract")
+        .into());
+    }
+    if let Some(expected) = &opts.sha256 {
+        check_sha256(bytes, expected)?;
+    }
     let format = opts.format.unwrap_or_else(|| sniff(bytes));
     match format {
-        DataFormat::Csv => csv::read(bytes, b',', &opts.types),
-        DataFormat::Tsv => csv::read(bytes, b'\t', &opts.types),
-        DataFormat::Json => json::read(bytes, &opts.types),
+        DataFormat::Csv | DataFormat::Tsv => {
+            let delimiter = opts.delimiter.unwrap_or(match (opts.format, format) {
+                (Some(DataFormat::Tsv), _) => b'\t',
+                (Some(_), _) => b',',
+                (None, _) => csv::sniff_delimiter(bytes),
+            });
+            csv::read(bytes, delimiter, opts)
+        }
+        DataFormat::Json => json::read(bytes, opts),
+        #[cfg(feature = "ipc")]
+        DataFormat::Arrow => ipc::read(bytes, opts),
+        #[cfg(not(feature = "ipc"))]
         DataFormat::Arrow => Err(Diagnostic::error(
             "data.format_unsupported",
-            "Arrow IPC data is not supported by this build yet",
+            "Arrow IPC data is not supported by this build (built without the `ipc` feature)",
         )
         .at_path("data.format")
         .into()),
     }
 }
 
+/// Lower-case hex SHA-256 of the bytes.
+pub fn sha256_hex(bytes: &[u8]) -> String {
+    use sha2::{Digest, Sha256};
+    let digest = Sha256::digest(bytes);
+    let mut s = String::with_capacity(64);
+    for b in digest.iter() {
+        s.push(char::from(b"0123456789abcdef"[(b >> 4) as usize]));
+        s.push(char::from(b"0123456789abcdef"[(b & 15) as usize]));
+    }
+    s
+}
+
+fn check_sha256(bytes: &[u8], expected: &str) -> Result<(), Errors> {
+    let want = expected.trim().to_ascii_lowercase();
+    if want.len() != 64 || !want.bytes().all(|b| b.is_ascii_hexdigit()) {
+        return Err(Diagnostic::error(
+            "data.sha256_invalid",
+            format!("`{expected}` is not a SHA-256 digest: expected 64 hexadecimal digits"),
+        )
+        .at_path("data.sha256")
+        .into());
+    }
+    let got = sha256_hex(bytes);
+    if got != want {
+        return Err(Diagnostic::error(
+            "data.sha256_mismatch",
+            format!("the data's SHA-256 digest is {got}, but `data.sha256` expects {want}; the data was refused"),
+        )
+        .at_path("data.sha256")
+        .with_hint("if the data changed on purpose, put its new digest in `data.sha256`")
+        .into());
+    }
+    Ok(())
+}
+
 fn sniff(bytes: &[u8]) -> DataFormat {
-    let start = bytes.iter().position(|b| !b.is_ascii_whitespace()).map(|i| bytes[i]);
+    let body = bytes.strip_prefix(b"\xEF\xBB\xBF").unwrap_or(bytes);
+    let start = body.iter().position(|b| !b.is_ascii_whitespace()).map(|i| body[i]);
     if bytes.starts_with(b"ARROW1") || bytes.starts_with(&[0xff, 0xff, 0xff, 0xff]) {
         DataFormat::Arrow
     } else if start == Some(b'[') {
         DataFormat::Json
     } else {
-        let first_line = bytes.split(|b| *b == b'\n').next().unwrap_or(&[]);
-        let tabs = first_line.iter().filter(|b| **b == b'\t').count();
-        let commas = first_line.iter().filter(|b| **b == b',').count();
-        if tabs > commas { DataFormat::Tsv } else { DataFormat::Csv }
+        DataFormat::Csv
     }
+}
+
+/// Warnings for `data.types` keys that name no column.
+pub(crate) fn unknown_type_keys(types: &IndexMap<String, ColumnType>, names: &[String]) -> Vec<Diagnostic> {
+    types
+        .keys()
+        .filter(|k| !names.iter().any(|n| n == *k))
+        .map(|k| {
+            Diagnostic::warning("data.unknown_type_column", format!("`data.types` names column `{k}`, which the data does not have"))
+                .at_path(format!("data.types.{k}"))
+        })
+        .collect()
 }
 
 /// Build a table from inline JSON records (`data.rows`).
 pub fn from_rows(rows: &[serde_json::Map<String, serde_json::Value>], types: &IndexMap<String, ColumnType>) -> Result<Table, Errors> {
-    json::from_records(rows, types)
+    let opts = ReadOptions { types: types.clone(), ..Default::default() };
+    json::from_records(rows, &opts)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn sha256_of_abc() {
+        // FIPS 180-2 (2002), appendix B.1: SHA-256("abc").
+        assert_eq!(sha256_hex(b"abc"), "ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad");
+    }
+
+    #[test]
+    fn sha256_mismatch_shows_both_digests() {
+        let o = ReadOptions { sha256: Some("0".repeat(64)), ..Default::default() };
+        let e = read(b"a\n1\n", &o).unwrap_err();
+        let d = &e.0[0];
+        assert_eq!((d.code.as_str(), d.at.path.as_str()), ("data.sha256_mismatch", "data.sha256"));
+        assert!(d.message.contains(&sha256_hex(b"a\n1\n")) && d.message.contains(&"0".repeat(64)));
+        let o = ReadOptions { sha256: Some(sha256_hex(b"a\n1\n").to_uppercase()), ..Default::default() };
+        assert!(read(b"a\n1\n", &o).is_ok());
+        let o = ReadOptions { sha256: Some("xyz".into()), ..Default::default() };
+        assert_eq!(read(b"a\n1\n", &o).unwrap_err().0[0].code, "data.sha256_invalid");
+    }
+
+    #[test]
+    fn byte_cap_names_itself() {
+        let o = ReadOptions { max_bytes: 3, ..Default::default() };
+        let e = read(b"a\n1\n", &o).unwrap_err();
+        assert_eq!(e.0[0].code, "data.too_large");
+        assert!(e.0[0].message.contains("cap of 3 bytes"));
+        assert!(e.0[0].hint.as_deref().unwrap().contains("max_bytes"));
+    }
+
+    #[test]
+    fn format_and_delimiter_guessing() {
+        let t = read(b"a;b\n1;2\n", &ReadOptions::default()).unwrap();
+        assert_eq!(t.column_names(), vec!["a", "b"]);
+        let t = read(b"a|b\n1|2\n", &ReadOptions { format: Some(DataFormat::Csv), ..Default::default() }).unwrap();
+        assert_eq!(t.column_names(), vec!["a|b"]);
+        let t = read(b"a\tb\n1\t2\n", &ReadOptions { format: Some(DataFormat::Tsv), ..Default::default() }).unwrap();
+        assert_eq!(t.column_names(), vec!["a", "b"]);
+        let t = read(b" [{\"a\": 1}]", &ReadOptions::default()).unwrap();
+        assert_eq!(t.column_names(), vec!["a"]);
+        assert_eq!(format_from_name("x/y.TSV?v=1"), Some(DataFormat::Tsv));
+        assert_eq!(format_from_name("y.arrows"), Some(DataFormat::Arrow));
+    }
+
+    #[test]
+    fn unknown_override_column_warns() {
+        let mut o = ReadOptions::default();
+        o.types.insert("nope".into(), ColumnType::Number);
+        let t = read(b"a\n1\n", &o).unwrap();
+        assert_eq!(t.warnings[0].at.path, "data.types.nope");
+    }
 }

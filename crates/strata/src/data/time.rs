@@ -48,7 +48,11 @@ fn digits(s: &[u8]) -> Option<i64> {
 
 /// `YYYY-MM-DD` to days since the epoch.
 pub fn parse_date(s: &str) -> Option<i64> {
-    let b = s.as_bytes();
+    parse_date_bytes(s.as_bytes())
+}
+
+/// [`parse_date`] over bytes.
+pub fn parse_date_bytes(b: &[u8]) -> Option<i64> {
     if b.len() != 10 || b[4] != b'-' || b[7] != b'-' {
         return None;
     }
@@ -64,11 +68,15 @@ pub fn parse_date(s: &str) -> Option<i64> {
 /// `YYYY-MM-DD[T ]HH:MM[:SS[.fff]][Z|±HH:MM|±HHMM]` to milliseconds since the
 /// epoch, UTC. Without an offset the time is taken as UTC.
 pub fn parse_datetime(s: &str) -> Option<i64> {
-    let b = s.as_bytes();
+    parse_datetime_bytes(s.as_bytes())
+}
+
+/// [`parse_datetime`] over bytes.
+pub fn parse_datetime_bytes(b: &[u8]) -> Option<i64> {
     if b.len() < 16 || (b[10] != b'T' && b[10] != b' ') {
         return None;
     }
-    let days = parse_date(&s[0..10])?;
+    let days = parse_date_bytes(&b[0..10])?;
     let rest = &b[11..];
     if rest.len() < 5 || rest[2] != b':' {
         return None;
@@ -109,11 +117,17 @@ pub fn parse_datetime(s: &str) -> Option<i64> {
         [sign @ (b'+' | b'-'), h1, h2, b':', m1, m2] | [sign @ (b'+' | b'-'), h1, h2, m1, m2] => {
             let h = digits(&[*h1, *h2])?;
             let m = digits(&[*m1, *m2])?;
+            if h > 23 || m > 59 {
+                return None;
+            }
             let v = h * 60 + m;
             if *sign == b'-' { -v } else { v }
         }
         [sign @ (b'+' | b'-'), h1, h2] => {
-            let v = digits(&[*h1, *h2])? * 60;
+            let v = digits(&[*h1, *h2])?.min(24) * 60;
+            if v > 23 * 60 {
+                return None;
+            }
             if *sign == b'-' { -v } else { v }
         }
         _ => return None,
