@@ -5,9 +5,11 @@
 //! here looks at data.
 
 mod parse;
+mod suggest;
 mod words;
 
 pub use parse::parse_spec;
+pub use suggest::{closest, levenshtein};
 pub use words::FromWord;
 
 use indexmap::IndexMap;
