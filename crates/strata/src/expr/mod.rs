@@ -35,7 +35,7 @@ use indexmap::IndexMap;
 use std::sync::Arc;
 
 /// A located expression error as a spec diagnostic.
-fn diagnostic(path: &str, text: &str, e: &ExprError) -> Diagnostic {
+pub(crate) fn diagnostic(path: &str, text: &str, e: &ExprError) -> Diagnostic {
     let mut d = Diagnostic::error("expr.invalid", e.render(text)).at_path(path);
     d.hint = e.hint.clone();
     d
@@ -135,7 +135,7 @@ pub fn apply(table: Table, derive: &IndexMap<String, String>, where_: Option<&st
 }
 
 /// A derive name as a path segment: plain names as they are, others quoted.
-fn path_key(name: &str) -> String {
+pub(crate) fn path_key(name: &str) -> String {
     if !name.is_empty() && name.chars().all(|c| c.is_alphanumeric() || c == '_') {
         name.to_string()
     } else {
