@@ -292,6 +292,55 @@ mod tests {
     }
 
     #[test]
+    fn contrast_matches_coloraide() {
+        // coloraide 8.13.1, Color.contrast(method="wcag21"), 284 CSS colour
+        // pairs (tests/reference/gen/wcag_contrast.py).
+        let doc: serde_json::Value = serde_json::from_str(include_str!("../../../tests/reference/fixtures/lint/contrast.json")).unwrap();
+        let pairs = doc["pairs"].as_array().unwrap();
+        assert!(pairs.len() > 200);
+        for p in pairs {
+            let fg = parse_css_color(p["fg"].as_str().unwrap()).unwrap();
+            let bg = parse_css_color(p["bg"].as_str().unwrap()).unwrap();
+            let bg = [bg[0], bg[1], bg[2]];
+            let got = contrast_ratio(over(fg, bg), bg);
+            let want = p["ratio"].as_f64().unwrap();
+            // coloraide takes luminance from the full-precision sRGB-to-XYZ
+            // matrix (Y row 0.212639..., 0.715168..., 0.072192...); WCAG 2.1
+            // writes the coefficients to 4 places, so ratios differ by up to ~1.5e-4
+            // relative (red on white: 3.9985 by WCAG, 3.9979 by coloraide), below the 2 decimals reported.
+            assert!((got - want).abs() < 3e-4 * want, "{} on {}: {got} vs coloraide {want}", p["fg"], p["bg"]);
+        }
+    }
+
+    fn rendered(spec: &str) -> Vec<String> {
+        let r = crate::render(spec, None, &crate::RenderOptions::default()).unwrap();
+        r.warnings.into_iter().filter(|d| d.code.starts_with("lint.")).map(|d| d.code).collect()
+    }
+
+    #[test]
+    fn rules_that_need_the_plan() {
+        let rows: Vec<String> = (0..9).map(|i| format!(r#"{{"k":"c{i}","v":{},"n":{i}}}"#, 50 + i)).collect();
+        let data = format!(r#""data":{{"rows":[{}]}}"#, rows.join(","));
+        assert_eq!(rendered(&format!(r#"{{{data},"layers":[{{"draw":"point","x":"n","y":"v","color":"k"}}]}}"#)), vec!["lint.too_many_colors"]);
+        assert!(rendered(&format!(r#"{{{data},"layers":[{{"draw":"point","x":"n","y":"v"}}]}}"#)).is_empty());
+        // Bars include zero by default; a domain of 40..60 leaves it out.
+        assert!(rendered(&format!(r#"{{{data},"layers":[{{"draw":"bar","x":"k","y":"v"}}]}}"#)).is_empty());
+        assert_eq!(
+            rendered(&format!(r#"{{{data},"layers":[{{"draw":"bar","x":"k","y":"v"}}],"scales":{{"y":{{"domain":[40,60]}}}}}}"#)),
+            vec!["lint.axis_without_zero"]
+        );
+        assert_eq!(
+            rendered(&format!(r#"{{{data},"layers":[{{"draw":"point","x":"n","y":"v"}}],"coords":"polar"}}"#)),
+            vec!["lint.polar_angle_not_cyclic"]
+        );
+        assert!(rendered(&format!(r#"{{{data},"layers":[{{"draw":"bar","x":"k","y":"v"}}],"coords":"polar"}}"#)).is_empty());
+        assert!(rendered(&format!(
+            r#"{{{data},"layers":[{{"draw":"point","x":"n","y":"v"}}],"coords":"polar","quiet":["lint.polar_angle_not_cyclic"]}}"#
+        ))
+        .is_empty());
+    }
+
+    #[test]
     fn css_colors() {
         assert_eq!(parse_css_color("#fff"), Some([1.0, 1.0, 1.0, 1.0]));
         assert_eq!(parse_css_color("#33669980").map(|c| c[3]), Some(128.0 / 255.0));
