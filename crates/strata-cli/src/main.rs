@@ -46,12 +46,14 @@ enum Command {
         #[arg(short = 'o', long)]
         output: Option<PathBuf>,
     },
-    /// Validate a spec (and its data, when found); exit non-zero on error.
+    /// Validate a spec (and its data, when found), list lint warnings; exit non-zero on error.
     Check {
         spec: PathBuf,
         #[arg(long)]
         data: Option<PathBuf>,
     },
+    /// Print the JSON Schema (draft 2020-12) of the spec.
+    Schema,
 }
 
 fn main() -> ExitCode {
@@ -134,14 +136,25 @@ fn run(cmd: Command) -> Result<(), String> {
         }
         Command::Check { spec, data } => {
             let (_, parsed, bytes) = load(&spec, data.as_deref())?;
-            if bytes.is_some() || parsed.data.as_ref().is_some_and(|d| d.object().rows.is_some()) {
+            // With data, a full render (which lints with the trained scales);
+            // without, the lint rules that need only the spec.
+            let warnings = if bytes.is_some() || parsed.data.as_ref().is_some_and(|d| d.object().rows.is_some()) {
                 let data = bytes.as_ref().map(|(b, n)| DataBytes { bytes: b, name: n });
-                let r = strata::render_spec(&parsed, data, &RenderOptions::default()).map_err(|e| report(&spec, &e))?;
-                for w in &r.warnings {
-                    eprintln!("strata: {}: {w}", spec.display());
-                }
+                strata::render_spec(&parsed, data, &RenderOptions::default()).map_err(|e| report(&spec, &e))?.warnings
+            } else {
+                strata::lint::check(&parsed, None)
+            };
+            for w in &warnings {
+                println!("strata: {}: {w}", spec.display());
             }
-            println!("{}: ok", spec.display());
+            match warnings.len() {
+                0 => println!("{}: ok", spec.display()),
+                n => println!("{}: ok, {n} warning{}", spec.display(), if n == 1 { "" } else { "s" }),
+            }
+            Ok(())
+        }
+        Command::Schema => {
+            println!("{}", strata::spec::schema_text());
             Ok(())
         }
     }

@@ -17,6 +17,7 @@ pub mod data;
 pub mod error;
 pub mod expr;
 pub mod format;
+pub mod lint;
 pub mod math;
 pub mod plan;
 pub mod scale;
@@ -78,6 +79,7 @@ pub fn render_spec(spec: &Spec, data: Option<DataBytes>, opts: &RenderOptions) -
     let scene = scene::build(spec, &plan, &opts.scene);
     let svg = svg::write(&scene);
     let mut warnings = table.warnings;
+    warnings.extend(lint::check(spec, Some(&plan)));
     warnings.extend(plan.warnings);
     Ok(Rendered { svg, scene, warnings })
 }

@@ -1,20 +1,174 @@
 //! SQL-subset expressions for `derive` and `where`.
 //!
-//! Not yet implemented: specs that use `derive` or `where` get a located
-//! error saying so.
+//! The language is a small subset of ISO/IEC 9075 (SQL) value expressions:
+//! literals (`12`, `1.5`, `'text'`, `TRUE`, `NULL`, `DATE '2024-03-01'`,
+//! `TIMESTAMP '2024-03-01 12:00:00'`), column names (bare, or in double
+//! quotes), `+ - * /`, `||`, `= <> < <= > >=`, `AND OR NOT`, `IN`,
+//! `BETWEEN`, `IS [NOT] NULL`, `CASE`, and the functions in
+//! [`functions::NAMES`]. `docs/spec.md` is the reader's reference.
+//!
+//! Semantics chosen (and tested against SQLite, see
+//! `tests/reference/gen/sqlite_expr.py`):
+//! - integer / integer truncates toward zero (`7 / 2` is 3, `-7 / 2` is -3);
+//!   write `7 * 1.0 / 2` for 3.5. Division by zero gives NULL, not an error.
+//! - integer overflow is an error naming the data row.
+//! - `log(x)` is base 10, `ln(x)` natural, `log(b, x)` base b; logarithms
+//!   of x <= 0 and `sqrt` of a negative number give NULL; so does any
+//!   result that is not a finite number.
+//! - NULL follows three-valued logic; `where` keeps rows whose condition
+//!   is TRUE (FALSE and NULL rows are dropped).
+
+pub mod eval;
+pub mod functions;
+pub mod parse;
+
+pub use parse::{parse, Expr, ExprError, Span};
 
 use crate::data::Table;
 use crate::error::{Diagnostic, Errors};
+use arrow_array::cast::AsArray;
+use arrow_array::types::{Date32Type, Float64Type, Int64Type, TimestampMillisecondType};
+use arrow_array::{Array, ArrayRef, BooleanArray, Date32Array, Float64Array, Int64Array, NullArray, RecordBatch, StringArray, TimestampMillisecondArray};
+use arrow_schema::{DataType, Field, Schema};
+use eval::{Col, Env};
+use indexmap::IndexMap;
+use std::sync::Arc;
 
-/// Add derived columns and filter rows.
-pub fn apply(table: Table, derive: &indexmap::IndexMap<String, String>, where_: Option<&str>) -> Result<Table, Errors> {
-    if let Some((name, _)) = derive.iter().next() {
-        return Err(Diagnostic::error("spec.unsupported", "`derive` expressions are not supported by this build yet")
-            .at_path(format!("derive.{name}"))
-            .into());
-    }
-    if where_.is_some() {
-        return Err(Diagnostic::error("spec.unsupported", "`where` expressions are not supported by this build yet").at_path("where").into());
-    }
-    Ok(table)
+/// A located expression error as a spec diagnostic.
+pub(crate) fn diagnostic(path: &str, text: &str, e: &ExprError) -> Diagnostic {
+    let mut d = Diagnostic::error("expr.invalid", e.render(text)).at_path(path);
+    d.hint = e.hint.clone();
+    d
 }
+
+/// Evaluate one expression over a table, giving a column of its rows.
+pub fn evaluate(table: &Table, text: &str) -> Result<ArrayRef, ExprError> {
+    let e = parse(text)?;
+    let names = table.column_names();
+    let columns: Vec<ArrayRef> = table.batch.columns().to_vec();
+    let env = Env { names: &names, columns: &columns, rows: table.num_rows() };
+    Ok(eval::eval(&e, &env)?.into_array(table.num_rows()))
+}
+
+/// Add derived columns (in order; each may use the ones before) and keep
+/// the rows where `where_` is TRUE. A derived column with the name of an
+/// existing one replaces it.
+pub fn apply(table: Table, derive: &IndexMap<String, String>, where_: Option<&str>) -> Result<Table, Errors> {
+    if derive.is_empty() && where_.is_none() {
+        return Ok(table);
+    }
+    // Parse everything first, so that every syntax error is reported at once.
+    let mut errors = Vec::new();
+    let mut parsed = Vec::new();
+    for (name, text) in derive {
+        let path = format!("derive.{}", path_key(name));
+        match parse(text) {
+            Ok(e) => parsed.push((name, path, text.as_str(), Some(e))),
+            Err(e) => {
+                errors.push(diagnostic(&path, text, &e));
+                parsed.push((name, path, text.as_str(), None));
+            }
+        }
+    }
+    let filter = match where_.map(|w| (w, parse(w))) {
+        Some((w, Ok(e))) => Some((w, Some(e))),
+        Some((w, Err(e))) => {
+            errors.push(diagnostic("where", w, &e));
+            Some((w, None))
+        }
+        None => None,
+    };
+
+    let n = table.num_rows();
+    let mut names = table.column_names();
+    let mut columns: Vec<ArrayRef> = table.batch.columns().to_vec();
+    for (name, path, text, e) in parsed {
+        let col = match e {
+            Some(e) => {
+                let env = Env { names: &names, columns: &columns, rows: n };
+                match eval::eval(&e, &env) {
+                    Ok(c) => c.into_array(n),
+                    Err(err) => {
+                        errors.push(diagnostic(&path, text, &err));
+                        Arc::new(NullArray::new(n)) as ArrayRef
+                    }
+                }
+            }
+            // A column that failed stays known (as all-NULL), so later
+            // expressions using it do not report a second, confusing error.
+            None => Arc::new(NullArray::new(n)) as ArrayRef,
+        };
+        match names.iter().position(|c| c == name) {
+            Some(i) => columns[i] = col,
+            None => {
+                names.push(name.clone());
+                columns.push(col);
+            }
+        }
+    }
+    let mut keep: Option<Vec<bool>> = None;
+    if let Some((w, Some(e))) = filter {
+        let env = Env { names: &names, columns: &columns, rows: n };
+        match eval::eval(&e, &env) {
+            Ok(Col::Bool(d)) => keep = Some((0..n).map(|i| d.clone_row(i) == Some(true)).collect()),
+            Ok(Col::Null) => keep = Some(vec![false; n]),
+            Ok(c) => {
+                let err = ExprError::new(format!("`where` needs a true/false condition, but this gives {}", c.ty().word()), e.span())
+                    .hint("compare the value with something, such as rain_mm > 0");
+                errors.push(diagnostic("where", w, &err));
+            }
+            Err(err) => errors.push(diagnostic("where", w, &err)),
+        }
+    }
+    if !errors.is_empty() {
+        return Err(Errors(errors));
+    }
+    let (columns, rows) = match &keep {
+        Some(mask) => (columns.iter().map(|c| filter_array(c, mask)).collect::<Vec<_>>(), mask.iter().filter(|b| **b).count()),
+        None => (columns, n),
+    };
+    let fields: Vec<Field> = names.iter().zip(&columns).map(|(nm, c)| Field::new(nm, c.data_type().clone(), true)).collect();
+    let schema = Arc::new(Schema::new(fields));
+    let batch = RecordBatch::try_new_with_options(schema, columns, &arrow_array::RecordBatchOptions::new().with_row_count(Some(rows)))
+        .map_err(|e| Diagnostic::error("expr.internal", format!("could not assemble the derived table: {e}")))?;
+    Ok(Table { batch, warnings: table.warnings })
+}
+
+/// A derive name as a path segment: plain names as they are, others quoted.
+pub(crate) fn path_key(name: &str) -> String {
+    if !name.is_empty() && name.chars().all(|c| c.is_alphanumeric() || c == '_') {
+        name.to_string()
+    } else {
+        format!("{name:?}")
+    }
+}
+
+impl<T: Clone> eval::Data<T> {
+    fn clone_row(&self, i: usize) -> Option<T> {
+        match self {
+            eval::Data::Const(v) => v.clone(),
+            eval::Data::Vec(v) => v[i].clone(),
+        }
+    }
+}
+
+/// Keep the rows of `a` where `mask` is true.
+fn filter_array(a: &ArrayRef, mask: &[bool]) -> ArrayRef {
+    fn pick<T: Copy>(it: impl Iterator<Item = Option<T>>, mask: &[bool]) -> Vec<Option<T>> {
+        it.zip(mask).filter(|(_, k)| **k).map(|(v, _)| v).collect()
+    }
+    match a.data_type() {
+        DataType::Float64 => Arc::new(Float64Array::from(pick(a.as_primitive::<Float64Type>().iter(), mask))),
+        DataType::Int64 => Arc::new(Int64Array::from(pick(a.as_primitive::<Int64Type>().iter(), mask))),
+        DataType::Boolean => Arc::new(BooleanArray::from(pick(a.as_boolean().iter(), mask))),
+        DataType::Utf8 => Arc::new(StringArray::from(pick(a.as_string::<i32>().iter(), mask))),
+        DataType::Date32 => Arc::new(Date32Array::from(pick(a.as_primitive::<Date32Type>().iter(), mask))),
+        DataType::Timestamp(_, tz) => Arc::new(
+            TimestampMillisecondArray::from(pick(a.as_primitive::<TimestampMillisecondType>().iter(), mask)).with_timezone_opt(tz.clone()),
+        ),
+        _ => Arc::new(NullArray::new(mask.iter().filter(|b| **b).count())),
+    }
+}
+
+#[cfg(test)]
+mod tests;

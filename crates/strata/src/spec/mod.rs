@@ -5,9 +5,18 @@
 //! here looks at data.
 
 mod parse;
+pub mod shape;
+mod suggest;
 mod words;
 
-pub use parse::parse_spec;
+pub use parse::{parse_spec, spec_from_value};
+pub use suggest::{closest, edit_distance, levenshtein};
+
+/// The JSON Schema of a spec as pretty-printed text (what `strata schema`
+/// prints and `schema/strata-spec.schema.json` holds).
+pub fn schema_text() -> String {
+    serde_json::to_string_pretty(&shape::json_schema()).expect("schema serialises")
+}
 pub use words::FromWord;
 
 use indexmap::IndexMap;
@@ -17,6 +26,9 @@ use serde::{Deserialize, Serialize};
 #[derive(Debug, Clone, Default, Serialize, Deserialize)]
 #[serde(deny_unknown_fields)]
 pub struct Spec {
+    /// The JSON Schema this spec follows, for editors; not used in drawing.
+    #[serde(default, rename = "$schema", skip_serializing_if = "Option::is_none")]
+    pub schema: Option<String>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub title: Option<String>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
@@ -49,6 +61,9 @@ pub struct Spec {
     pub size: Size,
     #[serde(default)]
     pub theme: Theme,
+    /// Lint warnings silenced on purpose, by code (`lint.log_bars`, ...).
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub quiet: Vec<String>,
 }
 
 // ---------------------------------------------------------------- data
@@ -207,6 +222,12 @@ pub struct Style {
     /// Fraction of a band a bar fills (0..1).
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub band: Option<f64>,
+    /// Shape of points: `circle`, `square`, `triangle`, `diamond`, `plus`, `cross`.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub shape: Option<String>,
+    /// Text size of labels in pixels.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub font_size: Option<f64>,
 }
 
 /// The statistic of a layer.

@@ -1,36 +1,66 @@
 //! Spec text to [`Spec`], with errors that carry the JSON path.
+//!
+//! Three passes, each reporting every problem it finds: JSON syntax; the
+//! shape check ([`super::shape`]: unknown keys and words with did-you-mean,
+//! wrong types saying what was expected and found, ranges); and the syntax
+//! of `derive` and `where` expressions. Only then does serde read the value.
 
+use super::shape::{check, spec_shape};
 use super::Spec;
 use crate::error::{Diagnostic, Errors};
+use serde_json::Value;
 
 /// Parse a spec from JSON text. Errors carry the JSON path of the offending
 /// key (`layers[0].draw`) and, for JSON syntax errors, the line and column.
 pub fn parse_spec(text: &str) -> Result<Spec, Errors> {
-    let de = &mut serde_json::Deserializer::from_str(text);
-    match serde_path_to_error::deserialize::<_, Spec>(de) {
-        Ok(spec) => {
-            if spec.layers.is_empty() {
-                return Err(Diagnostic::error("spec.no_layers", "the spec has no layers; add at least one, such as {\"draw\": \"point\", \"x\": \"a\", \"y\": \"b\"}")
-                    .at_path("layers")
-                    .into());
-            }
-            Ok(spec)
-        }
-        Err(e) => {
-            let path = e.path().to_string();
-            let inner = e.into_inner();
-            let path = if path == "." { String::new() } else { path };
-            let mut d = Diagnostic::error(
-                if inner.is_syntax() || inner.is_eof() { "spec.json_syntax" } else { "spec.invalid" },
-                strip_position(&inner.to_string()),
-            )
-            .at_path(path);
-            if inner.is_syntax() || inner.is_eof() {
-                d.message = format!("the spec is not valid JSON: {} (spec line {}, column {})", d.message, inner.line(), inner.column());
-            }
-            Err(d.into())
+    let value: Value = serde_json::from_str(text).map_err(|e| {
+        Diagnostic::error(
+            "spec.json_syntax",
+            format!("the spec is not valid JSON: {} (spec line {}, column {})", strip_position(&e.to_string()), e.line(), e.column()),
+        )
+    })?;
+    spec_from_value(&value)
+}
+
+/// Check and read a spec already parsed as JSON.
+pub fn spec_from_value(value: &Value) -> Result<Spec, Errors> {
+    let mut errors = Vec::new();
+    if !value.is_object() {
+        return Err(Diagnostic::error("spec.wrong_type", "a spec is a JSON object, such as {\"layers\": [...]}").into());
+    }
+    check(value, &spec_shape(), "", &mut errors);
+    if let Some(layers) = value.get("layers").and_then(Value::as_array) {
+        if layers.is_empty() {
+            errors.push(
+                Diagnostic::error("spec.no_layers", "the spec has no layers; add at least one, such as {\"draw\": \"point\", \"x\": \"a\", \"y\": \"b\"}")
+                    .at_path("layers"),
+            );
         }
     }
+    // Expression syntax, so that `strata check` finds it without data.
+    if let Some(derive) = value.get("derive").and_then(Value::as_object) {
+        for (name, text) in derive {
+            if let Some(text) = text.as_str() {
+                if let Err(e) = crate::expr::parse(text) {
+                    errors.push(crate::expr::diagnostic(&format!("derive.{}", crate::expr::path_key(name)), text, &e));
+                }
+            }
+        }
+    }
+    if let Some(text) = value.get("where").and_then(Value::as_str) {
+        if let Err(e) = crate::expr::parse(text) {
+            errors.push(crate::expr::diagnostic("where", text, &e));
+        }
+    }
+    if !errors.is_empty() {
+        return Err(Errors(errors));
+    }
+    serde_path_to_error::deserialize::<_, Spec>(value).map_err(|e| {
+        // The shape check should have caught this; report it the same way.
+        let path = e.path().to_string();
+        let path = if path == "." { String::new() } else { path };
+        Diagnostic::error("spec.invalid", strip_position(&e.into_inner().to_string())).at_path(path).into()
+    })
 }
 
 /// serde_json appends " at line L column C"; the path says more.
@@ -45,6 +75,10 @@ fn strip_position(msg: &str) -> String {
 mod tests {
     use super::*;
 
+    fn errs(text: &str) -> Vec<Diagnostic> {
+        parse_spec(text).unwrap_err().0
+    }
+
     #[test]
     fn minimal_spec_parses() {
         let s = parse_spec(r#"{"layers":[{"draw":"point","x":"a","y":{"column":"b","as":"number"}}]}"#).unwrap();
@@ -53,22 +87,80 @@ mod tests {
     }
 
     #[test]
-    fn unknown_key_names_its_path() {
-        let e = parse_spec(r#"{"layers":[{"draw":"point"},{"draw":"bar","stat":{"bin":{"rul":"fd"}}}]}"#).unwrap_err();
-        assert_eq!(e.0[0].at.path, "layers[1].stat.bin.rul");
-        assert!(e.0[0].message.contains("unknown field `rul`"), "{}", e.0[0].message);
+    fn unknown_key_names_its_path_and_suggests() {
+        let e = errs(r#"{"layers":[{"draw":"point"},{"draw":"bar","stat":{"bin":{"rul":"fd"}}}]}"#);
+        assert_eq!(e[0].at.path, "layers[1].stat.bin.rul");
+        assert_eq!(e[0].code, "spec.unknown_key");
+        assert_eq!(e[0].hint.as_deref(), Some("did you mean `rule`?"));
     }
 
     #[test]
-    fn bad_word_names_its_path() {
-        let e = parse_spec(r#"{"layers":[{"draw":"pie"}]}"#).unwrap_err();
-        assert_eq!(e.0[0].at.path, "layers[0].draw");
+    fn bad_word_names_its_path_and_suggests() {
+        let e = errs(r#"{"layers":[{"draw":"pie"}, {"draw":"bar","stat":{"bin":{"rule":"fdd"}}}]}"#);
+        assert_eq!(e.len(), 2);
+        assert_eq!(e[0].at.path, "layers[0].draw");
+        assert!(e[0].message.contains("`pie` is not one of `point`"), "{}", e[0].message);
+        assert_eq!(e[1].at.path, "layers[1].stat.bin.rule");
+        assert_eq!(e[1].hint.as_deref(), Some("did you mean `fd`?"));
+    }
+
+    #[test]
+    fn several_errors_at_once_with_expected_and_found() {
+        let e = errs(
+            r#"{"titel":"x","size":{"width":"wide"},"layers":[{"draw":"line","colour":"a","style":{"opacity":2}}],
+                "scales":{"z":{}},"derive":{"a":"1 +"},"where":"x >","quiet":["lint.log_bar"]}"#,
+        );
+        let got: Vec<(&str, &str)> = e.iter().map(|d| (d.at.path.as_str(), d.code.as_str())).collect();
+        assert_eq!(
+            got,
+            vec![
+                ("titel", "spec.unknown_key"),
+                ("size.width", "spec.wrong_type"),
+                ("layers[0].colour", "spec.unknown_key"),
+                ("layers[0].style.opacity", "spec.out_of_range"),
+                ("scales.z", "spec.unknown_key"),
+                ("quiet[0]", "spec.unknown_word"),
+                ("derive.a", "expr.invalid"),
+                ("where", "expr.invalid"),
+            ]
+        );
+        assert_eq!(e[0].hint.as_deref(), Some("did you mean `title`?"));
+        assert_eq!(e[1].message, "expected a number of at least 0, found the text \"wide\"");
+        assert_eq!(e[2].hint.as_deref(), Some("did you mean `color`?"));
+        assert_eq!(e[3].message, "expected a number from 0 to 1, found 2");
+        assert_eq!(e[5].hint.as_deref(), Some("did you mean `lint.log_bars`?"));
+        assert!(e[7].message.contains("character 4"), "{}", e[7].message);
+    }
+
+    #[test]
+    fn word_or_object_keys() {
+        let e = errs(r#"{"layers":[{"draw":"bar","stat":{"bin":{},"summary":"mean"}}],"coords":{"kind":"polar","angle":"z"}}"#);
+        assert_eq!(e[0].code, "spec.one_of");
+        assert_eq!(e[0].at.path, "layers[0].stat");
+        assert_eq!(e[1].at.path, "coords.angle");
+        let e = errs(r#"{"layers":[{"draw":"bar","x":3}]}"#);
+        assert_eq!(e[0].message, "expected a column name, or an object, found the number 3");
+        let e = errs(r#"{"layers":[{"draw":"bar","stat":{"window":2.5}}]}"#);
+        assert_eq!(e[0].at.path, "layers[0].stat.window");
+        assert!(e[0].hint.as_deref().unwrap().contains("whole number"));
+        assert!(parse_spec(r##"{"layers":[{"draw":"bar","stat":{"window":{"size":7,"align":"end"}}}],"coords":"polar","theme":{"text":"#000"}}"##).is_ok());
+    }
+
+    #[test]
+    fn missing_required_and_empty_layers() {
+        let e = errs(r#"{"layers":[{"x":"a"}]}"#);
+        assert_eq!(e[0].code, "spec.missing_key");
+        assert_eq!(e[0].at.path, "layers[0]");
+        let e = errs(r#"{"title":"t"}"#);
+        assert_eq!(e[0].message, "`layers` is required here: the layers, drawn in order, later on top");
+        let e = errs(r#"{"layers":[]}"#);
+        assert_eq!(e[0].code, "spec.no_layers");
     }
 
     #[test]
     fn syntax_error_gives_line() {
-        let e = parse_spec("{\n \"layers\": [,]\n}").unwrap_err();
-        assert_eq!(e.0[0].code, "spec.json_syntax");
-        assert!(e.0[0].message.contains("line 2"), "{}", e.0[0].message);
+        let e = errs("{\n \"layers\": [,]\n}");
+        assert_eq!(e[0].code, "spec.json_syntax");
+        assert!(e[0].message.contains("line 2"), "{}", e[0].message);
     }
 }

@@ -1,0 +1,353 @@
+//! Lint: warnings about charts that draw but may mislead a reader. Never
+//! errors. Each warning says why, and how to silence it on purpose with the
+//! spec's top-level `"quiet": ["lint.code", ...]` list.
+//!
+//! [`check`] runs on the spec alone (as `strata check` does without data)
+//! or with the plan (every render), which knows the trained scales.
+
+use crate::color::{Palette, HARBOUR};
+use crate::error::Diagnostic;
+use crate::plan::{ColorScale, Plan};
+use crate::scale::PositionScale;
+use crate::spec::{AngleChannel, Coords, Geometry, ScaleKind, Spec, Theme};
+
+/// Every lint code, for `quiet` and the schema.
+pub const CODES: [&str; 5] = ["lint.axis_without_zero", "lint.log_bars", "lint.too_many_colors", "lint.polar_angle_not_cyclic", "lint.low_contrast"];
+
+/// WCAG 2.1 success criterion 1.4.3 (level AA): 4.5:1 for normal text.
+pub const MIN_TEXT_CONTRAST: f64 = 4.5;
+
+fn warn(code: &str, path: impl Into<String>, why: String) -> Diagnostic {
+    Diagnostic::warning(code, why).at_path(path).with_hint(format!("if this is on purpose, add \"quiet\": [\"{code}\"] to the spec"))
+}
+
+/// The lint warnings for a spec (and its plan, when there is one), less
+/// those the spec silences in `quiet`.
+pub fn check(spec: &Spec, plan: Option<&Plan>) -> Vec<Diagnostic> {
+    let mut out = Vec::new();
+    let y_spec = spec.scales.get("y").cloned().unwrap_or_default();
+    let x_spec = spec.scales.get("x").cloned().unwrap_or_default();
+    // The value axis of bars is y, unless the plan shows categories on y and numbers on x.
+    let value_axis = match plan {
+        Some(p) if matches!(p.scales.y, PositionScale::Category { .. }) && matches!(p.scales.x, PositionScale::Linear { .. }) => "x",
+        _ => "y",
+    };
+    let value_spec = if value_axis == "x" { &x_spec } else { &y_spec };
+    let log = value_spec.kind == Some(ScaleKind::Log);
+
+    // Bars on a log scale.
+    if log {
+        if let Some(i) = spec.layers.iter().position(|l| l.draw == Geometry::Bar) {
+            out.push(warn(
+                "lint.log_bars",
+                format!("scales.{value_axis}.kind"),
+                format!(
+                    "layers[{i}] draws bars on a log scale: a bar's length then shows no quantity (a log scale has no zero to start \
+                     from), so readers compare lengths that mean nothing; use points or a line, or a linear scale"
+                ),
+            ));
+        }
+    }
+    // Bars or areas whose value axis leaves out zero.
+    if !log {
+        if let Some(i) = spec.layers.iter().position(|l| matches!(l.draw, Geometry::Bar | Geometry::Area)) {
+            let geom = spec.layers[i].draw.word();
+            let trained = plan.and_then(|p| match if value_axis == "x" { &p.scales.x } else { &p.scales.y } {
+                PositionScale::Linear { lo, hi, .. } => Some((lo.min(*hi), lo.max(*hi))),
+                _ => None,
+            });
+            let from_spec = value_spec.domain.as_ref().and_then(|d| {
+                let v: Vec<f64> = d.iter().filter_map(|x| x.as_f64()).collect();
+                (v.len() == 2).then(|| (v[0].min(v[1]), v[0].max(v[1])))
+            });
+            let leaves_out = match trained.or(from_spec) {
+                Some((lo, hi)) => lo > 0.0 || hi < 0.0,
+                None => value_spec.zero == Some(false),
+            };
+            if leaves_out {
+                let path = if value_spec.domain.is_some() { format!("scales.{value_axis}.domain") } else { format!("scales.{value_axis}") };
+                out.push(warn(
+                    "lint.axis_without_zero",
+                    path,
+                    format!(
+                        "layers[{i}] draws {geom}s on a {value_axis} axis that leaves out zero: a {geom}'s length or area is read as \
+                         its value, so cutting the axis makes small differences look large; let the axis include zero"
+                    ),
+                ));
+            }
+        }
+    }
+    // More categorical colours than the palette keeps apart.
+    if let Some(Some(ColorScale::Categories(cats))) = plan.map(|p| p.scales.color.as_ref()) {
+        if cats.len() > HARBOUR.len() {
+            let path = spec.layers.iter().position(|l| l.color.is_some()).map(|i| format!("layers[{i}].color")).unwrap_or_default();
+            out.push(warn(
+                "lint.too_many_colors",
+                path,
+                format!(
+                    "the colour channel has {} categories but the palette has {} hues that can be told apart: colours repeat, so \
+                     readers match marks to the wrong legend entry; show fewer categories, group the rest, or use panels",
+                    cats.len(),
+                    HARBOUR.len()
+                ),
+            ));
+        }
+    }
+    // A polar chart whose angle is a continuous value that does not wrap around.
+    if let (Coords::Polar(p), Some(plan)) = (&spec.coords, plan) {
+        let (axis, scale) = match p.angle {
+            AngleChannel::X => ("x", &plan.scales.x),
+            AngleChannel::Y => ("y", &plan.scales.y),
+        };
+        if let PositionScale::Linear { time, .. } = scale {
+            let what = if *time { "dates or times" } else { "a continuous number" };
+            out.push(warn(
+                "lint.polar_angle_not_cyclic",
+                "coords.angle",
+                format!(
+                    "the angle shows {what} ({axis}): the circle joins its end to its start, so the last value sits beside the \
+                     first as if they were close; use cartesian coordinates, unless the value wraps around (hour of day, \
+                     compass bearing)"
+                ),
+            ));
+        }
+    }
+    // Text below WCAG 2.1 AA contrast against the background.
+    out.extend(contrast(spec));
+    out.retain(|d| !spec.quiet.contains(&d.code));
+    out
+}
+
+fn contrast(spec: &Spec) -> Vec<Diagnostic> {
+    let mut out = Vec::new();
+    let themes: Vec<(Palette, &str)> = match &spec.theme {
+        Theme::Light => vec![(Palette::light(), "light")],
+        Theme::Dark => vec![(Palette::dark(), "dark")],
+        Theme::Auto => vec![(Palette::light(), "light"), (Palette::dark(), "dark")],
+        Theme::Custom(o) => {
+            let dark = o.base.as_deref() == Some("dark");
+            let mut p = if dark { Palette::dark() } else { Palette::light() };
+            let set = |slot: &mut String, v: &Option<String>| {
+                if let Some(v) = v {
+                    *slot = v.clone();
+                }
+            };
+            set(&mut p.background, &o.background);
+            set(&mut p.text, &o.text);
+            set(&mut p.muted, &o.muted);
+            vec![(p, if dark { "dark" } else { "light" })]
+        }
+    };
+    let custom = matches!(spec.theme, Theme::Custom(_));
+    for (pal, name) in &themes {
+        let Some(bg) = parse_css_color(&pal.background) else { continue };
+        let bg = [bg[0], bg[1], bg[2]];
+        let mut slots: Vec<(String, &str, String)> =
+            vec![("theme.text".into(), "titles and labels", pal.text.clone()), ("theme.muted".into(), "subtitles, sources and tick labels", pal.muted.clone())];
+        for (i, l) in spec.layers.iter().enumerate() {
+            if l.draw == Geometry::Label {
+                if let Some(c) = &l.style.color {
+                    slots.push((format!("layers[{i}].style.color"), "label text", c.clone()));
+                }
+            }
+        }
+        for (path, role, color) in slots {
+            let Some(fg) = parse_css_color(&color) else { continue };
+            let fg = over(fg, bg);
+            let ratio = contrast_ratio(fg, bg);
+            if ratio < MIN_TEXT_CONTRAST {
+                let path = if path.starts_with("theme.") && !custom { "theme".to_string() } else { path };
+                out.push(warn(
+                    "lint.low_contrast",
+                    path,
+                    format!(
+                        "{role} ({color}) on the {name} background ({}) have a contrast of {:.2}:1, below the 4.5:1 WCAG 2.1 AA \
+                         asks for text; readers with low vision, or on a bright screen, may not make it out; pick a darker or \
+                         lighter colour",
+                        pal.background,
+                        (ratio * 100.0).floor() / 100.0
+                    ),
+                ));
+            }
+        }
+    }
+    out
+}
+
+/// Relative luminance of an sRGB colour (channels 0..1), per the WCAG 2.1
+/// definition (Understanding SC 1.4.3 / "relative luminance" glossary entry).
+pub fn relative_luminance(rgb: [f64; 3]) -> f64 {
+    let lin = |c: f64| if c <= 0.03928 { c / 12.92 } else { crate::math::pow((c + 0.055) / 1.055, 2.4) };
+    0.2126 * lin(rgb[0]) + 0.7152 * lin(rgb[1]) + 0.0722 * lin(rgb[2])
+}
+
+/// WCAG 2.1 contrast ratio (L1 + 0.05) / (L2 + 0.05), lighter over darker.
+pub fn contrast_ratio(a: [f64; 3], b: [f64; 3]) -> f64 {
+    let (la, lb) = (relative_luminance(a), relative_luminance(b));
+    (la.max(lb) + 0.05) / (la.min(lb) + 0.05)
+}
+
+/// A translucent colour composited over an opaque background.
+fn over(fg: [f64; 4], bg: [f64; 3]) -> [f64; 3] {
+    let a = fg[3];
+    [fg[0] * a + bg[0] * (1.0 - a), fg[1] * a + bg[1] * (1.0 - a), fg[2] * a + bg[2] * (1.0 - a)]
+}
+
+/// Parse the CSS colours lint needs (CSS Color Level 4): `#rgb`, `#rgba`,
+/// `#rrggbb`, `#rrggbbaa`, `rgb()`/`rgba()` (comma or space syntax, numbers
+/// or percentages), and the keywords `black`, `white`, `transparent`. Gives
+/// sRGB channels and alpha in 0..1; `None` for anything else (not linted).
+pub fn parse_css_color(s: &str) -> Option<[f64; 4]> {
+    let s = s.trim().to_ascii_lowercase();
+    match s.as_str() {
+        "black" => return Some([0.0, 0.0, 0.0, 1.0]),
+        "white" => return Some([1.0, 1.0, 1.0, 1.0]),
+        "transparent" => return Some([0.0, 0.0, 0.0, 0.0]),
+        _ => {}
+    }
+    if let Some(hex) = s.strip_prefix('#') {
+        if !hex.chars().all(|c| c.is_ascii_hexdigit()) {
+            return None;
+        }
+        let d: Vec<u32> = hex.chars().map(|c| c.to_digit(16).unwrap()).collect();
+        let (r, g, b, a) = match d.len() {
+            3 => (d[0] * 17, d[1] * 17, d[2] * 17, 255),
+            4 => (d[0] * 17, d[1] * 17, d[2] * 17, d[3] * 17),
+            6 => (d[0] * 16 + d[1], d[2] * 16 + d[3], d[4] * 16 + d[5], 255),
+            8 => (d[0] * 16 + d[1], d[2] * 16 + d[3], d[4] * 16 + d[5], d[6] * 16 + d[7]),
+            _ => return None,
+        };
+        return Some([r as f64 / 255.0, g as f64 / 255.0, b as f64 / 255.0, a as f64 / 255.0]);
+    }
+    let inner = s.strip_prefix("rgba(").or_else(|| s.strip_prefix("rgb("))?.strip_suffix(')')?;
+    let (main, alpha) = match inner.split_once('/') {
+        Some((m, a)) => (m, Some(a.trim())),
+        None => (inner, None),
+    };
+    let parts: Vec<&str> = main.split([',', ' ']).map(str::trim).filter(|p| !p.is_empty()).collect();
+    let (parts, alpha) = match (parts.len(), alpha) {
+        (3, a) => (parts, a),
+        (4, None) => (parts[..3].to_vec(), Some(parts[3])),
+        _ => return None,
+    };
+    let chan = |p: &str| -> Option<f64> {
+        let v = match p.strip_suffix('%') {
+            Some(pc) => pc.parse::<f64>().ok()? / 100.0,
+            None => p.parse::<f64>().ok()? / 255.0,
+        };
+        v.is_finite().then(|| v.clamp(0.0, 1.0))
+    };
+    let a = match alpha {
+        None => 1.0,
+        Some(a) => match a.strip_suffix('%') {
+            Some(pc) => pc.parse::<f64>().ok()? / 100.0,
+            None => a.parse::<f64>().ok()?,
+        }
+        .clamp(0.0, 1.0),
+    };
+    Some([chan(parts[0])?, chan(parts[1])?, chan(parts[2])?, a])
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::spec::parse_spec;
+
+    fn codes(spec: &str) -> Vec<String> {
+        check(&parse_spec(spec).unwrap(), None).into_iter().map(|d| d.code).collect()
+    }
+
+    #[test]
+    fn wcag_definition_values() {
+        // WCAG 2.1, "contrast ratio" and "relative luminance": black on white is
+        // (1 + 0.05) / (0 + 0.05) = 21; the primaries' luminances are the
+        // coefficients 0.2126, 0.7152, 0.0722.
+        assert_eq!(contrast_ratio([0.0; 3], [1.0; 3]), 21.0);
+        assert!((relative_luminance([1.0, 0.0, 0.0]) - 0.2126).abs() < 1e-12);
+        assert!((relative_luminance([0.0, 1.0, 0.0]) - 0.7152).abs() < 1e-12);
+        assert_eq!(contrast_ratio([0.5; 3], [0.5; 3]), 1.0);
+    }
+
+    #[test]
+    fn house_themes_pass_and_bad_overrides_warn() {
+        assert!(codes(r#"{"layers":[{"draw":"point"}]}"#).is_empty());
+        assert!(codes(r#"{"layers":[{"draw":"point"}],"theme":"dark"}"#).is_empty());
+        let d = check(&parse_spec(r##"{"layers":[{"draw":"point"}],"theme":{"muted":"#aaaaaa"}}"##).unwrap(), None);
+        assert_eq!(d.len(), 1);
+        assert_eq!(d[0].at.path, "theme.muted");
+        assert!(d[0].message.contains("2.32:1"), "{}", d[0].message);
+        assert!(d[0].hint.as_deref().unwrap().contains("\"quiet\": [\"lint.low_contrast\"]"));
+        let spec = r##"{"layers":[{"draw":"label","style":{"color":"rgb(255 255 0 / 90%)"}}],"theme":"light"}"##;
+        assert_eq!(codes(spec), vec!["lint.low_contrast"]);
+    }
+
+    #[test]
+    fn spec_only_rules_and_quiet() {
+        assert_eq!(codes(r#"{"layers":[{"draw":"bar"}],"scales":{"y":{"kind":"log"}}}"#), vec!["lint.log_bars"]);
+        assert_eq!(codes(r#"{"layers":[{"draw":"area"}],"scales":{"y":{"zero":false}}}"#), vec!["lint.axis_without_zero"]);
+        assert_eq!(codes(r#"{"layers":[{"draw":"bar"}],"scales":{"y":{"domain":[50, 100]}}}"#), vec!["lint.axis_without_zero"]);
+        assert!(codes(r#"{"layers":[{"draw":"bar"}],"scales":{"y":{"domain":[0, 100]}}}"#).is_empty());
+        assert!(codes(r#"{"layers":[{"draw":"point"}],"scales":{"y":{"zero":false}}}"#).is_empty());
+        assert!(codes(r#"{"layers":[{"draw":"bar"}],"scales":{"y":{"kind":"log"}},"quiet":["lint.log_bars"]}"#).is_empty());
+    }
+
+    #[test]
+    fn contrast_matches_coloraide() {
+        // coloraide 8.13.1, Color.contrast(method="wcag21"), 284 CSS colour
+        // pairs (tests/reference/gen/wcag_contrast.py).
+        let doc: serde_json::Value = serde_json::from_str(include_str!("../../../tests/reference/fixtures/lint/contrast.json")).unwrap();
+        let pairs = doc["pairs"].as_array().unwrap();
+        assert!(pairs.len() > 200);
+        for p in pairs {
+            let fg = parse_css_color(p["fg"].as_str().unwrap()).unwrap();
+            let bg = parse_css_color(p["bg"].as_str().unwrap()).unwrap();
+            let bg = [bg[0], bg[1], bg[2]];
+            let got = contrast_ratio(over(fg, bg), bg);
+            let want = p["ratio"].as_f64().unwrap();
+            // coloraide takes luminance from the full-precision sRGB-to-XYZ
+            // matrix (Y row 0.212639..., 0.715168..., 0.072192...); WCAG 2.1
+            // writes the coefficients to 4 places, so ratios differ by up to ~1.5e-4
+            // relative (red on white: 3.9985 by WCAG, 3.9979 by coloraide), below the 2 decimals reported.
+            assert!((got - want).abs() < 3e-4 * want, "{} on {}: {got} vs coloraide {want}", p["fg"], p["bg"]);
+        }
+    }
+
+    fn rendered(spec: &str) -> Vec<String> {
+        let r = crate::render(spec, None, &crate::RenderOptions::default()).unwrap();
+        r.warnings.into_iter().filter(|d| d.code.starts_with("lint.")).map(|d| d.code).collect()
+    }
+
+    #[test]
+    fn rules_that_need_the_plan() {
+        let rows: Vec<String> = (0..9).map(|i| format!(r#"{{"k":"c{i}","v":{},"n":{i}}}"#, 50 + i)).collect();
+        let data = format!(r#""data":{{"rows":[{}]}}"#, rows.join(","));
+        assert_eq!(rendered(&format!(r#"{{{data},"layers":[{{"draw":"point","x":"n","y":"v","color":"k"}}]}}"#)), vec!["lint.too_many_colors"]);
+        assert!(rendered(&format!(r#"{{{data},"layers":[{{"draw":"point","x":"n","y":"v"}}]}}"#)).is_empty());
+        // Bars include zero by default; a domain of 40..60 leaves it out.
+        assert!(rendered(&format!(r#"{{{data},"layers":[{{"draw":"bar","x":"k","y":"v"}}]}}"#)).is_empty());
+        assert_eq!(
+            rendered(&format!(r#"{{{data},"layers":[{{"draw":"bar","x":"k","y":"v"}}],"scales":{{"y":{{"domain":[40,60]}}}}}}"#)),
+            vec!["lint.axis_without_zero"]
+        );
+        assert_eq!(
+            rendered(&format!(r#"{{{data},"layers":[{{"draw":"point","x":"n","y":"v"}}],"coords":"polar"}}"#)),
+            vec!["lint.polar_angle_not_cyclic"]
+        );
+        assert!(rendered(&format!(r#"{{{data},"layers":[{{"draw":"bar","x":"k","y":"v"}}],"coords":"polar"}}"#)).is_empty());
+        assert!(rendered(&format!(
+            r#"{{{data},"layers":[{{"draw":"point","x":"n","y":"v"}}],"coords":"polar","quiet":["lint.polar_angle_not_cyclic"]}}"#
+        ))
+        .is_empty());
+    }
+
+    #[test]
+    fn css_colors() {
+        assert_eq!(parse_css_color("#fff"), Some([1.0, 1.0, 1.0, 1.0]));
+        assert_eq!(parse_css_color("#33669980").map(|c| c[3]), Some(128.0 / 255.0));
+        assert_eq!(parse_css_color("rgb(255, 0, 0)"), Some([1.0, 0.0, 0.0, 1.0]));
+        assert_eq!(parse_css_color("rgba(0 0 0 / 50%)"), Some([0.0, 0.0, 0.0, 0.5]));
+        assert_eq!(parse_css_color("rgb(100% 50% 0%)"), Some([1.0, 0.5, 0.0, 1.0]));
+        assert_eq!(parse_css_color("oklch(0.5 0.1 20)"), None);
+        assert_eq!(parse_css_color("#12"), None);
+    }
+}

@@ -1,0 +1,523 @@
+//! The shape of a spec, described once and used twice: to check a JSON value
+//! and report every problem at once (with its path and a did-you-mean), and
+//! to write the JSON Schema (draft 2020-12) that `strata schema` prints.
+//!
+//! The serde types in `mod.rs` read a value after this check passed; a test
+//! (and the fuzz target) holds that every value this check accepts also
+//! reads with serde.
+
+use super::suggest::closest;
+use crate::error::Diagnostic;
+use serde_json::{json, Map, Value};
+
+/// What a JSON value must look like.
+#[derive(Debug, Clone)]
+pub enum Shape {
+    /// Any JSON value.
+    Any,
+    /// Any string; `what` names it in messages ("a CSS colour").
+    Text(&'static str),
+    /// One of a fixed set of words.
+    Word(&'static [&'static str]),
+    Number { min: Option<f64>, max: Option<f64> },
+    Integer { min: i64, max: i64 },
+    Bool,
+    List(Box<Shape>),
+    /// An object with free keys (or keys from `keys`), each value of one shape.
+    Map { keys: Option<&'static [&'static str]>, value: Box<Shape> },
+    Object(Obj),
+    /// Alternatives told apart by the JSON type of the value.
+    Either(Vec<Shape>),
+    /// A named shape from [`defs`], written once in the schema's `$defs`.
+    Def(&'static str),
+}
+
+#[derive(Debug, Clone)]
+pub struct Obj {
+    pub fields: Vec<Field>,
+    /// Exactly one of these keys must be present.
+    pub exactly_one_of: &'static [&'static str],
+}
+
+#[derive(Debug, Clone)]
+pub struct Field {
+    pub name: &'static str,
+    pub shape: Shape,
+    pub required: bool,
+    pub doc: &'static str,
+}
+
+fn f(name: &'static str, shape: Shape, doc: &'static str) -> Field {
+    Field { name, shape, required: false, doc }
+}
+fn req(name: &'static str, shape: Shape, doc: &'static str) -> Field {
+    Field { name, shape, required: true, doc }
+}
+fn obj(fields: Vec<Field>) -> Shape {
+    Shape::Object(Obj { fields, exactly_one_of: &[] })
+}
+fn text() -> Shape {
+    Shape::Text("text")
+}
+fn num(min: Option<f64>, max: Option<f64>) -> Shape {
+    Shape::Number { min, max }
+}
+fn count(min: i64) -> Shape {
+    Shape::Integer { min, max: u32::MAX as i64 }
+}
+fn list(s: Shape) -> Shape {
+    Shape::List(Box::new(s))
+}
+
+// ---------------------------------------------------------------- vocabulary
+
+pub const GEOMETRIES: &[&str] = &["point", "line", "step", "area", "bar", "ribbon", "rule", "label", "tile", "box", "range"];
+pub const CHANNELS: &[&str] = &["x", "y", "x_end", "y_end", "color", "size", "shape", "opacity", "text", "group"];
+pub const COLUMN_TYPES: &[&str] = &["number", "text", "date", "bool"];
+pub const DATA_FORMATS: &[&str] = &["csv", "tsv", "arrow", "json"];
+pub const STAT_WORDS: &[&str] = &["identity", "count", "box"];
+pub const SUMMARIES: &[&str] = &["mean", "median", "sum", "min", "max", "count"];
+pub const INTERVALS: &[&str] = &["ci95", "ci90", "ci99", "sd", "se", "range"];
+pub const FITS: &[&str] = &["linear", "loess"];
+pub const BIN_RULES: &[&str] = &["fd", "scott", "sturges", "sqrt"];
+pub const BANDWIDTHS: &[&str] = &["scott", "silverman"];
+pub const WINDOW_ALIGN: &[&str] = &["center", "end"];
+pub const ARRANGES: &[&str] = &["none", "stack", "beside", "proportion", "jitter"];
+pub const SCALE_KINDS: &[&str] = &["linear", "log", "sqrt", "symlog", "time", "category"];
+pub const PLACEMENTS: &[&str] = &["top", "bottom", "left", "right", "none"];
+pub const COORD_WORDS: &[&str] = &["cartesian", "flip", "polar"];
+pub const FREE: &[&str] = &["x", "y", "both"];
+pub const THEME_WORDS: &[&str] = &["auto", "light", "dark"];
+pub const POINT_SHAPES: &[&str] = &["circle", "square", "triangle", "diamond", "plus", "cross"];
+/// Lint codes that `quiet` may silence (see `crate::lint`).
+pub const LINT_CODES: &[&str] = &crate::lint::CODES;
+
+/// Named shapes, written once under `$defs` in the schema.
+pub fn defs() -> Vec<(&'static str, Shape, &'static str)> {
+    vec![
+        (
+            "channel",
+            Shape::Either(vec![
+                Shape::Text("a column name"),
+                obj(vec![
+                    req("column", Shape::Text("a column name"), "The column that feeds this channel."),
+                    f("as", Shape::Word(COLUMN_TYPES), "Read the column as this type for this channel only."),
+                ]),
+            ]),
+            "A column name, or {\"column\": ..., \"as\": ...} to read it as another type.",
+        ),
+        ("position", Shape::Either(vec![num(None, None), Shape::Text("a category or date")]), "A data value: a number, a category, or a date as text."),
+        ("color", Shape::Text("a CSS colour"), "A CSS Color Level 4 colour, such as \"#3c7ebe\" or \"rgb(60 126 190)\"."),
+    ]
+}
+
+fn def_shape(name: &str) -> Shape {
+    defs().into_iter().find(|(n, _, _)| *n == name).map(|(_, s, _)| s).expect("known def")
+}
+
+/// The shape of a whole spec.
+pub fn spec_shape() -> Shape {
+    let channel = || Shape::Def("channel");
+    let position = || Shape::Def("position");
+    let color = || Shape::Def("color");
+    let data = Shape::Either(vec![
+        Shape::Text("a data URL"),
+        obj(vec![
+            f("url", Shape::Text("a URL"), "Where to fetch the data, relative to the page (or the spec file for the command line)."),
+            f("format", Shape::Word(DATA_FORMATS), "csv, tsv, arrow (IPC file or stream) or json (an array of records). Default: from the URL's extension, then from the bytes."),
+            f("types", Shape::Map { keys: None, value: Box::new(Shape::Word(COLUMN_TYPES)) }, "Per-column type overrides: number, text, date, bool."),
+            f("sha256", Shape::Text("a hex SHA-256 digest"), "Hex SHA-256 of the data bytes; data whose digest differs is refused."),
+            f("rows", list(Shape::Map { keys: None, value: Box::new(Shape::Any) }), "Inline records, for small tables."),
+        ]),
+    ]);
+    let bin = obj(vec![
+        f("rule", Shape::Word(BIN_RULES), "How to choose the bin width: fd (Freedman-Diaconis, default), scott, sturges, sqrt."),
+        f("width", num(Some(0.0), None), "Bin width in data units; overrides the rule."),
+        f("count", count(1), "Wanted number of bins; overrides the rule."),
+        f("boundary", num(None, None), "A value that falls on a bin edge."),
+    ]);
+    let density = Shape::Either(vec![
+        Shape::Word(BANDWIDTHS),
+        obj(vec![f("bandwidth", Shape::Either(vec![Shape::Word(BANDWIDTHS), num(Some(0.0), None)]), "scott (default), silverman, or a number in data units.")]),
+    ]);
+    let window = Shape::Either(vec![
+        count(1),
+        obj(vec![
+            req("size", count(1), "Rows in the window."),
+            f("summary", Shape::Word(SUMMARIES), "What to compute over the window (default mean)."),
+            f("align", Shape::Word(WINDOW_ALIGN), "Window centred on the row (center, default) or ending at it (end)."),
+        ]),
+    ]);
+    let stat = Shape::Either(vec![
+        Shape::Word(STAT_WORDS),
+        Shape::Object(Obj {
+            fields: vec![
+                f("bin", bin, "Count rows in bins along x."),
+                f("summary", Shape::Word(SUMMARIES), "Summarise y for each x (and colour/group)."),
+                f("interval", Shape::Word(INTERVALS), "With summary: an interval around it (ci95, ci90, ci99, sd, se, range)."),
+                f("fit", Shape::Word(FITS), "Fit a curve of y on x: linear or loess."),
+                f("band", num(Some(0.0), Some(1.0)), "With fit: confidence level of the band, such as 0.95."),
+                f("density", density, "Kernel density estimate of x."),
+                f("window", window, "Running summary over neighbouring rows, in x order."),
+            ],
+            exactly_one_of: &["bin", "summary", "fit", "density", "window"],
+        }),
+    ]);
+    let style = obj(vec![
+        f("color", color(), "Colour of the marks."),
+        f("opacity", num(Some(0.0), Some(1.0)), "Opacity of the marks, 0 to 1."),
+        f("width", num(Some(0.0), None), "Stroke width in pixels for lines and outlines."),
+        f("radius", num(Some(0.0), None), "Point radius in pixels."),
+        f("dash", list(num(Some(0.0), None)), "Dash pattern in pixels, such as [4, 2]."),
+        f("band", num(Some(0.0), Some(1.0)), "Fraction of a band a bar fills, 0 to 1."),
+        f("shape", Shape::Word(POINT_SHAPES), "Shape of points: circle, square, triangle, diamond, plus, cross."),
+        f("font_size", num(Some(0.0), None), "Text size of labels in pixels."),
+    ]);
+    let mut layer_fields = vec![req("draw", Shape::Word(GEOMETRIES), "The geometry.")];
+    for ch in CHANNELS {
+        layer_fields.push(f(ch, channel(), "A channel: the column mapped to it."));
+    }
+    layer_fields.extend([
+        f("tip", list(Shape::Text("a column name")), "Columns shown on hover and keyboard focus."),
+        f("style", style, "Constant styling of the marks; never data-driven."),
+        f("stat", stat, "The statistic: identity (default), count, box, or an object."),
+        f("arrange", Shape::Word(ARRANGES), "Position adjustment: none (default), stack, beside, proportion, jitter."),
+    ]);
+    let layer = obj(layer_fields);
+    let scale = obj(vec![
+        f("kind", Shape::Word(SCALE_KINDS), "linear, log, sqrt, symlog, time or category. Default: from the data."),
+        f("domain", list(Shape::Either(vec![num(None, None), text(), Shape::Bool])), "The values the scale covers: [low, high], or the categories in order."),
+        f("zero", Shape::Bool, "Include zero in the domain. Default: true for bars and areas, false otherwise."),
+        f("nice", Shape::Bool, "Round the domain out to tick values. Default: true, except for time."),
+        f("reverse", Shape::Bool, "Run the scale the other way."),
+        f("title", text(), "Axis or legend title. Default: the column name; \"\" hides it."),
+        f("format", Shape::Text("an LDML number or date pattern"), "Label pattern: LDML number (#,##0.0) or date (yyyy-MM-dd) pattern."),
+        f("ticks", count(0), "Wanted number of ticks."),
+        f("palette", Shape::Text("a palette name"), "Named palette for colour scales."),
+        f("axis", Shape::Word(PLACEMENTS), "Where the axis goes: top, bottom, left, right, none."),
+        f("legend", Shape::Word(PLACEMENTS), "Where the legend goes: top, bottom, left, right, none."),
+        f("hide", Shape::Bool, "Hide the axis or legend."),
+        f("base", num(Some(0.0), None), "Base of a log scale (default 10)."),
+    ]);
+    let coords = Shape::Either(vec![
+        Shape::Word(COORD_WORDS),
+        obj(vec![
+            req("kind", Shape::Word(&["polar"]), "polar."),
+            f("angle", Shape::Word(&["x", "y"]), "Which position channel becomes the angle (default x)."),
+            f("start", num(None, None), "Start angle in degrees clockwise from 12 o'clock (default 0)."),
+            f("inner", num(Some(0.0), Some(1.0)), "Inner radius as a fraction of the outer one (default 0)."),
+        ]),
+    ]);
+    let panels = obj(vec![
+        f("by", Shape::Text("a column name"), "One panel per value of this column, wrapped into rows."),
+        f("columns", count(1), "With by: panels per row."),
+        f("rows", Shape::Text("a column name"), "One row of panels per value of this column."),
+        f("cols", Shape::Text("a column name"), "One column of panels per value of this column."),
+        f("free", Shape::Word(FREE), "Let each panel's scale fit its own data: x, y or both."),
+    ]);
+    let note = obj(vec![
+        f("x", position(), "Data position along x: alone, a vertical reference line."),
+        f("y", position(), "Data position along y: alone, a horizontal reference line."),
+        f("x_end", position(), "With x: shade the span from x to x_end."),
+        f("y_end", position(), "With y: shade the span from y to y_end."),
+        f("text", text(), "The note's text."),
+    ]);
+    let size = obj(vec![
+        f("width", num(Some(0.0), None), "Width in pixels. Absent: fill the container and redraw on resize."),
+        f("height", num(Some(0.0), None), "Height in pixels."),
+        f("aspect", num(Some(0.0), None), "Width divided by height, used when height is absent."),
+    ]);
+    let theme = Shape::Either(vec![
+        Shape::Word(THEME_WORDS),
+        obj(vec![
+            f("base", Shape::Word(&["light", "dark"]), "The theme these overrides start from (default light)."),
+            f("background", color(), "Background colour."),
+            f("text", color(), "Colour of titles and labels."),
+            f("muted", color(), "Colour of subtitles, source lines and tick labels."),
+            f("grid", color(), "Colour of grid lines."),
+            f("axis", color(), "Colour of axis lines and ticks."),
+            f("mark", color(), "Colour of marks when no colour channel is mapped."),
+            f("font_size", num(Some(0.0), None), "Base text size in pixels."),
+        ]),
+    ]);
+    obj(vec![
+        f("$schema", Shape::Text("a URL"), "The schema this spec follows, for editors; ignored when drawing."),
+        f("title", text(), "The chart's title."),
+        f("subtitle", text(), "A line under the title."),
+        f("source", text(), "Source line under the chart."),
+        f("description", text(), "Author-written text alternative; replaces the automatic summary for screen readers."),
+        f("data", data, "The table: a URL, or an object."),
+        f("derive", Shape::Map { keys: None, value: Box::new(Shape::Text("an expression")) }, "New columns from SQL-subset expressions, evaluated in order."),
+        f("where", Shape::Text("an expression"), "A SQL-subset condition; rows where it is TRUE are kept."),
+        req("layers", list(layer), "The layers, drawn in order, later on top."),
+        f("scales", Shape::Map { keys: Some(CHANNELS), value: Box::new(scale) }, "Scales keyed by channel."),
+        f("coords", coords, "Coordinate system: cartesian (default), flip, or polar."),
+        f("panels", panels, "Small multiples."),
+        f("notes", list(note), "Annotations: text, shaded spans, reference lines."),
+        f("size", size, "The chart's size."),
+        f("theme", theme, "light, dark, auto (default: follows the reader's preference), or overrides."),
+        f("quiet", list(Shape::Word(LINT_CODES)), "Lint warnings silenced on purpose, by code."),
+    ])
+}
+
+// ---------------------------------------------------------------- checking
+
+/// The JSON type of a value, in words, with a short excerpt.
+fn found(v: &Value) -> String {
+    let excerpt = |s: String| if s.chars().count() > 40 { format!("{}...", s.chars().take(37).collect::<String>()) } else { s };
+    match v {
+        Value::Null => "null".into(),
+        Value::Bool(b) => format!("{b}"),
+        Value::Number(n) => format!("the number {n}"),
+        Value::String(s) => format!("the text {}", excerpt(format!("{s:?}"))),
+        Value::Array(_) => "a list".into(),
+        Value::Object(_) => "an object".into(),
+    }
+}
+
+fn join_words(words: &[&str]) -> String {
+    let w: Vec<String> = words.iter().map(|w| format!("`{w}`")).collect();
+    match w.len() {
+        0 => String::new(),
+        1 => w[0].clone(),
+        _ => format!("{} or {}", w[..w.len() - 1].join(", "), w[w.len() - 1]),
+    }
+}
+
+impl Shape {
+    /// What this shape accepts, in words.
+    pub fn expected(&self) -> String {
+        match self {
+            Shape::Any => "any value".into(),
+            Shape::Text(what) => what.to_string(),
+            Shape::Word(ws) => format!("one of {}", join_words(ws)),
+            Shape::Number { min: Some(a), max: Some(b) } => format!("a number from {a} to {b}"),
+            Shape::Number { min: Some(a), .. } => format!("a number of at least {a}"),
+            Shape::Number { .. } => "a number".into(),
+            Shape::Integer { min, .. } if *min > 0 => format!("a whole number of at least {min}"),
+            Shape::Integer { .. } => "a whole number".into(),
+            Shape::Bool => "true or false".into(),
+            Shape::List(_) => "a list".into(),
+            Shape::Map { .. } | Shape::Object(_) => "an object".into(),
+            Shape::Either(alts) => alts.iter().map(|a| a.expected()).collect::<Vec<_>>().join(", or "),
+            Shape::Def(name) => def_shape(name).expected(),
+        }
+    }
+
+    fn accepts_type(&self, v: &Value) -> bool {
+        match self {
+            Shape::Any => true,
+            Shape::Text(_) | Shape::Word(_) => v.is_string(),
+            Shape::Number { .. } | Shape::Integer { .. } => v.is_number(),
+            Shape::Bool => v.is_boolean(),
+            Shape::List(_) => v.is_array(),
+            Shape::Map { .. } | Shape::Object(_) => v.is_object(),
+            Shape::Either(alts) => alts.iter().any(|a| a.accepts_type(v)),
+            Shape::Def(name) => def_shape(name).accepts_type(v),
+        }
+    }
+}
+
+fn key_path(path: &str, key: &str) -> String {
+    let plain = !key.is_empty() && key.chars().all(|c| c.is_alphanumeric() || c == '_' || c == '$');
+    let seg = if plain { key.to_string() } else { format!("{key:?}") };
+    if path.is_empty() { seg } else { format!("{path}.{seg}") }
+}
+
+/// Check `v` against `shape`, pushing every problem found.
+pub fn check(v: &Value, shape: &Shape, path: &str, out: &mut Vec<Diagnostic>) {
+    match shape {
+        Shape::Any => {}
+        Shape::Def(name) => check(v, &def_shape(name), path, out),
+        Shape::Either(alts) => match alts.iter().find(|a| a.accepts_type(v)) {
+            Some(a) => check(v, a, path, out),
+            None => out.push(wrong_type(shape, v, path)),
+        },
+        _ if !shape.accepts_type(v) => out.push(wrong_type(shape, v, path)),
+        Shape::Text(_) | Shape::Bool => {}
+        Shape::Word(words) => {
+            let s = v.as_str().unwrap_or_default();
+            if !words.contains(&s) {
+                let mut d = Diagnostic::error("spec.unknown_word", format!("`{s}` is not one of {}", join_words(words))).at_path(path);
+                if let Some(near) = closest(s, words.iter().copied()) {
+                    d = d.with_hint(format!("did you mean `{near}`?"));
+                } else if let Some(near) = words.iter().find(|w| w.eq_ignore_ascii_case(s)) {
+                    d = d.with_hint(format!("words are lower case: `{near}`"));
+                }
+                out.push(d);
+            }
+        }
+        Shape::Number { min, max } => {
+            let x = v.as_f64().unwrap_or(f64::NAN);
+            if min.is_some_and(|m| x < m) || max.is_some_and(|m| x > m) {
+                out.push(Diagnostic::error("spec.out_of_range", format!("expected {}, found {x}", shape.expected())).at_path(path));
+            }
+        }
+        Shape::Integer { min, max } => match v.as_i64() {
+            Some(x) if x >= *min && x <= *max => {}
+            Some(x) => out.push(Diagnostic::error("spec.out_of_range", format!("expected {}, found {x}", shape.expected())).at_path(path)),
+            None => out.push(
+                Diagnostic::error("spec.wrong_type", format!("expected {}, found {}", shape.expected(), found(v)))
+                    .at_path(path)
+                    .with_hint("write a whole number without a decimal point"),
+            ),
+        },
+        Shape::List(item) => {
+            for (i, x) in v.as_array().into_iter().flatten().enumerate() {
+                check(x, item, &format!("{path}[{i}]"), out);
+            }
+        }
+        Shape::Map { keys, value } => {
+            for (k, x) in v.as_object().into_iter().flatten() {
+                let p = key_path(path, k);
+                if let Some(keys) = keys {
+                    if !keys.contains(&k.as_str()) {
+                        out.push(unknown_key(k, keys, &p));
+                        continue;
+                    }
+                }
+                check(x, value, &p, out);
+            }
+        }
+        Shape::Object(o) => {
+            let m: &Map<String, Value> = v.as_object().expect("checked");
+            let names: Vec<&str> = o.fields.iter().map(|f| f.name).collect();
+            for (k, x) in m {
+                let p = key_path(path, k);
+                match o.fields.iter().find(|f| f.name == k) {
+                    Some(field) => check(x, &field.shape, &p, out),
+                    None => out.push(unknown_key(k, &names, &p)),
+                }
+            }
+            for field in o.fields.iter().filter(|f| f.required) {
+                if !m.contains_key(field.name) {
+                    out.push(
+                        Diagnostic::error("spec.missing_key", format!("`{}` is required here: {}", field.name, field.doc.trim_end_matches('.').to_lowercase()))
+                            .at_path(path),
+                    );
+                }
+            }
+            if !o.exactly_one_of.is_empty() {
+                let present: Vec<&str> = o.exactly_one_of.iter().copied().filter(|k| m.contains_key(*k)).collect();
+                if present.len() != 1 {
+                    let msg = if present.is_empty() {
+                        format!("this object needs one of {}", join_words(o.exactly_one_of))
+                    } else {
+                        format!("this object takes only one of {}, but has {}", join_words(o.exactly_one_of), join_words(&present))
+                    };
+                    out.push(Diagnostic::error("spec.one_of", msg).at_path(path).with_hint("use one layer for each"));
+                }
+            }
+        }
+    }
+}
+
+fn wrong_type(shape: &Shape, v: &Value, path: &str) -> Diagnostic {
+    Diagnostic::error("spec.wrong_type", format!("expected {}, found {}", shape.expected(), found(v))).at_path(path)
+}
+
+fn unknown_key(k: &str, names: &[&str], path: &str) -> Diagnostic {
+    let visible: Vec<&str> = names.iter().copied().filter(|n| !n.starts_with('$')).collect();
+    let mut d = Diagnostic::error("spec.unknown_key", format!("unknown key `{k}`")).at_path(path);
+    d = match closest(k, names.iter().copied()) {
+        Some(near) => d.with_hint(format!("did you mean `{near}`?")),
+        None => d.with_hint(format!("the keys here are {}", join_words(&visible))),
+    };
+    d
+}
+
+// ---------------------------------------------------------------- JSON Schema
+
+fn schema_of(shape: &Shape, doc: Option<&str>) -> Value {
+    let mut s = match shape {
+        Shape::Any => json!({}),
+        Shape::Text(_) => json!({"type": "string"}),
+        Shape::Word(ws) => json!({"type": "string", "enum": ws}),
+        Shape::Number { min, max } => {
+            let mut s = json!({"type": "number"});
+            if let Some(m) = min {
+                s["minimum"] = json!(m);
+            }
+            if let Some(m) = max {
+                s["maximum"] = json!(m);
+            }
+            s
+        }
+        Shape::Integer { min, max } => json!({"type": "integer", "minimum": min, "maximum": max}),
+        Shape::Bool => json!({"type": "boolean"}),
+        Shape::List(item) => json!({"type": "array", "items": schema_of(item, None)}),
+        Shape::Map { keys, value } => {
+            let mut s = json!({"type": "object", "additionalProperties": schema_of(value, None)});
+            if let Some(keys) = keys {
+                s["propertyNames"] = json!({"enum": keys});
+            }
+            s
+        }
+        Shape::Object(o) => {
+            let mut props = Map::new();
+            for f in &o.fields {
+                props.insert(f.name.to_string(), schema_of(&f.shape, Some(f.doc)));
+            }
+            let required: Vec<&str> = o.fields.iter().filter(|f| f.required).map(|f| f.name).collect();
+            let mut s = json!({"type": "object", "properties": props, "additionalProperties": false});
+            if !required.is_empty() {
+                s["required"] = json!(required);
+            }
+            if !o.exactly_one_of.is_empty() {
+                s["oneOf"] = Value::Array(o.exactly_one_of.iter().map(|k| json!({"required": [k]})).collect());
+            }
+            s
+        }
+        Shape::Either(alts) => json!({"anyOf": alts.iter().map(|a| schema_of(a, None)).collect::<Vec<_>>()}),
+        Shape::Def(name) => json!({"$ref": format!("#/$defs/{name}")}),
+    };
+    if let (Some(d), Some(m)) = (doc, s.as_object_mut()) {
+        m.insert("description".into(), json!(d));
+    }
+    s
+}
+
+/// The JSON Schema (draft 2020-12) of a spec.
+pub fn json_schema() -> Value {
+    let mut root = schema_of(&spec_shape(), None);
+    let m = root.as_object_mut().expect("object");
+    let mut out = Map::new();
+    out.insert("$schema".into(), json!("https://json-schema.org/draft/2020-12/schema"));
+    out.insert("title".into(), json!("Strata chart spec"));
+    out.insert("description".into(), json!("A chart: data, layers, scales and the rest. See docs/spec.md."));
+    for (k, v) in std::mem::take(m) {
+        out.insert(k, v);
+    }
+    // A spec needs at least one layer.
+    out["properties"]["layers"]["minItems"] = json!(1);
+    let mut defs_map = Map::new();
+    for (name, shape, doc) in defs() {
+        defs_map.insert(name.into(), schema_of(&shape, Some(doc)));
+    }
+    out.insert("$defs".into(), Value::Object(defs_map));
+    Value::Object(out)
+}
+
+/// Every key path the vocabulary knows, such as `layers[].stat.bin.rule`
+/// (for documentation checks).
+pub fn key_paths() -> Vec<String> {
+    fn walk(shape: &Shape, path: &str, out: &mut Vec<String>) {
+        match shape {
+            Shape::Object(o) => {
+                for f in &o.fields {
+                    let p = if path.is_empty() { f.name.to_string() } else { format!("{path}.{}", f.name) };
+                    out.push(p.clone());
+                    walk(&f.shape, &p, out);
+                }
+            }
+            Shape::List(item) => walk(item, &format!("{path}[]"), out),
+            Shape::Map { value, keys, .. } => walk(value, &format!("{path}.{}", if keys.is_some() { "CHANNEL" } else { "NAME" }), out),
+            Shape::Either(alts) => alts.iter().for_each(|a| walk(a, path, out)),
+            Shape::Def(name) => walk(&def_shape(name), path, out),
+            _ => {}
+        }
+    }
+    let mut out = Vec::new();
+    walk(&spec_shape(), "", &mut out);
+    out
+}

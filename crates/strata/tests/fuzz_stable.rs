@@ -1,0 +1,189 @@
+//! A stable-toolchain stand-in for the libFuzzer targets in fuzz/: seeded
+//! random inputs for spec JSON and for expressions, asserting no panic and
+//! the basic contracts (an evaluated column has one value per row; an
+//! error points inside the text). STRATA_FUZZ_CASES scales the run
+//! (default 3000 a target, a few seconds in a debug build).
+
+use serde_json::Value;
+
+/// SplitMix64 (Steele, Lea, Flood 2014).
+struct Rng(u64);
+impl Rng {
+    fn next(&mut self) -> u64 {
+        self.0 = self.0.wrapping_add(0x9e3779b97f4a7c15);
+        let mut z = self.0;
+        z = (z ^ (z >> 30)).wrapping_mul(0xbf58476d1ce4e5b9);
+        z = (z ^ (z >> 27)).wrapping_mul(0x94d049bb133111eb);
+        z ^ (z >> 31)
+    }
+    fn below(&mut self, n: usize) -> usize {
+        (self.next() % n as u64) as usize
+    }
+    fn pick<'a>(&mut self, xs: &[&'a str]) -> &'a str {
+        xs[self.below(xs.len())]
+    }
+}
+
+fn cases() -> usize {
+    std::env::var("STRATA_FUZZ_CASES").ok().and_then(|v| v.parse().ok()).unwrap_or(3000)
+}
+
+const TABLE: &str = "i,x,s,b,d,t\n1,1.5,a,true,2024-01-31,2024-01-31T10:00:00Z\n-7,,It's,false,,2000-02-29T00:00:00Z\n,0.0,,,1969-12-31,\n9223372036854775807,-2.5e10,Ünï,true,2024-02-29,2024-02-29T23:59:59Z\n";
+
+const TOKENS: &[&str] = &[
+    "i", "x", "s", "b", "d", "t", "\"i\"", "\"s\"", "nope", "1", "0", "-1", "2.5", "1e308", "9223372036854775807", "'a'", "''", "'It''s'",
+    "TRUE", "FALSE", "NULL", "DATE '2024-02-29'", "TIMESTAMP '2024-01-01 00:00:00'", "+", "-", "*", "/", "||", "=", "<>", "<", "<=", ">",
+    ">=", "AND", "OR", "NOT", "IN", "BETWEEN", "IS", "CASE", "WHEN", "THEN", "ELSE", "END", "(", ")", ",", "log(", "ln(", "exp(",
+    "sqrt(", "abs(", "round(", "floor(", "ceil(", "lower(", "upper(", "length(", "year(", "month(", "day(", "coalesce(", "'", "\"", "%",
+    "é", "\n",
+];
+
+/// A well-formed random expression (so that evaluation, not only parsing, is exercised).
+fn grammar(r: &mut Rng, depth: usize) -> String {
+    if depth > 4 {
+        return r.pick(&["i", "x", "s", "b", "d", "t", "1", "2.5", "'a'", "NULL", "TRUE"]).to_string();
+    }
+    let a = grammar(r, depth + 1);
+    let b = grammar(r, depth + 1);
+    match r.below(12) {
+        0 => format!("{a} {} {b}", r.pick(&["+", "-", "*", "/", "||"])),
+        1 => format!("{a} {} {b}", r.pick(&["=", "<>", "<", "<=", ">", ">="])),
+        2 => format!("{a} {} {b}", r.pick(&["AND", "OR"])),
+        3 => format!("NOT {a}"),
+        4 => format!("{a} IS {}NULL", r.pick(&["", "NOT "])),
+        5 => format!("{a} {}IN ({b}, {})", r.pick(&["", "NOT "]), grammar(r, depth + 1)),
+        6 => format!("{a} BETWEEN {b} AND {}", grammar(r, depth + 1)),
+        7 => format!("CASE WHEN {a} THEN {b} ELSE {} END", grammar(r, depth + 1)),
+        8 => format!("{}({a})", r.pick(&["log", "ln", "exp", "sqrt", "abs", "round", "floor", "ceil", "lower", "upper", "length", "year", "month", "day"])),
+        9 => format!("coalesce({a}, {b})"),
+        10 => format!("-({a})"),
+        _ => format!("({a})"),
+    }
+}
+
+/// A well-typed random expression of kind 'n' (number), 'b' (boolean) or 't' (text).
+fn typed(r: &mut Rng, kind: char, depth: usize) -> String {
+    let leaf = depth > 4 || r.below(4) == 0;
+    match kind {
+        'n' if leaf => r.pick(&["i", "x", "1", "-3", "2.5", "0", "NULL", "9223372036854775807", "year(d)", "month(t)", "length(s)"]).to_string(),
+        'n' => match r.below(6) {
+            0 => format!("{} {} {}", typed(r, 'n', depth + 1), r.pick(&["+", "-", "*", "/"]), typed(r, 'n', depth + 1)),
+            1 => format!("{}({})", r.pick(&["log", "ln", "exp", "sqrt", "abs", "round", "floor", "ceil"]), typed(r, 'n', depth + 1)),
+            2 => format!("CASE WHEN {} THEN {} ELSE {} END", typed(r, 'b', depth + 1), typed(r, 'n', depth + 1), typed(r, 'n', depth + 1)),
+            3 => format!("coalesce({}, {})", typed(r, 'n', depth + 1), typed(r, 'n', depth + 1)),
+            4 => format!("round({}, {})", typed(r, 'n', depth + 1), r.pick(&["0", "2", "-1", "40", "i"])),
+            _ => format!("-({})", typed(r, 'n', depth + 1)),
+        },
+        'b' if leaf => r.pick(&["b", "TRUE", "FALSE", "NULL", "d < '2020-01-01'", "t >= DATE '2024-01-31'"]).to_string(),
+        'b' => match r.below(7) {
+            0 => format!("{} {} {}", typed(r, 'n', depth + 1), r.pick(&["=", "<>", "<", "<=", ">", ">="]), typed(r, 'n', depth + 1)),
+            1 => format!("{} {} {}", typed(r, 'b', depth + 1), r.pick(&["AND", "OR"]), typed(r, 'b', depth + 1)),
+            2 => format!("NOT {}", typed(r, 'b', depth + 1)),
+            3 => format!("{} IN ({}, {})", typed(r, 'n', depth + 1), typed(r, 'n', depth + 1), typed(r, 'n', depth + 1)),
+            4 => format!("{} NOT BETWEEN {} AND {}", typed(r, 't', depth + 1), typed(r, 't', depth + 1), typed(r, 't', depth + 1)),
+            5 => {
+                let k = ['n', 't', 'b'][r.below(3)];
+                format!("{} IS NOT NULL", typed(r, k, depth + 1))
+            }
+            _ => format!("{} = {}", typed(r, 't', depth + 1), typed(r, 't', depth + 1)),
+        },
+        _ if leaf => r.pick(&["s", "'a'", "''", "NULL", "'Ünï'"]).to_string(),
+        _ => match r.below(4) {
+            0 => format!("{} || {}", typed(r, 't', depth + 1), typed(r, 't', depth + 1)),
+            1 => format!("{}({})", r.pick(&["lower", "upper"]), typed(r, 't', depth + 1)),
+            2 => format!("CASE {} WHEN {} THEN {} END", typed(r, 'n', depth + 1), typed(r, 'n', depth + 1), typed(r, 't', depth + 1)),
+            _ => format!("coalesce({}, {})", typed(r, 't', depth + 1), typed(r, 't', depth + 1)),
+        },
+    }
+}
+
+#[test]
+fn expressions_never_panic() {
+    let table = strata::data::read(TABLE.as_bytes(), &Default::default()).unwrap();
+    let mut r = Rng(0xe7_9e55);
+    let (mut ok, mut err) = (0, 0);
+    for n in 0..cases() {
+        let text = match n % 4 {
+            3 => {
+                let k = ['n', 'b', 't'][r.below(3)];
+                typed(&mut r, k, 0)
+            }
+            0 => (0..1 + r.below(12)).map(|_| r.pick(TOKENS)).collect::<Vec<_>>().join(if r.below(2) == 0 { " " } else { "" }),
+            1 => grammar(&mut r, 0),
+            _ => {
+                // A grammatical expression with a few characters changed.
+                let mut c: Vec<char> = grammar(&mut r, 1).chars().collect();
+                for _ in 0..1 + r.below(3) {
+                    let i = r.below(c.len() + 1);
+                    let ch = ['(', ')', '\'', '"', ' ', '-', 'x', 'N', '9', ','][r.below(10)];
+                    if i < c.len() && r.below(2) == 0 {
+                        c[i] = ch;
+                    } else {
+                        c.insert(i.min(c.len()), ch);
+                    }
+                }
+                c.into_iter().collect()
+            }
+        };
+        match strata::expr::evaluate(&table, &text) {
+            Ok(col) => {
+                assert_eq!(col.len(), table.num_rows(), "{text}");
+                ok += 1;
+            }
+            Err(e) => {
+                assert!(e.span.start <= text.chars().count(), "{text}: span {:?}", e.span);
+                assert!(e.render(&text).contains('^'));
+                err += 1;
+            }
+        }
+    }
+    assert!(ok > cases() / 8 && err > cases() / 8, "ok {ok}, err {err}");
+}
+
+#[test]
+fn specs_never_panic() {
+    let root = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("../..");
+    let mut seeds: Vec<String> = std::fs::read_dir(root.join("examples"))
+        .unwrap()
+        .map(|e| e.unwrap().path())
+        .filter(|p| p.extension().is_some_and(|e| e == "json"))
+        .map(|p| std::fs::read_to_string(p).unwrap())
+        .collect();
+    seeds.sort();
+    seeds.push(r##"{"data":{"rows":[{"a":1,"b":"x"},{"a":null,"b":"y"}]},"derive":{"c":"a * 2"},"where":"b <> 'y'","layers":[{"draw":"bar","x":"b","y":"c"}],"theme":{"text":"#777"}}"##.into());
+    let pieces = ["{", "}", "[", "]", ",", ":", "\"", "null", "true", "1e999", "-0", "\"layers\"", "\"draw\"", "\"where\"", "\"derive\"", "\"rows\"", "\\u0000", "é"];
+    let mut r = Rng(0x5bec_f022);
+    let mut parsed = 0;
+    for n in 0..cases() {
+        let seed = &seeds[n % seeds.len()];
+        let mut text: Vec<char> = seed.chars().collect();
+        for _ in 0..1 + r.below(4) {
+            let i = r.below(text.len() + 1);
+            match r.below(3) {
+                0 if i < text.len() => {
+                    text.remove(i);
+                }
+                1 => {
+                    let p: Vec<char> = r.pick(&pieces).chars().collect();
+                    text.splice(i..i, p);
+                }
+                _ => text.truncate(i.max(1)),
+            }
+        }
+        let text: String = text.into_iter().collect();
+        if let Ok(spec) = strata::spec::parse_spec(&text) {
+            parsed += 1;
+            let _ = strata::lint::check(&spec, None);
+            if let Some(rows) = spec.data.as_ref().and_then(|d| d.object().rows) {
+                if let Ok(table) = strata::data::from_rows(&rows, &Default::default()) {
+                    let _ = strata::expr::apply(table, &spec.derive, spec.where_.as_deref());
+                }
+            }
+        } else if let Err(e) = serde_json::from_str::<Value>(&text) {
+            // Invalid JSON: the engine must say so with a position.
+            let msg = strata::spec::parse_spec(&text).unwrap_err().0[0].message.clone();
+            assert!(msg.contains("line"), "{e}: {msg}");
+        }
+    }
+    assert!(parsed > 0);
+}
