@@ -192,7 +192,7 @@ pub fn histogram_weighted(xs: &[f64], weights: &[f64], edges: &[f64]) -> Vec<f64
     }
     let (lo, hi) = (edges[0], edges[nb]);
     for (&x, &w) in xs.iter().zip(weights) {
-        if !(x >= lo && x <= hi) || !w.is_finite() {
+        if !(x >= lo && x <= hi && w.is_finite()) {
             continue;
         }
         let k = edges.partition_point(|e| *e <= x).saturating_sub(1).min(nb - 1);

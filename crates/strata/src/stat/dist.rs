@@ -167,7 +167,7 @@ pub fn t_quantile(p: f64, df: f64) -> f64 {
         }
         let step = f / t_pdf(t, df);
         let mut next = t - step;
-        if !(next > lo && next < hi) || !next.is_finite() {
+        if !(next > lo && next < hi && next.is_finite()) {
             next = 0.5 * (lo + hi);
         }
         if (next - t).abs() <= 1e-15 * t.abs().max(1e-300) {
