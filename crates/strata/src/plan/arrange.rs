@@ -1,29 +1,46 @@
 //! Position adjustments: where marks that share an x go.
+//!
+//! - `stack`: bars and areas sharing an x (and panel) pile up; positive
+//!   values stack upward from zero and negative values downward from zero,
+//!   each on their own.
+//! - `proportion`: a stack scaled so each x's absolute values sum to 1.
+//! - `beside`: marks sharing an x sit side by side within the band; the
+//!   scene divides the band among the colour categories.
+//! - `jitter`: points move by a seeded pseudo-random amount (SplitMix64,
+//!   seed fixed per layer), so every render is identical: up to 40 % of the
+//!   data's resolution (smallest gap between distinct values) for numbers,
+//!   or up to 30 % of a band either way (`x_offset`) for categories.
 
 use super::{LayerData, Values};
 use crate::spec::{Arrange, Geometry, Layer};
+use crate::stat::rng::SplitMix64;
 
-pub fn apply(layer: &Layer, mut data: LayerData) -> LayerData {
-    let extent = matches!(layer.draw, Geometry::Bar | Geometry::Area);
-    if !extent {
+/// Seed of the jitter generator; the layer index is mixed in.
+const JITTER_SEED: u64 = 0x5354_5241_5441_0001;
+
+pub fn apply(index: usize, layer: &Layer, geometry: Geometry, mut data: LayerData) -> LayerData {
+    if layer.arrange == Arrange::Jitter {
+        jitter(index, &mut data);
+    }
+    let extent = matches!(geometry, Geometry::Bar | Geometry::Area);
+    if !extent || data.get("y_base").is_some() {
         return data;
     }
     let Some(Values::Num(ys)) = data.get("y").cloned() else { return data };
     let mut base = vec![Some(0.0); data.len];
     let mut top = ys.clone();
     if layer.arrange == Arrange::Stack || layer.arrange == Arrange::Proportion {
-        // Positives stack up from zero, negatives down, each x on its own.
-        let xs = data.get("x").cloned();
+        let keys: Vec<Option<String>> = (0..data.len).map(|i| stack_key(&data, i)).collect();
         let mut up: Vec<(Option<String>, f64)> = Vec::new();
         let mut down: Vec<(Option<String>, f64)> = Vec::new();
         for i in 0..data.len {
             let Some(y) = ys[i] else { continue };
-            let key = xs.as_ref().and_then(|x| x.key(i));
+            let key = &keys[i];
             let acc = if y >= 0.0 { &mut up } else { &mut down };
-            let slot = match acc.iter().position(|(k, _)| *k == key) {
+            let slot = match acc.iter().position(|(k, _)| k == key) {
                 Some(p) => p,
                 None => {
-                    acc.push((key, 0.0));
+                    acc.push((key.clone(), 0.0));
                     acc.len() - 1
                 }
             };
@@ -33,8 +50,8 @@ pub fn apply(layer: &Layer, mut data: LayerData) -> LayerData {
         }
         if layer.arrange == Arrange::Proportion {
             for i in 0..data.len {
-                let key = xs.as_ref().and_then(|x| x.key(i));
-                let total: f64 = up.iter().chain(&down).filter(|(k, _)| *k == key).map(|(_, s)| s.abs()).sum();
+                let key = &keys[i];
+                let total: f64 = up.iter().chain(&down).filter(|(k, _)| k == key).map(|(_, s)| s.abs()).sum();
                 if total > 0.0 {
                     base[i] = base[i].map(|b| b / total);
                     top[i] = top[i].map(|t| t / total);
@@ -45,4 +62,48 @@ pub fn apply(layer: &Layer, mut data: LayerData) -> LayerData {
     data.channels.insert("y", Values::Num(top));
     data.channels.insert("y_base", Values::Num(base));
     data
+}
+
+/// Marks stack when they share x and panel.
+fn stack_key(data: &LayerData, i: usize) -> Option<String> {
+    let x = data.get("x").and_then(|x| x.key(i));
+    let p = data.get("panel").and_then(|p| p.key(i));
+    match (x, p) {
+        (x, None) => x,
+        (x, Some(p)) => Some(format!("{}\u{1f}{p}", x.unwrap_or_default())),
+    }
+}
+
+/// Smallest gap between distinct finite values (1 when there is none).
+fn resolution(v: &[Option<f64>]) -> f64 {
+    let mut s: Vec<f64> = v.iter().flatten().copied().filter(|x| x.is_finite()).collect();
+    s.sort_by(f64::total_cmp);
+    s.dedup();
+    let r = s.windows(2).map(|w| w[1] - w[0]).filter(|d| *d > 0.0).fold(f64::INFINITY, f64::min);
+    if r.is_finite() { r } else { 1.0 }
+}
+
+fn jitter(index: usize, data: &mut LayerData) {
+    let mut rng = SplitMix64::new(JITTER_SEED ^ (index as u64).wrapping_mul(0x9E37_79B9_7F4A_7C15));
+    let n = data.len;
+    // Draw x then y for each row, so either column's jitter never depends on the other being present.
+    let draws: Vec<(f64, f64)> = (0..n).map(|_| (rng.next_f64() * 2.0 - 1.0, rng.next_f64() * 2.0 - 1.0)).collect();
+    match data.get("x").cloned() {
+        Some(Values::Text(_)) => {
+            data.channels.insert("x_offset", Values::Num(draws.iter().map(|d| Some(0.3 * d.0)).collect()));
+        }
+        Some(Values::Num(v)) => {
+            let r = 0.4 * resolution(&v);
+            data.channels.insert("x", Values::Num(v.iter().zip(&draws).map(|(x, d)| x.map(|x| x + r * d.0)).collect()));
+        }
+        Some(Values::Time(v)) => {
+            let r = 0.4 * resolution(&v);
+            data.channels.insert("x", Values::Time(v.iter().zip(&draws).map(|(x, d)| x.map(|x| x + r * d.0)).collect()));
+        }
+        None => {}
+    }
+    if let Some(Values::Num(v)) = data.get("y").cloned() {
+        let r = 0.4 * resolution(&v);
+        data.channels.insert("y", Values::Num(v.iter().zip(&draws).map(|(y, d)| y.map(|y| y + r * d.1)).collect()));
+    }
 }

@@ -76,8 +76,25 @@ fn json_num(x: f64) -> serde_json::Value {
 }
 
 /// A layer's rows after its statistic and position adjustment, keyed by
-/// channel (`x`, `y`, `color`, ...). Bars, areas and ranges also carry
-/// `y_base`, the value their extent starts from.
+/// channel (`x`, `y`, `color`, ...).
+///
+/// Internal channels added by statistics and position adjustments:
+/// - `y_base`: where a bar's or area's extent starts (0, or the top of the
+///   mark below it when stacked).
+/// - `x_end`: a histogram bin's right edge (`x` is its left edge); tiles'
+///   right edges. `y_end`: the upper end of a range, ribbon, tile or box
+///   whisker (`y` is then the lower end).
+/// - `y_low`, `y_high`: an interval around `y` (a summary's `interval`, a
+///   linear fit's confidence band), drawn as error bars on points and bars
+///   and as a band under a fitted line. `estimate`: the summary value on a
+///   `range`/`rule` layer whose `y`/`y_end` hold the interval.
+/// - `count` (rows behind a bin, tile or box), `bin_start`/`bin_end` (bin
+///   edges when `x` is the bin middle), `bandwidth` (density), `fitted`
+///   (ribbon from a fit), `part` (`box` or `outlier`), `q1`, `median`, `q3`
+///   (box plots).
+/// - `x_offset`: jitter or dodge within a band, as a fraction of the band
+///   (discrete x only; continuous x is moved in data units).
+/// - `panel`: the panel key; statistics group by it like `color` and `group`.
 #[derive(Debug, Clone, PartialEq, Default)]
 pub struct LayerData {
     pub len: usize,
@@ -111,13 +128,20 @@ pub struct Plan {
 /// Resolve the spec against the table.
 pub fn build(spec: &Spec, table: &Table) -> Result<Plan, Errors> {
     let mut errors = Vec::new();
+    let mut warnings = Vec::new();
     let mut layers = Vec::new();
     for (i, l) in spec.layers.iter().enumerate() {
-        match layer::extract(i, l, table)
-            .and_then(|d| stat::apply(i, l, d))
-            .map(|d| arrange::apply(l, d))
-        {
-            Ok(data) => layers.push(PlannedLayer { index: i, geometry: l.draw, arrange: l.arrange, style: l.style.clone(), data }),
+        match layer::extract(i, l, table).and_then(|d| stat::apply(i, l, d)) {
+            Ok(s) => {
+                let n = stat::element_count(s.geometry, &s.data);
+                if n > stat::MAX_ELEMENTS {
+                    errors.push(stat::too_many_elements(i, s.geometry, n));
+                    continue;
+                }
+                warnings.extend(s.warnings);
+                let data = arrange::apply(i, l, s.geometry, s.data);
+                layers.push(PlannedLayer { index: i, geometry: s.geometry, arrange: l.arrange, style: l.style.clone(), data })
+            }
             Err(e) => errors.extend(e.0),
         }
     }
@@ -125,5 +149,5 @@ pub fn build(spec: &Spec, table: &Table) -> Result<Plan, Errors> {
         return Err(Errors(errors));
     }
     let scales = scales::train(spec, &layers)?;
-    Ok(Plan { layers, scales, warnings: vec![] })
+    Ok(Plan { layers, scales, warnings })
 }

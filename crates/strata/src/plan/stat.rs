@@ -1,75 +1,700 @@
 //! Apply a layer's statistic: rows in, rows out.
+//!
+//! Every statistic works within groups: the rows sharing the values of the
+//! layer's discrete channels (`color`, `group`, `shape` when they hold text)
+//! and its panel (`panel`). Summaries and counts also group by `x`. Each
+//! output row carries its group's values, so colours and panels follow.
+//!
+//! Output channels (see [`super`] for the list): histograms give `x`/`x_end`
+//! bin edges, `y` and `count`; intervals give `y_low`/`y_high` (and, on
+//! `range`/`rule`/`ribbon` layers, `y`/`y_end` as the bounds with the value
+//! in `estimate`); box plots give one row per box (`part` = `box`) with
+//! `y`/`y_end` the whiskers and `q1`, `median`, `q3`, plus one row per
+//! outlier (`part` = `outlier`).
 
 use super::{LayerData, Values};
 use crate::error::{Diagnostic, Errors};
-use crate::spec::{Layer, Stat};
+use crate::spec::{BinSpec, Geometry, Layer, Stat, StatObject};
+use crate::stat::{self, bin, density, fit, summary, tukey, window};
 use indexmap::IndexMap;
 
-/// The discrete channels a statistic groups by, in this order.
-const GROUP_CHANNELS: [&str; 3] = ["x", "color", "group"];
+/// Discrete channels a statistic groups by (when they hold text), in order.
+const GROUP_CHANNELS: [&str; 4] = ["color", "group", "shape", "panel"];
 
-pub fn apply(index: usize, layer: &Layer, data: LayerData) -> Result<LayerData, Errors> {
-    match &layer.stat {
-        Stat::Identity => Ok(data),
-        Stat::Count => Ok(aggregate(data, "count", |ys| Some(ys.len() as f64), true)),
-        Stat::Object(o) if o.summary.is_some() => {
-            let name = o.summary.as_deref().unwrap_or("");
-            let f: fn(&[f64]) -> Option<f64> = match name {
-                "mean" => crate::stat::mean,
-                "sum" => |ys| Some(ys.iter().sum()),
-                "count" => |ys| Some(ys.len() as f64),
-                "min" => |ys| ys.iter().copied().reduce(f64::min),
-                "max" => |ys| ys.iter().copied().reduce(f64::max),
-                _ => {
-                    return Err(Diagnostic::error("spec.unknown_summary", format!("unknown summary `{name}`"))
-                        .at_path(format!("layers[{index}].stat.summary"))
-                        .with_hint("use one of mean, sum, count, min, max")
-                        .into())
+/// A scatter with more points than this becomes 2-D binned tiles unless the
+/// layer's style sets `every_point`.
+pub const SCATTER_BIN_THRESHOLD: usize = 50_000;
+/// Grid of the 2-D binned scatter.
+const SCATTER_COLUMNS: usize = 120;
+const SCATTER_ROWS: usize = 80;
+
+/// A layer after its statistic: the rows, the geometry to draw them with
+/// (a crowded scatter becomes tiles) and any warnings.
+pub struct Stated {
+    pub data: LayerData,
+    pub geometry: Geometry,
+    pub warnings: Vec<Diagnostic>,
+}
+
+fn err(index: usize, key: &str, code: &str, msg: impl Into<String>) -> Errors {
+    Diagnostic::error(code, msg).at_path(format!("layers[{index}].{key}")).into()
+}
+
+pub fn apply(index: usize, layer: &Layer, data: LayerData) -> Result<Stated, Errors> {
+    let mut geometry = layer.draw;
+    let mut warnings = Vec::new();
+    let data = match &layer.stat {
+        Stat::Identity => {
+            if layer.draw == Geometry::Point && layer.style.every_point != Some(true) {
+                let n = count_xy(&data);
+                if n > SCATTER_BIN_THRESHOLD {
+                    if let Some(binned) = scatter_tiles(&data) {
+                        geometry = Geometry::Tile;
+                        warnings.push(
+                            Diagnostic::warning(
+                                "stat.scatter_binned",
+                                format!("layer {} has {n} points, too many to draw one by one; they are shown as {}x{} tiles shaded by count", index + 1, SCATTER_COLUMNS, SCATTER_ROWS),
+                            )
+                            .at_path(format!("layers[{index}]"))
+                            .with_hint("set `\"style\": {\"every_point\": true}` to draw every point"),
+                        );
+                        return Ok(Stated { data: binned, geometry, warnings });
+                    }
                 }
-            };
-            if data.get("y").is_none() {
-                return Err(Diagnostic::error("spec.missing_channel", format!("a `{name}` summary needs a `y` channel to summarise"))
-                    .at_path(format!("layers[{index}].y"))
-                    .into());
             }
-            Ok(aggregate(data, name, f, false))
+            data
         }
-        _ => Err(Diagnostic::error("spec.unsupported", "this statistic is not supported by this build yet")
-            .at_path(format!("layers[{index}].stat"))
-            .into()),
+        Stat::Count => count(data),
+        Stat::Box => boxes(index, data)?,
+        Stat::Object(o) => object(index, layer, o, data)?,
+    };
+    Ok(Stated { data, geometry, warnings })
+}
+
+fn object(index: usize, layer: &Layer, o: &StatObject, data: LayerData) -> Result<LayerData, Errors> {
+    if let Some(b) = &o.bin {
+        return binned(index, layer, b, data);
+    }
+    if let Some(name) = &o.summary {
+        return summarise(index, layer, o, name, data);
+    }
+    if let Some(kind) = &o.fit {
+        return fitted(index, layer, o, kind, data);
+    }
+    if let Some(d) = &o.density {
+        return densities(index, layer, d, data);
+    }
+    if let Some(w) = &o.window {
+        return windowed(index, w, data);
+    }
+    Err(err(index, "stat", "spec.unsupported", "this statistic is not supported"))
+}
+
+// ------------------------------------------------------------ grouping
+
+/// The group channels present with text values.
+fn group_keys(data: &LayerData) -> Vec<&'static str> {
+    GROUP_CHANNELS.iter().copied().filter(|c| data.get(c).is_some_and(Values::is_discrete)).collect()
+}
+
+/// Rows grouped by the given channels, in order of first appearance.
+fn group_rows(data: &LayerData, keys: &[&'static str]) -> IndexMap<Vec<Option<String>>, Vec<usize>> {
+    let mut groups: IndexMap<Vec<Option<String>>, Vec<usize>> = IndexMap::new();
+    let cols: Vec<&Values> = keys.iter().map(|k| &data.channels[*k]).collect();
+    for i in 0..data.len {
+        let key: Vec<Option<String>> = cols.iter().map(|c| c.key(i)).collect();
+        groups.entry(key).or_default().push(i);
+    }
+    groups
+}
+
+/// Output rows under construction: for each, the input row whose group
+/// channels it copies.
+struct Out {
+    from: Vec<usize>,
+    num: IndexMap<&'static str, Vec<Option<f64>>>,
+    text: IndexMap<&'static str, Vec<Option<String>>>,
+}
+
+impl Out {
+    fn new() -> Self {
+        Out { from: vec![], num: IndexMap::new(), text: IndexMap::new() }
+    }
+    fn row(&mut self, from: usize, nums: &[(&'static str, Option<f64>)]) {
+        let n = self.from.len();
+        self.from.push(from);
+        for (k, v) in nums {
+            let col = self.num.entry(k).or_insert_with(|| vec![None; n]);
+            col.resize(n, None);
+            col.push(*v);
+        }
+    }
+    fn text(&mut self, key: &'static str, v: &str) {
+        let n = self.from.len();
+        let col = self.text.entry(key).or_default();
+        col.resize(n - 1, None);
+        col.push(Some(v.to_string()));
+    }
+    /// Assemble: group channels copied from the source rows, then the new
+    /// columns; `time` names the new columns in time units.
+    fn finish(self, src: &LayerData, keys: &[&'static str], time: &[&str], names: &[(&'static str, String)]) -> LayerData {
+        let n = self.from.len();
+        let mut out = LayerData { len: n, ..Default::default() };
+        for k in keys {
+            out.channels.insert(k, src.channels[*k].take(&self.from));
+            if let Some(nm) = src.names.get(k) {
+                out.names.insert(k, nm.clone());
+            }
+        }
+        for (k, mut v) in self.num {
+            v.resize(n, None);
+            out.channels.insert(k, if time.contains(&k) { Values::Time(v) } else { Values::Num(v) });
+        }
+        for (k, mut v) in self.text {
+            v.resize(n, None);
+            out.channels.insert(k, Values::Text(v));
+        }
+        for (k, nm) in names {
+            out.names.insert(k, nm.clone());
+        }
+        out
     }
 }
 
-/// Group rows by the discrete channels and reduce `y` in each group.
-/// With `count_only`, rows need no `y`.
-fn aggregate(data: LayerData, label: &str, f: impl Fn(&[f64]) -> Option<f64>, count_only: bool) -> LayerData {
-    let keys: Vec<&str> = GROUP_CHANNELS.iter().copied().filter(|c| data.channels.contains_key(c)).collect();
-    let mut groups: IndexMap<Vec<Option<String>>, (usize, Vec<f64>)> = IndexMap::new();
-    let y = data.get("y");
-    for i in 0..data.len {
-        let key: Vec<Option<String>> = keys.iter().map(|k| data.channels[*k].key(i)).collect();
-        if key.first().is_some_and(|k| k.is_none()) {
+fn name_of(data: &LayerData, ch: &str) -> String {
+    data.names.get(ch).cloned().unwrap_or_else(|| ch.to_string())
+}
+
+fn nums_of(v: &Values, rows: &[usize]) -> Vec<f64> {
+    rows.iter().filter_map(|i| v.num(*i)).filter(|x| x.is_finite()).collect()
+}
+
+fn need<'a>(index: usize, data: &'a LayerData, ch: &str, what: &str) -> Result<&'a Values, Errors> {
+    data.get(ch).ok_or_else(|| err(index, ch, "spec.missing_channel", format!("{what} needs a `{ch}` channel")))
+}
+
+fn need_numeric<'a>(index: usize, data: &'a LayerData, ch: &str, what: &str) -> Result<&'a Values, Errors> {
+    let v = need(index, data, ch, what)?;
+    if v.is_discrete() {
+        return Err(Diagnostic::error("stat.not_numeric", format!("{what} needs numbers or dates in `{ch}`, but `{}` holds text", name_of(data, ch)))
+            .at_path(format!("layers[{index}].{ch}"))
+            .with_hint(format!("choose a numeric column for `{ch}`, or give it `\"as\": \"number\"`"))
+            .into());
+    }
+    Ok(v)
+}
+
+// ------------------------------------------------------------ count and summary
+
+fn count(data: LayerData) -> LayerData {
+    let mut keys = vec![];
+    if data.get("x").is_some() {
+        keys.push("x");
+    }
+    keys.extend(group_keys(&data));
+    let groups = group_rows(&data, &keys);
+    let mut out = Out::new();
+    for (key, rows) in &groups {
+        if data.get("x").is_some() && key[0].is_none() {
             continue; // rows with a missing x are not counted
         }
-        let e = groups.entry(key).or_insert((i, Vec::new()));
-        if count_only {
-            e.1.push(1.0);
-        } else if let Some(v) = y.and_then(|y| y.num(i)) {
-            e.1.push(v);
+        out.row(rows[0], &[("y", Some(rows.len() as f64))]);
+    }
+    out.finish(&data, &keys, &[], &[("y", "count".to_string())])
+}
+
+fn summarise(index: usize, layer: &Layer, o: &StatObject, name: &str, data: LayerData) -> Result<LayerData, Errors> {
+    let s = summary::Summary::from_word(name, o.p).ok_or_else(|| {
+        Errors::from(
+            Diagnostic::error("spec.unknown_summary", format!("unknown summary `{name}`"))
+                .at_path(format!("layers[{index}].stat.summary"))
+                .with_hint(format!("use one of {}", summary::Summary::WORDS)),
+        )
+    })?;
+    if let Some(p) = o.p {
+        if !(0.0..=1.0).contains(&p) {
+            return Err(err(index, "stat.p", "stat.bad_option", "`p` must be between 0 and 1"));
         }
     }
-    let firsts: Vec<usize> = groups.values().map(|(i, _)| *i).collect();
-    let mut out = LayerData { len: firsts.len(), ..Default::default() };
-    for k in &keys {
-        out.channels.insert(k, data.channels[*k].take(&firsts));
-        out.names.insert(k, data.names[*k].clone());
-    }
-    let ys: Vec<Option<f64>> = groups.values().map(|(_, ys)| f(ys)).collect();
-    out.channels.insert("y", Values::Num(ys));
-    let yname = match data.names.get("y") {
-        Some(n) if !count_only => format!("{label} of {n}"),
-        _ => label.to_string(),
+    let interval = match &o.interval {
+        None => None,
+        Some(w) => Some(summary::Interval::from_word(w).ok_or_else(|| {
+            Errors::from(
+                Diagnostic::error("spec.unknown_interval", format!("unknown interval `{w}`"))
+                    .at_path(format!("layers[{index}].stat.interval"))
+                    .with_hint(format!("use one of {}", summary::Interval::WORDS)),
+            )
+        })?),
     };
-    out.names.insert("y", yname);
-    out
+    let y = need_numeric(index, &data, "y", &format!("a `{name}` summary"))?;
+    let mut keys = vec![];
+    if data.get("x").is_some() {
+        keys.push("x");
+    }
+    keys.extend(group_keys(&data));
+    let groups = group_rows(&data, &keys);
+    let bounds_in_y = matches!(layer.draw, Geometry::Range | Geometry::Rule | Geometry::Ribbon) && interval.is_some();
+    let mut out = Out::new();
+    for (key, rows) in &groups {
+        if data.get("x").is_some() && key[0].is_none() {
+            continue;
+        }
+        let ys = nums_of(y, rows);
+        let v = s.of(&ys);
+        let iv = interval.and_then(|iv| iv.of(&ys));
+        let (lo, hi) = (iv.map(|b| b.0), iv.map(|b| b.1));
+        if bounds_in_y {
+            out.row(rows[0], &[("y", lo), ("y_end", hi), ("estimate", v), ("count", Some(ys.len() as f64))]);
+        } else if interval.is_some() {
+            out.row(rows[0], &[("y", v), ("y_low", lo), ("y_high", hi), ("count", Some(ys.len() as f64))]);
+        } else {
+            out.row(rows[0], &[("y", v)]);
+        }
+    }
+    let time = if y_is_time(y) && !matches!(s, summary::Summary::Count | summary::Summary::StandardDeviation) {
+        vec!["y", "y_end", "y_low", "y_high", "estimate"]
+    } else {
+        vec![]
+    };
+    let title = format!("{name} of {}", name_of(&data, "y"));
+    Ok(out.finish(&data, &keys, &time, &[("y", title)]))
 }
+
+fn y_is_time(v: &Values) -> bool {
+    matches!(v, Values::Time(_))
+}
+
+// ------------------------------------------------------------ bin
+
+fn binned(index: usize, layer: &Layer, b: &BinSpec, data: LayerData) -> Result<LayerData, Errors> {
+    let x = need_numeric(index, &data, "x", "a `bin` statistic")?;
+    let is_time = matches!(x, Values::Time(_));
+    let all: Vec<usize> = (0..data.len).collect();
+    let xs = nums_of(x, &all);
+    let edges = bin_edges(index, b, &xs, is_time)?;
+    let keys = group_keys(&data);
+    let groups = group_rows(&data, &keys);
+    let weights = data.get("y").filter(|v| !v.is_discrete());
+    let as_density = b.density == Some(true);
+    let edge_channels = matches!(layer.draw, Geometry::Bar | Geometry::Tile);
+    let mut out = Out::new();
+    for rows in groups.values() {
+        let gx: Vec<f64> = rows.iter().filter_map(|i| x.num(*i)).collect();
+        let counts = bin::histogram(&gx, &edges);
+        let sums = weights.map(|w| {
+            let (mut px, mut pw) = (vec![], vec![]);
+            for i in rows {
+                if let (Some(a), Some(b)) = (x.num(*i), w.num(*i)) {
+                    px.push(a);
+                    pw.push(b);
+                }
+            }
+            bin::histogram_weighted(&px, &pw, &edges)
+        });
+        let n: f64 = counts.iter().sum();
+        for k in 0..counts.len() {
+            let (a, e) = (edges[k], edges[k + 1]);
+            let mut height = match &sums {
+                Some(s) => s[k],
+                None => counts[k],
+            };
+            if as_density {
+                let total = sums.as_ref().map(|s| s.iter().sum()).unwrap_or(n);
+                height = if total != 0.0 { height / (total * (e - a)) } else { 0.0 };
+            }
+            if edge_channels {
+                out.row(rows[0], &[("x", Some(a)), ("x_end", Some(e)), ("y", Some(height)), ("count", Some(counts[k]))]);
+            } else {
+                out.row(rows[0], &[("x", Some(0.5 * (a + e))), ("bin_start", Some(a)), ("bin_end", Some(e)), ("y", Some(height)), ("count", Some(counts[k]))]);
+            }
+        }
+    }
+    let time: &[&str] = if is_time { &["x", "x_end", "bin_start", "bin_end"] } else { &[] };
+    let yname = match (weights.is_some(), as_density) {
+        (_, true) => "density".to_string(),
+        (true, false) => format!("sum of {}", name_of(&data, "y")),
+        (false, false) => "count".to_string(),
+    };
+    Ok(out.finish(&data, &keys, time, &[("x", name_of(&data, "x")), ("y", yname)]))
+}
+
+fn bin_edges(index: usize, b: &BinSpec, xs: &[f64], is_time: bool) -> Result<Vec<f64>, Errors> {
+    if xs.is_empty() {
+        return Ok(vec![]);
+    }
+    if let Some(w) = b.width {
+        if !(w > 0.0 && w.is_finite()) {
+            return Err(err(index, "stat.bin.width", "stat.bad_option", "a bin `width` must be a positive number"));
+        }
+    }
+    if b.count == Some(0) {
+        return Err(err(index, "stat.bin.count", "stat.bad_option", "a bin `count` must be at least 1"));
+    }
+    let rule = match b.rule.as_deref() {
+        None => bin::Rule::Sturges,
+        Some(r) => bin::Rule::from_word(r).ok_or_else(|| {
+            Errors::from(
+                Diagnostic::error("spec.unknown_bin_rule", format!("unknown bin rule `{r}`"))
+                    .at_path(format!("layers[{index}].stat.bin.rule"))
+                    .with_hint(format!("use one of {}", bin::Rule::WORDS)),
+            )
+        })?,
+    };
+    let unit = match b.unit.as_deref() {
+        None => None,
+        Some(u) => Some(bin::CalendarUnit::from_word(u).ok_or_else(|| {
+            Errors::from(
+                Diagnostic::error("spec.unknown_unit", format!("unknown calendar unit `{u}`"))
+                    .at_path(format!("layers[{index}].stat.bin.unit"))
+                    .with_hint("use one of day, week, month, quarter, year"),
+            )
+        })?),
+    };
+    if unit.is_some() && !is_time {
+        return Err(err(index, "stat.bin.unit", "stat.bad_option", "a calendar `unit` bins dates; this `x` holds numbers"));
+    }
+    if is_time && b.width.is_none() && b.count.is_none() {
+        // Dates: calendar bins, the unit given or the one nearest the rule's width.
+        let (lo, hi) = bin::min_max(xs).unwrap();
+        let unit = unit.unwrap_or_else(|| {
+            let w = bin::rule_width(rule, xs);
+            bin::CalendarUnit::nearest(if w > 0.0 { w / 86_400_000.0 } else { 1.0 })
+        });
+        return Ok(bin::calendar_edges(lo, hi, unit));
+    }
+    let boundary = b.boundary;
+    Ok(match (b.width, b.count) {
+        (Some(w), _) => bin::edges_by_width(xs, w, boundary.unwrap_or(0.0)),
+        (None, Some(c)) => match boundary {
+            None => bin::edges_by_count(xs, c as usize),
+            Some(bd) => {
+                let (lo, hi) = bin::min_max(xs).unwrap();
+                let w = if hi > lo { (hi - lo) / c as f64 } else { 1.0 };
+                bin::edges_by_width(xs, w, bd)
+            }
+        },
+        (None, None) => {
+            let e = bin::edges_by_rule(xs, rule);
+            match boundary {
+                None => e,
+                Some(bd) => bin::edges_by_width(xs, e[1] - e[0], bd),
+            }
+        }
+    })
+}
+
+// ------------------------------------------------------------ fit
+
+const FIT_POINTS: usize = 80;
+
+fn fitted(index: usize, layer: &Layer, o: &StatObject, kind: &str, data: LayerData) -> Result<LayerData, Errors> {
+    let x = need_numeric(index, &data, "x", "a fit")?;
+    let y = need_numeric(index, &data, "y", "a fit")?;
+    let is_time = matches!(x, Values::Time(_));
+    let level = o.band.unwrap_or(0.95);
+    if !(0.0..1.0).contains(&level) {
+        return Err(err(index, "stat.band", "stat.bad_option", "`band` is a confidence level between 0 and 1, such as 0.95 (0 for no band)"));
+    }
+    let loess_opts = match kind {
+        "linear" => None,
+        "loess" => {
+            let span = o.span.unwrap_or(0.75);
+            if !(span > 0.0 && span <= 1.0) {
+                return Err(err(index, "stat.span", "stat.bad_option", "`span` is the fraction of points in each local fit, between 0 and 1"));
+            }
+            let degree = o.degree.unwrap_or(1);
+            if !(1..=2).contains(&degree) {
+                return Err(err(index, "stat.degree", "stat.bad_option", "`degree` is 1 (local lines) or 2 (local parabolas)"));
+            }
+            let iterations = match &o.robust {
+                None | Some(serde_json::Value::Bool(false)) => 0,
+                Some(serde_json::Value::Bool(true)) => 3,
+                Some(v) => match v.as_u64() {
+                    Some(n) if n <= 20 => n as u32,
+                    _ => return Err(err(index, "stat.robust", "stat.bad_option", "`robust` is true, false or a number of iterations (0 to 20)")),
+                },
+            };
+            Some(fit::LoessOptions { span, degree, iterations, delta: 0.0 })
+        }
+        other => {
+            return Err(Diagnostic::error("spec.unknown_fit", format!("unknown fit `{other}`"))
+                .at_path(format!("layers[{index}].stat.fit"))
+                .with_hint("use `linear` or `loess`")
+                .into())
+        }
+    };
+    let keys = group_keys(&data);
+    let groups = group_rows(&data, &keys);
+    let bounds_in_y = layer.draw == Geometry::Ribbon;
+    let with_band = level > 0.0 && loess_opts.is_none();
+    let mut out = Out::new();
+    for rows in groups.values() {
+        let mut pts: Vec<(f64, f64)> = rows.iter().filter_map(|i| Some((x.num(*i)?, y.num(*i)?))).collect();
+        pts.sort_by(|a, b| a.0.total_cmp(&b.0));
+        let (xs, ys): (Vec<f64>, Vec<f64>) = pts.into_iter().unzip();
+        if xs.len() < 2 || xs[0] == xs[xs.len() - 1] {
+            continue;
+        }
+        let at = density::grid(xs[0], xs[xs.len() - 1], FIT_POINTS);
+        match &loess_opts {
+            None => {
+                let Some(l) = stat::fit::linear(&xs, &ys) else { continue };
+                for &a in &at {
+                    let band = if with_band { l.band(a, level) } else { None };
+                    let (lo, hi) = (band.map(|b| b.0), band.map(|b| b.1));
+                    if bounds_in_y {
+                        out.row(rows[0], &[("x", Some(a)), ("y", lo), ("y_end", hi), ("fitted", Some(l.predict(a)))]);
+                    } else {
+                        out.row(rows[0], &[("x", Some(a)), ("y", Some(l.predict(a))), ("y_low", lo), ("y_high", hi)]);
+                    }
+                }
+            }
+            Some(opts) => {
+                // Large inputs interpolate within 1 % of the x range between
+                // fitted points while computing robustness weights (Cleveland
+                // 1979, section 4: common practice for large n).
+                let mut opts = *opts;
+                if xs.len() > 1000 {
+                    opts.delta = 0.01 * (xs[xs.len() - 1] - xs[0]);
+                }
+                let robust = if opts.iterations > 0 { fit::loess_fit(&xs, &ys, &opts).1 } else { vec![1.0; xs.len()] };
+                let fitted = fit::loess_at(&xs, &ys, &robust, &opts, &at);
+                for (a, f) in at.iter().zip(fitted) {
+                    let f = f.is_finite().then_some(f);
+                    if bounds_in_y {
+                        out.row(rows[0], &[("x", Some(*a)), ("y", f), ("y_end", f), ("fitted", f)]);
+                    } else {
+                        out.row(rows[0], &[("x", Some(*a)), ("y", f)]);
+                    }
+                }
+            }
+        }
+    }
+    let time: &[&str] = if is_time { &["x"] } else { &[] };
+    Ok(out.finish(&data, &keys, time, &[("x", name_of(&data, "x")), ("y", name_of(&data, "y"))]))
+}
+
+// ------------------------------------------------------------ density
+
+fn densities(index: usize, layer: &Layer, d: &crate::spec::DensitySpec, data: LayerData) -> Result<LayerData, Errors> {
+    let x = need_numeric(index, &data, "x", "a density")?;
+    let rule = match &d.bandwidth {
+        None => density::Bandwidth::Scott,
+        Some(serde_json::Value::String(s)) if s == "scott" => density::Bandwidth::Scott,
+        Some(serde_json::Value::String(s)) if s == "silverman" => density::Bandwidth::Silverman,
+        Some(v) => match v.as_f64() {
+            Some(h) if h > 0.0 && h.is_finite() => density::Bandwidth::Fixed(h),
+            _ => {
+                return Err(Diagnostic::error("stat.bad_option", format!("unknown bandwidth {v}"))
+                    .at_path(format!("layers[{index}].stat.density.bandwidth"))
+                    .with_hint("use \"scott\", \"silverman\" or a positive number in the units of x")
+                    .into())
+            }
+        },
+    };
+    let m = d.grid.unwrap_or(256).clamp(2, 10_000) as usize;
+    let keys = group_keys(&data);
+    let groups = group_rows(&data, &keys);
+    // One grid for every group, so that densities stack and compare.
+    let mut per_group = Vec::new();
+    let (mut lo, mut hi) = (f64::INFINITY, f64::NEG_INFINITY);
+    for rows in groups.values() {
+        let xs = nums_of(x, rows);
+        let h = density::bandwidth(&xs, rule);
+        if let (Some(h), Some((a, b))) = (h, bin::min_max(&xs)) {
+            lo = lo.min(a - 3.0 * h);
+            hi = hi.max(b + 3.0 * h);
+        }
+        per_group.push((rows, xs, h));
+    }
+    let mut out = Out::new();
+    if lo.is_finite() {
+        let grid = density::grid(lo, hi, m);
+        for (rows, xs, h) in &per_group {
+            let Some(h) = *h else { continue };
+            let dens = if xs.len().saturating_mul(m) > 200_000 { density::kde_binned(xs, h, lo, hi, m) } else { density::kde_exact(xs, h, &grid) };
+            for (g, v) in grid.iter().zip(dens) {
+                out.row(rows[0], &[("x", Some(*g)), ("y", Some(v)), ("bandwidth", Some(h))]);
+            }
+        }
+    }
+    let _ = layer;
+    let time: &[&str] = if matches!(x, Values::Time(_)) { &["x"] } else { &[] };
+    Ok(out.finish(&data, &keys, time, &[("x", name_of(&data, "x")), ("y", "density".to_string())]))
+}
+
+// ------------------------------------------------------------ box
+
+fn boxes(index: usize, data: LayerData) -> Result<LayerData, Errors> {
+    let y = need_numeric(index, &data, "y", "a `box` statistic")?;
+    let mut keys = vec![];
+    if data.get("x").is_some() {
+        keys.push("x");
+    }
+    keys.extend(group_keys(&data));
+    let groups = group_rows(&data, &keys);
+    let mut out = Out::new();
+    for rows in groups.values() {
+        let ys = nums_of(y, rows);
+        let Some(b) = tukey::box_stats(&ys) else { continue };
+        out.row(rows[0], &[
+            ("y", Some(b.lower_whisker.min(b.q1))),
+            ("y_end", Some(b.upper_whisker.max(b.q3))),
+            ("q1", Some(b.q1)),
+            ("median", Some(b.median)),
+            ("q3", Some(b.q3)),
+            ("count", Some(b.n as f64)),
+        ]);
+        out.text("part", "box");
+        for v in &b.outliers {
+            out.row(rows[0], &[("y", Some(*v)), ("y_end", Some(*v))]);
+            out.text("part", "outlier");
+        }
+    }
+    let time: &[&str] = if y_is_time(y) { &["y", "y_end", "q1", "median", "q3"] } else { &[] };
+    Ok(out.finish(&data, &keys, time, &[("y", name_of(&data, "y"))]))
+}
+
+// ------------------------------------------------------------ window
+
+fn windowed(index: usize, w: &crate::spec::WindowSpec, data: LayerData) -> Result<LayerData, Errors> {
+    let y = need_numeric(index, &data, "y", "a `window` statistic")?.clone();
+    let kind = w.summary.as_deref().unwrap_or("mean");
+    if !matches!(kind, "mean" | "sum" | "running_total") {
+        return Err(Diagnostic::error("stat.bad_option", format!("unknown window summary `{kind}`"))
+            .at_path(format!("layers[{index}].stat.window.summary"))
+            .with_hint("use mean, sum or running_total")
+            .into());
+    }
+    let align = match w.align.as_deref() {
+        None | Some("center") | Some("centre") => window::Align::Center,
+        Some("trailing") => window::Align::Trailing,
+        Some(a) => {
+            return Err(Diagnostic::error("stat.bad_option", format!("unknown window alignment `{a}`"))
+                .at_path(format!("layers[{index}].stat.window.align"))
+                .with_hint("use center or trailing")
+                .into())
+        }
+    };
+    let rows_n = w.rows.unwrap_or(7).max(1) as usize;
+    let keys = group_keys(&data);
+    let groups = group_rows(&data, &keys);
+    // Rows in x order within each group (stable, so ties keep data order).
+    let mut order = Vec::with_capacity(data.len);
+    let mut result = Vec::with_capacity(data.len);
+    for rows in groups.values() {
+        let mut rows = rows.clone();
+        if let Some(x) = data.get("x") {
+            if !x.is_discrete() {
+                rows.sort_by(|a, b| x.num(*a).unwrap_or(f64::INFINITY).total_cmp(&x.num(*b).unwrap_or(f64::INFINITY)));
+            }
+        }
+        let ys: Vec<Option<f64>> = rows.iter().map(|i| y.num(*i)).collect();
+        let r = match kind {
+            "running_total" => window::running_total(&ys),
+            "sum" => window::rolling(&ys, rows_n, align, true),
+            _ => window::rolling(&ys, rows_n, align, false),
+        };
+        order.extend(rows);
+        result.extend(r);
+    }
+    let mut out = LayerData { len: order.len(), ..Default::default() };
+    for (k, v) in &data.channels {
+        out.channels.insert(k, v.take(&order));
+    }
+    out.names = data.names.clone();
+    out.channels.insert("y", if y_is_time(&y) { Values::Time(result) } else { Values::Num(result) });
+    let label = match kind {
+        "running_total" => format!("running total of {}", name_of(&data, "y")),
+        k => format!("{rows_n}-row {k} of {}", name_of(&data, "y")),
+    };
+    out.names.insert("y", label);
+    Ok(out)
+}
+
+// ------------------------------------------------------------ crowded scatters
+
+fn count_xy(data: &LayerData) -> usize {
+    match (data.get("x"), data.get("y")) {
+        (Some(x), Some(y)) => (0..data.len).filter(|i| x.num(*i).is_some() && y.num(*i).is_some()).count(),
+        _ => 0,
+    }
+}
+
+/// A crowded scatter as 2-D bins: tiles with `x`/`x_end`, `y`/`y_end` and
+/// `count`, per group. `None` when either axis is not numeric.
+fn scatter_tiles(data: &LayerData) -> Option<LayerData> {
+    let (x, y) = (data.get("x")?, data.get("y")?);
+    if x.is_discrete() || y.is_discrete() {
+        return None;
+    }
+    let all: Vec<usize> = (0..data.len).collect();
+    let xe = bin::edges_by_count(&nums_of(x, &all), SCATTER_COLUMNS);
+    let ye = bin::edges_by_count(&nums_of(y, &all), SCATTER_ROWS);
+    if xe.len() < 2 || ye.len() < 2 {
+        return None;
+    }
+    let (nx, ny) = (xe.len() - 1, ye.len() - 1);
+    let cell = |e: &[f64], v: f64| -> usize {
+        let n = e.len() - 1;
+        let k = ((v - e[0]) / (e[n] - e[0]) * n as f64) as usize;
+        k.min(n - 1)
+    };
+    let keys = group_keys(data);
+    let groups = group_rows(data, &keys);
+    let mut out = Out::new();
+    for rows in groups.values() {
+        let mut counts = vec![0u32; nx * ny];
+        for i in rows {
+            if let (Some(a), Some(b)) = (x.num(*i), y.num(*i)) {
+                counts[cell(&ye, b) * nx + cell(&xe, a)] += 1;
+            }
+        }
+        for r in 0..ny {
+            for c in 0..nx {
+                let k = counts[r * nx + c];
+                if k > 0 {
+                    out.row(rows[0], &[("x", Some(xe[c])), ("x_end", Some(xe[c + 1])), ("y", Some(ye[r])), ("y_end", Some(ye[r + 1])), ("count", Some(k as f64))]);
+                }
+            }
+        }
+    }
+    let mut time = vec![];
+    if matches!(x, Values::Time(_)) {
+        time.extend(["x", "x_end"]);
+    }
+    if matches!(y, Values::Time(_)) {
+        time.extend(["y", "y_end"]);
+    }
+    Some(out.finish(data, &keys, &time, &[("x", name_of(data, "x")), ("y", name_of(data, "y"))]))
+}
+
+// ------------------------------------------------------------ element cap
+
+/// The most SVG elements a chart may have; past it the render fails with a
+/// hint to summarise.
+pub const MAX_ELEMENTS: usize = 200_000;
+
+/// SVG elements a layer will draw, roughly: one per row for marks drawn one
+/// by one, one per series for lines and areas.
+pub fn element_count(geometry: Geometry, data: &LayerData) -> usize {
+    match geometry {
+        Geometry::Line | Geometry::Step | Geometry::Area | Geometry::Ribbon => 1,
+        Geometry::Box => 6 * data.len,
+        Geometry::Range => 3 * data.len,
+        _ => data.len,
+    }
+}
+
+pub fn too_many_elements(index: usize, geometry: Geometry, n: usize) -> Diagnostic {
+    Diagnostic::error(
+        "plan.too_many_marks",
+        format!("layer {} would draw about {n} {} marks, more than the {MAX_ELEMENTS} an SVG chart can hold", index + 1, geometry.word()),
+    )
+    .at_path(format!("layers[{index}].stat"))
+    .with_hint("summarise first: a `{\"bin\": {}}` histogram, `\"count\"`, a `{\"summary\": \"mean\"}`, `{\"density\": {}}`, or leave `every_point` off so a crowded scatter is binned into tiles")
+}
+
+#[cfg(test)]
+#[path = "stat_tests.rs"]
+mod tests;

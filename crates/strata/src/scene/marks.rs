@@ -1,7 +1,11 @@
 //! Data marks of one layer in pixels.
+//!
+//! Lines and areas with more than four points per pixel column are reduced
+//! by M4 (first, last, lowest and highest point per column; Jugel et al.
+//! 2014) at the width being drawn, which draws the same pixels.
 
 use super::coord::{path_d, Area, Coord};
-use super::{Datum, Node, Paint};
+use super::{Anchor, Datum, Node, Paint};
 use crate::color;
 use crate::plan::{ColorScale, PlannedLayer, Scales, Values};
 use crate::scale::PositionScale;
@@ -14,8 +18,11 @@ pub struct Ctx<'a> {
     pub default_color: &'a str,
 }
 
+/// Channels kept out of a mark's datum: drawing aids, not data.
+const HIDDEN: [&str; 2] = ["y_base", "x_offset"];
+
 fn datum(layer: &PlannedLayer, i: usize) -> Datum {
-    layer.data.channels.iter().filter(|(k, _)| !k.starts_with("y_base")).map(|(k, v)| (k.to_string(), v.json(i))).collect()
+    layer.data.channels.iter().filter(|(k, _)| !HIDDEN.contains(k)).map(|(k, v)| (k.to_string(), v.json(i))).collect()
 }
 
 fn color_of(ctx: &Ctx, layer: &PlannedLayer, i: usize) -> String {
@@ -37,9 +44,16 @@ fn color_of(ctx: &Ctx, layer: &PlannedLayer, i: usize) -> String {
     layer.style.color.clone().unwrap_or_else(|| ctx.default_color.to_string())
 }
 
-/// Unit position on x of row i (band centre for categories).
-fn ux(s: &PositionScale, v: &Values, i: usize) -> Option<f64> {
-    s.unit(v, i)
+/// Unit position on x of row i (band centre for categories), moved by any
+/// jitter offset (a fraction of the band).
+fn ux(ctx: &Ctx, layer: &PlannedLayer, v: &Values, i: usize) -> Option<f64> {
+    let u = ctx.scales.x.unit(v, i)?;
+    let off = layer.data.get("x_offset").and_then(|o| o.num(i)).unwrap_or(0.0);
+    Some(u + off * ctx.scales.x.band())
+}
+
+fn uy_num(s: &PositionScale, v: Option<f64>) -> Option<f64> {
+    v.and_then(|v| s.unit_num(v))
 }
 
 pub fn layer_marks(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
@@ -47,31 +61,26 @@ pub fn layer_marks(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         Geometry::Point => points(ctx, layer),
         Geometry::Line | Geometry::Step => lines(ctx, layer),
         Geometry::Bar => bars(ctx, layer),
-        _ => vec![],
+        Geometry::Area => bands(ctx, layer, "y", Band::Base),
+        Geometry::Ribbon => bands(ctx, layer, "y", Band::End),
+        Geometry::Rule => rules(ctx, layer),
+        Geometry::Range => ranges(ctx, layer),
+        Geometry::Box => boxes(ctx, layer),
+        Geometry::Tile => tiles(ctx, layer),
+        Geometry::Label => labels(ctx, layer),
     }
 }
 
-fn points(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
-    let (Some(xv), Some(yv)) = (layer.data.get("x"), layer.data.get("y")) else { return vec![] };
-    let r = layer.style.radius.unwrap_or(3.5);
-    let mut out = Vec::with_capacity(layer.data.len);
-    for i in 0..layer.data.len {
-        let (Some(ux), Some(uy)) = (ux(&ctx.scales.x, xv, i), ctx.scales.y.unit(yv, i)) else { continue };
-        let (cx, cy) = ctx.coord.point(ux, uy);
-        let mut paint = Paint::fill(&color_of(ctx, layer, i));
-        paint.opacity = layer.style.opacity;
-        out.push(Node::Circle { cx, cy, r, paint, datum: Some(datum(layer, i)) });
+/// Rows split into series by colour, group and panel, in order of first appearance.
+fn series(layer: &PlannedLayer) -> Vec<Vec<usize>> {
+    let cols: Vec<&Values> = ["color", "group", "panel"].iter().filter_map(|c| layer.data.get(c)).collect();
+    if cols.is_empty() {
+        return vec![(0..layer.data.len).collect()];
     }
-    out
-}
-
-fn lines(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
-    let (Some(xv), Some(yv)) = (layer.data.get("x"), layer.data.get("y")) else { return vec![] };
-    // One line per colour/group key, in order of first appearance.
-    let mut keys: Vec<Option<String>> = Vec::new();
+    let mut keys: Vec<Vec<Option<String>>> = Vec::new();
     let mut rows: Vec<Vec<usize>> = Vec::new();
     for i in 0..layer.data.len {
-        let k = ["color", "group"].iter().filter_map(|c| layer.data.get(c)).map(|v| v.key(i).unwrap_or_default()).reduce(|a, b| a + "\u{1f}" + &b);
+        let k: Vec<Option<String>> = cols.iter().map(|v| v.key(i)).collect();
         match keys.iter().position(|x| *x == k) {
             Some(p) => rows[p].push(i),
             None => {
@@ -80,87 +89,451 @@ fn lines(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
             }
         }
     }
+    rows
+}
+
+fn series_datum(layer: &PlannedLayer, first: usize) -> Datum {
+    let mut d = Datum::new();
+    for (k, v) in &layer.data.channels {
+        if matches!(*k, "color" | "group" | "panel") {
+            d.insert(k.to_string(), v.json(first));
+        }
+    }
+    d
+}
+
+// ------------------------------------------------------------ points
+
+fn points(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
+    let (Some(xv), Some(yv)) = (layer.data.get("x"), layer.data.get("y")) else { return vec![] };
+    let r = layer.style.radius.unwrap_or(3.5);
+    let (lo, hi) = (layer.data.get("y_low"), layer.data.get("y_high"));
+    let mut out = Vec::with_capacity(layer.data.len);
+    for i in 0..layer.data.len {
+        let (Some(ux), Some(uy)) = (ux(ctx, layer, xv, i), ctx.scales.y.unit(yv, i)) else { continue };
+        let c = color_of(ctx, layer, i);
+        // An interval around the point: an error bar behind it.
+        if let (Some(a), Some(b)) = (uy_num(&ctx.scales.y, lo.and_then(|v| v.num(i))), uy_num(&ctx.scales.y, hi.and_then(|v| v.num(i)))) {
+            out.push(error_bar(ctx, ux, a, b, 4.0, &c, None));
+        }
+        let (cx, cy) = ctx.coord.point(ux, uy);
+        let mut paint = Paint::fill(&c);
+        paint.opacity = layer.style.opacity;
+        out.push(Node::Circle { cx, cy, r, paint, datum: Some(datum(layer, i)) });
+    }
+    out
+}
+
+/// A vertical (in data terms) segment from a to b at x with caps `cap` px wide.
+fn error_bar(ctx: &Ctx, ux: f64, a: f64, b: f64, cap: f64, c: &str, datum: Option<Datum>) -> Node {
+    let p0 = ctx.coord.point(ux, a);
+    let p1 = ctx.coord.point(ux, b);
+    let flip = matches!(ctx.coord, Coord::Flip(_));
+    let capped = |p: (f64, f64)| if flip { ((p.0, p.1 - cap), (p.0, p.1 + cap)) } else { ((p.0 - cap, p.1), (p.0 + cap, p.1)) };
+    let (c0, c1) = capped(p0);
+    let (d0, d1) = capped(p1);
+    let num = crate::svg::num;
+    let d = format!(
+        "M{},{}L{},{}M{},{}L{},{}M{},{}L{},{}",
+        num(p0.0), num(p0.1), num(p1.0), num(p1.1),
+        num(c0.0), num(c0.1), num(c1.0), num(c1.1),
+        num(d0.0), num(d0.1), num(d1.0), num(d1.1)
+    );
+    Node::Path { d, paint: Paint::stroke(c, 1.5), datum }
+}
+
+// ------------------------------------------------------------ lines
+
+/// Pixel points of a series in x order, reduced by M4 when crowded.
+/// Returns the points and the row index of the first point.
+fn series_pixels(ctx: &Ctx, layer: &PlannedLayer, rows: &[usize], ych: &str) -> (Vec<(f64, f64)>, Vec<usize>) {
+    let (Some(xv), Some(yv)) = (layer.data.get("x"), layer.data.get(ych)) else { return (vec![], vec![]) };
+    let mut pts: Vec<(f64, f64, usize)> = Vec::with_capacity(rows.len());
+    for &i in rows {
+        if let (Some(a), Some(b)) = (ux(ctx, layer, xv, i), ctx.scales.y.unit(yv, i)) {
+            pts.push((a, b, i));
+        }
+    }
+    if !pts.windows(2).all(|w| w[0].0 <= w[1].0) {
+        pts.sort_by(|a, b| a.0.total_cmp(&b.0));
+    }
+    let units: Vec<(f64, f64)> = pts.iter().map(|p| (p.0, p.1)).collect();
+    let idx: Vec<usize> = pts.iter().map(|p| p.2).collect();
+    (units, idx)
+}
+
+/// The pixel column coordinate of a unit x (horizontal pixels; vertical when flipped).
+fn columns(ctx: &Ctx, units: &[(f64, f64)]) -> Option<(Vec<f64>, Vec<f64>, f64)> {
+    match ctx.coord {
+        Coord::Cartesian(f) => Some((
+            units.iter().map(|u| f.left + u.0 * f.width).collect(),
+            units.iter().map(|u| f.bottom() - u.1 * f.height).collect(),
+            f.width,
+        )),
+        Coord::Flip(f) => Some((
+            units.iter().map(|u| f.top + u.0 * f.height).collect(),
+            units.iter().map(|u| f.left + u.1 * f.width).collect(),
+            f.height,
+        )),
+        Coord::Polar { .. } => None,
+    }
+}
+
+/// Indices into `units` to draw: all, or the M4 selection when there are
+/// more than four points per pixel column.
+fn m4_keep(ctx: &Ctx, units: &[(f64, f64)]) -> Option<Vec<usize>> {
+    let (col, val, width) = columns(ctx, units)?;
+    if (units.len() as f64) <= 4.0 * width.max(1.0) {
+        return None;
+    }
+    Some(crate::stat::m4::m4_indices(&col, &val))
+}
+
+fn lines(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     let width = layer.style.width.unwrap_or(2.0);
     let mut out = Vec::new();
-    for idx in rows {
-        let mut pts: Vec<(f64, f64, usize)> = idx
-            .iter()
-            .filter_map(|i| Some((ux(&ctx.scales.x, xv, *i)?, ctx.scales.y.unit(yv, *i)?, *i)))
-            .collect();
-        pts.sort_by(|a, b| a.0.total_cmp(&b.0));
-        if pts.is_empty() {
+    let banded = layer.data.get("y_low").is_some() && layer.data.get("y_high").is_some();
+    for rows in series(layer) {
+        let (units, idx) = series_pixels(ctx, layer, &rows, "y");
+        if units.is_empty() {
             continue;
         }
-        let mut units: Vec<(f64, f64)> = Vec::with_capacity(pts.len() * 2);
-        for (k, p) in pts.iter().enumerate() {
-            if layer.geometry == Geometry::Step && k > 0 {
-                units.push((p.0, pts[k - 1].1));
-            }
-            units.push((p.0, p.1));
+        let first = idx[0];
+        let c = color_of(ctx, layer, first);
+        if banded {
+            // A fit's confidence band, under its line.
+            out.extend(band_path(ctx, layer, &rows, "y_low", "y_high", &c, layer.style.opacity.unwrap_or(1.0) * 0.25));
         }
-        let px = ctx.coord.line(&units);
-        let first = pts[0].2;
-        let mut paint = Paint::stroke(&color_of(ctx, layer, first), width);
+        let keep = m4_keep(ctx, &units);
+        let drawn: Vec<(f64, f64)> = match &keep {
+            Some(k) => k.iter().map(|i| units[*i]).collect(),
+            None => units.clone(),
+        };
+        let mut stepped: Vec<(f64, f64)> = Vec::with_capacity(drawn.len() * 2);
+        for (k, p) in drawn.iter().enumerate() {
+            if layer.geometry == Geometry::Step && k > 0 {
+                stepped.push((p.0, drawn[k - 1].1));
+            }
+            stepped.push(*p);
+        }
+        let px = ctx.coord.line(&stepped);
+        let mut paint = Paint::stroke(&c, width);
         paint.opacity = layer.style.opacity;
         paint.dash = layer.style.dash.clone();
-        let mut d = Datum::new();
-        for (k, v) in &layer.data.channels {
-            if *k == "color" || *k == "group" {
-                d.insert(k.to_string(), v.json(first));
-            }
+        let mut d = series_datum(layer, first);
+        d.insert("points".into(), serde_json::Value::from(units.len()));
+        if keep.is_some() {
+            d.insert("drawn_points".into(), serde_json::Value::from(drawn.len()));
         }
-        d.insert("points".into(), serde_json::Value::from(pts.len()));
         out.push(Node::Path { d: path_d(&px, false), paint, datum: Some(d) });
     }
     out
 }
 
-fn bars(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
-    let (Some(xv), Some(yv)) = (layer.data.get("x"), layer.data.get("y")) else { return vec![] };
-    let base = layer.data.get("y_base");
-    let band = ctx.scales.x.band();
-    let fill_fraction = layer.style.band.unwrap_or(0.8).clamp(0.05, 1.0);
-    // Side by side: each colour key gets a slot within the band.
-    let beside_keys: Vec<String> = if layer_arrange_beside(layer) {
-        match &ctx.scales.color {
-            Some(ColorScale::Categories(c)) => c.clone(),
-            _ => vec![],
-        }
-    } else {
-        vec![]
-    };
-    let mut out = Vec::with_capacity(layer.data.len);
-    for i in 0..layer.data.len {
-        let (Some(cx), Some(uy)) = (ux(&ctx.scales.x, xv, i), ctx.scales.y.unit(yv, i)) else { continue };
-        let ub = base.and_then(|b| b.num(i)).and_then(|b| ctx.scales.y.unit_num(b)).unwrap_or(0.0);
-        let (mut x0, mut x1) = if band > 0.0 {
-            (cx - band * fill_fraction / 2.0, cx + band * fill_fraction / 2.0)
-        } else {
-            // Continuous x without an end: a thin bar 1 % of the axis wide.
-            (cx - 0.005, cx + 0.005)
-        };
-        if let Some(xe) = layer.data.get("x_end").and_then(|v| ctx.scales.x.unit(v, i)) {
-            x0 = cx.min(xe);
-            x1 = cx.max(xe);
-        }
-        if !beside_keys.is_empty() {
-            if let Some(k) = layer.data.get("color").and_then(|c| c.key(i)).and_then(|k| beside_keys.iter().position(|b| *b == k)) {
-                let w = (x1 - x0) / beside_keys.len() as f64;
-                x0 += w * k as f64;
-                x1 = x0 + w;
-            }
-        }
-        let mut paint = Paint::fill(&color_of(ctx, layer, i));
-        paint.opacity = layer.style.opacity;
-        let d = Some(datum(layer, i));
-        out.push(match ctx.coord.area(x0, x1, ub, uy) {
-            Area::Rect { x, y, width, height } => Node::Rect { x, y, width, height, paint, datum: d },
-            Area::Path(p) => Node::Path { d: p, paint, datum: d },
+// ------------------------------------------------------------ areas and ribbons
+
+enum Band {
+    /// From `y_base` (or zero) up to `y`.
+    Base,
+    /// From `y` up to `y_end`.
+    End,
+}
+
+fn bands(ctx: &Ctx, layer: &PlannedLayer, _y: &str, kind: Band) -> Vec<Node> {
+    let mut out = Vec::new();
+    for rows in series(layer) {
+        let Some(&first) = rows.first() else { continue };
+        let c = color_of(ctx, layer, first);
+        let opacity = layer.style.opacity.unwrap_or(match kind {
+            Band::Base => 0.85,
+            Band::End => 0.3,
         });
+        let (lo, hi) = match kind {
+            Band::Base => ("y_base", "y"),
+            Band::End => ("y", "y_end"),
+        };
+        out.extend(band_path(ctx, layer, &rows, lo, hi, &c, opacity));
     }
     out
 }
 
-fn layer_arrange_beside(layer: &PlannedLayer) -> bool {
-    layer.arrange == Arrange::Beside
+/// A filled band between channels `lo` and `hi` over x, for one series.
+fn band_path(ctx: &Ctx, layer: &PlannedLayer, rows: &[usize], lo: &str, hi: &str, c: &str, opacity: f64) -> Option<Node> {
+    let xv = layer.data.get("x")?;
+    let hv = layer.data.get(hi)?;
+    let lv = layer.data.get(lo);
+    let zero = ctx.scales.y.unit_num(0.0).unwrap_or(0.0);
+    let mut pts: Vec<(f64, f64, f64)> = Vec::with_capacity(rows.len());
+    for &i in rows {
+        let Some(a) = ux(ctx, layer, xv, i) else { continue };
+        let Some(top) = ctx.scales.y.unit(hv, i) else { continue };
+        let bottom = match lv {
+            Some(v) => match ctx.scales.y.unit(v, i) {
+                Some(b) => b,
+                None => continue,
+            },
+            None => zero,
+        };
+        pts.push((a, top, bottom));
+    }
+    if pts.is_empty() {
+        return None;
+    }
+    if !pts.windows(2).all(|w| w[0].0 <= w[1].0) {
+        pts.sort_by(|a, b| a.0.total_cmp(&b.0));
+    }
+    let tops: Vec<(f64, f64)> = pts.iter().map(|p| (p.0, p.1)).collect();
+    let bottoms: Vec<(f64, f64)> = pts.iter().map(|p| (p.0, p.2)).collect();
+    // M4 on both edges; keep the union so top and bottom stay paired.
+    let keep = match (m4_keep(ctx, &tops), m4_keep(ctx, &bottoms)) {
+        (Some(a), Some(b)) => {
+            let mut k = a;
+            k.extend(b);
+            k.sort_unstable();
+            k.dedup();
+            Some(k)
+        }
+        _ => None,
+    };
+    let pick = |v: &[(f64, f64)]| -> Vec<(f64, f64)> {
+        match &keep {
+            Some(k) => k.iter().map(|i| v[*i]).collect(),
+            None => v.to_vec(),
+        }
+    };
+    let mut outline = ctx.coord.line(&pick(&tops));
+    let mut back = ctx.coord.line(&pick(&bottoms));
+    back.reverse();
+    outline.extend(back);
+    let mut paint = Paint::fill(c);
+    paint.opacity = Some(opacity);
+    let mut d = series_datum(layer, rows[0]);
+    d.insert("points".into(), serde_json::Value::from(pts.len()));
+    Some(Node::Path { d: path_d(&outline, true), paint, datum: Some(d) })
+}
+
+// ------------------------------------------------------------ bars
+
+/// The unit extent across x of row i: a share of the band for categories,
+/// x..x_end when an end is given, or 1 % of the axis; split among colour
+/// categories when the layer is arranged `beside`.
+fn x_extent(ctx: &Ctx, layer: &PlannedLayer, i: usize, fraction: f64, beside: &[String]) -> Option<(f64, f64)> {
+    let xv = layer.data.get("x")?;
+    let cx = ux(ctx, layer, xv, i)?;
+    let band = ctx.scales.x.band();
+    let (mut x0, mut x1) = if band > 0.0 { (cx - band * fraction / 2.0, cx + band * fraction / 2.0) } else { (cx - 0.005, cx + 0.005) };
+    if let Some(xe) = layer.data.get("x_end").and_then(|v| ctx.scales.x.unit(v, i)) {
+        x0 = cx.min(xe);
+        x1 = cx.max(xe);
+    }
+    if !beside.is_empty() {
+        if let Some(k) = layer.data.get("color").and_then(|c| c.key(i)).and_then(|k| beside.iter().position(|b| *b == k)) {
+            let w = (x1 - x0) / beside.len() as f64;
+            x0 += w * k as f64;
+            x1 = x0 + w;
+        }
+    }
+    Some((x0, x1))
+}
+
+fn beside_keys(ctx: &Ctx, layer: &PlannedLayer) -> Vec<String> {
+    if layer.arrange != Arrange::Beside || layer.data.get("color").is_none() {
+        return vec![];
+    }
+    match &ctx.scales.color {
+        Some(ColorScale::Categories(c)) => c.clone(),
+        _ => vec![],
+    }
+}
+
+fn rect_node(ctx: &Ctx, x0: f64, x1: f64, y0: f64, y1: f64, paint: Paint, datum: Option<Datum>) -> Node {
+    match ctx.coord.area(x0, x1, y0, y1) {
+        Area::Rect { x, y, width, height } => Node::Rect { x, y, width, height, paint, datum },
+        Area::Path(p) => Node::Path { d: p, paint, datum },
+    }
+}
+
+fn bars(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
+    let Some(yv) = layer.data.get("y") else { return vec![] };
+    let base = layer.data.get("y_base");
+    let fraction = layer.style.band.unwrap_or(0.8).clamp(0.05, 1.0);
+    let beside = beside_keys(ctx, layer);
+    let (lo, hi) = (layer.data.get("y_low"), layer.data.get("y_high"));
+    let mut out = Vec::with_capacity(layer.data.len);
+    let mut bars_after = Vec::new();
+    for i in 0..layer.data.len {
+        let Some(uy) = ctx.scales.y.unit(yv, i) else { continue };
+        let Some((x0, x1)) = x_extent(ctx, layer, i, fraction, &beside) else { continue };
+        let ub = base.and_then(|b| b.num(i)).and_then(|b| ctx.scales.y.unit_num(b)).unwrap_or(0.0);
+        let c = color_of(ctx, layer, i);
+        let mut paint = Paint::fill(&c);
+        paint.opacity = layer.style.opacity;
+        out.push(rect_node(ctx, x0, x1, ub, uy, paint, Some(datum(layer, i))));
+        if let (Some(a), Some(b)) = (uy_num(&ctx.scales.y, lo.and_then(|v| v.num(i))), uy_num(&ctx.scales.y, hi.and_then(|v| v.num(i)))) {
+            bars_after.push(error_bar(ctx, 0.5 * (x0 + x1), a, b, 4.0, ctx.default_color, None));
+        }
+    }
+    out.extend(bars_after);
+    out
+}
+
+// ------------------------------------------------------------ rules and ranges
+
+fn rules(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
+    let width = layer.style.width.unwrap_or(1.5);
+    let (xv, yv) = (layer.data.get("x"), layer.data.get("y"));
+    let (xe, ye) = (layer.data.get("x_end"), layer.data.get("y_end"));
+    let mut out = Vec::new();
+    for i in 0..layer.data.len {
+        let ux0 = xv.and_then(|v| ux(ctx, layer, v, i));
+        let uy0 = yv.and_then(|v| ctx.scales.y.unit(v, i));
+        let ux1 = xe.and_then(|v| ctx.scales.x.unit(v, i));
+        let uy1 = ye.and_then(|v| ctx.scales.y.unit(v, i));
+        let (a, b) = match (ux0, uy0, ux1, uy1) {
+            (Some(x), Some(y0), _, Some(y1)) => ((x, y0), (x, y1)),
+            (Some(x0), Some(y), Some(x1), None) => ((x0, y), (x1, y)),
+            (Some(x), None, _, _) => ((x, 0.0), (x, 1.0)),
+            (None, Some(y), _, _) => ((0.0, y), (1.0, y)),
+            (Some(x), Some(y), None, None) => ((x, 0.0), (x, y)),
+            _ => continue,
+        };
+        let px = ctx.coord.line(&[a, b]);
+        let mut paint = Paint::stroke(&color_of(ctx, layer, i), width);
+        paint.opacity = layer.style.opacity;
+        paint.dash = layer.style.dash.clone();
+        out.push(Node::Path { d: path_d(&px, false), paint, datum: Some(datum(layer, i)) });
+    }
+    out
+}
+
+fn ranges(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
+    let (Some(xv), Some(yv), Some(ye)) = (layer.data.get("x"), layer.data.get("y"), layer.data.get("y_end")) else {
+        return rules(ctx, layer);
+    };
+    let beside = beside_keys(ctx, layer);
+    let mut out = Vec::new();
+    for i in 0..layer.data.len {
+        let (Some(_), Some(a), Some(b)) = (ux(ctx, layer, xv, i), ctx.scales.y.unit(yv, i), ctx.scales.y.unit(ye, i)) else { continue };
+        let Some((x0, x1)) = x_extent(ctx, layer, i, 0.8, &beside) else { continue };
+        let c = color_of(ctx, layer, i);
+        let mut node = error_bar(ctx, 0.5 * (x0 + x1), a, b, layer.style.width.unwrap_or(1.5) * 3.0, &c, Some(datum(layer, i)));
+        if let Node::Path { paint, .. } = &mut node {
+            paint.stroke_width = Some(layer.style.width.unwrap_or(1.5));
+            paint.opacity = layer.style.opacity;
+        }
+        out.push(node);
+        // The estimate, when the interval came from a summary.
+        if let Some(e) = layer.data.get("estimate").and_then(|v| v.num(i)).and_then(|v| ctx.scales.y.unit_num(v)) {
+            let (cx, cy) = ctx.coord.point(0.5 * (x0 + x1), e);
+            out.push(Node::Circle { cx, cy, r: 3.0, paint: Paint::fill(&c), datum: None });
+        }
+    }
+    out
+}
+
+// ------------------------------------------------------------ box plots
+
+fn boxes(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
+    let d = &layer.data;
+    let (Some(yv), Some(ye)) = (d.get("y"), d.get("y_end")) else { return vec![] };
+    let part = d.get("part");
+    let fraction = layer.style.band.unwrap_or(0.6).clamp(0.05, 1.0);
+    let beside = beside_keys(ctx, layer);
+    let unit = |ch: &str, i: usize| d.get(ch).and_then(|v| v.num(i)).and_then(|v| ctx.scales.y.unit_num(v));
+    let mut out = Vec::new();
+    for i in 0..d.len {
+        let Some((x0, x1)) = x_extent(ctx, layer, i, fraction, &beside) else { continue };
+        let c = color_of(ctx, layer, i);
+        let xm = 0.5 * (x0 + x1);
+        if part.and_then(|p| p.key(i)).as_deref() == Some("outlier") {
+            let Some(u) = ctx.scales.y.unit(yv, i) else { continue };
+            let (cx, cy) = ctx.coord.point(xm, u);
+            out.push(Node::Circle { cx, cy, r: 2.5, paint: Paint::stroke(&c, 1.2), datum: Some(datum(layer, i)) });
+            continue;
+        }
+        let (Some(lw), Some(uw), Some(q1), Some(med), Some(q3)) =
+            (ctx.scales.y.unit(yv, i), ctx.scales.y.unit(ye, i), unit("q1", i), unit("median", i), unit("q3", i))
+        else {
+            continue;
+        };
+        let mut fill = Paint::fill(&c);
+        fill.opacity = Some(layer.style.opacity.unwrap_or(0.35));
+        out.push(rect_node(ctx, x0, x1, q1, q3, fill, Some(datum(layer, i))));
+        let seg = |a: (f64, f64), b: (f64, f64)| ctx.coord.line(&[a, b]);
+        let mut lines = Vec::new();
+        lines.push(seg((x0, med), (x1, med)));
+        if lw < q1 {
+            lines.push(seg((xm, lw), (xm, q1)));
+        }
+        if uw > q3 {
+            lines.push(seg((xm, q3), (xm, uw)));
+        }
+        let mut dd = String::new();
+        for l in &lines {
+            dd.push_str(&path_d(l, false));
+        }
+        out.push(Node::Path { d: dd, paint: Paint::stroke(&c, 1.5), datum: None });
+        // The box outline.
+        let outline = ctx.coord.line(&[(x0, q1), (x1, q1), (x1, q3), (x0, q3)]);
+        out.push(Node::Path { d: path_d(&outline, true), paint: Paint::stroke(&c, 1.5), datum: None });
+    }
+    out
+}
+
+// ------------------------------------------------------------ tiles and labels
+
+fn tiles(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
+    let d = &layer.data;
+    let (Some(xv), Some(yv)) = (d.get("x"), d.get("y")) else { return vec![] };
+    let counts = d.get("count");
+    let max_count = counts.map(|c| (0..d.len).filter_map(|i| c.num(i)).fold(0.0, f64::max)).unwrap_or(0.0);
+    let (xb, yb) = (ctx.scales.x.band(), ctx.scales.y.band());
+    let mut out = Vec::with_capacity(d.len);
+    for i in 0..d.len {
+        let (Some(ux0), Some(uy0)) = (ctx.scales.x.unit(xv, i), ctx.scales.y.unit(yv, i)) else { continue };
+        let (x0, x1) = match d.get("x_end").and_then(|v| ctx.scales.x.unit(v, i)) {
+            Some(e) => (ux0, e),
+            None => (ux0 - xb / 2.0, ux0 + xb / 2.0),
+        };
+        let (y0, y1) = match d.get("y_end").and_then(|v| ctx.scales.y.unit(v, i)) {
+            Some(e) => (uy0, e),
+            None => (uy0 - yb / 2.0, uy0 + yb / 2.0),
+        };
+        let mut paint = Paint::fill(&color_of(ctx, layer, i));
+        // Without a colour channel, shade by count: darker is more.
+        paint.opacity = match (d.get("color"), counts.and_then(|c| c.num(i))) {
+            (None, Some(k)) if max_count > 0.0 => Some(0.15 + 0.85 * (k / max_count).sqrt()),
+            _ => layer.style.opacity,
+        };
+        out.push(rect_node(ctx, x0, x1, y0, y1, paint, Some(datum(layer, i))));
+    }
+    out
+}
+
+fn labels(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
+    let d = &layer.data;
+    let (Some(xv), Some(yv)) = (d.get("x"), d.get("y")) else { return vec![] };
+    let tv = d.get("text").or(d.get("y"));
+    let mut out = Vec::new();
+    for i in 0..d.len {
+        let (Some(a), Some(b)) = (ux(ctx, layer, xv, i), ctx.scales.y.unit(yv, i)) else { continue };
+        let text = match tv.map(|t| t.json(i)) {
+            Some(serde_json::Value::String(s)) => s,
+            Some(serde_json::Value::Number(n)) => n.as_f64().map(crate::format::value_label).unwrap_or_default(),
+            _ => continue,
+        };
+        let (x, y) = ctx.coord.point(a, b);
+        out.push(Node::Text {
+            x,
+            y: y - 4.0,
+            text,
+            size: 11.0,
+            anchor: Anchor::Middle,
+            bold: false,
+            angle: 0.0,
+            fill: color_of(ctx, layer, i),
+            class: "strata-label".into(),
+        });
+    }
+    out
 }

@@ -228,6 +228,10 @@ pub struct Style {
     /// Text size of labels in pixels.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub font_size: Option<f64>,
+    /// Draw every point even when a scatter is crowded enough to be binned
+    /// into tiles.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub every_point: Option<bool>,
 }
 
 /// The statistic of a layer.
@@ -258,9 +262,46 @@ pub struct StatObject {
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub band: Option<f64>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub density: Option<serde_json::Value>,
+    pub density: Option<DensitySpec>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub window: Option<serde_json::Value>,
+    pub window: Option<WindowSpec>,
+    /// The probability of a `quantile` summary (0..1).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub p: Option<f64>,
+    /// LOESS: the fraction of the points in each local fit (0..1].
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub span: Option<f64>,
+    /// LOESS: local polynomial degree, 1 or 2.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub degree: Option<u32>,
+    /// LOESS: `true` (3 robustness iterations) or a number of iterations.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub robust: Option<serde_json::Value>,
+}
+
+/// `density` options: `bandwidth` is `"scott"` (default), `"silverman"` or a
+/// number in data units; `grid` is the number of points evaluated.
+#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct DensitySpec {
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub bandwidth: Option<serde_json::Value>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub grid: Option<u32>,
+}
+
+/// `window` options: `summary` is `"mean"` (default), `"sum"` or
+/// `"running_total"`; `rows` the window length; `align` `"center"` (default)
+/// or `"trailing"`.
+#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct WindowSpec {
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub summary: Option<String>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub rows: Option<u32>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub align: Option<String>,
 }
 
 #[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
@@ -274,6 +315,12 @@ pub struct BinSpec {
     pub count: Option<u32>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub boundary: Option<f64>,
+    /// Calendar unit for dates: `day`, `week`, `month`, `quarter`, `year`.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub unit: Option<String>,
+    /// Bar heights as a density (count / (n · width)) instead of counts.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub density: Option<bool>,
 }
 
 /// Position adjustment.
