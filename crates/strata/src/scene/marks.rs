@@ -2,7 +2,6 @@
 
 use super::coord::{path_d, Area, Coord};
 use super::{Datum, Node, Paint};
-use crate::color;
 use crate::plan::{ColorScale, PlannedLayer, Scales, Values};
 use crate::scale::PositionScale;
 use crate::spec::{Arrange, Geometry};
@@ -19,20 +18,8 @@ fn datum(layer: &PlannedLayer, i: usize) -> Datum {
 }
 
 fn color_of(ctx: &Ctx, layer: &PlannedLayer, i: usize) -> String {
-    if let (Some(vals), Some(scale)) = (layer.data.get("color"), &ctx.scales.color) {
-        match scale {
-            ColorScale::Categories(cats) => {
-                if let Some(k) = vals.key(i).and_then(|k| cats.iter().position(|c| *c == k)) {
-                    return color::category(k).to_string();
-                }
-            }
-            ColorScale::Ramp { lo, hi } => {
-                if let Some(v) = vals.num(i) {
-                    let t = if hi > lo { (v - lo) / (hi - lo) } else { 0.5 };
-                    return color::ramp(t);
-                }
-            }
-        }
+    if let Some(c) = layer.data.get("color").and_then(|vals| ctx.scales.color_of(vals, i)) {
+        return c;
     }
     layer.style.color.clone().unwrap_or_else(|| ctx.default_color.to_string())
 }

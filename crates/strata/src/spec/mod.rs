@@ -49,6 +49,9 @@ pub struct Spec {
     pub size: Size,
     #[serde(default)]
     pub theme: Theme,
+    /// BCP 47 language tag for number and date labels (`en`, `de`, `fr`, `es`).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub locale: Option<String>,
 }
 
 // ---------------------------------------------------------------- data
