@@ -5,7 +5,7 @@ use super::{PlannedLayer, Values};
 use crate::color::{self, Scheme};
 use crate::error::{Diagnostic, Errors};
 use crate::format::{self, Locale};
-use crate::scale::{ticks, PositionScale, SizeScale, Transform};
+use crate::scale::{PositionScale, SizeScale, Transform};
 use crate::spec::{Geometry, ScaleKind, ScaleSpec, Spec};
 
 #[derive(Debug, Clone, PartialEq)]
@@ -24,6 +24,10 @@ pub struct Scales {
     pub y_title: String,
     pub x_spec: ScaleSpec,
     pub y_spec: ScaleSpec,
+    /// Whether the layout should widen x and y to nice ends once it knows
+    /// how many ticks fit ([`PositionScale::nice`]).
+    pub x_nice: bool,
+    pub y_nice: bool,
     pub color: Option<ColorScale>,
     pub color_title: String,
     pub color_spec: ScaleSpec,
@@ -98,8 +102,8 @@ fn domain_error(axis: &str) -> Errors {
 pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
     let get = |k: &str| spec.scales.get(k).cloned().unwrap_or_default();
     let (x_spec, y_spec, color_spec, size_spec, shape_spec) = (get("x"), get("y"), get("color"), get("size"), get("shape"));
-    let x = train_position(&["x", "x_end"], "x", &x_spec, layers)?;
-    let y = train_position(&["y", "y_end", "y_base"], "y", &y_spec, layers)?;
+    let (x, x_nice) = train_position(&["x", "x_end"], "x", &x_spec, layers)?;
+    let (y, y_nice) = train_position(&["y", "y_end", "y_base"], "y", &y_spec, layers)?;
     let title = |ch: &str, s: &ScaleSpec| {
         s.title.clone().unwrap_or_else(|| layers.iter().find_map(|l| l.data.names.get(ch).cloned()).unwrap_or_default())
     };
@@ -171,6 +175,8 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
         shape_title: title("shape", &shape_spec),
         x,
         y,
+        x_nice,
+        y_nice,
         x_spec,
         y_spec,
         color,
@@ -252,7 +258,8 @@ fn explicit_domain(s: &ScaleSpec, axis: &str) -> Result<Option<(f64, f64)>, Erro
     Ok(Some((nums[0], nums[1])))
 }
 
-fn train_position(channels: &[&str], axis: &str, s: &ScaleSpec, layers: &[PlannedLayer]) -> Result<PositionScale, Errors> {
+/// A trained position scale and whether its domain is still to be made nice.
+fn train_position(channels: &[&str], axis: &str, s: &ScaleSpec, layers: &[PlannedLayer]) -> Result<(PositionScale, bool), Errors> {
     let mut cats: Vec<String> = Vec::new();
     let (mut lo, mut hi) = (f64::INFINITY, f64::NEG_INFINITY);
     let (mut any_num, mut any_text, mut time) = (false, false, false);
@@ -296,7 +303,7 @@ fn train_position(channels: &[&str], axis: &str, s: &ScaleSpec, layers: &[Planne
         if s.reverse {
             cats.reverse();
         }
-        return Ok(PositionScale::Category { values: cats, padding: 0.1 });
+        return Ok((PositionScale::Category { values: cats, padding: 0.1 }, false));
     }
     if any_text && any_num {
         return Err(Diagnostic::error("spec.mixed_axis", format!("the {axis} axis mixes text and numbers across layers"))
@@ -326,7 +333,7 @@ fn train_position(channels: &[&str], axis: &str, s: &ScaleSpec, layers: &[Planne
     };
     if let Some((a, b)) = explicit_domain(s, axis)? {
         let (a, b) = if s.reverse { (b, a) } else { (a, b) };
-        return Ok(PositionScale::Continuous { lo: a, hi: b, transform, time });
+        return Ok((PositionScale::Continuous { lo: a, hi: b, transform, time, step: None }, false));
     }
     if !lo.is_finite() {
         lo = if matches!(transform, Transform::Log { .. }) { 1.0 } else { 0.0 };
@@ -355,32 +362,12 @@ fn train_position(channels: &[&str], axis: &str, s: &ScaleSpec, layers: &[Planne
         lo -= pad;
         hi += pad;
     }
-    let wanted = s.ticks.unwrap_or(6) as usize;
-    if s.nice.unwrap_or(!time) {
-        match transform {
-            Transform::Log { base } => {
-                let lb = crate::math::ln(base);
-                lo = crate::math::pow(base, (crate::math::ln(lo) / lb + 1e-9).floor());
-                hi = crate::math::pow(base, (crate::math::ln(hi) / lb - 1e-9).ceil());
-            }
-            _ if time => {
-                let (a, b) = ticks::time_nice(lo, hi, wanted);
-                lo = a;
-                hi = b;
-            }
-            _ => {
-                let t = ticks::extended(lo, hi, wanted, true);
-                if let (Some(a), Some(b)) = (t.first(), t.last()) {
-                    lo = *a;
-                    hi = *b;
-                }
-            }
-        }
-    }
+    // Nice ends wait for the layout, which knows how many ticks fit.
+    let nice = s.nice.unwrap_or(!time);
     if s.reverse {
         std::mem::swap(&mut lo, &mut hi);
     }
-    Ok(PositionScale::Continuous { lo, hi, transform, time })
+    Ok((PositionScale::Continuous { lo, hi, transform, time, step: None }, nice))
 }
 
 fn positive_min(layers: &[PlannedLayer], channels: &[&str]) -> Option<f64> {

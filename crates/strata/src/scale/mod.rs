@@ -56,8 +56,9 @@ impl Transform {
 #[derive(Debug, Clone, PartialEq)]
 pub enum PositionScale {
     /// Numbers (or times in ms when `time`) from `lo` to `hi` (`lo > hi`
-    /// when reversed), bent by `transform`.
-    Continuous { lo: f64, hi: f64, transform: Transform, time: bool },
+    /// when reversed), bent by `transform`; `step` is the tick step fixed
+    /// by [`PositionScale::nice`], so the axis labels the domain's ends.
+    Continuous { lo: f64, hi: f64, transform: Transform, time: bool, step: Option<f64> },
     /// Discrete values, each a band of equal width; `padding` is the share
     /// of a band left empty around a bar (bands) — points sit at band centres.
     Category { values: Vec<String>, padding: f64 },
@@ -85,7 +86,7 @@ pub struct TickOptions<'a> {
 
 impl PositionScale {
     pub fn linear(lo: f64, hi: f64) -> Self {
-        PositionScale::Continuous { lo, hi, transform: Transform::Linear, time: false }
+        PositionScale::Continuous { lo, hi, transform: Transform::Linear, time: false, step: None }
     }
 
     /// Unit position of a number (continuous scales).
@@ -148,6 +149,45 @@ impl PositionScale {
         }
     }
 
+    /// The domain widened to the ends of the labelling the axis will show
+    /// with about `wanted` ticks: out to multiples of the Talbot-Lin-Hanrahan
+    /// step for linear, sqrt and symlog scales; powers of the base for log scales;
+    /// calendar boundaries for time. Reversed domains stay reversed.
+    pub fn nice(&self, wanted: usize) -> PositionScale {
+        let PositionScale::Continuous { lo, hi, transform, time, .. } = self else { return self.clone() };
+        let rev = lo > hi;
+        let (a, b) = if rev { (*hi, *lo) } else { (*lo, *hi) };
+        if !(b > a) {
+            return self.clone();
+        }
+        let mut fixed = None;
+        let (na, nb) = if *time {
+            ticks::time_nice(a, b, wanted)
+        } else {
+            match transform {
+                Transform::Log { base } => {
+                    if a <= 0.0 {
+                        return self.clone();
+                    }
+                    let lb = math::ln(*base);
+                    (math::pow(*base, (math::ln(a) / lb + 1e-9).floor()), math::pow(*base, (math::ln(b) / lb - 1e-9).ceil()))
+                }
+                _ => {
+                    // Out to the next multiples of the step the axis will use.
+                    let t = ticks::extended(a, b, wanted, false);
+                    if t.len() < 2 {
+                        return self.clone();
+                    }
+                    let step = t[1] - t[0];
+                    fixed = Some(step);
+                    (ticks::clean((a / step + 1e-9).floor() * step, step), ticks::clean((b / step - 1e-9).ceil() * step, step))
+                }
+            }
+        };
+        let (lo, hi) = if rev { (nb, na) } else { (na, nb) };
+        PositionScale::Continuous { lo, hi, transform: *transform, time: *time, step: fixed }
+    }
+
     /// Ticks with English labels; `wanted` is the rough count the layout can fit.
     pub fn ticks(&self, wanted: usize, pattern: Option<&str>) -> Vec<Tick> {
         self.ticks_with(&TickOptions { wanted, pattern, locale: format::english(), short: false })
@@ -155,7 +195,7 @@ impl PositionScale {
 
     /// Tick values (no labels) and the step they were chosen with.
     fn tick_values(&self, wanted: usize) -> (Vec<f64>, TickStep) {
-        let PositionScale::Continuous { lo, hi, transform, time } = self else { return (vec![], TickStep::None) };
+        let PositionScale::Continuous { lo, hi, transform, time, step: fixed } = self else { return (vec![], TickStep::None) };
         let (a, b) = if lo <= hi { (*lo, *hi) } else { (*hi, *lo) };
         if *time {
             let (t, unit, n) = ticks::time_ticks(a, b, wanted);
@@ -192,6 +232,17 @@ impl PositionScale {
                 (t.into_iter().enumerate().filter(|(i, _)| i % k == 0).map(|(_, v)| v).collect(), TickStep::Varied)
             }
             _ => {
+                if let Some(s) = fixed.filter(|s| *s > 0.0) {
+                    // The step nice() widened the domain with: its multiples,
+                    // every k-th of them when fewer are wanted.
+                    let n = ((b - a) / s).round() as usize;
+                    let mut k = 1;
+                    while (n / k) + 1 > wanted.max(2) + wanted.max(2) / 2 {
+                        k += 1;
+                    }
+                    let t: Vec<f64> = (0..=n).step_by(k).map(|i| ticks::clean(a + i as f64 * s, s)).collect();
+                    return (t, TickStep::Even(s * k as f64));
+                }
                 let t: Vec<f64> = ticks::extended(a, b, wanted, false).into_iter().filter(inside).collect();
                 let step = if t.len() > 1 { t[1] - t[0] } else { (b - a).abs().max(1.0) };
                 (t, TickStep::Even(step))
@@ -418,7 +469,7 @@ mod tests {
 
     #[test]
     fn log_scale_positions() {
-        let s = PositionScale::Continuous { lo: 1.0, hi: 1000.0, transform: Transform::Log { base: 10.0 }, time: false };
+        let s = PositionScale::Continuous { lo: 1.0, hi: 1000.0, transform: Transform::Log { base: 10.0 }, time: false, step: None };
         assert!((s.unit_num(10.0).unwrap() - 1.0 / 3.0).abs() < 1e-12);
         assert!((s.unit_num(100.0).unwrap() - 2.0 / 3.0).abs() < 1e-12);
         assert_eq!(s.unit_num(-1.0), None);
@@ -427,11 +478,29 @@ mod tests {
     }
 
     #[test]
+    fn nice_reaches_the_next_tick() {
+        // Data 0..622 with about 4 ticks: the labelling's step is 200, so the
+        // domain runs to 800 and the top tick is the domain's end (the same
+        // search on 0..800 alone would pick steps of 250 and stop at 750).
+        let s = PositionScale::linear(0.0, 622.0).nice(4);
+        assert_eq!(s.domain(), Some((0.0, 800.0)), "{s:?}");
+        let t = s.ticks(4, None);
+        assert_eq!(t.iter().map(|t| t.value).collect::<Vec<_>>(), [0.0, 200.0, 400.0, 600.0, 800.0]);
+        let s = PositionScale::linear(0.0, 622.0).nice(6);
+        assert_eq!(s.domain(), Some((0.0, 700.0)));
+        assert_eq!(s.ticks(6, None).last().map(|t| t.value), Some(700.0));
+        // Reversed stays reversed; log goes to powers.
+        assert_eq!(PositionScale::linear(97.0, 3.0).nice(5).domain(), Some((100.0, 0.0)));
+        let l = PositionScale::Continuous { lo: 3.0, hi: 420.0, transform: Transform::Log { base: 10.0 }, time: false, step: None }.nice(5);
+        assert_eq!(l.domain(), Some((1.0, 1000.0)));
+    }
+
+    #[test]
     fn reversed_and_sqrt() {
         let r = PositionScale::linear(10.0, 0.0);
         assert_eq!(r.unit_num(10.0), Some(0.0));
         assert_eq!(r.unit_num(2.5), Some(0.75));
-        let s = PositionScale::Continuous { lo: 0.0, hi: 100.0, transform: Transform::Sqrt, time: false };
+        let s = PositionScale::Continuous { lo: 0.0, hi: 100.0, transform: Transform::Sqrt, time: false, step: None };
         assert_eq!(s.unit_num(25.0), Some(0.5));
     }
 
@@ -452,10 +521,10 @@ mod tests {
     #[test]
     fn time_labels_by_unit() {
         let day = |y, m, d| crate::data::time::days_from_civil(y, m, d) as f64 * 86_400_000.0;
-        let s = PositionScale::Continuous { lo: day(2024, 1, 1), hi: day(2024, 12, 31), transform: Transform::Linear, time: true };
+        let s = PositionScale::Continuous { lo: day(2024, 1, 1), hi: day(2024, 12, 31), transform: Transform::Linear, time: true, step: None };
         let t = s.ticks_with(&TickOptions { wanted: 6, pattern: None, locale: format::locale("de"), short: false });
         assert_eq!(t[0].label, "Jan.");
-        let s = PositionScale::Continuous { lo: day(1990, 1, 1), hi: day(2020, 1, 1), transform: Transform::Linear, time: true };
+        let s = PositionScale::Continuous { lo: day(1990, 1, 1), hi: day(2020, 1, 1), transform: Transform::Linear, time: true, step: None };
         let t = s.ticks(4, None);
         assert_eq!(t.iter().map(|t| t.label.as_str()).collect::<Vec<_>>(), ["1990", "2000", "2010", "2020"]);
         let t = s.ticks(6, None);

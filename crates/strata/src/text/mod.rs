@@ -5,12 +5,12 @@
 //! SVG's text may differ from the sum of advances by kerning, a fraction of
 //! a pixel per pair).
 
-mod widths;
+pub mod widths;
 
 use widths::{ADVANCES, CAP_HEIGHT, UNITS_PER_EM};
 
 /// The font stack the SVG names: the bundled font first.
-pub const FONT_FAMILY: &str = "'Open Sans', 'Segoe UI', 'Helvetica Neue', Arial, sans-serif";
+pub const FONT_FAMILY: &str = "Open Sans, Segoe UI, Helvetica Neue, Arial, sans-serif";
 
 /// The family name of the bundled font.
 pub const BUNDLED_FAMILY: &str = "Open Sans";
