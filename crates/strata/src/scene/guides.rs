@@ -486,10 +486,10 @@ fn gradient(l: &Legend, x: f64, y: f64, vertical: bool, pal: &Palette) -> Vec<No
     for t in ticks {
         if vertical {
             let ty = y + GRADIENT_LENGTH * (1.0 - t.unit);
-            kids.push(label(x + GRADIENT_THICKNESS + 6.0, ty + TICK_SIZE * text::CAP / 2.0, &t.label, Anchor::Start, &pal.muted, "strata-legend-label"));
+            kids.push(label(x + GRADIENT_THICKNESS + 6.0, ty + TICK_SIZE * text::CAP / 2.0, &t.label, Anchor::Start, &pal.muted, "strata-tick"));
         } else {
             let tx = x + GRADIENT_LENGTH * t.unit;
-            kids.push(label(tx, y + GRADIENT_THICKNESS + 4.0 + TICK_SIZE * text::ASCENT, &t.label, Anchor::Middle, &pal.muted, "strata-legend-label"));
+            kids.push(label(tx, y + GRADIENT_THICKNESS + 4.0 + TICK_SIZE * text::ASCENT, &t.label, Anchor::Middle, &pal.muted, "strata-tick"));
         }
     }
     kids

@@ -9,7 +9,7 @@ mod coord;
 mod guides;
 mod marks;
 
-pub use build::{build, chart_size, SceneOptions};
+pub use build::{build, chart_size, SceneOptions, TITLE_SIZE};
 
 use indexmap::IndexMap;
 use serde::Serialize;
