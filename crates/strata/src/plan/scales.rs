@@ -363,7 +363,7 @@ fn train_position(channels: &[&str], axis: &str, s: &ScaleSpec, layers: &[Planne
         hi += pad;
     }
     // Nice ends wait for the layout, which knows how many ticks fit.
-    let nice = s.nice.unwrap_or(!time);
+    let nice = s.nice.unwrap_or(true);
     if s.reverse {
         std::mem::swap(&mut lo, &mut hi);
     }

@@ -261,7 +261,16 @@ impl PositionScale {
                         (None, TickStep::Time(u, _)) => default_time_pattern(u, &vals, o.locale, o.short),
                         _ => "yyyy-MM-dd".to_string(),
                     };
-                    vals.iter().map(|v| format::date(*v, &pattern, o.locale)).collect()
+                    let mut labels: Vec<String> = vals.iter().map(|v| format::date(*v, &pattern, o.locale)).collect();
+                    // Month ticks: the first label and each January also name the year.
+                    if o.pattern.is_none() && pattern == "MMM" {
+                        for (k, (l, v)) in labels.iter_mut().zip(&vals).enumerate() {
+                            if k == 0 || format::civil(*v).month == 1 {
+                                *l = format::date(*v, "MMM yyyy", o.locale);
+                            }
+                        }
+                    }
+                    labels
                 } else {
                     number_labels(&vals, step, o)
                 };
@@ -329,9 +338,8 @@ fn default_time_pattern(unit: TimeUnit, vals: &[f64], loc: &Locale, short: bool)
     match unit {
         TimeUnit::Year => if short { "yy".into() } else { "yyyy".into() },
         TimeUnit::Month => match (many_years, short) {
-            (true, false) => "MMM yyyy".into(),
             (true, true) => "MM/yy".into(),
-            (false, _) => "MMM".into(),
+            _ => "MMM".into(),
         },
         TimeUnit::Week | TimeUnit::Day => loc.day_month.to_string(),
         TimeUnit::Hour | TimeUnit::Minute => {
@@ -523,7 +531,8 @@ mod tests {
         let day = |y, m, d| crate::data::time::days_from_civil(y, m, d) as f64 * 86_400_000.0;
         let s = PositionScale::Continuous { lo: day(2024, 1, 1), hi: day(2024, 12, 31), transform: Transform::Linear, time: true, step: None };
         let t = s.ticks_with(&TickOptions { wanted: 6, pattern: None, locale: format::locale("de"), short: false });
-        assert_eq!(t[0].label, "Jan.");
+        assert_eq!(t[0].label, "Jan. 2024");
+        assert_eq!(t[1].label, "Apr.");
         let s = PositionScale::Continuous { lo: day(1990, 1, 1), hi: day(2020, 1, 1), transform: Transform::Linear, time: true, step: None };
         let t = s.ticks(4, None);
         assert_eq!(t.iter().map(|t| t.label.as_str()).collect::<Vec<_>>(), ["1990", "2000", "2010", "2020"]);

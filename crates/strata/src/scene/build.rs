@@ -141,6 +141,7 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
     let legends: Vec<Legend> = guides::legends(scales, &pal.mark);
     let mut right = width - pad;
     let mut legend_nodes = Vec::new();
+    let mut legend_on_right = false;
     if !legends.is_empty() {
         let col_w = legends.iter().map(|l| guides::column_size(l).0).fold(0.0, f64::max);
         let col_h: f64 = legends.iter().map(|l| guides::column_size(l).1 + 12.0).sum();
@@ -153,6 +154,7 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
             placement == Some(Placement::Top) || placement == Some(Placement::Bottom)
         });
         let on_right = !narrow && !wants_top && col_w <= width * 0.25 && col_h <= bottom - top;
+        legend_on_right = on_right;
         if on_right {
             let mut y = top + 4.0;
             for l in &legends {
@@ -219,6 +221,21 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
         guides::bottom_ticks(h_scale, frame_w, wanted(h_spec, frame_w, if narrow { 70.0 } else { 90.0 }), h_spec.format.as_deref(), loc, max_label_h)
     } else {
         (vec![], 0.0)
+    };
+    // Keep the outermost labels inside the chart: shrink the frame by any overhang.
+    let (frame_w, h_ticks, h_angle) = {
+        let room_right = if legend_on_right { if narrow { 8.0 } else { 16.0 } } else { pad };
+        let over = |t: &[crate::scale::Tick], w: f64| {
+            t.last().map(|l| (text::width(&l.label, guides::TICK_SIZE, false) / 2.0 - (1.0 - l.unit) * w - room_right + 2.0).max(0.0)).unwrap_or(0.0)
+        };
+        let o = if h_angle == 0.0 { over(&h_ticks, frame_w) } else { 0.0 };
+        if o > 0.0 && h_shown {
+            let w = (frame_w - o).max(20.0);
+            let (t, a) = guides::bottom_ticks(h_scale, w, wanted(h_spec, w, if narrow { 70.0 } else { 90.0 }), h_spec.format.as_deref(), loc, max_label_h);
+            (w, t, a)
+        } else {
+            (frame_w, h_ticks, h_angle)
+        }
     };
     let plot_bottom = bottom - if h_shown { guides::bottom_axis_height(&h_ticks, h_angle, !h_title.is_empty()) } else { 0.0 };
     let frame = Frame { left, top, width: frame_w, height: (plot_bottom - top).max(20.0) };

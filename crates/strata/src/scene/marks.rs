@@ -47,6 +47,12 @@ fn points(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         let (cx, cy) = ctx.coord.point(ux, uy);
         let mut paint = Paint::fill(&color_of(ctx, layer, i));
         paint.opacity = layer.style.opacity;
+        // Size and shape scales (plan/scales.rs): area-true radius, shape by category.
+        let r = layer.data.get("size").and_then(|v| ctx.scales.radius_of(v, i)).unwrap_or(r);
+        if let Some(k) = layer.data.get("shape").and_then(|v| ctx.scales.shape_of(v, i)) {
+            out.push(Node::Path { d: crate::scale::shape_path(k, cx, cy, r), paint, datum: Some(datum(layer, i)) });
+            continue;
+        }
         out.push(Node::Circle { cx, cy, r, paint, datum: Some(datum(layer, i)) });
     }
     out
