@@ -314,3 +314,65 @@ fn default_label(plan: &Plan) -> String {
         _ => "Chart".to_string(),
     }
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::{render, RenderOptions};
+
+    fn texts<'a>(n: &'a Node, class: &str, out: &mut Vec<(f64, f64, &'a str)>) {
+        match n {
+            Node::Group { children, .. } => children.iter().for_each(|c| texts(c, class, out)),
+            Node::Text { x, y, text, class: c, .. } if c == class => out.push((*x, *y, text.as_str())),
+            _ => {}
+        }
+    }
+
+    fn scene(width: f64) -> Scene {
+        let spec = r#"{ "title": "Visitors through each gate of the orchard, month by month, in a long title",
+            "data": { "rows": [
+              {"m": 1, "v": 120, "g": "Lane gate"}, {"m": 2, "v": 340, "g": "Lane gate"}, {"m": 3, "v": 610, "g": "Lane gate"},
+              {"m": 1, "v": 80, "g": "River gate"}, {"m": 2, "v": 150, "g": "River gate"}, {"m": 3, "v": 420, "g": "River gate"} ] },
+            "layers": [ { "draw": "line", "x": "m", "y": "v", "color": "g" } ] }"#;
+        render(spec, None, &RenderOptions { scene: SceneOptions { width } }).unwrap().scene
+    }
+
+    fn all(s: &Scene, class: &str) -> Vec<(f64, f64, String)> {
+        let mut out = Vec::new();
+        for c in &s.children {
+            texts(c, class, &mut out);
+        }
+        out.into_iter().map(|(x, y, t)| (x, y, t.to_string())).collect()
+    }
+
+    #[test]
+    fn height_from_aspect_or_height() {
+        let mut spec = Spec::default();
+        assert_eq!(chart_size(&spec, &SceneOptions { width: 640.0 }), (640.0, 400.0));
+        assert_eq!(chart_size(&spec, &SceneOptions { width: 330.0 }), (330.0, 300.0));
+        spec.size.aspect = Some(2.0);
+        assert_eq!(chart_size(&spec, &SceneOptions { width: 640.0 }), (640.0, 320.0));
+        spec.size.height = Some(250.0);
+        assert_eq!(chart_size(&spec, &SceneOptions { width: 640.0 }), (640.0, 250.0));
+    }
+
+    #[test]
+    fn wide_puts_the_legend_right_narrow_on_top() {
+        let wide = scene(720.0);
+        let narrow = scene(360.0);
+        let ticks_x = |s: &Scene| all(s, "strata-tick").iter().map(|t| t.0).fold(0.0, f64::max);
+        let legend = |s: &Scene| all(s, "strata-legend-label");
+        let plot_top = |s: &Scene| all(s, "strata-tick").iter().map(|t| t.1).fold(f64::INFINITY, f64::min);
+        // Wide: legend labels right of every tick label.
+        assert!(legend(&wide).iter().all(|l| l.0 > ticks_x(&wide)), "{:?}", legend(&wide));
+        // Narrow: legend labels above the plot.
+        assert!(legend(&narrow).iter().all(|l| l.1 < plot_top(&narrow)), "{:?}", legend(&narrow));
+        // Narrow: the long title wraps onto more lines, and there are fewer ticks.
+        assert!(all(&narrow, "strata-title").len() > all(&wide, "strata-title").len());
+        assert!(all(&narrow, "strata-tick").len() < all(&wide, "strata-tick").len());
+        // Every title line fits the width.
+        for (_, _, t) in all(&narrow, "strata-title") {
+            assert!(text::width(&t, TITLE_SIZE - 2.0, true) <= 360.0 - 16.0);
+        }
+    }
+}

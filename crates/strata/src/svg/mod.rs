@@ -213,3 +213,72 @@ mod tests {
         assert_eq!(escape("<script>&\"'"), "&lt;script&gt;&amp;&quot;&#39;");
     }
 }
+
+#[cfg(test)]
+mod document_tests {
+    use crate::{render, RenderOptions};
+
+    fn chart(extra: &str) -> String {
+        let spec = format!(
+            r#"{{ "title": "Rain <b>&amp</b> \"sun\"", "data": {{ "rows": [
+                {{"m": "Jan", "v": 3.25, "g": "North <pier>"}}, {{"m": "Feb", "v": 7.5, "g": "South"}}, {{"m": "Mar", "v": 1.125, "g": "North <pier>"}} ] }},
+                "layers": [ {{ "draw": "bar", "x": "m", "y": "v", "color": "g" }} ] {extra} }}"#
+        );
+        render(&spec, None, &RenderOptions::default()).unwrap().svg
+    }
+
+    #[test]
+    fn strict_csp_and_escaping() {
+        let svg = chart("");
+        // Presentation attributes only: nothing a strict style-src would block.
+        assert!(!svg.contains("style=") && !svg.contains("<style"), "{svg}");
+        assert!(!svg.contains("<b>") && !svg.contains("<pier>"));
+        assert!(svg.contains("Rain &lt;b&gt;&amp;amp&lt;/b&gt; &quot;sun&quot;"));
+        assert!(svg.contains("North &lt;pier&gt;"));
+    }
+
+    #[test]
+    fn coordinates_have_at_most_two_decimals() {
+        let svg = chart("");
+        for attr in [" x=\"", " y=\"", " width=\"", " height=\"", " x1=\"", " y1=\"", " cx=\"", " cy=\""] {
+            for part in svg.split(attr).skip(1) {
+                let v = &part[..part.find('"').unwrap()];
+                if let Some((_, frac)) = v.split_once('.') {
+                    assert!(frac.len() <= 2, "{attr}{v}");
+                }
+            }
+        }
+    }
+
+    #[test]
+    fn deterministic_ids_and_roles() {
+        let a = chart("");
+        assert_eq!(a, chart(""), "same input, same bytes");
+        let b = chart(r#", "subtitle": "another chart""#);
+        let id = |s: &str| s.split("aria-labelledby=\"").nth(1).unwrap().split('"').next().unwrap().to_string();
+        assert_ne!(id(&a), id(&b), "different charts, different ids");
+        // WAI-ARIA Graphics Module roles: document, objects per panel and layer, symbols per mark.
+        assert!(a.contains("role=\"graphics-document document\""));
+        assert!(a.contains("class=\"strata-panel\" role=\"graphics-object\""));
+        assert!(a.contains("class=\"strata-layer strata-bar\" role=\"graphics-object\" aria-label=\"layer 1: 3 bars\""));
+        assert_eq!(a.matches("role=\"graphics-symbol\"").count(), 3);
+        assert!(a.contains("aria-label=\"x: Jan, y: 3.25, color: North &lt;pier&gt;\""));
+        // Title and the automatic description.
+        assert!(a.contains("<title id=\"") && a.contains("<desc id=\""));
+        assert!(a.contains("Bar chart of v against m, in 2 groups by g"));
+    }
+
+    #[test]
+    fn description_from_the_spec_wins() {
+        let svg = chart(r#", "description": "Written by hand.""#);
+        assert!(svg.contains(">Written by hand.</desc>"));
+    }
+
+    #[test]
+    fn theme_classes() {
+        assert!(chart("").contains("class=\"strata strata-auto\""));
+        assert!(chart(r#", "theme": "dark""#).contains("class=\"strata strata-dark\""));
+        let own = chart(r##", "theme": { "base": "dark", "grid": "#333333" }"##);
+        assert!(own.contains("class=\"strata strata-dark strata-own-grid\"") && own.contains("stroke=\"#333333\""));
+    }
+}
