@@ -1,6 +1,7 @@
 //! `strata`: validate specs, render charts to SVG, print scenes.
 
 mod bake;
+mod png;
 
 use clap::{Parser, Subcommand};
 use std::path::{Path, PathBuf};
@@ -107,7 +108,12 @@ fn run(cmd: Command) -> Result<(), String> {
             } else {
                 r.svg
             };
+            let is_png = output.as_ref().is_some_and(|p| p.extension().is_some_and(|e| e.eq_ignore_ascii_case("png")));
             match output {
+                Some(p) if is_png && !scene => {
+                    let bytes = png::encode(&out, 2.0)?;
+                    std::fs::write(&p, bytes).map_err(|e| format!("strata: cannot write {}: {e}", p.display()))?
+                }
                 Some(p) => std::fs::write(&p, out).map_err(|e| format!("strata: cannot write {}: {e}", p.display()))?,
                 None => print!("{out}"),
             }

@@ -29,7 +29,7 @@ pub fn check(spec: &Spec, plan: Option<&Plan>) -> Vec<Diagnostic> {
     let x_spec = spec.scales.get("x").cloned().unwrap_or_default();
     // The value axis of bars is y, unless the plan shows categories on y and numbers on x.
     let value_axis = match plan {
-        Some(p) if matches!(p.scales.y, PositionScale::Category { .. }) && matches!(p.scales.x, PositionScale::Linear { .. }) => "x",
+        Some(p) if matches!(p.scales.y, PositionScale::Category { .. }) && matches!(p.scales.x, PositionScale::Continuous { .. }) => "x",
         _ => "y",
     };
     let value_spec = if value_axis == "x" { &x_spec } else { &y_spec };
@@ -53,7 +53,7 @@ pub fn check(spec: &Spec, plan: Option<&Plan>) -> Vec<Diagnostic> {
         if let Some(i) = spec.layers.iter().position(|l| matches!(l.draw, Geometry::Bar | Geometry::Area)) {
             let geom = spec.layers[i].draw.word();
             let trained = plan.and_then(|p| match if value_axis == "x" { &p.scales.x } else { &p.scales.y } {
-                PositionScale::Linear { lo, hi, .. } => Some((lo.min(*hi), lo.max(*hi))),
+                PositionScale::Continuous { lo, hi, .. } => Some((lo.min(*hi), lo.max(*hi))),
                 _ => None,
             });
             let from_spec = value_spec.domain.as_ref().and_then(|d| {
@@ -99,7 +99,7 @@ pub fn check(spec: &Spec, plan: Option<&Plan>) -> Vec<Diagnostic> {
             AngleChannel::X => ("x", &plan.scales.x),
             AngleChannel::Y => ("y", &plan.scales.y),
         };
-        if let PositionScale::Linear { time, .. } = scale {
+        if let PositionScale::Continuous { time, .. } = scale {
             let what = if *time { "dates or times" } else { "a continuous number" };
             out.push(warn(
                 "lint.polar_angle_not_cyclic",

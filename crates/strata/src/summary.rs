@@ -1,41 +1,88 @@
-//! The automatic text alternative: what is plotted against what, with ranges.
+//! The automatic text alternative (the SVG's `<desc>`): what is plotted
+//! against what, the ranges, the extremes and, for a continuous x, the trend.
 
-use crate::plan::{Plan, Values};
+use crate::format::{self, Locale};
+use crate::plan::{ColorScale, Plan, Values};
 use crate::spec::Spec;
+
+fn value_text(v: &Values, i: usize, loc: &Locale) -> String {
+    match v {
+        Values::Num(x) => x[i].map(|x| format::value_label_in(x, loc)).unwrap_or_default(),
+        Values::Time(x) => x[i].map(|ms| format::date(ms, "yyyy-MM-dd", loc)).unwrap_or_default(),
+        Values::Text(x) => x[i].clone().unwrap_or_default(),
+    }
+}
+
+/// Least-squares slope of y on x.
+fn slope(pts: &[(f64, f64)]) -> Option<f64> {
+    let n = pts.len() as f64;
+    if pts.len() < 3 {
+        return None;
+    }
+    let (mx, my) = (pts.iter().map(|p| p.0).sum::<f64>() / n, pts.iter().map(|p| p.1).sum::<f64>() / n);
+    let sxx: f64 = pts.iter().map(|p| (p.0 - mx).powi(2)).sum();
+    let sxy: f64 = pts.iter().map(|p| (p.0 - mx) * (p.1 - my)).sum();
+    (sxx > 0.0).then(|| sxy / sxx)
+}
+
+/// The trend in words: the fitted line's change across the x range,
+/// against the spread of y (more than a fifth of it counts, common practice).
+pub fn trend_word(pts: &[(f64, f64)]) -> Option<&'static str> {
+    let b = slope(pts)?;
+    let (xlo, xhi) = pts.iter().fold((f64::INFINITY, f64::NEG_INFINITY), |a, p| (a.0.min(p.0), a.1.max(p.0)));
+    let (ylo, yhi) = pts.iter().fold((f64::INFINITY, f64::NEG_INFINITY), |a, p| (a.0.min(p.1), a.1.max(p.1)));
+    if yhi <= ylo {
+        return Some("stays level");
+    }
+    let change = b * (xhi - xlo) / (yhi - ylo);
+    Some(if change > 0.2 { "rises" } else if change < -0.2 { "falls" } else { "shows no clear trend" })
+}
 
 pub fn describe(spec: &Spec, plan: &Plan) -> String {
     let s = &plan.scales;
+    let loc = s.locale;
     let mut parts = Vec::new();
-    let kinds: Vec<&str> = plan.layers.iter().map(|l| l.geometry.word()).collect();
-    parts.push(format!(
-        "{} chart{}",
-        kinds.join(" and "),
-        if s.x_title.is_empty() || s.y_title.is_empty() { String::new() } else { format!(" of {} against {}", s.y_title, s.x_title) }
-    ));
+    let mut kinds: Vec<&str> = plan.layers.iter().map(|l| l.geometry.word()).collect();
+    kinds.dedup();
+    let mut head = format!("{} chart", kinds.join(" and "));
+    if !s.x_title.is_empty() && !s.y_title.is_empty() {
+        head.push_str(&format!(" of {} against {}", s.y_title, s.x_title));
+    }
+    if let Some(ColorScale::Categories(c)) = &s.color {
+        let names: Vec<&str> = c.iter().take(6).map(String::as_str).collect();
+        let more = if c.len() > 6 { format!(" and {} more", c.len() - 6) } else { String::new() };
+        let by = if s.color_title.is_empty() { String::new() } else { format!(" by {}", s.color_title) };
+        head.push_str(&format!(", in {} groups{by} ({}{more})", c.len(), names.join(", ")));
+    }
+    parts.push(head);
     for l in &plan.layers {
-        if let Some(Values::Num(ys)) = l.data.get("y") {
-            let mut best: Option<(f64, usize)> = None;
-            let mut worst: Option<(f64, usize)> = None;
-            for (i, y) in ys.iter().enumerate() {
-                if let Some(y) = y {
-                    if best.is_none_or(|b| *y > b.0) {
-                        best = Some((*y, i));
-                    }
-                    if worst.is_none_or(|w| *y < w.0) {
-                        worst = Some((*y, i));
-                    }
+        let (Some(Values::Num(ys)), xv) = (l.data.get("y"), l.data.get("x")) else { continue };
+        let mut best: Option<(f64, usize)> = None;
+        let mut worst: Option<(f64, usize)> = None;
+        for (i, y) in ys.iter().enumerate() {
+            if let Some(y) = y {
+                if best.is_none_or(|b| *y > b.0) {
+                    best = Some((*y, i));
+                }
+                if worst.is_none_or(|w| *y < w.0) {
+                    worst = Some((*y, i));
                 }
             }
-            if let (Some((hi, ih)), Some((lo, il))) = (best, worst) {
-                let at = |i: usize| l.data.get("x").map(|x| format!(" at {}", json_text(&x.json(i)))).unwrap_or_default();
-                parts.push(format!(
-                    "{} ranges from {}{} to {}{}",
-                    l.data.names.get("y").cloned().unwrap_or_else(|| "y".into()),
-                    crate::format::value_label(lo),
-                    at(il),
-                    crate::format::value_label(hi),
-                    at(ih)
-                ));
+        }
+        let Some(((hi, ih), (lo, il))) = best.zip(worst) else { continue };
+        let at = |i: usize| xv.map(|x| format!(" at {}", value_text(x, i, loc))).unwrap_or_default();
+        let name = l.data.names.get("y").cloned().unwrap_or_else(|| "y".into());
+        parts.push(format!("{name} ranges from {}{} to {}{}", format::value_label_in(lo, loc), at(il), format::value_label_in(hi, loc), at(ih)));
+        if let Some(x @ (Values::Num(_) | Values::Time(_))) = xv {
+            let pts: Vec<(f64, f64)> = (0..l.data.len).filter_map(|i| Some((x.num(i)?, ys[i]?))).collect();
+            if let Some(w) = trend_word(&pts) {
+                let (first, last) = pts.iter().fold((f64::INFINITY, f64::NEG_INFINITY), |a, p| (a.0.min(p.0), a.1.max(p.0)));
+                let span = match x {
+                    Values::Time(_) => format!("{} to {}", format::date(first, "yyyy-MM-dd", loc), format::date(last, "yyyy-MM-dd", loc)),
+                    _ => format!("{} to {}", format::value_label_in(first, loc), format::value_label_in(last, loc)),
+                };
+                let xname = l.data.names.get("x").cloned().unwrap_or_else(|| "x".into());
+                parts.push(format!("over {xname} from {span} it {w}"));
             }
         }
     }
@@ -51,10 +98,19 @@ pub fn describe(spec: &Spec, plan: &Plan) -> String {
     }
 }
 
-fn json_text(v: &serde_json::Value) -> String {
-    match v {
-        serde_json::Value::String(s) => s.clone(),
-        serde_json::Value::Number(n) => n.as_f64().map(crate::format::value_label).unwrap_or_default(),
-        other => other.to_string(),
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn trends() {
+        let up: Vec<(f64, f64)> = (0..10).map(|i| (i as f64, 2.0 * i as f64 + if i % 2 == 0 { 1.0 } else { -1.0 })).collect();
+        assert_eq!(trend_word(&up), Some("rises"));
+        let down: Vec<(f64, f64)> = up.iter().map(|p| (p.0, -p.1)).collect();
+        assert_eq!(trend_word(&down), Some("falls"));
+        // A symmetric hump has no linear trend.
+        let hump: Vec<(f64, f64)> = (0..11).map(|i| (i as f64, -((i as f64 - 5.0).powi(2)))).collect();
+        assert_eq!(trend_word(&hump), Some("shows no clear trend"));
+        assert_eq!(trend_word(&up[..2]), None);
     }
 }

@@ -1,9 +1,12 @@
-//! Train scales over every layer: domains, kinds and titles.
+//! Train scales over every layer (and so over every panel, which only
+//! splits the same rows): domains, kinds, titles, palettes, sizes, shapes.
 
 use super::{PlannedLayer, Values};
+use crate::color::{self, Scheme};
 use crate::error::{Diagnostic, Errors};
-use crate::scale::{ticks, PositionScale};
-use crate::spec::{ScaleKind, ScaleSpec, Spec};
+use crate::format::{self, Locale};
+use crate::scale::{PositionScale, SizeScale, Transform};
+use crate::spec::{Geometry, ScaleKind, ScaleSpec, Spec};
 
 #[derive(Debug, Clone, PartialEq)]
 pub enum ColorScale {
@@ -21,22 +24,183 @@ pub struct Scales {
     pub y_title: String,
     pub x_spec: ScaleSpec,
     pub y_spec: ScaleSpec,
+    /// Whether the layout should widen x and y to nice ends once it knows
+    /// how many ticks fit ([`PositionScale::nice`]).
+    pub x_nice: bool,
+    pub y_nice: bool,
     pub color: Option<ColorScale>,
     pub color_title: String,
+    pub color_spec: ScaleSpec,
+    /// The palette the colour channel uses (named by `scales.color.palette`).
+    pub color_scheme: Scheme,
+    /// Where a diverging ramp turns (data units).
+    pub color_mid: Option<f64>,
+    pub size: Option<SizeScale>,
+    pub size_title: String,
+    pub size_spec: ScaleSpec,
+    /// Shape categories, in order of first appearance.
+    pub shape: Option<Vec<String>>,
+    pub shape_title: String,
+    pub shape_spec: ScaleSpec,
+    /// Locale of every label (`locale` in the spec).
+    pub locale: &'static Locale,
+}
+
+impl Scales {
+    /// The colour of row `i` of a colour column, if the scale maps it.
+    pub fn color_of(&self, vals: &Values, i: usize) -> Option<String> {
+        match (self.color.as_ref()?, self.color_scheme) {
+            (ColorScale::Categories(cats), scheme) => {
+                let k = vals.key(i)?;
+                let idx = cats.iter().position(|c| *c == k)?;
+                Some(match scheme {
+                    Scheme::Categorical(_, list) => list[idx % list.len()].to_string(),
+                    // A ramp for categories: evenly spaced samples.
+                    Scheme::Ramp(r) => r.at(if cats.len() > 1 { idx as f64 / (cats.len() - 1) as f64 } else { 0.5 }),
+                })
+            }
+            (ColorScale::Ramp { lo, hi }, scheme) => {
+                let v = vals.num(i)?;
+                Some(self.ramp_color(v, *lo, *hi, scheme))
+            }
+        }
+    }
+
+    /// Colour of a number on the continuous colour scale.
+    pub fn ramp_color(&self, v: f64, lo: f64, hi: f64, scheme: Scheme) -> String {
+        let ramp = match scheme {
+            Scheme::Ramp(r) => r,
+            Scheme::Categorical(..) => color::LAGOON,
+        };
+        let t = match (ramp.diverging, self.color_mid) {
+            (true, Some(m)) if hi > m && m > lo => {
+                if v <= m { 0.5 * (v - lo) / (m - lo) } else { 0.5 + 0.5 * (v - m) / (hi - m) }
+            }
+            _ => if hi > lo { (v - lo) / (hi - lo) } else { 0.5 },
+        };
+        ramp.at(t)
+    }
+
+    /// Circle radius of row `i` of a size column.
+    pub fn radius_of(&self, vals: &Values, i: usize) -> Option<f64> {
+        self.size.as_ref()?.radius(vals.num(i)?)
+    }
+
+    /// Shape index (into [`crate::scale::SHAPES`]) of row `i` of a shape column.
+    pub fn shape_of(&self, vals: &Values, i: usize) -> Option<usize> {
+        let k = vals.key(i)?;
+        self.shape.as_ref()?.iter().position(|c| *c == k)
+    }
+}
+
+fn domain_error(axis: &str) -> Errors {
+    Diagnostic::error("spec.bad_domain", "a continuous domain needs two numbers (or two dates), such as [0, 100]")
+        .at_path(format!("scales.{axis}.domain"))
+        .into()
 }
 
 pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
-    let x_spec = spec.scales.get("x").cloned().unwrap_or_default();
-    let y_spec = spec.scales.get("y").cloned().unwrap_or_default();
-    let x = train_position(&["x", "x_end"], "x", &x_spec, layers)?;
-    let y = train_position(&["y", "y_end", "y_base"], "y", &y_spec, layers)?;
+    let get = |k: &str| spec.scales.get(k).cloned().unwrap_or_default();
+    let (x_spec, y_spec, color_spec, size_spec, shape_spec) = (get("x"), get("y"), get("color"), get("size"), get("shape"));
+    let (x, x_nice) = train_position(&["x", "x_end"], "x", &x_spec, layers)?;
+    let (y, y_nice) = train_position(&["y", "y_end", "y_base"], "y", &y_spec, layers)?;
     let title = |ch: &str, s: &ScaleSpec| {
         s.title.clone().unwrap_or_else(|| layers.iter().find_map(|l| l.data.names.get(ch).cloned()).unwrap_or_default())
     };
+    let locale = format::locale(spec.locale.as_deref().unwrap_or("en"));
+
+    // Colour.
+    let (cats, num) = collect(layers, "color");
+    let color = if color_spec.kind == Some(ScaleKind::Category) || !cats.is_empty() {
+        let cats = match &color_spec.domain {
+            Some(d) => d.iter().map(json_word).collect(),
+            None if !cats.is_empty() => cats,
+            None => num_as_text(layers, "color"),
+        };
+        (!cats.is_empty()).then_some(ColorScale::Categories(cats))
+    } else if let Some((lo, hi)) = num {
+        let (lo, hi) = explicit_domain(&color_spec, "color")?.unwrap_or((lo, hi));
+        Some(ColorScale::Ramp { lo, hi })
+    } else {
+        None
+    };
+    let color_scheme = match &color_spec.palette {
+        Some(name) => Scheme::by_name(name).ok_or_else(|| {
+            Errors::from(
+                Diagnostic::error("spec.unknown_palette", format!("there is no palette called `{name}`"))
+                    .at_path("scales.color.palette")
+                    .with_hint(format!("the palettes are: {}", Scheme::names().join(", "))),
+            )
+        })?,
+        None => match color {
+            Some(ColorScale::Ramp { lo, hi }) if lo < 0.0 && hi > 0.0 => Scheme::Ramp(color::CROSSING),
+            Some(ColorScale::Ramp { .. }) => Scheme::Ramp(color::LAGOON),
+            _ => Scheme::Categorical("harbour", &color::HARBOUR),
+        },
+    };
+    let color_mid = match color {
+        Some(ColorScale::Ramp { lo, hi }) if lo < 0.0 && hi > 0.0 => Some(0.0),
+        Some(ColorScale::Ramp { lo, hi }) => Some((lo + hi) / 2.0),
+        _ => None,
+    };
+
+    // Size: area proportional to value, from zero unless told otherwise.
+    let (_, size_num) = collect(layers, "size");
+    let size = match size_num {
+        Some((lo, hi)) => {
+            let (mut lo, hi) = explicit_domain(&size_spec, "size")?.unwrap_or((lo, hi));
+            if size_spec.zero.unwrap_or(true) && lo > 0.0 {
+                lo = 0.0;
+            }
+            Some(SizeScale { lo, hi, max_radius: 12.0 })
+        }
+        None => None,
+    };
+
+    // Shape: categories (numbers read as text).
+    let (shape_cats, shape_num) = collect(layers, "shape");
+    let shape = if !shape_cats.is_empty() {
+        Some(shape_cats)
+    } else if shape_num.is_some() {
+        Some(num_as_text(layers, "shape"))
+    } else {
+        None
+    };
+
+    Ok(Scales {
+        x_title: title("x", &x_spec),
+        y_title: title("y", &y_spec),
+        color_title: title("color", &color_spec),
+        size_title: title("size", &size_spec),
+        shape_title: title("shape", &shape_spec),
+        x,
+        y,
+        x_nice,
+        y_nice,
+        x_spec,
+        y_spec,
+        color,
+        color_spec,
+        color_scheme,
+        color_mid,
+        size,
+        size_spec,
+        shape,
+        shape_spec,
+        locale,
+    })
+}
+
+fn json_word(v: &serde_json::Value) -> String {
+    v.as_str().map(str::to_string).unwrap_or_else(|| v.to_string())
+}
+
+/// Categories (text) and the numeric range of a channel across layers.
+fn collect(layers: &[PlannedLayer], ch: &str) -> (Vec<String>, Option<(f64, f64)>) {
     let mut cats: Vec<String> = Vec::new();
-    let (mut lo, mut hi, mut numeric) = (f64::INFINITY, f64::NEG_INFINITY, false);
+    let (mut lo, mut hi) = (f64::INFINITY, f64::NEG_INFINITY);
     for l in layers {
-        match l.data.get("color") {
+        match l.data.get(ch) {
             Some(Values::Text(v)) => {
                 for s in v.iter().flatten() {
                     if !cats.contains(s) {
@@ -45,7 +209,6 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
                 }
             }
             Some(Values::Num(v)) | Some(Values::Time(v)) => {
-                numeric = true;
                 for x in v.iter().flatten() {
                     lo = lo.min(*x);
                     hi = hi.max(*x);
@@ -54,27 +217,49 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
             None => {}
         }
     }
-    let color = if !cats.is_empty() {
-        Some(ColorScale::Categories(cats))
-    } else if numeric {
-        Some(ColorScale::Ramp { lo, hi })
-    } else {
-        None
-    };
-    let color_spec = spec.scales.get("color").cloned().unwrap_or_default();
-    Ok(Scales {
-        x_title: title("x", &x_spec),
-        y_title: title("y", &y_spec),
-        color_title: title("color", &color_spec),
-        x,
-        y,
-        x_spec,
-        y_spec,
-        color,
-    })
+    (cats, lo.is_finite().then_some((lo, hi)))
 }
 
-fn train_position(channels: &[&str], axis: &str, s: &ScaleSpec, layers: &[PlannedLayer]) -> Result<PositionScale, Errors> {
+/// Distinct numbers of a channel, sorted, as category words.
+fn num_as_text(layers: &[PlannedLayer], ch: &str) -> Vec<String> {
+    let mut v: Vec<f64> = Vec::new();
+    for l in layers {
+        if let Some(Values::Num(xs) | Values::Time(xs)) = l.data.get(ch) {
+            v.extend(xs.iter().flatten());
+        }
+    }
+    v.sort_by(f64::total_cmp);
+    v.dedup();
+    v.into_iter().map(|x| l_key(x)).collect()
+}
+
+fn l_key(x: f64) -> String {
+    // Same text as Values::key, so lookups match.
+    format!("{x}")
+}
+
+/// A two-value domain from the spec: numbers, or ISO dates for time scales.
+fn explicit_domain(s: &ScaleSpec, axis: &str) -> Result<Option<(f64, f64)>, Errors> {
+    let Some(dom) = &s.domain else { return Ok(None) };
+    let nums: Vec<f64> = dom
+        .iter()
+        .filter_map(|v| {
+            v.as_f64().or_else(|| {
+                let t = v.as_str()?;
+                crate::data::time::parse_date(t)
+                    .map(|d| d as f64 * 86_400_000.0)
+                    .or_else(|| crate::data::time::parse_datetime(t).map(|ms| ms as f64))
+            })
+        })
+        .collect();
+    if nums.len() != 2 || dom.len() != 2 {
+        return Err(domain_error(axis));
+    }
+    Ok(Some((nums[0], nums[1])))
+}
+
+/// A trained position scale and whether its domain is still to be made nice.
+fn train_position(channels: &[&str], axis: &str, s: &ScaleSpec, layers: &[PlannedLayer]) -> Result<(PositionScale, bool), Errors> {
     let mut cats: Vec<String> = Vec::new();
     let (mut lo, mut hi) = (f64::INFINITY, f64::NEG_INFINITY);
     let (mut any_num, mut any_text, mut time) = (false, false, false);
@@ -93,7 +278,7 @@ fn train_position(channels: &[&str], axis: &str, s: &ScaleSpec, layers: &[Planne
                 Some(vals @ (Values::Num(_) | Values::Time(_))) => {
                     any_num = true;
                     time |= matches!(vals, Values::Time(_));
-                    if *ch == "y_base" {
+                    if *ch == "y_base" || (*ch == "y" && matches!(l.geometry, Geometry::Bar | Geometry::Area)) {
                         extent = true;
                     }
                     if let Values::Num(v) | Values::Time(v) = vals {
@@ -110,41 +295,107 @@ fn train_position(channels: &[&str], axis: &str, s: &ScaleSpec, layers: &[Planne
     let want_category = s.kind == Some(ScaleKind::Category) || (s.kind.is_none() && any_text);
     if want_category {
         if let Some(dom) = &s.domain {
-            cats = dom.iter().map(|v| v.as_str().map(str::to_string).unwrap_or_else(|| v.to_string())).collect();
+            cats = dom.iter().map(json_word).collect();
+        } else if !any_text && any_num {
+            // Numbers asked to be categories: sorted distinct values.
+            cats = num_as_text_position(layers, channels);
         }
-        return Ok(PositionScale::Category { values: cats, padding: 0.1 });
+        if s.reverse {
+            cats.reverse();
+        }
+        return Ok((PositionScale::Category { values: cats, padding: 0.1 }, false));
     }
     if any_text && any_num {
         return Err(Diagnostic::error("spec.mixed_axis", format!("the {axis} axis mixes text and numbers across layers"))
             .at_path(format!("scales.{axis}"))
             .into());
     }
-    if let Some(dom) = &s.domain {
-        let nums: Vec<f64> = dom.iter().filter_map(|v| v.as_f64()).collect();
-        if nums.len() != 2 {
-            return Err(Diagnostic::error("spec.bad_domain", "a continuous domain needs two numbers, such as [0, 100]")
-                .at_path(format!("scales.{axis}.domain"))
-                .into());
+    if any_text {
+        return Err(Diagnostic::error("spec.text_on_continuous", format!("the {axis} axis has text values but its kind is continuous"))
+            .at_path(format!("scales.{axis}.kind"))
+            .with_hint("use `\"kind\": \"category\"` or a numeric column")
+            .into());
+    }
+    time |= s.kind == Some(ScaleKind::Time);
+    let transform = match s.kind {
+        Some(ScaleKind::Log) => {
+            let base = s.base.unwrap_or(10.0);
+            if !(base > 0.0 && base != 1.0 && base.is_finite()) {
+                return Err(Diagnostic::error("spec.bad_base", "a log scale's base must be a positive number other than 1")
+                    .at_path(format!("scales.{axis}.base"))
+                    .into());
+            }
+            Transform::Log { base }
         }
-        return Ok(PositionScale::Linear { lo: nums[0], hi: nums[1], time });
+        Some(ScaleKind::Sqrt) => Transform::Sqrt,
+        Some(ScaleKind::Symlog) => Transform::Symlog { constant: 1.0 },
+        _ => Transform::Linear,
+    };
+    if let Some((a, b)) = explicit_domain(s, axis)? {
+        let (a, b) = if s.reverse { (b, a) } else { (a, b) };
+        return Ok((PositionScale::Continuous { lo: a, hi: b, transform, time, step: None }, false));
     }
     if !lo.is_finite() {
-        lo = 0.0;
-        hi = 1.0;
+        lo = if matches!(transform, Transform::Log { .. }) { 1.0 } else { 0.0 };
+        hi = if matches!(transform, Transform::Log { .. }) { 10.0 } else { 1.0 };
     }
-    if s.zero.unwrap_or(extent) {
+    let is_log = matches!(transform, Transform::Log { .. });
+    if is_log {
+        if hi <= 0.0 {
+            return Err(Diagnostic::error("spec.log_nonpositive", format!("the {axis} axis is logarithmic but no value is above zero"))
+                .at_path(format!("scales.{axis}.kind"))
+                .into());
+        }
+        if lo <= 0.0 {
+            // Values at or below zero have no place on a log axis; train on the rest.
+            lo = positive_min(layers, channels).unwrap_or(hi / 10.0);
+        }
+    }
+    // Bars and areas start at zero unless told otherwise; log scales never do.
+    if s.zero.unwrap_or(extent && !time) && !is_log {
         lo = lo.min(0.0);
         hi = hi.max(0.0);
     }
-    if s.nice.unwrap_or(!time) && hi > lo {
-        let t = ticks::nice_ticks(lo, hi, s.ticks.unwrap_or(6) as usize);
-        if let (Some(a), Some(b)) = (t.first(), t.last()) {
-            lo = *a;
-            hi = *b;
-        }
+    if hi == lo {
+        // One value: a unit-wide window around it.
+        let pad = if lo == 0.0 { 1.0 } else { lo.abs() * 0.1 };
+        lo -= pad;
+        hi += pad;
     }
+    // Nice ends wait for the layout, which knows how many ticks fit.
+    let nice = s.nice.unwrap_or(true);
     if s.reverse {
         std::mem::swap(&mut lo, &mut hi);
     }
-    Ok(PositionScale::Linear { lo, hi, time })
+    Ok((PositionScale::Continuous { lo, hi, transform, time, step: None }, nice))
+}
+
+fn positive_min(layers: &[PlannedLayer], channels: &[&str]) -> Option<f64> {
+    let mut m = f64::INFINITY;
+    for l in layers {
+        for ch in channels {
+            if let Some(Values::Num(v)) = l.data.get(ch) {
+                for x in v.iter().flatten() {
+                    if *x > 0.0 {
+                        m = m.min(*x);
+                    }
+                }
+            }
+        }
+    }
+    m.is_finite().then_some(m)
+}
+
+fn num_as_text_position(layers: &[PlannedLayer], channels: &[&str]) -> Vec<String> {
+    let mut v: Vec<f64> = Vec::new();
+    for l in layers {
+        for ch in channels {
+            if let Some(Values::Num(xs) | Values::Time(xs)) = l.data.get(ch) {
+                v.extend(xs.iter().flatten());
+            }
+        }
+    }
+    v.sort_by(f64::total_cmp);
+    v.dedup();
+    v.into_iter().map(l_key).collect()
 }

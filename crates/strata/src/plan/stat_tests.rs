@@ -74,7 +74,7 @@ fn density_area_matches_exact_kde_and_integrates_to_one() {
     let r = run(spec, FAITHFUL);
     let m = marks_of(&r);
     assert_eq!(m.len(), 1);
-    let table = crate::data::read(FAITHFUL, &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default() }).unwrap();
+    let table = crate::data::read(FAITHFUL, &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() }).unwrap();
     let spec = crate::spec::parse_spec(spec).unwrap();
     let plan = crate::plan::build(&spec, &table).unwrap();
     let d = &plan.layers[0].data;
@@ -142,7 +142,7 @@ fn quantile_summary_takes_p() {
 fn stack_puts_negatives_below_zero_on_their_own() {
     let csv = b"x,s,v\na,s1,3\na,s2,-2\na,s3,4\na,s4,-1\nb,s1,1\nb,s2,1\n";
     let spec = crate::spec::parse_spec(r#"{"layers":[{"draw":"bar","x":"x","y":"v","color":"s","arrange":"stack"}]}"#).unwrap();
-    let table = crate::data::read(csv, &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default() }).unwrap();
+    let table = crate::data::read(csv, &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() }).unwrap();
     let plan = crate::plan::build(&spec, &table).unwrap();
     let d = &plan.layers[0].data;
     let col = |c: &str| (0..d.len).map(|i| d.get(c).unwrap().num(i).unwrap()).collect::<Vec<_>>();
@@ -177,7 +177,7 @@ fn jitter_is_identical_every_run_and_bounded() {
     assert!(xs[0] != xs[1] && xs[1] != xs[2], "points moved apart");
     // Jitter in y is at most 40 % of the resolution (1).
     let spec_p = crate::spec::parse_spec(spec).unwrap();
-    let table = crate::data::read(csv, &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default() }).unwrap();
+    let table = crate::data::read(csv, &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() }).unwrap();
     let plan = crate::plan::build(&spec_p, &table).unwrap();
     let d = &plan.layers[0].data;
     let orig = [1.0, 1.0, 1.0, 2.0, 2.0, 3.0];
@@ -237,7 +237,7 @@ fn linear_fit_draws_band_under_line_on_anscombe_set_one() {
     let paths: Vec<&Node> = marks_of(&r).into_iter().filter(|n| matches!(n, Node::Path { .. })).collect();
     assert_eq!(paths.len(), 2, "band then line");
     assert!(matches!(paths[0], Node::Path { paint, .. } if paint.fill.as_deref() != Some("none")));
-    let table = crate::data::read(csv.as_bytes(), &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default() }).unwrap();
+    let table = crate::data::read(csv.as_bytes(), &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() }).unwrap();
     let plan = crate::plan::build(&crate::spec::parse_spec(spec).unwrap(), &table).unwrap();
     let d = &plan.layers[1].data;
     for i in 0..d.len {
@@ -256,7 +256,7 @@ fn loess_options_reach_the_fit() {
         csv.push_str(&format!("{x},{}\n", x * x));
     }
     let spec = r#"{"layers":[{"draw":"line","x":"x","y":"y","stat":{"fit":"loess","span":0.3,"degree":2,"robust":true}}]}"#;
-    let table = crate::data::read(csv.as_bytes(), &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default() }).unwrap();
+    let table = crate::data::read(csv.as_bytes(), &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() }).unwrap();
     let plan = crate::plan::build(&crate::spec::parse_spec(spec).unwrap(), &table).unwrap();
     let d = &plan.layers[0].data;
     // Local quadratics reproduce a parabola (Cleveland & Devlin 1988).
@@ -264,7 +264,8 @@ fn loess_options_reach_the_fit() {
         let x = d.get("x").unwrap().num(i).unwrap();
         assert!((d.get("y").unwrap().num(i).unwrap() - x * x).abs() < 1e-8);
     }
-    let bad = crate::plan::build(&crate::spec::parse_spec(r#"{"layers":[{"draw":"line","x":"x","y":"y","stat":{"fit":"loess","degree":3}}]}"#).unwrap(), &table).unwrap_err();
+    // Out-of-range options are caught by the spec's shape check, at their path.
+    let bad = crate::spec::parse_spec(r#"{"layers":[{"draw":"line","x":"x","y":"y","stat":{"fit":"loess","degree":3}}]}"#).unwrap_err();
     assert_eq!(bad.0[0].at.path, "layers[0].stat.degree");
 }
 
@@ -272,7 +273,7 @@ fn loess_options_reach_the_fit() {
 fn rolling_window_per_group_in_x_order() {
     let csv = b"t,g,v\n3,a,30\n1,a,10\n2,a,20\n1,b,1\n2,b,3\n";
     let spec = r#"{"layers":[{"draw":"line","x":"t","y":"v","color":"g","stat":{"window":{"rows":2,"align":"trailing"}}}]}"#;
-    let table = crate::data::read(csv, &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default() }).unwrap();
+    let table = crate::data::read(csv, &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() }).unwrap();
     let plan = crate::plan::build(&crate::spec::parse_spec(spec).unwrap(), &table).unwrap();
     let d = &plan.layers[0].data;
     let y: Vec<f64> = (0..d.len).map(|i| d.get("y").unwrap().num(i).unwrap()).collect();
@@ -363,7 +364,7 @@ fn unknown_options_name_their_path() {
     let csv = b"x,y\n1,2\n2,3\n";
     let e = render(r#"{"layers":[{"draw":"bar","x":"x","stat":{"bin":{"rule":"fancy"}}}]}"#, Some(DataBytes { bytes: csv, name: "d.csv" }), &RenderOptions::default()).unwrap_err();
     assert_eq!(e.0[0].at.path, "layers[0].stat.bin.rule");
-    assert!(e.0[0].hint.as_deref().unwrap().contains("sturges"));
+    assert!(format!("{} {}", e.0[0].message, e.0[0].hint.as_deref().unwrap_or("")).contains("sturges"));
     let e = render(r#"{"layers":[{"draw":"point","x":"x","y":"y","stat":{"summary":"mean","interval":"ci"}}]}"#, Some(DataBytes { bytes: csv, name: "d.csv" }), &RenderOptions::default()).unwrap_err();
     assert_eq!(e.0[0].at.path, "layers[0].stat.interval");
 }

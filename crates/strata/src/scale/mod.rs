@@ -1,19 +1,66 @@
-//! Scales: map data values to the unit interval [0, 1] (position) or to
-//! colours, and choose ticks.
+//! Scales: map data values to the unit interval [0, 1] (position), to
+//! colours, sizes and shapes, and choose ticks and their labels.
 //!
-//! Used by the plan stage (training) and the scene stage (mapping).
+//! Used by the plan stage (training, `plan/scales.rs`) and the scene stage
+//! (mapping and guides).
 
 pub mod ticks;
 
-use crate::format;
+use crate::format::{self, Locale};
+use crate::math;
 use crate::plan::Values;
+use ticks::TimeUnit;
+
+/// How a continuous scale bends the data before mapping it linearly.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum Transform {
+    Linear,
+    /// Logarithm in `base`; values <= 0 have no position.
+    Log { base: f64 },
+    /// Square root of the magnitude, keeping the sign.
+    Sqrt,
+    /// sign(x) log(1 + |x| / c): linear near zero, logarithmic far out
+    /// (Webber, "A bi-symmetric log transformation for wide-range data",
+    /// Meas. Sci. Technol. 24, 2013).
+    Symlog { constant: f64 },
+}
+
+impl Transform {
+    pub fn apply(&self, x: f64) -> Option<f64> {
+        match *self {
+            Transform::Linear => Some(x),
+            Transform::Log { base } => (x > 0.0).then(|| math::ln(x) / math::ln(base)),
+            Transform::Sqrt => Some(x.signum() * x.abs().sqrt()),
+            Transform::Symlog { constant } => Some(x.signum() * math::ln(1.0 + x.abs() / constant)),
+        }
+    }
+    pub fn invert(&self, t: f64) -> f64 {
+        match *self {
+            Transform::Linear => t,
+            Transform::Log { base } => math::pow(base, t),
+            Transform::Sqrt => t.signum() * t * t,
+            Transform::Symlog { constant } => t.signum() * (math::exp(t.abs()) - 1.0) * constant,
+        }
+    }
+    pub fn word(&self) -> &'static str {
+        match self {
+            Transform::Linear => "linear",
+            Transform::Log { .. } => "log",
+            Transform::Sqrt => "sqrt",
+            Transform::Symlog { .. } => "symlog",
+        }
+    }
+}
 
 /// A trained position scale.
 #[derive(Debug, Clone, PartialEq)]
 pub enum PositionScale {
-    /// Numbers (or times in ms) mapped linearly from `lo..hi`.
-    Linear { lo: f64, hi: f64, time: bool },
-    /// Discrete values, each a band of equal width.
+    /// Numbers (or times in ms when `time`) from `lo` to `hi` (`lo > hi`
+    /// when reversed), bent by `transform`; `step` is the tick step fixed
+    /// by [`PositionScale::nice`], so the axis labels the domain's ends.
+    Continuous { lo: f64, hi: f64, transform: Transform, time: bool, step: Option<f64> },
+    /// Discrete values, each a band of equal width; `padding` is the share
+    /// of a band left empty around a bar (bands) — points sit at band centres.
     Category { values: Vec<String>, padding: f64 },
 }
 
@@ -25,15 +72,32 @@ pub struct Tick {
     pub label: String,
 }
 
+/// What the layout asks of a scale's ticks.
+#[derive(Debug, Clone, Copy)]
+pub struct TickOptions<'a> {
+    /// Rough count that fits.
+    pub wanted: usize,
+    /// The spec's LDML pattern, if any.
+    pub pattern: Option<&'a str>,
+    pub locale: &'a Locale,
+    /// Shorter labels: compact numbers, shorter dates, truncated categories.
+    pub short: bool,
+}
+
 impl PositionScale {
+    pub fn linear(lo: f64, hi: f64) -> Self {
+        PositionScale::Continuous { lo, hi, transform: Transform::Linear, time: false, step: None }
+    }
+
     /// Unit position of a number (continuous scales).
     pub fn unit_num(&self, v: f64) -> Option<f64> {
         match self {
-            PositionScale::Linear { lo, hi, .. } => {
-                if hi == lo {
+            PositionScale::Continuous { lo, hi, transform, .. } => {
+                let (a, b, x) = (transform.apply(*lo)?, transform.apply(*hi)?, transform.apply(v)?);
+                if a == b {
                     Some(0.5)
                 } else {
-                    Some((v - lo) / (hi - lo))
+                    Some((x - a) / (b - a))
                 }
             }
             PositionScale::Category { .. } => None,
@@ -47,15 +111,17 @@ impl PositionScale {
                 let i = values.iter().position(|c| c == v)?;
                 Some((i as f64 + 0.5) / values.len() as f64)
             }
-            PositionScale::Linear { .. } => None,
+            PositionScale::Continuous { .. } => None,
         }
     }
 
     /// Unit position of row `i` of a column.
     pub fn unit(&self, values: &Values, i: usize) -> Option<f64> {
-        match values {
-            Values::Num(v) | Values::Time(v) => v[i].and_then(|x| self.unit_num(x)),
-            Values::Text(v) => v[i].as_deref().and_then(|s| self.unit_cat(s)),
+        match (self, values) {
+            // Numbers on a category scale are found by their text (as `Values::key` writes it).
+            (PositionScale::Category { .. }, Values::Num(v) | Values::Time(v)) => v[i].and_then(|x| self.unit_cat(&format!("{x}"))),
+            (_, Values::Num(v) | Values::Time(v)) => v[i].and_then(|x| self.unit_num(x)),
+            (_, Values::Text(v)) => v[i].as_deref().and_then(|s| self.unit_cat(s)),
         }
     }
 
@@ -63,7 +129,7 @@ impl PositionScale {
     pub fn band(&self) -> f64 {
         match self {
             PositionScale::Category { values, .. } => 1.0 / values.len().max(1) as f64,
-            PositionScale::Linear { .. } => 0.0,
+            PositionScale::Continuous { .. } => 0.0,
         }
     }
 
@@ -71,27 +137,440 @@ impl PositionScale {
         matches!(self, PositionScale::Category { .. })
     }
 
-    /// Ticks with labels; `wanted` is the rough count the layout can fit.
-    pub fn ticks(&self, wanted: usize, pattern: Option<&str>) -> Vec<Tick> {
+    pub fn is_time(&self) -> bool {
+        matches!(self, PositionScale::Continuous { time: true, .. })
+    }
+
+    /// The domain in data units, low end first as given.
+    pub fn domain(&self) -> Option<(f64, f64)> {
         match self {
-            PositionScale::Linear { lo, hi, time } => {
-                let step_ticks = ticks::nice_ticks(*lo, *hi, wanted);
-                let step = if step_ticks.len() > 1 { step_ticks[1] - step_ticks[0] } else { 1.0 };
-                step_ticks
-                    .into_iter()
-                    .filter(|t| *t >= lo - 1e-9 * (hi - lo).abs() && *t <= hi + 1e-9 * (hi - lo).abs())
-                    .map(|t| Tick {
-                        unit: self.unit_num(t).unwrap_or(0.0),
-                        value: t,
-                        label: if *time { format::date_label(t) } else { format::number_label(t, step, pattern) },
-                    })
+            PositionScale::Continuous { lo, hi, .. } => Some((*lo, *hi)),
+            PositionScale::Category { .. } => None,
+        }
+    }
+
+    /// The domain widened to the ends of the labelling the axis will show
+    /// with about `wanted` ticks: out to multiples of the Talbot-Lin-Hanrahan
+    /// step for linear, sqrt and symlog scales; powers of the base for log scales;
+    /// calendar boundaries for time. Reversed domains stay reversed.
+    pub fn nice(&self, wanted: usize) -> PositionScale {
+        let PositionScale::Continuous { lo, hi, transform, time, .. } = self else { return self.clone() };
+        let rev = lo > hi;
+        let (a, b) = if rev { (*hi, *lo) } else { (*lo, *hi) };
+        if !(b > a) {
+            return self.clone();
+        }
+        let mut fixed = None;
+        let (na, nb) = if *time {
+            ticks::time_nice(a, b, wanted)
+        } else {
+            match transform {
+                Transform::Log { base } => {
+                    if a <= 0.0 {
+                        return self.clone();
+                    }
+                    let lb = math::ln(*base);
+                    (math::pow(*base, (math::ln(a) / lb + 1e-9).floor()), math::pow(*base, (math::ln(b) / lb - 1e-9).ceil()))
+                }
+                _ => {
+                    // Out to the next multiples of the step the axis will use.
+                    let t = ticks::extended(a, b, wanted, false);
+                    if t.len() < 2 {
+                        return self.clone();
+                    }
+                    let step = t[1] - t[0];
+                    fixed = Some(step);
+                    (ticks::clean((a / step + 1e-9).floor() * step, step), ticks::clean((b / step - 1e-9).ceil() * step, step))
+                }
+            }
+        };
+        let (lo, hi) = if rev { (nb, na) } else { (na, nb) };
+        PositionScale::Continuous { lo, hi, transform: *transform, time: *time, step: fixed }
+    }
+
+    /// Ticks with English labels; `wanted` is the rough count the layout can fit.
+    pub fn ticks(&self, wanted: usize, pattern: Option<&str>) -> Vec<Tick> {
+        self.ticks_with(&TickOptions { wanted, pattern, locale: format::english(), short: false })
+    }
+
+    /// Tick values (no labels) and the step they were chosen with.
+    fn tick_values(&self, wanted: usize) -> (Vec<f64>, TickStep) {
+        let PositionScale::Continuous { lo, hi, transform, time, step: fixed } = self else { return (vec![], TickStep::None) };
+        let (a, b) = if lo <= hi { (*lo, *hi) } else { (*hi, *lo) };
+        if *time {
+            let (t, unit, n) = ticks::time_ticks(a, b, wanted);
+            return (t, TickStep::Time(unit, n));
+        }
+        let inside = |v: &f64| *v >= a - 1e-9 * (b - a).abs() && *v <= b + 1e-9 * (b - a).abs();
+        match transform {
+            Transform::Log { base } => (ticks::log_ticks(a, b, *base, wanted), TickStep::Varied),
+            Transform::Symlog { constant } if b - a > 0.0 => {
+                let span = transform.apply(b).unwrap_or(0.0) - transform.apply(a).unwrap_or(0.0);
+                if span < 3.0 {
+                    let t: Vec<f64> = ticks::extended(a, b, wanted, false).into_iter().filter(inside).collect();
+                    let step = if t.len() > 1 { t[1] - t[0] } else { 1.0 };
+                    return (t, TickStep::Even(step));
+                }
+                // Zero and signed powers of ten beyond the linear zone.
+                let mut t = Vec::new();
+                for e in -15..=15 {
+                    let p = math::powi(10.0, e);
+                    if p < *constant {
+                        continue;
+                    }
+                    for v in [-p, p] {
+                        if inside(&v) {
+                            t.push(v);
+                        }
+                    }
+                }
+                if inside(&0.0) {
+                    t.push(0.0);
+                }
+                t.sort_by(f64::total_cmp);
+                let k = t.len().div_ceil(wanted.max(2)).max(1);
+                (t.into_iter().enumerate().filter(|(i, _)| i % k == 0).map(|(_, v)| v).collect(), TickStep::Varied)
+            }
+            _ => {
+                if let Some(s) = fixed.filter(|s| *s > 0.0) {
+                    // The step nice() widened the domain with: its multiples,
+                    // every k-th of them when fewer are wanted.
+                    let n = ((b - a) / s).round() as usize;
+                    let mut k = 1;
+                    while (n / k) + 1 > wanted.max(2) + wanted.max(2) / 2 {
+                        k += 1;
+                    }
+                    let t: Vec<f64> = (0..=n).step_by(k).map(|i| ticks::clean(a + i as f64 * s, s)).collect();
+                    return (t, TickStep::Even(s * k as f64));
+                }
+                let t: Vec<f64> = ticks::extended(a, b, wanted, false).into_iter().filter(inside).collect();
+                let step = if t.len() > 1 { t[1] - t[0] } else { (b - a).abs().max(1.0) };
+                (t, TickStep::Even(step))
+            }
+        }
+    }
+
+    /// Ticks with labels in a locale.
+    pub fn ticks_with(&self, o: &TickOptions) -> Vec<Tick> {
+        match self {
+            PositionScale::Continuous { time, .. } => {
+                let (vals, step) = self.tick_values(o.wanted);
+                let labels = if *time {
+                    let pattern = match (o.pattern, step) {
+                        (Some(p), _) => p.to_string(),
+                        (None, TickStep::Time(u, _)) => default_time_pattern(u, &vals, o.locale, o.short),
+                        _ => "yyyy-MM-dd".to_string(),
+                    };
+                    let mut labels: Vec<String> = vals.iter().map(|v| format::date(*v, &pattern, o.locale)).collect();
+                    // Month ticks: the first label and each January also name the year.
+                    if o.pattern.is_none() && pattern == "MMM" {
+                        for (k, (l, v)) in labels.iter_mut().zip(&vals).enumerate() {
+                            if k == 0 || format::civil(*v).month == 1 {
+                                *l = format::date(*v, "MMM yyyy", o.locale);
+                            }
+                        }
+                    }
+                    labels
+                } else {
+                    number_labels(&vals, step, o)
+                };
+                vals.iter()
+                    .zip(labels)
+                    .map(|(v, label)| Tick { unit: self.unit_num(*v).unwrap_or(0.0), value: *v, label })
                     .collect()
             }
             PositionScale::Category { values, .. } => values
                 .iter()
                 .enumerate()
-                .map(|(i, v)| Tick { unit: (i as f64 + 0.5) / values.len() as f64, value: i as f64, label: v.clone() })
+                .map(|(i, v)| Tick {
+                    unit: (i as f64 + 0.5) / values.len() as f64,
+                    value: i as f64,
+                    label: if o.short { shorten(v, 10) } else { v.clone() },
+                })
                 .collect(),
+        }
+    }
+}
+
+#[derive(Debug, Clone, Copy, PartialEq)]
+enum TickStep {
+    None,
+    Even(f64),
+    Varied,
+    Time(TimeUnit, i64),
+}
+
+fn number_labels(vals: &[f64], step: TickStep, o: &TickOptions) -> Vec<String> {
+    if let Some(p) = o.pattern {
+        return vals.iter().map(|v| format::number(*v, p, o.locale)).collect();
+    }
+    let biggest = vals.iter().fold(0.0f64, |m, v| m.max(v.abs()));
+    if o.short || biggest >= 1e6 {
+        // Compact forms with the fewest decimals that keep labels apart.
+        for fd in 0..=3 {
+            let l: Vec<String> = vals.iter().map(|v| format::compact(*v, fd, o.locale)).collect();
+            let distinct = l.windows(2).all(|w| w[0] != w[1]);
+            if distinct {
+                return l;
+            }
+        }
+    }
+    let pattern = match step {
+        TickStep::Even(s) => format::default_pattern(s),
+        _ => {
+            // Uneven steps (log, symlog): each label as many decimals as it needs.
+            let d = vals.iter().map(|v| format::step_decimals(v.abs())).max().unwrap_or(0);
+            format::default_pattern(math::powi(10.0, -(d as i32)))
+        }
+    };
+    vals.iter().map(|v| format::number(*v, &pattern, o.locale)).collect()
+}
+
+/// Default date pattern for ticks of a calendar unit.
+fn default_time_pattern(unit: TimeUnit, vals: &[f64], loc: &Locale, short: bool) -> String {
+    let years: Vec<i64> = vals.iter().map(|v| format::civil(*v).year).collect();
+    let many_years = years.first() != years.last();
+    let days: Vec<(i64, u32, u32)> = vals.iter().map(|v| {
+        let c = format::civil(*v);
+        (c.year, c.month, c.day)
+    }).collect();
+    let many_days = days.first() != days.last();
+    match unit {
+        TimeUnit::Year => if short { "yy".into() } else { "yyyy".into() },
+        TimeUnit::Month => match (many_years, short) {
+            (true, true) => "MM/yy".into(),
+            _ => "MMM".into(),
+        },
+        TimeUnit::Week | TimeUnit::Day => loc.day_month.to_string(),
+        TimeUnit::Hour | TimeUnit::Minute => {
+            if many_days && !short { format!("{} HH:mm", loc.day_month) } else { "HH:mm".into() }
+        }
+        TimeUnit::Second => "HH:mm:ss".into(),
+    }
+}
+
+/// Cut text to `max` characters with an ellipsis.
+pub fn shorten(s: &str, max: usize) -> String {
+    if s.chars().count() <= max {
+        return s.to_string();
+    }
+    let mut out: String = s.chars().take(max.saturating_sub(1)).collect();
+    out = out.trim_end().to_string();
+    out.push('\u{2026}');
+    out
+}
+
+// ---------------------------------------------------------------- size and shape
+
+/// Size scale: values to circle radii so that *area* is proportional to the
+/// value's distance from the domain's low end (zero by default), the usual
+/// rule for proportional symbols (common practice).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct SizeScale {
+    pub lo: f64,
+    pub hi: f64,
+    pub max_radius: f64,
+}
+
+impl SizeScale {
+    pub fn radius(&self, v: f64) -> Option<f64> {
+        if !v.is_finite() {
+            return None;
+        }
+        let t = if self.hi > self.lo { ((v - self.lo) / (self.hi - self.lo)).clamp(0.0, 1.0) } else { 1.0 };
+        Some(self.max_radius * t.sqrt())
+    }
+    /// Values for a size legend: up to three nice ticks above the low end.
+    pub fn legend_values(&self) -> Vec<f64> {
+        let t = ticks::extended(self.lo, self.hi, 4, false);
+        let mut v: Vec<f64> = t.into_iter().filter(|x| *x > self.lo && *x <= self.hi * (1.0 + 1e-9)).collect();
+        while v.len() > 3 {
+            v.remove(0);
+        }
+        v
+    }
+}
+
+/// The shapes of the shape channel, in the order categories take them.
+pub const SHAPES: [&str; 7] = ["circle", "square", "triangle", "diamond", "plus", "cross", "wye"];
+
+/// SVG path data of shape `i` centred at (cx, cy) with the area of a
+/// circle of radius `r`, so no shape looks bigger than another (common practice).
+pub fn shape_path(i: usize, cx: f64, cy: f64, r: f64) -> String {
+    use crate::svg::num;
+    let area = std::f64::consts::PI * r * r;
+    let pts: Vec<(f64, f64)> = match SHAPES[i % SHAPES.len()] {
+        "circle" => {
+            return format!(
+                "M{},{}A{},{} 0 1,1 {},{}A{},{} 0 1,1 {},{}Z",
+                num(cx - r), num(cy), num(r), num(r), num(cx + r), num(cy), num(r), num(r), num(cx - r), num(cy)
+            );
+        }
+        "square" => {
+            let h = area.sqrt() / 2.0;
+            vec![(-h, -h), (h, -h), (h, h), (-h, h)]
+        }
+        "triangle" => {
+            // Equilateral: area = sqrt(3)/4 s^2.
+            let s = (4.0 * area / 3f64.sqrt()).sqrt();
+            let h = s * 3f64.sqrt() / 2.0;
+            vec![(0.0, -2.0 * h / 3.0), (s / 2.0, h / 3.0), (-s / 2.0, h / 3.0)]
+        }
+        "diamond" => {
+            let h = (area / 2.0).sqrt();
+            vec![(0.0, -h), (h, 0.0), (0.0, h), (-h, 0.0)]
+        }
+        "plus" | "cross" => {
+            // A plus of arm width w and span 3w has area 5 w^2.
+            let w = (area / 5.0).sqrt();
+            let (a, b) = (w / 2.0, 1.5 * w);
+            let p = vec![(-a, -b), (a, -b), (a, -a), (b, -a), (b, a), (a, a), (a, b), (-a, b), (-a, a), (-b, a), (-b, -a), (-a, -a)];
+            if SHAPES[i % SHAPES.len()] == "cross" {
+                let c = std::f64::consts::FRAC_1_SQRT_2;
+                p.into_iter().map(|(x, y)| (c * (x - y), c * (x + y))).collect()
+            } else {
+                p
+            }
+        }
+        _ => {
+            // "wye": a three-pointed star; six triangles of sides s and
+            // 0.45 s at 60 degrees have area 6 x 0.5 x 0.45 s^2 sin 60.
+            let s = (area / (1.35 * 3f64.sqrt() / 2.0)).sqrt();
+            let mut p = Vec::new();
+            for k in 0..6 {
+                let ang = std::f64::consts::PI / 3.0 * k as f64 - std::f64::consts::FRAC_PI_2;
+                let rr = if k % 2 == 0 { s } else { s * 0.45 };
+                p.push((rr * math::cos(ang), rr * math::sin(ang)));
+            }
+            p
+        }
+    };
+    let mut d = String::new();
+    for (k, (x, y)) in pts.iter().enumerate() {
+        d.push(if k == 0 { 'M' } else { 'L' });
+        d.push_str(&num(cx + x));
+        d.push(',');
+        d.push_str(&num(cy + y));
+    }
+    d.push('Z');
+    d
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn transforms_invert() {
+        for t in [Transform::Linear, Transform::Log { base: 2.0 }, Transform::Sqrt, Transform::Symlog { constant: 1.0 }] {
+            for x in [0.5, 3.0, 1000.0] {
+                let y = t.apply(x).unwrap();
+                assert!((t.invert(y) - x).abs() < 1e-9 * x.max(1.0), "{t:?} {x}");
+            }
+        }
+        assert_eq!(Transform::Log { base: 10.0 }.apply(0.0), None);
+        // Symlog is odd and linear near zero: d/dx at 0 is 1/c.
+        let s = Transform::Symlog { constant: 1.0 };
+        assert_eq!(s.apply(-5.0), s.apply(5.0).map(|v| -v));
+        assert!((s.apply(1e-6).unwrap() - 1e-6).abs() < 1e-11);
+    }
+
+    #[test]
+    fn log_scale_positions() {
+        let s = PositionScale::Continuous { lo: 1.0, hi: 1000.0, transform: Transform::Log { base: 10.0 }, time: false, step: None };
+        assert!((s.unit_num(10.0).unwrap() - 1.0 / 3.0).abs() < 1e-12);
+        assert!((s.unit_num(100.0).unwrap() - 2.0 / 3.0).abs() < 1e-12);
+        assert_eq!(s.unit_num(-1.0), None);
+        let labels: Vec<String> = s.ticks(6, None).into_iter().map(|t| t.label).collect();
+        assert_eq!(labels, ["1", "10", "100", "1,000"]);
+    }
+
+    #[test]
+    fn nice_reaches_the_next_tick() {
+        // Data 0..622 with about 4 ticks: the labelling's step is 200, so the
+        // domain runs to 800 and the top tick is the domain's end (the same
+        // search on 0..800 alone would pick steps of 250 and stop at 750).
+        let s = PositionScale::linear(0.0, 622.0).nice(4);
+        assert_eq!(s.domain(), Some((0.0, 800.0)), "{s:?}");
+        let t = s.ticks(4, None);
+        assert_eq!(t.iter().map(|t| t.value).collect::<Vec<_>>(), [0.0, 200.0, 400.0, 600.0, 800.0]);
+        let s = PositionScale::linear(0.0, 622.0).nice(6);
+        assert_eq!(s.domain(), Some((0.0, 700.0)));
+        assert_eq!(s.ticks(6, None).last().map(|t| t.value), Some(700.0));
+        // Reversed stays reversed; log goes to powers.
+        assert_eq!(PositionScale::linear(97.0, 3.0).nice(5).domain(), Some((100.0, 0.0)));
+        let l = PositionScale::Continuous { lo: 3.0, hi: 420.0, transform: Transform::Log { base: 10.0 }, time: false, step: None }.nice(5);
+        assert_eq!(l.domain(), Some((1.0, 1000.0)));
+    }
+
+    #[test]
+    fn reversed_and_sqrt() {
+        let r = PositionScale::linear(10.0, 0.0);
+        assert_eq!(r.unit_num(10.0), Some(0.0));
+        assert_eq!(r.unit_num(2.5), Some(0.75));
+        let s = PositionScale::Continuous { lo: 0.0, hi: 100.0, transform: Transform::Sqrt, time: false, step: None };
+        assert_eq!(s.unit_num(25.0), Some(0.5));
+    }
+
+    #[test]
+    fn labels_in_locales_and_short() {
+        let s = PositionScale::linear(0.0, 2_500_000.0);
+        let de = format::locale("de");
+        let t = s.ticks_with(&TickOptions { wanted: 6, pattern: None, locale: de, short: false });
+        // Large values go compact; CLDR de short form is "0 Mio." (no-break space).
+        assert!(t.iter().any(|t| t.label == "1\u{a0}Mio."), "{t:?}");
+        let s = PositionScale::linear(0.0, 1.0);
+        let t = s.ticks_with(&TickOptions { wanted: 6, pattern: None, locale: format::locale("fr"), short: false });
+        assert_eq!(t.iter().map(|t| t.label.as_str()).collect::<Vec<_>>(), ["0,0", "0,2", "0,4", "0,6", "0,8", "1,0"]);
+        let t = s.ticks_with(&TickOptions { wanted: 6, pattern: Some("0%"), locale: format::english(), short: false });
+        assert_eq!(t[1].label, "20%");
+    }
+
+    #[test]
+    fn time_labels_by_unit() {
+        let day = |y, m, d| crate::data::time::days_from_civil(y, m, d) as f64 * 86_400_000.0;
+        let s = PositionScale::Continuous { lo: day(2024, 1, 1), hi: day(2024, 12, 31), transform: Transform::Linear, time: true, step: None };
+        let t = s.ticks_with(&TickOptions { wanted: 6, pattern: None, locale: format::locale("de"), short: false });
+        assert_eq!(t[0].label, "Jan. 2024");
+        assert_eq!(t[1].label, "Apr.");
+        let s = PositionScale::Continuous { lo: day(1990, 1, 1), hi: day(2020, 1, 1), transform: Transform::Linear, time: true, step: None };
+        let t = s.ticks(4, None);
+        assert_eq!(t.iter().map(|t| t.label.as_str()).collect::<Vec<_>>(), ["1990", "2000", "2010", "2020"]);
+        let t = s.ticks(6, None);
+        assert_eq!(t[1].label, "1995");
+    }
+
+    #[test]
+    fn size_is_area() {
+        let s = SizeScale { lo: 0.0, hi: 100.0, max_radius: 10.0 };
+        let a = |v: f64| s.radius(v).unwrap().powi(2);
+        // Twice the value, twice the area.
+        assert!((a(50.0) * 2.0 - a(100.0)).abs() < 1e-9);
+        assert_eq!(s.legend_values(), vec![50.0, 100.0]);
+    }
+
+    #[test]
+    fn shapes_have_equal_area() {
+        // Shoelace area of each polygon equals pi r^2 (circle excluded).
+        for i in 1..SHAPES.len() {
+            let d = shape_path(i, 0.0, 0.0, 10.0);
+            let pts: Vec<(f64, f64)> = d
+                .trim_end_matches('Z')
+                .split(['M', 'L'])
+                .filter(|s| !s.is_empty())
+                .map(|p| {
+                    let (x, y) = p.split_once(',').unwrap();
+                    (x.parse().unwrap(), y.parse().unwrap())
+                })
+                .collect();
+            let mut area = 0.0;
+            for k in 0..pts.len() {
+                let (a, b) = (pts[k], pts[(k + 1) % pts.len()]);
+                area += a.0 * b.1 - b.0 * a.1;
+            }
+            let area = area.abs() / 2.0;
+            let want = std::f64::consts::PI * 100.0;
+            assert!((area - want).abs() / want < 0.02, "{} {area}", SHAPES[i]);
         }
     }
 }

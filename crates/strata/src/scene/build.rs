@@ -1,12 +1,17 @@
 //! Layout: from the plan and the page's width to a [`Scene`].
+//!
+//! Width-driven: the width comes from the spec or the host; the height
+//! from `size.height`, else `width / size.aspect`, else a default aspect
+//! (wider charts are flatter). At 400 px and below the chart is "narrow":
+//! fewer ticks, legends on top, tighter margins.
 
 use super::coord::{Coord, Frame};
-use super::guides::{self, AxisGuide, Side};
+use super::guides::{self, AxisGuide, Legend, Side};
 use super::marks::{layer_marks, Ctx};
 use super::{Anchor, Node, Scene};
 use crate::color::Palette;
-use crate::plan::{ColorScale, Plan};
-use crate::spec::{Coords, Spec, Theme};
+use crate::plan::Plan;
+use crate::spec::{Coords, Placement, Spec, Theme};
 use crate::text;
 
 /// What the host decides: the width when the spec gives none.
@@ -21,30 +26,46 @@ impl Default for SceneOptions {
     }
 }
 
-const TITLE_SIZE: f64 = 18.0;
-const SUBTITLE_SIZE: f64 = 14.0;
-const SOURCE_SIZE: f64 = 11.0;
+pub const TITLE_SIZE: f64 = 18.0;
+pub const SUBTITLE_SIZE: f64 = 14.0;
+pub const SOURCE_SIZE: f64 = 11.0;
 const DEFAULT_ASPECT: f64 = 1.6;
+const NARROW_ASPECT: f64 = 1.1;
+/// Widths at or below this are laid out as narrow (phones).
+pub const NARROW: f64 = 400.0;
 
-fn palette(theme: &Theme) -> Palette {
+/// The theme's colours and the classes the SVG root carries for the
+/// stylesheet (`www/strata-theme.css`): `strata-light`, `strata-dark` or
+/// `strata-auto`, plus `strata-own-<slot>` for each colour the spec sets,
+/// which the stylesheet then leaves alone.
+pub fn palette(theme: &Theme) -> (Palette, String) {
     match theme {
-        Theme::Dark => Palette::dark(),
+        Theme::Dark => (Palette::dark(), "strata-dark".into()),
+        Theme::Light => (Palette::light(), "strata-light".into()),
+        Theme::Auto => (Palette::light(), "strata-auto".into()),
         Theme::Custom(o) => {
-            let mut p = if o.base.as_deref() == Some("dark") { Palette::dark() } else { Palette::light() };
-            let set = |slot: &mut String, v: &Option<String>| {
+            let dark = o.base.as_deref() == Some("dark");
+            let mut p = if dark { Palette::dark() } else { Palette::light() };
+            let mut classes = vec![match o.base.as_deref() {
+                Some("dark") => "strata-dark",
+                Some("light") => "strata-light",
+                _ => "strata-auto",
+            }
+            .to_string()];
+            let mut set = |slot: &mut String, v: &Option<String>, name: &str| {
                 if let Some(v) = v {
                     *slot = v.clone();
+                    classes.push(format!("strata-own-{name}"));
                 }
             };
-            set(&mut p.background, &o.background);
-            set(&mut p.text, &o.text);
-            set(&mut p.muted, &o.muted);
-            set(&mut p.grid, &o.grid);
-            set(&mut p.axis, &o.axis);
-            set(&mut p.mark, &o.mark);
-            p
+            set(&mut p.background, &o.background, "background");
+            set(&mut p.text, &o.text, "text");
+            set(&mut p.muted, &o.muted, "muted");
+            set(&mut p.grid, &o.grid, "grid");
+            set(&mut p.axis, &o.axis, "axis");
+            set(&mut p.mark, &o.mark, "mark");
+            (p, classes.join(" "))
         }
-        _ => Palette::light(),
     }
 }
 
@@ -68,19 +89,30 @@ fn text_block(lines: &[String], x: f64, top: f64, size: f64, bold: bool, fill: &
     (out, y)
 }
 
-pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
+/// The chart's size in pixels.
+pub fn chart_size(spec: &Spec, opts: &SceneOptions) -> (f64, f64) {
     let width = spec.size.width.unwrap_or(opts.width).clamp(120.0, 4000.0);
-    let height = spec.size.height.unwrap_or_else(|| width / spec.size.aspect.unwrap_or(DEFAULT_ASPECT)).clamp(80.0, 4000.0);
-    let narrow = width <= 400.0;
+    let aspect = spec.size.aspect.filter(|a| *a > 0.0).unwrap_or(if width <= NARROW { NARROW_ASPECT } else { DEFAULT_ASPECT });
+    let height = spec.size.height.unwrap_or(width / aspect).clamp(80.0, 4000.0);
+    (width, height)
+}
+
+pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
+    let (width, height) = chart_size(spec, opts);
+    let narrow = width <= NARROW;
     let pad = if narrow { 8.0 } else { 16.0 };
-    let pal = palette(&spec.theme);
+    let (pal, theme_class) = palette(&spec.theme);
+    let mut nice_scales = plan.scales.clone();
+    let scales = &plan.scales;
+    let loc = scales.locale;
     let mut children = Vec::new();
 
     // Header: title and subtitle wrap at the chart width.
     let mut top = pad;
     let mut header = Vec::new();
+    let title_size = if narrow { TITLE_SIZE - 2.0 } else { TITLE_SIZE };
     if let Some(t) = &spec.title {
-        let (nodes, y) = text_block(&text::wrap(t, TITLE_SIZE, true, width - 2.0 * pad), pad, top, TITLE_SIZE, true, &pal.text, "strata-title");
+        let (nodes, y) = text_block(&text::wrap(t, title_size, true, width - 2.0 * pad), pad, top, title_size, true, &pal.text, "strata-title");
         header.extend(nodes);
         top = y;
     }
@@ -90,8 +122,8 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
         top = y;
     }
     if !header.is_empty() {
-        top += 8.0;
-        children.push(Node::group("strata-header", header));
+        top += if narrow { 4.0 } else { 8.0 };
+        children.push(Node::Group { class: "strata-header".into(), role: None, label: None, children: header });
     }
 
     // Footer: the source line.
@@ -100,50 +132,130 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
         let lines = text::wrap(&format!("Source: {s}"), SOURCE_SIZE, false, width - 2.0 * pad);
         let h = lines.len() as f64 * SOURCE_SIZE * text::LINE_HEIGHT;
         let (nodes, _) = text_block(&lines, pad, bottom - h, SOURCE_SIZE, false, &pal.muted, "strata-source");
-        children.push(Node::group("strata-footer", nodes));
+        children.push(Node::Group { class: "strata-footer".into(), role: None, label: None, children: nodes });
         bottom -= h + 6.0;
     }
 
-    // Legend: right of the plot when wide, above it when narrow.
-    let scales = &plan.scales;
+    // Legends: a column on the right when wide and the column takes at most
+    // a quarter of the width; otherwise rows on top.
+    let legends: Vec<Legend> = guides::legends(scales, &pal.mark);
     let mut right = width - pad;
-    let mut legend_node = None;
-    if let Some(ColorScale::Categories(cats)) = &scales.color {
-        let (lw, lh) = guides::legend_size(&scales.color_title, cats);
-        if narrow {
-            legend_node = Some(guides::legend(&scales.color_title, cats, pad, top, &pal));
-            top += lh + 6.0;
+    let mut legend_nodes = Vec::new();
+    let mut legend_on_right = false;
+    if !legends.is_empty() {
+        let col_w = legends.iter().map(|l| guides::column_size(l).0).fold(0.0, f64::max);
+        let col_h: f64 = legends.iter().map(|l| guides::column_size(l).1 + 12.0).sum();
+        let wants_top = legends.iter().any(|l| {
+            let placement = match l.channel {
+                "size" => scales.size_spec.legend,
+                "shape" => scales.shape_spec.legend,
+                _ => scales.color_spec.legend,
+            };
+            placement == Some(Placement::Top) || placement == Some(Placement::Bottom)
+        });
+        let on_right = !narrow && !wants_top && col_w <= width * 0.25 && col_h <= bottom - top;
+        legend_on_right = on_right;
+        if on_right {
+            let mut y = top + 4.0;
+            for l in &legends {
+                legend_nodes.push(guides::column(l, right - col_w, y, &pal, &pal.mark));
+                y += guides::column_size(l).1 + 12.0;
+            }
+            right -= col_w + if narrow { 8.0 } else { 16.0 };
         } else {
-            legend_node = Some(guides::legend(&scales.color_title, cats, right - lw, top, &pal));
-            right -= lw + 16.0;
+            // Rows on top, legends side by side when they fit.
+            let avail = width - 2.0 * pad;
+            let mut x = pad;
+            let mut line_h: f64 = 0.0;
+            for l in &legends {
+                let (w, h) = guides::row_size(l, avail);
+                if x > pad && x + w > width - pad {
+                    top += line_h + 6.0;
+                    x = pad;
+                    line_h = 0.0;
+                }
+                legend_nodes.push(guides::rows(l, x, top, avail - (x - pad), &pal, &pal.mark));
+                x += w + 24.0;
+                line_h = line_h.max(h);
+            }
+            top += line_h + 8.0;
         }
     }
 
     // Axes: the x scale is horizontal unless the coordinates flip it.
     let flip = matches!(spec.coords, Coords::Flip);
     let polar = matches!(spec.coords, Coords::Polar(_));
-    let (h_scale, v_scale, h_title, v_title, h_spec, v_spec) = if flip {
-        (&scales.y, &scales.x, &scales.y_title, &scales.x_title, &scales.y_spec, &scales.x_spec)
+    let (h_title, v_title, h_spec, v_spec) = if flip {
+        (&scales.y_title, &scales.x_title, &scales.y_spec, &scales.x_spec)
     } else {
-        (&scales.x, &scales.y, &scales.x_title, &scales.y_title, &scales.x_spec, &scales.y_spec)
+        (&scales.x_title, &scales.y_title, &scales.x_spec, &scales.y_spec)
     };
-    let wanted = |s: &crate::spec::ScaleSpec| s.ticks.map(|t| t as usize).unwrap_or(if narrow { 4 } else { 6 });
-    let v_ticks = v_scale.ticks(wanted(v_spec), v_spec.format.as_deref());
-    let v_label_w = guides::widest_label(&v_ticks);
-    let left = pad + if polar { 0.0 } else { guides::left_axis_width(v_label_w, !v_title.is_empty()) };
-    let plot_bottom = bottom - if polar { 0.0 } else { guides::bottom_axis_height(!h_title.is_empty()) };
-    let frame = Frame { left, top: top + 4.0, width: (right - left).max(20.0), height: (plot_bottom - top - 4.0).max(20.0) };
+    let shown = |s: &crate::spec::ScaleSpec| !polar && !s.hide && s.axis != Some(Placement::None);
+    let (h_shown, v_shown) = (shown(h_spec), shown(v_spec));
+    let h_title: &str = if h_shown { h_title } else { "" };
+    let v_title: &str = if v_shown { v_title } else { "" };
+    let wanted = |s: &crate::spec::ScaleSpec, length: f64, per: f64| {
+        s.ticks.map(|t| t as usize).unwrap_or_else(|| ((length / per).floor() as usize).clamp(2, if narrow { 5 } else { 10 }))
+    };
+    let top = top + 4.0;
+    // First guess of the plot height, for the vertical ticks (and so the left margin).
+    let guess_h = (bottom - top - 2.0 * TITLE_SIZE * text::LINE_HEIGHT).max(20.0);
+    let max_left = width * if narrow { 0.3 } else { 0.25 };
+    // Nice ends for the counts that fit (x along the width, y along the height).
+    let (h_len_guess, v_len) = ((right - pad - 60.0).max(20.0), guess_h);
+    let (x_len, y_len) = if flip { (v_len, h_len_guess) } else { (h_len_guess, v_len) };
+    if scales.x_nice {
+        nice_scales.x = scales.x.nice(wanted(&scales.x_spec, x_len, if flip { 50.0 } else if narrow { 70.0 } else { 90.0 }));
+    }
+    if scales.y_nice {
+        nice_scales.y = scales.y.nice(wanted(&scales.y_spec, y_len, if flip { if narrow { 70.0 } else { 90.0 } } else { 50.0 }));
+    }
+    let scales = &nice_scales;
+    let (h_scale, v_scale) = if flip { (&scales.y, &scales.x) } else { (&scales.x, &scales.y) };
+    let v_ticks0 = if v_shown { guides::left_ticks(v_scale, guess_h, wanted(v_spec, guess_h, 50.0), v_spec.format.as_deref(), loc, max_left) } else { vec![] };
+    let v_label_w = guides::widest_label(&v_ticks0);
+    let left = pad + if v_shown { guides::left_axis_width(v_label_w, !v_title.is_empty()) } else { 0.0 };
+    let frame_w = (right - left).max(20.0);
+    let max_label_h = (bottom - top) * 0.3;
+    let (h_ticks, h_angle) = if h_shown {
+        guides::bottom_ticks(h_scale, frame_w, wanted(h_spec, frame_w, if narrow { 70.0 } else { 90.0 }), h_spec.format.as_deref(), loc, max_label_h)
+    } else {
+        (vec![], 0.0)
+    };
+    // Keep the outermost labels inside the chart: shrink the frame by any overhang.
+    let (frame_w, h_ticks, h_angle) = {
+        let room_right = if legend_on_right { if narrow { 8.0 } else { 16.0 } } else { pad };
+        let over = |t: &[crate::scale::Tick], w: f64| {
+            t.last().map(|l| (text::width(&l.label, guides::TICK_SIZE, false) / 2.0 - (1.0 - l.unit) * w - room_right + 2.0).max(0.0)).unwrap_or(0.0)
+        };
+        let o = if h_angle == 0.0 { over(&h_ticks, frame_w) } else { 0.0 };
+        if o > 0.0 && h_shown {
+            let w = (frame_w - o).max(20.0);
+            let (t, a) = guides::bottom_ticks(h_scale, w, wanted(h_spec, w, if narrow { 70.0 } else { 90.0 }), h_spec.format.as_deref(), loc, max_label_h);
+            (w, t, a)
+        } else {
+            (frame_w, h_ticks, h_angle)
+        }
+    };
+    let plot_bottom = bottom - if h_shown { guides::bottom_axis_height(&h_ticks, h_angle, !h_title.is_empty()) } else { 0.0 };
+    let frame = Frame { left, top, width: frame_w, height: (plot_bottom - top).max(20.0) };
     let coord = Coord::new(&spec.coords, frame);
-    let h_ticks = guides::thin_bottom_ticks(h_scale.ticks(wanted(h_spec), h_spec.format.as_deref()), frame.width);
+    // Vertical ticks again for the real height, kept within the margin.
+    let v_ticks = if v_shown {
+        let t = guides::left_ticks(v_scale, frame.height, wanted(v_spec, frame.height, 50.0), v_spec.format.as_deref(), loc, max_left);
+        if guides::widest_label(&t) <= v_label_w + 0.5 { t } else { v_ticks0 }
+    } else {
+        vec![]
+    };
     // Vertical categories in flipped coordinates run top to bottom.
     let v_ticks = if flip { v_ticks.into_iter().map(|mut t| { t.unit = 1.0 - t.unit; t }).collect() } else { v_ticks };
-    let h_axis = AxisGuide { side: Side::Bottom, scale: h_scale, ticks: h_ticks, title: h_title };
-    let v_axis = AxisGuide { side: Side::Left, scale: v_scale, ticks: v_ticks, title: v_title };
+    let h_axis = AxisGuide { side: Side::Bottom, scale: h_scale, ticks: h_ticks, title: h_title, angle: h_angle };
+    let v_axis = AxisGuide { side: Side::Left, scale: v_scale, ticks: v_ticks, title: v_title, angle: 0.0 };
 
     if !polar {
         let mut grid = guides::grid(&v_axis, &coord, &pal);
         grid.extend(guides::grid(&h_axis, &coord, &pal));
-        children.push(Node::group("strata-grid", grid));
+        children.push(Node::Group { class: "strata-grid".into(), role: None, label: None, children: grid });
     }
     let ctx = Ctx { scales, coord, default_color: &pal.mark };
     let mut layers = Vec::new();
@@ -157,13 +269,20 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
             children: marks,
         });
     }
-    if !polar {
+    if h_shown {
         children.push(guides::axis(&h_axis, frame, &pal, 0.0));
+    }
+    if v_shown {
         children.push(guides::axis(&v_axis, frame, &pal, v_label_w));
     }
-    children.push(Node::Group { class: "strata-plot".into(), role: Some("graphics-document".into()), label: Some("plot".into()), children: layers });
-    if let Some(l) = legend_node {
-        children.push(l);
+    children.push(Node::Group {
+        class: "strata-panel".into(),
+        role: Some("graphics-object".into()),
+        label: Some(panel_label(plan)),
+        children: layers,
+    });
+    if !legend_nodes.is_empty() {
+        children.push(Node::Group { class: "strata-legends".into(), role: None, label: None, children: legend_nodes });
     }
 
     let label = spec.title.clone().unwrap_or_else(|| default_label(plan));
@@ -175,7 +294,16 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
         description,
         font_family: text::FONT_FAMILY.to_string(),
         background: pal.background.clone(),
+        classes: theme_class,
         children,
+    }
+}
+
+fn panel_label(plan: &Plan) -> String {
+    let s = &plan.scales;
+    match (s.y_title.is_empty(), s.x_title.is_empty()) {
+        (false, false) => format!("plot of {} against {}", s.y_title, s.x_title),
+        _ => "plot".to_string(),
     }
 }
 
@@ -184,5 +312,67 @@ fn default_label(plan: &Plan) -> String {
     match (s.y_title.is_empty(), s.x_title.is_empty()) {
         (false, false) => format!("Chart of {} by {}", s.y_title, s.x_title),
         _ => "Chart".to_string(),
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::{render, RenderOptions};
+
+    fn texts<'a>(n: &'a Node, class: &str, out: &mut Vec<(f64, f64, &'a str)>) {
+        match n {
+            Node::Group { children, .. } => children.iter().for_each(|c| texts(c, class, out)),
+            Node::Text { x, y, text, class: c, .. } if c == class => out.push((*x, *y, text.as_str())),
+            _ => {}
+        }
+    }
+
+    fn scene(width: f64) -> Scene {
+        let spec = r#"{ "title": "Visitors through each gate of the orchard, month by month, in a long title",
+            "data": { "rows": [
+              {"m": 1, "v": 120, "g": "Lane gate"}, {"m": 2, "v": 340, "g": "Lane gate"}, {"m": 3, "v": 610, "g": "Lane gate"},
+              {"m": 1, "v": 80, "g": "River gate"}, {"m": 2, "v": 150, "g": "River gate"}, {"m": 3, "v": 420, "g": "River gate"} ] },
+            "layers": [ { "draw": "line", "x": "m", "y": "v", "color": "g" } ] }"#;
+        render(spec, None, &RenderOptions { scene: SceneOptions { width } }).unwrap().scene
+    }
+
+    fn all(s: &Scene, class: &str) -> Vec<(f64, f64, String)> {
+        let mut out = Vec::new();
+        for c in &s.children {
+            texts(c, class, &mut out);
+        }
+        out.into_iter().map(|(x, y, t)| (x, y, t.to_string())).collect()
+    }
+
+    #[test]
+    fn height_from_aspect_or_height() {
+        let mut spec = Spec::default();
+        assert_eq!(chart_size(&spec, &SceneOptions { width: 640.0 }), (640.0, 400.0));
+        assert_eq!(chart_size(&spec, &SceneOptions { width: 330.0 }), (330.0, 300.0));
+        spec.size.aspect = Some(2.0);
+        assert_eq!(chart_size(&spec, &SceneOptions { width: 640.0 }), (640.0, 320.0));
+        spec.size.height = Some(250.0);
+        assert_eq!(chart_size(&spec, &SceneOptions { width: 640.0 }), (640.0, 250.0));
+    }
+
+    #[test]
+    fn wide_puts_the_legend_right_narrow_on_top() {
+        let wide = scene(720.0);
+        let narrow = scene(360.0);
+        let ticks_x = |s: &Scene| all(s, "strata-tick").iter().map(|t| t.0).fold(0.0, f64::max);
+        let legend = |s: &Scene| all(s, "strata-legend-label");
+        let plot_top = |s: &Scene| all(s, "strata-tick").iter().map(|t| t.1).fold(f64::INFINITY, f64::min);
+        // Wide: legend labels right of every tick label.
+        assert!(legend(&wide).iter().all(|l| l.0 > ticks_x(&wide)), "{:?}", legend(&wide));
+        // Narrow: legend labels above the plot.
+        assert!(legend(&narrow).iter().all(|l| l.1 < plot_top(&narrow)), "{:?}", legend(&narrow));
+        // Narrow: the long title wraps onto more lines, and there are fewer ticks.
+        assert!(all(&narrow, "strata-title").len() > all(&wide, "strata-title").len());
+        assert!(all(&narrow, "strata-tick").len() < all(&wide, "strata-tick").len());
+        // Every title line fits the width.
+        for (_, _, t) in all(&narrow, "strata-title") {
+            assert!(text::width(&t, TITLE_SIZE - 2.0, true) <= 360.0 - 16.0);
+        }
     }
 }

@@ -1,14 +1,26 @@
-//! Guides: axes with ticks, grid lines and titles; the colour legend.
+//! Guides: axes with ticks, grid lines and titles; legends for colour
+//! (swatches or a gradient bar), size and shape.
+//!
+//! Tick labels that would collide are handled in a fixed order: first
+//! thinned (fewer ticks for continuous scales, every other label for
+//! categories), then rotated (categories and dates), then shortened
+//! (compact numbers, shorter dates, truncated words).
 
 use super::coord::{Coord, Frame};
 use super::{Anchor, Node, Paint};
-use crate::color::{self, Palette};
-use crate::scale::{PositionScale, Tick};
+use crate::color::Palette;
+use crate::format::Locale;
+use crate::plan::{ColorScale, Scales};
+use crate::scale::{shape_path, PositionScale, Tick, TickOptions};
 use crate::text;
 
 pub const TICK_SIZE: f64 = 12.0;
 pub const TITLE_SIZE: f64 = 12.0;
 const GAP: f64 = 6.0;
+/// Least free space between neighbouring horizontal labels (px).
+const LABEL_GAP: f64 = 8.0;
+/// Angle of rotated labels (degrees, counter-clockwise reads upward).
+pub const ROTATION: f64 = -45.0;
 
 /// Which side of the frame an axis sits on.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -22,22 +34,128 @@ pub struct AxisGuide<'a> {
     pub scale: &'a PositionScale,
     pub ticks: Vec<Tick>,
     pub title: &'a str,
+    /// Label rotation in degrees (0 or [`ROTATION`]).
+    pub angle: f64,
 }
 
-/// Keep every k-th label so that neighbours do not overlap on a bottom axis.
-pub fn thin_bottom_ticks(ticks: Vec<Tick>, length: f64) -> Vec<Tick> {
-    if ticks.len() < 2 {
-        return ticks;
+fn label_width(t: &Tick) -> f64 {
+    text::width(&t.label, TICK_SIZE, false)
+}
+
+/// Do neighbouring horizontal labels keep [`LABEL_GAP`] apart on an axis `length` px long?
+fn fits_across(ticks: &[Tick], length: f64) -> bool {
+    ticks.windows(2).all(|w| {
+        let space = (w[1].unit - w[0].unit).abs() * length;
+        space >= (label_width(&w[0]) + label_width(&w[1])) / 2.0 + LABEL_GAP
+    })
+}
+
+/// Rotated labels need about a line's height between neighbours.
+fn fits_rotated(ticks: &[Tick], length: f64) -> bool {
+    let need = TICK_SIZE * text::LINE_HEIGHT / (-ROTATION).to_radians().sin();
+    ticks.windows(2).all(|w| (w[1].unit - w[0].unit).abs() * length >= need)
+}
+
+/// Keep every k-th tick.
+fn every(ticks: &[Tick], k: usize) -> Vec<Tick> {
+    ticks.iter().enumerate().filter(|(i, _)| i % k == 0).map(|(_, t)| t.clone()).collect()
+}
+
+/// Ticks of a horizontal axis `length` px long, after thinning, rotating and shortening.
+/// Returns the ticks and the label angle.
+pub fn bottom_ticks(scale: &PositionScale, length: f64, wanted: usize, pattern: Option<&str>, loc: &Locale, max_label_height: f64) -> (Vec<Tick>, f64) {
+    let opts = |wanted: usize, short: bool| TickOptions { wanted, pattern, locale: loc, short };
+    if let PositionScale::Category { .. } = scale {
+        let full = scale.ticks_with(&opts(wanted, false));
+        if fits_across(&full, length) {
+            return (full, 0.0);
+        }
+        // Thin: every other label (the bands stay).
+        let half = every(&full, 2);
+        if full.len() <= 24 && fits_across(&half, length) {
+            return (half, 0.0);
+        }
+        // Rotate, thinning only as far as rotated labels need.
+        let mut k = 1;
+        while k < full.len() && !fits_rotated(&every(&full, k), length) {
+            k += 1;
+        }
+        let rotated = every(&full, k);
+        // Shorten: labels whose rotated height would exceed the allowance.
+        let max_w = max_label_height / (-ROTATION).to_radians().sin();
+        let cut: Vec<Tick> = rotated
+            .into_iter()
+            .map(|mut t| {
+                t.label = text::fit(&t.label, TICK_SIZE, false, max_w);
+                t
+            })
+            .collect();
+        return (cut, ROTATION);
     }
-    let widest = ticks.iter().map(|t| text::width(&t.label, TICK_SIZE, false)).fold(0.0, f64::max);
-    let spacing = length * (ticks[1].unit - ticks[0].unit).abs();
-    let k = ((widest + 8.0) / spacing.max(1e-9)).ceil().max(1.0) as usize;
-    ticks.into_iter().enumerate().filter(|(i, _)| i % k == 0).map(|(_, t)| t).collect()
+    // Continuous: thin by asking for fewer ticks, then shorten, then (dates) rotate.
+    let mut w = wanted.max(2);
+    loop {
+        let t = scale.ticks_with(&opts(w, false));
+        if fits_across(&t, length) {
+            return (t, 0.0);
+        }
+        if w <= 2 {
+            break;
+        }
+        w -= 1;
+    }
+    let mut w = wanted.max(2);
+    loop {
+        let t = scale.ticks_with(&opts(w, true));
+        if fits_across(&t, length) || w <= 2 {
+            if fits_across(&t, length) {
+                return (t, 0.0);
+            }
+            return (t, if scale.is_time() { ROTATION } else { 0.0 });
+        }
+        w -= 1;
+    }
+}
+
+/// Ticks of a vertical axis `length` px long: thinned to a line and a half apart.
+pub fn left_ticks(scale: &PositionScale, length: f64, wanted: usize, pattern: Option<&str>, loc: &Locale, max_width: f64) -> Vec<Tick> {
+    let opts = |wanted: usize| TickOptions { wanted, pattern, locale: loc, short: false };
+    let line = TICK_SIZE * text::LINE_HEIGHT;
+    let spaced = |t: &[Tick], need: f64| t.windows(2).all(|w| (w[1].unit - w[0].unit).abs() * length >= need);
+    let mut ticks = if scale.is_discrete() {
+        let full = scale.ticks_with(&opts(wanted));
+        let mut k = 1;
+        while k < full.len() && !spaced(&every(&full, k), line) {
+            k += 1;
+        }
+        every(&full, k)
+    } else {
+        let mut w = wanted.max(2);
+        let mut t = scale.ticks_with(&opts(w));
+        while w > 2 && !spaced(&t, line * 1.5) {
+            w -= 1;
+            t = scale.ticks_with(&opts(w));
+        }
+        t
+    };
+    // Shorten labels wider than the allowance.
+    if ticks.iter().any(|t| label_width(t) > max_width) {
+        if !scale.is_discrete() {
+            let short = scale.ticks_with(&TickOptions { wanted: ticks.len().max(2), pattern, locale: loc, short: true });
+            if short.len() == ticks.len() {
+                ticks = short;
+            }
+        }
+        for t in ticks.iter_mut() {
+            t.label = text::fit(&t.label, TICK_SIZE, false, max_width);
+        }
+    }
+    ticks
 }
 
 /// Widest tick label, for the left margin.
 pub fn widest_label(ticks: &[Tick]) -> f64 {
-    ticks.iter().map(|t| text::width(&t.label, TICK_SIZE, false)).fold(0.0, f64::max)
+    ticks.iter().map(label_width).fold(0.0, f64::max)
 }
 
 fn label(x: f64, y: f64, s: &str, anchor: Anchor, fill: &str, class: &str) -> Node {
@@ -74,14 +192,31 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
             kids.push(Node::Line { x1: f.left, y1: f.bottom(), x2: f.right(), y2: f.bottom(), paint: Paint::stroke(&pal.axis, 1.0) });
             for t in &axis.ticks {
                 let x = f.left + t.unit * f.width;
-                kids.push(label(x, f.bottom() + GAP + baseline, &t.label, Anchor::Middle, &pal.muted, "strata-tick"));
+                if axis.angle != 0.0 {
+                    // Rotated about the label's end, just below the tick.
+                    let y = f.bottom() + GAP + TICK_SIZE * text::CAP / 2.0;
+                    kids.push(Node::Text {
+                        x: x + TICK_SIZE * 0.3,
+                        y,
+                        text: t.label.clone(),
+                        size: TICK_SIZE,
+                        anchor: Anchor::End,
+                        bold: false,
+                        angle: axis.angle,
+                        fill: pal.muted.clone(),
+                        class: "strata-tick".into(),
+                    });
+                } else {
+                    kids.push(label(x, f.bottom() + GAP + baseline - TICK_SIZE * (text::LINE_HEIGHT - 1.0) / 2.0, &t.label, Anchor::Middle, &pal.muted, "strata-tick"));
+                }
             }
             if !axis.title.is_empty() {
-                let y = f.bottom() + GAP + TICK_SIZE * text::LINE_HEIGHT + GAP + TITLE_SIZE * text::ASCENT;
+                let labels_h = bottom_labels_height(&axis.ticks, axis.angle);
+                let y = f.bottom() + GAP + labels_h + GAP + TITLE_SIZE * text::ASCENT;
                 kids.push(Node::Text {
                     x: f.left + f.width / 2.0,
                     y,
-                    text: axis.title.to_string(),
+                    text: text::fit(axis.title, TITLE_SIZE, false, f.width),
                     size: TITLE_SIZE,
                     anchor: Anchor::Middle,
                     bold: false,
@@ -97,14 +232,14 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
             }
             for t in &axis.ticks {
                 let y = f.bottom() - t.unit * f.height;
-                kids.push(label(f.left - GAP, y + TICK_SIZE * 0.35, &t.label, Anchor::End, &pal.muted, "strata-tick"));
+                kids.push(label(f.left - GAP, y + TICK_SIZE * text::CAP / 2.0, &t.label, Anchor::End, &pal.muted, "strata-tick"));
             }
             if !axis.title.is_empty() {
                 let x = f.left - GAP - label_width - GAP - TITLE_SIZE * (text::LINE_HEIGHT - text::ASCENT);
                 kids.push(Node::Text {
                     x,
                     y: f.top + f.height / 2.0,
-                    text: axis.title.to_string(),
+                    text: text::fit(axis.title, TITLE_SIZE, false, f.height),
                     size: TITLE_SIZE,
                     anchor: Anchor::Middle,
                     bold: false,
@@ -123,9 +258,19 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
     Node::Group { class: class.into(), role: None, label: Some(title), children: kids }
 }
 
+/// Height of a bottom axis's labels (rotated labels stand taller).
+pub fn bottom_labels_height(ticks: &[Tick], angle: f64) -> f64 {
+    if angle == 0.0 {
+        TICK_SIZE * text::LINE_HEIGHT
+    } else {
+        let s = (-angle).to_radians().sin();
+        widest_label(ticks) * s + TICK_SIZE * text::LINE_HEIGHT * s
+    }
+}
+
 /// Height the bottom axis needs below the frame.
-pub fn bottom_axis_height(has_title: bool) -> f64 {
-    GAP + TICK_SIZE * text::LINE_HEIGHT + if has_title { GAP + TITLE_SIZE * text::LINE_HEIGHT } else { 0.0 }
+pub fn bottom_axis_height(ticks: &[Tick], angle: f64, has_title: bool) -> f64 {
+    GAP + bottom_labels_height(ticks, angle) + if has_title { GAP + TITLE_SIZE * text::LINE_HEIGHT } else { 0.0 }
 }
 
 /// Width the left axis needs beside the frame.
@@ -133,41 +278,312 @@ pub fn left_axis_width(label_width: f64, has_title: bool) -> f64 {
     GAP + label_width + if has_title { GAP + TITLE_SIZE * text::LINE_HEIGHT } else { 0.0 }
 }
 
-// ---------------------------------------------------------------- legend
+// ---------------------------------------------------------------- legends
 
 const SWATCH: f64 = 10.0;
+const ROW: f64 = TICK_SIZE * text::LINE_HEIGHT;
+const GRADIENT_LENGTH: f64 = 120.0;
+const GRADIENT_THICKNESS: f64 = 10.0;
+const GRADIENT_STEPS: usize = 48;
 
-/// Size of a vertical category legend.
-pub fn legend_size(title: &str, cats: &[String]) -> (f64, f64) {
-    let w = cats.iter().map(|c| SWATCH + 6.0 + text::width(c, TICK_SIZE, false)).fold(text::width(title, TICK_SIZE, true), f64::max);
-    let h = TICK_SIZE * text::LINE_HEIGHT * (cats.len() as f64 + if title.is_empty() { 0.0 } else { 1.0 });
+/// What one legend shows.
+#[derive(Debug, Clone)]
+pub enum LegendBody {
+    /// Colour swatches for categories: (label, colour).
+    Swatches(Vec<(String, String)>),
+    /// A bar of colour samples with tick labels along it.
+    Gradient { colors: Vec<String>, ticks: Vec<Tick> },
+    /// Circles of the size scale: (label, radius).
+    Sizes(Vec<(String, f64)>),
+    /// Shapes for categories: (label, shape index).
+    Shapes(Vec<(String, usize)>),
+}
+
+#[derive(Debug, Clone)]
+pub struct Legend {
+    pub title: String,
+    pub body: LegendBody,
+    /// `color`, `size` or `shape`.
+    pub channel: &'static str,
+}
+
+/// The legends the scales call for, in the order colour, size, shape.
+pub fn legends(scales: &Scales, default_color: &str) -> Vec<Legend> {
+    let mut out = Vec::new();
+    let loc = scales.locale;
+    let hidden = |s: &crate::spec::ScaleSpec| s.hide || s.legend == Some(crate::spec::Placement::None);
+    match &scales.color {
+        Some(ColorScale::Categories(cats)) if !hidden(&scales.color_spec) => {
+            let vals = crate::plan::Values::Text(cats.iter().cloned().map(Some).collect());
+            let items = cats.iter().enumerate().map(|(i, c)| (c.clone(), scales.color_of(&vals, i).unwrap_or_default())).collect();
+            out.push(Legend { title: scales.color_title.clone(), body: LegendBody::Swatches(items), channel: "color" });
+        }
+        Some(ColorScale::Ramp { lo, hi }) if !hidden(&scales.color_spec) => {
+            let (lo, hi) = (*lo, *hi);
+            let colors = (0..GRADIENT_STEPS)
+                .map(|k| scales.ramp_color(lo + (hi - lo) * (k as f64 + 0.5) / GRADIENT_STEPS as f64, lo, hi, scales.color_scheme))
+                .collect();
+            let scale = PositionScale::linear(lo, hi);
+            let ticks = scale.ticks_with(&TickOptions { wanted: 3, pattern: scales.color_spec.format.as_deref(), locale: loc, short: false });
+            out.push(Legend { title: scales.color_title.clone(), body: LegendBody::Gradient { colors, ticks }, channel: "color" });
+        }
+        _ => {}
+    }
+    if let Some(s) = &scales.size {
+        if !hidden(&scales.size_spec) {
+            let vals = s.legend_values();
+            let step = if vals.len() > 1 { vals[1] - vals[0] } else { vals.first().copied().unwrap_or(1.0) };
+            let pattern = scales.size_spec.format.clone().unwrap_or_else(|| crate::format::default_pattern(step));
+            let items = vals.iter().filter_map(|v| Some((crate::format::number(*v, &pattern, loc), s.radius(*v)?))).collect();
+            out.push(Legend { title: scales.size_title.clone(), body: LegendBody::Sizes(items), channel: "size" });
+        }
+    }
+    if let Some(cats) = &scales.shape {
+        if !hidden(&scales.shape_spec) {
+            let items = cats.iter().enumerate().map(|(i, c)| (c.clone(), i)).collect();
+            out.push(Legend { title: scales.shape_title.clone(), body: LegendBody::Shapes(items), channel: "shape" });
+        }
+    }
+    let _ = default_color;
+    out
+}
+
+fn item_width(label: &str, lead: f64) -> f64 {
+    lead + 6.0 + text::width(label, TICK_SIZE, false)
+}
+
+fn lead(body: &LegendBody) -> f64 {
+    match body {
+        LegendBody::Sizes(items) => items.iter().map(|(_, r)| 2.0 * r).fold(SWATCH, f64::max),
+        _ => SWATCH,
+    }
+}
+
+fn row_height(body: &LegendBody) -> f64 {
+    match body {
+        LegendBody::Sizes(items) => items.iter().map(|(_, r)| 2.0 * r + 4.0).fold(ROW, f64::max),
+        _ => ROW,
+    }
+}
+
+fn title_height(l: &Legend) -> f64 {
+    if l.title.is_empty() { 0.0 } else { ROW }
+}
+
+/// Size of a legend laid out as a column.
+pub fn column_size(l: &Legend) -> (f64, f64) {
+    let tw = text::width(&l.title, TICK_SIZE, true);
+    match &l.body {
+        LegendBody::Gradient { ticks, .. } => {
+            let w = GRADIENT_THICKNESS + 6.0 + widest_label(ticks);
+            (w.max(tw), title_height(l) + GRADIENT_LENGTH + TICK_SIZE)
+        }
+        body => {
+            let labels: Vec<&String> = match body {
+                LegendBody::Swatches(i) => i.iter().map(|x| &x.0).collect(),
+                LegendBody::Sizes(i) => i.iter().map(|x| &x.0).collect(),
+                LegendBody::Shapes(i) => i.iter().map(|x| &x.0).collect(),
+                LegendBody::Gradient { .. } => vec![],
+            };
+            let w = labels.iter().map(|s| item_width(s, lead(body))).fold(tw, f64::max);
+            (w, title_height(l) + row_height(body) * labels.len() as f64)
+        }
+    }
+}
+
+/// Height of a legend laid out as rows within `max_width` (title on its own line).
+pub fn row_size(l: &Legend, max_width: f64) -> (f64, f64) {
+    let (_, h, w) = row_layout(l, max_width);
     (w, h)
 }
 
-/// A vertical category legend with its top-left corner at (x, y).
-pub fn legend(title: &str, cats: &[String], x: f64, y: f64, pal: &Palette) -> Node {
-    let lh = TICK_SIZE * text::LINE_HEIGHT;
+/// Item positions (x, row) for a row layout, total height and widest row.
+fn row_layout(l: &Legend, max_width: f64) -> (Vec<(f64, usize)>, f64, f64) {
+    let body = &l.body;
+    if let LegendBody::Gradient { .. } = body {
+        return (vec![], title_height(l) + GRADIENT_THICKNESS + 4.0 + ROW, GRADIENT_LENGTH.max(text::width(&l.title, TICK_SIZE, true)));
+    }
+    let labels: Vec<&String> = match body {
+        LegendBody::Swatches(i) => i.iter().map(|x| &x.0).collect(),
+        LegendBody::Sizes(i) => i.iter().map(|x| &x.0).collect(),
+        LegendBody::Shapes(i) => i.iter().map(|x| &x.0).collect(),
+        LegendBody::Gradient { .. } => vec![],
+    };
+    let mut pos = Vec::new();
+    let (mut x, mut row, mut widest) = (0.0, 0usize, 0.0f64);
+    for s in labels {
+        let w = item_width(&text::fit(s, TICK_SIZE, false, max_width - lead(body) - 6.0), lead(body));
+        if x > 0.0 && x + w > max_width {
+            row += 1;
+            x = 0.0;
+        }
+        pos.push((x, row));
+        x += w + 14.0;
+        widest = widest.max(x - 14.0);
+    }
+    let rows = if pos.is_empty() { 0 } else { row + 1 };
+    (pos, title_height(l) + row_height(body) * rows as f64, widest.max(text::width(&l.title, TICK_SIZE, true)))
+}
+
+fn legend_title(l: &Legend, x: f64, y: f64, pal: &Palette) -> Option<Node> {
+    (!l.title.is_empty()).then(|| Node::Text {
+        x,
+        y: y + TICK_SIZE * text::ASCENT,
+        text: l.title.clone(),
+        size: TICK_SIZE,
+        anchor: Anchor::Start,
+        bold: true,
+        angle: 0.0,
+        fill: pal.text.clone(),
+        class: "strata-legend-title".into(),
+    })
+}
+
+fn symbol(body: &LegendBody, i: usize, cx: f64, cy: f64, pal: &Palette, default_color: &str) -> Node {
+    match body {
+        LegendBody::Swatches(items) => Node::Rect {
+            x: cx - SWATCH / 2.0,
+            y: cy - SWATCH / 2.0,
+            width: SWATCH,
+            height: SWATCH,
+            paint: Paint::fill(&items[i].1),
+            datum: None,
+        },
+        LegendBody::Sizes(items) => {
+            let mut p = Paint::fill(default_color);
+            p.opacity = Some(0.6);
+            let _ = pal;
+            Node::Circle { cx, cy, r: items[i].1, paint: p, datum: None }
+        }
+        LegendBody::Shapes(items) => Node::Path { d: shape_path(items[i].1, cx, cy, SWATCH / 2.0), paint: Paint::fill(&pal.muted), datum: None },
+        LegendBody::Gradient { .. } => Node::group("strata-empty", vec![]),
+    }
+}
+
+fn labels_of(body: &LegendBody) -> Vec<String> {
+    match body {
+        LegendBody::Swatches(i) => i.iter().map(|x| x.0.clone()).collect(),
+        LegendBody::Sizes(i) => i.iter().map(|x| x.0.clone()).collect(),
+        LegendBody::Shapes(i) => i.iter().map(|x| x.0.clone()).collect(),
+        LegendBody::Gradient { .. } => vec![],
+    }
+}
+
+fn gradient(l: &Legend, x: f64, y: f64, vertical: bool, pal: &Palette) -> Vec<Node> {
+    let LegendBody::Gradient { colors, ticks } = &l.body else { return vec![] };
+    let mut kids = Vec::new();
+    let n = colors.len() as f64;
+    let step = GRADIENT_LENGTH / n;
+    for (k, c) in colors.iter().enumerate() {
+        // Vertical bars run high values at the top, like a y axis.
+        let (rx, ry, w, h) = if vertical {
+            (x, y + GRADIENT_LENGTH - (k as f64 + 1.0) * step, GRADIENT_THICKNESS, step + 0.3)
+        } else {
+            (x + k as f64 * step, y, step + 0.3, GRADIENT_THICKNESS)
+        };
+        kids.push(Node::Rect { x: rx, y: ry, width: w, height: h, paint: Paint::fill(c), datum: None });
+    }
+    for t in ticks {
+        if vertical {
+            let ty = y + GRADIENT_LENGTH * (1.0 - t.unit);
+            kids.push(label(x + GRADIENT_THICKNESS + 6.0, ty + TICK_SIZE * text::CAP / 2.0, &t.label, Anchor::Start, &pal.muted, "strata-tick"));
+        } else {
+            let tx = x + GRADIENT_LENGTH * t.unit;
+            kids.push(label(tx, y + GRADIENT_THICKNESS + 4.0 + TICK_SIZE * text::ASCENT, &t.label, Anchor::Middle, &pal.muted, "strata-tick"));
+        }
+    }
+    kids
+}
+
+/// A legend as a column with its top-left corner at (x, y).
+pub fn column(l: &Legend, x: f64, y: f64, pal: &Palette, default_color: &str) -> Node {
     let mut kids = Vec::new();
     let mut row = y;
-    if !title.is_empty() {
-        kids.push(Node::Text {
-            x,
-            y: row + TICK_SIZE * text::ASCENT,
-            text: title.to_string(),
-            size: TICK_SIZE,
-            anchor: Anchor::Start,
-            bold: true,
-            angle: 0.0,
-            fill: pal.text.clone(),
-            class: "strata-legend-title".into(),
-        });
-        row += lh;
+    if let Some(t) = legend_title(l, x, row, pal) {
+        kids.push(t);
+        row += ROW;
     }
-    for (i, c) in cats.iter().enumerate() {
-        let mid = row + lh / 2.0;
-        kids.push(Node::Rect { x, y: mid - SWATCH / 2.0, width: SWATCH, height: SWATCH, paint: Paint::fill(color::category(i)), datum: None });
-        kids.push(label(x + SWATCH + 6.0, mid + TICK_SIZE * 0.35, c, Anchor::Start, &pal.text, "strata-legend-label"));
-        row += lh;
+    if let LegendBody::Gradient { .. } = &l.body {
+        kids.extend(gradient(l, x, row + TICK_SIZE / 2.0, true, pal));
+    } else {
+        let lead = lead(&l.body);
+        let rh = row_height(&l.body);
+        for (i, s) in labels_of(&l.body).iter().enumerate() {
+            let mid = row + rh / 2.0;
+            kids.push(symbol(&l.body, i, x + lead / 2.0, mid, pal, default_color));
+            kids.push(label(x + lead + 6.0, mid + TICK_SIZE * text::CAP / 2.0, s, Anchor::Start, &pal.text, "strata-legend-label"));
+            row += rh;
+        }
     }
-    Node::Group { class: "strata-legend".into(), role: Some("list".into()), label: Some(format!("legend: {title}")), children: kids }
+    wrap_legend(l, kids)
+}
+
+/// A legend as wrapped rows within `max_width`, top-left corner at (x, y).
+pub fn rows(l: &Legend, x: f64, y: f64, max_width: f64, pal: &Palette, default_color: &str) -> Node {
+    let mut kids = Vec::new();
+    let mut top = y;
+    if let Some(t) = legend_title(l, x, top, pal) {
+        kids.push(t);
+        top += ROW;
+    }
+    if let LegendBody::Gradient { .. } = &l.body {
+        kids.extend(gradient(l, x, top, false, pal));
+    } else {
+        let (pos, _, _) = row_layout(l, max_width);
+        let lead = lead(&l.body);
+        let rh = row_height(&l.body);
+        for (i, s) in labels_of(&l.body).iter().enumerate() {
+            let (ix, r) = pos[i];
+            let mid = top + rh * r as f64 + rh / 2.0;
+            kids.push(symbol(&l.body, i, x + ix + lead / 2.0, mid, pal, default_color));
+            let shown = text::fit(s, TICK_SIZE, false, max_width - lead - 6.0);
+            kids.push(label(x + ix + lead + 6.0, mid + TICK_SIZE * text::CAP / 2.0, &shown, Anchor::Start, &pal.text, "strata-legend-label"));
+        }
+    }
+    wrap_legend(l, kids)
+}
+
+fn wrap_legend(l: &Legend, kids: Vec<Node>) -> Node {
+    let what = match l.channel {
+        "size" => "size",
+        "shape" => "shape",
+        _ => "colour",
+    };
+    let label = if l.title.is_empty() { format!("{what} legend") } else { format!("{what} legend: {}", l.title) };
+    Node::Group { class: format!("strata-legend strata-legend-{}", l.channel), role: Some("list".into()), label: Some(label), children: kids }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::format;
+
+    #[test]
+    fn crowded_categories_thin_then_rotate_then_shorten() {
+        let cats: Vec<String> = (0..12).map(|i| format!("Orchard block number {i}")).collect();
+        let s = PositionScale::Category { values: cats, padding: 0.1 };
+        let en = format::english();
+        // Wide: every label fits as is.
+        let (t, a) = bottom_ticks(&s, 4000.0, 6, None, en, 80.0);
+        assert_eq!((t.len(), a), (12, 0.0));
+        // Narrower: every other label.
+        let (t, a) = bottom_ticks(&s, 1500.0, 6, None, en, 80.0);
+        assert_eq!((t.len(), a), (6, 0.0));
+        // Narrow: rotated, and cut to fit the height allowance.
+        let (t, a) = bottom_ticks(&s, 400.0, 6, None, en, 60.0);
+        assert_eq!(a, ROTATION);
+        assert_eq!(t.len(), 12);
+        let max_w = 60.0 / (-ROTATION).to_radians().sin();
+        assert!(t.iter().all(|t| text::width(&t.label, TICK_SIZE, false) <= max_w + 1e-9 && t.label.ends_with('\u{2026}')));
+    }
+
+    #[test]
+    fn crowded_numbers_get_fewer_ticks() {
+        let s = PositionScale::linear(0.0, 1_000_000.0);
+        let en = format::english();
+        let (wide, _) = bottom_ticks(&s, 800.0, 10, None, en, 80.0);
+        let (narrow, a) = bottom_ticks(&s, 150.0, 10, None, en, 80.0);
+        assert!(narrow.len() < wide.len() && a == 0.0);
+        assert!(fits_across(&narrow, 150.0));
+    }
 }

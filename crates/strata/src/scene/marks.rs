@@ -6,7 +6,6 @@
 
 use super::coord::{path_d, Area, Coord};
 use super::{Anchor, Datum, Node, Paint};
-use crate::color;
 use crate::plan::{ColorScale, PlannedLayer, Scales, Values};
 use crate::scale::PositionScale;
 use crate::spec::{Arrange, Geometry};
@@ -26,20 +25,8 @@ fn datum(layer: &PlannedLayer, i: usize) -> Datum {
 }
 
 fn color_of(ctx: &Ctx, layer: &PlannedLayer, i: usize) -> String {
-    if let (Some(vals), Some(scale)) = (layer.data.get("color"), &ctx.scales.color) {
-        match scale {
-            ColorScale::Categories(cats) => {
-                if let Some(k) = vals.key(i).and_then(|k| cats.iter().position(|c| *c == k)) {
-                    return color::category(k).to_string();
-                }
-            }
-            ColorScale::Ramp { lo, hi } => {
-                if let Some(v) = vals.num(i) {
-                    let t = if hi > lo { (v - lo) / (hi - lo) } else { 0.5 };
-                    return color::ramp(t);
-                }
-            }
-        }
+    if let Some(c) = layer.data.get("color").and_then(|vals| ctx.scales.color_of(vals, i)) {
+        return c;
     }
     layer.style.color.clone().unwrap_or_else(|| ctx.default_color.to_string())
 }
@@ -119,6 +106,12 @@ fn points(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         let (cx, cy) = ctx.coord.point(ux, uy);
         let mut paint = Paint::fill(&c);
         paint.opacity = layer.style.opacity;
+        // Size and shape scales (plan/scales.rs): area-true radius, shape by category.
+        let r = layer.data.get("size").and_then(|v| ctx.scales.radius_of(v, i)).unwrap_or(r);
+        if let Some(k) = layer.data.get("shape").and_then(|v| ctx.scales.shape_of(v, i)) {
+            out.push(Node::Path { d: crate::scale::shape_path(k, cx, cy, r), paint, datum: Some(datum(layer, i)) });
+            continue;
+        }
         out.push(Node::Circle { cx, cy, r, paint, datum: Some(datum(layer, i)) });
     }
     out

@@ -9,7 +9,7 @@ mod coord;
 mod guides;
 mod marks;
 
-pub use build::{build, SceneOptions};
+pub use build::{build, chart_size, SceneOptions, TITLE_SIZE};
 
 use indexmap::IndexMap;
 use serde::Serialize;
@@ -27,6 +27,9 @@ pub struct Scene {
     pub description: String,
     pub font_family: String,
     pub background: String,
+    /// Theme classes for the SVG root (`strata-light`, `strata-dark`,
+    /// `strata-auto`, `strata-own-<slot>`), read by `www/strata-theme.css`.
+    pub classes: String,
     pub children: Vec<Node>,
 }
 

@@ -64,6 +64,9 @@ pub struct Spec {
     /// Lint warnings silenced on purpose, by code (`lint.log_bars`, ...).
     #[serde(default, skip_serializing_if = "Vec::is_empty")]
     pub quiet: Vec<String>,
+    /// BCP 47 language tag for number and date labels (`en`, `de`, `fr`, `es`).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub locale: Option<String>,
 }
 
 // ---------------------------------------------------------------- data

@@ -140,10 +140,10 @@ mod tests {
         assert_eq!(e[1].at.path, "coords.angle");
         let e = errs(r#"{"layers":[{"draw":"bar","x":3}]}"#);
         assert_eq!(e[0].message, "expected a column name, or an object, found the number 3");
-        let e = errs(r#"{"layers":[{"draw":"bar","stat":{"window":2.5}}]}"#);
-        assert_eq!(e[0].at.path, "layers[0].stat.window");
+        let e = errs(r#"{"layers":[{"draw":"bar","stat":{"window":{"rows":2.5}}}]}"#);
+        assert_eq!(e[0].at.path, "layers[0].stat.window.rows");
         assert!(e[0].hint.as_deref().unwrap().contains("whole number"));
-        assert!(parse_spec(r##"{"layers":[{"draw":"bar","stat":{"window":{"size":7,"align":"end"}}}],"coords":"polar","theme":{"text":"#000"}}"##).is_ok());
+        assert!(parse_spec(r##"{"layers":[{"draw":"bar","stat":{"window":{"rows":7,"align":"trailing"}}}],"coords":"polar","theme":{"text":"#000"}}"##).is_ok());
     }
 
     #[test]

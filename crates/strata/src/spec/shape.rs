@@ -76,12 +76,15 @@ pub const CHANNELS: &[&str] = &["x", "y", "x_end", "y_end", "color", "size", "sh
 pub const COLUMN_TYPES: &[&str] = &["number", "text", "date", "bool"];
 pub const DATA_FORMATS: &[&str] = &["csv", "tsv", "arrow", "json"];
 pub const STAT_WORDS: &[&str] = &["identity", "count", "box"];
-pub const SUMMARIES: &[&str] = &["mean", "median", "sum", "min", "max", "count"];
-pub const INTERVALS: &[&str] = &["ci95", "ci90", "ci99", "sd", "se", "range"];
+pub const SUMMARIES: &[&str] = &["mean", "median", "sum", "min", "max", "count", "quantile", "standard_deviation"];
+pub const INTERVALS: &[&str] = &["ci95", "ci90", "ci99", "ci80", "standard_error", "min_max", "wilson"];
 pub const FITS: &[&str] = &["linear", "loess"];
-pub const BIN_RULES: &[&str] = &["fd", "scott", "sturges", "sqrt"];
+pub const BIN_RULES: &[&str] = &["fd", "scott", "sturges", "sqrt", "rice", "doane"];
+pub const BIN_UNITS: &[&str] = &["day", "week", "month", "quarter", "year"];
+pub const WINDOW_SUMMARIES: &[&str] = &["mean", "sum", "running_total"];
+pub const LOCALES: &[&str] = &["en", "de", "fr", "es"];
 pub const BANDWIDTHS: &[&str] = &["scott", "silverman"];
-pub const WINDOW_ALIGN: &[&str] = &["center", "end"];
+pub const WINDOW_ALIGN: &[&str] = &["center", "trailing"];
 pub const ARRANGES: &[&str] = &["none", "stack", "beside", "proportion", "jitter"];
 pub const SCALE_KINDS: &[&str] = &["linear", "log", "sqrt", "symlog", "time", "category"];
 pub const PLACEMENTS: &[&str] = &["top", "bottom", "left", "right", "none"];
@@ -131,22 +134,21 @@ pub fn spec_shape() -> Shape {
         ]),
     ]);
     let bin = obj(vec![
-        f("rule", Shape::Word(BIN_RULES), "How to choose the bin width: fd (Freedman-Diaconis, default), scott, sturges, sqrt."),
+        f("rule", Shape::Word(BIN_RULES), "How to choose the bin width: fd (Freedman-Diaconis, default), scott, sturges, sqrt, rice, doane."),
         f("width", num(Some(0.0), None), "Bin width in data units; overrides the rule."),
         f("count", count(1), "Wanted number of bins; overrides the rule."),
         f("boundary", num(None, None), "A value that falls on a bin edge."),
+        f("unit", Shape::Word(BIN_UNITS), "For dates: bin by calendar day, week, month, quarter or year."),
+        f("density", Shape::Bool, "Bar heights as a density (count / (n x width)) instead of counts."),
     ]);
-    let density = Shape::Either(vec![
-        Shape::Word(BANDWIDTHS),
-        obj(vec![f("bandwidth", Shape::Either(vec![Shape::Word(BANDWIDTHS), num(Some(0.0), None)]), "scott (default), silverman, or a number in data units.")]),
+    let density = obj(vec![
+        f("bandwidth", Shape::Either(vec![Shape::Word(BANDWIDTHS), num(Some(0.0), None)]), "scott (default), silverman, or a number in data units."),
+        f("grid", count(2), "Points at which the density is evaluated (default 512)."),
     ]);
-    let window = Shape::Either(vec![
-        count(1),
-        obj(vec![
-            req("size", count(1), "Rows in the window."),
-            f("summary", Shape::Word(SUMMARIES), "What to compute over the window (default mean)."),
-            f("align", Shape::Word(WINDOW_ALIGN), "Window centred on the row (center, default) or ending at it (end)."),
-        ]),
+    let window = obj(vec![
+        f("summary", Shape::Word(WINDOW_SUMMARIES), "mean (default) or sum over the window, or running_total."),
+        f("rows", count(1), "Rows in the window (for mean and sum)."),
+        f("align", Shape::Word(WINDOW_ALIGN), "Window centred on the row (center, default) or ending at it (trailing)."),
     ]);
     let stat = Shape::Either(vec![
         Shape::Word(STAT_WORDS),
@@ -157,6 +159,10 @@ pub fn spec_shape() -> Shape {
                 f("interval", Shape::Word(INTERVALS), "With summary: an interval around it (ci95, ci90, ci99, sd, se, range)."),
                 f("fit", Shape::Word(FITS), "Fit a curve of y on x: linear or loess."),
                 f("band", num(Some(0.0), Some(1.0)), "With fit: confidence level of the band, such as 0.95."),
+                f("p", num(Some(0.0), Some(1.0)), "With summary quantile: the probability, such as 0.9."),
+                f("span", num(Some(0.0), Some(1.0)), "With fit loess: the share of points in each local fit (default 0.75)."),
+                f("degree", Shape::Integer { min: 1, max: 2 }, "With fit loess: local polynomial degree, 1 or 2 (default 2)."),
+                f("robust", Shape::Either(vec![Shape::Bool, count(0)]), "With fit loess: true (3 robustness iterations) or a number of iterations."),
                 f("density", density, "Kernel density estimate of x."),
                 f("window", window, "Running summary over neighbouring rows, in x order."),
             ],
@@ -172,6 +178,7 @@ pub fn spec_shape() -> Shape {
         f("band", num(Some(0.0), Some(1.0)), "Fraction of a band a bar fills, 0 to 1."),
         f("shape", Shape::Word(POINT_SHAPES), "Shape of points: circle, square, triangle, diamond, plus, cross."),
         f("font_size", num(Some(0.0), None), "Text size of labels in pixels."),
+        f("every_point", Shape::Bool, "Draw every point even when a scatter is crowded enough to be binned into tiles."),
     ]);
     let mut layer_fields = vec![req("draw", Shape::Word(GEOMETRIES), "The geometry.")];
     for ch in CHANNELS {
@@ -257,6 +264,7 @@ pub fn spec_shape() -> Shape {
         f("size", size, "The chart's size."),
         f("theme", theme, "light, dark, auto (default: follows the reader's preference), or overrides."),
         f("quiet", list(Shape::Word(LINT_CODES)), "Lint warnings silenced on purpose, by code."),
+        f("locale", Shape::Word(LOCALES), "Language of number and date labels: en (default), de, fr, es."),
     ])
 }
 

@@ -4,6 +4,16 @@
 //! page with a strict Content-Security-Policy can host it; every text and
 //! attribute escaped; numbers to two decimals; ids derived from the content
 //! so that two charts on a page never clash and output is reproducible.
+//!
+//! Roles follow the WAI-ARIA Graphics Module (W3C 2018): the root is a
+//! `graphics-document`, panels and layers `graphics-object`, data marks
+//! `graphics-symbol` with a label naming their values (for charts of up to
+//! [`LABELLED_MARKS`] marks, to keep large charts small). Classes on the root
+//! (`strata-light`, `strata-dark`, `strata-auto`) and on groups and texts let
+//! `www/strata-theme.css` restyle a chart through `--strata-*` properties.
+
+/// Charts with at most this many data marks label each mark for screen readers.
+pub const LABELLED_MARKS: usize = 500;
 
 use crate::scene::{Anchor, Node, Paint, Scene};
 use std::fmt::Write;
@@ -74,7 +84,28 @@ fn paint(out: &mut String, p: &Paint) {
     }
 }
 
-fn node(out: &mut String, n: &Node, depth: usize) {
+/// `role` and `aria-label` of a data mark: its values, "x: Jan, y: 82".
+fn mark_label(out: &mut String, datum: &Option<crate::scene::Datum>, labelled: bool) {
+    let Some(d) = datum else { return };
+    if !labelled {
+        return;
+    }
+    let parts: Vec<String> = d
+        .iter()
+        .map(|(k, v)| {
+            let v = match v {
+                serde_json::Value::String(s) => s.clone(),
+                serde_json::Value::Number(n) => n.as_f64().map(crate::format::value_label).unwrap_or_default(),
+                serde_json::Value::Null => "missing".into(),
+                other => other.to_string(),
+            };
+            format!("{k}: {v}")
+        })
+        .collect();
+    let _ = write!(out, " role=\"graphics-symbol\" aria-label=\"{}\"", escape(&parts.join(", ")));
+}
+
+fn node(out: &mut String, n: &Node, depth: usize, labelled: bool) {
     let indent = "  ".repeat(depth);
     out.push_str(&indent);
     match n {
@@ -92,19 +123,21 @@ fn node(out: &mut String, n: &Node, depth: usize) {
             }
             out.push_str(">\n");
             for c in children {
-                node(out, c, depth + 1);
+                node(out, c, depth + 1, labelled);
             }
             out.push_str(&indent);
             out.push_str("</g>\n");
         }
-        Node::Rect { x, y, width, height, paint: p, .. } => {
+        Node::Rect { x, y, width, height, paint: p, datum } => {
             let _ = write!(out, "<rect x=\"{}\" y=\"{}\" width=\"{}\" height=\"{}\"", num(*x), num(*y), num(*width), num(*height));
             paint(out, p);
+            mark_label(out, datum, labelled);
             out.push_str("/>\n");
         }
-        Node::Circle { cx, cy, r, paint: p, .. } => {
+        Node::Circle { cx, cy, r, paint: p, datum } => {
             let _ = write!(out, "<circle cx=\"{}\" cy=\"{}\" r=\"{}\"", num(*cx), num(*cy), num(*r));
             paint(out, p);
+            mark_label(out, datum, labelled);
             out.push_str("/>\n");
         }
         Node::Line { x1, y1, x2, y2, paint: p } => {
@@ -112,9 +145,10 @@ fn node(out: &mut String, n: &Node, depth: usize) {
             paint(out, p);
             out.push_str("/>\n");
         }
-        Node::Path { d, paint: p, .. } => {
+        Node::Path { d, paint: p, datum } => {
             let _ = write!(out, "<path d=\"{}\"", escape(d));
             paint(out, p);
+            mark_label(out, datum, labelled);
             out.push_str("/>\n");
         }
         Node::Text { x, y, text, size, anchor, bold, angle, fill, class } => {
@@ -140,17 +174,19 @@ fn node(out: &mut String, n: &Node, depth: usize) {
 pub fn write(scene: &Scene) -> String {
     let mut body = String::with_capacity(4096);
     let _ = writeln!(body, "  <rect class=\"strata-background\" width=\"{}\" height=\"{}\" fill=\"{}\"/>", num(scene.width), num(scene.height), escape(&scene.background));
+    let labelled = scene.marks().len() <= LABELLED_MARKS;
     for c in &scene.children {
-        node(&mut body, c, 1);
+        node(&mut body, c, 1, labelled);
     }
     let id = format!("strata-{:08x}", fnv1a(format!("{}\u{0}{}\u{0}{}", scene.label, scene.description, body).as_bytes()) as u32);
     let mut out = String::with_capacity(body.len() + 512);
     let _ = write!(
         out,
-        "<svg xmlns=\"http://www.w3.org/2000/svg\" class=\"strata\" width=\"{w}\" height=\"{h}\" viewBox=\"0 0 {w} {h}\" role=\"graphics-document document\" aria-roledescription=\"chart\" aria-labelledby=\"{id}-title\" aria-describedby=\"{id}-desc\" font-family=\"{f}\">\n",
+        "<svg xmlns=\"http://www.w3.org/2000/svg\" class=\"{c}\" width=\"{w}\" height=\"{h}\" viewBox=\"0 0 {w} {h}\" role=\"graphics-document document\" aria-roledescription=\"chart\" aria-labelledby=\"{id}-title\" aria-describedby=\"{id}-desc\" font-family=\"{f}\">\n",
         w = num(scene.width),
         h = num(scene.height),
         f = escape(&scene.font_family),
+        c = escape(format!("strata {}", scene.classes).trim()),
     );
     let _ = writeln!(out, "  <title id=\"{id}-title\">{}</title>", escape(&scene.label));
     let _ = writeln!(out, "  <desc id=\"{id}-desc\">{}</desc>", escape(&scene.description));
@@ -175,5 +211,74 @@ mod tests {
     #[test]
     fn text_is_escaped() {
         assert_eq!(escape("<script>&\"'"), "&lt;script&gt;&amp;&quot;&#39;");
+    }
+}
+
+#[cfg(test)]
+mod document_tests {
+    use crate::{render, RenderOptions};
+
+    fn chart(extra: &str) -> String {
+        let spec = format!(
+            r#"{{ "title": "Rain <b>&amp</b> \"sun\"", "data": {{ "rows": [
+                {{"m": "Jan", "v": 3.25, "g": "North <pier>"}}, {{"m": "Feb", "v": 7.5, "g": "South"}}, {{"m": "Mar", "v": 1.125, "g": "North <pier>"}} ] }},
+                "layers": [ {{ "draw": "bar", "x": "m", "y": "v", "color": "g" }} ] {extra} }}"#
+        );
+        render(&spec, None, &RenderOptions::default()).unwrap().svg
+    }
+
+    #[test]
+    fn strict_csp_and_escaping() {
+        let svg = chart("");
+        // Presentation attributes only: nothing a strict style-src would block.
+        assert!(!svg.contains("style=") && !svg.contains("<style"), "{svg}");
+        assert!(!svg.contains("<b>") && !svg.contains("<pier>"));
+        assert!(svg.contains("Rain &lt;b&gt;&amp;amp&lt;/b&gt; &quot;sun&quot;"));
+        assert!(svg.contains("North &lt;pier&gt;"));
+    }
+
+    #[test]
+    fn coordinates_have_at_most_two_decimals() {
+        let svg = chart("");
+        for attr in [" x=\"", " y=\"", " width=\"", " height=\"", " x1=\"", " y1=\"", " cx=\"", " cy=\""] {
+            for part in svg.split(attr).skip(1) {
+                let v = &part[..part.find('"').unwrap()];
+                if let Some((_, frac)) = v.split_once('.') {
+                    assert!(frac.len() <= 2, "{attr}{v}");
+                }
+            }
+        }
+    }
+
+    #[test]
+    fn deterministic_ids_and_roles() {
+        let a = chart("");
+        assert_eq!(a, chart(""), "same input, same bytes");
+        let b = chart(r#", "subtitle": "another chart""#);
+        let id = |s: &str| s.split("aria-labelledby=\"").nth(1).unwrap().split('"').next().unwrap().to_string();
+        assert_ne!(id(&a), id(&b), "different charts, different ids");
+        // WAI-ARIA Graphics Module roles: document, objects per panel and layer, symbols per mark.
+        assert!(a.contains("role=\"graphics-document document\""));
+        assert!(a.contains("class=\"strata-panel\" role=\"graphics-object\""));
+        assert!(a.contains("class=\"strata-layer strata-bar\" role=\"graphics-object\" aria-label=\"layer 1: 3 bars\""));
+        assert_eq!(a.matches("role=\"graphics-symbol\"").count(), 3);
+        assert!(a.contains("aria-label=\"x: Jan, y: 3.25, color: North &lt;pier&gt;\""));
+        // Title and the automatic description.
+        assert!(a.contains("<title id=\"") && a.contains("<desc id=\""));
+        assert!(a.contains("Bar chart of v against m, in 2 groups by g"));
+    }
+
+    #[test]
+    fn description_from_the_spec_wins() {
+        let svg = chart(r#", "description": "Written by hand.""#);
+        assert!(svg.contains(">Written by hand.</desc>"));
+    }
+
+    #[test]
+    fn theme_classes() {
+        assert!(chart("").contains("class=\"strata strata-auto\""));
+        assert!(chart(r#", "theme": "dark""#).contains("class=\"strata strata-dark\""));
+        let own = chart(r##", "theme": { "base": "dark", "grid": "#333333" }"##);
+        assert!(own.contains("class=\"strata strata-dark strata-own-grid\"") && own.contains("stroke=\"#333333\""));
     }
 }

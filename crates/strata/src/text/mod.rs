@@ -1,47 +1,85 @@
 //! Text measurement, the same on every platform so that the CLI and the
-//! browser lay a chart out alike.
-//!
-//! Provisional: widths by character class, in ems, estimated for a
-//! humanist sans-serif (value from memory, not from a font file).
+//! browser lay a chart out alike: the advance widths of the bundled font,
+//! Open Sans 1.10 (fonts/, Apache-2.0), generated into `widths.rs` by
+//! `tests/reference/gen/font_metrics.py`. Kerning is not applied (the
+//! SVG's text may differ from the sum of advances by kerning, a fraction of
+//! a pixel per pair).
 
-/// The font stack the SVG names.
-pub const FONT_FAMILY: &str = "system-ui, -apple-system, 'Segoe UI', Roboto, sans-serif";
+pub mod widths;
+
+use widths::{ADVANCES, CAP_HEIGHT, UNITS_PER_EM};
+
+/// The font stack the SVG names: the bundled font first.
+pub const FONT_FAMILY: &str = "Open Sans, Segoe UI, Helvetica Neue, Arial, sans-serif";
+
+/// The family name of the bundled font.
+pub const BUNDLED_FAMILY: &str = "Open Sans";
+
+/// Line height as a multiple of the font size.
+pub const LINE_HEIGHT: f64 = 1.25;
+/// Cap height as a fraction of the font size (OS/2 sCapHeight).
+pub const CAP: f64 = CAP_HEIGHT / UNITS_PER_EM;
+/// Distance from the top of a line box to the baseline, as a fraction of
+/// size: capitals sit centred in the line box.
+pub const ASCENT: f64 = (LINE_HEIGHT + CAP) / 2.0;
+
+fn lookup(c: char) -> Option<(u16, u16)> {
+    let cp = c as u32;
+    ADVANCES.binary_search_by_key(&cp, |r| r.0).ok().map(|i| (ADVANCES[i].1, ADVANCES[i].2))
+}
 
 /// Advance width in em of one character.
-fn advance(c: char) -> f64 {
+pub fn advance(c: char, bold: bool) -> f64 {
+    let pick = |(r, b): (u16, u16)| if bold { b } else { r } as f64 / UNITS_PER_EM;
+    if let Some(a) = lookup(c) {
+        return pick(a);
+    }
     match c {
-        'i' | 'j' | 'l' | '.' | ',' | ':' | ';' | '\'' | '|' | '!' => 0.26,
-        'f' | 't' | 'r' | 'I' | '(' | ')' | '[' | ']' | ' ' | '-' => 0.33,
-        'm' | 'w' | 'M' | 'W' => 0.84,
-        '0'..='9' => 0.56,
-        'A'..='Z' => 0.66,
-        '\u{2212}' | '+' | '=' | '<' | '>' => 0.58,
-        _ => 0.52,
+        // Narrow no-break space (French grouping): not in the font; as a thin space.
+        '\u{202f}' => lookup('\u{2009}').map(pick).unwrap_or(0.2),
+        // Zero-width characters.
+        '\u{200b}'..='\u{200d}' | '\u{2060}' | '\u{feff}' => 0.0,
+        // Wide scripts (CJK, Hangul, full-width forms) take about an em.
+        '\u{1100}'..='\u{115f}' | '\u{2e80}'..='\u{a4cf}' | '\u{ac00}'..='\u{d7a3}' | '\u{f900}'..='\u{faff}' | '\u{ff00}'..='\u{ff60}' => 1.0,
+        // Anything else: the width of a lower-case 'o'.
+        _ => lookup('o').map(pick).unwrap_or(0.55),
     }
 }
 
-/// Width in pixels of `text` at `size` px; bold text is about 6 % wider.
+/// Width in pixels of `text` at `size` px.
 pub fn width(text: &str, size: f64, bold: bool) -> f64 {
-    let em: f64 = text.chars().map(advance).sum();
-    em * size * if bold { 1.06 } else { 1.0 }
+    let em: f64 = text.chars().map(|c| advance(c, bold)).sum();
+    em * size
 }
 
-/// Distance from the top of a line box to the baseline, as a fraction of size.
-pub const ASCENT: f64 = 0.8;
-/// Line height as a multiple of the font size.
-pub const LINE_HEIGHT: f64 = 1.25;
-
-/// Break `text` into lines no wider than `max_width` px (greedy, at spaces).
+/// Break `text` into lines no wider than `max_width` px: greedy at spaces;
+/// a word wider than the line is cut between characters.
 pub fn wrap(text: &str, size: f64, bold: bool, max_width: f64) -> Vec<String> {
     let mut lines = Vec::new();
     let mut cur = String::new();
     for word in text.split_whitespace() {
         let candidate = if cur.is_empty() { word.to_string() } else { format!("{cur} {word}") };
-        if !cur.is_empty() && width(&candidate, size, bold) > max_width {
-            lines.push(std::mem::take(&mut cur));
-            cur = word.to_string();
-        } else {
+        if width(&candidate, size, bold) <= max_width {
             cur = candidate;
+            continue;
+        }
+        if !cur.is_empty() {
+            lines.push(std::mem::take(&mut cur));
+        }
+        if width(word, size, bold) <= max_width {
+            cur = word.to_string();
+            continue;
+        }
+        // Cut an over-long word.
+        for ch in word.chars() {
+            let mut next = cur.clone();
+            next.push(ch);
+            if !cur.is_empty() && width(&next, size, bold) > max_width {
+                lines.push(std::mem::take(&mut cur));
+                cur.push(ch);
+            } else {
+                cur = next;
+            }
         }
     }
     if !cur.is_empty() {
@@ -50,16 +88,71 @@ pub fn wrap(text: &str, size: f64, bold: bool, max_width: f64) -> Vec<String> {
     lines
 }
 
+/// `text`, cut with an ellipsis so that it fits `max_width` px.
+pub fn fit(text: &str, size: f64, bold: bool, max_width: f64) -> String {
+    if width(text, size, bold) <= max_width {
+        return text.to_string();
+    }
+    let ell = width("\u{2026}", size, bold);
+    let mut out = String::new();
+    let mut w = 0.0;
+    for c in text.chars() {
+        let a = advance(c, bold) * size;
+        if w + a + ell > max_width {
+            break;
+        }
+        out.push(c);
+        w += a;
+    }
+    let mut out = out.trim_end().to_string();
+    out.push('\u{2026}');
+    out
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[derive(serde::Deserialize)]
+    struct Case {
+        text: String,
+        weight: String,
+        units: f64,
+        units_per_em: f64,
+    }
+    #[derive(serde::Deserialize)]
+    struct Fixture {
+        cases: Vec<Case>,
+    }
+
+    /// Sums of hmtx advances read by fontTools 4.68.0 from the bundled font
+    /// files (tests/reference/gen/font_metrics.py).
+    #[test]
+    fn widths_match_the_font_files() {
+        let f: Fixture = serde_json::from_str(include_str!("../../../../tests/reference/fixtures/format/text_widths.json")).unwrap();
+        assert_eq!(f.cases.len(), 16);
+        for c in &f.cases {
+            let got = width(&c.text, c.units_per_em, c.weight == "bold");
+            assert!((got - c.units).abs() < 1e-9, "{:?} {}: {got} vs {}", c.text, c.weight, c.units);
+        }
+    }
 
     #[test]
     fn wrap_respects_width() {
         let lines = wrap("a fairly long title that must wrap somewhere", 16.0, true, 150.0);
         assert!(lines.len() > 1);
         for l in &lines {
-            assert!(width(l, 16.0, true) <= 150.0 || !l.contains(' '));
+            assert!(width(l, 16.0, true) <= 150.0);
         }
+        assert_eq!(lines.join(" "), "a fairly long title that must wrap somewhere");
+        let cut = wrap("Supercalifragilistic", 16.0, false, 60.0);
+        assert!(cut.len() > 1 && cut.iter().all(|l| width(l, 16.0, false) <= 60.0));
+    }
+
+    #[test]
+    fn fit_adds_an_ellipsis() {
+        let s = fit("Northern lighthouse gate", 12.0, false, 60.0);
+        assert!(s.ends_with('\u{2026}') && width(&s, 12.0, false) <= 60.0);
+        assert_eq!(fit("Cox", 12.0, false, 60.0), "Cox");
     }
 }

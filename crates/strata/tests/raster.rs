@@ -1,0 +1,223 @@
+//! Rasterise rendered charts with resvg (0.49.0, the bundled font loaded
+//! explicitly) and check that known data values land on the expected pixel
+//! rows and columns, within one pixel. The expected positions come from the
+//! picture itself (grid lines and the axis line found by colour), not from
+//! the engine's own numbers.
+
+use resvg::{tiny_skia, usvg};
+use strata::{render, RenderOptions};
+
+fn options() -> usvg::Options<'static> {
+    let mut opt = usvg::Options::default();
+    let db = opt.fontdb_mut();
+    db.load_font_data(include_bytes!("../../../fonts/OpenSans-Regular.ttf").to_vec());
+    db.load_font_data(include_bytes!("../../../fonts/OpenSans-Bold.ttf").to_vec());
+    db.set_sans_serif_family("Open Sans");
+    opt.font_family = "Open Sans".into();
+    opt
+}
+
+struct Picture {
+    pix: tiny_skia::Pixmap,
+}
+
+impl Picture {
+    fn new(svg: &str) -> Picture {
+        let tree = usvg::Tree::from_str(svg, &options()).expect("svg parses");
+        let size = tree.size().to_int_size();
+        let mut pix = tiny_skia::Pixmap::new(size.width(), size.height()).unwrap();
+        resvg::render(&tree, tiny_skia::Transform::identity(), &mut pix.as_mut());
+        Picture { pix }
+    }
+    fn rgb(&self, x: u32, y: u32) -> [f64; 3] {
+        let p = self.pix.pixel(x, y).unwrap().demultiply();
+        [p.red() as f64, p.green() as f64, p.blue() as f64]
+    }
+    /// How much of colour `c` (over white) pixel (x, y) holds, 0..1, read
+    /// on the channel where `c` differs most from white.
+    fn coverage(&self, x: u32, y: u32, c: [f64; 3]) -> f64 {
+        let k = (0..3).max_by(|a, b| (255.0 - c[*a]).total_cmp(&(255.0 - c[*b]))).unwrap();
+        let p = self.rgb(x, y);
+        let f = ((255.0 - p[k]) / (255.0 - c[k])).clamp(0.0, 1.0);
+        // Only blends of white and c count (grey lines and text do not).
+        let blend = (0..3).all(|j| (p[j] - (255.0 - f * (255.0 - c[j]))).abs() <= 12.0);
+        if blend { f } else { 0.0 }
+    }
+    /// Is the pixel close to colour c?
+    fn near(&self, x: u32, y: u32, c: [f64; 3], tol: f64) -> bool {
+        let p = self.rgb(x, y);
+        (0..3).all(|k| (p[k] - c[k]).abs() <= tol)
+    }
+}
+
+fn hex(s: &str) -> [f64; 3] {
+    let v = u32::from_str_radix(&s[1..], 16).unwrap();
+    [(v >> 16) as f64, ((v >> 8) & 255) as f64, (v & 255) as f64]
+}
+
+/// Centres of runs of non-white rows in column x (weighted by darkness).
+fn line_rows(p: &Picture, x: u32, y0: u32, y1: u32) -> Vec<f64> {
+    let mut out = Vec::new();
+    let mut run: Vec<(u32, f64)> = Vec::new();
+    for y in y0..y1 {
+        let d = 255.0 - p.rgb(x, y).iter().cloned().fold(255.0, f64::min);
+        if d > 4.0 {
+            run.push((y, d));
+        } else if !run.is_empty() {
+            let w: f64 = run.iter().map(|r| r.1).sum();
+            out.push(run.iter().map(|r| (r.0 as f64 + 0.5) * r.1).sum::<f64>() / w);
+            run.clear();
+        }
+    }
+    out
+}
+
+#[test]
+fn bars_land_on_their_values() {
+    let spec = r#"{
+      "data": { "rows": [ {"k": "a", "v": 25}, {"k": "b", "v": 50}, {"k": "c", "v": 100} ] },
+      "layers": [ { "draw": "bar", "x": "k", "y": "v" } ],
+      "scales": { "y": { "domain": [0, 100] } },
+      "size": { "width": 600, "height": 400 },
+      "theme": "light"
+    }"#;
+    let r = render(spec, None, &RenderOptions::default()).unwrap();
+    let p = Picture::new(&r.svg);
+    let bar = hex(strata::color::HARBOUR[0]);
+    // A column right of the last bar holds only grid lines (thin runs).
+    let gap_x = (300..600u32)
+        .rev()
+        .find(|x| {
+            let runs = line_rows(&p, *x, 0, 400);
+            runs.len() >= 3 && (0..400).all(|y| p.coverage(*x, y, bar) < 0.9)
+        })
+        .expect("a grid-only column");
+    let rows = line_rows(&p, gap_x, 0, 400);
+    assert!(rows.len() >= 3, "grid lines {rows:?}");
+    let (y100, y0) = (rows[0], *rows.last().unwrap());
+    // Plot edges from a middle grid line: right, its last ink; left, the
+    // start of the ink run that reaches the gap column (labels stand apart).
+    let gy = rows[rows.len() / 2].floor() as u32;
+    let dark = |x: u32| 255.0 - p.rgb(x, gy).iter().cloned().fold(255.0, f64::min) > 4.0;
+    let right = (0..600).rev().find(|x| dark(*x)).unwrap() as f64 + 1.0;
+    let mut x = gap_x;
+    while x > 0 && (dark(x - 1) || dark(x.saturating_sub(2))) {
+        x -= 1;
+    }
+    let left = x as f64;
+    let width = right - left;
+    // Evenly spaced grid lines (a linear axis).
+    let step = (y0 - y100) / (rows.len() - 1) as f64;
+    for (i, y) in rows.iter().enumerate() {
+        assert!((y - (y100 + step * i as f64)).abs() <= 1.0, "grid line {i} at {y}");
+    }
+    for (i, v) in [25.0, 50.0, 100.0].iter().enumerate() {
+        // Column through the middle of band i.
+        let cx = left + width * (i as f64 + 0.5) / 3.0;
+        let col = cx.round() as u32;
+        let height: f64 = (0..400).map(|y| p.coverage(col, y, bar)).filter(|c| *c > 0.02).sum();
+        let want = (y0 - y100) * v / 100.0;
+        assert!((height - want).abs() <= 1.0, "bar {i}: {height} px tall, want {want}");
+        // The bar's top edge row.
+        let top_row = (0..400).find(|y| p.coverage(col, *y, bar) > 0.5).unwrap() as f64;
+        let want_top = y0 - want;
+        assert!((top_row - want_top).abs() <= 1.0, "bar {i}: top {top_row}, want {want_top}");
+        // Horizontal centre of the bar at mid-height.
+        let y = (y0 - want / 2.0).round() as u32;
+        let xs: Vec<u32> = (0..600).filter(|x| p.coverage(*x, y, bar) > 0.5).filter(|x| ((*x as f64) - cx).abs() < width / 6.0).collect();
+        let centre = (xs[0] as f64 + *xs.last().unwrap() as f64 + 1.0) / 2.0;
+        assert!((centre - cx).abs() <= 1.0, "bar {i}: centre {centre}, want {cx}");
+    }
+}
+
+#[test]
+fn points_on_a_log_axis_land_on_their_values() {
+    // 1, 10, 100 on a log x axis: 10 sits midway; y linear 0..10.
+    let spec = r#"{
+      "data": { "rows": [ {"x": 1, "y": 2}, {"x": 10, "y": 5}, {"x": 100, "y": 8} ] },
+      "layers": [ { "draw": "point", "x": "x", "y": "y", "style": { "radius": 4 } } ],
+      "scales": { "x": { "kind": "log", "domain": [1, 100] }, "y": { "domain": [0, 10] } },
+      "size": { "width": 500, "height": 400 },
+      "theme": "light"
+    }"#;
+    let r = render(spec, None, &RenderOptions::default()).unwrap();
+    let p = Picture::new(&r.svg);
+    let c = hex(strata::color::HARBOUR[0]);
+    // Blobs of the mark colour: centroids.
+    let mut seen = vec![false; 500 * 400];
+    let mut blobs: Vec<(f64, f64)> = Vec::new();
+    for y in 0..400u32 {
+        for x in 0..500u32 {
+            if seen[(y * 500 + x) as usize] || p.coverage(x, y, c) < 0.5 || !p.near(x, y, c, 60.0) {
+                continue;
+            }
+            let mut stack = vec![(x, y)];
+            let (mut sx, mut sy, mut n) = (0.0, 0.0, 0.0);
+            while let Some((a, b)) = stack.pop() {
+                if a >= 500 || b >= 400 || seen[(b * 500 + a) as usize] || p.coverage(a, b, c) < 0.5 || !p.near(a, b, c, 60.0) {
+                    continue;
+                }
+                seen[(b * 500 + a) as usize] = true;
+                sx += a as f64 + 0.5;
+                sy += b as f64 + 0.5;
+                n += 1.0;
+                stack.extend([(a + 1, b), (a.wrapping_sub(1), b), (a, b + 1), (a, b.wrapping_sub(1))]);
+            }
+            if n > 10.0 {
+                blobs.push((sx / n, sy / n));
+            }
+        }
+    }
+    blobs.sort_by(|a, b| a.0.total_cmp(&b.0));
+    assert_eq!(blobs.len(), 3, "{blobs:?}");
+    // x: log spacing, so the middle point is halfway between the others.
+    let mid = (blobs[0].0 + blobs[2].0) / 2.0;
+    assert!((blobs[1].0 - mid).abs() <= 1.0, "{blobs:?}");
+    // y: linear, 2, 5, 8 equally spaced; 5 halfway.
+    let ymid = (blobs[0].1 + blobs[2].1) / 2.0;
+    assert!((blobs[1].1 - ymid).abs() <= 1.0, "{blobs:?}");
+    // Against the grid: vertical grid lines at 1, 10, 100 pass through the
+    // points' x. Read a row between two points, clear of horizontal lines.
+    let mut grid_row = ((blobs[0].1 + blobs[1].1) / 2.0).round() as u32;
+    let ink = |x: u32, y: u32| 255.0 - p.rgb(x, y).iter().cloned().fold(255.0, f64::min) > 4.0;
+    while (0..500).filter(|x| ink(*x, grid_row)).count() > 100 {
+        grid_row += 1;
+    }
+    let mut lines: Vec<f64> = Vec::new();
+    let mut run: Vec<(u32, f64)> = Vec::new();
+    for x in 0..500u32 {
+        let d = 255.0 - p.rgb(x, grid_row).iter().cloned().fold(255.0, f64::min);
+        if d > 4.0 {
+            run.push((x, d));
+        } else if !run.is_empty() {
+            let w: f64 = run.iter().map(|r| r.1).sum();
+            lines.push(run.iter().map(|r| (r.0 as f64 + 0.5) * r.1).sum::<f64>() / w);
+            run.clear();
+        }
+    }
+    for b in &blobs {
+        assert!(lines.iter().any(|l| (l - b.0).abs() <= 1.0), "point at x {} has no grid line; lines at {lines:?}", b.0);
+    }
+}
+
+#[test]
+fn text_is_drawn_in_the_bundled_font_at_its_measured_width() {
+    let title = "Harvest by variety";
+    let spec = format!(
+        r#"{{ "title": "{title}", "data": {{ "rows": [ {{"k": "a", "v": 1}} ] }},
+             "layers": [ {{ "draw": "bar", "x": "k", "y": "v" }} ], "size": {{ "width": 600, "height": 300 }}, "theme": "light" }}"#
+    );
+    let r = render(&spec, None, &RenderOptions::default()).unwrap();
+    let p = Picture::new(&r.svg);
+    // The title's ink: dark pixels in the title band (top 40 px).
+    let text = hex(&strata::color::Palette::light().text);
+    let cols: Vec<u32> = (0..600).filter(|x| (0..40).any(|y| p.coverage(*x, y, text) > 0.3)).collect();
+    assert!(!cols.is_empty(), "no title ink: the font did not load");
+    let ink = (*cols.last().unwrap() - cols[0] + 1) as f64;
+    let measured = strata::text::width(title, strata::scene::TITLE_SIZE, true);
+    // Ink is a little narrower than the advance sum (side bearings), and
+    // kerning moves pairs slightly: within 4 % (common practice tolerance).
+    assert!(ink <= measured + 1.0 && ink >= measured * 0.96 - 2.0, "ink {ink} px, measured {measured} px");
+    // Starts at the left padding (16 px at this width).
+    assert!((cols[0] as f64 - 16.0).abs() <= 2.0, "title starts at {}", cols[0]);
+}
