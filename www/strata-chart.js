@@ -12,22 +12,37 @@
 // replaces it. Nothing from the spec or the data is ever run as script or
 // parsed as HTML: the engine escapes all text, and messages are set as text.
 
-const ENGINE_URL = new URL('./pkg/strata_wasm.js', import.meta.url);
+const ENGINE_URLS = {
+  core: new URL('./pkg/strata_wasm.js', import.meta.url),
+  // The same engine with the Arrow IPC reader: loaded only for Arrow data.
+  arrow: new URL('./pkg/strata_wasm_arrow.js', import.meta.url),
+};
 const SVG_NS = 'http://www.w3.org/2000/svg';
 
-let enginePromise = null;
+const engines = {};
 
-/** Load the engine module once for the whole page. */
-function loadEngine() {
-  if (!enginePromise) {
-    enginePromise = import(ENGINE_URL.href).then(async (m) => {
+/** Load an engine module once for the whole page. */
+function loadEngine(kind = 'core') {
+  if (!engines[kind]) {
+    engines[kind] = import(ENGINE_URLS[kind].href).then(async (m) => {
       await m.default();
       return m;
     });
     // A failed load may be retried by the next chart.
-    enginePromise.catch(() => { enginePromise = null; });
+    engines[kind].catch(() => { delete engines[kind]; });
   }
-  return enginePromise;
+  return engines[kind];
+}
+
+/** Arrow IPC file ("ARROW1") or stream (continuation marker 0xFFFFFFFF). */
+function isArrow(bytes, name, spec) {
+  if (spec && typeof spec.data === 'object' && spec.data && spec.data.format) return spec.data.format === 'arrow';
+  if (bytes && bytes.length >= 6) {
+    const magic = String.fromCharCode(...bytes.subarray(0, 6));
+    if (magic === 'ARROW1') return true;
+    if (bytes[0] === 0xff && bytes[1] === 0xff && bytes[2] === 0xff && bytes[3] === 0xff) return true;
+  }
+  return /\.(arrow|arrows|ipc|feather)$/i.test(name || '');
 }
 
 let styled = false;
@@ -240,7 +255,7 @@ export class StrataChart extends HTMLElement {
         }
       }
       const width = this.#width(spec);
-      const engine = await loadEngine();
+      const engine = await loadEngine(bytes && isArrow(bytes, name, spec) ? 'arrow' : 'core');
       if (generation !== this.#generation) return;
       const answer = JSON.parse(engine.render(text, bytes, name, width));
       if (generation !== this.#generation) return;

@@ -7,13 +7,15 @@ import os from 'node:os';
 import path from 'node:path';
 import { ROOT, serve, launch, cli, settled } from './harness.mjs';
 
-let server, browser, page, errors;
+let server, browser, page, errors, requested;
 
 before(async () => {
   server = await serve();
   browser = await launch();
   page = await browser.context.newPage();
   errors = [];
+  requested = [];
+  page.on('request', (r) => requested.push(new URL(r.url()).pathname));
   page.on('pageerror', (e) => errors.push(String(e)));
   page.on('console', (m) => {
     if (m.type() === 'error') errors.push(m.text());
@@ -77,4 +79,9 @@ test('a misspelt column shows a located message in the chart\'s place', async ()
 
 test('the gallery page runs under its strict CSP without errors', () => {
   assert.deepEqual(errors, []);
+});
+
+test('CSV pages load the engine once and never the Arrow module', () => {
+  assert.equal(requested.filter((p) => p.endsWith('/strata_wasm_bg.wasm')).length, 1);
+  assert.ok(!requested.some((p) => p.includes('strata_wasm_arrow')));
 });

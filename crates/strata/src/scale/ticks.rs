@@ -108,7 +108,7 @@ fn density_max(k: f64, m: f64) -> f64 {
 /// The best labelling `(lmin, lmax, step)` of `dmin..dmax` with about `m`
 /// labels; `only_loose` keeps labellings that cover the data.
 pub fn extended_params(dmin: f64, dmax: f64, m: usize, only_loose: bool) -> Option<(f64, f64, f64)> {
-    if !(dmin.is_finite() && dmax.is_finite()) || dmax - dmin < EPS {
+    if !(dmin.is_finite() && dmax.is_finite() && (dmax - dmin).is_finite()) || dmax - dmin < EPS {
         return None;
     }
     let m = m.max(2) as f64;
@@ -131,15 +131,22 @@ pub fn extended_params(dmin: f64, dmax: f64, m: usize, only_loose: bool) -> Opti
                 }
                 let delta = (dmax - dmin) / (k + 1.0) / j / q;
                 let mut z = math::log10(delta).ceil();
+                let z_first = z;
                 loop {
                     let step = j * q * math::pow(10.0, z);
                     let cm = coverage_max(dmin, dmax, step * (k - 1.0));
+                    // Guards the paper leaves implicit: near the ends of the
+                    // f64 range a step can overflow and the scores turn NaN,
+                    // which would never end the search.
+                    if !step.is_finite() || !cm.is_finite() || z > z_first + 64.0 {
+                        break;
+                    }
                     if w[0] * sm + w[1] * cm + w[2] * dm + w[3] < best_score {
                         break;
                     }
                     let min_start = (dmax / step).floor() * j - (k - 1.0) * j;
                     let max_start = (dmin / step).ceil() * j;
-                    if min_start > max_start {
+                    if min_start > max_start || max_start - min_start > 10_000.0 {
                         z += 1.0;
                         continue;
                     }
@@ -481,5 +488,16 @@ mod tests {
         // Nice domain runs to month starts.
         let (a, b) = time_nice(day(2024, 1, 17), day(2024, 6, 3), 6);
         assert_eq!((a, b), (day(2024, 1, 1), day(2024, 7, 1)));
+    }
+
+    #[test]
+    fn extreme_ranges_end() {
+        // Values from the pyarrow fixture (tests/reference/fixtures/arrow):
+        // the search must end however far apart the data lies.
+        for (lo, hi) in [(-1e300, 2.5), (-1.7e308, 1.7e308), (5e-324, 1e-300), (0.0, 1.8446744073709552e19)] {
+            let t = extended(lo, hi, 6, false);
+            assert!(t.len() <= 64, "{lo}..{hi}: {t:?}");
+            assert!(t.iter().all(|v| v.is_finite()));
+        }
     }
 }
