@@ -466,10 +466,22 @@ pub(super) fn compare(op: BinOp, a: &Col, b: &Col, l: &Expr, r: &Expr, env: &Env
     let b2 = coerce_literal(b, r, a.ty())?;
     let b = b2.as_ref().unwrap_or(b);
     let Some(t) = unify(a.ty(), b.ty()) else {
-        return Err(ExprError::new(
+        let err = ExprError::new(
             format!("`{}` compares {} with {}; both sides need the same kind of value", op.symbol(), a.ty().word(), b.ty().word()),
             l.span().to_span(r.span()),
-        ));
+        );
+        let hint = match (a.ty(), b.ty()) {
+            (Ty::Bool, Ty::Text) | (Ty::Text, Ty::Bool) => Some("write TRUE or FALSE without quotes"),
+            (Ty::Text, Ty::Int | Ty::Float) | (Ty::Int | Ty::Float, Ty::Text) => Some("put text values in single quotes, such as '3'"),
+            (Ty::Date | Ty::Timestamp, Ty::Int | Ty::Float) | (Ty::Int | Ty::Float, Ty::Date | Ty::Timestamp) => {
+                Some("compare dates with dates, such as DATE '2024-03-01', or compare year(d) with a number")
+            }
+            _ => None,
+        };
+        return Err(match hint {
+            Some(h) => err.hint(h),
+            None => err,
+        });
     };
     fn cmp<T: PartialOrd + Clone>(op: BinOp, x: &Data<T>, y: &Data<T>, n: usize) -> Data<bool> {
         zip(x, y, n, |p, q| {
