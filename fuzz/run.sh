@@ -1,14 +1,22 @@
 #!/bin/sh
-# Bounded fuzz run (default 30 s a target). With a nightly toolchain and
-# cargo-fuzz, runs the libFuzzer targets; without (as on the build machine,
-# which has only stable), runs the seeded stable stand-in instead, with
+# Bounded fuzz run: fuzz/run.sh [SECONDS_PER_TARGET] (default 30).
+# With nightly and cargo-fuzz (`cargo install cargo-fuzz`), runs the
+# libFuzzer targets `spec` and `expr`, seeded from examples/*.json and a few
+# expressions (the first build takes ~15 min on 2 cores). Without them,
+# runs the seeded stable stand-in (crates/strata/tests/fuzz_stable.rs) with
 # STRATA_FUZZ_CASES cases a target.
 set -e
 cd "$(dirname "$0")/.."
 SECONDS_PER_TARGET="${1:-30}"
 if cargo +nightly fuzz --version >/dev/null 2>&1; then
+    mkdir -p fuzz/corpus/spec fuzz/corpus/expr
+    cp examples/*.json fuzz/corpus/spec/
+    i=0
+    for e in "i + 1" "s IN ('a', NULL)" "CASE WHEN b THEN x ELSE i END" "year(d) BETWEEN 2000 AND 2024" "coalesce(s, 'z') || lower(s)"; do
+        i=$((i + 1)); printf '%s' "$e" > "fuzz/corpus/expr/seed$i"
+    done
     for t in spec expr; do
-        (cd fuzz && cargo +nightly fuzz run "$t" -- -max_total_time="$SECONDS_PER_TARGET")
+        (cd fuzz && cargo +nightly fuzz run -O "$t" "corpus/$t" -- -max_total_time="$SECONDS_PER_TARGET")
     done
 else
     echo "no nightly cargo-fuzz here: running the stable seeded stand-in" >&2

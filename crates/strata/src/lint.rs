@@ -60,9 +60,11 @@ pub fn check(spec: &Spec, plan: Option<&Plan>) -> Vec<Diagnostic> {
                 let v: Vec<f64> = d.iter().filter_map(|x| x.as_f64()).collect();
                 (v.len() == 2).then(|| (v[0].min(v[1]), v[0].max(v[1])))
             });
+            // Without a plan only an explicit domain tells; `zero: false`
+            // alone does not, as bars still reach down to their base at 0.
             let leaves_out = match trained.or(from_spec) {
                 Some((lo, hi)) => lo > 0.0 || hi < 0.0,
-                None => value_spec.zero == Some(false),
+                None => false,
             };
             if leaves_out {
                 let path = if value_spec.domain.is_some() { format!("scales.{value_axis}.domain") } else { format!("scales.{value_axis}") };
@@ -284,7 +286,8 @@ mod tests {
     #[test]
     fn spec_only_rules_and_quiet() {
         assert_eq!(codes(r#"{"layers":[{"draw":"bar"}],"scales":{"y":{"kind":"log"}}}"#), vec!["lint.log_bars"]);
-        assert_eq!(codes(r#"{"layers":[{"draw":"area"}],"scales":{"y":{"zero":false}}}"#), vec!["lint.axis_without_zero"]);
+        assert!(codes(r#"{"layers":[{"draw":"area"}],"scales":{"y":{"zero":false}}}"#).is_empty());
+        assert_eq!(codes(r#"{"layers":[{"draw":"area"}],"scales":{"y":{"domain":[-9, -1]}}}"#), vec!["lint.axis_without_zero"]);
         assert_eq!(codes(r#"{"layers":[{"draw":"bar"}],"scales":{"y":{"domain":[50, 100]}}}"#), vec!["lint.axis_without_zero"]);
         assert!(codes(r#"{"layers":[{"draw":"bar"}],"scales":{"y":{"domain":[0, 100]}}}"#).is_empty());
         assert!(codes(r#"{"layers":[{"draw":"point"}],"scales":{"y":{"zero":false}}}"#).is_empty());

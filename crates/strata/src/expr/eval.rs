@@ -282,7 +282,7 @@ pub fn eval(e: &Expr, env: &Env) -> R {
             let mut acc: Data<bool> = Data::Const(Some(false));
             for item in list {
                 let y = eval(item, env)?;
-                let eq = compare(BinOp::Eq, x.clone(), y, expr, item, env)?;
+                let eq = compare(BinOp::Eq, &x, &y, expr, item, env)?;
                 let Col::Bool(eq) = eq else { unreachable!() };
                 acc = zip(&acc, &eq, n, or3);
             }
@@ -293,8 +293,8 @@ pub fn eval(e: &Expr, env: &Env) -> R {
             let x = eval(expr, env)?;
             let lo = eval(low, env)?;
             let hi = eval(high, env)?;
-            let Col::Bool(a) = compare(BinOp::Ge, x.clone(), lo, expr, low, env)? else { unreachable!() };
-            let Col::Bool(b) = compare(BinOp::Le, x, hi, expr, high, env)? else { unreachable!() };
+            let Col::Bool(a) = compare(BinOp::Ge, &x, &lo, expr, low, env)? else { unreachable!() };
+            let Col::Bool(b) = compare(BinOp::Le, &x, &hi, expr, high, env)? else { unreachable!() };
             let both = zip(&a, &b, n, and3);
             Ok(Col::Bool(if *negated { both.map(n, |v| Some(!v)) } else { both }))
         }
@@ -367,7 +367,7 @@ fn binary(op: BinOp, l: &Expr, r: &Expr, span: Span, env: &Env) -> R {
             let y = b.as_bool().ok_or_else(|| type_err(op.symbol(), "true/false on both sides", &b, r.span()))?;
             Ok(Col::Bool(zip(&x, &y, n, if op == BinOp::And { and3 } else { or3 })))
         }
-        BinOp::Eq | BinOp::Ne | BinOp::Lt | BinOp::Le | BinOp::Gt | BinOp::Ge => compare(op, a, b, l, r, env),
+        BinOp::Eq | BinOp::Ne | BinOp::Lt | BinOp::Le | BinOp::Gt | BinOp::Ge => compare(op, &a, &b, l, r, env),
         BinOp::Concat => {
             let text = |c: &Col, e: &Expr| match c {
                 Col::Null => Ok(Data::Const(None)),
@@ -425,30 +425,63 @@ fn arithmetic(op: BinOp, a: Col, b: Col, l: &Expr, r: &Expr, span: Span, n: usiz
     }
 }
 
-/// Convert a text literal compared with a date or date-time into that type.
-fn coerce_literal(c: Col, e: &Expr, other: Ty) -> Result<Col, ExprError> {
-    if let (Col::Text(_), Expr::Lit(Literal::Text(s), span), Ty::Date | Ty::Timestamp) = (&c, e, other) {
+/// A text literal compared with a date or date-time, read as that type.
+fn coerce_literal(c: &Col, e: &Expr, other: Ty) -> Result<Option<Col>, ExprError> {
+    if let (Col::Text(_), Expr::Lit(Literal::Text(s), span), Ty::Date | Ty::Timestamp) = (c, e, other) {
         if let Some(d) = parse_date(s) {
-            return Ok(Col::Date(Data::Const(Some(d as i32))));
+            return Ok(Some(Col::Date(Data::Const(Some(d as i32)))));
         }
         if let Some(t) = parse_datetime(s) {
-            return Ok(Col::Timestamp(Data::Const(Some(t))));
+            return Ok(Some(Col::Timestamp(Data::Const(Some(t)))));
         }
         return Err(ExprError::new(format!("'{s}' is compared with {} but is not one", other.word()), *span)
             .hint("write dates as 'yyyy-MM-dd' and date-times as 'yyyy-MM-dd HH:mm:ss'"));
     }
-    Ok(c)
+    Ok(None)
 }
 
-pub(super) fn compare(op: BinOp, a: Col, b: Col, l: &Expr, r: &Expr, env: &Env) -> R {
+impl Col {
+    /// The column as type `to` when that needs a conversion; `None` when it is already.
+    fn cast_ref(&self, to: Ty, n: usize) -> Option<Col> {
+        if self.ty() == to {
+            return None;
+        }
+        Some(match to {
+            Ty::Float => Col::Float(self.as_float(n)?),
+            Ty::Timestamp => Col::Timestamp(self.as_timestamp(n)?),
+            Ty::Int => Col::Int(Data::Const(None)),
+            Ty::Bool => Col::Bool(Data::Const(None)),
+            Ty::Text => Col::Text(Data::Const(None)),
+            Ty::Date => Col::Date(Data::Const(None)),
+            Ty::Null => Col::Null,
+        })
+    }
+}
+
+/// Compare two columns row by row (borrowed: `IN` compares one column with many).
+pub(super) fn compare(op: BinOp, a: &Col, b: &Col, l: &Expr, r: &Expr, env: &Env) -> R {
     let n = env.rows;
-    let a = coerce_literal(a, l, b.ty())?;
-    let b = coerce_literal(b, r, a.ty())?;
+    let a2 = coerce_literal(a, l, b.ty())?;
+    let a = a2.as_ref().unwrap_or(a);
+    let b2 = coerce_literal(b, r, a.ty())?;
+    let b = b2.as_ref().unwrap_or(b);
     let Some(t) = unify(a.ty(), b.ty()) else {
-        return Err(ExprError::new(
+        let err = ExprError::new(
             format!("`{}` compares {} with {}; both sides need the same kind of value", op.symbol(), a.ty().word(), b.ty().word()),
             l.span().to_span(r.span()),
-        ));
+        );
+        let hint = match (a.ty(), b.ty()) {
+            (Ty::Bool, Ty::Text) | (Ty::Text, Ty::Bool) => Some("write TRUE or FALSE without quotes"),
+            (Ty::Text, Ty::Int | Ty::Float) | (Ty::Int | Ty::Float, Ty::Text) => Some("put text values in single quotes, such as '3'"),
+            (Ty::Date | Ty::Timestamp, Ty::Int | Ty::Float) | (Ty::Int | Ty::Float, Ty::Date | Ty::Timestamp) => {
+                Some("compare dates with dates, such as DATE '2024-03-01', or compare year(d) with a number")
+            }
+            _ => None,
+        };
+        return Err(match hint {
+            Some(h) => err.hint(h),
+            None => err,
+        });
     };
     fn cmp<T: PartialOrd + Clone>(op: BinOp, x: &Data<T>, y: &Data<T>, n: usize) -> Data<bool> {
         zip(x, y, n, |p, q| {
@@ -463,9 +496,11 @@ pub(super) fn compare(op: BinOp, a: Col, b: Col, l: &Expr, r: &Expr, env: &Env) 
             })
         })
     }
-    let a = a.cast(t, n);
-    let b = b.cast(t, n);
-    Ok(Col::Bool(match (&a, &b) {
+    let a3 = a.cast_ref(t, n);
+    let a = a3.as_ref().unwrap_or(a);
+    let b3 = b.cast_ref(t, n);
+    let b = b3.as_ref().unwrap_or(b);
+    Ok(Col::Bool(match (a, b) {
         (Col::Int(x), Col::Int(y)) => cmp(op, x, y, n),
         (Col::Float(x), Col::Float(y)) => cmp(op, x, y, n),
         (Col::Bool(x), Col::Bool(y)) => cmp(op, x, y, n),
@@ -494,7 +529,7 @@ fn case(operand: Option<&Expr>, whens: &[(Expr, Expr)], otherwise: Option<&Expr>
     for (w, v) in whens {
         let c = eval(w, env)?;
         let c = match (&subject, operand) {
-            (Some(s), Some(se)) => compare(BinOp::Eq, s.clone(), c, se, w, env)?,
+            (Some(s), Some(se)) => compare(BinOp::Eq, s, &c, se, w, env)?,
             _ => c,
         };
         let cb = c.as_bool().ok_or_else(|| type_err("WHEN", "a true/false condition", &c, w.span()))?;
