@@ -382,3 +382,18 @@ fn geometries_draw() {
         }
     }
 }
+
+#[test]
+fn m4_streaming_and_sorting_paths_agree() {
+    // The same series given in x order (one streaming pass) and in reverse
+    // (collected, sorted, then reduced) draws the same path.
+    let n = 20_000;
+    let rows: Vec<String> = (0..n).map(|i| format!("{i},{}\n", crate::math::sin(i as f64 * 0.013) * (1.0 + (i % 17) as f64))).collect();
+    let fwd = format!("t,v\n{}", rows.concat());
+    let rev = format!("t,v\n{}", rows.iter().rev().cloned().collect::<String>());
+    let spec = r#"{"size":{"width":500},"layers":[{"draw":"line","x":"t","y":"v"}]}"#;
+    let (a, b) = (run(spec, fwd.as_bytes()), run(spec, rev.as_bytes()));
+    let path = |r: &crate::Rendered| match r.scene.marks()[0] { Node::Path { d, .. } => d.clone(), _ => panic!() };
+    assert_eq!(path(&a), path(&b));
+    assert!(f(&datum(a.scene.marks()[0])["drawn_points"]) < 4.0 * 500.0);
+}
