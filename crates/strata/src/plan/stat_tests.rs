@@ -397,3 +397,40 @@ fn m4_streaming_and_sorting_paths_agree() {
     assert_eq!(path(&a), path(&b));
     assert!(f(&datum(a.scene.marks()[0])["drawn_points"]) < 4.0 * 500.0);
 }
+
+#[test]
+fn wilson_interval_on_true_false_outcomes() {
+    // 37 successes in 120: statsmodels proportion_confint(37, 120, method="wilson")
+    // (statsmodels 0.15.0, summaries.json).
+    let fx: Value = serde_json::from_str(include_str!("../../../../tests/reference/fixtures/stats/summaries.json")).unwrap();
+    let want = fx["wilson"].as_array().unwrap().iter().find(|c| c["k"] == 37).unwrap()["level95"].clone();
+    let mut csv = String::from("arm,ok\n");
+    for i in 0..120 {
+        csv.push_str(&format!("a,{}\n", if i < 37 { "true" } else { "false" }));
+    }
+    let r = run(r#"{"layers":[{"draw":"range","x":"arm","y":"ok","stat":{"summary":"mean","interval":"wilson"}}]}"#, csv.as_bytes());
+    let d = datum(marks_of(&r)[0]);
+    assert!((f(&d["y"]) - f(&want[0])).abs() < 1e-12);
+    assert!((f(&d["y_end"]) - f(&want[1])).abs() < 1e-12);
+    assert!((f(&d["estimate"]) - 37.0 / 120.0).abs() < 1e-12);
+}
+
+#[test]
+fn dates_without_a_unit_take_the_nearest_calendar_unit() {
+    // Two years of daily dates: Sturges' width is 729 days / (log2 730 + 1)
+    // = 69.4 days (Sturges 1926), nearer a quarter (91.3 days) than a month
+    // (30.4 days) on a log scale.
+    let mut csv = String::from("day\n");
+    let start = crate::data::time::days_from_civil(2022, 1, 1);
+    for d in 0..730 {
+        let (y, m, dd) = crate::data::time::civil_from_days(start + d);
+        csv.push_str(&format!("{y:04}-{m:02}-{dd:02}\n"));
+    }
+    let r = run(r#"{"layers":[{"draw":"bar","x":"day","stat":{"bin":{}}}]}"#, csv.as_bytes());
+    let m = marks_of(&r);
+    // ln(69.4/30.4) = 0.83 > ln(91.3/69.4) = 0.27: quarters, 8 of them.
+    assert_eq!(m.len(), 8);
+    assert!(datum(m[1])["x"].as_str().unwrap().starts_with("2022-04-01"));
+    let total: f64 = m.iter().map(|n| f(&datum(n)["count"])).sum();
+    assert_eq!(total, 730.0);
+}

@@ -108,9 +108,16 @@ fn points(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     let (Some(xv), Some(yv)) = (layer.data.get("x"), layer.data.get("y")) else { return vec![] };
     let r = layer.style.radius.unwrap_or(3.5);
     let (lo, hi) = (layer.data.get("y_low"), layer.data.get("y_high"));
+    let beside = beside_keys(ctx, layer);
     let mut out = Vec::with_capacity(layer.data.len);
     for i in 0..layer.data.len {
-        let (Some(ux), Some(uy)) = (ux(ctx, layer, xv, i), ctx.scales.y.unit(yv, i)) else { continue };
+        let (Some(mut ux), Some(uy)) = (ux(ctx, layer, xv, i), ctx.scales.y.unit(yv, i)) else { continue };
+        if !beside.is_empty() {
+            // Side by side: the centre of this colour's slot in the band.
+            if let Some((x0, x1)) = x_extent(ctx, layer, i, 0.8, &beside) {
+                ux = 0.5 * (x0 + x1);
+            }
+        }
         let c = color_of(ctx, layer, i);
         // An interval around the point: an error bar behind it.
         if let (Some(a), Some(b)) = (uy_num(&ctx.scales.y, lo.and_then(|v| v.num(i))), uy_num(&ctx.scales.y, hi.and_then(|v| v.num(i)))) {
