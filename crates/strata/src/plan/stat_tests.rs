@@ -335,6 +335,7 @@ fn crowded_scatter_becomes_tiles_with_a_warning() {
     assert!(m.iter().all(|n| matches!(n, Node::Rect { .. })));
     let total: f64 = m.iter().map(|n| f(&datum(n)["count"])).sum();
     assert_eq!(total, n as f64);
+    assert!(r.svg.contains("Tiles shaded by number of points"), "a note explains the shading");
     // Forbidden: every point is drawn.
     let r = run(r#"{"layers":[{"draw":"point","x":"x","y":"y","style":{"every_point":true}}]}"#, csv.as_bytes());
     assert_eq!(r.scene.marks().len(), n);

@@ -665,6 +665,22 @@ fn tiles(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         };
         out.push(rect_node(ctx, x0, x1, y0, y1, paint, Some(datum(layer, i))));
     }
+    // A note in the plot's corner saying what the shading means (a crowded
+    // scatter drawn as tiles, or any tiles shaded by count).
+    if d.get("color").is_none() && max_count > 0.0 && !out.is_empty() {
+        let f = ctx.coord.frame();
+        out.push(Node::Text {
+            x: f.right() - 4.0,
+            y: f.top + 12.0,
+            text: format!("Tiles shaded by number of points (darkest: {})", crate::format::value_label(max_count)),
+            size: 11.0,
+            anchor: Anchor::End,
+            bold: false,
+            angle: 0.0,
+            fill: ctx.default_color.to_string(),
+            class: "strata-note".into(),
+        });
+    }
     out
 }
 
