@@ -435,3 +435,31 @@ fn dates_without_a_unit_take_the_nearest_calendar_unit() {
     let total: f64 = m.iter().map(|n| f(&datum(n)["count"])).sum();
     assert_eq!(total, 730.0);
 }
+
+#[test]
+fn statistics_group_by_panel_and_colour() {
+    use crate::plan::{LayerData, Values};
+    // A layer as the panel stage hands it over: x, a colour and a panel key.
+    let xs = [1.0, 2.0, 2.5, 3.0, 1.0, 1.5, 3.0, 3.0];
+    let colour = ["p", "p", "q", "q", "p", "p", "p", "q"];
+    let panel = ["left", "left", "left", "left", "right", "right", "right", "right"];
+    let mut data = LayerData { len: xs.len(), ..Default::default() };
+    data.channels.insert("x", Values::Num(xs.iter().map(|x| Some(*x)).collect()));
+    data.channels.insert("color", Values::Text(colour.iter().map(|s| Some(s.to_string())).collect()));
+    data.channels.insert("panel", Values::Text(panel.iter().map(|s| Some(s.to_string())).collect()));
+    let layer: crate::spec::Layer = serde_json::from_str(r#"{"draw":"bar","x":"x","color":"c","stat":{"bin":{"count":2}}}"#).unwrap();
+    let out = super::apply(0, &layer, data.clone()).unwrap().data;
+    // Four groups (left/p, left/q, right/p, right/q) x two shared bins [1, 2), [2, 3].
+    assert_eq!(out.len, 8);
+    let counts: Vec<f64> = (0..out.len).map(|i| out.get("count").unwrap().num(i).unwrap()).collect();
+    assert_eq!(counts, vec![1.0, 1.0, 0.0, 2.0, 2.0, 1.0, 0.0, 1.0]);
+    assert_eq!(out.get("panel").unwrap().key(2).as_deref(), Some("left"));
+    assert_eq!(out.get("color").unwrap().key(2).as_deref(), Some("q"));
+    // Counts split the same way, and also by x.
+    let layer: crate::spec::Layer = serde_json::from_str(r#"{"draw":"bar","x":"x","color":"c","stat":"count"}"#).unwrap();
+    let out = super::apply(0, &layer, data).unwrap().data;
+    let n: f64 = (0..out.len).map(|i| out.get("y").unwrap().num(i).unwrap()).sum();
+    assert_eq!(n, 8.0);
+    // right/p/x=3 and right/q/x=3 are separate rows.
+    assert_eq!(out.len, 8);
+}

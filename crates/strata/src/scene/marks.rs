@@ -268,7 +268,7 @@ fn series_units(ctx: &Ctx, layer: &PlannedLayer, rows: &RowSet, ych: &str) -> (V
                         _ => None,
                     }, origin, extent)
                 }
-                _ => m4_stream(rows, &unit, origin, extent),
+                _ => m4_stream(rows, unit, origin, extent),
             };
             if let Some((kept, n)) = direct {
                 return (kept, n, true);

@@ -133,7 +133,7 @@ pub fn edges_by_count(xs: &[f64], count: usize) -> Vec<f64> {
 /// `boundary + k * width`), covering the data.
 pub fn edges_by_width(xs: &[f64], width: f64, boundary: f64) -> Vec<f64> {
     let Some((lo, hi)) = min_max(xs) else { return vec![] };
-    if !(width > 0.0) {
+    if width.is_nan() || width <= 0.0 {
         return vec![];
     }
     let k0 = ((lo - boundary) / width).floor();
