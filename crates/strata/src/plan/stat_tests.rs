@@ -463,3 +463,25 @@ fn statistics_group_by_panel_and_colour() {
     // right/p/x=3 and right/q/x=3 are separate rows.
     assert_eq!(out.len, 8);
 }
+
+#[test]
+fn statistics_draw_in_every_coordinate_system() {
+    let stats = [
+        r#"{"draw":"bar","x":"eruptions","stat":{"bin":{"rule":"scott"}}}"#,
+        r#"{"draw":"area","x":"eruptions","stat":{"density":{}}}"#,
+        r#"{"draw":"line","x":"eruptions","y":"waiting","stat":{"fit":"linear"}}"#,
+        r#"{"draw":"ribbon","x":"eruptions","y":"waiting","stat":{"fit":"linear","band":0.9}}"#,
+        r#"{"draw":"line","x":"eruptions","y":"waiting","stat":{"fit":"loess","robust":2}}"#,
+        r#"{"draw":"box","x":{"column":"waiting","as":"text"},"y":"eruptions","stat":"box"}"#,
+        r#"{"draw":"line","x":"eruptions","y":"waiting","stat":{"window":{"rows":9}}}"#,
+        r#"{"draw":"point","x":"eruptions","y":"waiting","arrange":"jitter"}"#,
+    ];
+    for coords in [r#""cartesian""#, r#""flip""#, r#"{"kind":"polar"}"#] {
+        for s in stats {
+            let spec = format!(r#"{{"coords":{coords},"layers":[{s}]}}"#);
+            let r = run(&spec, FAITHFUL);
+            assert!(!r.scene.marks().is_empty(), "{coords} {s}");
+            assert!(!r.svg.contains("NaN"), "{coords} {s}");
+        }
+    }
+}
