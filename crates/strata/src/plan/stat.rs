@@ -226,6 +226,8 @@ fn summarise(index: usize, layer: &Layer, o: &StatObject, name: &str, data: Laye
             )
         })?),
     };
+    let mut data = data;
+    booleans_as_numbers(&mut data, "y");
     let y = need_numeric(index, &data, "y", &format!("a `{name}` summary"))?;
     let mut keys = vec![];
     if data.get("x").is_some() {
@@ -258,6 +260,17 @@ fn summarise(index: usize, layer: &Layer, o: &StatObject, name: &str, data: Laye
     };
     let title = format!("{name} of {}", name_of(&data, "y"));
     Ok(out.finish(&data, &keys, &time, &[("y", title)]))
+}
+
+/// A column of `true`/`false` becomes 1/0, so that a mean is a proportion
+/// (and a Wilson interval applies).
+fn booleans_as_numbers(data: &mut LayerData, ch: &'static str) {
+    if let Some(Values::Text(v)) = data.get(ch) {
+        if v.iter().flatten().all(|s| s == "true" || s == "false") && v.iter().any(Option::is_some) {
+            let nums = v.iter().map(|s| s.as_deref().map(|s| if s == "true" { 1.0 } else { 0.0 })).collect();
+            data.channels.insert(ch, Values::Num(nums));
+        }
+    }
 }
 
 fn y_is_time(v: &Values) -> bool {

@@ -336,6 +336,7 @@ fn crowded_scatter_becomes_tiles_with_a_warning() {
     assert!(m.iter().all(|n| matches!(n, Node::Rect { .. })));
     let total: f64 = m.iter().map(|n| f(&datum(n)["count"])).sum();
     assert_eq!(total, n as f64);
+    assert!(r.svg.contains("Tiles shaded by number of points"), "a note explains the shading");
     // Forbidden: every point is drawn.
     let r = run(r#"{"layers":[{"draw":"point","x":"x","y":"y","style":{"every_point":true}}]}"#, csv.as_bytes());
     assert_eq!(r.scene.marks().len(), n);
@@ -380,6 +381,108 @@ fn geometries_draw() {
             assert!(r.svg.contains(">three<"), "{geom}");
         } else {
             assert!(!r.scene.marks().is_empty(), "{geom}");
+        }
+    }
+}
+
+#[test]
+fn m4_streaming_and_sorting_paths_agree() {
+    // The same series given in x order (one streaming pass) and in reverse
+    // (collected, sorted, then reduced) draws the same path.
+    let n = 20_000;
+    let rows: Vec<String> = (0..n).map(|i| format!("{i},{}\n", crate::math::sin(i as f64 * 0.013) * (1.0 + (i % 17) as f64))).collect();
+    let fwd = format!("t,v\n{}", rows.concat());
+    let rev = format!("t,v\n{}", rows.iter().rev().cloned().collect::<String>());
+    let spec = r#"{"size":{"width":500},"layers":[{"draw":"line","x":"t","y":"v"}]}"#;
+    let (a, b) = (run(spec, fwd.as_bytes()), run(spec, rev.as_bytes()));
+    let path = |r: &crate::Rendered| match r.scene.marks()[0] { Node::Path { d, .. } => d.clone(), _ => panic!() };
+    assert_eq!(path(&a), path(&b));
+    assert!(f(&datum(a.scene.marks()[0])["drawn_points"]) < 4.0 * 500.0);
+}
+
+#[test]
+fn wilson_interval_on_true_false_outcomes() {
+    // 37 successes in 120: statsmodels proportion_confint(37, 120, method="wilson")
+    // (statsmodels 0.15.0, summaries.json).
+    let fx: Value = serde_json::from_str(include_str!("../../../../tests/reference/fixtures/stats/summaries.json")).unwrap();
+    let want = fx["wilson"].as_array().unwrap().iter().find(|c| c["k"] == 37).unwrap()["level95"].clone();
+    let mut csv = String::from("arm,ok\n");
+    for i in 0..120 {
+        csv.push_str(&format!("a,{}\n", if i < 37 { "true" } else { "false" }));
+    }
+    let r = run(r#"{"layers":[{"draw":"range","x":"arm","y":"ok","stat":{"summary":"mean","interval":"wilson"}}]}"#, csv.as_bytes());
+    let d = datum(marks_of(&r)[0]);
+    assert!((f(&d["y"]) - f(&want[0])).abs() < 1e-12);
+    assert!((f(&d["y_end"]) - f(&want[1])).abs() < 1e-12);
+    assert!((f(&d["estimate"]) - 37.0 / 120.0).abs() < 1e-12);
+}
+
+#[test]
+fn dates_without_a_unit_take_the_nearest_calendar_unit() {
+    // Two years of daily dates: Sturges' width is 729 days / (log2 730 + 1)
+    // = 69.4 days (Sturges 1926), nearer a quarter (91.3 days) than a month
+    // (30.4 days) on a log scale.
+    let mut csv = String::from("day\n");
+    let start = crate::data::time::days_from_civil(2022, 1, 1);
+    for d in 0..730 {
+        let (y, m, dd) = crate::data::time::civil_from_days(start + d);
+        csv.push_str(&format!("{y:04}-{m:02}-{dd:02}\n"));
+    }
+    let r = run(r#"{"layers":[{"draw":"bar","x":"day","stat":{"bin":{}}}]}"#, csv.as_bytes());
+    let m = marks_of(&r);
+    // ln(69.4/30.4) = 0.83 > ln(91.3/69.4) = 0.27: quarters, 8 of them.
+    assert_eq!(m.len(), 8);
+    assert!(datum(m[1])["x"].as_str().unwrap().starts_with("2022-04-01"));
+    let total: f64 = m.iter().map(|n| f(&datum(n)["count"])).sum();
+    assert_eq!(total, 730.0);
+}
+
+#[test]
+fn statistics_group_by_panel_and_colour() {
+    use crate::plan::{LayerData, Values};
+    // A layer as the panel stage hands it over: x, a colour and a panel key.
+    let xs = [1.0, 2.0, 2.5, 3.0, 1.0, 1.5, 3.0, 3.0];
+    let colour = ["p", "p", "q", "q", "p", "p", "p", "q"];
+    let panel = ["left", "left", "left", "left", "right", "right", "right", "right"];
+    let mut data = LayerData { len: xs.len(), ..Default::default() };
+    data.channels.insert("x", Values::Num(xs.iter().map(|x| Some(*x)).collect()));
+    data.channels.insert("color", Values::Text(colour.iter().map(|s| Some(s.to_string())).collect()));
+    data.channels.insert("panel", Values::Text(panel.iter().map(|s| Some(s.to_string())).collect()));
+    let layer: crate::spec::Layer = serde_json::from_str(r#"{"draw":"bar","x":"x","color":"c","stat":{"bin":{"count":2}}}"#).unwrap();
+    let out = super::apply(0, &layer, data.clone()).unwrap().data;
+    // Four groups (left/p, left/q, right/p, right/q) x two shared bins [1, 2), [2, 3].
+    assert_eq!(out.len, 8);
+    let counts: Vec<f64> = (0..out.len).map(|i| out.get("count").unwrap().num(i).unwrap()).collect();
+    assert_eq!(counts, vec![1.0, 1.0, 0.0, 2.0, 2.0, 1.0, 0.0, 1.0]);
+    assert_eq!(out.get("panel").unwrap().key(2).as_deref(), Some("left"));
+    assert_eq!(out.get("color").unwrap().key(2).as_deref(), Some("q"));
+    // Counts split the same way, and also by x.
+    let layer: crate::spec::Layer = serde_json::from_str(r#"{"draw":"bar","x":"x","color":"c","stat":"count"}"#).unwrap();
+    let out = super::apply(0, &layer, data).unwrap().data;
+    let n: f64 = (0..out.len).map(|i| out.get("y").unwrap().num(i).unwrap()).sum();
+    assert_eq!(n, 8.0);
+    // right/p/x=3 and right/q/x=3 are separate rows.
+    assert_eq!(out.len, 8);
+}
+
+#[test]
+fn statistics_draw_in_every_coordinate_system() {
+    let stats = [
+        r#"{"draw":"bar","x":"eruptions","stat":{"bin":{"rule":"scott"}}}"#,
+        r#"{"draw":"area","x":"eruptions","stat":{"density":{}}}"#,
+        r#"{"draw":"line","x":"eruptions","y":"waiting","stat":{"fit":"linear"}}"#,
+        r#"{"draw":"ribbon","x":"eruptions","y":"waiting","stat":{"fit":"linear","band":0.9}}"#,
+        r#"{"draw":"line","x":"eruptions","y":"waiting","stat":{"fit":"loess","robust":2}}"#,
+        r#"{"draw":"box","x":{"column":"waiting","as":"text"},"y":"eruptions","stat":"box"}"#,
+        r#"{"draw":"line","x":"eruptions","y":"waiting","stat":{"window":{"rows":9}}}"#,
+        r#"{"draw":"point","x":"eruptions","y":"waiting","arrange":"jitter"}"#,
+    ];
+    for coords in [r#""cartesian""#, r#""flip""#, r#"{"kind":"polar"}"#] {
+        for s in stats {
+            let spec = format!(r#"{{"coords":{coords},"layers":[{s}]}}"#);
+            let r = run(&spec, FAITHFUL);
+            assert!(!r.scene.marks().is_empty(), "{coords} {s}");
+            assert!(!r.svg.contains("NaN"), "{coords} {s}");
         }
     }
 }

@@ -95,9 +95,16 @@ fn points(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     let (Some(xv), Some(yv)) = (layer.data.get("x"), layer.data.get("y")) else { return vec![] };
     let r = layer.style.radius.unwrap_or(3.5);
     let (lo, hi) = (layer.data.get("y_low"), layer.data.get("y_high"));
+    let beside = beside_keys(ctx, layer);
     let mut out = Vec::with_capacity(layer.data.len);
     for i in 0..layer.data.len {
-        let (Some(ux), Some(uy)) = (ux(ctx, layer, xv, i), ctx.scales.y.unit(yv, i)) else { continue };
+        let (Some(mut ux), Some(uy)) = (ux(ctx, layer, xv, i), ctx.scales.y.unit(yv, i)) else { continue };
+        if !beside.is_empty() {
+            // Side by side: the centre of this colour's slot in the band.
+            if let Some((x0, x1)) = x_extent(ctx, layer, i, 0.8, &beside) {
+                ux = 0.5 * (x0 + x1);
+            }
+        }
         let c = color_of(ctx, layer, i);
         // An interval around the point: an error bar behind it.
         if let (Some(a), Some(b)) = (uy_num(&ctx.scales.y, lo.and_then(|v| v.num(i))), uy_num(&ctx.scales.y, hi.and_then(|v| v.num(i)))) {
@@ -137,24 +144,6 @@ fn error_bar(ctx: &Ctx, ux: f64, a: f64, b: f64, cap: f64, c: &str, datum: Optio
 
 // ------------------------------------------------------------ lines
 
-/// Pixel points of a series in x order, reduced by M4 when crowded.
-/// Returns the points and the row index of the first point.
-fn series_pixels(ctx: &Ctx, layer: &PlannedLayer, rows: &[usize], ych: &str) -> (Vec<(f64, f64)>, Vec<usize>) {
-    let (Some(xv), Some(yv)) = (layer.data.get("x"), layer.data.get(ych)) else { return (vec![], vec![]) };
-    let mut pts: Vec<(f64, f64, usize)> = Vec::with_capacity(rows.len());
-    for &i in rows {
-        if let (Some(a), Some(b)) = (ux(ctx, layer, xv, i), ctx.scales.y.unit(yv, i)) {
-            pts.push((a, b, i));
-        }
-    }
-    if !pts.windows(2).all(|w| w[0].0 <= w[1].0) {
-        pts.sort_by(|a, b| a.0.total_cmp(&b.0));
-    }
-    let units: Vec<(f64, f64)> = pts.iter().map(|p| (p.0, p.1)).collect();
-    let idx: Vec<usize> = pts.iter().map(|p| p.2).collect();
-    (units, idx)
-}
-
 /// The pixel column coordinate of a unit x (horizontal pixels; vertical when flipped).
 fn columns(ctx: &Ctx, units: &[(f64, f64)]) -> Option<(Vec<f64>, Vec<f64>, f64)> {
     match ctx.coord {
@@ -182,26 +171,195 @@ fn m4_keep(ctx: &Ctx, units: &[(f64, f64)]) -> Option<Vec<usize>> {
     Some(crate::stat::m4::m4_indices(&col, &val))
 }
 
+/// Rows of a series: all rows of the layer, or a list.
+enum RowSet {
+    All(usize),
+    List(Vec<usize>),
+}
+
+impl RowSet {
+    fn len(&self) -> usize {
+        match self {
+            RowSet::All(n) => *n,
+            RowSet::List(v) => v.len(),
+        }
+    }
+    fn first(&self) -> Option<usize> {
+        match self {
+            RowSet::All(n) => (*n > 0).then_some(0),
+            RowSet::List(v) => v.first().copied(),
+        }
+    }
+    fn for_each(&self, mut f: impl FnMut(usize) -> bool) {
+        match self {
+            RowSet::All(n) => {
+                for i in 0..*n {
+                    if !f(i) {
+                        return;
+                    }
+                }
+            }
+            RowSet::List(v) => {
+                for &i in v {
+                    if !f(i) {
+                        return;
+                    }
+                }
+            }
+        }
+    }
+}
+
+fn line_series(layer: &PlannedLayer) -> Vec<RowSet> {
+    if ["color", "group", "panel"].iter().all(|c| layer.data.get(c).is_none()) {
+        return vec![RowSet::All(layer.data.len)];
+    }
+    series(layer).into_iter().map(RowSet::List).collect()
+}
+
+/// The pixel column of a unit x, for M4 (None in polar coordinates).
+fn column_of(ctx: &Ctx) -> Option<(f64, f64)> {
+    match ctx.coord {
+        Coord::Cartesian(f) => Some((f.left, f.width)),
+        Coord::Flip(f) => Some((f.top, f.height)),
+        Coord::Polar { .. } => None,
+    }
+}
+
+/// A series' unit points in x order, reduced by M4 when crowded. Returns
+/// the points kept, the number of points in the series and whether M4 ran.
+///
+/// Sorted, crowded series (the common case for big data) are reduced in one
+/// streaming pass without materialising every point; others are collected,
+/// sorted and then reduced, with the same result.
+fn series_units(ctx: &Ctx, layer: &PlannedLayer, rows: &RowSet, ych: &str) -> (Vec<(f64, f64)>, usize, bool) {
+    let (Some(xv), Some(yv)) = (layer.data.get("x"), layer.data.get(ych)) else { return (vec![], 0, false) };
+    let off = layer.data.get("x_offset");
+    let band = ctx.scales.x.band();
+    let unit = |i: usize| -> Option<(f64, f64)> {
+        let mut u = ctx.scales.x.unit(xv, i)?;
+        if let Some(o) = off.and_then(|o| o.num(i)) {
+            u += o * band;
+        }
+        Some((u, ctx.scales.y.unit(yv, i)?))
+    };
+    if let Some((origin, extent)) = column_of(ctx) {
+        if rows.len() as f64 > 4.0 * extent.max(1.0) {
+            // Numbers on linear scales without offsets: map straight from the slices.
+            let direct = match (xv, yv, &ctx.scales.x, &ctx.scales.y, off) {
+                (
+                    Values::Num(a) | Values::Time(a),
+                    Values::Num(b) | Values::Time(b),
+                    PositionScale::Linear { lo: xl, hi: xh, .. },
+                    PositionScale::Linear { lo: yl, hi: yh, .. },
+                    None,
+                ) if xh != xl && yh != yl => {
+                    let (xl, yl) = (*xl, *yl);
+                    let (xs, ys) = (xh - xl, yh - yl);
+                    m4_stream(rows, |i| match (a[i], b[i]) {
+                        (Some(x), Some(y)) => Some(((x - xl) / xs, (y - yl) / ys)),
+                        _ => None,
+                    }, origin, extent)
+                }
+                _ => m4_stream(rows, unit, origin, extent),
+            };
+            if let Some((kept, n)) = direct {
+                return (kept, n, true);
+            }
+        }
+    }
+    let mut pts: Vec<(f64, f64)> = Vec::with_capacity(rows.len());
+    rows.for_each(|i| {
+        if let Some(p) = unit(i) {
+            pts.push(p);
+        }
+        true
+    });
+    if !pts.windows(2).all(|w| w[0].0 <= w[1].0) {
+        pts.sort_by(|a, b| a.0.total_cmp(&b.0));
+    }
+    let n = pts.len();
+    match m4_keep(ctx, &pts) {
+        Some(k) => (k.iter().map(|i| pts[*i]).collect(), n, true),
+        None => (pts, n, false),
+    }
+}
+
+/// One pass of M4 over rows already in x order; `None` as soon as x goes
+/// backwards (the caller then sorts).
+fn m4_stream(rows: &RowSet, unit: impl Fn(usize) -> Option<(f64, f64)>, origin: f64, extent: f64) -> Option<(Vec<(f64, f64)>, usize)> {
+    let mut out = Vec::new();
+    let mut n = 0usize;
+    let mut sorted = true;
+    let mut prev = f64::NEG_INFINITY;
+    // Current column: (sequence number, point) of first, lowest, highest, last.
+    let mut col = f64::NAN;
+    let mut cur: [(usize, (f64, f64)); 4] = [(0, (0.0, 0.0)); 4];
+    let flush = |cur: &[(usize, (f64, f64)); 4], out: &mut Vec<(f64, f64)>| {
+        let mut four = *cur;
+        four.sort_by_key(|c| c.0);
+        let mut last_seq = usize::MAX;
+        for (seq, p) in four {
+            if seq != last_seq {
+                out.push(p);
+                last_seq = seq;
+            }
+        }
+    };
+    rows.for_each(|i| {
+        let Some(p) = unit(i) else { return true };
+        if p.0 < prev {
+            sorted = false;
+            return false;
+        }
+        prev = p.0;
+        let c = (origin + p.0 * extent).floor();
+        if c != col {
+            if n > 0 {
+                flush(&cur, &mut out);
+            }
+            col = c;
+            cur = [(n, p); 4];
+        } else {
+            if p.1 < cur[1].1 .1 {
+                cur[1] = (n, p);
+            }
+            if p.1 > cur[2].1 .1 {
+                cur[2] = (n, p);
+            }
+            cur[3] = (n, p);
+        }
+        n += 1;
+        true
+    });
+    if !sorted {
+        return None;
+    }
+    if n > 0 {
+        flush(&cur, &mut out);
+    }
+    Some((out, n))
+}
+
 fn lines(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     let width = layer.style.width.unwrap_or(2.0);
     let mut out = Vec::new();
     let banded = layer.data.get("y_low").is_some() && layer.data.get("y_high").is_some();
-    for rows in series(layer) {
-        let (units, idx) = series_pixels(ctx, layer, &rows, "y");
-        if units.is_empty() {
+    for rows in line_series(layer) {
+        let Some(first) = rows.first() else { continue };
+        let (drawn, total, reduced) = series_units(ctx, layer, &rows, "y");
+        if drawn.is_empty() {
             continue;
         }
-        let first = idx[0];
         let c = color_of(ctx, layer, first);
         if banded {
             // A fit's confidence band, under its line.
-            out.extend(band_path(ctx, layer, &rows, "y_low", "y_high", &c, layer.style.opacity.unwrap_or(1.0) * 0.25));
+            let list: Vec<usize> = match &rows {
+                RowSet::All(n) => (0..*n).collect(),
+                RowSet::List(v) => v.clone(),
+            };
+            out.extend(band_path(ctx, layer, &list, "y_low", "y_high", &c, layer.style.opacity.unwrap_or(1.0) * 0.25));
         }
-        let keep = m4_keep(ctx, &units);
-        let drawn: Vec<(f64, f64)> = match &keep {
-            Some(k) => k.iter().map(|i| units[*i]).collect(),
-            None => units.clone(),
-        };
         let mut stepped: Vec<(f64, f64)> = Vec::with_capacity(drawn.len() * 2);
         for (k, p) in drawn.iter().enumerate() {
             if layer.geometry == Geometry::Step && k > 0 {
@@ -214,8 +372,8 @@ fn lines(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         paint.opacity = layer.style.opacity;
         paint.dash = layer.style.dash.clone();
         let mut d = series_datum(layer, first);
-        d.insert("points".into(), serde_json::Value::from(units.len()));
-        if keep.is_some() {
+        d.insert("points".into(), serde_json::Value::from(total));
+        if reduced {
             d.insert("drawn_points".into(), serde_json::Value::from(drawn.len()));
         }
         out.push(Node::Path { d: path_d(&px, false), paint, datum: Some(d) });
@@ -499,6 +657,22 @@ fn tiles(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
             _ => layer.style.opacity,
         };
         out.push(rect_node(ctx, x0, x1, y0, y1, paint, Some(datum(layer, i))));
+    }
+    // A note in the plot's corner saying what the shading means (a crowded
+    // scatter drawn as tiles, or any tiles shaded by count).
+    if d.get("color").is_none() && max_count > 0.0 && !out.is_empty() {
+        let f = ctx.coord.frame();
+        out.push(Node::Text {
+            x: f.right() - 4.0,
+            y: f.top + 12.0,
+            text: format!("Tiles shaded by number of points (darkest: {})", crate::format::value_label(max_count)),
+            size: 11.0,
+            anchor: Anchor::End,
+            bold: false,
+            angle: 0.0,
+            fill: ctx.default_color.to_string(),
+            class: "strata-note".into(),
+        });
     }
     out
 }

@@ -90,9 +90,14 @@ fn population_sd(xs: &[f64]) -> f64 {
 }
 
 pub fn min_max(xs: &[f64]) -> Option<(f64, f64)> {
-    let mut it = xs.iter().copied().filter(|x| x.is_finite());
-    let first = it.next()?;
-    Some(it.fold((first, first), |(lo, hi), x| (lo.min(x), hi.max(x))))
+    let (mut lo, mut hi) = (f64::INFINITY, f64::NEG_INFINITY);
+    for &x in xs {
+        if x.is_finite() {
+            lo = if x < lo { x } else { lo };
+            hi = if x > hi { x } else { hi };
+        }
+    }
+    (lo <= hi).then_some((lo, hi))
 }
 
 /// The data range, widened by a half unit each way when it is a single value.
@@ -128,7 +133,7 @@ pub fn edges_by_count(xs: &[f64], count: usize) -> Vec<f64> {
 /// `boundary + k * width`), covering the data.
 pub fn edges_by_width(xs: &[f64], width: f64, boundary: f64) -> Vec<f64> {
     let Some((lo, hi)) = min_max(xs) else { return vec![] };
-    if !(width > 0.0) {
+    if width.is_nan() || width <= 0.0 {
         return vec![];
     }
     let k0 = ((lo - boundary) / width).floor();
@@ -154,14 +159,14 @@ pub fn histogram(xs: &[f64], edges: &[f64]) -> Vec<f64> {
     if is_even(edges) {
         let norm = nb as f64 / (hi - lo);
         let last = nb - 1;
-        for &x in xs {
+        // Four interleaved count arrays, so that runs of values in the same
+        // bin do not wait on each other's increments; summed at the end.
+        let mut lanes = vec![0u64; 4 * nb];
+        let index = |x: f64| -> Option<usize> {
             if !(x >= lo && x <= hi) {
-                continue; // also skips NaN
+                return None; // also skips NaN
             }
-            let mut k = ((x - lo) * norm) as usize;
-            if k > last {
-                k = last;
-            }
+            let mut k = (((x - lo) * norm) as usize).min(last);
             // Rounding in the index may be one off next to an edge: correct it
             // against the edges themselves.
             if x < edges[k] {
@@ -169,7 +174,23 @@ pub fn histogram(xs: &[f64], edges: &[f64]) -> Vec<f64> {
             } else if k < last && x >= edges[k + 1] {
                 k += 1;
             }
-            counts[k] += 1;
+            Some(k)
+        };
+        let mut chunks = xs.chunks_exact(4);
+        for c in &mut chunks {
+            for (lane, &x) in c.iter().enumerate() {
+                if let Some(k) = index(x) {
+                    lanes[lane * nb + k] += 1;
+                }
+            }
+        }
+        for &x in chunks.remainder() {
+            if let Some(k) = index(x) {
+                lanes[k] += 1;
+            }
+        }
+        for (k, c) in counts.iter_mut().enumerate() {
+            *c = lanes[k] + lanes[nb + k] + lanes[2 * nb + k] + lanes[3 * nb + k];
         }
     } else {
         for &x in xs {

@@ -90,7 +90,7 @@ pub fn kde_binned(xs: &[f64], h: f64, lo: f64, hi: f64, m: usize) -> Vec<f64> {
     let inv = 1.0 / delta;
     for &x in xs {
         let t = (x - lo) * inv;
-        if !(t >= 0.0) {
+        if t.is_nan() || t < 0.0 {
             continue;
         }
         let j = (t as usize).min(big - 1);

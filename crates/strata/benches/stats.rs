@@ -1,0 +1,125 @@
+//! Statistics benchmarks. `bench/stats_vs_numpy.py` runs these and the
+//! numpy/scipy/statsmodels baselines in the same run and prints ratios.
+//!
+//! cargo bench -p strata --bench stats
+
+use arrow_array::{ArrayRef, Float64Array, RecordBatch};
+use arrow_schema::{DataType, Field, Schema};
+use criterion::{criterion_group, criterion_main, Criterion};
+use std::hint::black_box;
+use std::sync::Arc;
+use std::time::Duration;
+use strata::stat::{bin, density, fit, rng::SplitMix64};
+
+/// Standard normal draws by Box-Muller from SplitMix64 (seeded).
+fn normals(n: usize, seed: u64) -> Vec<f64> {
+    let mut r = SplitMix64::new(seed);
+    let mut out = Vec::with_capacity(n);
+    while out.len() < n {
+        let u1 = 1.0 - r.next_f64();
+        let u2 = r.next_f64();
+        let rad = (-2.0 * strata::math::ln(u1)).sqrt();
+        let t = std::f64::consts::TAU * u2;
+        out.push(rad * strata::math::cos(t));
+        if out.len() < n {
+            out.push(rad * strata::math::sin(t));
+        }
+    }
+    out
+}
+
+fn histogram(c: &mut Criterion) {
+    let xs = normals(10_000_000, 1);
+    let mut g = c.benchmark_group("stats");
+    g.sample_size(10).warm_up_time(Duration::from_millis(500)).measurement_time(Duration::from_secs(3));
+    // Same work as numpy.histogram(x, bins=50): the range, 50 even bins, counts.
+    g.bench_function("histogram_10m_50", |b| {
+        b.iter(|| {
+            let e = bin::edges_by_count(black_box(&xs), 50);
+            bin::histogram(&xs, &e)
+        })
+    });
+    g.finish();
+}
+
+fn kde(c: &mut Criterion) {
+    let xs = normals(10_000, 2);
+    let mut g = c.benchmark_group("stats");
+    g.sample_size(20).warm_up_time(Duration::from_millis(300)).measurement_time(Duration::from_secs(2));
+    // Scott bandwidth, 512 points over min - 3h .. max + 3h (binned path).
+    g.bench_function("kde_10k_512", |b| {
+        b.iter(|| {
+            let h = density::bandwidth(black_box(&xs), density::Bandwidth::Scott).unwrap();
+            density::kde(&xs, h, 512)
+        })
+    });
+    // The exact O(n m) sum, for reference.
+    g.bench_function("kde_10k_512_exact", |b| {
+        b.iter(|| {
+            let h = density::bandwidth(black_box(&xs), density::Bandwidth::Scott).unwrap();
+            let (lo, hi) = bin::min_max(&xs).unwrap();
+            density::kde_exact(&xs, h, &density::grid(lo - 3.0 * h, hi + 3.0 * h, 512))
+        })
+    });
+    g.finish();
+}
+
+fn loess(c: &mut Criterion) {
+    let n = 10_000;
+    let mut r = SplitMix64::new(3);
+    let mut xs: Vec<f64> = (0..n).map(|_| r.next_f64() * 10.0).collect();
+    xs.sort_by(f64::total_cmp);
+    let noise = normals(n, 4);
+    let ys: Vec<f64> = xs.iter().zip(&noise).map(|(x, e)| strata::math::sin(*x) + 0.3 * e).collect();
+    let at = density::grid(xs[0], xs[n - 1], 80);
+    let mut g = c.benchmark_group("stats");
+    g.sample_size(10).warm_up_time(Duration::from_millis(300)).measurement_time(Duration::from_secs(3));
+    // What the engine does for a 10k-point loess line: 80 output points.
+    g.bench_function("loess_10k_plain", |b| {
+        let opts = fit::LoessOptions { span: 0.3, degree: 1, iterations: 0, delta: 0.0 };
+        b.iter(|| fit::loess_at(black_box(&xs), &ys, &vec![1.0; n], &opts, &at))
+    });
+    // Robust: 3 iterations with delta = 1 % of the range, then 80 points.
+    g.bench_function("loess_10k_robust3", |b| {
+        let opts = fit::LoessOptions { span: 0.3, degree: 1, iterations: 3, delta: 0.1 };
+        b.iter(|| {
+            let (_, w) = fit::loess_fit(black_box(&xs), &ys, &opts);
+            fit::loess_at(&xs, &ys, &w, &opts, &at)
+        })
+    });
+    // Every point fitted, as statsmodels lowess(frac=0.3, it=3, delta=0.1) does it.
+    g.bench_function("loess_10k_all_points_robust3", |b| {
+        let opts = fit::LoessOptions { span: 0.3, degree: 1, iterations: 3, delta: 0.1 };
+        b.iter(|| fit::loess_fit(black_box(&xs), &ys, &opts))
+    });
+    g.finish();
+}
+
+fn line_svg(c: &mut Criterion) {
+    let n = 10_000_000;
+    let noise = normals(n, 5);
+    let mut y = 0.0;
+    let ys: Vec<f64> = noise.iter().map(|e| { y += e; y }).collect();
+    let xs: Vec<f64> = (0..n).map(|i| i as f64).collect();
+    let schema = Arc::new(Schema::new(vec![Field::new("t", DataType::Float64, true), Field::new("v", DataType::Float64, true)]));
+    let cols: Vec<ArrayRef> = vec![Arc::new(Float64Array::from(xs)), Arc::new(Float64Array::from(ys))];
+    let table = strata::data::Table { batch: RecordBatch::try_new(schema, cols).unwrap(), warnings: vec![] };
+    let spec = strata::spec::parse_spec(r#"{"size":{"width":800},"layers":[{"draw":"line","x":"t","y":"v"}]}"#).unwrap();
+    let opts = strata::scene::SceneOptions::default();
+    let render = || {
+        let plan = strata::plan::build(&spec, &table).unwrap();
+        let scene = strata::scene::build(&spec, &plan, &opts);
+        strata::svg::write(&scene)
+    };
+    let svg = render();
+    eprintln!("line_10m_svg_800px: SVG {} bytes", svg.len());
+    let mut g = c.benchmark_group("stats");
+    g.sample_size(10).warm_up_time(Duration::from_millis(500)).measurement_time(Duration::from_secs(5));
+    // From an in-memory Arrow table to SVG text: plan (column extraction),
+    // scene (scales, M4 at the plot width) and SVG writing.
+    g.bench_function("line_10m_svg_800px", |b| b.iter(|| black_box(render()).len()));
+    g.finish();
+}
+
+criterion_group!(benches, histogram, kde, loess, line_svg);
+criterion_main!(benches);
