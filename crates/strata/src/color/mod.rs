@@ -138,7 +138,8 @@ pub fn oklab_to_hex(lab: [f64; 3]) -> String {
 
 /// Euclidean distance in OKLab (ΔE_OK).
 pub fn delta_e_ok(a: [f64; 3], b: [f64; 3]) -> f64 {
-    ((a[0] - b[0]).powi(2) + (a[1] - b[1]).powi(2) + (a[2] - b[2]).powi(2)).sqrt()
+    let d = [a[0] - b[0], a[1] - b[1], a[2] - b[2]];
+    (d[0] * d[0] + d[1] * d[1] + d[2] * d[2]).sqrt()
 }
 
 // ---------------------------------------------------------------- deficiency

@@ -504,6 +504,16 @@ mod tests {
     }
 
     #[test]
+    fn symlog_ticks_are_signed_powers() {
+        let s = PositionScale::Continuous { lo: -1000.0, hi: 1000.0, transform: Transform::Symlog { constant: 1.0 }, time: false, step: None };
+        let v: Vec<f64> = s.ticks(9, None).into_iter().map(|t| t.value).collect();
+        assert_eq!(v, [-1000.0, -100.0, -10.0, -1.0, 0.0, 1.0, 10.0, 100.0, 1000.0]);
+        // Symmetric about zero, zero in the middle.
+        assert_eq!(s.unit_num(0.0), Some(0.5));
+        assert!((s.unit_num(10.0).unwrap() + s.unit_num(-10.0).unwrap() - 1.0).abs() < 1e-12);
+    }
+
+    #[test]
     fn reversed_and_sqrt() {
         let r = PositionScale::linear(10.0, 0.0);
         assert_eq!(r.unit_num(10.0), Some(0.0));

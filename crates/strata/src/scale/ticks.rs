@@ -82,14 +82,14 @@ fn simplicity_max(qi: usize, j: f64) -> f64 {
 
 fn coverage(dmin: f64, dmax: f64, lmin: f64, lmax: f64) -> f64 {
     let range = dmax - dmin;
-    1.0 - 0.5 * ((dmax - lmax).powi(2) + (dmin - lmin).powi(2)) / (0.1 * range).powi(2)
+    1.0 - 0.5 * ((dmax - lmax) * (dmax - lmax) + (dmin - lmin) * (dmin - lmin)) / ((0.1 * range) * (0.1 * range))
 }
 
 fn coverage_max(dmin: f64, dmax: f64, span: f64) -> f64 {
     let range = dmax - dmin;
     if span > range {
         let half = (span - range) / 2.0;
-        1.0 - 0.5 * (2.0 * half * half) / (0.1 * range).powi(2)
+        1.0 - 0.5 * (2.0 * half * half) / ((0.1 * range) * (0.1 * range))
     } else {
         1.0
     }

@@ -52,7 +52,7 @@ fn fits_across(ticks: &[Tick], length: f64) -> bool {
 
 /// Rotated labels need about a line's height between neighbours.
 fn fits_rotated(ticks: &[Tick], length: f64) -> bool {
-    let need = TICK_SIZE * text::LINE_HEIGHT / (-ROTATION).to_radians().sin();
+    let need = TICK_SIZE * text::LINE_HEIGHT / crate::math::sin((-ROTATION).to_radians());
     ticks.windows(2).all(|w| (w[1].unit - w[0].unit).abs() * length >= need)
 }
 
@@ -82,7 +82,7 @@ pub fn bottom_ticks(scale: &PositionScale, length: f64, wanted: usize, pattern: 
         }
         let rotated = every(&full, k);
         // Shorten: labels whose rotated height would exceed the allowance.
-        let max_w = max_label_height / (-ROTATION).to_radians().sin();
+        let max_w = max_label_height / crate::math::sin((-ROTATION).to_radians());
         let cut: Vec<Tick> = rotated
             .into_iter()
             .map(|mut t| {
@@ -263,7 +263,7 @@ pub fn bottom_labels_height(ticks: &[Tick], angle: f64) -> f64 {
     if angle == 0.0 {
         TICK_SIZE * text::LINE_HEIGHT
     } else {
-        let s = (-angle).to_radians().sin();
+        let s = crate::math::sin((-angle).to_radians());
         widest_label(ticks) * s + TICK_SIZE * text::LINE_HEIGHT * s
     }
 }
@@ -573,7 +573,7 @@ mod tests {
         let (t, a) = bottom_ticks(&s, 400.0, 6, None, en, 60.0);
         assert_eq!(a, ROTATION);
         assert_eq!(t.len(), 12);
-        let max_w = 60.0 / (-ROTATION).to_radians().sin();
+        let max_w = 60.0 / crate::math::sin((-ROTATION).to_radians());
         assert!(t.iter().all(|t| text::width(&t.label, TICK_SIZE, false) <= max_w + 1e-9 && t.label.ends_with('\u{2026}')));
     }
 
