@@ -240,6 +240,12 @@ impl PositionScale {
                     while (n / k) + 1 > wanted.max(2) + wanted.max(2) / 2 {
                         k += 1;
                     }
+                    // Prefer a k that keeps both ends labelled.
+                    if k > 1 {
+                        if let Some(d) = (k..=n.min(3 * k)).find(|d| n % d == 0) {
+                            k = d;
+                        }
+                    }
                     let t: Vec<f64> = (0..=n).step_by(k).map(|i| ticks::clean(a + i as f64 * s, s)).collect();
                     return (t, TickStep::Even(s * k as f64));
                 }
@@ -380,19 +386,21 @@ impl SizeScale {
         let t = if self.hi > self.lo { ((v - self.lo) / (self.hi - self.lo)).clamp(0.0, 1.0) } else { 1.0 };
         Some(self.max_radius * t.sqrt())
     }
-    /// Values for a size legend: up to three nice ticks above the low end.
+    /// Values for a size legend: up to three nice values above the low end,
+    /// spread from small to the largest.
     pub fn legend_values(&self) -> Vec<f64> {
-        let t = ticks::extended(self.lo, self.hi, 4, false);
-        let mut v: Vec<f64> = t.into_iter().filter(|x| *x > self.lo && *x <= self.hi * (1.0 + 1e-9)).collect();
-        while v.len() > 3 {
-            v.remove(0);
+        let t = ticks::extended(self.lo, self.hi, 5, false);
+        let v: Vec<f64> = t.into_iter().filter(|x| *x > self.lo && *x <= self.hi * (1.0 + 1e-9)).collect();
+        if v.len() <= 3 {
+            return v;
         }
-        v
+        let n = v.len();
+        vec![v[0], v[(n - 1) / 2], v[n - 1]]
     }
 }
 
 /// The shapes of the shape channel, in the order categories take them.
-pub const SHAPES: [&str; 7] = ["circle", "square", "triangle", "diamond", "plus", "cross", "wye"];
+pub const SHAPES: [&str; 7] = ["circle", "square", "triangle", "diamond", "plus", "cross", "star"];
 
 /// SVG path data of shape `i` centred at (cx, cy) with the area of a
 /// circle of radius `r`, so no shape looks bigger than another (common practice).
@@ -433,13 +441,14 @@ pub fn shape_path(i: usize, cx: f64, cy: f64, r: f64) -> String {
             }
         }
         _ => {
-            // "wye": a three-pointed star; six triangles of sides s and
-            // 0.45 s at 60 degrees have area 6 x 0.5 x 0.45 s^2 sin 60.
-            let s = (area / (1.35 * 3f64.sqrt() / 2.0)).sqrt();
+            // "star": five points; ten triangles of sides s and 0.4 s at 36
+            // degrees have area 10 x 0.5 x 0.4 s^2 sin 36.
+            let sin36 = math::sin(std::f64::consts::PI / 5.0);
+            let s = (area / (2.0 * sin36)).sqrt();
             let mut p = Vec::new();
-            for k in 0..6 {
-                let ang = std::f64::consts::PI / 3.0 * k as f64 - std::f64::consts::FRAC_PI_2;
-                let rr = if k % 2 == 0 { s } else { s * 0.45 };
+            for k in 0..10 {
+                let ang = std::f64::consts::PI / 5.0 * k as f64 - std::f64::consts::FRAC_PI_2;
+                let rr = if k % 2 == 0 { s } else { s * 0.4 };
                 p.push((rr * math::cos(ang), rr * math::sin(ang)));
             }
             p
@@ -556,7 +565,9 @@ mod tests {
         let a = |v: f64| s.radius(v).unwrap().powi(2);
         // Twice the value, twice the area.
         assert!((a(50.0) * 2.0 - a(100.0)).abs() < 1e-9);
-        assert_eq!(s.legend_values(), vec![50.0, 100.0]);
+        assert_eq!(s.legend_values(), vec![25.0, 50.0, 100.0]);
+        let s = SizeScale { lo: 0.0, hi: 99.2, max_radius: 10.0 };
+        assert_eq!(s.legend_values(), vec![25.0, 50.0, 75.0]);
     }
 
     #[test]

@@ -212,7 +212,7 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
     }
     let scales = &nice_scales;
     let (h_scale, v_scale) = if flip { (&scales.y, &scales.x) } else { (&scales.x, &scales.y) };
-    let v_ticks0 = if v_shown { guides::left_ticks(v_scale, guess_h, wanted(v_spec, guess_h, 50.0), v_spec.format.as_deref(), loc, max_left) } else { vec![] };
+    let v_ticks0 = if v_shown { guides::left_ticks(v_scale, guess_h, wanted(v_spec, guess_h, 45.0), v_spec.format.as_deref(), loc, max_left) } else { vec![] };
     let v_label_w = guides::widest_label(&v_ticks0);
     let left = pad + if v_shown { guides::left_axis_width(v_label_w, !v_title.is_empty()) } else { 0.0 };
     let frame_w = (right - left).max(20.0);
@@ -221,6 +221,23 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
         guides::bottom_ticks(h_scale, frame_w, wanted(h_spec, frame_w, if narrow { 70.0 } else { 90.0 }), h_spec.format.as_deref(), loc, max_label_h)
     } else {
         (vec![], 0.0)
+    };
+    // Rotated labels reach left of their ticks: widen the left margin for them.
+    let (left, frame_w, h_ticks, h_angle) = if h_angle != 0.0 && h_shown {
+        let c = crate::math::cos((-h_angle).to_radians());
+        let reach = h_ticks
+            .iter()
+            .map(|t| text::width(&t.label, guides::TICK_SIZE, false) * c - t.unit * frame_w - (left - pad))
+            .fold(0.0, f64::max);
+        if reach > 0.0 {
+            let (l, w) = (left + reach, (frame_w - reach).max(20.0));
+            let (t, a) = guides::bottom_ticks(h_scale, w, wanted(h_spec, w, if narrow { 70.0 } else { 90.0 }), h_spec.format.as_deref(), loc, max_label_h);
+            (l, w, t, a)
+        } else {
+            (left, frame_w, h_ticks, h_angle)
+        }
+    } else {
+        (left, frame_w, h_ticks, h_angle)
     };
     // Keep the outermost labels inside the chart: shrink the frame by any overhang.
     let (frame_w, h_ticks, h_angle) = {
@@ -242,7 +259,7 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
     let coord = Coord::new(&spec.coords, frame);
     // Vertical ticks again for the real height, kept within the margin.
     let v_ticks = if v_shown {
-        let t = guides::left_ticks(v_scale, frame.height, wanted(v_spec, frame.height, 50.0), v_spec.format.as_deref(), loc, max_left);
+        let t = guides::left_ticks(v_scale, frame.height, wanted(v_spec, frame.height, 45.0), v_spec.format.as_deref(), loc, max_left);
         if guides::widest_label(&t) <= v_label_w + 0.5 { t } else { v_ticks0 }
     } else {
         vec![]

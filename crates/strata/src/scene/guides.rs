@@ -83,13 +83,9 @@ pub fn bottom_ticks(scale: &PositionScale, length: f64, wanted: usize, pattern: 
         let rotated = every(&full, k);
         // Shorten: labels whose rotated height would exceed the allowance.
         let max_w = max_label_height / crate::math::sin((-ROTATION).to_radians());
-        let cut: Vec<Tick> = rotated
-            .into_iter()
-            .map(|mut t| {
-                t.label = text::fit(&t.label, TICK_SIZE, false, max_w);
-                t
-            })
-            .collect();
+        let labels: Vec<String> = rotated.iter().map(|t| t.label.clone()).collect();
+        let short = shorten_all(&labels, max_w);
+        let cut: Vec<Tick> = rotated.into_iter().zip(short).map(|(mut t, l)| { t.label = l; t }).collect();
         return (cut, ROTATION);
     }
     // Continuous: thin by asking for fewer ticks, then shorten, then (dates) rotate.
@@ -115,6 +111,42 @@ pub fn bottom_ticks(scale: &PositionScale, length: f64, wanted: usize, pattern: 
         }
         w -= 1;
     }
+}
+
+/// Cut labels to `max_w` px and keep them telling apart: first cut at the
+/// end; if that makes two alike, drop the words every label shares at the
+/// start (and end), marking the cut with an ellipsis.
+pub fn shorten_all(labels: &[String], max_w: f64) -> Vec<String> {
+    let fit = |s: &str| text::fit(s, TICK_SIZE, false, max_w);
+    let simple: Vec<String> = labels.iter().map(|l| fit(l)).collect();
+    let distinct = |v: &[String]| {
+        let mut s: Vec<&String> = v.iter().collect();
+        s.sort();
+        s.windows(2).all(|w| w[0] != w[1])
+    };
+    if distinct(&simple) || labels.len() < 2 {
+        return simple;
+    }
+    let words: Vec<Vec<&str>> = labels.iter().map(|l| l.split(' ').collect()).collect();
+    let shortest = words.iter().map(Vec::len).min().unwrap_or(0);
+    let mut head = 0;
+    while head + 1 < shortest && words.iter().all(|w| w[head] == words[0][head]) {
+        head += 1;
+    }
+    let mut tail = 0;
+    while head + tail + 1 < shortest && words.iter().all(|w| w[w.len() - 1 - tail] == words[0][words[0].len() - 1 - tail]) {
+        tail += 1;
+    }
+    let core: Vec<String> = words
+        .iter()
+        .map(|w| {
+            let mid = w[head..w.len() - tail].join(" ");
+            let pre = if head > 0 { "\u{2026}" } else { "" };
+            let post = if tail > 0 { "\u{2026}" } else { "" };
+            fit(&format!("{pre}{mid}{post}"))
+        })
+        .collect();
+    if distinct(&core) { core } else { simple }
 }
 
 /// Ticks of a vertical axis `length` px long: thinned to a line and a half apart.
@@ -295,8 +327,9 @@ pub enum LegendBody {
     Gradient { colors: Vec<String>, ticks: Vec<Tick> },
     /// Circles of the size scale: (label, radius).
     Sizes(Vec<(String, f64)>),
-    /// Shapes for categories: (label, shape index).
-    Shapes(Vec<(String, usize)>),
+    /// Shapes for categories: (label, shape index, colour when the colour
+    /// channel maps the same categories).
+    Shapes(Vec<(String, usize, Option<String>)>),
 }
 
 #[derive(Debug, Clone)]
@@ -312,7 +345,10 @@ pub fn legends(scales: &Scales, default_color: &str) -> Vec<Legend> {
     let mut out = Vec::new();
     let loc = scales.locale;
     let hidden = |s: &crate::spec::ScaleSpec| s.hide || s.legend == Some(crate::spec::Placement::None);
+    // Colour and shape of the same categories share one legend of coloured shapes.
+    let merged = matches!((&scales.color, &scales.shape), (Some(ColorScale::Categories(c)), Some(s)) if c == s && scales.color_title == scales.shape_title);
     match &scales.color {
+        Some(ColorScale::Categories(_)) if merged => {}
         Some(ColorScale::Categories(cats)) if !hidden(&scales.color_spec) => {
             let vals = crate::plan::Values::Text(cats.iter().cloned().map(Some).collect());
             let items = cats.iter().enumerate().map(|(i, c)| (c.clone(), scales.color_of(&vals, i).unwrap_or_default())).collect();
@@ -340,8 +376,10 @@ pub fn legends(scales: &Scales, default_color: &str) -> Vec<Legend> {
     }
     if let Some(cats) = &scales.shape {
         if !hidden(&scales.shape_spec) {
-            let items = cats.iter().enumerate().map(|(i, c)| (c.clone(), i)).collect();
-            out.push(Legend { title: scales.shape_title.clone(), body: LegendBody::Shapes(items), channel: "shape" });
+            let vals = crate::plan::Values::Text(cats.iter().cloned().map(Some).collect());
+            let items = cats.iter().enumerate().map(|(i, c)| (c.clone(), i, merged.then(|| scales.color_of(&vals, i)).flatten())).collect();
+            let l = Legend { title: scales.shape_title.clone(), body: LegendBody::Shapes(items), channel: "shape" };
+            if merged { out.insert(0, l) } else { out.push(l) }
         }
     }
     let _ = default_color;
@@ -455,7 +493,9 @@ fn symbol(body: &LegendBody, i: usize, cx: f64, cy: f64, pal: &Palette, default_
             let _ = pal;
             Node::Circle { cx, cy, r: items[i].1, paint: p, datum: None }
         }
-        LegendBody::Shapes(items) => Node::Path { d: shape_path(items[i].1, cx, cy, SWATCH / 2.0), paint: Paint::fill(&pal.muted), datum: None },
+        LegendBody::Shapes(items) => {
+            Node::Path { d: shape_path(items[i].1, cx, cy, SWATCH / 2.0), paint: Paint::fill(items[i].2.as_deref().unwrap_or(&pal.muted)), datum: None }
+        }
         LegendBody::Gradient { .. } => Node::group("strata-empty", vec![]),
     }
 }
@@ -574,7 +614,18 @@ mod tests {
         assert_eq!(a, ROTATION);
         assert_eq!(t.len(), 12);
         let max_w = 60.0 / crate::math::sin((-ROTATION).to_radians());
-        assert!(t.iter().all(|t| text::width(&t.label, TICK_SIZE, false) <= max_w + 1e-9 && t.label.ends_with('\u{2026}')));
+        assert!(t.iter().all(|t| text::width(&t.label, TICK_SIZE, false) <= max_w + 1e-9 && t.label.contains('\u{2026}')));
+        // Cut at the end they would all read "Orchard bl…"; the shared words go instead.
+        assert_eq!(t[3].label, "\u{2026}3");
+    }
+
+    #[test]
+    fn shortened_labels_stay_apart() {
+        let labels: Vec<String> = (1..=3).map(|i| format!("Category number {i} with a long name")).collect();
+        let s = shorten_all(&labels, 70.0);
+        assert_eq!(s, ["\u{2026}1\u{2026}", "\u{2026}2\u{2026}", "\u{2026}3\u{2026}"]);
+        let plain = shorten_all(&["Bramley".to_string(), "Discovery".to_string()], 40.0);
+        assert!(plain[0].starts_with("Bra") && plain[1].starts_with("Dis"));
     }
 
     #[test]
