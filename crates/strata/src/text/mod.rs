@@ -137,6 +137,33 @@ mod tests {
         }
     }
 
+    #[derive(serde::Deserialize)]
+    struct BrowserCase {
+        text: String,
+        weight: String,
+        size: f64,
+        width: f64,
+    }
+    #[derive(serde::Deserialize)]
+    struct BrowserFixture {
+        loaded: bool,
+        cases: Vec<BrowserCase>,
+    }
+
+    /// Debian Chromium's canvas measureText with the bundled font loaded
+    /// (tests/reference/gen/browser_widths.sh): the browser applies kerning,
+    /// the engine does not, so allow 2 % and half a pixel.
+    #[test]
+    fn widths_match_a_browser() {
+        let f: BrowserFixture = serde_json::from_str(include_str!("../../../../tests/reference/fixtures/format/browser_widths.json")).unwrap();
+        assert!(f.loaded, "the browser did not load the font when the fixture was made");
+        assert_eq!(f.cases.len(), 20);
+        for c in &f.cases {
+            let ours = width(&c.text, c.size, c.weight == "bold");
+            assert!((ours - c.width).abs() <= 0.02 * c.width + 0.5, "{:?} {} {}px: ours {ours}, browser {}", c.text, c.weight, c.size, c.width);
+        }
+    }
+
     #[test]
     fn wrap_respects_width() {
         let lines = wrap("a fairly long title that must wrap somewhere", 16.0, true, 150.0);
