@@ -214,7 +214,12 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
     let (h_scale, v_scale) = if flip { (&scales.y, &scales.x) } else { (&scales.x, &scales.y) };
     let v_ticks0 = if v_shown { guides::left_ticks(v_scale, guess_h, wanted(v_spec, guess_h, 45.0), v_spec.format.as_deref(), loc, max_left) } else { vec![] };
     let v_label_w = guides::widest_label(&v_ticks0);
-    let left = pad + if v_shown { guides::left_axis_width(v_label_w, !v_title.is_empty()) } else { 0.0 };
+    // Placement: the vertical axis left (or right), the horizontal one at the bottom (or top).
+    let v_right = v_spec.axis == Some(Placement::Right);
+    let h_top = h_spec.axis == Some(Placement::Top);
+    let v_axis_w = if v_shown { guides::left_axis_width(v_label_w, !v_title.is_empty()) } else { 0.0 };
+    let left = pad + if v_right { 0.0 } else { v_axis_w };
+    let right = if v_right { right - v_axis_w } else { right };
     let frame_w = (right - left).max(20.0);
     let max_label_h = (bottom - top) * 0.3;
     let (h_ticks, h_angle) = if h_shown {
@@ -254,7 +259,8 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
             (frame_w, h_ticks, h_angle)
         }
     };
-    let plot_bottom = bottom - if h_shown { guides::bottom_axis_height(&h_ticks, h_angle, !h_title.is_empty()) } else { 0.0 };
+    let h_axis_h = if h_shown { guides::bottom_axis_height(&h_ticks, h_angle, !h_title.is_empty()) } else { 0.0 };
+    let (top, plot_bottom) = if h_top { (top + h_axis_h, bottom) } else { (top, bottom - h_axis_h) };
     let frame = Frame { left, top, width: frame_w, height: (plot_bottom - top).max(20.0) };
     let coord = Coord::new(&spec.coords, frame);
     // Vertical ticks again for the real height, kept within the margin.
@@ -266,8 +272,10 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
     };
     // Vertical categories in flipped coordinates run top to bottom.
     let v_ticks = if flip { v_ticks.into_iter().map(|mut t| { t.unit = 1.0 - t.unit; t }).collect() } else { v_ticks };
-    let h_axis = AxisGuide { side: Side::Bottom, scale: h_scale, ticks: h_ticks, title: h_title, angle: h_angle };
-    let v_axis = AxisGuide { side: Side::Left, scale: v_scale, ticks: v_ticks, title: v_title, angle: 0.0 };
+    let h_side = if h_top { Side::Top } else { Side::Bottom };
+    let v_side = if v_right { Side::Right } else { Side::Left };
+    let h_axis = AxisGuide { side: h_side, scale: h_scale, ticks: h_ticks, title: h_title, angle: h_angle };
+    let v_axis = AxisGuide { side: v_side, scale: v_scale, ticks: v_ticks, title: v_title, angle: 0.0 };
 
     if !polar {
         let mut grid = guides::grid(&v_axis, &coord, &pal);

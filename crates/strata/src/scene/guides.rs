@@ -27,6 +27,10 @@ pub const ROTATION: f64 = -45.0;
 pub enum Side {
     Bottom,
     Left,
+    /// `"axis": "top"` on the horizontal scale.
+    Top,
+    /// `"axis": "right"` on the vertical scale.
+    Right,
 }
 
 pub struct AxisGuide<'a> {
@@ -203,11 +207,11 @@ pub fn grid(axis: &AxisGuide, coord: &Coord, pal: &Palette) -> Vec<Node> {
     axis.ticks
         .iter()
         .map(|t| match axis.side {
-            Side::Left => {
+            Side::Left | Side::Right => {
                 let y = f.bottom() - t.unit * f.height;
                 Node::Line { x1: f.left, y1: y, x2: f.right(), y2: y, paint: Paint::stroke(&pal.grid, 1.0) }
             }
-            Side::Bottom => {
+            Side::Bottom | Side::Top => {
                 let x = f.left + t.unit * f.width;
                 Node::Line { x1: x, y1: f.top, x2: x, y2: f.bottom(), paint: Paint::stroke(&pal.grid, 1.0) }
             }
@@ -281,10 +285,73 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
                 });
             }
         }
+        Side::Top => {
+            kids.push(Node::Line { x1: f.left, y1: f.top, x2: f.right(), y2: f.top, paint: Paint::stroke(&pal.axis, 1.0) });
+            let labels_h = bottom_labels_height(&axis.ticks, axis.angle);
+            for t in &axis.ticks {
+                let x = f.left + t.unit * f.width;
+                if axis.angle != 0.0 {
+                    // Rotated about the label's start, just above the tick, reading upward.
+                    kids.push(Node::Text {
+                        x: x - TICK_SIZE * 0.3,
+                        y: f.top - GAP - TICK_SIZE * text::CAP / 2.0 + TICK_SIZE * text::CAP,
+                        text: t.label.clone(),
+                        size: TICK_SIZE,
+                        anchor: Anchor::Start,
+                        bold: false,
+                        angle: axis.angle,
+                        fill: pal.muted.clone(),
+                        class: "strata-tick".into(),
+                    });
+                } else {
+                    let y = f.top - GAP - TICK_SIZE * text::LINE_HEIGHT + baseline - TICK_SIZE * (text::LINE_HEIGHT - 1.0) / 2.0;
+                    kids.push(label(x, y, &t.label, Anchor::Middle, &pal.muted, "strata-tick"));
+                }
+            }
+            if !axis.title.is_empty() {
+                let y = f.top - GAP - labels_h - GAP - TITLE_SIZE * text::LINE_HEIGHT + TITLE_SIZE * text::ASCENT;
+                kids.push(Node::Text {
+                    x: f.left + f.width / 2.0,
+                    y,
+                    text: text::fit(axis.title, TITLE_SIZE, false, f.width),
+                    size: TITLE_SIZE,
+                    anchor: Anchor::Middle,
+                    bold: false,
+                    angle: 0.0,
+                    fill: pal.text.clone(),
+                    class: "strata-axis-title".into(),
+                });
+            }
+        }
+        Side::Right => {
+            if axis.scale.is_discrete() {
+                kids.push(Node::Line { x1: f.right(), y1: f.top, x2: f.right(), y2: f.bottom(), paint: Paint::stroke(&pal.axis, 1.0) });
+            }
+            for t in &axis.ticks {
+                let y = f.bottom() - t.unit * f.height;
+                kids.push(label(f.right() + GAP, y + TICK_SIZE * text::CAP / 2.0, &t.label, Anchor::Start, &pal.muted, "strata-tick"));
+            }
+            if !axis.title.is_empty() {
+                let x = f.right() + GAP + label_width + GAP + TITLE_SIZE * text::ASCENT;
+                kids.push(Node::Text {
+                    x,
+                    y: f.top + f.height / 2.0,
+                    text: text::fit(axis.title, TITLE_SIZE, false, f.height),
+                    size: TITLE_SIZE,
+                    anchor: Anchor::Middle,
+                    bold: false,
+                    angle: 90.0,
+                    fill: pal.text.clone(),
+                    class: "strata-axis-title".into(),
+                });
+            }
+        }
     }
     let (class, label) = match axis.side {
         Side::Bottom => ("strata-axis strata-axis-bottom", "horizontal axis"),
+        Side::Top => ("strata-axis strata-axis-top", "horizontal axis"),
         Side::Left => ("strata-axis strata-axis-left", "vertical axis"),
+        Side::Right => ("strata-axis strata-axis-right", "vertical axis"),
     };
     let title = if axis.title.is_empty() { label.to_string() } else { format!("{label}: {}", axis.title) };
     Node::Group { class: class.into(), role: None, label: Some(title), children: kids }
