@@ -371,6 +371,23 @@ mod tests {
     }
 
     #[test]
+    fn axes_move_top_and_right() {
+        let spec = r#"{ "data": { "rows": [ {"m": 1, "v": 120}, {"m": 2, "v": 340}, {"m": 3, "v": 610} ] },
+            "layers": [ { "draw": "line", "x": "m", "y": "v" } ],
+            "scales": { "x": { "axis": "top" }, "y": { "axis": "right" } } }"#;
+        let s = render(spec, None, &RenderOptions::default()).unwrap().scene;
+        let marks = s.marks();
+        let Node::Path { d, .. } = marks[0] else { panic!("a line") };
+        let nums: Vec<f64> = d.split(['M', 'L', ',']).filter(|t| !t.is_empty()).map(|t| t.parse().unwrap()).collect();
+        let (xs, ys): (Vec<f64>, Vec<f64>) = (nums.iter().step_by(2).copied().collect(), nums.iter().skip(1).step_by(2).copied().collect());
+        let ticks = all(&s, "strata-tick");
+        // Vertical labels right of the data, horizontal labels above it.
+        let vertical: Vec<_> = ticks.iter().filter(|t| t.0 > xs.iter().cloned().fold(0.0, f64::max)).collect();
+        let horizontal: Vec<_> = ticks.iter().filter(|t| t.1 < ys.iter().cloned().fold(f64::INFINITY, f64::min)).collect();
+        assert!(vertical.len() >= 3 && horizontal.len() >= 3, "{ticks:?}");
+    }
+
+    #[test]
     fn height_from_aspect_or_height() {
         let mut spec = Spec::default();
         assert_eq!(chart_size(&spec, &SceneOptions { width: 640.0 }), (640.0, 400.0));
