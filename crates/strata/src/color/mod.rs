@@ -436,6 +436,23 @@ mod tests {
     }
 
     #[test]
+    fn stylesheet_defaults_match_the_themes() {
+        // www/strata-theme.css repeats the theme colours as fallbacks; keep them in step.
+        let css = include_str!("../../../../www/strata-theme.css");
+        let block = |start: &str| {
+            let i = css.find(start).unwrap();
+            let j = i + css[i..].find('}').unwrap();
+            &css[i..j]
+        };
+        for (sel, p) in [("svg.strata.strata-auto {", Palette::light()), ("svg.strata.strata-dark {", Palette::dark())] {
+            let b = block(sel);
+            for (slot, v) in [("background", &p.background), ("text", &p.text), ("muted", &p.muted), ("grid", &p.grid), ("axis", &p.axis)] {
+                assert!(b.contains(&format!("--strata-default-{slot}: {v};")), "{sel} {slot} {v}");
+            }
+        }
+    }
+
+    #[test]
     fn wcag_contrast() {
         // WCAG 2.1: black on white is 21:1; #767676 on white is 4.54:1 (from memory).
         assert!((contrast("#000000", "#ffffff").unwrap() - 21.0).abs() < 1e-9);
