@@ -418,6 +418,26 @@ mod tests {
     }
 
     #[test]
+    fn palettes_by_name() {
+        let mut l = layer(Geometry::Point, vec![1.0, 2.0, 3.0], vec![1.0, 2.0, 3.0]);
+        l.data.channels.insert("color", Values::Num(vec![Some(10.0), Some(20.0), Some(30.0)]));
+        let s = train(&spec(r#"{ "color": { "palette": "loam" } }"#), std::slice::from_ref(&l)).unwrap();
+        let c = l.data.get("color").unwrap();
+        assert_eq!(s.color_of(c, 0), Some(color::LOAM.at(0.0)));
+        assert_eq!(s.color_of(c, 2), Some(color::LOAM.at(1.0)));
+        // Numbers spanning zero default to the diverging ramp, centred on zero.
+        l.data.channels.insert("color", Values::Num(vec![Some(-10.0), Some(0.0), Some(30.0)]));
+        let s = train(&spec("{}"), std::slice::from_ref(&l)).unwrap();
+        assert_eq!(s.color_of(l.data.get("color").unwrap(), 1), Some(color::CROSSING.at(0.5)));
+        // Categories take the default palette in order of first appearance.
+        l.data.channels.insert("color", Values::Text(vec![Some("b".into()), Some("a".into()), Some("b".into())]));
+        let s = train(&spec("{}"), std::slice::from_ref(&l)).unwrap();
+        let c = l.data.get("color").unwrap();
+        assert_eq!(s.color_of(c, 0).as_deref(), Some(color::HARBOUR[0]));
+        assert_eq!(s.color_of(c, 1).as_deref(), Some(color::HARBOUR[1]));
+    }
+
+    #[test]
     fn domains_span_every_layer() {
         let layers = [layer(Geometry::Point, vec![0.0, 5.0], vec![10.0, 20.0]), layer(Geometry::Line, vec![3.0, 12.0], vec![15.0, 42.0])];
         let s = train(&spec("{}"), &layers).unwrap();
