@@ -150,8 +150,8 @@ impl PositionScale {
     }
 
     /// The domain widened to the ends of the labelling the axis will show
-    /// with about `wanted` ticks: out to multiples of the Talbot-Lin-Hanrahan
-    /// step for linear, sqrt and symlog scales; powers of the base for log scales;
+    /// with about `wanted` ticks: the Talbot-Lin-Hanrahan labelling that
+    /// covers the data, for linear, sqrt and symlog scales; powers of the base for log scales;
     /// calendar boundaries for time. Reversed domains stay reversed.
     pub fn nice(&self, wanted: usize) -> PositionScale {
         let PositionScale::Continuous { lo, hi, transform, time, .. } = self else { return self.clone() };
@@ -173,14 +173,14 @@ impl PositionScale {
                     (math::pow(*base, (math::ln(a) / lb + 1e-9).floor()), math::pow(*base, (math::ln(b) / lb - 1e-9).ceil()))
                 }
                 _ => {
-                    // Out to the next multiples of the step the axis will use.
-                    let t = ticks::extended(a, b, wanted, false);
+                    // The best labelling that covers the data ("loose"); its
+                    // ends become the domain and its step the axis's step.
+                    let t = ticks::extended(a, b, wanted, true);
                     if t.len() < 2 {
                         return self.clone();
                     }
-                    let step = t[1] - t[0];
-                    fixed = Some(step);
-                    (ticks::clean((a / step + 1e-9).floor() * step, step), ticks::clean((b / step - 1e-9).ceil() * step, step))
+                    fixed = Some(t[1] - t[0]);
+                    (t[0], t[t.len() - 1])
                 }
             }
         };
@@ -496,13 +496,13 @@ mod tests {
 
     #[test]
     fn nice_reaches_the_next_tick() {
-        // Data 0..622 with about 4 ticks: the labelling's step is 200, so the
-        // domain runs to 800 and the top tick is the domain's end (the same
-        // search on 0..800 alone would pick steps of 250 and stop at 750).
+        // Data 0..622 with about 4 ticks: the best covering labelling is
+        // 0, 250, 500, 750; the domain becomes 0..750 and the axis keeps that
+        // step, so its top tick is the domain's end.
         let s = PositionScale::linear(0.0, 622.0).nice(4);
-        assert_eq!(s.domain(), Some((0.0, 800.0)), "{s:?}");
+        assert_eq!(s.domain(), Some((0.0, 750.0)), "{s:?}");
         let t = s.ticks(4, None);
-        assert_eq!(t.iter().map(|t| t.value).collect::<Vec<_>>(), [0.0, 200.0, 400.0, 600.0, 800.0]);
+        assert_eq!(t.iter().map(|t| t.value).collect::<Vec<_>>(), [0.0, 250.0, 500.0, 750.0]);
         let s = PositionScale::linear(0.0, 622.0).nice(6);
         assert_eq!(s.domain(), Some((0.0, 700.0)));
         assert_eq!(s.ticks(6, None).last().map(|t| t.value), Some(700.0));

@@ -145,14 +145,13 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
     if !legends.is_empty() {
         let col_w = legends.iter().map(|l| guides::column_size(l).0).fold(0.0, f64::max);
         let col_h: f64 = legends.iter().map(|l| guides::column_size(l).1 + 12.0).sum();
-        let wants_top = legends.iter().any(|l| {
-            let placement = match l.channel {
-                "size" => scales.size_spec.legend,
-                "shape" => scales.shape_spec.legend,
-                _ => scales.color_spec.legend,
-            };
-            placement == Some(Placement::Top) || placement == Some(Placement::Bottom)
-        });
+        let placement_of = |l: &Legend| match l.channel {
+            "size" => scales.size_spec.legend,
+            "shape" => scales.shape_spec.legend,
+            _ => scales.color_spec.legend,
+        };
+        let wants_top = legends.iter().any(|l| matches!(placement_of(l), Some(Placement::Top) | Some(Placement::Bottom)));
+        let wants_bottom = legends.iter().any(|l| placement_of(l) == Some(Placement::Bottom));
         let on_right = !narrow && !wants_top && col_w <= width * 0.25 && col_h <= bottom - top;
         legend_on_right = on_right;
         if on_right {
@@ -163,22 +162,31 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
             }
             right -= col_w + if narrow { 8.0 } else { 16.0 };
         } else {
-            // Rows on top, legends side by side when they fit.
+            // Rows on top (or, when asked, at the bottom), side by side when they fit.
             let avail = width - 2.0 * pad;
-            let mut x = pad;
-            let mut line_h: f64 = 0.0;
-            for l in &legends {
+            let mut placed: Vec<(usize, f64, f64)> = Vec::new(); // legend, x, y offset
+            let (mut x, mut y, mut line_h) = (pad, 0.0, 0.0f64);
+            for (i, l) in legends.iter().enumerate() {
                 let (w, h) = guides::row_size(l, avail);
                 if x > pad && x + w > width - pad {
-                    top += line_h + 6.0;
+                    y += line_h + 6.0;
                     x = pad;
                     line_h = 0.0;
                 }
-                legend_nodes.push(guides::rows(l, x, top, avail - (x - pad), &pal, &pal.mark));
+                placed.push((i, x, y));
                 x += w + 24.0;
                 line_h = line_h.max(h);
             }
-            top += line_h + 8.0;
+            let total = y + line_h;
+            let origin = if wants_bottom { bottom - total } else { top };
+            for (i, x, dy) in placed {
+                legend_nodes.push(guides::rows(&legends[i], x, origin + dy, avail - (x - pad), &pal, &pal.mark));
+            }
+            if wants_bottom {
+                bottom -= total + 10.0;
+            } else {
+                top += total + 8.0;
+            }
         }
     }
 
