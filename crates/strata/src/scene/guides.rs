@@ -657,7 +657,7 @@ fn wrap_legend(l: &Legend, kids: Vec<Node>) -> Node {
         _ => "colour",
     };
     let label = if l.title.is_empty() { format!("{what} legend") } else { format!("{what} legend: {}", l.title) };
-    Node::Group { class: format!("strata-legend strata-legend-{}", l.channel), role: Some("list".into()), label: Some(label), children: kids }
+    Node::Group { class: format!("strata-legend strata-legend-{}", l.channel), role: Some("group".into()), label: Some(label), children: kids }
 }
 
 #[cfg(test)]
