@@ -72,6 +72,87 @@ fn line_rows(p: &Picture, x: u32, y0: u32, y1: u32) -> Vec<f64> {
     out
 }
 
+/// Centroids of connected blobs of colour `c` (more than 10 pixels).
+fn blobs_of(p: &Picture, c: [f64; 3], w: u32, h: u32) -> Vec<(f64, f64)> {
+    let mut seen = vec![false; (w * h) as usize];
+    let mut blobs: Vec<(f64, f64)> = Vec::new();
+    let hit = |x: u32, y: u32| p.coverage(x, y, c) >= 0.5 && p.near(x, y, c, 60.0);
+    for y in 0..h {
+        for x in 0..w {
+            if seen[(y * w + x) as usize] || !hit(x, y) {
+                continue;
+            }
+            let mut stack = vec![(x, y)];
+            let (mut sx, mut sy, mut n) = (0.0, 0.0, 0.0);
+            while let Some((a, b)) = stack.pop() {
+                if a >= w || b >= h || seen[(b * w + a) as usize] || !hit(a, b) {
+                    continue;
+                }
+                seen[(b * w + a) as usize] = true;
+                sx += a as f64 + 0.5;
+                sy += b as f64 + 0.5;
+                n += 1.0;
+                stack.extend([(a + 1, b), (a.wrapping_sub(1), b), (a, b + 1), (a, b.wrapping_sub(1))]);
+            }
+            if n > 10.0 {
+                blobs.push((sx / n, sy / n));
+            }
+        }
+    }
+    blobs
+}
+
+/// Darkness-weighted centres of non-white runs along row y.
+fn line_cols(p: &Picture, y: u32, w: u32) -> Vec<f64> {
+    let mut out = Vec::new();
+    let mut run: Vec<(u32, f64)> = Vec::new();
+    for x in 0..w {
+        let d = 255.0 - p.rgb(x, y).iter().cloned().fold(255.0, f64::min);
+        if d > 4.0 {
+            run.push((x, d));
+        } else if !run.is_empty() {
+            let s: f64 = run.iter().map(|r| r.1).sum();
+            out.push(run.iter().map(|r| (r.0 as f64 + 0.5) * r.1).sum::<f64>() / s);
+            run.clear();
+        }
+    }
+    out
+}
+
+#[test]
+fn dates_land_on_calendar_grid_lines() {
+    // Points on the first day of each quarter; the time axis ticks quarters,
+    // so each point must sit on a vertical grid line.
+    let spec = r#"{
+      "data": { "rows": [ {"d": "2024-01-01", "y": 1}, {"d": "2024-04-01", "y": 2}, {"d": "2024-07-01", "y": 3},
+                          {"d": "2024-10-01", "y": 4}, {"d": "2025-01-01", "y": 5} ], "types": { "d": "date" } },
+      "layers": [ { "draw": "point", "x": "d", "y": "y", "style": { "radius": 4 } } ],
+      "scales": { "x": { "ticks": 5 }, "y": { "domain": [0, 6] } },
+      "size": { "width": 600, "height": 400 },
+      "theme": "light"
+    }"#;
+    let r = render(spec, None, &RenderOptions::default()).unwrap();
+    let p = Picture::new(&r.svg);
+    let mut blobs = blobs_of(&p, hex(strata::color::HARBOUR[0]), 600, 400);
+    blobs.sort_by(|a, b| a.0.total_cmp(&b.0));
+    assert_eq!(blobs.len(), 5, "{blobs:?}");
+    // A row between the first two points' heights, clear of horizontal lines.
+    let mut row = ((blobs[0].1 + blobs[1].1) / 2.0).round() as u32;
+    while line_cols(&p, row, 600).len() < 3 || line_cols(&p, row, 600).len() > 20 {
+        row += 1;
+    }
+    let lines = line_cols(&p, row, 600);
+    for b in &blobs {
+        assert!(lines.iter().any(|l| (l - b.0).abs() <= 1.0), "point at x {} is off the grid {lines:?}", b.0);
+    }
+    // Quarters differ in length (91, 91, 92, 92 days): spacing follows the calendar.
+    let gaps: Vec<f64> = blobs.windows(2).map(|w| w[1].0 - w[0].0).collect();
+    let per_day = (blobs[4].0 - blobs[0].0) / 366.0;
+    for (g, days) in gaps.iter().zip([91.0, 91.0, 92.0, 92.0]) {
+        assert!((g - days * per_day).abs() <= 1.0, "{gaps:?}");
+    }
+}
+
 #[test]
 fn bars_land_on_their_values() {
     let spec = r#"{
@@ -143,31 +224,7 @@ fn points_on_a_log_axis_land_on_their_values() {
     let r = render(spec, None, &RenderOptions::default()).unwrap();
     let p = Picture::new(&r.svg);
     let c = hex(strata::color::HARBOUR[0]);
-    // Blobs of the mark colour: centroids.
-    let mut seen = vec![false; 500 * 400];
-    let mut blobs: Vec<(f64, f64)> = Vec::new();
-    for y in 0..400u32 {
-        for x in 0..500u32 {
-            if seen[(y * 500 + x) as usize] || p.coverage(x, y, c) < 0.5 || !p.near(x, y, c, 60.0) {
-                continue;
-            }
-            let mut stack = vec![(x, y)];
-            let (mut sx, mut sy, mut n) = (0.0, 0.0, 0.0);
-            while let Some((a, b)) = stack.pop() {
-                if a >= 500 || b >= 400 || seen[(b * 500 + a) as usize] || p.coverage(a, b, c) < 0.5 || !p.near(a, b, c, 60.0) {
-                    continue;
-                }
-                seen[(b * 500 + a) as usize] = true;
-                sx += a as f64 + 0.5;
-                sy += b as f64 + 0.5;
-                n += 1.0;
-                stack.extend([(a + 1, b), (a.wrapping_sub(1), b), (a, b + 1), (a, b.wrapping_sub(1))]);
-            }
-            if n > 10.0 {
-                blobs.push((sx / n, sy / n));
-            }
-        }
-    }
+    let mut blobs = blobs_of(&p, c, 500, 400);
     blobs.sort_by(|a, b| a.0.total_cmp(&b.0));
     assert_eq!(blobs.len(), 3, "{blobs:?}");
     // x: log spacing, so the middle point is halfway between the others.

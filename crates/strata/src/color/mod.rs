@@ -138,7 +138,8 @@ pub fn oklab_to_hex(lab: [f64; 3]) -> String {
 
 /// Euclidean distance in OKLab (ΔE_OK).
 pub fn delta_e_ok(a: [f64; 3], b: [f64; 3]) -> f64 {
-    ((a[0] - b[0]).powi(2) + (a[1] - b[1]).powi(2) + (a[2] - b[2]).powi(2)).sqrt()
+    let d = [a[0] - b[0], a[1] - b[1], a[2] - b[2]];
+    (d[0] * d[0] + d[1] * d[1] + d[2] * d[2]).sqrt()
 }
 
 // ---------------------------------------------------------------- deficiency
@@ -432,6 +433,23 @@ mod tests {
             }
         }
         assert_eq!(f.simulated.len(), 33);
+    }
+
+    #[test]
+    fn stylesheet_defaults_match_the_themes() {
+        // www/strata-theme.css repeats the theme colours as fallbacks; keep them in step.
+        let css = include_str!("../../../../www/strata-theme.css");
+        let block = |start: &str| {
+            let i = css.find(start).unwrap();
+            let j = i + css[i..].find('}').unwrap();
+            &css[i..j]
+        };
+        for (sel, p) in [("svg.strata.strata-auto {", Palette::light()), ("svg.strata.strata-dark {", Palette::dark())] {
+            let b = block(sel);
+            for (slot, v) in [("background", &p.background), ("text", &p.text), ("muted", &p.muted), ("grid", &p.grid), ("axis", &p.axis)] {
+                assert!(b.contains(&format!("--strata-default-{slot}: {v};")), "{sel} {slot} {v}");
+            }
+        }
     }
 
     #[test]

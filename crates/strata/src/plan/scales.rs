@@ -399,3 +399,73 @@ fn num_as_text_position(layers: &[PlannedLayer], channels: &[&str]) -> Vec<Strin
     v.dedup();
     v.into_iter().map(l_key).collect()
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::plan::LayerData;
+    use crate::spec::{Arrange, Style};
+
+    fn layer(geometry: Geometry, xs: Vec<f64>, ys: Vec<f64>) -> PlannedLayer {
+        let mut data = LayerData { len: xs.len(), ..Default::default() };
+        data.channels.insert("x", Values::Num(xs.into_iter().map(Some).collect()));
+        data.channels.insert("y", Values::Num(ys.into_iter().map(Some).collect()));
+        PlannedLayer { index: 0, geometry, arrange: Arrange::None, style: Style::default(), data }
+    }
+
+    fn spec(scales: &str) -> Spec {
+        crate::spec::parse_spec(&format!(r#"{{ "layers": [ {{ "draw": "point" }} ], "scales": {scales} }}"#)).unwrap()
+    }
+
+    #[test]
+    fn palettes_by_name() {
+        let mut l = layer(Geometry::Point, vec![1.0, 2.0, 3.0], vec![1.0, 2.0, 3.0]);
+        l.data.channels.insert("color", Values::Num(vec![Some(10.0), Some(20.0), Some(30.0)]));
+        let s = train(&spec(r#"{ "color": { "palette": "loam" } }"#), std::slice::from_ref(&l)).unwrap();
+        let c = l.data.get("color").unwrap();
+        assert_eq!(s.color_of(c, 0), Some(color::LOAM.at(0.0)));
+        assert_eq!(s.color_of(c, 2), Some(color::LOAM.at(1.0)));
+        // Numbers spanning zero default to the diverging ramp, centred on zero.
+        l.data.channels.insert("color", Values::Num(vec![Some(-10.0), Some(0.0), Some(30.0)]));
+        let s = train(&spec("{}"), std::slice::from_ref(&l)).unwrap();
+        assert_eq!(s.color_of(l.data.get("color").unwrap(), 1), Some(color::CROSSING.at(0.5)));
+        // Categories take the default palette in order of first appearance.
+        l.data.channels.insert("color", Values::Text(vec![Some("b".into()), Some("a".into()), Some("b".into())]));
+        let s = train(&spec("{}"), std::slice::from_ref(&l)).unwrap();
+        let c = l.data.get("color").unwrap();
+        assert_eq!(s.color_of(c, 0).as_deref(), Some(color::HARBOUR[0]));
+        assert_eq!(s.color_of(c, 1).as_deref(), Some(color::HARBOUR[1]));
+    }
+
+    #[test]
+    fn domains_span_every_layer() {
+        let layers = [layer(Geometry::Point, vec![0.0, 5.0], vec![10.0, 20.0]), layer(Geometry::Line, vec![3.0, 12.0], vec![15.0, 42.0])];
+        let s = train(&spec("{}"), &layers).unwrap();
+        assert_eq!(s.x.domain(), Some((0.0, 12.0)));
+        assert_eq!(s.y.domain(), Some((10.0, 42.0)));
+        assert!(s.x_nice && s.y_nice);
+    }
+
+    #[test]
+    fn bars_start_at_zero_unless_told() {
+        let layers = [layer(Geometry::Bar, vec![1.0, 2.0], vec![30.0, 45.0])];
+        assert_eq!(train(&spec("{}"), &layers).unwrap().y.domain(), Some((0.0, 45.0)));
+        let s = train(&spec(r#"{ "y": { "zero": false } }"#), &layers).unwrap();
+        assert_eq!(s.y.domain(), Some((30.0, 45.0)));
+    }
+
+    #[test]
+    fn explicit_reverse_and_log() {
+        let layers = [layer(Geometry::Point, vec![-1.0, 0.0, 5.0, 500.0], vec![1.0, 2.0, 3.0, 4.0])];
+        let s = train(&spec(r#"{ "x": { "kind": "log" }, "y": { "domain": [0, 10], "reverse": true } }"#), &layers).unwrap();
+        // Values at or below zero have no place on a log axis.
+        assert_eq!(s.x.domain(), Some((5.0, 500.0)));
+        assert_eq!(s.y.domain(), Some((10.0, 0.0)));
+        assert!(!s.y_nice);
+        let dates = train(&spec(r#"{ "x": { "kind": "time", "domain": ["2024-01-01", "2024-12-31"] } }"#), &layers).unwrap();
+        assert!(dates.x.is_time());
+        assert_eq!(dates.x.domain(), Some((19723.0 * 86_400_000.0, 20088.0 * 86_400_000.0)));
+        assert!(train(&spec(r#"{ "x": { "kind": "log", "base": 1 } }"#), &layers).is_err());
+        assert!(train(&spec(r#"{ "color": { "palette": "no-such-name" } }"#), &layers).is_err());
+    }
+}

@@ -150,8 +150,8 @@ impl PositionScale {
     }
 
     /// The domain widened to the ends of the labelling the axis will show
-    /// with about `wanted` ticks: out to multiples of the Talbot-Lin-Hanrahan
-    /// step for linear, sqrt and symlog scales; powers of the base for log scales;
+    /// with about `wanted` ticks: the Talbot-Lin-Hanrahan labelling that
+    /// covers the data, for linear, sqrt and symlog scales; powers of the base for log scales;
     /// calendar boundaries for time. Reversed domains stay reversed.
     pub fn nice(&self, wanted: usize) -> PositionScale {
         let PositionScale::Continuous { lo, hi, transform, time, .. } = self else { return self.clone() };
@@ -173,14 +173,14 @@ impl PositionScale {
                     (math::pow(*base, (math::ln(a) / lb + 1e-9).floor()), math::pow(*base, (math::ln(b) / lb - 1e-9).ceil()))
                 }
                 _ => {
-                    // Out to the next multiples of the step the axis will use.
-                    let t = ticks::extended(a, b, wanted, false);
+                    // The best labelling that covers the data ("loose"); its
+                    // ends become the domain and its step the axis's step.
+                    let t = ticks::extended(a, b, wanted, true);
                     if t.len() < 2 {
                         return self.clone();
                     }
-                    let step = t[1] - t[0];
-                    fixed = Some(step);
-                    (ticks::clean((a / step + 1e-9).floor() * step, step), ticks::clean((b / step - 1e-9).ceil() * step, step))
+                    fixed = Some(t[1] - t[0]);
+                    (t[0], t[t.len() - 1])
                 }
             }
         };
@@ -239,6 +239,12 @@ impl PositionScale {
                     let mut k = 1;
                     while (n / k) + 1 > wanted.max(2) + wanted.max(2) / 2 {
                         k += 1;
+                    }
+                    // Prefer a k that keeps both ends labelled.
+                    if k > 1 {
+                        if let Some(d) = (k..=n.min(3 * k)).find(|d| n % d == 0) {
+                            k = d;
+                        }
                     }
                     let t: Vec<f64> = (0..=n).step_by(k).map(|i| ticks::clean(a + i as f64 * s, s)).collect();
                     return (t, TickStep::Even(s * k as f64));
@@ -380,19 +386,21 @@ impl SizeScale {
         let t = if self.hi > self.lo { ((v - self.lo) / (self.hi - self.lo)).clamp(0.0, 1.0) } else { 1.0 };
         Some(self.max_radius * t.sqrt())
     }
-    /// Values for a size legend: up to three nice ticks above the low end.
+    /// Values for a size legend: up to three nice values above the low end,
+    /// spread from small to the largest.
     pub fn legend_values(&self) -> Vec<f64> {
-        let t = ticks::extended(self.lo, self.hi, 4, false);
-        let mut v: Vec<f64> = t.into_iter().filter(|x| *x > self.lo && *x <= self.hi * (1.0 + 1e-9)).collect();
-        while v.len() > 3 {
-            v.remove(0);
+        let t = ticks::extended(self.lo, self.hi, 5, false);
+        let v: Vec<f64> = t.into_iter().filter(|x| *x > self.lo && *x <= self.hi * (1.0 + 1e-9)).collect();
+        if v.len() <= 3 {
+            return v;
         }
-        v
+        let n = v.len();
+        vec![v[0], v[(n - 1) / 2], v[n - 1]]
     }
 }
 
 /// The shapes of the shape channel, in the order categories take them.
-pub const SHAPES: [&str; 7] = ["circle", "square", "triangle", "diamond", "plus", "cross", "wye"];
+pub const SHAPES: [&str; 7] = ["circle", "square", "triangle", "diamond", "plus", "cross", "star"];
 
 /// SVG path data of shape `i` centred at (cx, cy) with the area of a
 /// circle of radius `r`, so no shape looks bigger than another (common practice).
@@ -433,13 +441,14 @@ pub fn shape_path(i: usize, cx: f64, cy: f64, r: f64) -> String {
             }
         }
         _ => {
-            // "wye": a three-pointed star; six triangles of sides s and
-            // 0.45 s at 60 degrees have area 6 x 0.5 x 0.45 s^2 sin 60.
-            let s = (area / (1.35 * 3f64.sqrt() / 2.0)).sqrt();
+            // "star": five points; ten triangles of sides s and 0.4 s at 36
+            // degrees have area 10 x 0.5 x 0.4 s^2 sin 36.
+            let sin36 = math::sin(std::f64::consts::PI / 5.0);
+            let s = (area / (2.0 * sin36)).sqrt();
             let mut p = Vec::new();
-            for k in 0..6 {
-                let ang = std::f64::consts::PI / 3.0 * k as f64 - std::f64::consts::FRAC_PI_2;
-                let rr = if k % 2 == 0 { s } else { s * 0.45 };
+            for k in 0..10 {
+                let ang = std::f64::consts::PI / 5.0 * k as f64 - std::f64::consts::FRAC_PI_2;
+                let rr = if k % 2 == 0 { s } else { s * 0.4 };
                 p.push((rr * math::cos(ang), rr * math::sin(ang)));
             }
             p
@@ -487,13 +496,13 @@ mod tests {
 
     #[test]
     fn nice_reaches_the_next_tick() {
-        // Data 0..622 with about 4 ticks: the labelling's step is 200, so the
-        // domain runs to 800 and the top tick is the domain's end (the same
-        // search on 0..800 alone would pick steps of 250 and stop at 750).
+        // Data 0..622 with about 4 ticks: the best covering labelling is
+        // 0, 250, 500, 750; the domain becomes 0..750 and the axis keeps that
+        // step, so its top tick is the domain's end.
         let s = PositionScale::linear(0.0, 622.0).nice(4);
-        assert_eq!(s.domain(), Some((0.0, 800.0)), "{s:?}");
+        assert_eq!(s.domain(), Some((0.0, 750.0)), "{s:?}");
         let t = s.ticks(4, None);
-        assert_eq!(t.iter().map(|t| t.value).collect::<Vec<_>>(), [0.0, 200.0, 400.0, 600.0, 800.0]);
+        assert_eq!(t.iter().map(|t| t.value).collect::<Vec<_>>(), [0.0, 250.0, 500.0, 750.0]);
         let s = PositionScale::linear(0.0, 622.0).nice(6);
         assert_eq!(s.domain(), Some((0.0, 700.0)));
         assert_eq!(s.ticks(6, None).last().map(|t| t.value), Some(700.0));
@@ -501,6 +510,16 @@ mod tests {
         assert_eq!(PositionScale::linear(97.0, 3.0).nice(5).domain(), Some((100.0, 0.0)));
         let l = PositionScale::Continuous { lo: 3.0, hi: 420.0, transform: Transform::Log { base: 10.0 }, time: false, step: None }.nice(5);
         assert_eq!(l.domain(), Some((1.0, 1000.0)));
+    }
+
+    #[test]
+    fn symlog_ticks_are_signed_powers() {
+        let s = PositionScale::Continuous { lo: -1000.0, hi: 1000.0, transform: Transform::Symlog { constant: 1.0 }, time: false, step: None };
+        let v: Vec<f64> = s.ticks(9, None).into_iter().map(|t| t.value).collect();
+        assert_eq!(v, [-1000.0, -100.0, -10.0, -1.0, 0.0, 1.0, 10.0, 100.0, 1000.0]);
+        // Symmetric about zero, zero in the middle.
+        assert_eq!(s.unit_num(0.0), Some(0.5));
+        assert!((s.unit_num(10.0).unwrap() + s.unit_num(-10.0).unwrap() - 1.0).abs() < 1e-12);
     }
 
     #[test]
@@ -546,7 +565,9 @@ mod tests {
         let a = |v: f64| s.radius(v).unwrap().powi(2);
         // Twice the value, twice the area.
         assert!((a(50.0) * 2.0 - a(100.0)).abs() < 1e-9);
-        assert_eq!(s.legend_values(), vec![50.0, 100.0]);
+        assert_eq!(s.legend_values(), vec![25.0, 50.0, 100.0]);
+        let s = SizeScale { lo: 0.0, hi: 99.2, max_radius: 10.0 };
+        assert_eq!(s.legend_values(), vec![25.0, 50.0, 75.0]);
     }
 
     #[test]

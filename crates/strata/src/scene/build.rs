@@ -145,14 +145,13 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
     if !legends.is_empty() {
         let col_w = legends.iter().map(|l| guides::column_size(l).0).fold(0.0, f64::max);
         let col_h: f64 = legends.iter().map(|l| guides::column_size(l).1 + 12.0).sum();
-        let wants_top = legends.iter().any(|l| {
-            let placement = match l.channel {
-                "size" => scales.size_spec.legend,
-                "shape" => scales.shape_spec.legend,
-                _ => scales.color_spec.legend,
-            };
-            placement == Some(Placement::Top) || placement == Some(Placement::Bottom)
-        });
+        let placement_of = |l: &Legend| match l.channel {
+            "size" => scales.size_spec.legend,
+            "shape" => scales.shape_spec.legend,
+            _ => scales.color_spec.legend,
+        };
+        let wants_top = legends.iter().any(|l| matches!(placement_of(l), Some(Placement::Top) | Some(Placement::Bottom)));
+        let wants_bottom = legends.iter().any(|l| placement_of(l) == Some(Placement::Bottom));
         let on_right = !narrow && !wants_top && col_w <= width * 0.25 && col_h <= bottom - top;
         legend_on_right = on_right;
         if on_right {
@@ -163,22 +162,31 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
             }
             right -= col_w + if narrow { 8.0 } else { 16.0 };
         } else {
-            // Rows on top, legends side by side when they fit.
+            // Rows on top (or, when asked, at the bottom), side by side when they fit.
             let avail = width - 2.0 * pad;
-            let mut x = pad;
-            let mut line_h: f64 = 0.0;
-            for l in &legends {
+            let mut placed: Vec<(usize, f64, f64)> = Vec::new(); // legend, x, y offset
+            let (mut x, mut y, mut line_h) = (pad, 0.0, 0.0f64);
+            for (i, l) in legends.iter().enumerate() {
                 let (w, h) = guides::row_size(l, avail);
                 if x > pad && x + w > width - pad {
-                    top += line_h + 6.0;
+                    y += line_h + 6.0;
                     x = pad;
                     line_h = 0.0;
                 }
-                legend_nodes.push(guides::rows(l, x, top, avail - (x - pad), &pal, &pal.mark));
+                placed.push((i, x, y));
                 x += w + 24.0;
                 line_h = line_h.max(h);
             }
-            top += line_h + 8.0;
+            let total = y + line_h;
+            let origin = if wants_bottom { bottom - total } else { top };
+            for (i, x, dy) in placed {
+                legend_nodes.push(guides::rows(&legends[i], x, origin + dy, avail - (x - pad), &pal, &pal.mark));
+            }
+            if wants_bottom {
+                bottom -= total + 10.0;
+            } else {
+                top += total + 8.0;
+            }
         }
     }
 
@@ -212,15 +220,37 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
     }
     let scales = &nice_scales;
     let (h_scale, v_scale) = if flip { (&scales.y, &scales.x) } else { (&scales.x, &scales.y) };
-    let v_ticks0 = if v_shown { guides::left_ticks(v_scale, guess_h, wanted(v_spec, guess_h, 50.0), v_spec.format.as_deref(), loc, max_left) } else { vec![] };
+    let v_ticks0 = if v_shown { guides::left_ticks(v_scale, guess_h, wanted(v_spec, guess_h, 45.0), v_spec.format.as_deref(), loc, max_left) } else { vec![] };
     let v_label_w = guides::widest_label(&v_ticks0);
-    let left = pad + if v_shown { guides::left_axis_width(v_label_w, !v_title.is_empty()) } else { 0.0 };
+    // Placement: the vertical axis left (or right), the horizontal one at the bottom (or top).
+    let v_right = v_spec.axis == Some(Placement::Right);
+    let h_top = h_spec.axis == Some(Placement::Top);
+    let v_axis_w = if v_shown { guides::left_axis_width(v_label_w, !v_title.is_empty()) } else { 0.0 };
+    let left = pad + if v_right { 0.0 } else { v_axis_w };
+    let right = if v_right { right - v_axis_w } else { right };
     let frame_w = (right - left).max(20.0);
     let max_label_h = (bottom - top) * 0.3;
     let (h_ticks, h_angle) = if h_shown {
         guides::bottom_ticks(h_scale, frame_w, wanted(h_spec, frame_w, if narrow { 70.0 } else { 90.0 }), h_spec.format.as_deref(), loc, max_label_h)
     } else {
         (vec![], 0.0)
+    };
+    // Rotated labels reach left of their ticks: widen the left margin for them.
+    let (left, frame_w, h_ticks, h_angle) = if h_angle != 0.0 && h_shown {
+        let c = crate::math::cos((-h_angle).to_radians());
+        let reach = h_ticks
+            .iter()
+            .map(|t| text::width(&t.label, guides::TICK_SIZE, false) * c - t.unit * frame_w - (left - pad))
+            .fold(0.0, f64::max);
+        if reach > 0.0 {
+            let (l, w) = (left + reach, (frame_w - reach).max(20.0));
+            let (t, a) = guides::bottom_ticks(h_scale, w, wanted(h_spec, w, if narrow { 70.0 } else { 90.0 }), h_spec.format.as_deref(), loc, max_label_h);
+            (l, w, t, a)
+        } else {
+            (left, frame_w, h_ticks, h_angle)
+        }
+    } else {
+        (left, frame_w, h_ticks, h_angle)
     };
     // Keep the outermost labels inside the chart: shrink the frame by any overhang.
     let (frame_w, h_ticks, h_angle) = {
@@ -237,20 +267,23 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
             (frame_w, h_ticks, h_angle)
         }
     };
-    let plot_bottom = bottom - if h_shown { guides::bottom_axis_height(&h_ticks, h_angle, !h_title.is_empty()) } else { 0.0 };
+    let h_axis_h = if h_shown { guides::bottom_axis_height(&h_ticks, h_angle, !h_title.is_empty()) } else { 0.0 };
+    let (top, plot_bottom) = if h_top { (top + h_axis_h, bottom) } else { (top, bottom - h_axis_h) };
     let frame = Frame { left, top, width: frame_w, height: (plot_bottom - top).max(20.0) };
     let coord = Coord::new(&spec.coords, frame);
     // Vertical ticks again for the real height, kept within the margin.
     let v_ticks = if v_shown {
-        let t = guides::left_ticks(v_scale, frame.height, wanted(v_spec, frame.height, 50.0), v_spec.format.as_deref(), loc, max_left);
+        let t = guides::left_ticks(v_scale, frame.height, wanted(v_spec, frame.height, 45.0), v_spec.format.as_deref(), loc, max_left);
         if guides::widest_label(&t) <= v_label_w + 0.5 { t } else { v_ticks0 }
     } else {
         vec![]
     };
     // Vertical categories in flipped coordinates run top to bottom.
     let v_ticks = if flip { v_ticks.into_iter().map(|mut t| { t.unit = 1.0 - t.unit; t }).collect() } else { v_ticks };
-    let h_axis = AxisGuide { side: Side::Bottom, scale: h_scale, ticks: h_ticks, title: h_title, angle: h_angle };
-    let v_axis = AxisGuide { side: Side::Left, scale: v_scale, ticks: v_ticks, title: v_title, angle: 0.0 };
+    let h_side = if h_top { Side::Top } else { Side::Bottom };
+    let v_side = if v_right { Side::Right } else { Side::Left };
+    let h_axis = AxisGuide { side: h_side, scale: h_scale, ticks: h_ticks, title: h_title, angle: h_angle };
+    let v_axis = AxisGuide { side: v_side, scale: v_scale, ticks: v_ticks, title: v_title, angle: 0.0 };
 
     if !polar {
         let mut grid = guides::grid(&v_axis, &coord, &pal);
@@ -343,6 +376,23 @@ mod tests {
             texts(c, class, &mut out);
         }
         out.into_iter().map(|(x, y, t)| (x, y, t.to_string())).collect()
+    }
+
+    #[test]
+    fn axes_move_top_and_right() {
+        let spec = r#"{ "data": { "rows": [ {"m": 1, "v": 120}, {"m": 2, "v": 340}, {"m": 3, "v": 610} ] },
+            "layers": [ { "draw": "line", "x": "m", "y": "v" } ],
+            "scales": { "x": { "axis": "top" }, "y": { "axis": "right" } } }"#;
+        let s = render(spec, None, &RenderOptions::default()).unwrap().scene;
+        let marks = s.marks();
+        let Node::Path { d, .. } = marks[0] else { panic!("a line") };
+        let nums: Vec<f64> = d.split(['M', 'L', ',']).filter(|t| !t.is_empty()).map(|t| t.parse().unwrap()).collect();
+        let (xs, ys): (Vec<f64>, Vec<f64>) = (nums.iter().step_by(2).copied().collect(), nums.iter().skip(1).step_by(2).copied().collect());
+        let ticks = all(&s, "strata-tick");
+        // Vertical labels right of the data, horizontal labels above it.
+        let vertical: Vec<_> = ticks.iter().filter(|t| t.0 > xs.iter().cloned().fold(0.0, f64::max)).collect();
+        let horizontal: Vec<_> = ticks.iter().filter(|t| t.1 < ys.iter().cloned().fold(f64::INFINITY, f64::min)).collect();
+        assert!(vertical.len() >= 3 && horizontal.len() >= 3, "{ticks:?}");
     }
 
     #[test]

@@ -27,6 +27,10 @@ pub const ROTATION: f64 = -45.0;
 pub enum Side {
     Bottom,
     Left,
+    /// `"axis": "top"` on the horizontal scale.
+    Top,
+    /// `"axis": "right"` on the vertical scale.
+    Right,
 }
 
 pub struct AxisGuide<'a> {
@@ -52,7 +56,7 @@ fn fits_across(ticks: &[Tick], length: f64) -> bool {
 
 /// Rotated labels need about a line's height between neighbours.
 fn fits_rotated(ticks: &[Tick], length: f64) -> bool {
-    let need = TICK_SIZE * text::LINE_HEIGHT / (-ROTATION).to_radians().sin();
+    let need = TICK_SIZE * text::LINE_HEIGHT / crate::math::sin((-ROTATION).to_radians());
     ticks.windows(2).all(|w| (w[1].unit - w[0].unit).abs() * length >= need)
 }
 
@@ -82,14 +86,10 @@ pub fn bottom_ticks(scale: &PositionScale, length: f64, wanted: usize, pattern: 
         }
         let rotated = every(&full, k);
         // Shorten: labels whose rotated height would exceed the allowance.
-        let max_w = max_label_height / (-ROTATION).to_radians().sin();
-        let cut: Vec<Tick> = rotated
-            .into_iter()
-            .map(|mut t| {
-                t.label = text::fit(&t.label, TICK_SIZE, false, max_w);
-                t
-            })
-            .collect();
+        let max_w = max_label_height / crate::math::sin((-ROTATION).to_radians());
+        let labels: Vec<String> = rotated.iter().map(|t| t.label.clone()).collect();
+        let short = shorten_all(&labels, max_w);
+        let cut: Vec<Tick> = rotated.into_iter().zip(short).map(|(mut t, l)| { t.label = l; t }).collect();
         return (cut, ROTATION);
     }
     // Continuous: thin by asking for fewer ticks, then shorten, then (dates) rotate.
@@ -115,6 +115,42 @@ pub fn bottom_ticks(scale: &PositionScale, length: f64, wanted: usize, pattern: 
         }
         w -= 1;
     }
+}
+
+/// Cut labels to `max_w` px and keep them telling apart: first cut at the
+/// end; if that makes two alike, drop the words every label shares at the
+/// start (and end), marking the cut with an ellipsis.
+pub fn shorten_all(labels: &[String], max_w: f64) -> Vec<String> {
+    let fit = |s: &str| text::fit(s, TICK_SIZE, false, max_w);
+    let simple: Vec<String> = labels.iter().map(|l| fit(l)).collect();
+    let distinct = |v: &[String]| {
+        let mut s: Vec<&String> = v.iter().collect();
+        s.sort();
+        s.windows(2).all(|w| w[0] != w[1])
+    };
+    if distinct(&simple) || labels.len() < 2 {
+        return simple;
+    }
+    let words: Vec<Vec<&str>> = labels.iter().map(|l| l.split(' ').collect()).collect();
+    let shortest = words.iter().map(Vec::len).min().unwrap_or(0);
+    let mut head = 0;
+    while head + 1 < shortest && words.iter().all(|w| w[head] == words[0][head]) {
+        head += 1;
+    }
+    let mut tail = 0;
+    while head + tail + 1 < shortest && words.iter().all(|w| w[w.len() - 1 - tail] == words[0][words[0].len() - 1 - tail]) {
+        tail += 1;
+    }
+    let core: Vec<String> = words
+        .iter()
+        .map(|w| {
+            let mid = w[head..w.len() - tail].join(" ");
+            let pre = if head > 0 { "\u{2026}" } else { "" };
+            let post = if tail > 0 { "\u{2026}" } else { "" };
+            fit(&format!("{pre}{mid}{post}"))
+        })
+        .collect();
+    if distinct(&core) { core } else { simple }
 }
 
 /// Ticks of a vertical axis `length` px long: thinned to a line and a half apart.
@@ -171,11 +207,11 @@ pub fn grid(axis: &AxisGuide, coord: &Coord, pal: &Palette) -> Vec<Node> {
     axis.ticks
         .iter()
         .map(|t| match axis.side {
-            Side::Left => {
+            Side::Left | Side::Right => {
                 let y = f.bottom() - t.unit * f.height;
                 Node::Line { x1: f.left, y1: y, x2: f.right(), y2: y, paint: Paint::stroke(&pal.grid, 1.0) }
             }
-            Side::Bottom => {
+            Side::Bottom | Side::Top => {
                 let x = f.left + t.unit * f.width;
                 Node::Line { x1: x, y1: f.top, x2: x, y2: f.bottom(), paint: Paint::stroke(&pal.grid, 1.0) }
             }
@@ -249,10 +285,73 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
                 });
             }
         }
+        Side::Top => {
+            kids.push(Node::Line { x1: f.left, y1: f.top, x2: f.right(), y2: f.top, paint: Paint::stroke(&pal.axis, 1.0) });
+            let labels_h = bottom_labels_height(&axis.ticks, axis.angle);
+            for t in &axis.ticks {
+                let x = f.left + t.unit * f.width;
+                if axis.angle != 0.0 {
+                    // Rotated about the label's start, just above the tick, reading upward.
+                    kids.push(Node::Text {
+                        x: x - TICK_SIZE * 0.3,
+                        y: f.top - GAP - TICK_SIZE * text::CAP / 2.0 + TICK_SIZE * text::CAP,
+                        text: t.label.clone(),
+                        size: TICK_SIZE,
+                        anchor: Anchor::Start,
+                        bold: false,
+                        angle: axis.angle,
+                        fill: pal.muted.clone(),
+                        class: "strata-tick".into(),
+                    });
+                } else {
+                    let y = f.top - GAP - TICK_SIZE * text::LINE_HEIGHT + baseline - TICK_SIZE * (text::LINE_HEIGHT - 1.0) / 2.0;
+                    kids.push(label(x, y, &t.label, Anchor::Middle, &pal.muted, "strata-tick"));
+                }
+            }
+            if !axis.title.is_empty() {
+                let y = f.top - GAP - labels_h - GAP - TITLE_SIZE * text::LINE_HEIGHT + TITLE_SIZE * text::ASCENT;
+                kids.push(Node::Text {
+                    x: f.left + f.width / 2.0,
+                    y,
+                    text: text::fit(axis.title, TITLE_SIZE, false, f.width),
+                    size: TITLE_SIZE,
+                    anchor: Anchor::Middle,
+                    bold: false,
+                    angle: 0.0,
+                    fill: pal.text.clone(),
+                    class: "strata-axis-title".into(),
+                });
+            }
+        }
+        Side::Right => {
+            if axis.scale.is_discrete() {
+                kids.push(Node::Line { x1: f.right(), y1: f.top, x2: f.right(), y2: f.bottom(), paint: Paint::stroke(&pal.axis, 1.0) });
+            }
+            for t in &axis.ticks {
+                let y = f.bottom() - t.unit * f.height;
+                kids.push(label(f.right() + GAP, y + TICK_SIZE * text::CAP / 2.0, &t.label, Anchor::Start, &pal.muted, "strata-tick"));
+            }
+            if !axis.title.is_empty() {
+                let x = f.right() + GAP + label_width + GAP + TITLE_SIZE * text::ASCENT;
+                kids.push(Node::Text {
+                    x,
+                    y: f.top + f.height / 2.0,
+                    text: text::fit(axis.title, TITLE_SIZE, false, f.height),
+                    size: TITLE_SIZE,
+                    anchor: Anchor::Middle,
+                    bold: false,
+                    angle: 90.0,
+                    fill: pal.text.clone(),
+                    class: "strata-axis-title".into(),
+                });
+            }
+        }
     }
     let (class, label) = match axis.side {
         Side::Bottom => ("strata-axis strata-axis-bottom", "horizontal axis"),
+        Side::Top => ("strata-axis strata-axis-top", "horizontal axis"),
         Side::Left => ("strata-axis strata-axis-left", "vertical axis"),
+        Side::Right => ("strata-axis strata-axis-right", "vertical axis"),
     };
     let title = if axis.title.is_empty() { label.to_string() } else { format!("{label}: {}", axis.title) };
     Node::Group { class: class.into(), role: None, label: Some(title), children: kids }
@@ -263,7 +362,7 @@ pub fn bottom_labels_height(ticks: &[Tick], angle: f64) -> f64 {
     if angle == 0.0 {
         TICK_SIZE * text::LINE_HEIGHT
     } else {
-        let s = (-angle).to_radians().sin();
+        let s = crate::math::sin((-angle).to_radians());
         widest_label(ticks) * s + TICK_SIZE * text::LINE_HEIGHT * s
     }
 }
@@ -295,8 +394,9 @@ pub enum LegendBody {
     Gradient { colors: Vec<String>, ticks: Vec<Tick> },
     /// Circles of the size scale: (label, radius).
     Sizes(Vec<(String, f64)>),
-    /// Shapes for categories: (label, shape index).
-    Shapes(Vec<(String, usize)>),
+    /// Shapes for categories: (label, shape index, colour when the colour
+    /// channel maps the same categories).
+    Shapes(Vec<(String, usize, Option<String>)>),
 }
 
 #[derive(Debug, Clone)]
@@ -312,7 +412,10 @@ pub fn legends(scales: &Scales, default_color: &str) -> Vec<Legend> {
     let mut out = Vec::new();
     let loc = scales.locale;
     let hidden = |s: &crate::spec::ScaleSpec| s.hide || s.legend == Some(crate::spec::Placement::None);
+    // Colour and shape of the same categories share one legend of coloured shapes.
+    let merged = matches!((&scales.color, &scales.shape), (Some(ColorScale::Categories(c)), Some(s)) if c == s && scales.color_title == scales.shape_title);
     match &scales.color {
+        Some(ColorScale::Categories(_)) if merged => {}
         Some(ColorScale::Categories(cats)) if !hidden(&scales.color_spec) => {
             let vals = crate::plan::Values::Text(cats.iter().cloned().map(Some).collect());
             let items = cats.iter().enumerate().map(|(i, c)| (c.clone(), scales.color_of(&vals, i).unwrap_or_default())).collect();
@@ -340,8 +443,10 @@ pub fn legends(scales: &Scales, default_color: &str) -> Vec<Legend> {
     }
     if let Some(cats) = &scales.shape {
         if !hidden(&scales.shape_spec) {
-            let items = cats.iter().enumerate().map(|(i, c)| (c.clone(), i)).collect();
-            out.push(Legend { title: scales.shape_title.clone(), body: LegendBody::Shapes(items), channel: "shape" });
+            let vals = crate::plan::Values::Text(cats.iter().cloned().map(Some).collect());
+            let items = cats.iter().enumerate().map(|(i, c)| (c.clone(), i, merged.then(|| scales.color_of(&vals, i)).flatten())).collect();
+            let l = Legend { title: scales.shape_title.clone(), body: LegendBody::Shapes(items), channel: "shape" };
+            if merged { out.insert(0, l) } else { out.push(l) }
         }
     }
     let _ = default_color;
@@ -455,7 +560,9 @@ fn symbol(body: &LegendBody, i: usize, cx: f64, cy: f64, pal: &Palette, default_
             let _ = pal;
             Node::Circle { cx, cy, r: items[i].1, paint: p, datum: None }
         }
-        LegendBody::Shapes(items) => Node::Path { d: shape_path(items[i].1, cx, cy, SWATCH / 2.0), paint: Paint::fill(&pal.muted), datum: None },
+        LegendBody::Shapes(items) => {
+            Node::Path { d: shape_path(items[i].1, cx, cy, SWATCH / 2.0), paint: Paint::fill(items[i].2.as_deref().unwrap_or(&pal.muted)), datum: None }
+        }
         LegendBody::Gradient { .. } => Node::group("strata-empty", vec![]),
     }
 }
@@ -550,7 +657,7 @@ fn wrap_legend(l: &Legend, kids: Vec<Node>) -> Node {
         _ => "colour",
     };
     let label = if l.title.is_empty() { format!("{what} legend") } else { format!("{what} legend: {}", l.title) };
-    Node::Group { class: format!("strata-legend strata-legend-{}", l.channel), role: Some("list".into()), label: Some(label), children: kids }
+    Node::Group { class: format!("strata-legend strata-legend-{}", l.channel), role: Some("group".into()), label: Some(label), children: kids }
 }
 
 #[cfg(test)]
@@ -573,8 +680,19 @@ mod tests {
         let (t, a) = bottom_ticks(&s, 400.0, 6, None, en, 60.0);
         assert_eq!(a, ROTATION);
         assert_eq!(t.len(), 12);
-        let max_w = 60.0 / (-ROTATION).to_radians().sin();
-        assert!(t.iter().all(|t| text::width(&t.label, TICK_SIZE, false) <= max_w + 1e-9 && t.label.ends_with('\u{2026}')));
+        let max_w = 60.0 / crate::math::sin((-ROTATION).to_radians());
+        assert!(t.iter().all(|t| text::width(&t.label, TICK_SIZE, false) <= max_w + 1e-9 && t.label.contains('\u{2026}')));
+        // Cut at the end they would all read "Orchard bl…"; the shared words go instead.
+        assert_eq!(t[3].label, "\u{2026}3");
+    }
+
+    #[test]
+    fn shortened_labels_stay_apart() {
+        let labels: Vec<String> = (1..=3).map(|i| format!("Category number {i} with a long name")).collect();
+        let s = shorten_all(&labels, 70.0);
+        assert_eq!(s, ["\u{2026}1\u{2026}", "\u{2026}2\u{2026}", "\u{2026}3\u{2026}"]);
+        let plain = shorten_all(&["Bramley".to_string(), "Discovery".to_string()], 40.0);
+        assert!(plain[0].starts_with("Bra") && plain[1].starts_with("Dis"));
     }
 
     #[test]

@@ -7,7 +7,7 @@
 use super::coord::{path_d, Area, Coord};
 use super::{Anchor, Datum, Node, Paint};
 use crate::plan::{ColorScale, PlannedLayer, Scales, Values};
-use crate::scale::PositionScale;
+use crate::scale::{PositionScale, Transform};
 use crate::spec::{Arrange, Geometry};
 
 /// What a layer needs from outside: the scales, coordinates and theme mark colour.
@@ -250,8 +250,8 @@ fn series_units(ctx: &Ctx, layer: &PlannedLayer, rows: &RowSet, ych: &str) -> (V
                 (
                     Values::Num(a) | Values::Time(a),
                     Values::Num(b) | Values::Time(b),
-                    PositionScale::Linear { lo: xl, hi: xh, .. },
-                    PositionScale::Linear { lo: yl, hi: yh, .. },
+                    PositionScale::Continuous { lo: xl, hi: xh, transform: Transform::Linear, .. },
+                    PositionScale::Continuous { lo: yl, hi: yh, transform: Transform::Linear, .. },
                     None,
                 ) if xh != xl && yh != yl => {
                     let (xl, yl) = (*xl, *yl);
