@@ -103,7 +103,7 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
     let get = |k: &str| spec.scales.get(k).cloned().unwrap_or_default();
     let (x_spec, y_spec, color_spec, size_spec, shape_spec) = (get("x"), get("y"), get("color"), get("size"), get("shape"));
     let (x, x_nice) = train_position(&["x", "x_end"], "x", &x_spec, layers)?;
-    let (y, y_nice) = train_position(&["y", "y_end", "y_base"], "y", &y_spec, layers)?;
+    let (y, y_nice) = train_position(&["y", "y_end", "y_base", "y_low", "y_high"], "y", &y_spec, layers)?;
     let title = |ch: &str, s: &ScaleSpec| {
         s.title.clone().unwrap_or_else(|| layers.iter().find_map(|l| l.data.names.get(ch).cloned()).unwrap_or_default())
     };

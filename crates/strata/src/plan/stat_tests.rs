@@ -486,3 +486,19 @@ fn statistics_draw_in_every_coordinate_system() {
         }
     }
 }
+
+#[test]
+fn y_scale_covers_interval_ends() {
+    // Error bars must stay inside the axis: the y scale is trained on the
+    // interval's ends, not only on the summary.
+    let csv = b"g,v\na,1\na,9\na,2\nb,4\nb,5\nb,15\n";
+    let spec = r#"{"layers":[{"draw":"point","x":"g","y":"v","stat":{"summary":"mean","interval":"ci95"}}]}"#;
+    let table = crate::data::read(csv, &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), ..Default::default() }).unwrap();
+    let plan = crate::plan::build(&crate::spec::parse_spec(spec).unwrap(), &table).unwrap();
+    let d = &plan.layers[0].data;
+    let high = (0..d.len).filter_map(|i| d.get("y_high").unwrap().num(i)).fold(f64::MIN, f64::max);
+    let low = (0..d.len).filter_map(|i| d.get("y_low").unwrap().num(i)).fold(f64::MAX, f64::min);
+    let s = &plan.scales.y;
+    let (u_hi, u_lo) = (s.unit_num(high).unwrap(), s.unit_num(low).unwrap());
+    assert!(u_hi <= 1.0 + 1e-12 && u_lo >= -1e-12, "interval {low}..{high} maps to {u_lo}..{u_hi}");
+}
