@@ -29,3 +29,23 @@ with open("orchard_harvest.csv", "w", newline="") as f:
     for v in varieties:
         for s in ["2024", "2025"]:
             w.writerow([v, s, rng.randint(180, 720)])
+
+# Daily air temperature at the orchard's weather post, 2025.
+with open("orchard_weather.csv", "w", newline="") as f:
+    w = csv.writer(f)
+    w.writerow(["day", "temp_c"])
+    import datetime
+    d0 = datetime.date(2025, 1, 1)
+    for k in range(365):
+        season = -math.cos((k - 15) / 365 * 2 * math.pi)
+        w.writerow([(d0 + datetime.timedelta(days=k)).isoformat(), f"{9.5 + 8.0 * season + rng.gauss(0, 2.6):.1f}"])
+
+# Hourly wind readings: direction (8 points) and speed band.
+directions = ["N", "NE", "E", "SE", "S", "SW", "W", "NW"]
+weights = [6, 4, 3, 5, 9, 14, 11, 7]
+with open("orchard_wind.csv", "w", newline="") as f:
+    w = csv.writer(f)
+    w.writerow(["direction", "speed", "hours"])
+    for d, wt in zip(directions, weights):
+        for band, share in [("calm to light", 0.5), ("moderate", 0.35), ("strong", 0.15)]:
+            w.writerow([d, band, int(round(wt * share * 20 * (0.8 + 0.4 * rng.random())))])

@@ -270,6 +270,24 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
     let h_axis_h = if h_shown { guides::bottom_axis_height(&h_ticks, h_angle, !h_title.is_empty()) } else { 0.0 };
     let (top, plot_bottom) = if h_top { (top + h_axis_h, bottom) } else { (top, bottom - h_axis_h) };
     let frame = Frame { left, top, width: frame_w, height: (plot_bottom - top).max(20.0) };
+    // Polar charts: the angle's labels go around the circle, so inset the frame for them.
+    let (frame, polar_ticks) = match &spec.coords {
+        Coords::Polar(p) => {
+            let angle_is_x = p.angle == crate::spec::AngleChannel::X;
+            let (a_scale, r_scale, a_spec, r_spec) =
+                if angle_is_x { (&scales.x, &scales.y, &scales.x_spec, &scales.y_spec) } else { (&scales.y, &scales.x, &scales.y_spec, &scales.x_spec) };
+            let a_opts = crate::scale::TickOptions { wanted: if narrow { 6 } else { 8 }, pattern: a_spec.format.as_deref(), locale: loc, short: false };
+            let a_ticks = if a_spec.hide { vec![] } else { a_scale.ticks_with(&a_opts) };
+            // A full turn: the last continuous tick would sit on the first.
+            let a_ticks: Vec<crate::scale::Tick> = a_ticks.into_iter().filter(|t| a_scale.is_discrete() || t.unit < 1.0 - 1e-9).collect();
+            let r_opts = crate::scale::TickOptions { wanted: 4, pattern: r_spec.format.as_deref(), locale: loc, short: false };
+            let r_ticks = if r_spec.hide { vec![] } else { r_scale.ticks_with(&r_opts) };
+            let (mx, my) = guides::polar_margin(&a_ticks);
+            let inset = Frame { left: frame.left + mx, top: frame.top + my, width: (frame.width - 2.0 * mx).max(20.0), height: (frame.height - 2.0 * my).max(20.0) };
+            (inset, Some((angle_is_x, a_ticks, r_ticks)))
+        }
+        _ => (frame, None),
+    };
     let coord = Coord::new(&spec.coords, frame);
     // Vertical ticks again for the real height, kept within the margin.
     let v_ticks = if v_shown {
@@ -285,6 +303,9 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
     let h_axis = AxisGuide { side: h_side, scale: h_scale, ticks: h_ticks, title: h_title, angle: h_angle };
     let v_axis = AxisGuide { side: v_side, scale: v_scale, ticks: v_ticks, title: v_title, angle: 0.0 };
 
+    if let Some((angle_is_x, a_ticks, r_ticks)) = &polar_ticks {
+        children.extend(guides::polar(&coord, *angle_is_x, a_ticks, r_ticks, &pal));
+    }
     if !polar {
         let mut grid = guides::grid(&v_axis, &coord, &pal);
         grid.extend(guides::grid(&h_axis, &coord, &pal));

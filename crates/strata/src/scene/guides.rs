@@ -705,3 +705,58 @@ mod tests {
         assert!(fits_across(&narrow, 150.0));
     }
 }
+
+// ---------------------------------------------------------------- polar
+
+/// Room polar labels need around the circle: (horizontal, vertical) in px.
+pub fn polar_margin(angle_ticks: &[Tick]) -> (f64, f64) {
+    let widest = angle_ticks.iter().map(label_width).fold(0.0, f64::max);
+    (widest + LABEL_GAP, TICK_SIZE * text::LINE_HEIGHT + LABEL_GAP)
+}
+
+/// Guides of polar coordinates: circles at the radius ticks (labelled along
+/// the starting spoke), spokes at the angle ticks, and angle labels just
+/// outside the circle.
+pub fn polar(coord: &Coord, angle_is_x: bool, angle_ticks: &[Tick], radius_ticks: &[Tick], pal: &Palette) -> Vec<Node> {
+    let f = coord.frame();
+    let (cx, cy, _) = super::coord::polar_centre(f);
+    // Unit coordinates in the coordinate system's (x, y) order.
+    let at = |angle: f64, radius: f64| if angle_is_x { coord.point(angle, radius) } else { coord.point(radius, angle) };
+    let mut grid = Vec::new();
+    for t in radius_ticks {
+        if !(0.0..=1.0 + 1e-9).contains(&t.unit) {
+            continue;
+        }
+        let steps = 72;
+        let pts: Vec<(f64, f64)> = (0..=steps).map(|k| at(k as f64 / steps as f64, t.unit)).collect();
+        grid.push(Node::Path { d: super::coord::path_d(&pts, true), paint: Paint::stroke(&pal.grid, 1.0), datum: None });
+    }
+    for t in angle_ticks {
+        let (x0, y0) = at(t.unit, 0.0);
+        let (x1, y1) = at(t.unit, 1.0);
+        grid.push(Node::Line { x1: x0, y1: y0, x2: x1, y2: y1, paint: Paint::stroke(&pal.grid, 1.0) });
+    }
+    let mut labels = Vec::new();
+    for t in angle_ticks {
+        let (x, y) = at(t.unit, 1.0);
+        let (dx, dy) = (x - cx, y - cy);
+        let len = (dx * dx + dy * dy).sqrt().max(1e-9);
+        let (ux, uy) = (dx / len, dy / len);
+        let (lx, ly) = (x + ux * LABEL_GAP, y + uy * LABEL_GAP);
+        let anchor = if ux > 0.3 { Anchor::Start } else if ux < -0.3 { Anchor::End } else { Anchor::Middle };
+        // Baseline so that the text sits outside the circle above and below.
+        let baseline = ly + TICK_SIZE * (0.35 + 0.45 * uy);
+        labels.push(label(lx, baseline, &t.label, anchor, &pal.muted, "strata-tick"));
+    }
+    for t in radius_ticks {
+        if !(0.0..=1.0 + 1e-9).contains(&t.unit) || t.unit <= 1e-9 {
+            continue;
+        }
+        let (x, y) = at(0.0, t.unit);
+        labels.push(label(x + 3.0, y - 3.0, &t.label, Anchor::Start, &pal.muted, "strata-tick"));
+    }
+    vec![
+        Node::Group { class: "strata-grid".into(), role: None, label: None, children: grid },
+        Node::Group { class: "strata-axis strata-axis-polar".into(), role: None, label: Some("polar axes".into()), children: labels },
+    ]
+}
