@@ -108,7 +108,7 @@ fn trim(b: &[u8]) -> &[u8] {
 }
 
 /// A whole decimal integer that fits i64: optional sign, then digits only.
-#[inline]
+#[inline(always)]
 pub fn parse_int(b: &[u8]) -> Option<i64> {
     let b = trim(b);
     let (neg, d) = match b.first()? {
@@ -184,7 +184,8 @@ fn fast_decimal(b: &[u8], point: u8) -> Option<f64> {
     if digits == 0 || digits > 15 {
         return None;
     }
-    let v = m as f64 / POW10[frac.unwrap_or(0)];
+    // m < 10^15 < 2^53: the signed conversion is exact and one instruction.
+    let v = (m as i64) as f64 / POW10[frac.unwrap_or(0)];
     Some(if neg { -v } else { v })
 }
 
