@@ -268,7 +268,9 @@ fn scan<T: Default + Copy>(
     let mut nulls: Option<BooleanBufferBuilder> = None;
     for i in 0..n {
         let c = col.cell(i);
-        match f(c) {
+        // Null tokens first: a configured token such as `-999` is missing,
+        // not a number.
+        match if rules.is_null(c) { None } else { f(c) } {
             Some(v) => {
                 vals.push(v);
                 if let Some(b) = nulls.as_mut() {
