@@ -224,11 +224,11 @@ pub fn parse_bool(b: &[u8]) -> Option<bool> {
     }
 }
 
-fn parse_date(b: &[u8]) -> Option<i32> {
+pub(crate) fn parse_date(b: &[u8]) -> Option<i32> {
     parse_date_bytes(trim(b)).and_then(|d| i32::try_from(d).ok())
 }
 
-fn parse_datetime(b: &[u8]) -> Option<i64> {
+pub(crate) fn parse_datetime(b: &[u8]) -> Option<i64> {
     let b = trim(b);
     parse_datetime_bytes(b).or_else(|| parse_date_bytes(b).map(|d| d * 86_400_000))
 }
@@ -305,8 +305,8 @@ pub struct CellError {
 }
 
 const EXPECT_NUMBER: &str = "a number";
-const EXPECT_BOOL: &str = "true or false";
-const EXPECT_DATE: &str = "a date (yyyy-MM-dd) or an ISO 8601 date-time";
+pub(crate) const EXPECT_BOOL: &str = "true or false";
+pub(crate) const EXPECT_DATE: &str = "a date (yyyy-MM-dd) or an ISO 8601 date-time";
 
 fn cell_error(col: &TextColumn, row: usize, expected: &'static str) -> CellError {
     CellError { row, value: String::from_utf8_lossy(col.cell(row)).into_owned(), expected, invalid_utf8: None }

@@ -7,11 +7,14 @@
 //! Arrow Utf8 array. Line numbers are not tracked while reading; an error
 //! finds its line afterwards from the record's byte offset.
 
-use super::columns::{build, parse_float, parse_int, type_word, unique_names, CellError, CellRules, TextColumn};
+use super::columns::{
+    build, parse_bool, parse_date, parse_datetime, parse_float, parse_int, type_word, unique_names, CellError, CellRules, TextColumn, EXPECT_BOOL,
+    EXPECT_DATE,
+};
 use super::{ReadOptions, Table};
 use crate::error::{Diagnostic, Errors};
 use crate::spec::ColumnType;
-use arrow_array::{ArrayRef, Float64Array, Int64Array, RecordBatch};
+use arrow_array::{ArrayRef, BooleanArray, Date32Array, Float64Array, Int64Array, RecordBatch, TimestampMillisecondArray};
 use arrow_buffer::{BooleanBufferBuilder, NullBuffer, ScalarBuffer};
 use arrow_schema::{Field, Schema};
 use csv_core::{ReadRecordResult, ReaderBuilder};
@@ -151,6 +154,9 @@ enum Sink {
     Text(TextColumn),
     Int { vals: Vec<i64>, nulls: Option<BooleanBufferBuilder>, neg_zero: Vec<usize> },
     Float { vals: Vec<f64>, nulls: Option<BooleanBufferBuilder> },
+    Bool { vals: BooleanBufferBuilder, nulls: Option<BooleanBufferBuilder> },
+    Date { vals: Vec<i32>, nulls: Option<BooleanBufferBuilder> },
+    DateTime { vals: Vec<i64>, nulls: Option<BooleanBufferBuilder> },
     Redo,
 }
 
@@ -178,14 +184,30 @@ fn first_sink(cell: &[u8], forced: Option<ColumnType>, rules: &CellRules, share:
         c.values.reserve(share);
         Sink::Text(c)
     };
+    let (float, boolean) = (Sink::Float { vals: Vec::new(), nulls: None }, Sink::Bool { vals: BooleanBufferBuilder::new(1024), nulls: None });
+    let (date, datetime) = (Sink::Date { vals: Vec::new(), nulls: None }, Sink::DateTime { vals: Vec::new(), nulls: None });
+    // The same order as columns::build's inference from the first cell.
     match forced {
-        Some(ColumnType::Number) => Sink::Float { vals: Vec::new(), nulls: None },
-        Some(_) => text(),
+        Some(ColumnType::Number) => float,
+        Some(ColumnType::Bool) => boolean,
+        Some(ColumnType::Date) => date,
+        Some(ColumnType::Text) => text(),
         None if rules.is_null(cell) => text(),
         None if parse_int(cell).is_some() => Sink::Int { vals: Vec::new(), nulls: None, neg_zero: Vec::new() },
-        None if parse_float(cell, rules.decimal_comma).is_some() => Sink::Float { vals: Vec::new(), nulls: None },
+        None if parse_float(cell, rules.decimal_comma).is_some() => float,
+        None if parse_bool(cell).is_some() => boolean,
+        None if parse_date(cell).is_some() => date,
+        None if parse_datetime(cell).is_some() => datetime,
         None => text(),
     }
+}
+
+fn mismatch(bytes: &[u8], start: usize, k: usize, name: &str, t: Option<ColumnType>, cell: &[u8], expected: &str) -> Diagnostic {
+    let word = t.map(type_word).unwrap_or("?");
+    Diagnostic::error("data.type_mismatch", format!("column `{name}` is declared `{word}` but holds `{}`: expected {expected}", String::from_utf8_lossy(cell)))
+        .at_path(format!("data.types.{name}"))
+        .at_data(line_at(bytes, start), Some(k as u64 + 1))
+        .with_hint(format!("fix the cell, make it empty for a missing value, or drop `{name}` from `data.types`"))
 }
 
 /// What reading the records gives: one sink per header cell.
@@ -317,21 +339,58 @@ fn tokenize(
                     } else if let Some(v) = parse_float(cell, dc) {
                         vals.push(v);
                         push_valid(nulls);
-                    } else if forced[k] == Some(ColumnType::Number) {
-                        fatal = Some(
-                            Diagnostic::error(
-                                "data.type_mismatch",
-                                format!(
-                                    "column `{}` is declared `number` but holds `{}`: expected {}",
-                                    names[k],
-                                    String::from_utf8_lossy(cell),
-                                    if dc { "a number (decimal comma)" } else { "a number" }
-                                ),
-                            )
-                            .at_path(format!("data.types.{}", names[k]))
-                            .at_data(line_at(bytes, start), Some(k as u64 + 1))
-                            .with_hint(format!("fix the cell, make it empty for a missing value, or drop `{}` from `data.types`", names[k])),
-                        );
+                    } else if forced[k].is_some() {
+                        fatal = Some(mismatch(bytes, start, k, &names[k], forced[k], cell, if dc { "a number (decimal comma)" } else { "a number" }));
+                        return false;
+                    } else {
+                        *sink = Sink::Redo;
+                    }
+                }
+                Sink::Bool { vals, nulls } => {
+                    if rules.is_null(cell) {
+                        vals.append(false);
+                        push_null(nulls, row);
+                    } else if let Some(v) = parse_bool(cell) {
+                        vals.append(v);
+                        push_valid(nulls);
+                    } else if forced[k].is_some() {
+                        fatal = Some(mismatch(bytes, start, k, &names[k], forced[k], cell, EXPECT_BOOL));
+                        return false;
+                    } else {
+                        *sink = Sink::Redo;
+                    }
+                }
+                Sink::Date { vals, nulls } => {
+                    if rules.is_null(cell) {
+                        vals.push(0);
+                        push_null(nulls, row);
+                    } else if let Some(v) = parse_date(cell) {
+                        vals.push(v);
+                        push_valid(nulls);
+                    } else if let Some(t) = parse_datetime(cell) {
+                        // Dates widen to date-times at midnight UTC, as
+                        // columns::build does.
+                        let mut tv: Vec<i64> = vals.iter().map(|d| *d as i64 * 86_400_000).collect();
+                        tv.push(t);
+                        let mut n = nulls.take();
+                        push_valid(&mut n);
+                        *sink = Sink::DateTime { vals: tv, nulls: n };
+                    } else if forced[k].is_some() {
+                        fatal = Some(mismatch(bytes, start, k, &names[k], forced[k], cell, EXPECT_DATE));
+                        return false;
+                    } else {
+                        *sink = Sink::Redo;
+                    }
+                }
+                Sink::DateTime { vals, nulls } => {
+                    if rules.is_null(cell) {
+                        vals.push(0);
+                        push_null(nulls, row);
+                    } else if let Some(v) = parse_datetime(cell) {
+                        vals.push(v);
+                        push_valid(nulls);
+                    } else if forced[k].is_some() {
+                        fatal = Some(mismatch(bytes, start, k, &names[k], forced[k], cell, EXPECT_DATE));
                         return false;
                     } else {
                         *sink = Sink::Redo;
@@ -499,6 +558,11 @@ pub fn read(bytes: &[u8], delimiter: u8, opts: &ReadOptions) -> Result<Table, Er
         let arr: ArrayRef = match sink {
             Sink::Int { vals, mut nulls, .. } => Arc::new(Int64Array::new(ScalarBuffer::from(vals), nulls.as_mut().map(|b| NullBuffer::new(b.finish())))),
             Sink::Float { vals, mut nulls } => Arc::new(Float64Array::new(ScalarBuffer::from(vals), nulls.as_mut().map(|b| NullBuffer::new(b.finish())))),
+            Sink::Bool { mut vals, mut nulls } => Arc::new(BooleanArray::new(vals.finish(), nulls.as_mut().map(|b| NullBuffer::new(b.finish())))),
+            Sink::Date { vals, mut nulls } => Arc::new(Date32Array::new(ScalarBuffer::from(vals), nulls.as_mut().map(|b| NullBuffer::new(b.finish())))),
+            Sink::DateTime { vals, mut nulls } => Arc::new(
+                TimestampMillisecondArray::new(ScalarBuffer::from(vals), nulls.as_mut().map(|b| NullBuffer::new(b.finish()))).with_timezone("UTC"),
+            ),
             Sink::Text(col) => build(col, forced[c], &rules).map_err(|e| cell_error(bytes, delimiter, name, c, forced[c], e))?,
             Sink::Redo => return Err(Diagnostic::error("data.internal", format!("column `{name}` was not read")).into()),
         };
@@ -671,10 +735,10 @@ mod tests {
     fn streaming_types_match_typing_the_text() {
         let pool = [
             "1", "-0", "0", "007", "+5", "9007199254740993", "-9223372036854775808", "2.5", "-0.0", "1e3", ".5", "", "NA", "-", "x", "true",
-            "2024-01-02", "-999", " 7 ",
+            "2024-01-02", "-999", " 7 ", "False", "TRUE", "1969-12-31", "2024-05-06T07:08:09+02:00", "2024-05-06 07:08", "2023-02-29",
         ];
         let mut x: u64 = 0x2545_F491_4F6C_DD1D;
-        for round in 0..3000 {
+        for round in 0..6000 {
             let mut next = || {
                 x ^= x << 13;
                 x ^= x >> 7;
@@ -684,14 +748,21 @@ mod tests {
             let n = 1 + (next() % 6) as usize;
             let lead = (next() % 3) as usize; // bias the first cells to numbers
             let cells: Vec<&str> = (0..n)
-                .map(|i| if i == 0 && lead > 0 { pool[(next() % 9) as usize] } else { pool[(next() % pool.len() as u64) as usize] })
+                .map(|i| {
+                    if i == 0 && lead > 0 {
+                        pool[[0, 3, 7, 19, 16, 22, 23][(next() % 7) as usize]]
+                    } else {
+                        pool[(next() % pool.len() as u64) as usize]
+                    }
+                })
                 .collect();
             let mut o = opts();
             if round % 3 == 0 {
                 o.null_tokens = vec!["".into(), "-999".into()];
             }
             if round % 5 == 0 {
-                o.types.insert("v".into(), ColumnType::Number);
+                let t = [ColumnType::Number, ColumnType::Bool, ColumnType::Date, ColumnType::Text][(round / 5) % 4];
+                o.types.insert("v".into(), t);
             }
             let mut text = String::from("v\n");
             for c in &cells {
