@@ -5,11 +5,12 @@
 #
 # With cargo-fuzz and a nightly toolchain: coverage-guided libFuzzer runs of
 # fuzz/fuzz_targets/{csv,ipc}.rs, seeded from the committed fixtures.
-# Without nightly (this machine has one stable toolchain): the same two
-# targets are built on stable against libFuzzer without sanitizers or
-# coverage instrumentation and run for the same time (blind mutation of the
-# seed corpus), then the seeded stable harness crates/strata/tests/fuzz_smoke.rs
-# runs with a larger iteration count.
+# Without nightly: the same two targets are built on stable against
+# libFuzzer without sanitizers or coverage instrumentation and run for the
+# same time (blind mutation of the seed corpus); that branch has not been
+# tried, since the machine it was written on had nightly and cargo-fuzz.
+# Either way the seeded stable harness crates/strata/tests/fuzz_smoke.rs
+# then runs with a larger iteration count.
 set -euo pipefail
 cd "$(dirname "$0")/.."
 SECS="${1:-60}"
