@@ -7,10 +7,15 @@
 //! Arrow Utf8 array. Line numbers are not tracked while reading; an error
 //! finds its line afterwards from the record's byte offset.
 
-use super::columns::{build, type_word, unique_names, CellError, CellRules, TextColumn};
+use super::columns::{
+    build, parse_bool, parse_date, parse_datetime, parse_float, parse_int, type_word, unique_names, CellError, CellRules, TextColumn, EXPECT_BOOL,
+    EXPECT_DATE,
+};
 use super::{ReadOptions, Table};
 use crate::error::{Diagnostic, Errors};
-use arrow_array::RecordBatch;
+use crate::spec::ColumnType;
+use arrow_array::{ArrayRef, BooleanArray, Date32Array, Float64Array, Int64Array, RecordBatch, TimestampMillisecondArray};
+use arrow_buffer::{BooleanBufferBuilder, NullBuffer, ScalarBuffer};
 use arrow_schema::{Field, Schema};
 use csv_core::{ReadRecordResult, ReaderBuilder};
 use std::sync::Arc;
@@ -140,43 +145,116 @@ fn open_quote(raw: &[u8], delimiter: u8) -> Option<(usize, usize)> {
     None
 }
 
-/// The tokenised table: header cells and one text column per header cell.
-pub(crate) struct Parsed {
-    pub header: Vec<Vec<u8>>,
-    pub columns: Vec<TextColumn>,
+/// Where one column's cells go while reading. Columns whose first data
+/// cell is a number are parsed as they stream past (no text kept); a later
+/// cell that does not fit widens integers to floats in place, or sends the
+/// column to `Redo`, whose text a second pass gathers. The result is the
+/// same as typing the text afterwards (see [`build`]).
+enum Sink {
+    Text(TextColumn),
+    Int { vals: Vec<i64>, nulls: Option<BooleanBufferBuilder>, neg_zero: Vec<usize> },
+    Float { vals: Vec<f64>, nulls: Option<BooleanBufferBuilder> },
+    Bool { vals: BooleanBufferBuilder, nulls: Option<BooleanBufferBuilder> },
+    Date { vals: Vec<i32>, nulls: Option<BooleanBufferBuilder> },
+    DateTime { vals: Vec<i64>, nulls: Option<BooleanBufferBuilder> },
+    Redo,
 }
 
-fn tokenize(bytes: &[u8], delimiter: u8, max_rows: usize) -> Result<Parsed, Errors> {
-    let mut header: Option<Vec<Vec<u8>>> = None;
-    let mut columns: Vec<TextColumn> = Vec::new();
-    let mut errors: Vec<Diagnostic> = Vec::new();
-    let mut fatal: Option<Diagnostic> = None;
-    let mut rows = 0usize;
-    let done = for_each_record(bytes, delimiter, |start, buf, ends| {
-        let Some(h) = &header else {
-            let mut s = 0;
-            let cells: Vec<Vec<u8>> = ends
-                .iter()
+#[inline]
+fn push_null(nulls: &mut Option<BooleanBufferBuilder>, len: usize) {
+    nulls
+        .get_or_insert_with(|| {
+            let mut b = BooleanBufferBuilder::new(len + 1024);
+            b.append_n(len, true);
+            b
+        })
+        .append(false);
+}
+
+#[inline]
+fn push_valid(nulls: &mut Option<BooleanBufferBuilder>) {
+    if let Some(b) = nulls.as_mut() {
+        b.append(true);
+    }
+}
+
+fn first_sink(cell: &[u8], forced: Option<ColumnType>, rules: &CellRules, share: usize) -> Sink {
+    let text = || {
+        let mut c = TextColumn::default();
+        c.values.reserve(share);
+        Sink::Text(c)
+    };
+    let (float, boolean) = (Sink::Float { vals: Vec::new(), nulls: None }, Sink::Bool { vals: BooleanBufferBuilder::new(1024), nulls: None });
+    let (date, datetime) = (Sink::Date { vals: Vec::new(), nulls: None }, Sink::DateTime { vals: Vec::new(), nulls: None });
+    // The same order as columns::build's inference from the first cell.
+    match forced {
+        Some(ColumnType::Number) => float,
+        Some(ColumnType::Bool) => boolean,
+        Some(ColumnType::Date) => date,
+        Some(ColumnType::Text) => text(),
+        None if rules.is_null(cell) => text(),
+        None if parse_int(cell).is_some() => Sink::Int { vals: Vec::new(), nulls: None, neg_zero: Vec::new() },
+        None if parse_float(cell, rules.decimal_comma).is_some() => float,
+        None if parse_bool(cell).is_some() => boolean,
+        None if parse_date(cell).is_some() => date,
+        None if parse_datetime(cell).is_some() => datetime,
+        None => text(),
+    }
+}
+
+fn mismatch(bytes: &[u8], start: usize, k: usize, name: &str, t: Option<ColumnType>, cell: &[u8], expected: &str) -> Diagnostic {
+    let word = t.map(type_word).unwrap_or("?");
+    Diagnostic::error("data.type_mismatch", format!("column `{name}` is declared `{word}` but holds `{}`: expected {expected}", String::from_utf8_lossy(cell)))
+        .at_path(format!("data.types.{name}"))
+        .at_data(line_at(bytes, start), Some(k as u64 + 1))
+        .with_hint(format!("fix the cell, make it empty for a missing value, or drop `{name}` from `data.types`"))
+}
+
+/// What reading the records gives: one sink per header cell.
+struct Parsed {
+    sinks: Vec<Sink>,
+}
+
+/// The header record's cells, and the offset where the data starts.
+fn header_record(bytes: &[u8], delimiter: u8) -> Option<Vec<Vec<u8>>> {
+    let mut header = None;
+    for_each_record(bytes, delimiter, |_, buf, ends| {
+        let mut s = 0;
+        header = Some(
+            ends.iter()
                 .map(|&e| {
                     let c = buf[s..e].to_vec();
                     s = e;
                     c
                 })
-                .collect();
-            // Reserve a share of the input per column; pages are only
-            // touched as they fill.
-            let share = bytes.len() / cells.len().max(1) + 16;
-            columns = (0..cells.len())
-                .map(|_| {
-                    let mut c = TextColumn::default();
-                    c.values.reserve(share);
-                    c
-                })
-                .collect();
-            header = Some(cells);
+                .collect(),
+        );
+        false
+    });
+    header
+}
+
+fn tokenize(
+    bytes: &[u8],
+    delimiter: u8,
+    max_rows: usize,
+    names: &[String],
+    forced: &[Option<ColumnType>],
+    rules: &CellRules,
+) -> Result<Parsed, Errors> {
+    let ncols = names.len();
+    let mut sinks: Vec<Sink> = Vec::new();
+    let mut errors: Vec<Diagnostic> = Vec::new();
+    let mut fatal: Option<Diagnostic> = None;
+    let mut rows = 0usize;
+    let mut seen_header = false;
+    let dc = rules.decimal_comma;
+    let share = bytes.len() / ncols.max(1) + 16;
+    let done = for_each_record(bytes, delimiter, |start, buf, ends| {
+        if !seen_header {
+            seen_header = true;
             return true;
-        };
-        let ncols = h.len();
+        }
         if ends.len() != ncols {
             let n = ends.len();
             errors.push(
@@ -193,6 +271,7 @@ fn tokenize(bytes: &[u8], delimiter: u8, max_rows: usize) -> Result<Parsed, Erro
         if !errors.is_empty() {
             return true;
         }
+        let row = rows;
         rows += 1;
         if rows > max_rows {
             fatal = Some(
@@ -202,16 +281,123 @@ fn tokenize(bytes: &[u8], delimiter: u8, max_rows: usize) -> Result<Parsed, Erro
             );
             return false;
         }
+        if sinks.is_empty() {
+            let mut s = 0;
+            sinks = ends
+                .iter()
+                .enumerate()
+                .map(|(k, &e)| {
+                    let sink = first_sink(&buf[s..e], forced[k], rules, share);
+                    s = e;
+                    sink
+                })
+                .collect();
+        }
         let mut s = 0;
-        for (col, &e) in columns.iter_mut().zip(ends) {
-            if !col.push(&buf[s..e]) {
-                fatal = Some(
-                    Diagnostic::error("data.too_large", "a column holds more than 2 GiB of text, more than one Arrow column can hold")
-                        .at_data(line_at(bytes, start), None),
-                );
-                return false;
-            }
+        for (k, (sink, &e)) in sinks.iter_mut().zip(ends).enumerate() {
+            let cell = &buf[s..e];
             s = e;
+            match sink {
+                Sink::Text(col) => {
+                    if !col.push(cell) {
+                        fatal = Some(
+                            Diagnostic::error("data.too_large", "a column holds more than 2 GiB of text, more than one Arrow column can hold")
+                                .at_data(line_at(bytes, start), None),
+                        );
+                        return false;
+                    }
+                }
+                Sink::Int { vals, nulls, neg_zero } => {
+                    if rules.is_null(cell) {
+                        vals.push(0);
+                        push_null(nulls, row);
+                    } else if let Some(v) = parse_int(cell) {
+                        if v == 0 && cell.contains(&b'-') {
+                            neg_zero.push(row);
+                        }
+                        vals.push(v);
+                        push_valid(nulls);
+                    } else if let Some(f) = parse_float(cell, dc) {
+                        // Integers convert to f64 exactly rounded, as their
+                        // text would parse; only `-0` needs its sign back.
+                        let mut fv: Vec<f64> = vals.iter().map(|v| *v as f64).collect();
+                        for &i in neg_zero.iter() {
+                            fv[i] = -0.0;
+                        }
+                        fv.push(f);
+                        let mut n = nulls.take();
+                        push_valid(&mut n);
+                        *sink = Sink::Float { vals: fv, nulls: n };
+                    } else {
+                        *sink = Sink::Redo;
+                    }
+                }
+                Sink::Float { vals, nulls } => {
+                    if rules.is_null(cell) {
+                        vals.push(0.0);
+                        push_null(nulls, row);
+                    } else if let Some(v) = parse_float(cell, dc) {
+                        vals.push(v);
+                        push_valid(nulls);
+                    } else if forced[k].is_some() {
+                        fatal = Some(mismatch(bytes, start, k, &names[k], forced[k], cell, if dc { "a number (decimal comma)" } else { "a number" }));
+                        return false;
+                    } else {
+                        *sink = Sink::Redo;
+                    }
+                }
+                Sink::Bool { vals, nulls } => {
+                    if rules.is_null(cell) {
+                        vals.append(false);
+                        push_null(nulls, row);
+                    } else if let Some(v) = parse_bool(cell) {
+                        vals.append(v);
+                        push_valid(nulls);
+                    } else if forced[k].is_some() {
+                        fatal = Some(mismatch(bytes, start, k, &names[k], forced[k], cell, EXPECT_BOOL));
+                        return false;
+                    } else {
+                        *sink = Sink::Redo;
+                    }
+                }
+                Sink::Date { vals, nulls } => {
+                    if rules.is_null(cell) {
+                        vals.push(0);
+                        push_null(nulls, row);
+                    } else if let Some(v) = parse_date(cell) {
+                        vals.push(v);
+                        push_valid(nulls);
+                    } else if let Some(t) = parse_datetime(cell) {
+                        // Dates widen to date-times at midnight UTC, as
+                        // columns::build does.
+                        let mut tv: Vec<i64> = vals.iter().map(|d| *d as i64 * 86_400_000).collect();
+                        tv.push(t);
+                        let mut n = nulls.take();
+                        push_valid(&mut n);
+                        *sink = Sink::DateTime { vals: tv, nulls: n };
+                    } else if forced[k].is_some() {
+                        fatal = Some(mismatch(bytes, start, k, &names[k], forced[k], cell, EXPECT_DATE));
+                        return false;
+                    } else {
+                        *sink = Sink::Redo;
+                    }
+                }
+                Sink::DateTime { vals, nulls } => {
+                    if rules.is_null(cell) {
+                        vals.push(0);
+                        push_null(nulls, row);
+                    } else if let Some(v) = parse_datetime(cell) {
+                        vals.push(v);
+                        push_valid(nulls);
+                    } else if forced[k].is_some() {
+                        fatal = Some(mismatch(bytes, start, k, &names[k], forced[k], cell, EXPECT_DATE));
+                        return false;
+                    } else {
+                        *sink = Sink::Redo;
+                    }
+                }
+                Sink::Redo => {}
+            }
         }
         true
     });
@@ -233,10 +419,37 @@ fn tokenize(bytes: &[u8], delimiter: u8, max_rows: usize) -> Result<Parsed, Erro
     if !errors.is_empty() {
         return Err(Errors(errors));
     }
-    let Some(header) = header else {
-        return Err(Diagnostic::error("data.empty", "the data is empty: expected a header row").at_data(1, None).into());
-    };
-    Ok(Parsed { header, columns })
+    if sinks.is_empty() {
+        sinks = (0..ncols).map(|_| Sink::Text(TextColumn::default())).collect();
+    }
+    // Second pass for columns whose guess failed: gather their text.
+    let redo: Vec<usize> = (0..ncols).filter(|k| matches!(sinks[*k], Sink::Redo)).collect();
+    if !redo.is_empty() {
+        let mut cols: Vec<TextColumn> = redo.iter().map(|_| TextColumn::default()).collect();
+        let mut first = true;
+        let mut too_large = false;
+        for_each_record(bytes, delimiter, |_, buf, ends| {
+            if first {
+                first = false;
+                return true;
+            }
+            for (col, &k) in cols.iter_mut().zip(&redo) {
+                let s = if k == 0 { 0 } else { ends[k - 1] };
+                if !col.push(&buf[s..ends[k]]) {
+                    too_large = true;
+                    return false;
+                }
+            }
+            true
+        });
+        if too_large {
+            return Err(Diagnostic::error("data.too_large", "a column holds more than 2 GiB of text, more than one Arrow column can hold").into());
+        }
+        for (col, k) in cols.into_iter().zip(redo) {
+            sinks[k] = Sink::Text(col);
+        }
+    }
+    Ok(Parsed { sinks })
 }
 
 /// Every record's cells as text, header first, for tests against other
@@ -311,7 +524,9 @@ pub fn read(bytes: &[u8], delimiter: u8, opts: &ReadOptions) -> Result<Table, Er
             .with_hint("use semicolon- or tab-separated data with a decimal comma")
             .into());
     }
-    let Parsed { header, columns } = tokenize(bytes, delimiter, opts.max_rows)?;
+    let Some(header) = header_record(bytes, delimiter) else {
+        return Err(Diagnostic::error("data.empty", "the data is empty: expected a header row").at_data(1, None).into());
+    };
     let mut raw_names = Vec::with_capacity(header.len());
     for (c, h) in header.into_iter().enumerate() {
         match String::from_utf8(h) {
@@ -335,11 +550,22 @@ pub fn read(bytes: &[u8], delimiter: u8, opts: &ReadOptions) -> Result<Table, Er
         .collect();
     warnings.extend(super::unknown_type_keys(&opts.types, &names));
     let rules = CellRules::new(&opts.null_tokens, opts.decimal_comma);
+    let forced: Vec<Option<ColumnType>> = names.iter().map(|n| opts.types.get(n).copied()).collect();
+    let Parsed { sinks } = tokenize(bytes, delimiter, opts.max_rows, &names, &forced, &rules)?;
     let mut arrays = Vec::with_capacity(names.len());
     let mut fields = Vec::with_capacity(names.len());
-    for (c, (col, name)) in columns.into_iter().zip(&names).enumerate() {
-        let forced = opts.types.get(name).copied();
-        let arr = build(col, forced, &rules).map_err(|e| cell_error(bytes, delimiter, name, c, forced, e))?;
+    for (c, (sink, name)) in sinks.into_iter().zip(&names).enumerate() {
+        let arr: ArrayRef = match sink {
+            Sink::Int { vals, mut nulls, .. } => Arc::new(Int64Array::new(ScalarBuffer::from(vals), nulls.as_mut().map(|b| NullBuffer::new(b.finish())))),
+            Sink::Float { vals, mut nulls } => Arc::new(Float64Array::new(ScalarBuffer::from(vals), nulls.as_mut().map(|b| NullBuffer::new(b.finish())))),
+            Sink::Bool { mut vals, mut nulls } => Arc::new(BooleanArray::new(vals.finish(), nulls.as_mut().map(|b| NullBuffer::new(b.finish())))),
+            Sink::Date { vals, mut nulls } => Arc::new(Date32Array::new(ScalarBuffer::from(vals), nulls.as_mut().map(|b| NullBuffer::new(b.finish())))),
+            Sink::DateTime { vals, mut nulls } => Arc::new(
+                TimestampMillisecondArray::new(ScalarBuffer::from(vals), nulls.as_mut().map(|b| NullBuffer::new(b.finish()))).with_timezone("UTC"),
+            ),
+            Sink::Text(col) => build(col, forced[c], &rules).map_err(|e| cell_error(bytes, delimiter, name, c, forced[c], e))?,
+            Sink::Redo => return Err(Diagnostic::error("data.internal", format!("column `{name}` was not read")).into()),
+        };
         fields.push(Field::new(name, arr.data_type().clone(), true));
         arrays.push(arr);
     }
@@ -352,7 +578,7 @@ pub fn read(bytes: &[u8], delimiter: u8, opts: &ReadOptions) -> Result<Table, Er
     Ok(Table { batch, warnings })
 }
 
-fn cell_error(bytes: &[u8], delimiter: u8, name: &str, c: usize, forced: Option<crate::spec::ColumnType>, e: CellError) -> Errors {
+fn cell_error(bytes: &[u8], delimiter: u8, name: &str, c: usize, forced: Option<ColumnType>, e: CellError) -> Errors {
     let line = line_at(bytes, record_start(bytes, delimiter, e.row + 1));
     let d = match (e.invalid_utf8, forced) {
         (Some(at), _) => Diagnostic::error(
@@ -501,6 +727,62 @@ mod tests {
         // `NA` is text now that it is not a null token.
         let b = tb.batch.column(1).as_any().downcast_ref::<StringArray>().unwrap();
         assert_eq!(b.value(0), "NA");
+    }
+
+    /// Typing while streaming must give exactly what typing the text
+    /// afterwards gives (columns::build, the reference path).
+    #[test]
+    fn streaming_types_match_typing_the_text() {
+        let pool = [
+            "1", "-0", "0", "007", "+5", "9007199254740993", "-9223372036854775808", "2.5", "-0.0", "1e3", ".5", "", "NA", "-", "x", "true",
+            "2024-01-02", "-999", " 7 ", "False", "TRUE", "1969-12-31", "2024-05-06T07:08:09+02:00", "2024-05-06 07:08", "2023-02-29",
+        ];
+        let mut x: u64 = 0x2545_F491_4F6C_DD1D;
+        for round in 0..6000 {
+            let mut next = || {
+                x ^= x << 13;
+                x ^= x >> 7;
+                x ^= x << 17;
+                x
+            };
+            let n = 1 + (next() % 6) as usize;
+            let lead = (next() % 3) as usize; // bias the first cells to numbers
+            let cells: Vec<&str> = (0..n)
+                .map(|i| {
+                    if i == 0 && lead > 0 {
+                        pool[[0, 3, 7, 19, 16, 22, 23][(next() % 7) as usize]]
+                    } else {
+                        pool[(next() % pool.len() as u64) as usize]
+                    }
+                })
+                .collect();
+            let mut o = opts();
+            if round % 3 == 0 {
+                o.null_tokens = vec!["".into(), "-999".into()];
+            }
+            if round % 5 == 0 {
+                let t = [ColumnType::Number, ColumnType::Bool, ColumnType::Date, ColumnType::Text][(round / 5) % 4];
+                o.types.insert("v".into(), t);
+            }
+            let mut text = String::from("v\n");
+            for c in &cells {
+                text.push('"');
+                text.push_str(c);
+                text.push_str("\"\n");
+            }
+            let rules = CellRules::new(&o.null_tokens, false);
+            let mut col = TextColumn::default();
+            for c in &cells {
+                col.push(c.as_bytes());
+            }
+            let want = build(col, o.types.get("v").copied(), &rules);
+            let got = read(text.as_bytes(), b',', &o);
+            match (want, got) {
+                (Ok(w), Ok(g)) => assert_eq!(&w, g.batch.column(0), "{cells:?}"),
+                (Err(_), Err(e)) => assert_eq!(e.0[0].code, "data.type_mismatch", "{cells:?}"),
+                (w, g) => panic!("{cells:?}: {w:?} vs {g:?}"),
+            }
+        }
     }
 
     #[test]

@@ -127,3 +127,59 @@ pub fn from_records(rows: &[Map<String, Value>], opts: &ReadOptions) -> Result<T
     };
     Ok(Table { batch, warnings })
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use arrow_array::cast::AsArray;
+    use arrow_array::Array;
+    use arrow_schema::DataType;
+
+    fn opts() -> ReadOptions {
+        ReadOptions::default()
+    }
+
+    #[test]
+    fn records_become_typed_columns() {
+        let t = read(br#"[{"a": 1, "b": 1.5, "c": true, "d": "2024-01-02", "e": "x"}, {"a": null, "b": 2, "c": false, "d": null, "f": [1]}]"#, &opts()).unwrap();
+        let s = t.batch.schema();
+        let types: Vec<_> = s.fields().iter().map(|f| (f.name().as_str(), f.data_type().clone())).collect();
+        assert_eq!(
+            types,
+            vec![
+                ("a", DataType::Int64),
+                ("b", DataType::Float64),
+                ("c", DataType::Boolean),
+                ("d", DataType::Date32),
+                ("e", DataType::Utf8),
+                ("f", DataType::Utf8),
+            ]
+        );
+        assert!(t.batch.column(0).is_null(1));
+        assert_eq!(t.batch.column(5).as_string::<i32>().value(1), "[1]");
+    }
+
+    #[test]
+    fn syntax_errors_are_located() {
+        let e = read(b"[{\"a\": 1},\n {\"a\": }]", &opts()).unwrap_err();
+        assert_eq!(e.0[0].code, "data.json_syntax");
+        assert_eq!(e.0[0].at.line, Some(2));
+        let e = read(b"{\"a\": 1}", &opts()).unwrap_err();
+        assert_eq!(e.0[0].code, "data.json_shape");
+        let e = read(b"[{\"a\": 1}, 3]", &opts()).unwrap_err();
+        assert!(e.0[0].message.contains("record 2"));
+    }
+
+    #[test]
+    fn overrides_and_caps() {
+        let mut o = opts();
+        o.types.insert("a".into(), ColumnType::Number);
+        let e = read(br#"[{"a": "1"}, {"a": "x"}]"#, &o).unwrap_err();
+        assert_eq!(e.0[0].at.path, "data.types.a");
+        assert!(e.0[0].message.contains("record 2"));
+        let t = read(br#"[{"a": 1}, {"a": 2}]"#, &o).unwrap();
+        assert_eq!(t.batch.column(0).data_type(), &DataType::Float64);
+        let o = ReadOptions { max_rows: 1, ..opts() };
+        assert_eq!(read(br#"[{"a": 1}, {"a": 2}]"#, &o).unwrap_err().0[0].code, "data.too_many_rows");
+    }
+}
