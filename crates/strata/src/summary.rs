@@ -27,6 +27,9 @@ fn slope(pts: &[(f64, f64)]) -> Option<f64> {
 
 /// The trend in words: the fitted line's change across the x range,
 /// against the spread of y (more than a fifth of it counts, common practice).
+/// Rows read for the trend word of a layer (see [`describe`]).
+const TREND_SAMPLE: usize = 100_000;
+
 pub fn trend_word(pts: &[(f64, f64)]) -> Option<&'static str> {
     let b = slope(pts)?;
     let (xlo, xhi) = pts.iter().fold((f64::INFINITY, f64::NEG_INFINITY), |a, p| (a.0.min(p.0), a.1.max(p.0)));
@@ -74,9 +77,17 @@ pub fn describe(spec: &Spec, plan: &Plan) -> String {
         let name = l.data.names.get("y").cloned().unwrap_or_else(|| "y".into());
         parts.push(format!("{name} ranges from {}{} to {}{}", format::value_label_in(lo, loc), at(il), format::value_label_in(hi, loc), at(ih)));
         if let Some(x @ (Values::Num(_) | Values::Time(_))) = xv {
-            let pts: Vec<(f64, f64)> = (0..l.data.len).filter_map(|i| Some((x.num(i)?, ys[i]?))).collect();
+            // The trend word is a coarse reading of the least-squares slope:
+            // past 100,000 rows an evenly spaced, deterministic sample of
+            // rows gives the same word without copying millions of points.
+            let stride = l.data.len.div_ceil(TREND_SAMPLE).max(1);
+            let pts: Vec<(f64, f64)> = (0..l.data.len).step_by(stride).filter_map(|i| Some((x.num(i)?, ys[i]?))).collect();
             if let Some(w) = trend_word(&pts) {
-                let (first, last) = pts.iter().fold((f64::INFINITY, f64::NEG_INFINITY), |a, p| (a.0.min(p.0), a.1.max(p.0)));
+                // The span is read from every row, not from the sample.
+                let (first, last) = (0..l.data.len)
+                    .filter(|i| ys[*i].is_some())
+                    .filter_map(|i| x.num(i))
+                    .fold((f64::INFINITY, f64::NEG_INFINITY), |a, v| (a.0.min(v), a.1.max(v)));
                 let span = match x {
                     Values::Time(_) => format!("{} to {}", format::date(first, "yyyy-MM-dd", loc), format::date(last, "yyyy-MM-dd", loc)),
                     _ => format!("{} to {}", format::value_label_in(first, loc), format::value_label_in(last, loc)),

@@ -37,8 +37,16 @@ pub fn extract(index: usize, layer: &Layer, table: &Table) -> Result<LayerData, 
 /// Convert an Arrow column to layer values, honouring an `as` override.
 pub fn to_values(col: &ArrayRef, as_type: Option<ColumnType>) -> Values {
     let base = match col.data_type() {
-        DataType::Float64 => Values::Num(col.as_primitive::<Float64Type>().iter().map(|v| v.filter(|x| x.is_finite())).collect()),
-        DataType::Int64 => Values::Num(col.as_primitive::<Int64Type>().iter().map(|v| v.map(|x| x as f64)).collect()),
+        // Columns without nulls take a tight loop over the value buffer.
+        DataType::Float64 => {
+            let a = col.as_primitive::<Float64Type>();
+            let finite = |x: f64| if x.is_finite() { Some(x) } else { None };
+            Values::Num(if a.null_count() == 0 { a.values().iter().map(|x| finite(*x)).collect() } else { a.iter().map(|v| v.and_then(finite)).collect() })
+        }
+        DataType::Int64 => {
+            let a = col.as_primitive::<Int64Type>();
+            Values::Num(if a.null_count() == 0 { a.values().iter().map(|x| Some(*x as f64)).collect() } else { a.iter().map(|v| v.map(|x| x as f64)).collect() })
+        }
         DataType::Date32 => Values::Time(col.as_primitive::<Date32Type>().iter().map(|v| v.map(|d| d as f64 * 86_400_000.0)).collect()),
         DataType::Timestamp(_, _) => {
             Values::Time(col.as_primitive::<TimestampMillisecondType>().iter().map(|v| v.map(|x| x as f64)).collect())
