@@ -14,9 +14,9 @@ use super::columns::{
 use super::{ReadOptions, Table};
 use crate::error::{Diagnostic, Errors};
 use crate::spec::ColumnType;
-use arrow_array::{ArrayRef, BooleanArray, Date32Array, Float64Array, Int64Array, RecordBatch, TimestampMillisecondArray};
+use arrow_array::{ArrayRef, BooleanArray, Date32Array, Float64Array, Int64Array, TimestampMillisecondArray};
 use arrow_buffer::{BooleanBufferBuilder, NullBuffer, ScalarBuffer};
-use arrow_schema::{Field, Schema};
+use arrow_schema::Field;
 use csv_core::{ReadRecordResult, ReaderBuilder};
 use std::sync::Arc;
 
@@ -569,13 +569,7 @@ pub fn read(bytes: &[u8], delimiter: u8, opts: &ReadOptions) -> Result<Table, Er
         fields.push(Field::new(name, arr.data_type().clone(), true));
         arrays.push(arr);
     }
-    let schema = Arc::new(Schema::new(fields));
-    let batch = if arrays.is_empty() {
-        RecordBatch::new_empty(schema)
-    } else {
-        RecordBatch::try_new(schema, arrays).map_err(|e| Diagnostic::error("data.internal", e.to_string()))?
-    };
-    Ok(Table { batch, warnings })
+    Table::from_columns(fields, arrays, warnings)
 }
 
 fn cell_error(bytes: &[u8], delimiter: u8, name: &str, c: usize, forced: Option<ColumnType>, e: CellError) -> Errors {

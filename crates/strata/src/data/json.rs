@@ -4,8 +4,8 @@ use super::columns::{build, type_word, unique_names, CellRules, TextColumn};
 use super::{ReadOptions, Table};
 use crate::error::{Diagnostic, Errors};
 use crate::spec::ColumnType;
-use arrow_array::{ArrayRef, BooleanArray, Float64Array, Int64Array, RecordBatch};
-use arrow_schema::{Field, Schema};
+use arrow_array::{ArrayRef, BooleanArray, Float64Array, Int64Array};
+use arrow_schema::Field;
 use indexmap::IndexSet;
 use serde_json::{Map, Value};
 use std::sync::Arc;
@@ -119,13 +119,7 @@ pub fn from_records(rows: &[Map<String, Value>], opts: &ReadOptions) -> Result<T
         fields.push(Field::new(uname, arr.data_type().clone(), true));
         arrays.push(arr);
     }
-    let schema = Arc::new(Schema::new(fields));
-    let batch = if arrays.is_empty() {
-        RecordBatch::new_empty(schema)
-    } else {
-        RecordBatch::try_new(schema, arrays).map_err(|e| Diagnostic::error("data.internal", e.to_string()))?
-    };
-    Ok(Table { batch, warnings })
+    Table::from_columns(fields, arrays, warnings)
 }
 
 #[cfg(test)]

@@ -26,6 +26,17 @@ pub struct Table {
 }
 
 impl Table {
+    /// A table from named columns (the readers' last step).
+    pub fn from_columns(fields: Vec<arrow_schema::Field>, arrays: Vec<arrow_array::ArrayRef>, warnings: Vec<Diagnostic>) -> Result<Table, Errors> {
+        let schema = std::sync::Arc::new(arrow_schema::Schema::new(fields));
+        let batch = if arrays.is_empty() {
+            RecordBatch::new_empty(schema)
+        } else {
+            RecordBatch::try_new(schema, arrays).map_err(|e| Diagnostic::error("data.internal", e.to_string()))?
+        };
+        Ok(Table { batch, warnings })
+    }
+
     pub fn num_rows(&self) -> usize {
         self.batch.num_rows()
     }

@@ -121,9 +121,6 @@ impl Coord {
         }
     }
 
-    pub fn is_polar(&self) -> bool {
-        matches!(self, Coord::Polar { .. })
-    }
 }
 
 pub fn polar_centre(f: Frame) -> (f64, f64, f64) {
