@@ -59,7 +59,17 @@ pub fn load_table(spec: &Spec, data: Option<DataBytes>) -> Result<data::Table, E
     let obj = spec.data.as_ref().map(|d| d.object()).unwrap_or_default();
     if let Some(d) = data {
         let format = obj.format.or_else(|| data::format_from_name(d.name));
-        let opts = data::ReadOptions { format, types: obj.types.clone(), sha256: obj.sha256.clone(), ..Default::default() };
+        // A `.csv` name says "delimited text", not which delimiter: unless the
+        // spec says, semicolon, tab and pipe files are sniffed too.
+        let delimiter = match obj.delimiter.as_deref() {
+            Some(s) => s.bytes().next(),
+            None if obj.format.is_none() && format == Some(spec::DataFormat::Csv) => Some(data::csv::sniff_delimiter(d.bytes)),
+            None => None,
+        };
+        let mut opts = data::ReadOptions { format, types: obj.types.clone(), sha256: obj.sha256.clone(), delimiter, decimal_comma: obj.decimal_comma, ..Default::default() };
+        if let Some(missing) = &obj.missing {
+            opts.null_tokens = missing.clone();
+        }
         return data::read(d.bytes, &opts);
     }
     if let Some(rows) = &obj.rows {

@@ -95,6 +95,16 @@ pub struct DataObject {
     /// Inline records for small tables.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub rows: Option<Vec<serde_json::Map<String, serde_json::Value>>>,
+    /// Field delimiter of delimited text: `,`, `;`, a tab or `|`; absent:
+    /// sniffed from the first lines unless the format says TSV.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub delimiter: Option<String>,
+    /// Numbers with a decimal comma (`1,5`), as in many semicolon files.
+    #[serde(default, skip_serializing_if = "std::ops::Not::not")]
+    pub decimal_comma: bool,
+    /// Cells read as missing values; absent: empty, `NA`, `N/A`, `null`, `NULL`, `-`.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub missing: Option<Vec<String>>,
 }
 
 impl DataRef {

@@ -131,6 +131,9 @@ pub fn spec_shape() -> Shape {
             f("types", Shape::Map { keys: None, value: Box::new(Shape::Word(COLUMN_TYPES)) }, "Per-column type overrides: number, text, date, bool."),
             f("sha256", Shape::Text("a hex SHA-256 digest"), "Hex SHA-256 of the data bytes; data whose digest differs is refused."),
             f("rows", list(Shape::Map { keys: None, value: Box::new(Shape::Any) }), "Inline records, for small tables."),
+            f("delimiter", Shape::Word(&[",", ";", "\t", "|"]), "Field delimiter of delimited text: comma, semicolon, tab or pipe. Default: sniffed from the first lines."),
+            f("decimal_comma", Shape::Bool, "Numbers use a decimal comma (1,5), as in many semicolon files."),
+            f("missing", list(Shape::Text("a cell text")), "Cells read as missing values. Default: empty, NA, N/A, null, NULL and -."),
         ]),
     ]);
     let bin = obj(vec![
