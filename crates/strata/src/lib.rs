@@ -91,7 +91,29 @@ pub fn render_spec(spec: &Spec, data: Option<DataBytes>, opts: &RenderOptions) -
     let mut warnings = table.warnings;
     warnings.extend(lint::check(spec, Some(&plan)));
     warnings.extend(plan.warnings);
+    warnings.extend(not_drawn_yet(spec));
     Ok(Rendered { svg, scene, warnings })
+}
+
+/// Keys of the vocabulary that this version reads but does not draw yet: a
+/// warning at their path rather than silence.
+fn not_drawn_yet(spec: &Spec) -> Vec<Diagnostic> {
+    let mut out = Vec::new();
+    let mut say = |path: String, what: &str| {
+        out.push(Diagnostic::warning("spec.not_drawn_yet", format!("{what} are not drawn by this version of Strata; the chart leaves them out")).at_path(path));
+    };
+    if spec.panels.is_some() {
+        say("panels".into(), "panels (small multiples)");
+    }
+    if !spec.notes.is_empty() {
+        say("notes".into(), "notes (annotations)");
+    }
+    for (i, l) in spec.layers.iter().enumerate() {
+        if !l.tip.is_empty() {
+            say(format!("layers[{i}].tip"), "tips");
+        }
+    }
+    out
 }
 
 /// The whole pipeline from spec text.

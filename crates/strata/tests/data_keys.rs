@@ -38,3 +38,11 @@ fn an_unknown_delimiter_is_a_located_error() {
     let e = strata::spec::parse_spec(&format!(r#"{BARS},"data":{{"delimiter":":"}}}}"#)).unwrap_err();
     assert_eq!(e.0[0].at.path, "data.delimiter");
 }
+
+#[test]
+fn keys_not_drawn_yet_say_so_at_their_path() {
+    let spec = r#"{"layers":[{"draw":"bar","x":"station","y":"rain","tip":["rain"]}],"panels":{"by":"station"},"notes":[{"x":"A","text":"wet"}]}"#;
+    let r = render(spec, Some(DataBytes { bytes: b"station,rain\nA,1\nB,2\n", name: "d.csv" }), &RenderOptions::default()).unwrap();
+    let paths: Vec<&str> = r.warnings.iter().filter(|w| w.code == "spec.not_drawn_yet").map(|w| w.at.path.as_str()).collect();
+    assert_eq!(paths, vec!["panels", "notes", "layers[0].tip"]);
+}
