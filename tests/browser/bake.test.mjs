@@ -24,9 +24,9 @@ after(async () => {
 test('bake reports the broken chart by page and id and bakes the rest', () => {
   assert.equal(bake.status, 1, 'a chart failed, so the exit status says so');
   assert.match(bake.stderr, /index\.html: #typo: .*layers\[0\]\.y/);
-  assert.match(bake.stderr, /baked 9 charts/);
+  assert.match(bake.stderr, /baked 10 charts/);
   const html = fs.readFileSync(BAKED, 'utf8');
-  assert.equal((html.match(/<svg xmlns/g) || []).length, 9);
+  assert.equal((html.match(/<svg xmlns/g) || []).length, 10);
 });
 
 test('with scripting off the baked charts are in the page', async () => {
@@ -35,7 +35,7 @@ test('with scripting off the baked charts are in the page', async () => {
   await page.route('**/*.js', (r) => r.abort());
   await page.goto(`${server.url}/www/index.baked.html`);
   const n = await page.evaluate(() => document.querySelectorAll('strata-chart > svg.strata').length);
-  assert.equal(n, 9);
+  assert.equal(n, 10);
   const box = await page.evaluate(() => document.querySelector('#bars > svg').getBoundingClientRect().height);
   assert.ok(box > 100, 'the SVG has its size without any script');
   await page.close();
@@ -46,7 +46,7 @@ test('the element redraws a baked chart byte for byte', async () => {
   await page.goto(`${server.url}/www/index.baked.html`);
   await settled(page);
   const html = fs.readFileSync(BAKED, 'utf8');
-  for (const id of ['points', 'lines', 'bars', 'histogram', 'boxes', 'trend', 'weather', 'windrose', 'dark']) {
+  for (const id of ['points', 'lines', 'bars', 'histogram', 'boxes', 'trend', 'weather', 'windrose', 'dark', 'panels']) {
     const svgText = await page.evaluate((id) => document.getElementById(id).svgText, id);
     assert.ok(html.includes(svgText.trimEnd()), `${id}: baked bytes equal the element's`);
     const count = await page.evaluate((id) => document.querySelectorAll(`#${id} > svg`).length, id);

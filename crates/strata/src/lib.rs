@@ -102,8 +102,13 @@ fn not_drawn_yet(spec: &Spec) -> Vec<Diagnostic> {
     let mut say = |path: String, what: &str| {
         out.push(Diagnostic::warning("spec.not_drawn_yet", format!("{what} are not drawn by this version of Strata; the chart leaves them out")).at_path(path));
     };
-    if spec.panels.is_some() {
-        say("panels".into(), "panels (small multiples)");
+    if let Some(p) = &spec.panels {
+        if p.by.is_none() && (p.rows.is_some() || p.cols.is_some()) {
+            say("panels".into(), "panel grids by `rows` and `cols`");
+        }
+        if p.free.is_some() {
+            say("panels.free".into(), "free panel scales");
+        }
     }
     if !spec.notes.is_empty() {
         say("notes".into(), "notes (annotations)");

@@ -41,8 +41,43 @@ fn an_unknown_delimiter_is_a_located_error() {
 
 #[test]
 fn keys_not_drawn_yet_say_so_at_their_path() {
-    let spec = r#"{"layers":[{"draw":"bar","x":"station","y":"rain","tip":["rain"]}],"panels":{"by":"station"},"notes":[{"x":"A","text":"wet"}]}"#;
+    let spec = r#"{"layers":[{"draw":"bar","x":"station","y":"rain","tip":["rain"]}],"panels":{"rows":"station"},"notes":[{"x":"A","text":"wet"}]}"#;
     let r = render(spec, Some(DataBytes { bytes: b"station,rain\nA,1\nB,2\n", name: "d.csv" }), &RenderOptions::default()).unwrap();
     let paths: Vec<&str> = r.warnings.iter().filter(|w| w.code == "spec.not_drawn_yet").map(|w| w.at.path.as_str()).collect();
     assert_eq!(paths, vec!["panels", "notes", "layers[0].tip"]);
+}
+
+#[test]
+fn panels_by_a_column_draw_one_plot_each_with_shared_scales() {
+    let spec = r#"{"layers":[{"draw":"bar","x":"k","y":"v"}],"panels":{"by":"p","columns":2},"size":{"width":600,"height":400}}"#;
+    let csv = b"p,k,v\nleft,a,1\nleft,b,2\nright,a,4\nright,b,8\nlow,a,3\n";
+    let r = render(spec, Some(DataBytes { bytes: csv, name: "d.csv" }), &RenderOptions::default()).unwrap();
+    let facets: Vec<&Node> = r.scene.children.iter().filter(|n| matches!(n, Node::Group { class, .. } if class == "strata-facet")).collect();
+    assert_eq!(facets.len(), 3);
+    // Each bar lands in its panel and carries its panel in the datum.
+    let bars: Vec<(f64, f64, String, f64)> = r
+        .scene
+        .marks()
+        .into_iter()
+        .filter_map(|m| match m {
+            Node::Rect { x, height, datum: Some(d), .. } => Some((*x, *height, d["panel"].as_str()?.to_string(), d["y"].as_f64()?)),
+            _ => None,
+        })
+        .collect();
+    assert_eq!(bars.len(), 5);
+    // Shared y scale: bar height is proportional to the value across panels.
+    let per_unit: Vec<f64> = bars.iter().map(|b| b.1 / b.3).collect();
+    assert!(per_unit.iter().all(|u| (u - per_unit[0]).abs() < 0.02), "{per_unit:?}");
+    // Two columns: "right" sits to the right of "left".
+    let left_x = bars.iter().filter(|b| b.2 == "left").map(|b| b.0).fold(f64::MAX, f64::min);
+    let right_x = bars.iter().filter(|b| b.2 == "right").map(|b| b.0).fold(f64::MAX, f64::min);
+    assert!(right_x > left_x + 200.0, "{left_x} {right_x}");
+    assert!(r.warnings.iter().all(|w| w.code != "spec.not_drawn_yet"));
+}
+
+#[test]
+fn a_panel_column_that_is_not_there_is_located() {
+    let spec = r#"{"layers":[{"draw":"bar","x":"k","y":"v"}],"panels":{"by":"q"}}"#;
+    let e = render(spec, Some(DataBytes { bytes: b"p,k,v\na,b,1\n", name: "d.csv" }), &RenderOptions::default()).unwrap_err();
+    assert_eq!(e.0[0].at.path, "panels.by");
 }

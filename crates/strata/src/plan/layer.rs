@@ -34,6 +34,23 @@ pub fn extract(index: usize, layer: &Layer, table: &Table) -> Result<LayerData, 
     if errors.is_empty() { Ok(out) } else { Err(Errors(errors)) }
 }
 
+/// Add the `panel` channel: the panel key of each row, from `panels.by`.
+pub fn with_panel(mut data: LayerData, by: Option<&str>, table: &Table) -> Result<LayerData, Errors> {
+    let Some(by) = by else { return Ok(data) };
+    let names = table.column_names();
+    let Some(pos) = names.iter().position(|n| n == by) else {
+        let mut d = Diagnostic::error("spec.unknown_column", format!("there is no column `{by}` in the data")).at_path("panels.by");
+        d = match closest(by, &names) {
+            Some(s) => d.with_hint(format!("did you mean `{s}`? The columns are: {}", names.join(", "))),
+            None => d.with_hint(format!("the columns are: {}", names.join(", "))),
+        };
+        return Err(d.into());
+    };
+    data.channels.insert("panel", to_values(table.batch.column(pos), Some(ColumnType::Text)));
+    data.names.insert("panel", by.to_string());
+    Ok(data)
+}
+
 /// Convert an Arrow column to layer values, honouring an `as` override.
 pub fn to_values(col: &ArrayRef, as_type: Option<ColumnType>) -> Values {
     let base = match col.data_type() {

@@ -131,7 +131,8 @@ pub fn build(spec: &Spec, table: &Table) -> Result<Plan, Errors> {
     let mut warnings = Vec::new();
     let mut layers = Vec::new();
     for (i, l) in spec.layers.iter().enumerate() {
-        match layer::extract(i, l, table).and_then(|d| stat::apply(i, l, d)) {
+        let by = spec.panels.as_ref().and_then(|p| p.by.as_deref());
+        match layer::extract(i, l, table).and_then(|d| layer::with_panel(d, by, table)).and_then(|d| stat::apply(i, l, d)) {
             Ok(s) => {
                 let n = stat::element_count(s.geometry, &s.data);
                 if n > stat::MAX_ELEMENTS {

@@ -102,7 +102,6 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
     let narrow = width <= NARROW;
     let pad = if narrow { 8.0 } else { 16.0 };
     let (pal, theme_class) = palette(&spec.theme);
-    let mut nice_scales = plan.scales.clone();
     let scales = &plan.scales;
     let loc = scales.locale;
     let mut children = Vec::new();
@@ -190,6 +189,120 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
         }
     }
 
+    let inputs = PlotInputs { spec, pal: &pal, loc, narrow, pad, width, legend_on_right };
+    match panel_plans(spec, plan) {
+        None => children.extend(plot_area(&inputs, plan, pad, right, top, bottom)),
+        Some(panels) => children.extend(panel_grid(&inputs, spec, &panels, right, top, bottom)),
+    }
+    if !legend_nodes.is_empty() {
+        children.push(Node::Group { class: "strata-legends".into(), role: None, label: None, children: legend_nodes });
+    }
+
+    let label = spec.title.clone().unwrap_or_else(|| default_label(plan));
+    let description = spec.description.clone().unwrap_or_else(|| crate::summary::describe(spec, plan));
+    Scene {
+        width,
+        height,
+        label,
+        description,
+        font_family: text::FONT_FAMILY.to_string(),
+        background: pal.background.clone(),
+        classes: theme_class,
+        children,
+    }
+}
+
+/// With `panels.by`: one plan per panel key (in order of first appearance),
+/// each layer keeping its rows of that panel. Scales stay those trained
+/// over every panel, so panels compare at a glance.
+fn panel_plans(spec: &Spec, plan: &Plan) -> Option<Vec<(String, Plan)>> {
+    spec.panels.as_ref()?.by.as_ref()?;
+    let mut keys: Vec<String> = Vec::new();
+    for l in &plan.layers {
+        if let Some(v) = l.data.get("panel") {
+            for i in 0..l.data.len {
+                if let Some(k) = v.key(i) {
+                    if !keys.contains(&k) {
+                        keys.push(k);
+                    }
+                }
+            }
+        }
+    }
+    if keys.is_empty() {
+        return None;
+    }
+    let panels = keys
+        .into_iter()
+        .map(|k| {
+            let mut p = plan.clone();
+            for l in &mut p.layers {
+                let Some(v) = l.data.get("panel") else { continue };
+                let rows: Vec<usize> = (0..l.data.len).filter(|i| v.key(*i).as_deref() == Some(k.as_str())).collect();
+                l.data.channels = l.data.channels.iter().map(|(c, vals)| (*c, vals.take(&rows))).collect();
+                l.data.len = rows.len();
+            }
+            (k, p)
+        })
+        .collect();
+    Some(panels)
+}
+
+/// Small multiples: a grid of plot areas, `panels.columns` across (default:
+/// about square), each under a strip naming its panel.
+fn panel_grid(inp: &PlotInputs, spec: &Spec, panels: &[(String, Plan)], right: f64, top: f64, bottom: f64) -> Vec<Node> {
+    let n = panels.len();
+    let default_cols = (n as f64).sqrt().ceil() as usize;
+    let cols = spec.panels.as_ref().and_then(|p| p.columns).map(|c| c as usize).unwrap_or(default_cols).clamp(1, n.max(1));
+    let rows = n.div_ceil(cols);
+    let (gap_x, gap_y) = if inp.narrow { (8.0, 8.0) } else { (16.0, 12.0) };
+    let x0 = inp.pad;
+    let cell_w = ((right - x0) - gap_x * (cols - 1) as f64) / cols as f64;
+    let cell_h = ((bottom - top) - gap_y * (rows - 1) as f64) / rows as f64;
+    let strip = guides::TICK_SIZE * text::LINE_HEIGHT + 2.0;
+    panels
+        .iter()
+        .enumerate()
+        .map(|(i, (key, plan))| {
+            let (r, c) = (i / cols, i % cols);
+            let left = x0 + c as f64 * (cell_w + gap_x);
+            let cell_top = top + r as f64 * (cell_h + gap_y);
+            let mut kids = vec![Node::Text {
+                x: left,
+                y: cell_top + guides::TICK_SIZE * text::ASCENT,
+                text: key.clone(),
+                size: guides::TICK_SIZE,
+                anchor: Anchor::Start,
+                bold: true,
+                angle: 0.0,
+                fill: inp.pal.text.clone(),
+                class: "strata-panel-title".into(),
+            }];
+            kids.extend(plot_area(inp, plan, left, left + cell_w, cell_top + strip, cell_top + cell_h));
+            Node::Group { class: "strata-facet".into(), role: Some("graphics-object".into()), label: Some(format!("panel {key}")), children: kids }
+        })
+        .collect()
+}
+
+/// What every plot area of a chart shares.
+struct PlotInputs<'a> {
+    spec: &'a Spec,
+    pal: &'a Palette,
+    loc: &'a crate::format::Locale,
+    narrow: bool,
+    pad: f64,
+    width: f64,
+    legend_on_right: bool,
+}
+
+/// One plot area: grid, marks and axes of `plan` inside `x0..right` and
+/// `top..bottom` (the whole chart's, or one panel's).
+fn plot_area(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bottom: f64) -> Vec<Node> {
+    let PlotInputs { spec, pal, loc, narrow, pad, width, legend_on_right } = *inp;
+    let pal = pal.clone();
+    let mut children = Vec::new();
+    let scales = &plan.scales;
+    let mut nice_scales = plan.scales.clone();
     // Axes: the x scale is horizontal unless the coordinates flip it.
     let flip = matches!(spec.coords, Coords::Flip);
     let polar = matches!(spec.coords, Coords::Polar(_));
@@ -210,7 +323,7 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
     let guess_h = (bottom - top - 2.0 * TITLE_SIZE * text::LINE_HEIGHT).max(20.0);
     let max_left = width * if narrow { 0.3 } else { 0.25 };
     // Nice ends for the counts that fit (x along the width, y along the height).
-    let (h_len_guess, v_len) = ((right - pad - 60.0).max(20.0), guess_h);
+    let (h_len_guess, v_len) = ((right - x0 - 60.0).max(20.0), guess_h);
     let (x_len, y_len) = if flip { (v_len, h_len_guess) } else { (h_len_guess, v_len) };
     if scales.x_nice {
         nice_scales.x = scales.x.nice(wanted(&scales.x_spec, x_len, if flip { 50.0 } else if narrow { 70.0 } else { 90.0 }));
@@ -226,7 +339,7 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
     let v_right = v_spec.axis == Some(Placement::Right);
     let h_top = h_spec.axis == Some(Placement::Top);
     let v_axis_w = if v_shown { guides::left_axis_width(v_label_w, !v_title.is_empty()) } else { 0.0 };
-    let left = pad + if v_right { 0.0 } else { v_axis_w };
+    let left = x0 + if v_right { 0.0 } else { v_axis_w };
     let right = if v_right { right - v_axis_w } else { right };
     let frame_w = (right - left).max(20.0);
     let max_label_h = (bottom - top) * 0.3;
@@ -240,7 +353,7 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
         let c = crate::math::cos((-h_angle).to_radians());
         let reach = h_ticks
             .iter()
-            .map(|t| text::width(&t.label, guides::TICK_SIZE, false) * c - t.unit * frame_w - (left - pad))
+            .map(|t| text::width(&t.label, guides::TICK_SIZE, false) * c - t.unit * frame_w - (left - x0))
             .fold(0.0, f64::max);
         if reach > 0.0 {
             let (l, w) = (left + reach, (frame_w - reach).max(20.0));
@@ -335,22 +448,7 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
         label: Some(panel_label(plan)),
         children: layers,
     });
-    if !legend_nodes.is_empty() {
-        children.push(Node::Group { class: "strata-legends".into(), role: None, label: None, children: legend_nodes });
-    }
-
-    let label = spec.title.clone().unwrap_or_else(|| default_label(plan));
-    let description = spec.description.clone().unwrap_or_else(|| crate::summary::describe(spec, plan));
-    Scene {
-        width,
-        height,
-        label,
-        description,
-        font_family: text::FONT_FAMILY.to_string(),
-        background: pal.background.clone(),
-        classes: theme_class,
-        children,
-    }
+    children
 }
 
 fn panel_label(plan: &Plan) -> String {
