@@ -53,7 +53,11 @@ function adoptStyles() {
   try {
     const sheet = new CSSStyleSheet();
     sheet.replaceSync(
-      'strata-chart{display:block;max-width:100%}' +
+      'strata-chart{display:block;max-width:100%;position:relative}' +
+      'strata-chart>.strata-tip{position:absolute;z-index:1;pointer-events:none;max-width:18em;' +
+      'font:13px/1.35 system-ui,sans-serif;padding:.3em .55em;border-radius:3px;' +
+      'color:var(--strata-tip-text,#fff);background:var(--strata-tip-background,#1d232b)}' +
+      'strata-chart>.strata-tip[hidden]{display:none}' +
       'strata-chart>svg.strata{display:block;max-width:100%;height:auto}' +
       'strata-chart>.strata-error{font:14px/1.4 system-ui,sans-serif;padding:.75em 1em;' +
       'border:1px solid var(--strata-error-border,#b3261e);color:var(--strata-error-text,#8c1d18);' +
@@ -112,8 +116,34 @@ export class StrataChart extends HTMLElement {
 
   connectedCallback() {
     adoptStyles();
+    this.addEventListener('focusin', this.#showTip);
+    this.addEventListener('focusout', this.#hideTip);
     this.#schedule();
   }
+
+  /** A mark with `tip` columns took keyboard focus: show its words beside it. */
+  #showTip = (event) => {
+    const mark = event.target;
+    if (!(mark instanceof SVGElement) || !mark.hasAttribute('tabindex')) return;
+    let tip = this.querySelector(':scope > .strata-tip');
+    if (!tip) {
+      tip = document.createElement('div');
+      tip.className = 'strata-tip';
+      tip.setAttribute('aria-hidden', 'true'); // the mark's aria-label already speaks
+      this.append(tip);
+    }
+    tip.textContent = mark.getAttribute('aria-label') || '';
+    const box = this.getBoundingClientRect();
+    const at = mark.getBoundingClientRect();
+    tip.style.left = `${Math.round(at.right - box.left + 6)}px`;
+    tip.style.top = `${Math.round(at.top - box.top - 4)}px`;
+    tip.hidden = false;
+  };
+
+  #hideTip = () => {
+    const tip = this.querySelector(':scope > .strata-tip');
+    if (tip) tip.hidden = true;
+  };
 
   disconnectedCallback() {
     this.#resize?.disconnect();

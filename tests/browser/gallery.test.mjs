@@ -81,6 +81,22 @@ test('the gallery page runs under its strict CSP without errors', () => {
   assert.deepEqual(errors, []);
 });
 
+test('a mark with tip columns takes keyboard focus and shows its words', async () => {
+  const first = await page.evaluate(() => {
+    const mark = document.querySelector('#points svg [tabindex="0"]');
+    return { title: mark.querySelector('title')?.textContent, label: mark.getAttribute('aria-label') };
+  });
+  assert.match(first.title, /tree: T\d\d, planted: \d{4}-\d\d-\d\d/);
+  await page.evaluate(() => document.querySelector('#points svg [tabindex="0"]').focus());
+  const tip = await page.evaluate(() => {
+    const t = document.querySelector('#points > .strata-tip');
+    return t && !t.hidden ? t.textContent : null;
+  });
+  assert.equal(tip, first.label);
+  await page.evaluate(() => document.activeElement.blur());
+  assert.ok(await page.evaluate(() => document.querySelector('#points > .strata-tip').hidden));
+});
+
 test('CSV pages load the engine once and never the Arrow module', () => {
   assert.equal(requested.filter((p) => p.endsWith('/strata_wasm_bg.wasm')).length, 1);
   assert.ok(!requested.some((p) => p.includes('strata_wasm_arrow')));

@@ -113,11 +113,6 @@ fn not_drawn_yet(spec: &Spec) -> Vec<Diagnostic> {
     if !spec.notes.is_empty() {
         say("notes".into(), "notes (annotations)");
     }
-    for (i, l) in spec.layers.iter().enumerate() {
-        if !l.tip.is_empty() {
-            say(format!("layers[{i}].tip"), "tips");
-        }
-    }
     out
 }
 

@@ -44,7 +44,7 @@ fn keys_not_drawn_yet_say_so_at_their_path() {
     let spec = r#"{"layers":[{"draw":"bar","x":"station","y":"rain","tip":["rain"]}],"panels":{"rows":"station"},"notes":[{"x":"A","text":"wet"}]}"#;
     let r = render(spec, Some(DataBytes { bytes: b"station,rain\nA,1\nB,2\n", name: "d.csv" }), &RenderOptions::default()).unwrap();
     let paths: Vec<&str> = r.warnings.iter().filter(|w| w.code == "spec.not_drawn_yet").map(|w| w.at.path.as_str()).collect();
-    assert_eq!(paths, vec!["panels", "notes", "layers[0].tip"]);
+    assert_eq!(paths, vec!["panels", "notes"]);
 }
 
 #[test]
@@ -80,4 +80,21 @@ fn a_panel_column_that_is_not_there_is_located() {
     let spec = r#"{"layers":[{"draw":"bar","x":"k","y":"v"}],"panels":{"by":"q"}}"#;
     let e = render(spec, Some(DataBytes { bytes: b"p,k,v\na,b,1\n", name: "d.csv" }), &RenderOptions::default()).unwrap_err();
     assert_eq!(e.0[0].at.path, "panels.by");
+}
+
+#[test]
+fn tips_become_hover_titles_and_focusable_marks() {
+    let spec = r#"{"layers":[{"draw":"point","x":"a","y":"b","tip":["who"]}]}"#;
+    let csv = b"a,b,who\n1,2,<Ann & Bo>\n2,3,Cy\n";
+    let r = render(spec, Some(DataBytes { bytes: csv, name: "d.csv" }), &RenderOptions::default()).unwrap();
+    assert_eq!(r.svg.matches("tabindex=\"0\"").count(), 2);
+    assert!(r.svg.contains("<title>x: 1, y: 2, who: &lt;Ann &amp; Bo&gt;</title></circle>"), "{}", r.svg);
+    assert!(r.svg.contains("aria-label=\"x: 2, y: 3, who: Cy\""));
+    // The scene lists the tip values with each mark.
+    let m = r.scene.marks();
+    let Node::Circle { datum: Some(d), .. } = m[1] else { panic!() };
+    assert_eq!(d["tip"]["who"], "Cy");
+    // A tip column that is not there is located.
+    let e = render(r#"{"layers":[{"draw":"point","x":"a","y":"b","tip":["a","whom"]}]}"#, Some(DataBytes { bytes: csv, name: "d.csv" }), &RenderOptions::default()).unwrap_err();
+    assert_eq!(e.0[0].at.path, "layers[0].tip[1]");
 }

@@ -31,6 +31,18 @@ pub fn extract(index: usize, layer: &Layer, table: &Table) -> Result<LayerData, 
         out.channels.insert(ch, values);
         out.names.insert(ch, channel.column.clone());
     }
+    for (j, col) in layer.tip.iter().enumerate() {
+        match names.iter().position(|n| n == col) {
+            Some(pos) => out.tips.push((col.clone(), to_values(table.batch.column(pos), None))),
+            None => {
+                let d = Diagnostic::error("spec.unknown_column", format!("there is no column `{col}` in the data")).at_path(format!("layers[{index}].tip[{j}]"));
+                errors.push(match closest(col, &names) {
+                    Some(s) => d.with_hint(format!("did you mean `{s}`? The columns are: {}", names.join(", "))),
+                    None => d.with_hint(format!("the columns are: {}", names.join(", "))),
+                });
+            }
+        }
+    }
     if errors.is_empty() { Ok(out) } else { Err(Errors(errors)) }
 }
 

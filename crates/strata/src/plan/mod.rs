@@ -101,6 +101,9 @@ pub struct LayerData {
     pub channels: IndexMap<&'static str, Values>,
     /// The column name behind each channel, for axis titles and legends.
     pub names: IndexMap<&'static str, String>,
+    /// The layer's `tip` columns, row for row (kept by statistics that keep
+    /// rows; aggregating ones show their own values instead).
+    pub tips: Vec<(String, Values)>,
 }
 
 impl LayerData {

@@ -240,6 +240,7 @@ fn panel_plans(spec: &Spec, plan: &Plan) -> Option<Vec<(String, Plan)>> {
                 let Some(v) = l.data.get("panel") else { continue };
                 let rows: Vec<usize> = (0..l.data.len).filter(|i| v.key(*i).as_deref() == Some(k.as_str())).collect();
                 l.data.channels = l.data.channels.iter().map(|(c, vals)| (*c, vals.take(&rows))).collect();
+                l.data.tips = l.data.tips.iter().map(|(c, vals)| (c.clone(), vals.take(&rows))).collect();
                 l.data.len = rows.len();
             }
             (k, p)

@@ -21,7 +21,14 @@ pub struct Ctx<'a> {
 const HIDDEN: [&str; 2] = ["y_base", "x_offset"];
 
 fn datum(layer: &PlannedLayer, i: usize) -> Datum {
-    layer.data.channels.iter().filter(|(k, _)| !HIDDEN.contains(k)).map(|(k, v)| (k.to_string(), v.json(i))).collect()
+    let mut d: Datum = layer.data.channels.iter().filter(|(k, _)| !HIDDEN.contains(k)).map(|(k, v)| (k.to_string(), v.json(i))).collect();
+    // `tip` columns ride along under one key; the SVG writer turns them into
+    // a hover title and makes the mark keyboard-focusable.
+    if !layer.data.tips.is_empty() && layer.data.tips.iter().all(|(_, v)| v.len() == layer.data.len) {
+        let tips: serde_json::Map<String, serde_json::Value> = layer.data.tips.iter().map(|(c, v)| (c.clone(), v.json(i))).collect();
+        d.insert("tip".into(), serde_json::Value::Object(tips));
+    }
+    d
 }
 
 fn color_of(ctx: &Ctx, layer: &PlannedLayer, i: usize) -> String {

@@ -84,25 +84,47 @@ fn paint(out: &mut String, p: &Paint) {
     }
 }
 
-/// `role` and `aria-label` of a data mark: its values, "x: Jan, y: 82".
+/// A datum value as words.
+fn value_words(v: &serde_json::Value) -> String {
+    match v {
+        serde_json::Value::String(s) => s.clone(),
+        serde_json::Value::Number(n) => n.as_f64().map(crate::format::value_label).unwrap_or_default(),
+        serde_json::Value::Null => "missing".into(),
+        other => other.to_string(),
+    }
+}
+
+/// "x: Jan, y: 82, age: 12": a mark's values, then its `tip` columns.
+fn datum_words(d: &crate::scene::Datum) -> String {
+    let mut parts: Vec<String> = d.iter().filter(|(k, _)| k.as_str() != "tip").map(|(k, v)| format!("{k}: {}", value_words(v))).collect();
+    if let Some(serde_json::Value::Object(tips)) = d.get("tip") {
+        parts.extend(tips.iter().map(|(k, v)| format!("{k}: {}", value_words(v))));
+    }
+    parts.join(", ")
+}
+
+/// `role` and `aria-label` of a data mark (its values, "x: Jan, y: 82");
+/// marks with `tip` columns are also focusable with the keyboard.
 fn mark_label(out: &mut String, datum: &Option<crate::scene::Datum>, labelled: bool) {
     let Some(d) = datum else { return };
     if !labelled {
         return;
     }
-    let parts: Vec<String> = d
-        .iter()
-        .map(|(k, v)| {
-            let v = match v {
-                serde_json::Value::String(s) => s.clone(),
-                serde_json::Value::Number(n) => n.as_f64().map(crate::format::value_label).unwrap_or_default(),
-                serde_json::Value::Null => "missing".into(),
-                other => other.to_string(),
-            };
-            format!("{k}: {v}")
-        })
-        .collect();
-    let _ = write!(out, " role=\"graphics-symbol\" aria-label=\"{}\"", escape(&parts.join(", ")));
+    let _ = write!(out, " role=\"graphics-symbol\" aria-label=\"{}\"", escape(&datum_words(d)));
+    if d.contains_key("tip") {
+        out.push_str(" tabindex=\"0\"");
+    }
+}
+
+/// Close a mark: with `tip` columns, a `<title>` child that browsers show on
+/// hover (no script needed, so baked pages have it too).
+fn close_mark(out: &mut String, name: &str, datum: &Option<crate::scene::Datum>) {
+    match datum {
+        Some(d) if d.contains_key("tip") => {
+            let _ = writeln!(out, "><title>{}</title></{name}>", escape(&datum_words(d)));
+        }
+        _ => out.push_str("/>\n"),
+    }
 }
 
 fn node(out: &mut String, n: &Node, depth: usize, labelled: bool) {
@@ -132,13 +154,13 @@ fn node(out: &mut String, n: &Node, depth: usize, labelled: bool) {
             let _ = write!(out, "<rect x=\"{}\" y=\"{}\" width=\"{}\" height=\"{}\"", num(*x), num(*y), num(*width), num(*height));
             paint(out, p);
             mark_label(out, datum, labelled);
-            out.push_str("/>\n");
+            close_mark(out, "rect", datum);
         }
         Node::Circle { cx, cy, r, paint: p, datum } => {
             let _ = write!(out, "<circle cx=\"{}\" cy=\"{}\" r=\"{}\"", num(*cx), num(*cy), num(*r));
             paint(out, p);
             mark_label(out, datum, labelled);
-            out.push_str("/>\n");
+            close_mark(out, "circle", datum);
         }
         Node::Line { x1, y1, x2, y2, paint: p } => {
             let _ = write!(out, "<line x1=\"{}\" y1=\"{}\" x2=\"{}\" y2=\"{}\"", num(*x1), num(*y1), num(*x2), num(*y2));
@@ -149,7 +171,7 @@ fn node(out: &mut String, n: &Node, depth: usize, labelled: bool) {
             let _ = write!(out, "<path d=\"{}\"", escape(d));
             paint(out, p);
             mark_label(out, datum, labelled);
-            out.push_str("/>\n");
+            close_mark(out, "path", datum);
         }
         Node::Text { x, y, text, size, anchor, bold, angle, fill, class } => {
             let _ = write!(out, "<text class=\"{}\" x=\"{}\" y=\"{}\" font-size=\"{}\"", escape(class), num(*x), num(*y), num(*size));
