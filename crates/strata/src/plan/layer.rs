@@ -15,16 +15,7 @@ pub fn extract(index: usize, layer: &Layer, table: &Table) -> Result<LayerData, 
     let mut errors = Vec::new();
     for (ch, channel) in layer.channels() {
         let Some(pos) = names.iter().position(|n| *n == channel.column) else {
-            let mut d = Diagnostic::error(
-                "spec.unknown_column",
-                format!("there is no column `{}` in the data", channel.column),
-            )
-            .at_path(format!("layers[{index}].{ch}"));
-            d = match closest(&channel.column, &names) {
-                Some(s) => d.with_hint(format!("did you mean `{s}`? The columns are: {}", names.join(", "))),
-                None => d.with_hint(format!("the columns are: {}", names.join(", "))),
-            };
-            errors.push(d);
+            errors.push(unknown_column(&channel.column, &names, format!("layers[{index}].{ch}")));
             continue;
         };
         let values = to_values(table.batch.column(pos), channel.as_type);
@@ -34,13 +25,7 @@ pub fn extract(index: usize, layer: &Layer, table: &Table) -> Result<LayerData, 
     for (j, col) in layer.tip.iter().enumerate() {
         match names.iter().position(|n| n == col) {
             Some(pos) => out.tips.push((col.clone(), to_values(table.batch.column(pos), None))),
-            None => {
-                let d = Diagnostic::error("spec.unknown_column", format!("there is no column `{col}` in the data")).at_path(format!("layers[{index}].tip[{j}]"));
-                errors.push(match closest(col, &names) {
-                    Some(s) => d.with_hint(format!("did you mean `{s}`? The columns are: {}", names.join(", "))),
-                    None => d.with_hint(format!("the columns are: {}", names.join(", "))),
-                });
-            }
+            None => errors.push(unknown_column(col, &names, format!("layers[{index}].tip[{j}]"))),
         }
     }
     if errors.is_empty() { Ok(out) } else { Err(Errors(errors)) }
@@ -51,12 +36,7 @@ pub fn with_panel(mut data: LayerData, by: Option<&str>, table: &Table) -> Resul
     let Some(by) = by else { return Ok(data) };
     let names = table.column_names();
     let Some(pos) = names.iter().position(|n| n == by) else {
-        let mut d = Diagnostic::error("spec.unknown_column", format!("there is no column `{by}` in the data")).at_path("panels.by");
-        d = match closest(by, &names) {
-            Some(s) => d.with_hint(format!("did you mean `{s}`? The columns are: {}", names.join(", "))),
-            None => d.with_hint(format!("the columns are: {}", names.join(", "))),
-        };
-        return Err(d.into());
+        return Err(unknown_column(by, &names, "panels.by".into()).into());
     };
     data.channels.insert("panel", to_values(table.batch.column(pos), Some(ColumnType::Text)));
     data.names.insert("panel", by.to_string());
@@ -98,25 +78,11 @@ pub fn to_values(col: &ArrayRef, as_type: Option<ColumnType>) -> Values {
     }
 }
 
-/// The candidate closest to `word` by edit distance, if close enough.
-pub fn closest<'a>(word: &str, candidates: &'a [String]) -> Option<&'a str> {
-    candidates
-        .iter()
-        .map(|c| (levenshtein(&word.to_lowercase(), &c.to_lowercase()), c))
-        .filter(|(d, c)| *d <= (c.chars().count().max(word.chars().count()) / 3).max(1))
-        .min_by_key(|(d, _)| *d)
-        .map(|(_, c)| c.as_str())
-}
-
-fn levenshtein(a: &str, b: &str) -> usize {
-    let b: Vec<char> = b.chars().collect();
-    let mut prev: Vec<usize> = (0..=b.len()).collect();
-    for (i, ca) in a.chars().enumerate() {
-        let mut cur = vec![i + 1; b.len() + 1];
-        for (j, cb) in b.iter().enumerate() {
-            cur[j + 1] = (prev[j] + usize::from(ca != *cb)).min(prev[j + 1] + 1).min(cur[j] + 1);
-        }
-        prev = cur;
+/// "There is no column `c`", at `path`, with a did-you-mean and the columns.
+fn unknown_column(col: &str, names: &[String], path: String) -> Diagnostic {
+    let d = Diagnostic::error("spec.unknown_column", format!("there is no column `{col}` in the data")).at_path(path);
+    match crate::spec::closest(col, names.iter().map(String::as_str)) {
+        Some(s) => d.with_hint(format!("did you mean `{s}`? The columns are: {}", names.join(", "))),
+        None => d.with_hint(format!("the columns are: {}", names.join(", "))),
     }
-    prev[b.len()]
 }
