@@ -44,7 +44,7 @@ fn keys_not_drawn_yet_say_so_at_their_path() {
     let spec = r#"{"layers":[{"draw":"bar","x":"station","y":"rain","tip":["rain"]}],"panels":{"rows":"station"},"notes":[{"x":"A","text":"wet"}]}"#;
     let r = render(spec, Some(DataBytes { bytes: b"station,rain\nA,1\nB,2\n", name: "d.csv" }), &RenderOptions::default()).unwrap();
     let paths: Vec<&str> = r.warnings.iter().filter(|w| w.code == "spec.not_drawn_yet").map(|w| w.at.path.as_str()).collect();
-    assert_eq!(paths, vec!["panels", "notes"]);
+    assert_eq!(paths, vec!["panels"]);
 }
 
 #[test]
@@ -97,4 +97,35 @@ fn tips_become_hover_titles_and_focusable_marks() {
     // A tip column that is not there is located.
     let e = render(r#"{"layers":[{"draw":"point","x":"a","y":"b","tip":["a","whom"]}]}"#, Some(DataBytes { bytes: csv, name: "d.csv" }), &RenderOptions::default()).unwrap_err();
     assert_eq!(e.0[0].at.path, "layers[0].tip[1]");
+}
+
+#[test]
+fn notes_mark_data_positions() {
+    // A reference line at x = 2, a shaded span over categories-free y 3..5,
+    // and a text at the point (3, 6): each lands where the scales put data.
+    let spec = r#"{"layers":[{"draw":"point","x":"a","y":"b"}],
+        "notes":[{"x":2,"text":"change"},{"y":3,"y_end":5,"text":"target band"},{"x":3,"y":6,"text":"peak"}],
+        "size":{"width":600,"height":400}}"#;
+    let csv = b"a,b\n1,2\n2,4\n3,6\n";
+    let r = render(spec, Some(DataBytes { bytes: csv, name: "d.csv" }), &RenderOptions::default()).unwrap();
+    let pts: Vec<(f64, f64)> = r.scene.marks().into_iter().filter_map(|m| match m { Node::Circle { cx, cy, datum: Some(_), .. } => Some((*cx, *cy)), _ => None }).collect();
+    fn walk<'a>(n: &'a Node, out: &mut Vec<&'a Node>) {
+        match n {
+            Node::Group { class, children, .. } if class == "strata-notes" => out.extend(children.iter()),
+            Node::Group { children, .. } => children.iter().for_each(|c| walk(c, out)),
+            _ => {}
+        }
+    }
+    let mut notes = Vec::new();
+    r.scene.children.iter().for_each(|c| walk(c, &mut notes));
+    let line = notes.iter().find_map(|n| match n { Node::Line { x1, x2, .. } => Some((*x1, *x2)), _ => None }).unwrap();
+    assert!((line.0 - pts[1].0).abs() < 1e-9 && (line.1 - pts[1].0).abs() < 1e-9, "line at x = 2: {line:?} vs {:?}", pts[1]);
+    let band = notes.iter().find_map(|n| match n { Node::Rect { y, height, .. } => Some((*y, *y + *height)), _ => None }).unwrap();
+    // y = 4 (the second point) lies inside the 3..5 band, y = 2 and 6 outside.
+    assert!(band.0 < pts[1].1 && pts[1].1 < band.1);
+    assert!(pts[0].1 > band.1 && pts[2].1 < band.0);
+    let dot = notes.iter().find_map(|n| match n { Node::Circle { cx, cy, .. } => Some((*cx, *cy)), _ => None }).unwrap();
+    assert!((dot.0 - pts[2].0).abs() < 1e-9 && (dot.1 - pts[2].1).abs() < 1e-9);
+    let words: Vec<&str> = notes.iter().filter_map(|n| match n { Node::Text { text, .. } => Some(text.as_str()), _ => None }).collect();
+    assert_eq!(words, vec!["change", "target band", "peak"]);
 }

@@ -443,6 +443,8 @@ fn plot_area(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, botto
     if v_shown {
         children.push(guides::axis(&v_axis, frame, &pal, v_label_w));
     }
+    // Notes go over the marks, inside the plot.
+    layers.extend(super::notes::draw(&spec.notes, scales, &coord, &pal));
     children.push(Node::Group {
         class: "strata-panel".into(),
         role: Some("graphics-object".into()),

@@ -49,6 +49,10 @@ impl Coord {
         }
     }
 
+    pub fn is_polar(&self) -> bool {
+        matches!(self, Coord::Polar { .. })
+    }
+
     pub fn frame(&self) -> Frame {
         match self {
             Coord::Cartesian(f) | Coord::Flip(f) => *f,

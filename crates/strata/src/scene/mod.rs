@@ -8,6 +8,7 @@ mod build;
 mod coord;
 mod guides;
 mod marks;
+mod notes;
 
 pub use build::{build, chart_size, SceneOptions, TITLE_SIZE};
 
