@@ -194,6 +194,21 @@ pub fn widest_label(ticks: &[Tick]) -> f64 {
     ticks.iter().map(label_width).fold(0.0, f64::max)
 }
 
+/// An axis title centred at (x, y), shortened to fit `length`, turned by `angle`.
+fn axis_title(x: f64, y: f64, title: &str, length: f64, angle: f64, pal: &Palette) -> Node {
+    Node::Text {
+        x,
+        y,
+        text: text::fit(title, TITLE_SIZE, false, length),
+        size: TITLE_SIZE,
+        anchor: Anchor::Middle,
+        bold: false,
+        angle,
+        fill: pal.text.clone(),
+        class: "strata-axis-title".into(),
+    }
+}
+
 fn label(x: f64, y: f64, s: &str, anchor: Anchor, fill: &str, class: &str) -> Node {
     Node::Text { x, y, text: s.to_string(), size: TICK_SIZE, anchor, bold: false, angle: 0.0, fill: fill.to_string(), class: class.to_string() }
 }
@@ -249,17 +264,7 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
             if !axis.title.is_empty() {
                 let labels_h = bottom_labels_height(&axis.ticks, axis.angle);
                 let y = f.bottom() + GAP + labels_h + GAP + TITLE_SIZE * text::ASCENT;
-                kids.push(Node::Text {
-                    x: f.left + f.width / 2.0,
-                    y,
-                    text: text::fit(axis.title, TITLE_SIZE, false, f.width),
-                    size: TITLE_SIZE,
-                    anchor: Anchor::Middle,
-                    bold: false,
-                    angle: 0.0,
-                    fill: pal.text.clone(),
-                    class: "strata-axis-title".into(),
-                });
+                kids.push(axis_title(f.left + f.width / 2.0, y, axis.title, f.width, 0.0, pal));
             }
         }
         Side::Left => {
@@ -272,17 +277,7 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
             }
             if !axis.title.is_empty() {
                 let x = f.left - GAP - label_width - GAP - TITLE_SIZE * (text::LINE_HEIGHT - text::ASCENT);
-                kids.push(Node::Text {
-                    x,
-                    y: f.top + f.height / 2.0,
-                    text: text::fit(axis.title, TITLE_SIZE, false, f.height),
-                    size: TITLE_SIZE,
-                    anchor: Anchor::Middle,
-                    bold: false,
-                    angle: -90.0,
-                    fill: pal.text.clone(),
-                    class: "strata-axis-title".into(),
-                });
+                kids.push(axis_title(x, f.top + f.height / 2.0, axis.title, f.height, -90.0, pal));
             }
         }
         Side::Top => {
@@ -310,17 +305,7 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
             }
             if !axis.title.is_empty() {
                 let y = f.top - GAP - labels_h - GAP - TITLE_SIZE * text::LINE_HEIGHT + TITLE_SIZE * text::ASCENT;
-                kids.push(Node::Text {
-                    x: f.left + f.width / 2.0,
-                    y,
-                    text: text::fit(axis.title, TITLE_SIZE, false, f.width),
-                    size: TITLE_SIZE,
-                    anchor: Anchor::Middle,
-                    bold: false,
-                    angle: 0.0,
-                    fill: pal.text.clone(),
-                    class: "strata-axis-title".into(),
-                });
+                kids.push(axis_title(f.left + f.width / 2.0, y, axis.title, f.width, 0.0, pal));
             }
         }
         Side::Right => {
@@ -333,17 +318,7 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
             }
             if !axis.title.is_empty() {
                 let x = f.right() + GAP + label_width + GAP + TITLE_SIZE * text::ASCENT;
-                kids.push(Node::Text {
-                    x,
-                    y: f.top + f.height / 2.0,
-                    text: text::fit(axis.title, TITLE_SIZE, false, f.height),
-                    size: TITLE_SIZE,
-                    anchor: Anchor::Middle,
-                    bold: false,
-                    angle: 90.0,
-                    fill: pal.text.clone(),
-                    class: "strata-axis-title".into(),
-                });
+                kids.push(axis_title(x, f.top + f.height / 2.0, axis.title, f.height, 90.0, pal));
             }
         }
     }

@@ -45,10 +45,27 @@ pub fn ln_beta(a: f64, b: f64) -> f64 {
     ln_gamma(a) + ln_gamma(b) - ln_gamma(a + b)
 }
 
+/// Guard of the Lentz method against division by zero.
+const TINY: f64 = 1e-300;
+
+/// One step of the modified Lentz method for a continued fraction term
+/// `num`: updates `c` and `d` and returns the factor for the running value.
+fn lentz_step(num: f64, c: &mut f64, d: &mut f64) -> f64 {
+    *d = 1.0 + num * *d;
+    if d.abs() < TINY {
+        *d = TINY;
+    }
+    *c = 1.0 + num / *c;
+    if c.abs() < TINY {
+        *c = TINY;
+    }
+    *d = 1.0 / *d;
+    *d * *c
+}
+
 /// Continued fraction for the incomplete beta function (DLMF 8.17.22),
 /// modified Lentz evaluation.
 fn beta_cf(x: f64, a: f64, b: f64) -> f64 {
-    const TINY: f64 = 1e-300;
     const EPS: f64 = 1e-16;
     let mut c = 1.0;
     let mut d = 1.0 - (a + b) * x / (a + 1.0);
@@ -60,29 +77,9 @@ fn beta_cf(x: f64, a: f64, b: f64) -> f64 {
     for m in 1..=10_000 {
         let m = m as f64;
         // Even step: d_{2m} = m (b - m) x / ((a + 2m - 1)(a + 2m))
-        let num = m * (b - m) * x / ((a + 2.0 * m - 1.0) * (a + 2.0 * m));
-        d = 1.0 + num * d;
-        if d.abs() < TINY {
-            d = TINY;
-        }
-        c = 1.0 + num / c;
-        if c.abs() < TINY {
-            c = TINY;
-        }
-        d = 1.0 / d;
-        f *= d * c;
+        f *= lentz_step(m * (b - m) * x / ((a + 2.0 * m - 1.0) * (a + 2.0 * m)), &mut c, &mut d);
         // Odd step: d_{2m+1} = -(a + m)(a + b + m) x / ((a + 2m)(a + 2m + 1))
-        let num = -(a + m) * (a + b + m) * x / ((a + 2.0 * m) * (a + 2.0 * m + 1.0));
-        d = 1.0 + num * d;
-        if d.abs() < TINY {
-            d = TINY;
-        }
-        c = 1.0 + num / c;
-        if c.abs() < TINY {
-            c = TINY;
-        }
-        d = 1.0 / d;
-        let delta = d * c;
+        let delta = lentz_step(-(a + m) * (a + b + m) * x / ((a + 2.0 * m) * (a + 2.0 * m + 1.0)), &mut c, &mut d);
         f *= delta;
         if (delta - 1.0).abs() < EPS {
             break;
