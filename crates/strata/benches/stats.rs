@@ -3,7 +3,7 @@
 //!
 //! cargo bench -p strata --bench stats
 
-use arrow_array::{ArrayRef, Float64Array, RecordBatch};
+use arrow_array::{Array, ArrayRef, Float64Array, RecordBatch};
 use arrow_schema::{DataType, Field, Schema};
 use criterion::{criterion_group, criterion_main, Criterion};
 use std::hint::black_box;
@@ -118,6 +118,20 @@ fn line_svg(c: &mut Criterion) {
     // From an in-memory Arrow table to SVG text: plan (column extraction),
     // scene (scales, M4 at the plot width) and SVG writing.
     g.bench_function("line_10m_svg_800px", |b| b.iter(|| black_box(render()).len()));
+    // Baseline for the ratio: one read of both columns (their extents), the
+    // least any drawing of every point has to do.
+    let cols = [table.batch.column(0).clone(), table.batch.column(1).clone()];
+    g.bench_function("line_10m_read_columns", |b| {
+        b.iter(|| {
+            cols.iter()
+                .map(|c| {
+                    let v = c.as_any().downcast_ref::<Float64Array>().unwrap().values();
+                    v.iter().fold((f64::INFINITY, f64::NEG_INFINITY), |(lo, hi), x| (if *x < lo { *x } else { lo }, if *x > hi { *x } else { hi }))
+                })
+                .map(|(lo, hi)| black_box(lo + hi))
+                .sum::<f64>()
+        })
+    });
     g.finish();
 }
 

@@ -7,8 +7,8 @@ use crate::spec::Spec;
 
 fn value_text(v: &Values, i: usize, loc: &Locale) -> String {
     match v {
-        Values::Num(x) => x[i].map(|x| format::value_label_in(x, loc)).unwrap_or_default(),
-        Values::Time(x) => x[i].map(|ms| format::date(ms, "yyyy-MM-dd", loc)).unwrap_or_default(),
+        Values::Num(x) => x.get(i).map(|x| format::value_label_in(x, loc)).unwrap_or_default(),
+        Values::Time(x) => x.get(i).map(|ms| format::date(ms, "yyyy-MM-dd", loc)).unwrap_or_default(),
         Values::Text(x) => x[i].clone().unwrap_or_default(),
     }
 }
@@ -41,6 +41,56 @@ pub fn trend_word(pts: &[(f64, f64)]) -> Option<&'static str> {
     Some(if change > 0.2 { "rises" } else if change < -0.2 { "falls" } else { "shows no clear trend" })
 }
 
+/// One pass over a layer's y (and numeric x): the lowest and highest y with
+/// the first row of each, and the x span of rows whose y is present.
+struct Extremes {
+    lo: f64,
+    lo_row: usize,
+    hi: f64,
+    hi_row: usize,
+    x_span: (f64, f64),
+}
+
+fn extremes(ys: &[f64], xs: Option<&[f64]>) -> Option<Extremes> {
+    let mut e = Extremes { lo: f64::INFINITY, lo_row: usize::MAX, hi: f64::NEG_INFINITY, hi_row: usize::MAX, x_span: (f64::INFINITY, f64::NEG_INFINITY) };
+    let mut seen = |i: usize, y: f64| {
+        // Missing values are NaN or infinite; plain comparisons keep this
+        // loop free of the NaN rules of f64::min.
+        if !y.is_finite() {
+            return false;
+        }
+        if y > e.hi || e.hi_row == usize::MAX {
+            (e.hi, e.hi_row) = (y, i);
+        }
+        if y < e.lo || e.lo_row == usize::MAX {
+            (e.lo, e.lo_row) = (y, i);
+        }
+        true
+    };
+    let mut span = (f64::INFINITY, f64::NEG_INFINITY);
+    match xs {
+        Some(xs) => {
+            for (i, (&y, &x)) in ys.iter().zip(xs).enumerate() {
+                if seen(i, y) && x.is_finite() {
+                    if x < span.0 {
+                        span.0 = x;
+                    }
+                    if x > span.1 {
+                        span.1 = x;
+                    }
+                }
+            }
+        }
+        None => {
+            for (i, &y) in ys.iter().enumerate() {
+                seen(i, y);
+            }
+        }
+    }
+    e.x_span = span;
+    (e.hi_row != usize::MAX).then_some(e)
+}
+
 pub fn describe(spec: &Spec, plan: &Plan) -> String {
     let s = &plan.scales;
     let loc = s.locale;
@@ -60,19 +110,12 @@ pub fn describe(spec: &Spec, plan: &Plan) -> String {
     parts.push(head);
     for l in &plan.layers {
         let (Some(Values::Num(ys)), xv) = (l.data.get("y"), l.data.get("x")) else { continue };
-        let mut best: Option<(f64, usize)> = None;
-        let mut worst: Option<(f64, usize)> = None;
-        for (i, y) in ys.iter().enumerate() {
-            if let Some(y) = y {
-                if best.is_none_or(|b| *y > b.0) {
-                    best = Some((*y, i));
-                }
-                if worst.is_none_or(|w| *y < w.0) {
-                    worst = Some((*y, i));
-                }
-            }
-        }
-        let Some(((hi, ih), (lo, il))) = best.zip(worst) else { continue };
+        let xs = match xv {
+            Some(Values::Num(x) | Values::Time(x)) => Some(x.raw()),
+            _ => None,
+        };
+        let Some(e) = extremes(ys.raw(), xs) else { continue };
+        let (lo, il, hi, ih) = (e.lo, e.lo_row, e.hi, e.hi_row);
         let at = |i: usize| xv.map(|x| format!(" at {}", value_text(x, i, loc))).unwrap_or_default();
         let name = l.data.names.get("y").cloned().unwrap_or_else(|| "y".into());
         parts.push(format!("{name} ranges from {}{} to {}{}", format::value_label_in(lo, loc), at(il), format::value_label_in(hi, loc), at(ih)));
@@ -81,13 +124,10 @@ pub fn describe(spec: &Spec, plan: &Plan) -> String {
             // past 100,000 rows an evenly spaced, deterministic sample of
             // rows gives the same word without copying millions of points.
             let stride = l.data.len.div_ceil(TREND_SAMPLE).max(1);
-            let pts: Vec<(f64, f64)> = (0..l.data.len).step_by(stride).filter_map(|i| Some((x.num(i)?, ys[i]?))).collect();
+            let pts: Vec<(f64, f64)> = (0..l.data.len).step_by(stride).filter_map(|i| Some((x.num(i)?, ys.get(i)?))).collect();
             if let Some(w) = trend_word(&pts) {
                 // The span is read from every row, not from the sample.
-                let (first, last) = (0..l.data.len)
-                    .filter(|i| ys[*i].is_some())
-                    .filter_map(|i| x.num(i))
-                    .fold((f64::INFINITY, f64::NEG_INFINITY), |a, v| (a.0.min(v), a.1.max(v)));
+                let (first, last) = e.x_span;
                 let span = match x {
                     Values::Time(_) => format!("{} to {}", format::date(first, "yyyy-MM-dd", loc), format::date(last, "yyyy-MM-dd", loc)),
                     _ => format!("{} to {}", format::value_label_in(first, loc), format::value_label_in(last, loc)),

@@ -11,7 +11,7 @@
 //!   data's resolution (smallest gap between distinct values) for numbers,
 //!   or up to 30 % of a band either way (`x_offset`) for categories.
 
-use super::{LayerData, Values};
+use super::{LayerData, Nums, Values};
 use crate::spec::{Arrange, Geometry, Layer};
 use crate::stat::rng::SplitMix64;
 
@@ -28,13 +28,13 @@ pub fn apply(index: usize, layer: &Layer, geometry: Geometry, mut data: LayerDat
     }
     let Some(Values::Num(ys)) = data.get("y").cloned() else { return data };
     let mut base = vec![Some(0.0); data.len];
-    let mut top = ys.clone();
+    let mut top: Vec<Option<f64>> = ys.iter().collect();
     if layer.arrange == Arrange::Stack || layer.arrange == Arrange::Proportion {
         let keys: Vec<Option<String>> = (0..data.len).map(|i| stack_key(&data, i)).collect();
         let mut up: Vec<(Option<String>, f64)> = Vec::new();
         let mut down: Vec<(Option<String>, f64)> = Vec::new();
         for i in 0..data.len {
-            let Some(y) = ys[i] else { continue };
+            let Some(y) = ys.get(i) else { continue };
             let key = &keys[i];
             let acc = if y >= 0.0 { &mut up } else { &mut down };
             let slot = match acc.iter().position(|(k, _)| k == key) {
@@ -59,8 +59,8 @@ pub fn apply(index: usize, layer: &Layer, geometry: Geometry, mut data: LayerDat
             }
         }
     }
-    data.channels.insert("y", Values::Num(top));
-    data.channels.insert("y_base", Values::Num(base));
+    data.channels.insert("y", Values::Num(top.into()));
+    data.channels.insert("y_base", Values::Num(base.into()));
     data
 }
 
@@ -75,8 +75,8 @@ fn stack_key(data: &LayerData, i: usize) -> Option<String> {
 }
 
 /// Smallest gap between distinct finite values (1 when there is none).
-fn resolution(v: &[Option<f64>]) -> f64 {
-    let mut s: Vec<f64> = v.iter().flatten().copied().filter(|x| x.is_finite()).collect();
+fn resolution(v: &Nums) -> f64 {
+    let mut s: Vec<f64> = v.present().collect();
     s.sort_by(f64::total_cmp);
     s.dedup();
     let r = s.windows(2).map(|w| w[1] - w[0]).filter(|d| *d > 0.0).fold(f64::INFINITY, f64::min);

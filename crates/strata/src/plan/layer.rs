@@ -1,6 +1,6 @@
 //! Pull a layer's channels out of the table.
 
-use super::{LayerData, Values};
+use super::{LayerData, Nums, Values};
 use crate::data::Table;
 use crate::error::{Diagnostic, Errors};
 use crate::spec::{ColumnType, Layer};
@@ -46,15 +46,15 @@ pub fn with_panel(mut data: LayerData, by: Option<&str>, table: &Table) -> Resul
 /// Convert an Arrow column to layer values, honouring an `as` override.
 pub fn to_values(col: &ArrayRef, as_type: Option<ColumnType>) -> Values {
     let base = match col.data_type() {
-        // Columns without nulls take a tight loop over the value buffer.
+        // A null-free column is shared, not copied (its NaNs and infinities
+        // read as missing); one with nulls is copied with NaN in their place.
         DataType::Float64 => {
             let a = col.as_primitive::<Float64Type>();
-            let finite = |x: f64| if x.is_finite() { Some(x) } else { None };
-            Values::Num(if a.null_count() == 0 { a.values().iter().map(|x| finite(*x)).collect() } else { a.iter().map(|v| v.and_then(finite)).collect() })
+            Values::Num(if a.null_count() == 0 { Nums::shared(a.values().clone()) } else { a.iter().collect() })
         }
         DataType::Int64 => {
             let a = col.as_primitive::<Int64Type>();
-            Values::Num(if a.null_count() == 0 { a.values().iter().map(|x| Some(*x as f64)).collect() } else { a.iter().map(|v| v.map(|x| x as f64)).collect() })
+            Values::Num(if a.null_count() == 0 { a.values().iter().map(|x| *x as f64).collect::<Vec<f64>>().into() } else { a.iter().map(|v| v.map(|x| x as f64)).collect() })
         }
         DataType::Date32 => Values::Time(col.as_primitive::<Date32Type>().iter().map(|v| v.map(|d| d as f64 * 86_400_000.0)).collect()),
         DataType::Timestamp(_, _) => {
@@ -84,5 +84,25 @@ fn unknown_column(col: &str, names: &[String], path: String) -> Diagnostic {
     match crate::spec::closest(col, names.iter().map(String::as_str)) {
         Some(s) => d.with_hint(format!("did you mean `{s}`? The columns are: {}", names.join(", "))),
         None => d.with_hint(format!("the columns are: {}", names.join(", "))),
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use arrow_array::Float64Array;
+    use std::sync::Arc;
+
+    #[test]
+    fn null_free_numbers_are_shared_not_copied() {
+        let a = Arc::new(Float64Array::from(vec![1.0, f64::NAN, f64::INFINITY, 4.0]));
+        let col: ArrayRef = a.clone();
+        let Values::Num(n) = to_values(&col, None) else { panic!("not numbers") };
+        assert_eq!(n.raw().as_ptr(), a.values().as_ptr());
+        assert_eq!(n.iter().collect::<Vec<_>>(), vec![Some(1.0), None, None, Some(4.0)]);
+        // With nulls the column is copied, NaN standing for each null.
+        let col: ArrayRef = Arc::new(Float64Array::from(vec![Some(2.0), None, Some(f64::NEG_INFINITY)]));
+        let Values::Num(n) = to_values(&col, None) else { panic!("not numbers") };
+        assert_eq!(n.iter().collect::<Vec<_>>(), vec![Some(2.0), None, None]);
     }
 }

@@ -9,71 +9,16 @@ mod arrange;
 mod layer;
 mod scales;
 mod stat;
+mod values;
 
 pub use scales::{ColorScale, Scales};
+pub use values::{Nums, Values};
 
 use crate::data::Table;
 use crate::error::{Diagnostic, Errors};
 use crate::spec::{Arrange, Geometry, Spec, Style};
 use indexmap::IndexMap;
 
-/// One column of layer data.
-#[derive(Debug, Clone, PartialEq)]
-pub enum Values {
-    Num(Vec<Option<f64>>),
-    /// Milliseconds since 1970-01-01 UTC.
-    Time(Vec<Option<f64>>),
-    Text(Vec<Option<String>>),
-}
-
-impl Values {
-    pub fn len(&self) -> usize {
-        match self {
-            Values::Num(v) | Values::Time(v) => v.len(),
-            Values::Text(v) => v.len(),
-        }
-    }
-    pub fn is_empty(&self) -> bool {
-        self.len() == 0
-    }
-    pub fn is_discrete(&self) -> bool {
-        matches!(self, Values::Text(_))
-    }
-    /// The value of row `i` as JSON, for the scene's datum records.
-    pub fn json(&self, i: usize) -> serde_json::Value {
-        match self {
-            Values::Num(v) => v[i].map(json_num).unwrap_or(serde_json::Value::Null),
-            Values::Time(v) => v[i]
-                .map(|ms| serde_json::Value::String(crate::format::date_label(ms)))
-                .unwrap_or(serde_json::Value::Null),
-            Values::Text(v) => v[i].clone().map(serde_json::Value::String).unwrap_or(serde_json::Value::Null),
-        }
-    }
-    /// The value of row `i` as text, for grouping keys.
-    pub fn key(&self, i: usize) -> Option<String> {
-        match self {
-            Values::Num(v) | Values::Time(v) => v[i].map(|x| format!("{x}")),
-            Values::Text(v) => v[i].clone(),
-        }
-    }
-    pub fn take(&self, idx: &[usize]) -> Values {
-        match self {
-            Values::Num(v) => Values::Num(idx.iter().map(|i| v[*i]).collect()),
-            Values::Time(v) => Values::Time(idx.iter().map(|i| v[*i]).collect()),
-            Values::Text(v) => Values::Text(idx.iter().map(|i| v[*i].clone()).collect()),
-        }
-    }
-    pub fn num(&self, i: usize) -> Option<f64> {
-        match self {
-            Values::Num(v) | Values::Time(v) => v[i],
-            Values::Text(_) => None,
-        }
-    }
-}
-
-fn json_num(x: f64) -> serde_json::Value {
-    serde_json::Number::from_f64(x).map(serde_json::Value::Number).unwrap_or(serde_json::Value::Null)
-}
 
 /// A layer's rows after its statistic and position adjustment, keyed by
 /// channel (`x`, `y`, `color`, ...).

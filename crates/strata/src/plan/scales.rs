@@ -209,9 +209,9 @@ fn collect(layers: &[PlannedLayer], ch: &str) -> (Vec<String>, Option<(f64, f64)
                 }
             }
             Some(Values::Num(v)) | Some(Values::Time(v)) => {
-                for x in v.iter().flatten() {
-                    lo = lo.min(*x);
-                    hi = hi.max(*x);
+                if let Some((a, b)) = v.extent() {
+                    lo = lo.min(a);
+                    hi = hi.max(b);
                 }
             }
             None => {}
@@ -225,7 +225,7 @@ fn num_as_text(layers: &[PlannedLayer], ch: &str) -> Vec<String> {
     let mut v: Vec<f64> = Vec::new();
     for l in layers {
         if let Some(Values::Num(xs) | Values::Time(xs)) = l.data.get(ch) {
-            v.extend(xs.iter().flatten());
+            v.extend(xs.present());
         }
     }
     v.sort_by(f64::total_cmp);
@@ -282,9 +282,9 @@ fn train_position(channels: &[&str], axis: &str, s: &ScaleSpec, layers: &[Planne
                         extent = true;
                     }
                     if let Values::Num(v) | Values::Time(v) = vals {
-                        for x in v.iter().flatten() {
-                            lo = lo.min(*x);
-                            hi = hi.max(*x);
+                        if let Some((a, b)) = v.extent() {
+                            lo = lo.min(a);
+                            hi = hi.max(b);
                         }
                     }
                 }
@@ -375,9 +375,9 @@ fn positive_min(layers: &[PlannedLayer], channels: &[&str]) -> Option<f64> {
     for l in layers {
         for ch in channels {
             if let Some(Values::Num(v)) = l.data.get(ch) {
-                for x in v.iter().flatten() {
-                    if *x > 0.0 {
-                        m = m.min(*x);
+                for x in v.present() {
+                    if x > 0.0 {
+                        m = m.min(x);
                     }
                 }
             }
@@ -391,7 +391,7 @@ fn num_as_text_position(layers: &[PlannedLayer], channels: &[&str]) -> Vec<Strin
     for l in layers {
         for ch in channels {
             if let Some(Values::Num(xs) | Values::Time(xs)) = l.data.get(ch) {
-                v.extend(xs.iter().flatten());
+                v.extend(xs.present());
             }
         }
     }
@@ -408,8 +408,8 @@ mod tests {
 
     fn layer(geometry: Geometry, xs: Vec<f64>, ys: Vec<f64>) -> PlannedLayer {
         let mut data = LayerData { len: xs.len(), ..Default::default() };
-        data.channels.insert("x", Values::Num(xs.into_iter().map(Some).collect()));
-        data.channels.insert("y", Values::Num(ys.into_iter().map(Some).collect()));
+        data.channels.insert("x", Values::Num(xs.into()));
+        data.channels.insert("y", Values::Num(ys.into()));
         PlannedLayer { index: 0, geometry, arrange: Arrange::None, style: Style::default(), data }
     }
 
@@ -420,13 +420,13 @@ mod tests {
     #[test]
     fn palettes_by_name() {
         let mut l = layer(Geometry::Point, vec![1.0, 2.0, 3.0], vec![1.0, 2.0, 3.0]);
-        l.data.channels.insert("color", Values::Num(vec![Some(10.0), Some(20.0), Some(30.0)]));
+        l.data.channels.insert("color", Values::Num(vec![10.0, 20.0, 30.0].into()));
         let s = train(&spec(r#"{ "color": { "palette": "loam" } }"#), std::slice::from_ref(&l)).unwrap();
         let c = l.data.get("color").unwrap();
         assert_eq!(s.color_of(c, 0), Some(color::LOAM.at(0.0)));
         assert_eq!(s.color_of(c, 2), Some(color::LOAM.at(1.0)));
         // Numbers spanning zero default to the diverging ramp, centred on zero.
-        l.data.channels.insert("color", Values::Num(vec![Some(-10.0), Some(0.0), Some(30.0)]));
+        l.data.channels.insert("color", Values::Num(vec![-10.0, 0.0, 30.0].into()));
         let s = train(&spec("{}"), std::slice::from_ref(&l)).unwrap();
         assert_eq!(s.color_of(l.data.get("color").unwrap(), 1), Some(color::CROSSING.at(0.5)));
         // Categories take the default palette in order of first appearance.

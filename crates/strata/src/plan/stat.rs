@@ -148,7 +148,7 @@ impl Out {
         }
         for (k, mut v) in self.num {
             v.resize(n, None);
-            out.channels.insert(k, if time.contains(&k) { Values::Time(v) } else { Values::Num(v) });
+            out.channels.insert(k, if time.contains(&k) { Values::Time(v.into()) } else { Values::Num(v.into()) });
         }
         for (k, mut v) in self.text {
             v.resize(n, None);
@@ -616,7 +616,7 @@ fn windowed(index: usize, w: &crate::spec::WindowSpec, data: LayerData) -> Resul
         out.channels.insert(k, v.take(&order));
     }
     out.names = data.names.clone();
-    out.channels.insert("y", if y_is_time(&y) { Values::Time(result) } else { Values::Num(result) });
+    out.channels.insert("y", if y_is_time(&y) { Values::Time(result.into()) } else { Values::Num(result.into()) });
     let label = match kind {
         "running_total" => format!("running total of {}", name_of(&data, "y")),
         k => format!("{rows_n}-row {k} of {}", name_of(&data, "y")),

@@ -119,8 +119,8 @@ impl PositionScale {
     pub fn unit(&self, values: &Values, i: usize) -> Option<f64> {
         match (self, values) {
             // Numbers on a category scale are found by their text (as `Values::key` writes it).
-            (PositionScale::Category { .. }, Values::Num(v) | Values::Time(v)) => v[i].and_then(|x| self.unit_cat(&format!("{x}"))),
-            (_, Values::Num(v) | Values::Time(v)) => v[i].and_then(|x| self.unit_num(x)),
+            (PositionScale::Category { .. }, Values::Num(v) | Values::Time(v)) => v.get(i).and_then(|x| self.unit_cat(&format!("{x}"))),
+            (_, Values::Num(v) | Values::Time(v)) => v.get(i).and_then(|x| self.unit_num(x)),
             (_, Values::Text(v)) => v[i].as_deref().and_then(|s| self.unit_cat(s)),
         }
     }

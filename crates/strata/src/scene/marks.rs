@@ -263,12 +263,17 @@ fn series_units(ctx: &Ctx, layer: &PlannedLayer, rows: &RowSet, ych: &str) -> (V
                 ) if xh != xl && yh != yl => {
                     let (xl, yl) = (*xl, *yl);
                     let (xs, ys) = (xh - xl, yh - yl);
-                    m4_stream(rows, |i| match (a[i], b[i]) {
-                        (Some(x), Some(y)) => Some(((x - xl) / xs, (y - yl) / ys)),
-                        _ => None,
-                    }, origin, extent)
+                    let (a, b) = (a.raw(), b.raw());
+                    let point = |(x, y): (f64, f64)| (x.is_finite() && y.is_finite()).then(|| ((x - xl) / xs, (y - yl) / ys));
+                    match rows {
+                        RowSet::All(_) => m4_stream(a.iter().zip(b).filter_map(|(x, y)| point((*x, *y))), origin, extent),
+                        RowSet::List(v) => m4_stream(v.iter().filter_map(|&i| point((a[i], b[i]))), origin, extent),
+                    }
                 }
-                _ => m4_stream(rows, unit, origin, extent),
+                _ => match rows {
+                    RowSet::All(n) => m4_stream((0..*n).filter_map(unit), origin, extent),
+                    RowSet::List(v) => m4_stream(v.iter().filter_map(|&i| unit(i)), origin, extent),
+                },
             };
             if let Some((kept, n)) = direct {
                 return (kept, n, true);
@@ -292,12 +297,11 @@ fn series_units(ctx: &Ctx, layer: &PlannedLayer, rows: &RowSet, ych: &str) -> (V
     }
 }
 
-/// One pass of M4 over rows already in x order; `None` as soon as x goes
-/// backwards (the caller then sorts).
-fn m4_stream(rows: &RowSet, unit: impl Fn(usize) -> Option<(f64, f64)>, origin: f64, extent: f64) -> Option<(Vec<(f64, f64)>, usize)> {
+/// One pass of M4 over points (unit x, unit y) already in x order; `None`
+/// as soon as x goes backwards (the caller then sorts).
+fn m4_stream(points: impl Iterator<Item = (f64, f64)>, origin: f64, extent: f64) -> Option<(Vec<(f64, f64)>, usize)> {
     let mut out = Vec::new();
     let mut n = 0usize;
-    let mut sorted = true;
     let mut prev = f64::NEG_INFINITY;
     // Current column: (sequence number, point) of first, lowest, highest, last.
     let mut col = f64::NAN;
@@ -313,14 +317,12 @@ fn m4_stream(rows: &RowSet, unit: impl Fn(usize) -> Option<(f64, f64)>, origin: 
             }
         }
     };
-    rows.for_each(|i| {
-        let Some(p) = unit(i) else { return true };
+    for p in points {
         if p.0 < prev {
-            sorted = false;
-            return false;
+            return None;
         }
         prev = p.0;
-        let c = (origin + p.0 * extent).floor();
+        let c = crate::stat::m4::column(origin + p.0 * extent);
         if c != col {
             if n > 0 {
                 flush(&cur, &mut out);
@@ -337,10 +339,6 @@ fn m4_stream(rows: &RowSet, unit: impl Fn(usize) -> Option<(f64, f64)>, origin: 
             cur[3] = (n, p);
         }
         n += 1;
-        true
-    });
-    if !sorted {
-        return None;
     }
     if n > 0 {
         flush(&cur, &mut out);
