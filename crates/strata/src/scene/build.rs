@@ -547,4 +547,27 @@ mod tests {
             assert!(text::width(&t, TITLE_SIZE - 2.0, true) <= 360.0 - 16.0);
         }
     }
+
+    #[test]
+    fn label_layers_take_their_font_size() {
+        fn sizes(n: &Node, out: &mut Vec<f64>) {
+            match n {
+                Node::Group { children, .. } => children.iter().for_each(|c| sizes(c, out)),
+                Node::Text { size, class, .. } if class == "strata-label" => out.push(*size),
+                _ => {}
+            }
+        }
+        let spec = |style: &str| {
+            format!(r#"{{ "data": {{ "rows": [ {{"m": "a", "v": 1}}, {{"m": "b", "v": 3}} ] }},
+                "layers": [ {{ "draw": "label", "x": "m", "y": "v", "text": "v" {style} }} ] }}"#)
+        };
+        let got = |style: &str| {
+            let scene = render(&spec(style), None, &RenderOptions::default()).unwrap().scene;
+            let mut out = vec![];
+            scene.children.iter().for_each(|n| sizes(n, &mut out));
+            out
+        };
+        assert_eq!(got(""), vec![11.0, 11.0]);
+        assert_eq!(got(r#", "style": { "font_size": 15 }"#), vec![15.0, 15.0]);
+    }
 }

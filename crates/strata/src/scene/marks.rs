@@ -686,6 +686,7 @@ fn labels(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     let d = &layer.data;
     let (Some(xv), Some(yv)) = (d.get("x"), d.get("y")) else { return vec![] };
     let tv = d.get("text").or(d.get("y"));
+    let size = layer.style.font_size.filter(|s| s.is_finite() && *s > 0.0).unwrap_or(11.0);
     let mut out = Vec::new();
     for i in 0..d.len {
         let (Some(a), Some(b)) = (ux(ctx, layer, xv, i), ctx.scales.y.unit(yv, i)) else { continue };
@@ -699,7 +700,7 @@ fn labels(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
             x,
             y: y - 4.0,
             text,
-            size: 11.0,
+            size,
             anchor: Anchor::Middle,
             bold: false,
             angle: 0.0,
