@@ -59,6 +59,12 @@ function adoptStyles() {
       'color:var(--strata-tip-text,#fff);background:var(--strata-tip-background,#1d232b)}' +
       'strata-chart>.strata-tip[hidden]{display:none}' +
       'strata-chart>svg.strata{display:block;max-width:100%;height:auto}' +
+      'strata-chart>details.strata-data{font:13px/1.4 system-ui,sans-serif;margin:.25em 0 0}' +
+      'strata-chart>details.strata-data>summary{cursor:pointer}' +
+      'strata-chart>details.strata-data>table{display:block;max-height:24em;overflow:auto;border-collapse:collapse;margin:.4em 0}' +
+      'strata-chart .strata-data :is(th,td){padding:.15em .6em;text-align:left;white-space:nowrap}' +
+      'strata-chart .strata-data td.strata-num{text-align:right;font-variant-numeric:tabular-nums}' +
+      'strata-chart .strata-data caption{text-align:left;font-weight:600;padding:.2em 0}' +
       'strata-chart>.strata-error{font:14px/1.4 system-ui,sans-serif;padding:.75em 1em;' +
       'border:1px solid var(--strata-error-border,#b3261e);color:var(--strata-error-text,#8c1d18);' +
       'background:var(--strata-error-background,#fdf3f2);white-space:pre-wrap;overflow-wrap:anywhere}'
@@ -109,6 +115,7 @@ export class StrataChart extends HTMLElement {
   #rows = null;
   #table = null;
   #svgText = '';
+  #tableHtml = '';
   #generation = 0;
   #scheduled = false;
   #resize = null;
@@ -175,6 +182,10 @@ export class StrataChart extends HTMLElement {
   /** The SVG text of the last drawing, exactly as the engine wrote it. */
   get svgText() {
     return this.#svgText;
+  }
+  /** The data table HTML of the last drawing, exactly as the engine wrote it. */
+  get tableHtml() {
+    return this.#tableHtml;
   }
 
   /** Redraw now; resolves when done (errors are shown, not thrown). */
@@ -291,7 +302,7 @@ export class StrataChart extends HTMLElement {
       if (generation !== this.#generation) return;
       if (!answer.ok) throw new ChartError(answer.errors);
       this.#lastWidth = width;
-      this.#show(answer.svg);
+      this.#show(answer.svg, answer.table || '');
       this.dispatchEvent(
         new CustomEvent('strata-render', {
           bubbles: true,
@@ -306,18 +317,39 @@ export class StrataChart extends HTMLElement {
     }
   }
 
-  #show(svgText) {
+  #show(svgText, tableHtml) {
     const doc = new DOMParser().parseFromString(trusted(svgText), 'image/svg+xml');
     const root = doc.documentElement;
     if (!root || root.namespaceURI !== SVG_NS || root.localName !== 'svg') {
       throw fail('internal', 'the engine returned SVG the browser could not parse');
     }
+    // The data table: the engine's HTML, every text in it escaped. Parsed
+    // inertly (DOMParser runs no script and loads nothing) and checked to be
+    // the one <details> the engine writes before it enters the page.
+    let table = null;
+    if (tableHtml) {
+      const t = new DOMParser().parseFromString(trusted(tableHtml), 'text/html').body.firstElementChild;
+      if (!t || t.localName !== 'details' || !t.classList.contains('strata-data')) {
+        throw fail('internal', 'the engine returned a data table the browser could not parse');
+      }
+      table = document.importNode(t, true);
+    }
     const svg = document.importNode(root, true);
     const old = this.querySelector(':scope > svg');
     if (old) old.replaceWith(svg);
     else this.append(svg);
+    const oldTable = this.querySelector(':scope > details.strata-data');
+    if (table) {
+      // A redraw (a resize, say) keeps the table open if the reader opened it.
+      if (oldTable && oldTable.open) table.open = true;
+      if (oldTable) oldTable.replaceWith(table);
+      else svg.after(table);
+    } else {
+      oldTable?.remove();
+    }
     this.querySelector(':scope > .strata-error')?.remove();
     this.#svgText = svgText;
+    this.#tableHtml = tableHtml;
   }
 
   #showError(errors) {

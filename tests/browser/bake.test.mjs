@@ -38,6 +38,15 @@ test('with scripting off the baked charts are in the page', async () => {
   assert.equal(n, 10);
   const box = await page.evaluate(() => document.querySelector('#bars > svg').getBoundingClientRect().height);
   assert.ok(box > 100, 'the SVG has its size without any script');
+  // The data tables are there too, and open with no script.
+  const tables = await page.evaluate(() => document.querySelectorAll('strata-chart > svg + details.strata-data').length);
+  assert.equal(tables, 10);
+  await page.click('#bars > details.strata-data > summary');
+  const cells = await page.evaluate(() => {
+    const d = document.querySelector('#bars > details.strata-data');
+    return { open: d.open, visible: d.querySelector('td').getBoundingClientRect().height > 0 };
+  });
+  assert.deepEqual(cells, { open: true, visible: true });
   await page.close();
 });
 
@@ -47,10 +56,13 @@ test('the element redraws a baked chart byte for byte', async () => {
   await settled(page);
   const html = fs.readFileSync(BAKED, 'utf8');
   for (const id of ['points', 'lines', 'bars', 'histogram', 'boxes', 'trend', 'weather', 'windrose', 'dark', 'panels']) {
-    const svgText = await page.evaluate((id) => document.getElementById(id).svgText, id);
-    assert.ok(html.includes(svgText.trimEnd()), `${id}: baked bytes equal the element's`);
-    const count = await page.evaluate((id) => document.querySelectorAll(`#${id} > svg`).length, id);
-    assert.equal(count, 1, `${id}: the baked SVG was replaced, not doubled`);
+    const { svgText, tableHtml } = await page.evaluate((id) => {
+      const el = document.getElementById(id);
+      return { svgText: el.svgText, tableHtml: el.tableHtml };
+    }, id);
+    assert.ok(html.includes(svgText.trimEnd() + tableHtml), `${id}: baked bytes equal the element's`);
+    const count = await page.evaluate((id) => document.querySelectorAll(`#${id} > svg, #${id} > details`).length, id);
+    assert.equal(count, 2, `${id}: the baked SVG and table were replaced, not doubled`);
   }
   await page.close();
 });

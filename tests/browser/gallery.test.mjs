@@ -65,6 +65,23 @@ for (const id of ['points', 'lines', 'bars', 'histogram', 'boxes', 'trend', 'wea
       [id, expected]
     );
     assert.ok(same, 'DOM serialisation equals the parsed CLI file');
+
+    // The data table: the same bytes as `strata render --table`, placed
+    // right after the chart, and in the DOM as the browser parses them.
+    const t = cli(['render', specFile, '--data', dataFile, '--table']);
+    assert.equal(t.status, 0, t.stderr);
+    const table = await page.evaluate(
+      ([id, expected]) => {
+        const el = document.getElementById(id);
+        const details = el.querySelector(':scope > svg + details.strata-data');
+        const ref = new DOMParser().parseFromString(expected, 'text/html').body.firstElementChild;
+        return { html: el.tableHtml, same: !!details && details.outerHTML === ref.outerHTML, rows: details?.querySelectorAll('tbody tr').length };
+      },
+      [id, t.stdout.trimEnd()]
+    );
+    assert.equal(table.html, t.stdout.trimEnd(), 'table HTML in the page equals the CLI output');
+    assert.ok(table.same, 'the table follows the chart, as the CLI wrote it');
+    assert.ok(table.rows > 0, 'the table has rows');
     fs.rmSync(dir, { recursive: true, force: true });
   });
 }

@@ -57,11 +57,18 @@ test('markup in data is drawn as text and never runs', async () => {
     pwned: window.__pwned,
     imgs: document.querySelectorAll('#hostile img, #hostile script:not([type="application/json"])').length,
     labels: [...document.querySelectorAll('#hostile svg text')].map((t) => t.textContent),
+    cells: [...document.querySelectorAll('#hostile details.strata-data td')].map((t) => t.textContent),
+    tableElements: [...document.querySelectorAll('#hostile details.strata-data *')].map((e) => e.localName),
   }));
   assert.equal(r.pwned, undefined);
   assert.equal(r.imgs, 0);
   assert.ok(r.labels.includes('<script>window.__pwned=2</script>'));
   assert.ok(r.labels.includes('Tom & "Jerry"'));
+  // The data table holds the same words as text, and only table elements.
+  assert.ok(r.cells.includes('<script>window.__pwned=2</script>'), r.cells.join('|'));
+  assert.ok(r.cells.includes('Tom & "Jerry"'));
+  const allowed = new Set(['summary', 'table', 'caption', 'thead', 'tbody', 'tr', 'th', 'td']);
+  assert.deepEqual(r.tableElements.filter((n) => !allowed.has(n)), []);
 });
 
 test('a chart without a width fills its container and redraws on resize', async () => {

@@ -3,8 +3,8 @@
 //! byte for byte what the element draws when its module loads.
 //!
 //! Two passes with a streaming HTML rewriter: the first collects each chart's
-//! attributes and inline spec; the second puts the rendered `<svg>` inside
-//! each element that rendered, replacing an earlier one. A chart that fails
+//! attributes and inline spec; the second puts the rendered `<svg>` and its
+//! data table inside each element that rendered, replacing earlier ones. A chart that fails
 //! keeps whatever it had and is reported with the page and the chart.
 
 use lol_html::html_content::ContentType;
@@ -103,7 +103,8 @@ fn render_one(page: &Path, chart: &Found, width: f64) -> Result<String, String> 
     let name = data_path.as_ref().map(|p| p.display().to_string()).unwrap_or_default();
     let data = bytes.as_deref().map(|b| DataBytes { bytes: b, name: &name });
     let r = strata::render_spec(&spec, data, &RenderOptions { scene: SceneOptions { width } }).map_err(|e| e.to_string())?;
-    Ok(r.svg)
+    // The chart, then its data table, as the element places them.
+    Ok(format!("{}{}", r.svg.trim_end(), r.table))
 }
 
 /// Script text is raw in HTML: nothing to unescape, but a stray BOM or
@@ -134,7 +135,7 @@ pub fn bake_html(page: &Path, html: &str, width: f64) -> Result<(String, PageRep
                     let i = *i1.borrow();
                     *i1.borrow_mut() += 1;
                     if let Some(Ok(svg)) = r1.get(i) {
-                        let svg = svg.trim_end().to_string();
+                        let svg = svg.clone();
                         if let Some(handlers) = el.end_tag_handlers() {
                             let h: lol_html::EndTagHandler<'static> = Box::new(move |end| {
                                 end.before(&svg, ContentType::Html);
@@ -147,7 +148,8 @@ pub fn bake_html(page: &Path, html: &str, width: f64) -> Result<(String, PageRep
                 }),
             )
             .append_element_content_handler(
-                element!("strata-chart > svg", move |el| {
+                // An earlier bake's chart and table make way for the new ones.
+                element!("strata-chart > svg, strata-chart > details.strata-data", move |el| {
                     let i = *i2.borrow() - 1;
                     if matches!(r2.get(i), Some(Ok(_))) {
                         el.remove();
@@ -183,7 +185,11 @@ mod tests {
         assert!(rep.failures.is_empty());
         assert_eq!(once.matches("<svg").count(), 1);
         assert_eq!(once.matches("<rect").count() - 1, 2 + 0, "background + two bars (and no legend)");
-        // Baking again replaces the SVG instead of adding a second one.
+        // The data table follows the chart inside the element.
+        assert_eq!(once.matches("<details class=\"strata-data\">").count(), 1);
+        assert!(once.contains("</svg><details class=\"strata-data\">"));
+        assert!(once.ends_with("</details></strata-chart>"));
+        // Baking again replaces the SVG and table instead of adding second ones.
         let (twice, _) = bake_html(&p, &once, 640.0).unwrap();
         assert_eq!(once, twice);
     }

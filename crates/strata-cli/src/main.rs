@@ -31,6 +31,9 @@ enum Command {
         /// Print the scene (marks in pixels with their data) as JSON instead of SVG.
         #[arg(long)]
         scene: bool,
+        /// Print the data table (HTML, the numbers behind the marks) instead of SVG.
+        #[arg(long, conflicts_with = "scene")]
+        table: bool,
         /// Width in pixels when the spec sets none.
         #[arg(long, default_value_t = 640.0)]
         width: f64,
@@ -95,7 +98,7 @@ fn report(spec_path: &Path, e: &Errors) -> String {
 
 fn run(cmd: Command) -> Result<(), String> {
     match cmd {
-        Command::Render { spec, data, output, scene, width } => {
+        Command::Render { spec, data, output, scene, table, width } => {
             let (_, parsed, bytes) = load(&spec, data.as_deref())?;
             let opts = RenderOptions { scene: SceneOptions { width } };
             let data = bytes.as_ref().map(|(b, n)| DataBytes { bytes: b, name: n });
@@ -105,12 +108,14 @@ fn run(cmd: Command) -> Result<(), String> {
             }
             let out = if scene {
                 serde_json::to_string_pretty(&r.scene).map_err(|e| e.to_string())? + "\n"
+            } else if table {
+                r.table + "\n"
             } else {
                 r.svg
             };
             let is_png = output.as_ref().is_some_and(|p| p.extension().is_some_and(|e| e.eq_ignore_ascii_case("png")));
             match output {
-                Some(p) if is_png && !scene => {
+                Some(p) if is_png && !scene && !table => {
                     let bytes = png::encode(&out, 2.0)?;
                     std::fs::write(&p, bytes).map_err(|e| format!("strata: cannot write {}: {e}", p.display()))?
                 }

@@ -2,7 +2,7 @@
 //!
 //! The answer is always a JSON string, never a thrown exception, so the
 //! element can show any failure in the chart's place:
-//! `{"ok": true, "svg": "...", "warnings": [...]}` or
+//! `{"ok": true, "svg": "...", "table": "<details>...", "warnings": [...]}` or
 //! `{"ok": false, "errors": [{"code", "message", "path", "line", "column", "hint"}]}`.
 
 use serde::Serialize;
@@ -15,6 +15,9 @@ struct Answer<'a> {
     ok: bool,
     #[serde(skip_serializing_if = "Option::is_none")]
     svg: Option<&'a str>,
+    /// The data table's HTML (empty when the spec asks for none).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    table: Option<&'a str>,
     #[serde(skip_serializing_if = "Option::is_none")]
     width: Option<f64>,
     #[serde(skip_serializing_if = "Option::is_none")]
@@ -35,12 +38,13 @@ pub fn render_json(spec: &str, data: Option<&[u8]>, data_name: &str, width: f64)
         Ok(r) => serde_json::to_string(&Answer {
             ok: true,
             svg: Some(&r.svg),
+            table: Some(&r.table),
             width: Some(r.scene.width),
             height: Some(r.scene.height),
             warnings: &r.warnings,
             errors: &[],
         }),
-        Err(e) => serde_json::to_string(&Answer { ok: false, svg: None, width: None, height: None, warnings: &[], errors: &e.0 }),
+        Err(e) => serde_json::to_string(&Answer { ok: false, svg: None, table: None, width: None, height: None, warnings: &[], errors: &e.0 }),
     };
     answer.unwrap_or_else(|_| r#"{"ok":false,"errors":[{"severity":"error","code":"internal","message":"could not encode the answer"}]}"#.to_string())
 }
@@ -80,6 +84,7 @@ mod tests {
         assert_eq!(v["ok"], true);
         assert_eq!(v["width"], 300.0);
         assert!(v["svg"].as_str().unwrap().contains("<circle"));
+        assert!(v["table"].as_str().unwrap().starts_with("<details class=\"strata-data\">"));
     }
 
     #[test]

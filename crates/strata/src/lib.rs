@@ -7,13 +7,14 @@
 //! 2. [`data`]  — bytes to [`data::Table`] (Arrow columns); [`expr`] derives and filters
 //! 3. [`plan`]  — spec + table to [`plan::Plan`]: statistics, positions, trained scales
 //! 4. [`scene`] — plan to [`scene::Scene`]: marks, axes and legends in pixels
-//! 5. [`svg`]   — scene to SVG text
+//! 5. [`svg`]   — scene to SVG text; [`datatable`] — plan to an HTML data table
 //!
 //! Libraries the stages share: [`stat`] (numerics), [`scale`] (mapping and
 //! ticks), [`format`] (labels), [`color`], [`text`] (measurement), [`math`].
 
 pub mod color;
 pub mod data;
+pub mod datatable;
 pub mod error;
 pub mod expr;
 pub mod format;
@@ -44,6 +45,8 @@ pub struct DataBytes<'a> {
 #[derive(Debug, Clone)]
 pub struct Rendered {
     pub svg: String,
+    /// The data table (HTML), empty when the spec says `"data_table": "none"`.
+    pub table: String,
     pub scene: scene::Scene,
     pub warnings: Vec<Diagnostic>,
 }
@@ -88,11 +91,12 @@ pub fn render_spec(spec: &Spec, data: Option<DataBytes>, opts: &RenderOptions) -
     let plan = plan::build(spec, &table)?;
     let scene = scene::build(spec, &plan, &opts.scene);
     let svg = svg::write(&scene);
+    let html_table = datatable::write(spec, &plan);
     let mut warnings = table.warnings;
     warnings.extend(lint::check(spec, Some(&plan)));
     warnings.extend(plan.warnings);
     warnings.extend(not_drawn_yet(spec));
-    Ok(Rendered { svg, scene, warnings })
+    Ok(Rendered { svg, table: html_table, scene, warnings })
 }
 
 /// Keys of the vocabulary that this version reads but does not draw yet: a

@@ -67,6 +67,26 @@ pub struct Spec {
     /// BCP 47 language tag for number and date labels (`en`, `de`, `fr`, `es`).
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub locale: Option<String>,
+    /// The data table under the chart (see `crate::datatable`).
+    #[serde(default, skip_serializing_if = "DataTable::is_default")]
+    pub data_table: DataTable,
+}
+
+/// `data_table`: how the numbers behind the marks are offered as a table.
+#[derive(Debug, Clone, Copy, Default, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum DataTable {
+    /// A disclosure under the chart that the reader opens.
+    #[default]
+    Closed,
+    Open,
+    None,
+}
+
+impl DataTable {
+    fn is_default(&self) -> bool {
+        *self == DataTable::Closed
+    }
 }
 
 // ---------------------------------------------------------------- data

@@ -91,6 +91,7 @@ pub const PLACEMENTS: &[&str] = &["top", "bottom", "left", "right", "none"];
 pub const COORD_WORDS: &[&str] = &["cartesian", "flip", "polar"];
 pub const FREE: &[&str] = &["x", "y", "both"];
 pub const THEME_WORDS: &[&str] = &["auto", "light", "dark"];
+pub const DATA_TABLE: &[&str] = &["closed", "open", "none"];
 pub const POINT_SHAPES: &[&str] = &["circle", "square", "triangle", "diamond", "plus", "cross"];
 /// Lint codes that `quiet` may silence (see `crate::lint`).
 pub const LINT_CODES: &[&str] = &crate::lint::CODES;
@@ -268,6 +269,7 @@ pub fn spec_shape() -> Shape {
         f("theme", theme, "light, dark, auto (default: follows the reader's preference), or overrides."),
         f("quiet", list(Shape::Word(LINT_CODES)), "Lint warnings silenced on purpose, by code."),
         f("locale", Shape::Word(LOCALES), "Language of number and date labels: en (default), de, fr, es."),
+        f("data_table", Shape::Word(DATA_TABLE), "The numbers behind the marks as a table under the chart: closed (default: a disclosure the reader opens), open, or none."),
     ])
 }
 

@@ -1,0 +1,178 @@
+//! Stage 5b — the plan as an HTML data table: the numbers behind the marks,
+//! for screen-reader users (a table can be walked cell by cell, which a
+//! picture cannot) and for anyone who wants the values.
+//!
+//! Hand-off: HTML text, a `<details>` disclosure holding one `<table>` per
+//! layer (layers with the same rows as an earlier one are left out). Every
+//! text is escaped; nothing in it runs. The element puts it after the chart
+//! and `strata bake` writes the same bytes into pages.
+//!
+//! Rows are the layer's rows after its statistic: a histogram lists its bins,
+//! a summary its groups. Past [`MAX_ROWS`] rows a layer lists its first rows
+//! and says how many there are.
+
+use crate::format::{self, Locale};
+use crate::plan::{LayerData, Plan, PlannedLayer, Values};
+use crate::spec::{DataTable, Spec};
+use crate::svg::escape;
+
+/// Rows listed per layer.
+pub const MAX_ROWS: usize = 500;
+
+/// Channels that are drawing aids, not data.
+const HIDDEN: [&str; 2] = ["y_base", "x_offset"];
+
+/// Header words for the channels statistics add (common practice names).
+fn added_name(ch: &str, d: &LayerData) -> String {
+    let of = |c: &str| d.names.get(c).cloned().unwrap_or_else(|| c.to_string());
+    match ch {
+        "x_end" => format!("{} (end)", of("x")),
+        "y_end" => format!("{} (end)", of("y")),
+        "y_low" => "lower bound".into(),
+        "y_high" => "upper bound".into(),
+        "bin_start" => "bin start".into(),
+        "bin_end" => "bin end".into(),
+        "q1" => "lower quartile".into(),
+        "q3" => "upper quartile".into(),
+        other => other.replace('_', " "),
+    }
+}
+
+fn cell(v: &Values, i: usize, pattern: Option<&str>, loc: &Locale) -> (String, bool) {
+    match v {
+        Values::Num(n) => match n.get(i) {
+            Some(x) => (pattern.map(|p| format::number(x, p, loc)).unwrap_or_else(|| format::value_label_in(x, loc)), true),
+            None => (String::new(), true),
+        },
+        Values::Time(n) => match n.get(i) {
+            Some(ms) => {
+                let whole_day = ms.rem_euclid(86_400_000.0) == 0.0;
+                let p = pattern.unwrap_or(if whole_day { "yyyy-MM-dd" } else { "yyyy-MM-dd HH:mm" });
+                (format::date(ms, p, loc), false)
+            }
+            None => (String::new(), false),
+        },
+        Values::Text(t) => (t[i].clone().unwrap_or_default(), false),
+    }
+}
+
+fn layer_table(spec: &Spec, plan: &Plan, l: &PlannedLayer, out: &mut String) {
+    let d = &l.data;
+    let loc = plan.scales.locale;
+    let boxes = l.geometry == crate::spec::Geometry::Box;
+    let header = |ch: &str| match (ch, d.get("x_end").is_some()) {
+        // A box row spans its whiskers; an outlier row holds one value in y.
+        ("y", _) if boxes => "lower whisker or outlier".to_string(),
+        ("y_end", _) if boxes => "upper whisker".to_string(),
+        // A range along x (bins, tiles): "from" and "to" read better than a bare start.
+        ("x", true) => format!("{} from", d.names.get("x").map(String::as_str).unwrap_or("x")),
+        ("x_end", true) => format!("{} to", d.names.get("x").map(String::as_str).unwrap_or("x")),
+        _ => d.names.get(ch).cloned().unwrap_or_else(|| added_name(ch, d)),
+    };
+    let mut cols: Vec<(String, &str, &Values)> = Vec::new();
+    for (k, v) in &d.channels {
+        let name = header(k);
+        // Statistics keep some numbers twice (a histogram's height is its count).
+        if HIDDEN.contains(k) || v.len() != d.len || cols.iter().any(|(n, _, w)| *n == name && *w == v) {
+            continue;
+        }
+        cols.push((name, k, v));
+    }
+    let tips: Vec<&(String, Values)> = d.tips.iter().filter(|(c, v)| v.len() == d.len && !d.names.values().any(|n| n == c)).collect();
+    let shown = d.len.min(MAX_ROWS);
+    let rows = if d.len == 1 { "1 row".to_string() } else { format!("{} rows", format::value_label_in(d.len as f64, loc)) };
+    let more = if d.len > shown { format!(", the first {} shown", format::value_label_in(shown as f64, loc)) } else { String::new() };
+    out.push_str(&format!("<table><caption>Layer {}: {} ({rows}{more})</caption><thead><tr>", l.index + 1, escape(l.geometry.word())));
+    for (name, _, _) in &cols {
+        out.push_str(&format!("<th scope=\"col\">{}</th>", escape(name)));
+    }
+    for (c, _) in &tips {
+        out.push_str(&format!("<th scope=\"col\">{}</th>", escape(c)));
+    }
+    out.push_str("</tr></thead><tbody>");
+    let pattern = |ch: &str| match ch {
+        "x" | "x_end" => spec.scales.get("x").and_then(|s| s.format.as_deref()),
+        "y" | "y_end" | "y_low" | "y_high" => spec.scales.get("y").and_then(|s| s.format.as_deref()),
+        _ => None,
+    };
+    for i in 0..shown {
+        out.push_str("<tr>");
+        for (_, ch, v) in &cols {
+            let (text, num) = cell(v, i, pattern(ch), loc);
+            out.push_str(if num { "<td class=\"strata-num\">" } else { "<td>" });
+            out.push_str(&escape(&text));
+            out.push_str("</td>");
+        }
+        for (_, v) in &tips {
+            let (text, num) = cell(v, i, None, loc);
+            out.push_str(if num { "<td class=\"strata-num\">" } else { "<td>" });
+            out.push_str(&escape(&text));
+            out.push_str("</td>");
+        }
+        out.push_str("</tr>");
+    }
+    out.push_str("</tbody></table>");
+}
+
+/// The data table for a chart, or an empty string when the spec asks for none.
+pub fn write(spec: &Spec, plan: &Plan) -> String {
+    if spec.data_table == DataTable::None {
+        return String::new();
+    }
+    let open = if spec.data_table == DataTable::Open { " open" } else { "" };
+    let what = spec.title.as_deref().map(|t| format!(": {t}")).unwrap_or_default();
+    let mut out = format!("<details class=\"strata-data\"{open}><summary>Data table{}</summary>", escape(&what));
+    for (k, l) in plan.layers.iter().enumerate() {
+        if plan.layers[..k].iter().any(|e| e.data == l.data) {
+            continue;
+        }
+        layer_table(spec, plan, l, &mut out);
+    }
+    out.push_str("</details>");
+    out
+}
+
+#[cfg(test)]
+mod tests {
+    use crate::{render, RenderOptions};
+
+    fn table(spec: &str) -> String {
+        render(spec, None, &RenderOptions::default()).unwrap().table
+    }
+
+    #[test]
+    fn a_histogram_lists_its_bins() {
+        // Six values 1..6 in bins of width 2 from 0: [0,2) [2,4) [4,6] hold
+        // 1, 2 and 3 values (left-closed, last bin closed: common practice).
+        let t = table(r#"{ "title": "Sizes <b>", "data": { "rows": [ {"v": 1}, {"v": 2}, {"v": 3}, {"v": 4}, {"v": 5}, {"v": 6} ] },
+            "layers": [ { "draw": "bar", "x": "v", "stat": { "bin": { "width": 2, "boundary": 0 } } } ] }"#);
+        assert!(t.starts_with("<details class=\"strata-data\"><summary>Data table: Sizes &lt;b&gt;</summary>"), "{t}");
+        assert!(t.contains("<caption>Layer 1: bar (3 rows)</caption>"), "{t}");
+        assert!(t.contains("<thead><tr><th scope=\"col\">v from</th><th scope=\"col\">v to</th><th scope=\"col\">count</th></tr></thead>"), "{t}");
+        let num = |s: &str| format!("<td class=\"strata-num\">{s}</td>");
+        for (from, to, count) in [("0", "2", "1"), ("2", "4", "2"), ("4", "6", "3")] {
+            assert!(t.contains(&format!("<tr>{}{}{}</tr>", num(from), num(to), num(count))), "{from}-{to}: {t}");
+        }
+    }
+
+    #[test]
+    fn text_is_escaped_and_rows_capped() {
+        let rows: Vec<String> = (0..600).map(|i| format!(r#"{{"x": {i}, "y": {i}, "who": "<img src=x onerror=alert(1)>"}}"#)).collect();
+        let spec = format!(r#"{{ "data": {{ "rows": [{}] }}, "layers": [ {{ "draw": "point", "x": "x", "y": "y", "tip": ["who"] }} ] }}"#, rows.join(","));
+        let t = table(&spec);
+        assert!(!t.contains("<img"), "markup from data must be text");
+        assert!(t.contains("&lt;img src=x onerror=alert(1)&gt;"));
+        assert!(t.contains("(600 rows, the first 500 shown)"), "{}", &t[..300]);
+        assert_eq!(t.matches("<tr>").count(), 501);
+    }
+
+    #[test]
+    fn none_writes_nothing_and_repeated_layers_are_listed_once() {
+        let base = r#""data": { "rows": [ {"x": 1, "y": 2}, {"x": 2, "y": 5} ] },
+            "layers": [ { "draw": "line", "x": "x", "y": "y" }, { "draw": "point", "x": "x", "y": "y" } ]"#;
+        assert_eq!(table(&format!("{{ {base}, \"data_table\": \"none\" }}")), "");
+        let t = table(&format!("{{ {base}, \"data_table\": \"open\" }}"));
+        assert!(t.starts_with("<details class=\"strata-data\" open>"));
+        assert_eq!(t.matches("<table>").count(), 1, "{t}");
+    }
+}
