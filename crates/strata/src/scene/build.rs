@@ -570,4 +570,22 @@ mod tests {
         assert_eq!(got(""), vec![11.0, 11.0]);
         assert_eq!(got(r#", "style": { "font_size": 15 }"#), vec![15.0, 15.0]);
     }
+
+    #[test]
+    fn style_shape_draws_every_point_in_that_shape() {
+        let spec = |shape: &str| {
+            format!(r#"{{ "data": {{ "rows": [ {{"a": 1, "b": 2}}, {{"a": 2, "b": 3}} ] }},
+                "layers": [ {{ "draw": "point", "x": "a", "y": "b", "style": {{ "shape": "{shape}" }} }} ] }}"#)
+        };
+        let marks = |shape: &str| {
+            let scene = render(&spec(shape), None, &RenderOptions::default()).unwrap().scene;
+            scene.marks().iter().map(|m| matches!(m, Node::Path { .. })).collect::<Vec<bool>>()
+        };
+        assert_eq!(marks("circle"), vec![false, false]);
+        assert_eq!(marks("square"), vec![true, true]);
+        let scene = render(&spec("triangle"), None, &RenderOptions::default()).unwrap().scene;
+        let Node::Path { d, .. } = scene.marks()[0] else { panic!("not a path") };
+        // A triangle's path has three corners.
+        assert_eq!(d.matches('L').count(), 2, "{d}");
+    }
 }

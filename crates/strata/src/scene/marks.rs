@@ -103,6 +103,8 @@ fn points(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     let r = layer.style.radius.unwrap_or(3.5);
     let (lo, hi) = (layer.data.get("y_low"), layer.data.get("y_high"));
     let beside = beside_keys(ctx, layer);
+    // `style.shape`: one shape for every point (a circle stays a <circle>).
+    let fixed_shape = layer.style.shape.as_deref().and_then(|s| crate::scale::SHAPES.iter().position(|k| *k == s)).filter(|k| *k != 0);
     let mut out = Vec::with_capacity(layer.data.len);
     for i in 0..layer.data.len {
         let (Some(mut ux), Some(uy)) = (ux(ctx, layer, xv, i), ctx.scales.y.unit(yv, i)) else { continue };
@@ -122,7 +124,7 @@ fn points(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         paint.opacity = layer.style.opacity;
         // Size and shape scales (plan/scales.rs): area-true radius, shape by category.
         let r = layer.data.get("size").and_then(|v| ctx.scales.radius_of(v, i)).unwrap_or(r);
-        if let Some(k) = layer.data.get("shape").and_then(|v| ctx.scales.shape_of(v, i)) {
+        if let Some(k) = layer.data.get("shape").and_then(|v| ctx.scales.shape_of(v, i)).or(fixed_shape) {
             out.push(Node::Path { d: crate::scale::shape_path(k, cx, cy, r), paint, datum: Some(datum(layer, i)) });
             continue;
         }
