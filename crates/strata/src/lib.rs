@@ -114,9 +114,6 @@ fn not_drawn_yet(spec: &Spec) -> Vec<Diagnostic> {
             say("panels.free".into(), "free panel scales");
         }
     }
-    if !spec.notes.is_empty() && matches!(spec.coords, spec::Coords::Polar(_)) {
-        say("notes".into(), "notes (annotations) in polar coordinates");
-    }
     out
 }
 

@@ -61,9 +61,70 @@ impl Placed {
     }
 }
 
+/// Steps per side when a polar outline or line is traced, so rings look round.
+const POLAR_STEPS: usize = 64;
+
+/// Pixel points from unit (x0, y0) to (x1, y1), straight in unit space:
+/// in polar coordinates a line along the angle becomes an arc.
+fn traced(coord: &Coord, (x0, y0): (f64, f64), (x1, y1): (f64, f64)) -> Vec<(f64, f64)> {
+    (0..=POLAR_STEPS)
+        .map(|k| {
+            let t = k as f64 / POLAR_STEPS as f64;
+            coord.point(x0 + (x1 - x0) * t, y0 + (y1 - y0) * t)
+        })
+        .collect()
+}
+
+/// A shaded span: a rectangle, or in polar coordinates a ring sector.
+fn shade(coord: &Coord, x0: f64, x1: f64, y0: f64, y1: f64, paint: Paint) -> Option<(Node, (f64, f64, f64, f64))> {
+    if coord.is_polar() {
+        let mut pts = traced(coord, (x0, y0), (x1, y0));
+        pts.extend(traced(coord, (x1, y0), (x1, y1)).into_iter().skip(1));
+        pts.extend(traced(coord, (x1, y1), (x0, y1)).into_iter().skip(1));
+        pts.extend(traced(coord, (x0, y1), (x0, y0)).into_iter().skip(1));
+        let (l, t) = pts.iter().fold((f64::INFINITY, f64::INFINITY), |a, p| (a.0.min(p.0), a.1.min(p.1)));
+        let (r, b) = pts.iter().fold((f64::NEG_INFINITY, f64::NEG_INFINITY), |a, p| (a.0.max(p.0), a.1.max(p.1)));
+        return Some((Node::Path { d: super::coord::path_d(&pts, true), paint, datum: None }, (l, t, r - l, b - t)));
+    }
+    match coord.area(x0, x1, y0, y1) {
+        Area::Rect { x, y, width, height } => Some((Node::Rect { x, y, width, height, paint, datum: None }, (x, y, width, height))),
+        Area::Path(_) => None,
+    }
+}
+
+/// Where a polar reference line's text goes: a ring's text sits centred
+/// above its top, where the ring runs level; a spoke's text sits along its
+/// outer end, on the inside, so it stays clear of the angle labels.
+/// `along_x`: the line runs along the x scale (a line at one y value).
+fn polar_text(coord: &Coord, along_x: bool, at: f64) -> Option<(f64, f64, Anchor)> {
+    let Coord::Polar { frame, angle_is_x, start, .. } = *coord else { return None };
+    let (cx, _, _) = super::coord::polar_centre(frame);
+    let ring = along_x == angle_is_x;
+    // The angle (as a unit position) that points straight up.
+    let up = (-start / 360.0).rem_euclid(1.0);
+    if ring {
+        let (px, py) = if angle_is_x { coord.point(up, at) } else { coord.point(at, up) };
+        return Some((px, py - 4.0, Anchor::Middle));
+    }
+    let (px, py) = if along_x { coord.point(1.0, at) } else { coord.point(at, 1.0) };
+    Some(if px >= cx { (px - 4.0, py - 4.0, Anchor::End) } else { (px + 4.0, py - 4.0, Anchor::Start) })
+}
+
+/// A dashed reference line between two unit points.
+fn reference(coord: &Coord, a: (f64, f64), b: (f64, f64), pal: &Palette) -> (Node, (f64, f64), (f64, f64)) {
+    let mut paint = Paint::stroke(&pal.text, 1.0);
+    paint.dash = Some(vec![4.0, 3.0]);
+    let (p, q) = (coord.point(a.0, a.1), coord.point(b.0, b.1));
+    if coord.is_polar() {
+        let d = super::coord::path_d(&traced(coord, a, b), false);
+        return (Node::Path { d, paint, datum: None }, p, q);
+    }
+    (Node::Line { x1: p.0, y1: p.1, x2: q.0, y2: q.1, paint }, p, q)
+}
+
 /// The notes of a plot area, drawn over its marks.
 pub fn draw(notes: &[Note], scales: &Scales, coord: &Coord, pal: &Palette) -> Option<Node> {
-    if notes.is_empty() || coord.is_polar() {
+    if notes.is_empty() {
         return None;
     }
     let frame = coord.frame();
@@ -103,9 +164,15 @@ pub fn draw(notes: &[Note], scales: &Scales, coord: &Coord, pal: &Palette) -> Op
                 if x0 < x1 && y0 < y1 {
                     let mut paint = Paint::fill(&pal.muted);
                     paint.opacity = Some(0.14);
-                    if let Area::Rect { x, y, width, height } = coord.area(x0, x1, y0, y1) {
-                        spans.push(Node::Rect { x, y, width, height, paint, datum: None });
-                        at = Some((x + 4.0, y + SIZE * text::ASCENT + 3.0, Anchor::Start));
+                    if let Some((node, (x, y, _, _))) = shade(coord, x0, x1, y0, y1, paint) {
+                        spans.push(node);
+                        at = Some(if coord.is_polar() {
+                            // Beside the sector's outer edge, at its middle.
+                            let (px, py) = coord.point(0.5 * (x0 + x1), y1);
+                            (px + 4.0, py - 4.0, Anchor::Start)
+                        } else {
+                            (x + 4.0, y + SIZE * text::ASCENT + 3.0, Anchor::Start)
+                        });
                     }
                 }
             }
@@ -115,9 +182,14 @@ pub fn draw(notes: &[Note], scales: &Scales, coord: &Coord, pal: &Palette) -> Op
                 if y0 < y1 {
                     let mut paint = Paint::fill(&pal.muted);
                     paint.opacity = Some(0.14);
-                    if let Area::Rect { x, y, width, height } = coord.area(0.0, 1.0, y0, y1) {
-                        spans.push(Node::Rect { x, y, width, height, paint, datum: None });
-                        at = Some((x + width - 4.0, y + SIZE * text::ASCENT + 3.0, Anchor::End));
+                    if let Some((node, (x, y, width, _))) = shade(coord, 0.0, 1.0, y0, y1, paint) {
+                        spans.push(node);
+                        at = Some(if coord.is_polar() {
+                            let (px, py) = coord.point(0.0, y1);
+                            (px + 4.0, py - 4.0, Anchor::Start)
+                        } else {
+                            (x + width - 4.0, y + SIZE * text::ASCENT + 3.0, Anchor::End)
+                        });
                     }
                 }
             }
@@ -131,22 +203,18 @@ pub fn draw(notes: &[Note], scales: &Scales, coord: &Coord, pal: &Palette) -> Op
             }
             // Reference lines.
             (Some(x), None, None, None) if inside(x) => {
-                let (x1, y1) = coord.point(x, 0.0);
-                let (x2, y2) = coord.point(x, 1.0);
-                let mut paint = Paint::stroke(&pal.text, 1.0);
-                paint.dash = Some(vec![4.0, 3.0]);
-                lines.push(Node::Line { x1, y1, x2, y2, paint });
-                let (tx, ty) = (x1.max(x2), y1.min(y2));
-                let anchor = if tx + w + 4.0 > frame.right() { Anchor::End } else { Anchor::Start };
-                at = Some((if anchor == Anchor::End { tx - 4.0 } else { tx + 4.0 }, ty + SIZE * text::ASCENT + 2.0, anchor));
+                let (node, (x1, y1), (x2, y2)) = reference(coord, (x, 0.0), (x, 1.0), pal);
+                lines.push(node);
+                at = polar_text(coord, false, x).or_else(|| {
+                    let (tx, ty) = (x1.max(x2), y1.min(y2));
+                    let anchor = if tx + w + 4.0 > frame.right() { Anchor::End } else { Anchor::Start };
+                    Some((if anchor == Anchor::End { tx - 4.0 } else { tx + 4.0 }, ty + SIZE * text::ASCENT + 2.0, anchor))
+                });
             }
             (None, None, Some(y), None) if inside(y) => {
-                let (x1, y1) = coord.point(0.0, y);
-                let (x2, y2) = coord.point(1.0, y);
-                let mut paint = Paint::stroke(&pal.text, 1.0);
-                paint.dash = Some(vec![4.0, 3.0]);
-                lines.push(Node::Line { x1, y1, x2, y2, paint });
-                at = Some((x1.max(x2) - 4.0, y1.min(y2) - 4.0, Anchor::End));
+                let (node, (x1, y1), (x2, y2)) = reference(coord, (0.0, y), (1.0, y), pal);
+                lines.push(node);
+                at = polar_text(coord, true, y).or(Some((x1.max(x2) - 4.0, y1.min(y2) - 4.0, Anchor::End)));
             }
             _ => {}
         }
@@ -159,4 +227,71 @@ pub fn draw(notes: &[Note], scales: &Scales, coord: &Coord, pal: &Palette) -> Op
     children.extend(lines);
     children.extend(texts);
     Some(Node::Group { class: "strata-notes".into(), role: Some("graphics-object".into()), label: Some("notes".into()), children })
+}
+
+#[cfg(test)]
+mod tests {
+    use crate::scene::{Node, Scene};
+    use crate::{render, RenderOptions};
+
+    fn notes_of(scene: &Scene) -> Vec<Node> {
+        fn walk(n: &Node, out: &mut Vec<Node>) {
+            if let Node::Group { class, children, .. } = n {
+                if class == "strata-notes" {
+                    out.extend(children.iter().cloned());
+                } else {
+                    children.iter().for_each(|c| walk(c, out));
+                }
+            }
+        }
+        let mut out = Vec::new();
+        scene.children.iter().for_each(|c| walk(c, &mut out));
+        out
+    }
+
+    /// Pixel points of an SVG path made of M and L commands.
+    fn points(d: &str) -> Vec<(f64, f64)> {
+        d.trim_end_matches('Z')
+            .split(['M', 'L'])
+            .filter(|s| !s.is_empty())
+            .map(|p| {
+                let (x, y) = p.split_once(',').unwrap();
+                (x.parse().unwrap(), y.parse().unwrap())
+            })
+            .collect()
+    }
+
+    #[test]
+    fn polar_notes_are_rings_spokes_and_sectors() {
+        let spec = r#"{ "data": { "rows": [ {"d": "N", "h": 10}, {"d": "E", "h": 30}, {"d": "S", "h": 20}, {"d": "W", "h": 40} ] },
+            "layers": [ { "draw": "bar", "x": "d", "y": "h" } ],
+            "scales": { "y": { "domain": [0, 40] } },
+            "coords": { "kind": "polar", "angle": "x" },
+            "notes": [ { "y": 20, "text": "ring" }, { "x": "E", "text": "spoke" }, { "x": "S", "x_end": "W", "text": "sector" } ] }"#;
+        let r = render(spec, None, &RenderOptions::default()).unwrap();
+        assert!(r.warnings.iter().all(|w| w.code != "spec.not_drawn_yet"), "{:?}", r.warnings);
+        let notes = notes_of(&r.scene);
+        let paths: Vec<Vec<(f64, f64)>> = notes.iter().filter_map(|n| if let Node::Path { d, .. } = n { Some(points(d)) } else { None }).collect();
+        let texts: Vec<&str> = notes.iter().filter_map(|n| if let Node::Text { text, .. } = n { Some(text.as_str()) } else { None }).collect();
+        assert_eq!(texts.len(), 3, "{texts:?}");
+        assert_eq!(paths.len(), 3, "sector, ring and spoke are paths");
+        // The ring (y = 20 of 0..40, inner radius 0): every point at half
+        // the outer radius from the centre (circle geometry, common practice).
+        let centre = |pts: &[(f64, f64)]| {
+            let n = pts.len() as f64;
+            (pts.iter().map(|p| p.0).sum::<f64>() / n, pts.iter().map(|p| p.1).sum::<f64>() / n)
+        };
+        let ring = paths.iter().find(|p| {
+            let c = centre(&p[..p.len() - 1]);
+            let r0 = ((p[0].0 - c.0).powi(2) + (p[0].1 - c.1).powi(2)).sqrt();
+            r0 > 1.0 && p.iter().all(|q| (((q.0 - c.0).powi(2) + (q.1 - c.1).powi(2)).sqrt() - r0).abs() < 0.05)
+        });
+        assert!(ring.is_some(), "one path is a circle: {paths:?}");
+        // The spoke is straight: all its points on one line through its ends.
+        let straight = paths.iter().any(|p| {
+            let (a, b) = (p[0], p[p.len() - 1]);
+            p.len() > 2 && p.iter().all(|q| ((b.0 - a.0) * (q.1 - a.1) - (b.1 - a.1) * (q.0 - a.0)).abs() < 0.5 * (b.0 - a.0).hypot(b.1 - a.1))
+        });
+        assert!(straight, "one path is a straight spoke");
+    }
 }
