@@ -339,3 +339,22 @@ fn panel_mistakes_are_located() {
     assert_eq!(gone.0.iter().map(|d| d.at.path.as_str()).collect::<Vec<_>>(), vec!["panels.cols"]);
     assert!(gone.0[0].hint.as_deref().unwrap_or("").contains("did you mean `zone`"), "{:?}", gone.0[0].hint);
 }
+
+#[test]
+fn too_many_panels_is_an_error_at_the_key() {
+    // 21 x 20 = 420 cells, more than the limit of 400; 20 x 20 is fine.
+    let mut csv = String::from("r,c,v\n");
+    for i in 0..21 {
+        for j in 0..20 {
+            csv.push_str(&format!("r{i},c{j},{}\n", i + j));
+        }
+    }
+    let spec = r#"{"layers":[{"draw":"point","x":"v","y":"v"}],"panels":{"rows":"r","cols":"c"},"size":{"width":2000,"height":2000}}"#;
+    let e = render(spec, Some(DataBytes { bytes: csv.as_bytes(), name: "d.csv" }), &RenderOptions::default()).unwrap_err();
+    assert_eq!((e.0[0].code.as_str(), e.0[0].at.path.as_str()), ("plan.too_many_panels", "panels"));
+    let fewer = format!("{}\n", csv.lines().filter(|l| !l.starts_with("r20,")).collect::<Vec<_>>().join("\n"));
+    let r = scene(spec, fewer.as_bytes());
+    assert_eq!(facets(&r.scene).len(), 400);
+    let e = render(r#"{"layers":[{"draw":"point","x":"v","y":"v"}],"panels":{"by":"v"}}"#, Some(DataBytes { bytes: csv.as_bytes(), name: "d.csv" }), &RenderOptions::default());
+    assert!(e.is_ok(), "41 values of v are few enough");
+}

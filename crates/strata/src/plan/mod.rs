@@ -12,7 +12,7 @@ mod scales;
 mod stat;
 mod values;
 
-pub use panels::{free_axes, split as split_panels, PanelPlans};
+pub use panels::{free_axes, split as split_panels, PanelPlans, MAX_PANELS};
 pub use scales::{ColorScale, Scales};
 pub use values::{Nums, Values};
 
@@ -108,6 +108,7 @@ pub fn build(spec: &Spec, table: &Table) -> Result<Plan, Errors> {
     if !errors.is_empty() {
         return Err(Errors(errors));
     }
+    panels::check_count(spec, &layers)?;
     let scales = scales::train(spec, &layers)?;
     Ok(Plan { layers, scales, warnings })
 }
