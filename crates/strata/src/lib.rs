@@ -96,22 +96,41 @@ pub fn render_spec(spec: &Spec, data: Option<DataBytes>, opts: &RenderOptions) -
     warnings.extend(lint::check(spec, Some(&plan)));
     warnings.extend(plan.warnings);
     warnings.extend(not_drawn_yet(spec));
+    warnings.extend(no_effect(spec));
     Ok(Rendered { svg, table: html_table, scene, warnings })
 }
 
-/// Keys of the vocabulary that this version reads but does not draw yet: a
-/// warning at their path rather than silence.
+/// Keys that are read but change nothing in this spec: a warning at their
+/// path, so a typo or a misunderstanding does not pass in silence.
+fn no_effect(spec: &Spec) -> Vec<Diagnostic> {
+    let mut out = Vec::new();
+    if let Some(p) = &spec.panels {
+        if p.by.is_none() && p.rows.is_none() && p.cols.is_none() {
+            out.push(
+                Diagnostic::warning("spec.no_effect", "`panels` names no column, so the chart is one plot")
+                    .at_path("panels")
+                    .with_hint("give `by` (one panel per value, wrapped) or `rows`/`cols` (a grid)"),
+            );
+        } else if p.columns.is_some() && p.by.is_none() {
+            out.push(
+                Diagnostic::warning("spec.no_effect", "`columns` wraps the panels of `by`; a `rows`/`cols` grid has one column per value of `cols`")
+                    .at_path("panels.columns"),
+            );
+        }
+    }
+    out
+}
+
+/// Keys of the vocabulary that this version reads but does not apply yet:
+/// a warning at their path rather than silence.
 fn not_drawn_yet(spec: &Spec) -> Vec<Diagnostic> {
     let mut out = Vec::new();
-    let mut say = |path: String, what: &str| {
-        out.push(Diagnostic::warning("spec.not_drawn_yet", format!("{what} are not drawn by this version of Strata; the chart leaves them out")).at_path(path));
-    };
-    if let Some(p) = &spec.panels {
-        if p.by.is_none() && (p.rows.is_some() || p.cols.is_some()) {
-            say("panels".into(), "panel grids by `rows` and `cols`");
-        }
-        if p.free.is_some() {
-            say("panels.free".into(), "free panel scales");
+    if let spec::Theme::Custom(o) = &spec.theme {
+        if o.font_size.is_some() {
+            out.push(
+                Diagnostic::warning("spec.not_drawn_yet", "`theme.font_size` is not applied by this version of Strata; text keeps its default sizes")
+                    .at_path("theme.font_size"),
+            );
         }
     }
     out

@@ -41,10 +41,26 @@ fn an_unknown_delimiter_is_a_located_error() {
 
 #[test]
 fn keys_not_drawn_yet_say_so_at_their_path() {
-    let spec = r#"{"layers":[{"draw":"bar","x":"station","y":"rain","tip":["rain"]}],"panels":{"rows":"station"},"notes":[{"x":"A","text":"wet"}]}"#;
-    let r = render(spec, Some(DataBytes { bytes: b"station,rain\nA,1\nB,2\n", name: "d.csv" }), &RenderOptions::default()).unwrap();
-    let paths: Vec<&str> = r.warnings.iter().filter(|w| w.code == "spec.not_drawn_yet").map(|w| w.at.path.as_str()).collect();
-    assert_eq!(paths, vec!["panels"]);
+    // Panel grids, free scales, tips, and notes in either coordinate system are drawn: no warning.
+    let data = Some(DataBytes { bytes: b"station,rain\nA,1\nB,2\n", name: "d.csv" });
+    let spec = r#"{"layers":[{"draw":"bar","x":"station","y":"rain","tip":["rain"]}],"panels":{"rows":"station","free":"y"},"notes":[{"x":"A","text":"wet"}]}"#;
+    let r = render(spec, data, &RenderOptions::default()).unwrap();
+    assert!(r.warnings.iter().all(|w| w.code != "spec.not_drawn_yet"), "{:?}", r.warnings);
+    let spec = r#"{"layers":[{"draw":"bar","x":"station","y":"rain"}],"coords":{"kind":"polar"},"notes":[{"x":"A","text":"wet"}]}"#;
+    let r = render(spec, data, &RenderOptions::default()).unwrap();
+    assert!(r.warnings.iter().all(|w| w.code != "spec.not_drawn_yet"), "{:?}", r.warnings);
+}
+
+#[test]
+fn panel_keys_that_change_nothing_say_so() {
+    let data = Some(DataBytes { bytes: b"station,rain\nA,1\nB,2\n", name: "d.csv" });
+    let paths = |spec: &str| -> Vec<String> {
+        let r = render(spec, data, &RenderOptions::default()).unwrap();
+        r.warnings.iter().filter(|w| w.code == "spec.no_effect").map(|w| w.at.path.clone()).collect()
+    };
+    assert_eq!(paths(r#"{"layers":[{"draw":"bar","x":"station","y":"rain"}],"panels":{"free":"y"}}"#), vec!["panels"]);
+    assert_eq!(paths(r#"{"layers":[{"draw":"bar","x":"station","y":"rain"}],"panels":{"rows":"station","columns":2}}"#), vec!["panels.columns"]);
+    assert!(paths(r#"{"layers":[{"draw":"bar","x":"station","y":"rain"}],"panels":{"by":"station","columns":2}}"#).is_empty());
 }
 
 #[test]

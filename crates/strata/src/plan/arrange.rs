@@ -64,14 +64,14 @@ pub fn apply(index: usize, layer: &Layer, geometry: Geometry, mut data: LayerDat
     data
 }
 
-/// Marks stack when they share x and panel.
+/// Marks stack when they share x and panel (or grid cell).
 fn stack_key(data: &LayerData, i: usize) -> Option<String> {
     let x = data.get("x").and_then(|x| x.key(i));
-    let p = data.get("panel").and_then(|p| p.key(i));
-    match (x, p) {
-        (x, None) => x,
-        (x, Some(p)) => Some(format!("{}\u{1f}{p}", x.unwrap_or_default())),
+    let cell: Vec<String> = super::PANEL_CHANNELS.iter().filter_map(|c| data.get(c)).map(|v| v.key(i).unwrap_or_default()).collect();
+    if cell.is_empty() {
+        return x;
     }
+    Some(format!("{}\u{1f}{}", x.unwrap_or_default(), cell.join("\u{1f}")))
 }
 
 /// Smallest gap between distinct finite values (1 when there is none).

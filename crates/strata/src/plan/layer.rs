@@ -3,7 +3,7 @@
 use super::{LayerData, Nums, Values};
 use crate::data::Table;
 use crate::error::{Diagnostic, Errors};
-use crate::spec::{ColumnType, Layer};
+use crate::spec::{ColumnType, Layer, Panels};
 use arrow_array::cast::AsArray;
 use arrow_array::types::{Date32Type, Float64Type, Int64Type, TimestampMillisecondType};
 use arrow_array::{Array, ArrayRef};
@@ -31,16 +31,48 @@ pub fn extract(index: usize, layer: &Layer, table: &Table) -> Result<LayerData, 
     if errors.is_empty() { Ok(out) } else { Err(Errors(errors)) }
 }
 
-/// Add the `panel` channel: the panel key of each row, from `panels.by`.
-pub fn with_panel(mut data: LayerData, by: Option<&str>, table: &Table) -> Result<LayerData, Errors> {
-    let Some(by) = by else { return Ok(data) };
+/// Check `panels` against the table once (not once per layer): its columns
+/// are there, and it asks for one layout, a wrap (`by`) or a grid
+/// (`rows`/`cols`), not both.
+pub fn check_panels(panels: Option<&Panels>, table: &Table) -> Result<(), Errors> {
+    let Some(p) = panels else { return Ok(()) };
+    let mut errors = Vec::new();
+    if p.by.is_some() && (p.rows.is_some() || p.cols.is_some()) {
+        errors.push(
+            Diagnostic::error("spec.panels_two_layouts", "`panels` has both `by` and `rows`/`cols`")
+                .at_path("panels")
+                .with_hint("give `by` (with `columns`) for one wrapped row of panels per value, or `rows`/`cols` for a grid, not both"),
+        );
+    }
     let names = table.column_names();
-    let Some(pos) = names.iter().position(|n| n == by) else {
-        return Err(unknown_column(by, &names, "panels.by".into()).into());
+    for (column, path) in [(&p.by, "panels.by"), (&p.rows, "panels.rows"), (&p.cols, "panels.cols")] {
+        if let Some(c) = column {
+            if !names.iter().any(|n| n == c) {
+                errors.push(unknown_column(c, &names, path.into()));
+            }
+        }
+    }
+    if errors.is_empty() { Ok(()) } else { Err(Errors(errors)) }
+}
+
+/// Add the panel channels: `panel`, the key of each row's panel, from
+/// `panels.by`; or `panel_row` and `panel_col`, the row's values of
+/// `panels.rows` and `panels.cols`, which together name its cell of a grid.
+/// Statistics group by all three, so a cell's rows are summarised alone.
+/// A column that is not there is left out here: [`check_panels`] says so.
+pub fn with_panel(mut data: LayerData, panels: Option<&Panels>, table: &Table) -> LayerData {
+    let Some(p) = panels else { return data };
+    let wanted: [(&'static str, Option<&String>); 3] = match &p.by {
+        Some(by) => [("panel", Some(by)), ("panel_row", None), ("panel_col", None)],
+        None => [("panel", None), ("panel_row", p.rows.as_ref()), ("panel_col", p.cols.as_ref())],
     };
-    data.channels.insert("panel", to_values(table.batch.column(pos), Some(ColumnType::Text)));
-    data.names.insert("panel", by.to_string());
-    Ok(data)
+    let names = table.column_names();
+    for (channel, column) in wanted {
+        let Some(pos) = column.and_then(|c| names.iter().position(|n| n == c)) else { continue };
+        data.channels.insert(channel, to_values(table.batch.column(pos), Some(ColumnType::Text)));
+        data.names.insert(channel, names[pos].clone());
+    }
+    data
 }
 
 /// Convert an Arrow column to layer values, honouring an `as` override.

@@ -7,10 +7,12 @@
 
 mod arrange;
 mod layer;
+mod panels;
 mod scales;
 mod stat;
 mod values;
 
+pub use panels::{free_axes, split as split_panels, PanelPlans, MAX_PANELS};
 pub use scales::{ColorScale, Scales};
 pub use values::{Nums, Values};
 
@@ -39,7 +41,10 @@ use indexmap::IndexMap;
 ///   (box plots).
 /// - `x_offset`: jitter or dodge within a band, as a fraction of the band
 ///   (discrete x only; continuous x is moved in data units).
-/// - `panel`: the panel key; statistics group by it like `color` and `group`.
+/// - `panel`: the panel key (`panels.by`); `panel_row`, `panel_col`: the
+///   row's values of `panels.rows` and `panels.cols`, naming its grid cell.
+///   Statistics group by them like `color` and `group`; stacks and series
+///   never cross a panel.
 #[derive(Debug, Clone, PartialEq, Default)]
 pub struct LayerData {
     pub len: usize,
@@ -73,14 +78,20 @@ pub struct Plan {
     pub warnings: Vec<Diagnostic>,
 }
 
+/// The internal channels that place a row in a panel: stacks, series and
+/// statistics never cross them.
+pub const PANEL_CHANNELS: [&str; 3] = ["panel", "panel_row", "panel_col"];
+
 /// Resolve the spec against the table.
 pub fn build(spec: &Spec, table: &Table) -> Result<Plan, Errors> {
     let mut errors = Vec::new();
     let mut warnings = Vec::new();
     let mut layers = Vec::new();
+    if let Err(e) = layer::check_panels(spec.panels.as_ref(), table) {
+        errors.extend(e.0);
+    }
     for (i, l) in spec.layers.iter().enumerate() {
-        let by = spec.panels.as_ref().and_then(|p| p.by.as_deref());
-        match layer::extract(i, l, table).and_then(|d| layer::with_panel(d, by, table)).and_then(|d| stat::apply(i, l, d)) {
+        match layer::extract(i, l, table).map(|d| layer::with_panel(d, spec.panels.as_ref(), table)).and_then(|d| stat::apply(i, l, d)) {
             Ok(s) => {
                 let n = stat::element_count(s.geometry, &s.data);
                 if n > stat::MAX_ELEMENTS {
@@ -97,6 +108,7 @@ pub fn build(spec: &Spec, table: &Table) -> Result<Plan, Errors> {
     if !errors.is_empty() {
         return Err(Errors(errors));
     }
+    panels::check_count(spec, &layers)?;
     let scales = scales::train(spec, &layers)?;
     Ok(Plan { layers, scales, warnings })
 }

@@ -99,11 +99,27 @@ fn domain_error(axis: &str) -> Errors {
         .into()
 }
 
+/// The channels each position scale is trained on.
+const X_CHANNELS: &[&str] = &["x", "x_end"];
+const Y_CHANNELS: &[&str] = &["y", "y_end", "y_base", "y_low", "y_high"];
+
+/// Train the x and/or y scale of `scales` again on `layers` alone (one
+/// panel's rows, for `panels.free`), as [`train`] trains them on every row.
+pub fn retrain_positions(layers: &[PlannedLayer], scales: &mut Scales, x: bool, y: bool) -> Result<(), Errors> {
+    if x {
+        (scales.x, scales.x_nice) = train_position(X_CHANNELS, "x", &scales.x_spec, layers)?;
+    }
+    if y {
+        (scales.y, scales.y_nice) = train_position(Y_CHANNELS, "y", &scales.y_spec, layers)?;
+    }
+    Ok(())
+}
+
 pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
     let get = |k: &str| spec.scales.get(k).cloned().unwrap_or_default();
     let (x_spec, y_spec, color_spec, size_spec, shape_spec) = (get("x"), get("y"), get("color"), get("size"), get("shape"));
-    let (x, x_nice) = train_position(&["x", "x_end"], "x", &x_spec, layers)?;
-    let (y, y_nice) = train_position(&["y", "y_end", "y_base", "y_low", "y_high"], "y", &y_spec, layers)?;
+    let (x, x_nice) = train_position(X_CHANNELS, "x", &x_spec, layers)?;
+    let (y, y_nice) = train_position(Y_CHANNELS, "y", &y_spec, layers)?;
     let title = |ch: &str, s: &ScaleSpec| {
         s.title.clone().unwrap_or_else(|| layers.iter().find_map(|l| l.data.names.get(ch).cloned()).unwrap_or_default())
     };

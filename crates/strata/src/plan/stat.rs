@@ -2,7 +2,7 @@
 //!
 //! Every statistic works within groups: the rows sharing the values of the
 //! layer's discrete channels (`color`, `group`, `shape` when they hold text)
-//! and its panel (`panel`). Summaries and counts also group by `x`. Each
+//! and its panel (`panel`, or the grid cell `panel_row` x `panel_col`). Summaries and counts also group by `x`. Each
 //! output row carries its group's values, so colours and panels follow.
 //!
 //! Output channels (see [`super`] for the list): histograms give `x`/`x_end`
@@ -19,7 +19,7 @@ use crate::stat::{self, bin, density, fit, summary, tukey, window};
 use indexmap::IndexMap;
 
 /// Discrete channels a statistic groups by (when they hold text), in order.
-const GROUP_CHANNELS: [&str; 4] = ["color", "group", "shape", "panel"];
+const GROUP_CHANNELS: [&str; 6] = ["color", "group", "shape", "panel", "panel_row", "panel_col"];
 
 /// A scatter with more points than this becomes 2-D binned tiles unless the
 /// layer's style sets `every_point`.

@@ -10,7 +10,7 @@ use super::guides::{self, AxisGuide, Legend, Side};
 use super::marks::{layer_marks, Ctx};
 use super::{Anchor, Node, Scene};
 use crate::color::Palette;
-use crate::plan::Plan;
+use crate::plan::{PanelPlans, Plan};
 use crate::spec::{Coords, Placement, Spec, Theme};
 use crate::text;
 
@@ -190,9 +190,10 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
     }
 
     let inputs = PlotInputs { spec, pal: &pal, loc, narrow, pad, width, legend_on_right };
-    match panel_plans(spec, plan) {
+    match crate::plan::split_panels(spec, plan) {
         None => children.extend(plot_area(&inputs, plan, pad, right, top, bottom)),
-        Some(panels) => children.extend(panel_grid(&inputs, spec, &panels, right, top, bottom)),
+        Some(PanelPlans::Wrap(panels)) => children.extend(panel_grid(&inputs, spec, &panels, right, top, bottom)),
+        Some(PanelPlans::Grid { rows, cols, cells }) => children.extend(cell_grid(&inputs, plan, rows.as_deref(), cols.as_deref(), &cells, right, top, bottom)),
     }
     if !legend_nodes.is_empty() {
         children.push(Node::Group { class: "strata-legends".into(), role: None, label: None, children: legend_nodes });
@@ -212,55 +213,31 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
     }
 }
 
-/// With `panels.by`: one plan per panel key (in order of first appearance),
-/// each layer keeping its rows of that panel. Scales stay those trained
-/// over every panel, so panels compare at a glance.
-fn panel_plans(spec: &Spec, plan: &Plan) -> Option<Vec<(String, Plan)>> {
-    spec.panels.as_ref()?.by.as_ref()?;
-    let mut keys: Vec<String> = Vec::new();
-    for l in &plan.layers {
-        if let Some(v) = l.data.get("panel") {
-            for i in 0..l.data.len {
-                if let Some(k) = v.key(i) {
-                    if !keys.contains(&k) {
-                        keys.push(k);
-                    }
-                }
-            }
-        }
-    }
-    if keys.is_empty() {
-        return None;
-    }
-    let panels = keys
-        .into_iter()
-        .map(|k| {
-            let mut p = plan.clone();
-            for l in &mut p.layers {
-                let Some(v) = l.data.get("panel") else { continue };
-                let rows: Vec<usize> = (0..l.data.len).filter(|i| v.key(*i).as_deref() == Some(k.as_str())).collect();
-                l.data.channels = l.data.channels.iter().map(|(c, vals)| (*c, vals.take(&rows))).collect();
-                l.data.tips = l.data.tips.iter().map(|(c, vals)| (c.clone(), vals.take(&rows))).collect();
-                l.data.len = rows.len();
-            }
-            (k, p)
-        })
-        .collect();
-    Some(panels)
+/// Gaps between neighbouring panels, across and down.
+fn panel_gaps(narrow: bool) -> (f64, f64) {
+    if narrow { (8.0, 8.0) } else { (16.0, 12.0) }
 }
 
-/// Small multiples: a grid of plot areas, `panels.columns` across (default:
-/// about square), each under a strip naming its panel.
+/// Depth of the strip that names a panel: one line of bold tick-size text.
+const STRIP: f64 = guides::TICK_SIZE * text::LINE_HEIGHT + 2.0;
+
+/// The words naming a panel, in its strip.
+fn strip_text(x: f64, y: f64, words: String, anchor: Anchor, angle: f64, pal: &Palette) -> Node {
+    Node::Text { x, y, text: words, size: guides::TICK_SIZE, anchor, bold: true, angle, fill: pal.text.clone(), class: "strata-panel-title".into() }
+}
+
+/// Small multiples by `panels.by`: a grid of plot areas, `panels.columns`
+/// across (default: about square), each under a strip naming its panel and
+/// each with its own axes.
 fn panel_grid(inp: &PlotInputs, spec: &Spec, panels: &[(String, Plan)], right: f64, top: f64, bottom: f64) -> Vec<Node> {
     let n = panels.len();
     let default_cols = (n as f64).sqrt().ceil() as usize;
     let cols = spec.panels.as_ref().and_then(|p| p.columns).map(|c| c as usize).unwrap_or(default_cols).clamp(1, n.max(1));
     let rows = n.div_ceil(cols);
-    let (gap_x, gap_y) = if inp.narrow { (8.0, 8.0) } else { (16.0, 12.0) };
+    let (gap_x, gap_y) = panel_gaps(inp.narrow);
     let x0 = inp.pad;
     let cell_w = ((right - x0) - gap_x * (cols - 1) as f64) / cols as f64;
     let cell_h = ((bottom - top) - gap_y * (rows - 1) as f64) / rows as f64;
-    let strip = guides::TICK_SIZE * text::LINE_HEIGHT + 2.0;
     panels
         .iter()
         .enumerate()
@@ -268,21 +245,152 @@ fn panel_grid(inp: &PlotInputs, spec: &Spec, panels: &[(String, Plan)], right: f
             let (r, c) = (i / cols, i % cols);
             let left = x0 + c as f64 * (cell_w + gap_x);
             let cell_top = top + r as f64 * (cell_h + gap_y);
-            let mut kids = vec![Node::Text {
-                x: left,
-                y: cell_top + guides::TICK_SIZE * text::ASCENT,
-                text: key.clone(),
-                size: guides::TICK_SIZE,
-                anchor: Anchor::Start,
-                bold: true,
-                angle: 0.0,
-                fill: inp.pal.text.clone(),
-                class: "strata-panel-title".into(),
-            }];
-            kids.extend(plot_area(inp, plan, left, left + cell_w, cell_top + strip, cell_top + cell_h));
+            let mut kids = vec![strip_text(left, cell_top + guides::TICK_SIZE * text::ASCENT, key.clone(), Anchor::Start, 0.0, inp.pal)];
+            kids.extend(plot_area(inp, plan, left, left + cell_w, cell_top + STRIP, cell_top + cell_h));
             Node::Group { class: "strata-facet".into(), role: Some("graphics-object".into()), label: Some(format!("panel {key}")), children: kids }
         })
         .collect()
+}
+
+/// Small multiples by `panels.rows` and `panels.cols`: one row of panels
+/// per row value and one column per column value, every combination a
+/// panel (empty or not) so rows and columns line up. Column values name
+/// the columns in strips along the top, row values the rows in strips down
+/// the right side (read top to bottom), clear of the vertical axes on the
+/// left. All frames are the same size. A shared axis is drawn once per row
+/// or column, along the grid's edge (x under the bottom row, y left of the
+/// left column, or the sides `scales.*.axis` asks for); a free axis
+/// (`panels.free`) in every panel. Axis titles are drawn once, centred on
+/// the whole grid.
+#[allow(clippy::too_many_arguments)]
+fn cell_grid(inp: &PlotInputs, plan: &Plan, rows: Option<&[String]>, cols: Option<&[String]>, cells: &[Plan], right: f64, top: f64, bottom: f64) -> Vec<Node> {
+    let spec = inp.spec;
+    let (nr, nc) = (rows.map_or(1, <[String]>::len), cols.map_or(1, <[String]>::len));
+    let flip = matches!(spec.coords, Coords::Flip);
+    let (free_x, free_y) = crate::plan::free_axes(spec);
+    let (free_h, free_v) = if flip { (free_y, free_x) } else { (free_x, free_y) };
+    let (h_spec, v_spec) = if flip { (&plan.scales.y_spec, &plan.scales.x_spec) } else { (&plan.scales.x_spec, &plan.scales.y_spec) };
+    let (h_top, v_right) = (h_spec.axis == Some(Placement::Top), v_spec.axis == Some(Placement::Right));
+    let (h_title, v_title, _, _) = axis_titles(spec, &plan.scales);
+    let (gap_x, gap_y) = panel_gaps(inp.narrow);
+    let band = guides::title_band();
+    let row_strip = if rows.is_some() { STRIP + 4.0 } else { 0.0 };
+    let col_strip = if cols.is_some() { STRIP } else { 0.0 };
+
+    // The room for panels, inside the axis titles and the strips.
+    let x_start = inp.pad + if !v_title.is_empty() && !v_right { band } else { 0.0 };
+    let x_end = right - row_strip - if !v_title.is_empty() && v_right { band } else { 0.0 };
+    let strip_top = top + if !h_title.is_empty() && h_top { band } else { 0.0 };
+    let y_start = strip_top + col_strip;
+    let y_end = bottom - if !h_title.is_empty() && !h_top { band } else { 0.0 };
+
+    // Lay each panel out in an even share of the room, to learn what its
+    // axes take; then give every column and row the room its drawn axes need.
+    let cell_w = ((x_end - x_start) - gap_x * (nc - 1) as f64) / nc as f64;
+    let cell_h = ((y_end - y_start) - gap_y * (nr - 1) as f64) / nr as f64;
+    let lays: Vec<PlotLayout> = cells.iter().map(|p| plot_layout(inp, p, 0.0, cell_w, 0.0, cell_h, false)).collect();
+    let draw_h = |r: usize| free_h || r == if h_top { 0 } else { nr - 1 };
+    let draw_v = |c: usize| free_v || c == if v_right { nc - 1 } else { 0 };
+    // Room beside the frame of the panel in row r, column c: left, right,
+    // top, bottom. At the grid's outer ends the horizontal labels reach as
+    // in a single plot; between columns they share the gap, and take more
+    // room when their halves do not fit in it.
+    let margins = |r: usize, c: usize| {
+        let l = &lays[r * nc + c];
+        let (h, v) = (draw_h(r), draw_v(c));
+        let on = |b: bool, x: f64| if b { x } else { 0.0 };
+        let (v_left, v_right_w) = (on(v && !v_right, l.v_axis_w), on(v && v_right, l.v_axis_w));
+        let (over_left, over_right) = h_label_overhang(l);
+        let between = |over: f64| (over + guides::LABEL_GAP / 2.0 - gap_x / 2.0).max(0.0);
+        let h_left = if c == 0 { v_left + l.h_reach_left } else { between(over_left) };
+        let h_right = if c == nc - 1 { v_right_w + l.h_reach_right } else { between(over_right) };
+        (
+            v_left.max(on(h, h_left)),
+            v_right_w.max(on(h, h_right)),
+            4.0 + on(h && h_top, l.h_axis_h),
+            on(h && !h_top, l.h_axis_h),
+        )
+    };
+    let col_left: Vec<f64> = (0..nc).map(|c| (0..nr).map(|r| margins(r, c).0).fold(0.0, f64::max)).collect();
+    let col_right: Vec<f64> = (0..nc).map(|c| (0..nr).map(|r| margins(r, c).1).fold(0.0, f64::max)).collect();
+    let row_top: Vec<f64> = (0..nr).map(|r| (0..nc).map(|c| margins(r, c).2).fold(0.0, f64::max)).collect();
+    let row_bottom: Vec<f64> = (0..nr).map(|r| (0..nc).map(|c| margins(r, c).3).fold(0.0, f64::max)).collect();
+    let sum = |v: &[f64]| v.iter().sum::<f64>();
+    let pw = (((x_end - x_start) - sum(&col_left) - sum(&col_right) - gap_x * (nc - 1) as f64) / nc as f64).max(20.0);
+    let ph = (((y_end - y_start) - sum(&row_top) - sum(&row_bottom) - gap_y * (nr - 1) as f64) / nr as f64).max(20.0);
+    let mut lefts = Vec::with_capacity(nc);
+    let mut x = x_start;
+    for c in 0..nc {
+        lefts.push(x + col_left[c]);
+        x += col_left[c] + pw + col_right[c] + gap_x;
+    }
+    let mut tops = Vec::with_capacity(nr);
+    let mut y = y_start;
+    for r in 0..nr {
+        tops.push(y + row_top[r]);
+        y += row_top[r] + ph + row_bottom[r] + gap_y;
+    }
+
+    let name = |k: Option<&String>| k.cloned().unwrap_or_default();
+    let (row_name, col_name) = spec.panels.as_ref().map(|p| (name(p.rows.as_ref()), name(p.cols.as_ref()))).unwrap_or_default();
+    let mut out = Vec::with_capacity(cells.len() + 1);
+    for r in 0..nr {
+        for c in 0..nc {
+            let i = r * nc + c;
+            let frame = Frame { left: lefts[c], top: tops[r], width: pw, height: ph };
+            let mut kids = Vec::new();
+            let mut says = Vec::new();
+            if let Some(rows) = rows {
+                says.push(format!("{row_name}: {}", rows[r]));
+                if c == nc - 1 {
+                    let x = x_end + 4.0 + guides::TICK_SIZE * (text::LINE_HEIGHT - text::ASCENT);
+                    let words = text::fit(&rows[r], guides::TICK_SIZE, true, ph);
+                    kids.push(strip_text(x, frame.top + ph / 2.0, words, Anchor::Middle, 90.0, inp.pal));
+                }
+            }
+            if let Some(cols) = cols {
+                says.push(format!("{col_name}: {}", cols[c]));
+                if r == 0 {
+                    let words = text::fit(&cols[c], guides::TICK_SIZE, true, pw);
+                    kids.push(strip_text(frame.left + pw / 2.0, strip_top + guides::TICK_SIZE * text::ASCENT, words, Anchor::Middle, 0.0, inp.pal));
+                }
+            }
+            kids.extend(plot_draw(inp, &cells[i], &lays[i], frame, draw_h(r), draw_v(c)));
+            out.push(Node::Group { class: "strata-facet".into(), role: Some("graphics-object".into()), label: Some(format!("panel {}", says.join(", "))), children: kids });
+        }
+    }
+
+    // One title per axis, centred on the grid.
+    let mut titles = Vec::new();
+    let (span_left, span_right) = (lefts[0], lefts[nc - 1] + pw);
+    let (span_top, span_bottom) = (tops[0], tops[nr - 1] + ph);
+    if !h_title.is_empty() {
+        let y = if h_top { top + guides::TITLE_SIZE * text::ASCENT } else { y_end + band - guides::TITLE_SIZE * text::LINE_HEIGHT + guides::TITLE_SIZE * text::ASCENT };
+        titles.push(guides::axis_title((span_left + span_right) / 2.0, y, h_title, span_right - span_left, 0.0, inp.pal));
+    }
+    if !v_title.is_empty() {
+        let (x, angle) = if v_right { (right - guides::TITLE_SIZE * text::ASCENT, 90.0) } else { (inp.pad + guides::TITLE_SIZE * text::ASCENT, -90.0) };
+        titles.push(guides::axis_title(x, (span_top + span_bottom) / 2.0, v_title, span_bottom - span_top, angle, inp.pal));
+    }
+    if !titles.is_empty() {
+        out.push(Node::Group { class: "strata-axis-titles".into(), role: None, label: None, children: titles });
+    }
+    out
+}
+
+/// How far a plot's horizontal tick labels reach past the left and right
+/// ends of its frame (rotated labels hang left of their ticks only).
+fn h_label_overhang(lay: &PlotLayout) -> (f64, f64) {
+    let fw = lay.frame.width;
+    let w = |t: &crate::scale::Tick| text::width(&t.label, guides::TICK_SIZE, false);
+    if lay.h_angle != 0.0 {
+        let c = crate::math::cos((-lay.h_angle).to_radians());
+        return (lay.h_ticks.iter().map(|t| w(t) * c - t.unit * fw).fold(0.0, f64::max), 0.0);
+    }
+    (
+        lay.h_ticks.iter().map(|t| w(t) / 2.0 - t.unit * fw).fold(0.0, f64::max),
+        lay.h_ticks.iter().map(|t| w(t) / 2.0 - (1.0 - t.unit) * fw).fold(0.0, f64::max),
+    )
 }
 
 /// What every plot area of a chart shares.
@@ -299,11 +407,12 @@ struct PlotInputs<'a> {
 /// One plot area: grid, marks and axes of `plan` inside `x0..right` and
 /// `top..bottom` (the whole chart's, or one panel's).
 fn plot_area(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bottom: f64) -> Vec<Node> {
-    let PlotInputs { spec, pal, loc, narrow, pad, width, legend_on_right } = *inp;
-    let pal = pal.clone();
-    let mut children = Vec::new();
-    let scales = &plan.scales;
-    let mut nice_scales = plan.scales.clone();
+    let lay = plot_layout(inp, plan, x0, right, top, bottom, true);
+    plot_draw(inp, plan, &lay, lay.frame, true, true)
+}
+
+/// Axis titles and whether each axis shows, horizontal then vertical.
+fn axis_titles<'a>(spec: &Spec, scales: &'a crate::plan::Scales) -> (&'a str, &'a str, bool, bool) {
     // Axes: the x scale is horizontal unless the coordinates flip it.
     let flip = matches!(spec.coords, Coords::Flip);
     let polar = matches!(spec.coords, Coords::Polar(_));
@@ -316,6 +425,44 @@ fn plot_area(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, botto
     let (h_shown, v_shown) = (shown(h_spec), shown(v_spec));
     let h_title: &str = if h_shown { h_title } else { "" };
     let v_title: &str = if v_shown { v_title } else { "" };
+    (h_title, v_title, h_shown, v_shown)
+}
+
+/// Where a plot area's frame goes and what its axes hold: the scales made
+/// nice for the room there, the ticks, and the room each axis takes.
+struct PlotLayout {
+    scales: crate::plan::Scales,
+    frame: Frame,
+    h_ticks: Vec<crate::scale::Tick>,
+    h_angle: f64,
+    v_ticks: Vec<crate::scale::Tick>,
+    v_label_w: f64,
+    h_title: String,
+    v_title: String,
+    h_shown: bool,
+    v_shown: bool,
+    h_top: bool,
+    v_right: bool,
+    /// Width of the vertical axis (labels and title) beside the frame.
+    v_axis_w: f64,
+    /// Height of the horizontal axis (labels and title) under or over the frame.
+    h_axis_h: f64,
+    /// Room the horizontal axis's labels take left of the frame (rotated
+    /// labels) and right of it (the last label's overhang).
+    h_reach_left: f64,
+    h_reach_right: f64,
+}
+
+/// Lay out a plot area inside `x0..right` and `top..bottom`; `titles`
+/// false leaves the axis titles (and their room) out.
+fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bottom: f64, titles: bool) -> PlotLayout {
+    let PlotInputs { spec, loc, narrow, pad, width, legend_on_right, .. } = *inp;
+    let scales = &plan.scales;
+    let mut nice_scales = plan.scales.clone();
+    let flip = matches!(spec.coords, Coords::Flip);
+    let (h_spec, v_spec) = if flip { (&scales.y_spec, &scales.x_spec) } else { (&scales.x_spec, &scales.y_spec) };
+    let (h_title, v_title, h_shown, v_shown) = axis_titles(spec, scales);
+    let (h_title, v_title) = if titles { (h_title, v_title) } else { ("", "") };
     let wanted = |s: &crate::spec::ScaleSpec, length: f64, per: f64| {
         s.ticks.map(|t| t as usize).unwrap_or_else(|| ((length / per).floor() as usize).clamp(2, if narrow { 5 } else { 10 }))
     };
@@ -384,6 +531,49 @@ fn plot_area(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, botto
     let h_axis_h = if h_shown { guides::bottom_axis_height(&h_ticks, h_angle, !h_title.is_empty()) } else { 0.0 };
     let (top, plot_bottom) = if h_top { (top + h_axis_h, bottom) } else { (top, bottom - h_axis_h) };
     let frame = Frame { left, top, width: frame_w, height: (plot_bottom - top).max(20.0) };
+    // Vertical ticks again for the real height, kept within the margin.
+    let v_ticks = if v_shown {
+        let t = guides::left_ticks(v_scale, frame.height, wanted(v_spec, frame.height, 45.0), v_spec.format.as_deref(), loc, max_left);
+        if guides::widest_label(&t) <= v_label_w + 0.5 { t } else { v_ticks0 }
+    } else {
+        vec![]
+    };
+    // Vertical categories in flipped coordinates run top to bottom.
+    let v_ticks = if flip { v_ticks.into_iter().map(|mut t| { t.unit = 1.0 - t.unit; t }).collect() } else { v_ticks };
+    let h_reach_left = frame.left - x0 - if v_right { 0.0 } else { v_axis_w };
+    let h_reach_right = (right - frame.right()).max(0.0);
+    PlotLayout {
+        frame,
+        h_ticks,
+        h_angle,
+        v_ticks,
+        v_label_w,
+        h_title: h_title.to_string(),
+        v_title: v_title.to_string(),
+        h_shown,
+        v_shown,
+        h_top,
+        v_right,
+        v_axis_w,
+        h_axis_h,
+        h_reach_left,
+        h_reach_right,
+        scales: nice_scales,
+    }
+}
+
+/// Draw a laid-out plot area in `frame`: grid, marks, notes, and the
+/// horizontal and vertical axes where `draw_h` and `draw_v` say (a grid of
+/// panels draws shared axes only along its edges).
+fn plot_draw(inp: &PlotInputs, plan: &Plan, lay: &PlotLayout, frame: Frame, draw_h: bool, draw_v: bool) -> Vec<Node> {
+    let PlotInputs { spec, pal, narrow, .. } = *inp;
+    let pal = pal.clone();
+    let mut children = Vec::new();
+    let scales = &lay.scales;
+    let flip = matches!(spec.coords, Coords::Flip);
+    let polar = matches!(spec.coords, Coords::Polar(_));
+    let (h_scale, v_scale) = if flip { (&scales.y, &scales.x) } else { (&scales.x, &scales.y) };
+    let loc = inp.loc;
     // Polar charts: the angle's labels go around the circle, so inset the frame for them.
     let (frame, polar_ticks) = match &spec.coords {
         Coords::Polar(p) => {
@@ -403,19 +593,10 @@ fn plot_area(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, botto
         _ => (frame, None),
     };
     let coord = Coord::new(&spec.coords, frame);
-    // Vertical ticks again for the real height, kept within the margin.
-    let v_ticks = if v_shown {
-        let t = guides::left_ticks(v_scale, frame.height, wanted(v_spec, frame.height, 45.0), v_spec.format.as_deref(), loc, max_left);
-        if guides::widest_label(&t) <= v_label_w + 0.5 { t } else { v_ticks0 }
-    } else {
-        vec![]
-    };
-    // Vertical categories in flipped coordinates run top to bottom.
-    let v_ticks = if flip { v_ticks.into_iter().map(|mut t| { t.unit = 1.0 - t.unit; t }).collect() } else { v_ticks };
-    let h_side = if h_top { Side::Top } else { Side::Bottom };
-    let v_side = if v_right { Side::Right } else { Side::Left };
-    let h_axis = AxisGuide { side: h_side, scale: h_scale, ticks: h_ticks, title: h_title, angle: h_angle };
-    let v_axis = AxisGuide { side: v_side, scale: v_scale, ticks: v_ticks, title: v_title, angle: 0.0 };
+    let h_side = if lay.h_top { Side::Top } else { Side::Bottom };
+    let v_side = if lay.v_right { Side::Right } else { Side::Left };
+    let h_axis = AxisGuide { side: h_side, scale: h_scale, ticks: lay.h_ticks.clone(), title: &lay.h_title, angle: lay.h_angle };
+    let v_axis = AxisGuide { side: v_side, scale: v_scale, ticks: lay.v_ticks.clone(), title: &lay.v_title, angle: 0.0 };
 
     if let Some((angle_is_x, a_ticks, r_ticks)) = &polar_ticks {
         children.extend(guides::polar(&coord, *angle_is_x, a_ticks, r_ticks, &pal));
@@ -437,11 +618,11 @@ fn plot_area(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, botto
             children: marks,
         });
     }
-    if h_shown {
+    if lay.h_shown && draw_h {
         children.push(guides::axis(&h_axis, frame, &pal, 0.0));
     }
-    if v_shown {
-        children.push(guides::axis(&v_axis, frame, &pal, v_label_w));
+    if lay.v_shown && draw_v {
+        children.push(guides::axis(&v_axis, frame, &pal, lay.v_label_w));
     }
     // Notes go over the marks, inside the plot.
     layers.extend(super::notes::draw(&spec.notes, scales, &coord, &pal));

@@ -18,7 +18,7 @@ pub const TICK_SIZE: f64 = 12.0;
 pub const TITLE_SIZE: f64 = 12.0;
 const GAP: f64 = 6.0;
 /// Least free space between neighbouring horizontal labels (px).
-const LABEL_GAP: f64 = 8.0;
+pub const LABEL_GAP: f64 = 8.0;
 /// Angle of rotated labels (degrees, counter-clockwise reads upward).
 pub const ROTATION: f64 = -45.0;
 
@@ -195,7 +195,7 @@ pub fn widest_label(ticks: &[Tick]) -> f64 {
 }
 
 /// An axis title centred at (x, y), shortened to fit `length`, turned by `angle`.
-fn axis_title(x: f64, y: f64, title: &str, length: f64, angle: f64, pal: &Palette) -> Node {
+pub fn axis_title(x: f64, y: f64, title: &str, length: f64, angle: f64, pal: &Palette) -> Node {
     Node::Text {
         x,
         y,
@@ -342,14 +342,19 @@ pub fn bottom_labels_height(ticks: &[Tick], angle: f64) -> f64 {
     }
 }
 
+/// Room an axis title takes beside its axis: a gap and one line.
+pub fn title_band() -> f64 {
+    GAP + TITLE_SIZE * text::LINE_HEIGHT
+}
+
 /// Height the bottom axis needs below the frame.
 pub fn bottom_axis_height(ticks: &[Tick], angle: f64, has_title: bool) -> f64 {
-    GAP + bottom_labels_height(ticks, angle) + if has_title { GAP + TITLE_SIZE * text::LINE_HEIGHT } else { 0.0 }
+    GAP + bottom_labels_height(ticks, angle) + if has_title { title_band() } else { 0.0 }
 }
 
 /// Width the left axis needs beside the frame.
 pub fn left_axis_width(label_width: f64, has_title: bool) -> f64 {
-    GAP + label_width + if has_title { GAP + TITLE_SIZE * text::LINE_HEIGHT } else { 0.0 }
+    GAP + label_width + if has_title { title_band() } else { 0.0 }
 }
 
 // ---------------------------------------------------------------- legends

@@ -65,9 +65,13 @@ pub fn layer_marks(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     }
 }
 
+/// Channels that split a layer's rows into series: a line never joins two
+/// colours, groups or panels.
+const SERIES_CHANNELS: [&str; 5] = ["color", "group", "panel", "panel_row", "panel_col"];
+
 /// Rows split into series by colour, group and panel, in order of first appearance.
 fn series(layer: &PlannedLayer) -> Vec<Vec<usize>> {
-    let cols: Vec<&Values> = ["color", "group", "panel"].iter().filter_map(|c| layer.data.get(c)).collect();
+    let cols: Vec<&Values> = SERIES_CHANNELS.iter().filter_map(|c| layer.data.get(c)).collect();
     if cols.is_empty() {
         return vec![(0..layer.data.len).collect()];
     }
@@ -89,7 +93,7 @@ fn series(layer: &PlannedLayer) -> Vec<Vec<usize>> {
 fn series_datum(layer: &PlannedLayer, first: usize) -> Datum {
     let mut d = Datum::new();
     for (k, v) in &layer.data.channels {
-        if matches!(*k, "color" | "group" | "panel") {
+        if SERIES_CHANNELS.contains(k) {
             d.insert(k.to_string(), v.json(first));
         }
     }
@@ -220,7 +224,7 @@ impl RowSet {
 }
 
 fn line_series(layer: &PlannedLayer) -> Vec<RowSet> {
-    if ["color", "group", "panel"].iter().all(|c| layer.data.get(c).is_none()) {
+    if SERIES_CHANNELS.iter().all(|c| layer.data.get(c).is_none()) {
         return vec![RowSet::All(layer.data.len)];
     }
     series(layer).into_iter().map(RowSet::List).collect()

@@ -1,0 +1,168 @@
+//! Small multiples: the plan split into one plan per panel.
+//!
+//! - `panels.by`: one panel per value of the `panel` channel, in order of
+//!   first appearance (the scene wraps them into rows).
+//! - `panels.rows` / `panels.cols`: a grid with one row per value of
+//!   `panel_row` and one column per value of `panel_col` (each in order of
+//!   first appearance). Every combination gets its cell, so a combination
+//!   with no rows is an empty panel and the grid stays aligned.
+//!
+//! Each panel keeps, in every layer, the rows of its panel (a layer
+//! without panel channels is drawn whole in every panel). Scales stay the
+//! ones trained over every panel, so panels compare at a glance; with
+//! `panels.free` the x and/or y scale of each panel is trained again on its
+//! own rows. A panel with no rows, or whose rows alone cannot make a scale
+//! (a log axis with nothing above zero), keeps the shared scale.
+
+use super::scales::retrain_positions;
+use super::{LayerData, Plan, PlannedLayer};
+use crate::error::{Diagnostic, Errors};
+use crate::spec::{FreeAxes, Spec};
+use indexmap::IndexSet;
+
+/// More panels than this is a mistake (a column of many distinct values
+/// given as `by`, `rows` or `cols`): each would be a few pixels wide.
+pub const MAX_PANELS: usize = 400;
+
+/// The plans of a chart's panels.
+#[derive(Debug, Clone)]
+pub enum PanelPlans {
+    /// `panels.by`: (key, plan) per panel.
+    Wrap(Vec<(String, Plan)>),
+    /// `panels.rows`/`cols`: the row and column values (`None` when the
+    /// spec gives no `rows` or no `cols`: one row or one column) and the
+    /// plan of each cell, row by row: `cells[r * columns + c]`.
+    Grid { rows: Option<Vec<String>>, cols: Option<Vec<String>>, cells: Vec<Plan> },
+}
+
+/// Which position scales each panel trains on its own rows: (x, y).
+pub fn free_axes(spec: &Spec) -> (bool, bool) {
+    match spec.panels.as_ref().and_then(|p| p.free) {
+        Some(FreeAxes::X) => (true, false),
+        Some(FreeAxes::Y) => (false, true),
+        Some(FreeAxes::Both) => (true, true),
+        None => (false, false),
+    }
+}
+
+/// Distinct values of a channel over every layer, in order of first appearance.
+fn values_of(layers: &[PlannedLayer], channel: &str) -> IndexSet<String> {
+    let mut keys = IndexSet::new();
+    for l in layers {
+        if let Some(v) = l.data.get(channel) {
+            for i in 0..l.data.len {
+                if let Some(k) = v.key(i) {
+                    keys.insert(k);
+                }
+            }
+        }
+    }
+    keys
+}
+
+/// The panel values, or `None` without panels: (by, rows, cols).
+type Values3 = (Option<IndexSet<String>>, Option<IndexSet<String>>, Option<IndexSet<String>>);
+
+fn panel_values(spec: &Spec, layers: &[PlannedLayer]) -> Option<Values3> {
+    let p = spec.panels.as_ref()?;
+    if p.by.is_some() {
+        return Some((Some(values_of(layers, "panel")), None, None));
+    }
+    Some((None, p.rows.as_ref().map(|_| values_of(layers, "panel_row")), p.cols.as_ref().map(|_| values_of(layers, "panel_col"))))
+}
+
+/// An error when the panels would be too many to draw.
+pub fn check_count(spec: &Spec, layers: &[PlannedLayer]) -> Result<(), Errors> {
+    let Some((by, rows, cols)) = panel_values(spec, layers) else { return Ok(()) };
+    let (n, path) = match by {
+        Some(by) => (by.len(), "panels.by"),
+        None => (rows.map_or(1, |r| r.len()).saturating_mul(cols.map_or(1, |c| c.len())), "panels"),
+    };
+    if n <= MAX_PANELS {
+        return Ok(());
+    }
+    Err(Diagnostic::error("plan.too_many_panels", format!("the panels would be {n}, more than the {MAX_PANELS} a chart can show"))
+        .at_path(path)
+        .with_hint("make panels by a column with few distinct values, or filter the rows with `where`")
+        .into())
+}
+
+/// Split the plan by `spec.panels`; `None` without panels, or when no row
+/// has a panel value (the chart is then one plot).
+pub fn split(spec: &Spec, plan: &Plan) -> Option<PanelPlans> {
+    let (by, rows, cols) = panel_values(spec, &plan.layers)?;
+    let free = free_axes(spec);
+    if let Some(keys) = by {
+        if keys.is_empty() {
+            return None;
+        }
+        let cells = cut(plan, &[("panel", &keys)], free);
+        return Some(PanelPlans::Wrap(keys.into_iter().zip(cells).collect()));
+    }
+    let (n_rows, n_cols) = (rows.as_ref().map_or(1, IndexSet::len), cols.as_ref().map_or(1, IndexSet::len));
+    if rows.is_none() && cols.is_none() || n_rows == 0 || n_cols == 0 {
+        return None;
+    }
+    let mut by_channel = Vec::new();
+    if let Some(r) = &rows {
+        by_channel.push(("panel_row", r));
+    }
+    if let Some(c) = &cols {
+        by_channel.push(("panel_col", c));
+    }
+    let cells = cut(plan, &by_channel, free);
+    let list = |s: Option<IndexSet<String>>| s.map(|s| s.into_iter().collect());
+    Some(PanelPlans::Grid { rows: list(rows), cols: list(cols), cells })
+}
+
+/// One plan per cell of the grid the channels span (the first channel's
+/// values vary slowest). Each row goes to its cell in one pass.
+fn cut(plan: &Plan, channels: &[(&str, &IndexSet<String>)], free: (bool, bool)) -> Vec<Plan> {
+    let n: usize = channels.iter().map(|(_, v)| v.len()).product();
+    let mut layers: Vec<Vec<PlannedLayer>> = (0..n).map(|_| Vec::with_capacity(plan.layers.len())).collect();
+    for l in &plan.layers {
+        let cols: Vec<_> = channels.iter().filter_map(|(c, values)| l.data.get(c).map(|v| (v, *values))).collect();
+        if cols.len() < channels.len() {
+            // A layer without its panel channels is drawn in every panel.
+            for cell in &mut layers {
+                cell.push(l.clone());
+            }
+            continue;
+        }
+        let mut rows: Vec<Vec<usize>> = vec![Vec::new(); n];
+        'row: for i in 0..l.data.len {
+            let mut cell = 0;
+            for (v, values) in &cols {
+                let Some(k) = v.key(i) else { continue 'row };
+                let Some(at) = values.get_index_of(&k) else { continue 'row };
+                cell = cell * values.len() + at;
+            }
+            rows[cell].push(i);
+        }
+        for (cell, rows) in layers.iter_mut().zip(&rows) {
+            cell.push(PlannedLayer { index: l.index, geometry: l.geometry, arrange: l.arrange, style: l.style.clone(), data: take_rows(&l.data, rows) });
+        }
+    }
+    layers
+        .into_iter()
+        .map(|layers| {
+            let mut scales = plan.scales.clone();
+            if (free.0 || free.1) && layers.iter().any(|l| l.data.len > 0) {
+                let mut own = scales.clone();
+                if retrain_positions(&layers, &mut own, free.0, free.1).is_ok() {
+                    scales = own;
+                }
+            }
+            Plan { layers, scales, warnings: plan.warnings.clone() }
+        })
+        .collect()
+}
+
+fn take_rows(data: &LayerData, rows: &[usize]) -> LayerData {
+    LayerData {
+        len: rows.len(),
+        channels: data.channels.iter().map(|(c, vals)| (*c, vals.take(rows))).collect(),
+        names: data.names.clone(),
+        tips: data.tips.iter().map(|(c, vals)| (c.clone(), vals.take(rows))).collect(),
+    }
+}
