@@ -24,9 +24,9 @@ after(async () => {
 test('bake reports the broken chart by page and id and bakes the rest', () => {
   assert.equal(bake.status, 1, 'a chart failed, so the exit status says so');
   assert.match(bake.stderr, /index\.html: #typo: .*layers\[0\]\.y/);
-  assert.match(bake.stderr, /baked 10 charts/);
+  assert.match(bake.stderr, /baked 11 charts/);
   const html = fs.readFileSync(BAKED, 'utf8');
-  assert.equal((html.match(/<svg xmlns/g) || []).length, 10);
+  assert.equal((html.match(/<svg xmlns/g) || []).length, 11);
 });
 
 test('with scripting off the baked charts are in the page', async () => {
@@ -35,12 +35,12 @@ test('with scripting off the baked charts are in the page', async () => {
   await page.route('**/*.js', (r) => r.abort());
   await page.goto(`${server.url}/www/index.baked.html`);
   const n = await page.evaluate(() => document.querySelectorAll('strata-chart > svg.strata').length);
-  assert.equal(n, 10);
+  assert.equal(n, 11);
   const box = await page.evaluate(() => document.querySelector('#bars > svg').getBoundingClientRect().height);
   assert.ok(box > 100, 'the SVG has its size without any script');
   // The data tables are there too, and open with no script.
   const tables = await page.evaluate(() => document.querySelectorAll('strata-chart > svg + details.strata-data').length);
-  assert.equal(tables, 10);
+  assert.equal(tables, 11);
   await page.click('#bars > details.strata-data > summary');
   const cells = await page.evaluate(() => {
     const d = document.querySelector('#bars > details.strata-data');
@@ -55,7 +55,7 @@ test('the element redraws a baked chart byte for byte', async () => {
   await page.goto(`${server.url}/www/index.baked.html`);
   await settled(page);
   const html = fs.readFileSync(BAKED, 'utf8');
-  for (const id of ['points', 'lines', 'bars', 'histogram', 'boxes', 'trend', 'weather', 'windrose', 'dark', 'panels']) {
+  for (const id of ['points', 'lines', 'bars', 'histogram', 'boxes', 'trend', 'weather', 'windrose', 'dark', 'panels', 'seasons']) {
     const { svgText, tableHtml } = await page.evaluate((id) => {
       const el = document.getElementById(id);
       return { svgText: el.svgText, tableHtml: el.tableHtml };

@@ -29,7 +29,7 @@ after(async () => {
   await server?.close();
 });
 
-for (const id of ['points', 'lines', 'bars', 'histogram', 'boxes', 'trend', 'weather', 'windrose', 'dark', 'panels']) {
+for (const id of ['points', 'lines', 'bars', 'histogram', 'boxes', 'trend', 'weather', 'windrose', 'dark', 'panels', 'seasons']) {
   test(`gallery chart "${id}" is byte-identical to the CLI`, async () => {
     const got = await page.evaluate((id) => {
       const el = document.getElementById(id);
