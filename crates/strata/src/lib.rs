@@ -95,7 +95,6 @@ pub fn render_spec(spec: &Spec, data: Option<DataBytes>, opts: &RenderOptions) -
     let mut warnings = table.warnings;
     warnings.extend(lint::check(spec, Some(&plan)));
     warnings.extend(plan.warnings);
-    warnings.extend(not_drawn_yet(spec));
     warnings.extend(no_effect(spec));
     Ok(Rendered { svg, table: html_table, scene, warnings })
 }
@@ -115,21 +114,6 @@ fn no_effect(spec: &Spec) -> Vec<Diagnostic> {
             out.push(
                 Diagnostic::warning("spec.no_effect", "`columns` wraps the panels of `by`; a `rows`/`cols` grid has one column per value of `cols`")
                     .at_path("panels.columns"),
-            );
-        }
-    }
-    out
-}
-
-/// Keys of the vocabulary that this version reads but does not apply yet:
-/// a warning at their path rather than silence.
-fn not_drawn_yet(spec: &Spec) -> Vec<Diagnostic> {
-    let mut out = Vec::new();
-    if let spec::Theme::Custom(o) = &spec.theme {
-        if o.font_size.is_some() {
-            out.push(
-                Diagnostic::warning("spec.not_drawn_yet", "`theme.font_size` is not applied by this version of Strata; text keeps its default sizes")
-                    .at_path("theme.font_size"),
             );
         }
     }

@@ -40,7 +40,7 @@ fn an_unknown_delimiter_is_a_located_error() {
 }
 
 #[test]
-fn keys_not_drawn_yet_say_so_at_their_path() {
+fn every_key_is_drawn_so_none_warns_not_drawn_yet() {
     // Panel grids, free scales, tips, and notes in either coordinate system are drawn: no warning.
     let data = Some(DataBytes { bytes: b"station,rain\nA,1\nB,2\n", name: "d.csv" });
     let spec = r#"{"layers":[{"draw":"bar","x":"station","y":"rain","tip":["rain"]}],"panels":{"rows":"station","free":"y"},"notes":[{"x":"A","text":"wet"}]}"#;

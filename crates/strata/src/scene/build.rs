@@ -38,6 +38,15 @@ pub const NARROW: f64 = 400.0;
 /// stylesheet (`www/strata-theme.css`): `strata-light`, `strata-dark` or
 /// `strata-auto`, plus `strata-own-<slot>` for each colour the spec sets,
 /// which the stylesheet then leaves alone.
+/// The tick-label size for a theme: its `font_size` when it sets a sensible
+/// one (4 to 72 px), else the default.
+pub fn text_size(theme: &Theme) -> f64 {
+    match theme {
+        Theme::Custom(o) => o.font_size.filter(|s| s.is_finite() && (4.0..=72.0).contains(s)).unwrap_or(guides::TICK_SIZE),
+        _ => guides::TICK_SIZE,
+    }
+}
+
 pub fn palette(theme: &Theme) -> (Palette, String) {
     match theme {
         Theme::Dark => (Palette::dark(), "strata-dark".into()),
@@ -102,6 +111,10 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
     let narrow = width <= NARROW;
     let pad = if narrow { 8.0 } else { 16.0 };
     let (pal, theme_class) = palette(&spec.theme);
+    // Text sizes: the theme's `font_size` sets the tick-label size and every
+    // other text keeps its proportion to it.
+    let ts = text_size(&spec.theme);
+    let k = ts / guides::TICK_SIZE;
     let scales = &plan.scales;
     let loc = scales.locale;
     let mut children = Vec::new();
@@ -109,14 +122,15 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
     // Header: title and subtitle wrap at the chart width.
     let mut top = pad;
     let mut header = Vec::new();
-    let title_size = if narrow { TITLE_SIZE - 2.0 } else { TITLE_SIZE };
+    let title_size = k * if narrow { TITLE_SIZE - 2.0 } else { TITLE_SIZE };
     if let Some(t) = &spec.title {
         let (nodes, y) = text_block(&text::wrap(t, title_size, true, width - 2.0 * pad), pad, top, title_size, true, &pal.text, "strata-title");
         header.extend(nodes);
         top = y;
     }
     if let Some(t) = &spec.subtitle {
-        let (nodes, y) = text_block(&text::wrap(t, SUBTITLE_SIZE, false, width - 2.0 * pad), pad, top, SUBTITLE_SIZE, false, &pal.muted, "strata-subtitle");
+        let size = k * SUBTITLE_SIZE;
+        let (nodes, y) = text_block(&text::wrap(t, size, false, width - 2.0 * pad), pad, top, size, false, &pal.muted, "strata-subtitle");
         header.extend(nodes);
         top = y;
     }
@@ -128,16 +142,17 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
     // Footer: the source line.
     let mut bottom = height - pad;
     if let Some(s) = &spec.source {
-        let lines = text::wrap(&format!("Source: {s}"), SOURCE_SIZE, false, width - 2.0 * pad);
-        let h = lines.len() as f64 * SOURCE_SIZE * text::LINE_HEIGHT;
-        let (nodes, _) = text_block(&lines, pad, bottom - h, SOURCE_SIZE, false, &pal.muted, "strata-source");
+        let size = k * SOURCE_SIZE;
+        let lines = text::wrap(&format!("Source: {s}"), size, false, width - 2.0 * pad);
+        let h = lines.len() as f64 * size * text::LINE_HEIGHT;
+        let (nodes, _) = text_block(&lines, pad, bottom - h, size, false, &pal.muted, "strata-source");
         children.push(Node::Group { class: "strata-footer".into(), role: None, label: None, children: nodes });
         bottom -= h + 6.0;
     }
 
     // Legends: a column on the right when wide and the column takes at most
     // a quarter of the width; otherwise rows on top.
-    let legends: Vec<Legend> = guides::legends(scales, &pal.mark);
+    let legends: Vec<Legend> = guides::legends(scales, &pal.mark, ts);
     let mut right = width - pad;
     let mut legend_nodes = Vec::new();
     let mut legend_on_right = false;
@@ -189,7 +204,7 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
         }
     }
 
-    let inputs = PlotInputs { spec, pal: &pal, loc, narrow, pad, width, legend_on_right };
+    let inputs = PlotInputs { spec, pal: &pal, loc, narrow, pad, width, legend_on_right, ts };
     match crate::plan::split_panels(spec, plan) {
         None => children.extend(plot_area(&inputs, plan, pad, right, top, bottom)),
         Some(PanelPlans::Wrap(panels)) => children.extend(panel_grid(&inputs, spec, &panels, right, top, bottom)),
@@ -219,11 +234,13 @@ fn panel_gaps(narrow: bool) -> (f64, f64) {
 }
 
 /// Depth of the strip that names a panel: one line of bold tick-size text.
-const STRIP: f64 = guides::TICK_SIZE * text::LINE_HEIGHT + 2.0;
+fn strip(ts: f64) -> f64 {
+    ts * text::LINE_HEIGHT + 2.0
+}
 
 /// The words naming a panel, in its strip.
-fn strip_text(x: f64, y: f64, words: String, anchor: Anchor, angle: f64, pal: &Palette) -> Node {
-    Node::Text { x, y, text: words, size: guides::TICK_SIZE, anchor, bold: true, angle, fill: pal.text.clone(), class: "strata-panel-title".into() }
+fn strip_text(x: f64, y: f64, words: String, anchor: Anchor, angle: f64, pal: &Palette, size: f64) -> Node {
+    Node::Text { x, y, text: words, size, anchor, bold: true, angle, fill: pal.text.clone(), class: "strata-panel-title".into() }
 }
 
 /// Small multiples by `panels.by`: a grid of plot areas, `panels.columns`
@@ -245,8 +262,8 @@ fn panel_grid(inp: &PlotInputs, spec: &Spec, panels: &[(String, Plan)], right: f
             let (r, c) = (i / cols, i % cols);
             let left = x0 + c as f64 * (cell_w + gap_x);
             let cell_top = top + r as f64 * (cell_h + gap_y);
-            let mut kids = vec![strip_text(left, cell_top + guides::TICK_SIZE * text::ASCENT, key.clone(), Anchor::Start, 0.0, inp.pal)];
-            kids.extend(plot_area(inp, plan, left, left + cell_w, cell_top + STRIP, cell_top + cell_h));
+            let mut kids = vec![strip_text(left, cell_top + inp.ts * text::ASCENT, key.clone(), Anchor::Start, 0.0, inp.pal, inp.ts)];
+            kids.extend(plot_area(inp, plan, left, left + cell_w, cell_top + strip(inp.ts), cell_top + cell_h));
             Node::Group { class: "strata-facet".into(), role: Some("graphics-object".into()), label: Some(format!("panel {key}")), children: kids }
         })
         .collect()
@@ -273,9 +290,9 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, rows: Option<&[String]>, cols: Optio
     let (h_top, v_right) = (h_spec.axis == Some(Placement::Top), v_spec.axis == Some(Placement::Right));
     let (h_title, v_title, _, _) = axis_titles(spec, &plan.scales);
     let (gap_x, gap_y) = panel_gaps(inp.narrow);
-    let band = guides::title_band();
-    let row_strip = if rows.is_some() { STRIP + 4.0 } else { 0.0 };
-    let col_strip = if cols.is_some() { STRIP } else { 0.0 };
+    let band = guides::title_band(inp.ts);
+    let row_strip = if rows.is_some() { strip(inp.ts) + 4.0 } else { 0.0 };
+    let col_strip = if cols.is_some() { strip(inp.ts) } else { 0.0 };
 
     // The room for panels, inside the axis titles and the strips.
     let x_start = inp.pad + if !v_title.is_empty() && !v_right { band } else { 0.0 };
@@ -300,7 +317,7 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, rows: Option<&[String]>, cols: Optio
         let (h, v) = (draw_h(r), draw_v(c));
         let on = |b: bool, x: f64| if b { x } else { 0.0 };
         let (v_left, v_right_w) = (on(v && !v_right, l.v_axis_w), on(v && v_right, l.v_axis_w));
-        let (over_left, over_right) = h_label_overhang(l);
+        let (over_left, over_right) = h_label_overhang(l, inp.ts);
         let between = |over: f64| (over + guides::LABEL_GAP / 2.0 - gap_x / 2.0).max(0.0);
         let h_left = if c == 0 { v_left + l.h_reach_left } else { between(over_left) };
         let h_right = if c == nc - 1 { v_right_w + l.h_reach_right } else { between(over_right) };
@@ -343,16 +360,16 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, rows: Option<&[String]>, cols: Optio
             if let Some(rows) = rows {
                 says.push(format!("{row_name}: {}", rows[r]));
                 if c == nc - 1 {
-                    let x = x_end + 4.0 + guides::TICK_SIZE * (text::LINE_HEIGHT - text::ASCENT);
-                    let words = text::fit(&rows[r], guides::TICK_SIZE, true, ph);
-                    kids.push(strip_text(x, frame.top + ph / 2.0, words, Anchor::Middle, 90.0, inp.pal));
+                    let x = x_end + 4.0 + inp.ts * (text::LINE_HEIGHT - text::ASCENT);
+                    let words = text::fit(&rows[r], inp.ts, true, ph);
+                    kids.push(strip_text(x, frame.top + ph / 2.0, words, Anchor::Middle, 90.0, inp.pal, inp.ts));
                 }
             }
             if let Some(cols) = cols {
                 says.push(format!("{col_name}: {}", cols[c]));
                 if r == 0 {
-                    let words = text::fit(&cols[c], guides::TICK_SIZE, true, pw);
-                    kids.push(strip_text(frame.left + pw / 2.0, strip_top + guides::TICK_SIZE * text::ASCENT, words, Anchor::Middle, 0.0, inp.pal));
+                    let words = text::fit(&cols[c], inp.ts, true, pw);
+                    kids.push(strip_text(frame.left + pw / 2.0, strip_top + inp.ts * text::ASCENT, words, Anchor::Middle, 0.0, inp.pal, inp.ts));
                 }
             }
             kids.extend(plot_draw(inp, &cells[i], &lays[i], frame, draw_h(r), draw_v(c)));
@@ -365,12 +382,12 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, rows: Option<&[String]>, cols: Optio
     let (span_left, span_right) = (lefts[0], lefts[nc - 1] + pw);
     let (span_top, span_bottom) = (tops[0], tops[nr - 1] + ph);
     if !h_title.is_empty() {
-        let y = if h_top { top + guides::TITLE_SIZE * text::ASCENT } else { y_end + band - guides::TITLE_SIZE * text::LINE_HEIGHT + guides::TITLE_SIZE * text::ASCENT };
-        titles.push(guides::axis_title((span_left + span_right) / 2.0, y, h_title, span_right - span_left, 0.0, inp.pal));
+        let y = if h_top { top + inp.ts * text::ASCENT } else { y_end + band - inp.ts * text::LINE_HEIGHT + inp.ts * text::ASCENT };
+        titles.push(guides::axis_title((span_left + span_right) / 2.0, y, h_title, span_right - span_left, 0.0, inp.pal, inp.ts));
     }
     if !v_title.is_empty() {
-        let (x, angle) = if v_right { (right - guides::TITLE_SIZE * text::ASCENT, 90.0) } else { (inp.pad + guides::TITLE_SIZE * text::ASCENT, -90.0) };
-        titles.push(guides::axis_title(x, (span_top + span_bottom) / 2.0, v_title, span_bottom - span_top, angle, inp.pal));
+        let (x, angle) = if v_right { (right - inp.ts * text::ASCENT, 90.0) } else { (inp.pad + inp.ts * text::ASCENT, -90.0) };
+        titles.push(guides::axis_title(x, (span_top + span_bottom) / 2.0, v_title, span_bottom - span_top, angle, inp.pal, inp.ts));
     }
     if !titles.is_empty() {
         out.push(Node::Group { class: "strata-axis-titles".into(), role: None, label: None, children: titles });
@@ -380,9 +397,9 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, rows: Option<&[String]>, cols: Optio
 
 /// How far a plot's horizontal tick labels reach past the left and right
 /// ends of its frame (rotated labels hang left of their ticks only).
-fn h_label_overhang(lay: &PlotLayout) -> (f64, f64) {
+fn h_label_overhang(lay: &PlotLayout, ts: f64) -> (f64, f64) {
     let fw = lay.frame.width;
-    let w = |t: &crate::scale::Tick| text::width(&t.label, guides::TICK_SIZE, false);
+    let w = |t: &crate::scale::Tick| text::width(&t.label, ts, false);
     if lay.h_angle != 0.0 {
         let c = crate::math::cos((-lay.h_angle).to_radians());
         return (lay.h_ticks.iter().map(|t| w(t) * c - t.unit * fw).fold(0.0, f64::max), 0.0);
@@ -402,6 +419,8 @@ struct PlotInputs<'a> {
     pad: f64,
     width: f64,
     legend_on_right: bool,
+    /// Size of tick labels, axis titles, legend and strip text.
+    ts: f64,
 }
 
 /// One plot area: grid, marks and axes of `plan` inside `x0..right` and
@@ -481,18 +500,18 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
     }
     let scales = &nice_scales;
     let (h_scale, v_scale) = if flip { (&scales.y, &scales.x) } else { (&scales.x, &scales.y) };
-    let v_ticks0 = if v_shown { guides::left_ticks(v_scale, guess_h, wanted(v_spec, guess_h, 45.0), v_spec.format.as_deref(), loc, max_left) } else { vec![] };
-    let v_label_w = guides::widest_label(&v_ticks0);
+    let v_ticks0 = if v_shown { guides::left_ticks(v_scale, guess_h, wanted(v_spec, guess_h, 45.0), v_spec.format.as_deref(), loc, max_left, inp.ts) } else { vec![] };
+    let v_label_w = guides::widest_label(&v_ticks0, inp.ts);
     // Placement: the vertical axis left (or right), the horizontal one at the bottom (or top).
     let v_right = v_spec.axis == Some(Placement::Right);
     let h_top = h_spec.axis == Some(Placement::Top);
-    let v_axis_w = if v_shown { guides::left_axis_width(v_label_w, !v_title.is_empty()) } else { 0.0 };
+    let v_axis_w = if v_shown { guides::left_axis_width(v_label_w, !v_title.is_empty(), inp.ts) } else { 0.0 };
     let left = x0 + if v_right { 0.0 } else { v_axis_w };
     let right = if v_right { right - v_axis_w } else { right };
     let frame_w = (right - left).max(20.0);
     let max_label_h = (bottom - top) * 0.3;
     let (h_ticks, h_angle) = if h_shown {
-        guides::bottom_ticks(h_scale, frame_w, wanted(h_spec, frame_w, if narrow { 70.0 } else { 90.0 }), h_spec.format.as_deref(), loc, max_label_h)
+        guides::bottom_ticks(h_scale, frame_w, wanted(h_spec, frame_w, if narrow { 70.0 } else { 90.0 }), h_spec.format.as_deref(), loc, max_label_h, inp.ts)
     } else {
         (vec![], 0.0)
     };
@@ -501,11 +520,11 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
         let c = crate::math::cos((-h_angle).to_radians());
         let reach = h_ticks
             .iter()
-            .map(|t| text::width(&t.label, guides::TICK_SIZE, false) * c - t.unit * frame_w - (left - x0))
+            .map(|t| text::width(&t.label, inp.ts, false) * c - t.unit * frame_w - (left - x0))
             .fold(0.0, f64::max);
         if reach > 0.0 {
             let (l, w) = (left + reach, (frame_w - reach).max(20.0));
-            let (t, a) = guides::bottom_ticks(h_scale, w, wanted(h_spec, w, if narrow { 70.0 } else { 90.0 }), h_spec.format.as_deref(), loc, max_label_h);
+            let (t, a) = guides::bottom_ticks(h_scale, w, wanted(h_spec, w, if narrow { 70.0 } else { 90.0 }), h_spec.format.as_deref(), loc, max_label_h, inp.ts);
             (l, w, t, a)
         } else {
             (left, frame_w, h_ticks, h_angle)
@@ -517,24 +536,24 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
     let (frame_w, h_ticks, h_angle) = {
         let room_right = if legend_on_right { if narrow { 8.0 } else { 16.0 } } else { pad };
         let over = |t: &[crate::scale::Tick], w: f64| {
-            t.last().map(|l| (text::width(&l.label, guides::TICK_SIZE, false) / 2.0 - (1.0 - l.unit) * w - room_right + 2.0).max(0.0)).unwrap_or(0.0)
+            t.last().map(|l| (text::width(&l.label, inp.ts, false) / 2.0 - (1.0 - l.unit) * w - room_right + 2.0).max(0.0)).unwrap_or(0.0)
         };
         let o = if h_angle == 0.0 { over(&h_ticks, frame_w) } else { 0.0 };
         if o > 0.0 && h_shown {
             let w = (frame_w - o).max(20.0);
-            let (t, a) = guides::bottom_ticks(h_scale, w, wanted(h_spec, w, if narrow { 70.0 } else { 90.0 }), h_spec.format.as_deref(), loc, max_label_h);
+            let (t, a) = guides::bottom_ticks(h_scale, w, wanted(h_spec, w, if narrow { 70.0 } else { 90.0 }), h_spec.format.as_deref(), loc, max_label_h, inp.ts);
             (w, t, a)
         } else {
             (frame_w, h_ticks, h_angle)
         }
     };
-    let h_axis_h = if h_shown { guides::bottom_axis_height(&h_ticks, h_angle, !h_title.is_empty()) } else { 0.0 };
+    let h_axis_h = if h_shown { guides::bottom_axis_height(&h_ticks, h_angle, !h_title.is_empty(), inp.ts) } else { 0.0 };
     let (top, plot_bottom) = if h_top { (top + h_axis_h, bottom) } else { (top, bottom - h_axis_h) };
     let frame = Frame { left, top, width: frame_w, height: (plot_bottom - top).max(20.0) };
     // Vertical ticks again for the real height, kept within the margin.
     let v_ticks = if v_shown {
-        let t = guides::left_ticks(v_scale, frame.height, wanted(v_spec, frame.height, 45.0), v_spec.format.as_deref(), loc, max_left);
-        if guides::widest_label(&t) <= v_label_w + 0.5 { t } else { v_ticks0 }
+        let t = guides::left_ticks(v_scale, frame.height, wanted(v_spec, frame.height, 45.0), v_spec.format.as_deref(), loc, max_left, inp.ts);
+        if guides::widest_label(&t, inp.ts) <= v_label_w + 0.5 { t } else { v_ticks0 }
     } else {
         vec![]
     };
@@ -586,7 +605,7 @@ fn plot_draw(inp: &PlotInputs, plan: &Plan, lay: &PlotLayout, frame: Frame, draw
             let a_ticks: Vec<crate::scale::Tick> = a_ticks.into_iter().filter(|t| a_scale.is_discrete() || t.unit < 1.0 - 1e-9).collect();
             let r_opts = crate::scale::TickOptions { wanted: 4, pattern: r_spec.format.as_deref(), locale: loc, short: false };
             let r_ticks = if r_spec.hide { vec![] } else { r_scale.ticks_with(&r_opts) };
-            let (mx, my) = guides::polar_margin(&a_ticks);
+            let (mx, my) = guides::polar_margin(&a_ticks, inp.ts);
             let inset = Frame { left: frame.left + mx, top: frame.top + my, width: (frame.width - 2.0 * mx).max(20.0), height: (frame.height - 2.0 * my).max(20.0) };
             (inset, Some((angle_is_x, a_ticks, r_ticks)))
         }
@@ -595,18 +614,18 @@ fn plot_draw(inp: &PlotInputs, plan: &Plan, lay: &PlotLayout, frame: Frame, draw
     let coord = Coord::new(&spec.coords, frame);
     let h_side = if lay.h_top { Side::Top } else { Side::Bottom };
     let v_side = if lay.v_right { Side::Right } else { Side::Left };
-    let h_axis = AxisGuide { side: h_side, scale: h_scale, ticks: lay.h_ticks.clone(), title: &lay.h_title, angle: lay.h_angle };
-    let v_axis = AxisGuide { side: v_side, scale: v_scale, ticks: lay.v_ticks.clone(), title: &lay.v_title, angle: 0.0 };
+    let h_axis = AxisGuide { side: h_side, scale: h_scale, ticks: lay.h_ticks.clone(), title: &lay.h_title, angle: lay.h_angle, size: inp.ts };
+    let v_axis = AxisGuide { side: v_side, scale: v_scale, ticks: lay.v_ticks.clone(), title: &lay.v_title, angle: 0.0, size: inp.ts };
 
     if let Some((angle_is_x, a_ticks, r_ticks)) = &polar_ticks {
-        children.extend(guides::polar(&coord, *angle_is_x, a_ticks, r_ticks, &pal));
+        children.extend(guides::polar(&coord, *angle_is_x, a_ticks, r_ticks, &pal, inp.ts));
     }
     if !polar {
         let mut grid = guides::grid(&v_axis, &coord, &pal);
         grid.extend(guides::grid(&h_axis, &coord, &pal));
         children.push(Node::Group { class: "strata-grid".into(), role: None, label: None, children: grid });
     }
-    let ctx = Ctx { scales, coord, default_color: &pal.mark };
+    let ctx = Ctx { scales, coord, default_color: &pal.mark, text_size: inp.ts };
     let mut layers = Vec::new();
     for l in &plan.layers {
         let marks = layer_marks(&ctx, l);
@@ -625,7 +644,7 @@ fn plot_draw(inp: &PlotInputs, plan: &Plan, lay: &PlotLayout, frame: Frame, draw
         children.push(guides::axis(&v_axis, frame, &pal, lay.v_label_w));
     }
     // Notes go over the marks, inside the plot.
-    layers.extend(super::notes::draw(&spec.notes, scales, &coord, &pal));
+    layers.extend(super::notes::draw(&spec.notes, scales, &coord, &pal, inp.ts));
     children.push(Node::Group {
         class: "strata-panel".into(),
         role: Some("graphics-object".into()),
@@ -768,5 +787,42 @@ mod tests {
         let Node::Path { d, .. } = scene.marks()[0] else { panic!("not a path") };
         // A triangle's path has three corners.
         assert_eq!(d.matches('L').count(), 2, "{d}");
+    }
+
+    #[test]
+    fn theme_font_size_scales_every_text() {
+        fn sizes(n: &Node, out: &mut Vec<(String, f64, f64)>) {
+            match n {
+                Node::Group { children, .. } => children.iter().for_each(|c| sizes(c, out)),
+                Node::Text { class, size, x, text, .. } => out.push((class.clone(), *size, *x + text::width(text, *size, false) / 2.0)),
+                _ => {}
+            }
+        }
+        let spec = |theme: &str| {
+            format!(r#"{{ "title": "Visitors", "subtitle": "By gate", "source": "Invented", {theme}
+                "data": {{ "rows": [ {{"m": 1, "v": 120, "g": "Lane"}}, {{"m": 2, "v": 340, "g": "River"}} ] }},
+                "layers": [ {{ "draw": "point", "x": "m", "y": "v", "color": "g" }} ],
+                "notes": [ {{ "y": 200, "text": "target" }} ] }}"#)
+        };
+        let texts = |theme: &str| {
+            let scene = render(&spec(theme), None, &RenderOptions::default()).unwrap().scene;
+            let mut out = vec![];
+            scene.children.iter().for_each(|n| sizes(n, &mut out));
+            out
+        };
+        let size_of = |t: &[(String, f64, f64)], class: &str| t.iter().find(|x| x.0 == class).map(|x| x.1);
+        let plain = texts("");
+        let big = texts(r#""theme": { "font_size": 16 },"#);
+        // Default sizes, then each scaled by 16/12.
+        for (class, default) in [("strata-title", 18.0), ("strata-subtitle", 14.0), ("strata-source", 11.0), ("strata-tick", 12.0), ("strata-axis-title", 12.0), ("strata-legend-label", 12.0), ("strata-note", 12.0)] {
+            assert_eq!(size_of(&plain, class), Some(default), "{class}");
+            let got = size_of(&big, class).unwrap_or(0.0);
+            assert!((got - default * 16.0 / 12.0).abs() < 1e-9, "{class}: {got}");
+        }
+        // Nothing runs off the chart's 640 px (centres of labels plus half a width).
+        assert!(big.iter().all(|t| t.2 <= 640.0), "{big:?}");
+        // An out-of-range size is a located error.
+        let e = render(&spec(r#""theme": { "font_size": 500 },"#), None, &RenderOptions::default()).unwrap_err();
+        assert_eq!(e.0[0].at.path, "theme.font_size");
     }
 }

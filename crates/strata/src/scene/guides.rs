@@ -14,8 +14,9 @@ use crate::plan::{ColorScale, Scales};
 use crate::scale::{shape_path, PositionScale, Tick, TickOptions};
 use crate::text;
 
+/// Default size of tick labels, legend text and axis titles; the theme's
+/// `font_size` replaces it (and every other text size scales with it).
 pub const TICK_SIZE: f64 = 12.0;
-pub const TITLE_SIZE: f64 = 12.0;
 const GAP: f64 = 6.0;
 /// Least free space between neighbouring horizontal labels (px).
 pub const LABEL_GAP: f64 = 8.0;
@@ -40,23 +41,25 @@ pub struct AxisGuide<'a> {
     pub title: &'a str,
     /// Label rotation in degrees (0 or [`ROTATION`]).
     pub angle: f64,
+    /// Text size of its labels and title.
+    pub size: f64,
 }
 
-fn label_width(t: &Tick) -> f64 {
-    text::width(&t.label, TICK_SIZE, false)
+fn label_width(t: &Tick, ts: f64) -> f64 {
+    text::width(&t.label, ts, false)
 }
 
 /// Do neighbouring horizontal labels keep [`LABEL_GAP`] apart on an axis `length` px long?
-fn fits_across(ticks: &[Tick], length: f64) -> bool {
+fn fits_across(ticks: &[Tick], length: f64, ts: f64) -> bool {
     ticks.windows(2).all(|w| {
         let space = (w[1].unit - w[0].unit).abs() * length;
-        space >= (label_width(&w[0]) + label_width(&w[1])) / 2.0 + LABEL_GAP
+        space >= (label_width(&w[0], ts) + label_width(&w[1], ts)) / 2.0 + LABEL_GAP
     })
 }
 
 /// Rotated labels need about a line's height between neighbours.
-fn fits_rotated(ticks: &[Tick], length: f64) -> bool {
-    let need = TICK_SIZE * text::LINE_HEIGHT / crate::math::sin((-ROTATION).to_radians());
+fn fits_rotated(ticks: &[Tick], length: f64, ts: f64) -> bool {
+    let need = ts * text::LINE_HEIGHT / crate::math::sin((-ROTATION).to_radians());
     ticks.windows(2).all(|w| (w[1].unit - w[0].unit).abs() * length >= need)
 }
 
@@ -67,28 +70,28 @@ fn every(ticks: &[Tick], k: usize) -> Vec<Tick> {
 
 /// Ticks of a horizontal axis `length` px long, after thinning, rotating and shortening.
 /// Returns the ticks and the label angle.
-pub fn bottom_ticks(scale: &PositionScale, length: f64, wanted: usize, pattern: Option<&str>, loc: &Locale, max_label_height: f64) -> (Vec<Tick>, f64) {
+pub fn bottom_ticks(scale: &PositionScale, length: f64, wanted: usize, pattern: Option<&str>, loc: &Locale, max_label_height: f64, ts: f64) -> (Vec<Tick>, f64) {
     let opts = |wanted: usize, short: bool| TickOptions { wanted, pattern, locale: loc, short };
     if let PositionScale::Category { .. } = scale {
         let full = scale.ticks_with(&opts(wanted, false));
-        if fits_across(&full, length) {
+        if fits_across(&full, length, ts) {
             return (full, 0.0);
         }
         // Thin: every other label (the bands stay).
         let half = every(&full, 2);
-        if full.len() <= 24 && fits_across(&half, length) {
+        if full.len() <= 24 && fits_across(&half, length, ts) {
             return (half, 0.0);
         }
         // Rotate, thinning only as far as rotated labels need.
         let mut k = 1;
-        while k < full.len() && !fits_rotated(&every(&full, k), length) {
+        while k < full.len() && !fits_rotated(&every(&full, k), length, ts) {
             k += 1;
         }
         let rotated = every(&full, k);
         // Shorten: labels whose rotated height would exceed the allowance.
         let max_w = max_label_height / crate::math::sin((-ROTATION).to_radians());
         let labels: Vec<String> = rotated.iter().map(|t| t.label.clone()).collect();
-        let short = shorten_all(&labels, max_w);
+        let short = shorten_all(&labels, max_w, ts);
         let cut: Vec<Tick> = rotated.into_iter().zip(short).map(|(mut t, l)| { t.label = l; t }).collect();
         return (cut, ROTATION);
     }
@@ -96,7 +99,7 @@ pub fn bottom_ticks(scale: &PositionScale, length: f64, wanted: usize, pattern: 
     let mut w = wanted.max(2);
     loop {
         let t = scale.ticks_with(&opts(w, false));
-        if fits_across(&t, length) {
+        if fits_across(&t, length, ts) {
             return (t, 0.0);
         }
         if w <= 2 {
@@ -107,8 +110,8 @@ pub fn bottom_ticks(scale: &PositionScale, length: f64, wanted: usize, pattern: 
     let mut w = wanted.max(2);
     loop {
         let t = scale.ticks_with(&opts(w, true));
-        if fits_across(&t, length) || w <= 2 {
-            if fits_across(&t, length) {
+        if fits_across(&t, length, ts) || w <= 2 {
+            if fits_across(&t, length, ts) {
                 return (t, 0.0);
             }
             return (t, if scale.is_time() { ROTATION } else { 0.0 });
@@ -120,8 +123,8 @@ pub fn bottom_ticks(scale: &PositionScale, length: f64, wanted: usize, pattern: 
 /// Cut labels to `max_w` px and keep them telling apart: first cut at the
 /// end; if that makes two alike, drop the words every label shares at the
 /// start (and end), marking the cut with an ellipsis.
-pub fn shorten_all(labels: &[String], max_w: f64) -> Vec<String> {
-    let fit = |s: &str| text::fit(s, TICK_SIZE, false, max_w);
+pub fn shorten_all(labels: &[String], max_w: f64, ts: f64) -> Vec<String> {
+    let fit = |s: &str| text::fit(s, ts, false, max_w);
     let simple: Vec<String> = labels.iter().map(|l| fit(l)).collect();
     let distinct = |v: &[String]| {
         let mut s: Vec<&String> = v.iter().collect();
@@ -154,9 +157,9 @@ pub fn shorten_all(labels: &[String], max_w: f64) -> Vec<String> {
 }
 
 /// Ticks of a vertical axis `length` px long: thinned to a line and a half apart.
-pub fn left_ticks(scale: &PositionScale, length: f64, wanted: usize, pattern: Option<&str>, loc: &Locale, max_width: f64) -> Vec<Tick> {
+pub fn left_ticks(scale: &PositionScale, length: f64, wanted: usize, pattern: Option<&str>, loc: &Locale, max_width: f64, ts: f64) -> Vec<Tick> {
     let opts = |wanted: usize| TickOptions { wanted, pattern, locale: loc, short: false };
-    let line = TICK_SIZE * text::LINE_HEIGHT;
+    let line = ts * text::LINE_HEIGHT;
     let spaced = |t: &[Tick], need: f64| t.windows(2).all(|w| (w[1].unit - w[0].unit).abs() * length >= need);
     let mut ticks = if scale.is_discrete() {
         let full = scale.ticks_with(&opts(wanted));
@@ -175,7 +178,7 @@ pub fn left_ticks(scale: &PositionScale, length: f64, wanted: usize, pattern: Op
         t
     };
     // Shorten labels wider than the allowance.
-    if ticks.iter().any(|t| label_width(t) > max_width) {
+    if ticks.iter().any(|t| label_width(t, ts) > max_width) {
         if !scale.is_discrete() {
             let short = scale.ticks_with(&TickOptions { wanted: ticks.len().max(2), pattern, locale: loc, short: true });
             if short.len() == ticks.len() {
@@ -183,24 +186,24 @@ pub fn left_ticks(scale: &PositionScale, length: f64, wanted: usize, pattern: Op
             }
         }
         for t in ticks.iter_mut() {
-            t.label = text::fit(&t.label, TICK_SIZE, false, max_width);
+            t.label = text::fit(&t.label, ts, false, max_width);
         }
     }
     ticks
 }
 
 /// Widest tick label, for the left margin.
-pub fn widest_label(ticks: &[Tick]) -> f64 {
-    ticks.iter().map(label_width).fold(0.0, f64::max)
+pub fn widest_label(ticks: &[Tick], ts: f64) -> f64 {
+    ticks.iter().map(|t| label_width(t, ts)).fold(0.0, f64::max)
 }
 
 /// An axis title centred at (x, y), shortened to fit `length`, turned by `angle`.
-pub fn axis_title(x: f64, y: f64, title: &str, length: f64, angle: f64, pal: &Palette) -> Node {
+pub fn axis_title(x: f64, y: f64, title: &str, length: f64, angle: f64, pal: &Palette, ts: f64) -> Node {
     Node::Text {
         x,
         y,
-        text: text::fit(title, TITLE_SIZE, false, length),
-        size: TITLE_SIZE,
+        text: text::fit(title, ts, false, length),
+        size: ts,
         anchor: Anchor::Middle,
         bold: false,
         angle,
@@ -209,8 +212,8 @@ pub fn axis_title(x: f64, y: f64, title: &str, length: f64, angle: f64, pal: &Pa
     }
 }
 
-fn label(x: f64, y: f64, s: &str, anchor: Anchor, fill: &str, class: &str) -> Node {
-    Node::Text { x, y, text: s.to_string(), size: TICK_SIZE, anchor, bold: false, angle: 0.0, fill: fill.to_string(), class: class.to_string() }
+fn label(x: f64, y: f64, s: &str, anchor: Anchor, fill: &str, class: &str, ts: f64) -> Node {
+    Node::Text { x, y, text: s.to_string(), size: ts, anchor, bold: false, angle: 0.0, fill: fill.to_string(), class: class.to_string() }
 }
 
 /// Grid lines for continuous scales (drawn under the marks).
@@ -236,8 +239,9 @@ pub fn grid(axis: &AxisGuide, coord: &Coord, pal: &Palette) -> Vec<Node> {
 
 /// Axis line, tick labels and title.
 pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node {
+    let ts = axis.size;
     let mut kids = Vec::new();
-    let baseline = TICK_SIZE * text::ASCENT;
+    let baseline = ts * text::ASCENT;
     match axis.side {
         Side::Bottom => {
             kids.push(Node::Line { x1: f.left, y1: f.bottom(), x2: f.right(), y2: f.bottom(), paint: Paint::stroke(&pal.axis, 1.0) });
@@ -245,12 +249,12 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
                 let x = f.left + t.unit * f.width;
                 if axis.angle != 0.0 {
                     // Rotated about the label's end, just below the tick.
-                    let y = f.bottom() + GAP + TICK_SIZE * text::CAP / 2.0;
+                    let y = f.bottom() + GAP + ts * text::CAP / 2.0;
                     kids.push(Node::Text {
-                        x: x + TICK_SIZE * 0.3,
+                        x: x + ts * 0.3,
                         y,
                         text: t.label.clone(),
-                        size: TICK_SIZE,
+                        size: ts,
                         anchor: Anchor::End,
                         bold: false,
                         angle: axis.angle,
@@ -258,13 +262,13 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
                         class: "strata-tick".into(),
                     });
                 } else {
-                    kids.push(label(x, f.bottom() + GAP + baseline - TICK_SIZE * (text::LINE_HEIGHT - 1.0) / 2.0, &t.label, Anchor::Middle, &pal.muted, "strata-tick"));
+                    kids.push(label(x, f.bottom() + GAP + baseline - ts * (text::LINE_HEIGHT - 1.0) / 2.0, &t.label, Anchor::Middle, &pal.muted, "strata-tick", ts));
                 }
             }
             if !axis.title.is_empty() {
-                let labels_h = bottom_labels_height(&axis.ticks, axis.angle);
-                let y = f.bottom() + GAP + labels_h + GAP + TITLE_SIZE * text::ASCENT;
-                kids.push(axis_title(f.left + f.width / 2.0, y, axis.title, f.width, 0.0, pal));
+                let labels_h = bottom_labels_height(&axis.ticks, axis.angle, ts);
+                let y = f.bottom() + GAP + labels_h + GAP + ts * text::ASCENT;
+                kids.push(axis_title(f.left + f.width / 2.0, y, axis.title, f.width, 0.0, pal, ts));
             }
         }
         Side::Left => {
@@ -273,25 +277,25 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
             }
             for t in &axis.ticks {
                 let y = f.bottom() - t.unit * f.height;
-                kids.push(label(f.left - GAP, y + TICK_SIZE * text::CAP / 2.0, &t.label, Anchor::End, &pal.muted, "strata-tick"));
+                kids.push(label(f.left - GAP, y + ts * text::CAP / 2.0, &t.label, Anchor::End, &pal.muted, "strata-tick", ts));
             }
             if !axis.title.is_empty() {
-                let x = f.left - GAP - label_width - GAP - TITLE_SIZE * (text::LINE_HEIGHT - text::ASCENT);
-                kids.push(axis_title(x, f.top + f.height / 2.0, axis.title, f.height, -90.0, pal));
+                let x = f.left - GAP - label_width - GAP - ts * (text::LINE_HEIGHT - text::ASCENT);
+                kids.push(axis_title(x, f.top + f.height / 2.0, axis.title, f.height, -90.0, pal, ts));
             }
         }
         Side::Top => {
             kids.push(Node::Line { x1: f.left, y1: f.top, x2: f.right(), y2: f.top, paint: Paint::stroke(&pal.axis, 1.0) });
-            let labels_h = bottom_labels_height(&axis.ticks, axis.angle);
+            let labels_h = bottom_labels_height(&axis.ticks, axis.angle, ts);
             for t in &axis.ticks {
                 let x = f.left + t.unit * f.width;
                 if axis.angle != 0.0 {
                     // Rotated about the label's start, just above the tick, reading upward.
                     kids.push(Node::Text {
-                        x: x - TICK_SIZE * 0.3,
-                        y: f.top - GAP - TICK_SIZE * text::CAP / 2.0 + TICK_SIZE * text::CAP,
+                        x: x - ts * 0.3,
+                        y: f.top - GAP - ts * text::CAP / 2.0 + ts * text::CAP,
                         text: t.label.clone(),
-                        size: TICK_SIZE,
+                        size: ts,
                         anchor: Anchor::Start,
                         bold: false,
                         angle: axis.angle,
@@ -299,13 +303,13 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
                         class: "strata-tick".into(),
                     });
                 } else {
-                    let y = f.top - GAP - TICK_SIZE * text::LINE_HEIGHT + baseline - TICK_SIZE * (text::LINE_HEIGHT - 1.0) / 2.0;
-                    kids.push(label(x, y, &t.label, Anchor::Middle, &pal.muted, "strata-tick"));
+                    let y = f.top - GAP - ts * text::LINE_HEIGHT + baseline - ts * (text::LINE_HEIGHT - 1.0) / 2.0;
+                    kids.push(label(x, y, &t.label, Anchor::Middle, &pal.muted, "strata-tick", ts));
                 }
             }
             if !axis.title.is_empty() {
-                let y = f.top - GAP - labels_h - GAP - TITLE_SIZE * text::LINE_HEIGHT + TITLE_SIZE * text::ASCENT;
-                kids.push(axis_title(f.left + f.width / 2.0, y, axis.title, f.width, 0.0, pal));
+                let y = f.top - GAP - labels_h - GAP - ts * text::LINE_HEIGHT + ts * text::ASCENT;
+                kids.push(axis_title(f.left + f.width / 2.0, y, axis.title, f.width, 0.0, pal, ts));
             }
         }
         Side::Right => {
@@ -314,11 +318,11 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
             }
             for t in &axis.ticks {
                 let y = f.bottom() - t.unit * f.height;
-                kids.push(label(f.right() + GAP, y + TICK_SIZE * text::CAP / 2.0, &t.label, Anchor::Start, &pal.muted, "strata-tick"));
+                kids.push(label(f.right() + GAP, y + ts * text::CAP / 2.0, &t.label, Anchor::Start, &pal.muted, "strata-tick", ts));
             }
             if !axis.title.is_empty() {
-                let x = f.right() + GAP + label_width + GAP + TITLE_SIZE * text::ASCENT;
-                kids.push(axis_title(x, f.top + f.height / 2.0, axis.title, f.height, 90.0, pal));
+                let x = f.right() + GAP + label_width + GAP + ts * text::ASCENT;
+                kids.push(axis_title(x, f.top + f.height / 2.0, axis.title, f.height, 90.0, pal, ts));
             }
         }
     }
@@ -333,34 +337,33 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
 }
 
 /// Height of a bottom axis's labels (rotated labels stand taller).
-pub fn bottom_labels_height(ticks: &[Tick], angle: f64) -> f64 {
+pub fn bottom_labels_height(ticks: &[Tick], angle: f64, ts: f64) -> f64 {
     if angle == 0.0 {
-        TICK_SIZE * text::LINE_HEIGHT
+        ts * text::LINE_HEIGHT
     } else {
         let s = crate::math::sin((-angle).to_radians());
-        widest_label(ticks) * s + TICK_SIZE * text::LINE_HEIGHT * s
+        widest_label(ticks, ts) * s + ts * text::LINE_HEIGHT * s
     }
 }
 
 /// Room an axis title takes beside its axis: a gap and one line.
-pub fn title_band() -> f64 {
-    GAP + TITLE_SIZE * text::LINE_HEIGHT
+pub fn title_band(ts: f64) -> f64 {
+    GAP + ts * text::LINE_HEIGHT
 }
 
 /// Height the bottom axis needs below the frame.
-pub fn bottom_axis_height(ticks: &[Tick], angle: f64, has_title: bool) -> f64 {
-    GAP + bottom_labels_height(ticks, angle) + if has_title { title_band() } else { 0.0 }
+pub fn bottom_axis_height(ticks: &[Tick], angle: f64, has_title: bool, ts: f64) -> f64 {
+    GAP + bottom_labels_height(ticks, angle, ts) + if has_title { title_band(ts) } else { 0.0 }
 }
 
 /// Width the left axis needs beside the frame.
-pub fn left_axis_width(label_width: f64, has_title: bool) -> f64 {
-    GAP + label_width + if has_title { title_band() } else { 0.0 }
+pub fn left_axis_width(label_width: f64, has_title: bool, ts: f64) -> f64 {
+    GAP + label_width + if has_title { title_band(ts) } else { 0.0 }
 }
 
 // ---------------------------------------------------------------- legends
 
 const SWATCH: f64 = 10.0;
-const ROW: f64 = TICK_SIZE * text::LINE_HEIGHT;
 const GRADIENT_LENGTH: f64 = 120.0;
 const GRADIENT_THICKNESS: f64 = 10.0;
 const GRADIENT_STEPS: usize = 48;
@@ -385,10 +388,12 @@ pub struct Legend {
     pub body: LegendBody,
     /// `color`, `size` or `shape`.
     pub channel: &'static str,
+    /// Text size of its title and labels.
+    pub size: f64,
 }
 
 /// The legends the scales call for, in the order colour, size, shape.
-pub fn legends(scales: &Scales, default_color: &str) -> Vec<Legend> {
+pub fn legends(scales: &Scales, default_color: &str, size: f64) -> Vec<Legend> {
     let mut out = Vec::new();
     let loc = scales.locale;
     let hidden = |s: &crate::spec::ScaleSpec| s.hide || s.legend == Some(crate::spec::Placement::None);
@@ -399,7 +404,7 @@ pub fn legends(scales: &Scales, default_color: &str) -> Vec<Legend> {
         Some(ColorScale::Categories(cats)) if !hidden(&scales.color_spec) => {
             let vals = crate::plan::Values::Text(cats.iter().cloned().map(Some).collect());
             let items = cats.iter().enumerate().map(|(i, c)| (c.clone(), scales.color_of(&vals, i).unwrap_or_default())).collect();
-            out.push(Legend { title: scales.color_title.clone(), body: LegendBody::Swatches(items), channel: "color" });
+            out.push(Legend { title: scales.color_title.clone(), body: LegendBody::Swatches(items), channel: "color", size });
         }
         Some(ColorScale::Ramp { lo, hi }) if !hidden(&scales.color_spec) => {
             let (lo, hi) = (*lo, *hi);
@@ -408,7 +413,7 @@ pub fn legends(scales: &Scales, default_color: &str) -> Vec<Legend> {
                 .collect();
             let scale = PositionScale::linear(lo, hi);
             let ticks = scale.ticks_with(&TickOptions { wanted: 3, pattern: scales.color_spec.format.as_deref(), locale: loc, short: false });
-            out.push(Legend { title: scales.color_title.clone(), body: LegendBody::Gradient { colors, ticks }, channel: "color" });
+            out.push(Legend { title: scales.color_title.clone(), body: LegendBody::Gradient { colors, ticks }, channel: "color", size });
         }
         _ => {}
     }
@@ -418,14 +423,14 @@ pub fn legends(scales: &Scales, default_color: &str) -> Vec<Legend> {
             let step = if vals.len() > 1 { vals[1] - vals[0] } else { vals.first().copied().unwrap_or(1.0) };
             let pattern = scales.size_spec.format.clone().unwrap_or_else(|| crate::format::default_pattern(step));
             let items = vals.iter().filter_map(|v| Some((crate::format::number(*v, &pattern, loc), s.radius(*v)?))).collect();
-            out.push(Legend { title: scales.size_title.clone(), body: LegendBody::Sizes(items), channel: "size" });
+            out.push(Legend { title: scales.size_title.clone(), body: LegendBody::Sizes(items), channel: "size", size });
         }
     }
     if let Some(cats) = &scales.shape {
         if !hidden(&scales.shape_spec) {
             let vals = crate::plan::Values::Text(cats.iter().cloned().map(Some).collect());
             let items = cats.iter().enumerate().map(|(i, c)| (c.clone(), i, merged.then(|| scales.color_of(&vals, i)).flatten())).collect();
-            let l = Legend { title: scales.shape_title.clone(), body: LegendBody::Shapes(items), channel: "shape" };
+            let l = Legend { title: scales.shape_title.clone(), body: LegendBody::Shapes(items), channel: "shape", size };
             if merged { out.insert(0, l) } else { out.push(l) }
         }
     }
@@ -433,8 +438,8 @@ pub fn legends(scales: &Scales, default_color: &str) -> Vec<Legend> {
     out
 }
 
-fn item_width(label: &str, lead: f64) -> f64 {
-    lead + 6.0 + text::width(label, TICK_SIZE, false)
+fn item_width(label: &str, lead: f64, ts: f64) -> f64 {
+    lead + 6.0 + text::width(label, ts, false)
 }
 
 fn lead(body: &LegendBody) -> f64 {
@@ -444,24 +449,26 @@ fn lead(body: &LegendBody) -> f64 {
     }
 }
 
-fn row_height(body: &LegendBody) -> f64 {
+fn row_height(body: &LegendBody, ts: f64) -> f64 {
     match body {
-        LegendBody::Sizes(items) => items.iter().map(|(_, r)| 2.0 * r + 4.0).fold(ROW, f64::max),
-        _ => ROW,
+        LegendBody::Sizes(items) => items.iter().map(|(_, r)| 2.0 * r + 4.0).fold(ts * text::LINE_HEIGHT, f64::max),
+        _ => ts * text::LINE_HEIGHT,
     }
 }
 
 fn title_height(l: &Legend) -> f64 {
-    if l.title.is_empty() { 0.0 } else { ROW }
+    let ts = l.size;
+    if l.title.is_empty() { 0.0 } else { ts * text::LINE_HEIGHT }
 }
 
 /// Size of a legend laid out as a column.
 pub fn column_size(l: &Legend) -> (f64, f64) {
-    let tw = text::width(&l.title, TICK_SIZE, true);
+    let ts = l.size;
+    let tw = text::width(&l.title, ts, true);
     match &l.body {
         LegendBody::Gradient { ticks, .. } => {
-            let w = GRADIENT_THICKNESS + 6.0 + widest_label(ticks);
-            (w.max(tw), title_height(l) + GRADIENT_LENGTH + TICK_SIZE)
+            let w = GRADIENT_THICKNESS + 6.0 + widest_label(ticks, ts);
+            (w.max(tw), title_height(l) + GRADIENT_LENGTH + ts)
         }
         body => {
             let labels: Vec<&String> = match body {
@@ -470,8 +477,8 @@ pub fn column_size(l: &Legend) -> (f64, f64) {
                 LegendBody::Shapes(i) => i.iter().map(|x| &x.0).collect(),
                 LegendBody::Gradient { .. } => vec![],
             };
-            let w = labels.iter().map(|s| item_width(s, lead(body))).fold(tw, f64::max);
-            (w, title_height(l) + row_height(body) * labels.len() as f64)
+            let w = labels.iter().map(|s| item_width(s, lead(body), ts)).fold(tw, f64::max);
+            (w, title_height(l) + row_height(body, ts) * labels.len() as f64)
         }
     }
 }
@@ -484,9 +491,10 @@ pub fn row_size(l: &Legend, max_width: f64) -> (f64, f64) {
 
 /// Item positions (x, row) for a row layout, total height and widest row.
 fn row_layout(l: &Legend, max_width: f64) -> (Vec<(f64, usize)>, f64, f64) {
+    let ts = l.size;
     let body = &l.body;
     if let LegendBody::Gradient { .. } = body {
-        return (vec![], title_height(l) + GRADIENT_THICKNESS + 4.0 + ROW, GRADIENT_LENGTH.max(text::width(&l.title, TICK_SIZE, true)));
+        return (vec![], title_height(l) + GRADIENT_THICKNESS + 4.0 + ts * text::LINE_HEIGHT, GRADIENT_LENGTH.max(text::width(&l.title, ts, true)));
     }
     let labels: Vec<&String> = match body {
         LegendBody::Swatches(i) => i.iter().map(|x| &x.0).collect(),
@@ -497,7 +505,7 @@ fn row_layout(l: &Legend, max_width: f64) -> (Vec<(f64, usize)>, f64, f64) {
     let mut pos = Vec::new();
     let (mut x, mut row, mut widest) = (0.0, 0usize, 0.0f64);
     for s in labels {
-        let w = item_width(&text::fit(s, TICK_SIZE, false, max_width - lead(body) - 6.0), lead(body));
+        let w = item_width(&text::fit(s, ts, false, max_width - lead(body) - 6.0), lead(body), ts);
         if x > 0.0 && x + w > max_width {
             row += 1;
             x = 0.0;
@@ -507,15 +515,16 @@ fn row_layout(l: &Legend, max_width: f64) -> (Vec<(f64, usize)>, f64, f64) {
         widest = widest.max(x - 14.0);
     }
     let rows = if pos.is_empty() { 0 } else { row + 1 };
-    (pos, title_height(l) + row_height(body) * rows as f64, widest.max(text::width(&l.title, TICK_SIZE, true)))
+    (pos, title_height(l) + row_height(body, ts) * rows as f64, widest.max(text::width(&l.title, ts, true)))
 }
 
 fn legend_title(l: &Legend, x: f64, y: f64, pal: &Palette) -> Option<Node> {
+    let ts = l.size;
     (!l.title.is_empty()).then(|| Node::Text {
         x,
-        y: y + TICK_SIZE * text::ASCENT,
+        y: y + ts * text::ASCENT,
         text: l.title.clone(),
-        size: TICK_SIZE,
+        size: ts,
         anchor: Anchor::Start,
         bold: true,
         angle: 0.0,
@@ -557,6 +566,7 @@ fn labels_of(body: &LegendBody) -> Vec<String> {
 }
 
 fn gradient(l: &Legend, x: f64, y: f64, vertical: bool, pal: &Palette) -> Vec<Node> {
+    let ts = l.size;
     let LegendBody::Gradient { colors, ticks } = &l.body else { return vec![] };
     let mut kids = Vec::new();
     let n = colors.len() as f64;
@@ -573,10 +583,10 @@ fn gradient(l: &Legend, x: f64, y: f64, vertical: bool, pal: &Palette) -> Vec<No
     for t in ticks {
         if vertical {
             let ty = y + GRADIENT_LENGTH * (1.0 - t.unit);
-            kids.push(label(x + GRADIENT_THICKNESS + 6.0, ty + TICK_SIZE * text::CAP / 2.0, &t.label, Anchor::Start, &pal.muted, "strata-tick"));
+            kids.push(label(x + GRADIENT_THICKNESS + 6.0, ty + ts * text::CAP / 2.0, &t.label, Anchor::Start, &pal.muted, "strata-tick", ts));
         } else {
             let tx = x + GRADIENT_LENGTH * t.unit;
-            kids.push(label(tx, y + GRADIENT_THICKNESS + 4.0 + TICK_SIZE * text::ASCENT, &t.label, Anchor::Middle, &pal.muted, "strata-tick"));
+            kids.push(label(tx, y + GRADIENT_THICKNESS + 4.0 + ts * text::ASCENT, &t.label, Anchor::Middle, &pal.muted, "strata-tick", ts));
         }
     }
     kids
@@ -584,21 +594,22 @@ fn gradient(l: &Legend, x: f64, y: f64, vertical: bool, pal: &Palette) -> Vec<No
 
 /// A legend as a column with its top-left corner at (x, y).
 pub fn column(l: &Legend, x: f64, y: f64, pal: &Palette, default_color: &str) -> Node {
+    let ts = l.size;
     let mut kids = Vec::new();
     let mut row = y;
     if let Some(t) = legend_title(l, x, row, pal) {
         kids.push(t);
-        row += ROW;
+        row += ts * text::LINE_HEIGHT;
     }
     if let LegendBody::Gradient { .. } = &l.body {
-        kids.extend(gradient(l, x, row + TICK_SIZE / 2.0, true, pal));
+        kids.extend(gradient(l, x, row + ts / 2.0, true, pal));
     } else {
         let lead = lead(&l.body);
-        let rh = row_height(&l.body);
+        let rh = row_height(&l.body, ts);
         for (i, s) in labels_of(&l.body).iter().enumerate() {
             let mid = row + rh / 2.0;
             kids.push(symbol(&l.body, i, x + lead / 2.0, mid, pal, default_color));
-            kids.push(label(x + lead + 6.0, mid + TICK_SIZE * text::CAP / 2.0, s, Anchor::Start, &pal.text, "strata-legend-label"));
+            kids.push(label(x + lead + 6.0, mid + ts * text::CAP / 2.0, s, Anchor::Start, &pal.text, "strata-legend-label", ts));
             row += rh;
         }
     }
@@ -607,24 +618,25 @@ pub fn column(l: &Legend, x: f64, y: f64, pal: &Palette, default_color: &str) ->
 
 /// A legend as wrapped rows within `max_width`, top-left corner at (x, y).
 pub fn rows(l: &Legend, x: f64, y: f64, max_width: f64, pal: &Palette, default_color: &str) -> Node {
+    let ts = l.size;
     let mut kids = Vec::new();
     let mut top = y;
     if let Some(t) = legend_title(l, x, top, pal) {
         kids.push(t);
-        top += ROW;
+        top += ts * text::LINE_HEIGHT;
     }
     if let LegendBody::Gradient { .. } = &l.body {
         kids.extend(gradient(l, x, top, false, pal));
     } else {
         let (pos, _, _) = row_layout(l, max_width);
         let lead = lead(&l.body);
-        let rh = row_height(&l.body);
+        let rh = row_height(&l.body, ts);
         for (i, s) in labels_of(&l.body).iter().enumerate() {
             let (ix, r) = pos[i];
             let mid = top + rh * r as f64 + rh / 2.0;
             kids.push(symbol(&l.body, i, x + ix + lead / 2.0, mid, pal, default_color));
-            let shown = text::fit(s, TICK_SIZE, false, max_width - lead - 6.0);
-            kids.push(label(x + ix + lead + 6.0, mid + TICK_SIZE * text::CAP / 2.0, &shown, Anchor::Start, &pal.text, "strata-legend-label"));
+            let shown = text::fit(s, ts, false, max_width - lead - 6.0);
+            kids.push(label(x + ix + lead + 6.0, mid + ts * text::CAP / 2.0, &shown, Anchor::Start, &pal.text, "strata-legend-label", ts));
         }
     }
     wrap_legend(l, kids)
@@ -651,13 +663,13 @@ mod tests {
         let s = PositionScale::Category { values: cats, padding: 0.1 };
         let en = format::english();
         // Wide: every label fits as is.
-        let (t, a) = bottom_ticks(&s, 4000.0, 6, None, en, 80.0);
+        let (t, a) = bottom_ticks(&s, 4000.0, 6, None, en, 80.0, TICK_SIZE);
         assert_eq!((t.len(), a), (12, 0.0));
         // Narrower: every other label.
-        let (t, a) = bottom_ticks(&s, 1500.0, 6, None, en, 80.0);
+        let (t, a) = bottom_ticks(&s, 1500.0, 6, None, en, 80.0, TICK_SIZE);
         assert_eq!((t.len(), a), (6, 0.0));
         // Narrow: rotated, and cut to fit the height allowance.
-        let (t, a) = bottom_ticks(&s, 400.0, 6, None, en, 60.0);
+        let (t, a) = bottom_ticks(&s, 400.0, 6, None, en, 60.0, TICK_SIZE);
         assert_eq!(a, ROTATION);
         assert_eq!(t.len(), 12);
         let max_w = 60.0 / crate::math::sin((-ROTATION).to_radians());
@@ -669,9 +681,9 @@ mod tests {
     #[test]
     fn shortened_labels_stay_apart() {
         let labels: Vec<String> = (1..=3).map(|i| format!("Category number {i} with a long name")).collect();
-        let s = shorten_all(&labels, 70.0);
+        let s = shorten_all(&labels, 70.0, TICK_SIZE);
         assert_eq!(s, ["\u{2026}1\u{2026}", "\u{2026}2\u{2026}", "\u{2026}3\u{2026}"]);
-        let plain = shorten_all(&["Bramley".to_string(), "Discovery".to_string()], 40.0);
+        let plain = shorten_all(&["Bramley".to_string(), "Discovery".to_string()], 40.0, TICK_SIZE);
         assert!(plain[0].starts_with("Bra") && plain[1].starts_with("Dis"));
     }
 
@@ -679,25 +691,25 @@ mod tests {
     fn crowded_numbers_get_fewer_ticks() {
         let s = PositionScale::linear(0.0, 1_000_000.0);
         let en = format::english();
-        let (wide, _) = bottom_ticks(&s, 800.0, 10, None, en, 80.0);
-        let (narrow, a) = bottom_ticks(&s, 150.0, 10, None, en, 80.0);
+        let (wide, _) = bottom_ticks(&s, 800.0, 10, None, en, 80.0, TICK_SIZE);
+        let (narrow, a) = bottom_ticks(&s, 150.0, 10, None, en, 80.0, TICK_SIZE);
         assert!(narrow.len() < wide.len() && a == 0.0);
-        assert!(fits_across(&narrow, 150.0));
+        assert!(fits_across(&narrow, 150.0, TICK_SIZE));
     }
 }
 
 // ---------------------------------------------------------------- polar
 
 /// Room polar labels need around the circle: (horizontal, vertical) in px.
-pub fn polar_margin(angle_ticks: &[Tick]) -> (f64, f64) {
-    let widest = angle_ticks.iter().map(label_width).fold(0.0, f64::max);
-    (widest + LABEL_GAP, TICK_SIZE * text::LINE_HEIGHT + LABEL_GAP)
+pub fn polar_margin(angle_ticks: &[Tick], ts: f64) -> (f64, f64) {
+    let widest = angle_ticks.iter().map(|t| label_width(t, ts)).fold(0.0, f64::max);
+    (widest + LABEL_GAP, ts * text::LINE_HEIGHT + LABEL_GAP)
 }
 
 /// Guides of polar coordinates: circles at the radius ticks (labelled along
 /// the starting spoke), spokes at the angle ticks, and angle labels just
 /// outside the circle.
-pub fn polar(coord: &Coord, angle_is_x: bool, angle_ticks: &[Tick], radius_ticks: &[Tick], pal: &Palette) -> Vec<Node> {
+pub fn polar(coord: &Coord, angle_is_x: bool, angle_ticks: &[Tick], radius_ticks: &[Tick], pal: &Palette, ts: f64) -> Vec<Node> {
     let f = coord.frame();
     let (cx, cy, _) = super::coord::polar_centre(f);
     // Unit coordinates in the coordinate system's (x, y) order.
@@ -725,15 +737,15 @@ pub fn polar(coord: &Coord, angle_is_x: bool, angle_ticks: &[Tick], radius_ticks
         let (lx, ly) = (x + ux * LABEL_GAP, y + uy * LABEL_GAP);
         let anchor = if ux > 0.3 { Anchor::Start } else if ux < -0.3 { Anchor::End } else { Anchor::Middle };
         // Baseline so that the text sits outside the circle above and below.
-        let baseline = ly + TICK_SIZE * (0.35 + 0.45 * uy);
-        labels.push(label(lx, baseline, &t.label, anchor, &pal.muted, "strata-tick"));
+        let baseline = ly + ts * (0.35 + 0.45 * uy);
+        labels.push(label(lx, baseline, &t.label, anchor, &pal.muted, "strata-tick", ts));
     }
     for t in radius_ticks {
         if !(0.0..=1.0 + 1e-9).contains(&t.unit) || t.unit <= 1e-9 {
             continue;
         }
         let (x, y) = at(0.0, t.unit);
-        labels.push(label(x + 3.0, y - 3.0, &t.label, Anchor::Start, &pal.muted, "strata-tick"));
+        labels.push(label(x + 3.0, y - 3.0, &t.label, Anchor::Start, &pal.muted, "strata-tick", ts));
     }
     vec![
         Node::Group { class: "strata-grid".into(), role: None, label: None, children: grid },

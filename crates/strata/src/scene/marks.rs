@@ -15,6 +15,8 @@ pub struct Ctx<'a> {
     pub scales: &'a Scales,
     pub coord: Coord,
     pub default_color: &'a str,
+    /// The chart's tick-label size; label marks default to 11/12 of it.
+    pub text_size: f64,
 }
 
 /// Channels kept out of a mark's datum: drawing aids, not data.
@@ -692,7 +694,7 @@ fn labels(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     let d = &layer.data;
     let (Some(xv), Some(yv)) = (d.get("x"), d.get("y")) else { return vec![] };
     let tv = d.get("text").or(d.get("y"));
-    let size = layer.style.font_size.filter(|s| s.is_finite() && *s > 0.0).unwrap_or(11.0);
+    let size = layer.style.font_size.filter(|s| s.is_finite() && *s > 0.0).unwrap_or(ctx.text_size * 11.0 / 12.0);
     let mut out = Vec::new();
     for i in 0..d.len {
         let (Some(a), Some(b)) = (ux(ctx, layer, xv, i), ctx.scales.y.unit(yv, i)) else { continue };

@@ -11,8 +11,6 @@ use crate::spec::Note;
 use crate::text;
 use serde_json::Value;
 
-const SIZE: f64 = 12.0;
-
 /// Unit position of a note's value on a scale: a number, a category, or an
 /// ISO 8601 date or date-time on a time scale.
 fn unit(scale: &PositionScale, v: &Value) -> Option<f64> {
@@ -36,8 +34,9 @@ fn inside(u: f64) -> bool {
     (-1e-9..=1.0 + 1e-9).contains(&u)
 }
 
-/// Text boxes already placed, to keep notes from covering each other.
-struct Placed(Vec<(f64, f64, f64, f64)>);
+/// Text boxes already placed, to keep notes from covering each other; and
+/// the notes' text size.
+struct Placed(Vec<(f64, f64, f64, f64)>, f64);
 
 impl Placed {
     /// Move (x, baseline) down a line at a time until the box is free.
@@ -47,16 +46,16 @@ impl Placed {
             Anchor::Middle => x - w / 2.0,
             Anchor::End => x - w,
         };
-        let line = SIZE * text::LINE_HEIGHT;
+        let line = self.1 * text::LINE_HEIGHT;
         let mut y = y;
         for _ in 0..8 {
-            let (top, bottom) = (y - SIZE * text::ASCENT, y - SIZE * text::ASCENT + line);
+            let (top, bottom) = (y - self.1 * text::ASCENT, y - self.1 * text::ASCENT + line);
             if !self.0.iter().any(|(l, t, r, b)| left < *r && left + w > *l && top < *b && bottom > *t) {
                 break;
             }
             y += line;
         }
-        self.0.push((left, y - SIZE * text::ASCENT, left + w, y - SIZE * text::ASCENT + line));
+        self.0.push((left, y - self.1 * text::ASCENT, left + w, y - self.1 * text::ASCENT + line));
         y
     }
 }
@@ -123,7 +122,7 @@ fn reference(coord: &Coord, a: (f64, f64), b: (f64, f64), pal: &Palette) -> (Nod
 }
 
 /// The notes of a plot area, drawn over its marks.
-pub fn draw(notes: &[Note], scales: &Scales, coord: &Coord, pal: &Palette) -> Option<Node> {
+pub fn draw(notes: &[Note], scales: &Scales, coord: &Coord, pal: &Palette, size: f64) -> Option<Node> {
     if notes.is_empty() {
         return None;
     }
@@ -131,12 +130,12 @@ pub fn draw(notes: &[Note], scales: &Scales, coord: &Coord, pal: &Palette) -> Op
     let mut spans = Vec::new();
     let mut lines = Vec::new();
     let mut texts = Vec::new();
-    let mut placed = Placed(Vec::new());
+    let mut placed = Placed(Vec::new(), size);
     let label = |x: f64, y: f64, s: &str, anchor: Anchor| Node::Text {
         x,
         y,
         text: s.to_string(),
-        size: SIZE,
+        size,
         anchor,
         bold: false,
         angle: 0.0,
@@ -149,7 +148,7 @@ pub fn draw(notes: &[Note], scales: &Scales, coord: &Coord, pal: &Palette) -> Op
         let uy = n.y.as_ref().and_then(|v| unit(&scales.y, v));
         let uye = n.y_end.as_ref().and_then(|v| unit(&scales.y, v));
         let words = n.text.as_deref().unwrap_or("");
-        let w = text::width(words, SIZE, false);
+        let w = text::width(words, size, false);
         // Where the text goes, in pixels, with its anchor.
         let mut at: Option<(f64, f64, Anchor)> = None;
         match (ux, uxe, uy, uye) {
@@ -171,7 +170,7 @@ pub fn draw(notes: &[Note], scales: &Scales, coord: &Coord, pal: &Palette) -> Op
                             let (px, py) = coord.point(0.5 * (x0 + x1), y1);
                             (px + 4.0, py - 4.0, Anchor::Start)
                         } else {
-                            (x + 4.0, y + SIZE * text::ASCENT + 3.0, Anchor::Start)
+                            (x + 4.0, y + size * text::ASCENT + 3.0, Anchor::Start)
                         });
                     }
                 }
@@ -188,7 +187,7 @@ pub fn draw(notes: &[Note], scales: &Scales, coord: &Coord, pal: &Palette) -> Op
                             let (px, py) = coord.point(0.0, y1);
                             (px + 4.0, py - 4.0, Anchor::Start)
                         } else {
-                            (x + width - 4.0, y + SIZE * text::ASCENT + 3.0, Anchor::End)
+                            (x + width - 4.0, y + size * text::ASCENT + 3.0, Anchor::End)
                         });
                     }
                 }
@@ -208,7 +207,7 @@ pub fn draw(notes: &[Note], scales: &Scales, coord: &Coord, pal: &Palette) -> Op
                 at = polar_text(coord, false, x).or_else(|| {
                     let (tx, ty) = (x1.max(x2), y1.min(y2));
                     let anchor = if tx + w + 4.0 > frame.right() { Anchor::End } else { Anchor::Start };
-                    Some((if anchor == Anchor::End { tx - 4.0 } else { tx + 4.0 }, ty + SIZE * text::ASCENT + 2.0, anchor))
+                    Some((if anchor == Anchor::End { tx - 4.0 } else { tx + 4.0 }, ty + size * text::ASCENT + 2.0, anchor))
                 });
             }
             (None, None, Some(y), None) if inside(y) => {

@@ -248,7 +248,7 @@ pub fn spec_shape() -> Shape {
             f("grid", color(), "Colour of grid lines."),
             f("axis", color(), "Colour of axis lines and ticks."),
             f("mark", color(), "Colour of marks when no colour channel is mapped."),
-            f("font_size", num(Some(0.0), None), "Base text size in pixels."),
+            f("font_size", num(Some(4.0), Some(72.0)), "Size of tick labels, axis titles, legends and notes in pixels (default 12); titles and labels keep their proportion to it."),
         ]),
     ]);
     obj(vec![
