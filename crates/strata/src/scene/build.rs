@@ -154,6 +154,7 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
     // a quarter of the width; otherwise rows on top.
     let legends: Vec<Legend> = guides::legends(scales, &pal.mark, ts);
     let mut right = width - pad;
+    let mut left = pad;
     let mut legend_nodes = Vec::new();
     let mut legend_on_right = false;
     if !legends.is_empty() {
@@ -166,15 +167,23 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
         };
         let wants_top = legends.iter().any(|l| matches!(placement_of(l), Some(Placement::Top) | Some(Placement::Bottom)));
         let wants_bottom = legends.iter().any(|l| placement_of(l) == Some(Placement::Bottom));
-        let on_right = !narrow && !wants_top && col_w <= width * 0.25 && col_h <= bottom - top;
-        legend_on_right = on_right;
-        if on_right {
+        let wants_left = legends.iter().any(|l| placement_of(l) == Some(Placement::Left));
+        let on_side = !narrow && !wants_top && col_w <= width * 0.25 && col_h <= bottom - top;
+        legend_on_right = on_side && !wants_left;
+        if on_side {
+            // A column on the right, or on the left when asked (the plot then
+            // starts after it).
+            let x = if wants_left { left } else { right - col_w };
             let mut y = top + 4.0;
             for l in &legends {
-                legend_nodes.push(guides::column(l, right - col_w, y, &pal, &pal.mark));
+                legend_nodes.push(guides::column(l, x, y, &pal, &pal.mark));
                 y += guides::column_size(l).1 + 12.0;
             }
-            right -= col_w + if narrow { 8.0 } else { 16.0 };
+            if wants_left {
+                left += col_w + 16.0;
+            } else {
+                right -= col_w + if narrow { 8.0 } else { 16.0 };
+            }
         } else {
             // Rows on top (or, when asked, at the bottom), side by side when they fit.
             let avail = width - 2.0 * pad;
@@ -204,9 +213,9 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
         }
     }
 
-    let inputs = PlotInputs { spec, pal: &pal, loc, narrow, pad, width, legend_on_right, ts };
+    let inputs = PlotInputs { spec, pal: &pal, loc, narrow, pad, left, width, legend_on_right, ts };
     match crate::plan::split_panels(spec, plan) {
-        None => children.extend(plot_area(&inputs, plan, pad, right, top, bottom)),
+        None => children.extend(plot_area(&inputs, plan, left, right, top, bottom)),
         Some(PanelPlans::Wrap(panels)) => children.extend(panel_grid(&inputs, spec, &panels, right, top, bottom)),
         Some(PanelPlans::Grid { rows, cols, cells }) => children.extend(cell_grid(&inputs, plan, rows.as_deref(), cols.as_deref(), &cells, right, top, bottom)),
     }
@@ -252,7 +261,7 @@ fn panel_grid(inp: &PlotInputs, spec: &Spec, panels: &[(String, Plan)], right: f
     let cols = spec.panels.as_ref().and_then(|p| p.columns).map(|c| c as usize).unwrap_or(default_cols).clamp(1, n.max(1));
     let rows = n.div_ceil(cols);
     let (gap_x, gap_y) = panel_gaps(inp.narrow);
-    let x0 = inp.pad;
+    let x0 = inp.left;
     let cell_w = ((right - x0) - gap_x * (cols - 1) as f64) / cols as f64;
     let cell_h = ((bottom - top) - gap_y * (rows - 1) as f64) / rows as f64;
     panels
@@ -295,7 +304,7 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, rows: Option<&[String]>, cols: Optio
     let col_strip = if cols.is_some() { strip(inp.ts) } else { 0.0 };
 
     // The room for panels, inside the axis titles and the strips.
-    let x_start = inp.pad + if !v_title.is_empty() && !v_right { band } else { 0.0 };
+    let x_start = inp.left + if !v_title.is_empty() && !v_right { band } else { 0.0 };
     let x_end = right - row_strip - if !v_title.is_empty() && v_right { band } else { 0.0 };
     let strip_top = top + if !h_title.is_empty() && h_top { band } else { 0.0 };
     let y_start = strip_top + col_strip;
@@ -386,7 +395,7 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, rows: Option<&[String]>, cols: Optio
         titles.push(guides::axis_title((span_left + span_right) / 2.0, y, h_title, span_right - span_left, 0.0, inp.pal, inp.ts));
     }
     if !v_title.is_empty() {
-        let (x, angle) = if v_right { (right - inp.ts * text::ASCENT, 90.0) } else { (inp.pad + inp.ts * text::ASCENT, -90.0) };
+        let (x, angle) = if v_right { (right - inp.ts * text::ASCENT, 90.0) } else { (inp.left + inp.ts * text::ASCENT, -90.0) };
         titles.push(guides::axis_title(x, (span_top + span_bottom) / 2.0, v_title, span_bottom - span_top, angle, inp.pal, inp.ts));
     }
     if !titles.is_empty() {
@@ -417,6 +426,8 @@ struct PlotInputs<'a> {
     loc: &'a crate::format::Locale,
     narrow: bool,
     pad: f64,
+    /// Where plots start on the left (after a legend placed there).
+    left: f64,
     width: f64,
     legend_on_right: bool,
     /// Size of tick labels, axis titles, legend and strip text.
@@ -487,7 +498,7 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
     };
     let top = top + 4.0;
     // First guess of the plot height, for the vertical ticks (and so the left margin).
-    let guess_h = (bottom - top - 2.0 * TITLE_SIZE * text::LINE_HEIGHT).max(20.0);
+    let guess_h = (bottom - top - 2.0 * TITLE_SIZE * inp.ts / guides::TICK_SIZE * text::LINE_HEIGHT).max(20.0);
     let max_left = width * if narrow { 0.3 } else { 0.25 };
     // Nice ends for the counts that fit (x along the width, y along the height).
     let (h_len_guess, v_len) = ((right - x0 - 60.0).max(20.0), guess_h);
@@ -824,5 +835,22 @@ mod tests {
         // An out-of-range size is a located error.
         let e = render(&spec(r#""theme": { "font_size": 500 },"#), None, &RenderOptions::default()).unwrap_err();
         assert_eq!(e.0[0].at.path, "theme.font_size");
+    }
+
+    #[test]
+    fn a_legend_asked_on_the_left_sits_left_of_the_plot() {
+        let spec = |legend: &str| {
+            format!(r#"{{ "data": {{ "rows": [ {{"m": 1, "v": 120, "g": "Lane gate"}}, {{"m": 2, "v": 340, "g": "River gate"}} ] }},
+                "layers": [ {{ "draw": "point", "x": "m", "y": "v", "color": "g" }} ],
+                "scales": {{ "color": {{ "legend": "{legend}" }} }} }}"#)
+        };
+        let scene = |legend: &str| render(&spec(legend), None, &RenderOptions { scene: SceneOptions { width: 640.0 } }).unwrap().scene;
+        let (left, right) = (scene("left"), scene("right"));
+        let label_right = |s: &Scene| all(s, "strata-legend-label").iter().map(|l| l.0).fold(0.0, f64::max);
+        let ticks_left = |s: &Scene| all(s, "strata-tick").iter().map(|t| t.0).fold(f64::INFINITY, f64::min);
+        // Left: every legend label starts left of every tick label; right: the other way round.
+        assert!(label_right(&left) < ticks_left(&left), "{:?}", all(&left, "strata-legend-label"));
+        assert!(all(&right, "strata-legend-label").iter().all(|l| l.0 > ticks_left(&right)));
+        assert!(ticks_left(&left) > ticks_left(&right) + 50.0);
     }
 }
