@@ -853,4 +853,21 @@ mod tests {
         assert!(all(&right, "strata-legend-label").iter().all(|l| l.0 > ticks_left(&right)));
         assert!(ticks_left(&left) > ticks_left(&right) + 50.0);
     }
+
+    #[test]
+    fn a_right_axis_title_stays_in_its_band() {
+        let spec = r#"{ "data": { "rows": [ {"m": 1, "v": 120000}, {"m": 2, "v": 340000} ] },
+            "layers": [ { "draw": "point", "x": "m", "y": "v" } ],
+            "scales": { "y": { "axis": "right", "title": "Visitors" } } }"#;
+        let s = render(spec, None, &RenderOptions { scene: SceneOptions { width: 640.0 } }).unwrap().scene;
+        let title = all(&s, "strata-axis-title").into_iter().find(|t| t.2 == "Visitors").unwrap();
+        // Tick labels start at their x (anchor start) on the right axis.
+        let ticks_end = all(&s, "strata-tick").iter().filter(|t| t.0 > 320.0).map(|t| t.0 + text::width(&t.2, guides::TICK_SIZE, false)).fold(0.0, f64::max);
+        let size = guides::TICK_SIZE;
+        // Turned +90 degrees, the title's line box runs from its baseline
+        // (LINE_HEIGHT - ASCENT) to the left, ASCENT to the right.
+        let (box_left, box_right) = (title.0 - size * (text::LINE_HEIGHT - text::ASCENT), title.0 + size * text::ASCENT);
+        assert!(box_left >= ticks_end, "title {box_left} overlaps the tick labels ending at {ticks_end}");
+        assert!(box_right <= 640.0 - 16.0 + 1e-9, "title reaches {box_right}, past the padding");
+    }
 }

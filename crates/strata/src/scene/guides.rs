@@ -321,7 +321,9 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
                 kids.push(label(f.right() + GAP, y + ts * text::CAP / 2.0, &t.label, Anchor::Start, &pal.muted, "strata-tick", ts));
             }
             if !axis.title.is_empty() {
-                let x = f.right() + GAP + label_width + GAP + ts * text::ASCENT;
+                // Turned to read downward, the line's top faces right: its
+                // baseline sits the line's depth below ascent from the left.
+                let x = f.right() + GAP + label_width + GAP + ts * (text::LINE_HEIGHT - text::ASCENT);
                 kids.push(axis_title(x, f.top + f.height / 2.0, axis.title, f.height, 90.0, pal, ts));
             }
         }
