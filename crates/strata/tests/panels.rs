@@ -358,3 +358,32 @@ fn too_many_panels_is_an_error_at_the_key() {
     let e = render(r#"{"layers":[{"draw":"point","x":"v","y":"v"}],"panels":{"by":"v"}}"#, Some(DataBytes { bytes: csv.as_bytes(), name: "d.csv" }), &RenderOptions::default());
     assert!(e.is_ok(), "41 values of v are few enough");
 }
+
+/// Wrapped panels (`by`) with shared scales: axes along the grid's edges
+/// only, one title per axis, a strip over each panel. Three panels in two
+/// columns leave the second column's lowest panel in the first row, so
+/// that panel carries the column's x axis.
+#[test]
+fn wrapped_panels_draw_shared_axes_on_the_edges() {
+    let csv = b"k,x,y\nA,1,1\nA,2,4\nB,1,2\nB,3,3\nC,2,5\nC,3,1\n";
+    let spec = r#"{"layers":[{"draw":"point","x":"x","y":"y"}],"panels":{"by":"k","columns":2}}"#;
+    let r = scene(spec, csv);
+    let f = facets(&r.scene);
+    assert_eq!(f.iter().map(|f| f.label.as_str()).collect::<Vec<_>>(), ["panel A", "panel B", "panel C"]);
+    // A (row 0, col 0): left axis only; B (row 0, col 1): bottom axis only;
+    // C (row 1, col 0): both.
+    assert_eq!((f[0].has("strata-axis-left"), f[0].has("strata-axis-bottom")), (true, false));
+    assert_eq!((f[1].has("strata-axis-left"), f[1].has("strata-axis-bottom")), (false, true));
+    assert_eq!((f[2].has("strata-axis-left"), f[2].has("strata-axis-bottom")), (true, true));
+    // The columns line up and the rows too; each strip sits over its own panel.
+    assert!(close(f[0].frame.0, f[2].frame.0) && close(f[0].frame.1, f[1].frame.1));
+    for p in &f {
+        assert_eq!(p.strips.len(), 1);
+        let (words, _, x, y) = &p.strips[0];
+        assert_eq!(format!("panel {words}"), p.label);
+        assert!(close(*x, p.frame.0) && *y < p.frame.1, "{words} strip at {x},{y}, frame {:?}", p.frame);
+    }
+    // One title per axis for the whole grid.
+    let titles = r.svg.matches("class=\"strata-axis-title\"").count();
+    assert_eq!(titles, 2, "{}", r.svg);
+}

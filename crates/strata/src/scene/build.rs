@@ -216,8 +216,8 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
     let inputs = PlotInputs { spec, pal: &pal, loc, narrow, pad, left, width, legend_on_right, ts };
     match crate::plan::split_panels(spec, plan) {
         None => children.extend(plot_area(&inputs, plan, left, right, top, bottom)),
-        Some(PanelPlans::Wrap(panels)) => children.extend(panel_grid(&inputs, spec, &panels, right, top, bottom)),
-        Some(PanelPlans::Grid { rows, cols, cells }) => children.extend(cell_grid(&inputs, plan, rows.as_deref(), cols.as_deref(), &cells, right, top, bottom)),
+        Some(PanelPlans::Wrap(panels)) => children.extend(panel_grid(&inputs, plan, &panels, right, top, bottom)),
+        Some(PanelPlans::Grid { rows, cols, cells }) => children.extend(cell_grid(&inputs, plan, GridNames::Cross { rows: rows.as_deref(), cols: cols.as_deref() }, &cells, right, top, bottom)),
     }
     if !legend_nodes.is_empty() {
         children.push(Node::Group { class: "strata-legends".into(), role: None, label: None, children: legend_nodes });
@@ -252,30 +252,27 @@ fn strip_text(x: f64, y: f64, words: String, anchor: Anchor, angle: f64, pal: &P
     Node::Text { x, y, text: words, size, anchor, bold: true, angle, fill: pal.text.clone(), class: "strata-panel-title".into() }
 }
 
-/// Small multiples by `panels.by`: a grid of plot areas, `panels.columns`
-/// across (default: about square), each under a strip naming its panel and
-/// each with its own axes.
-fn panel_grid(inp: &PlotInputs, spec: &Spec, panels: &[(String, Plan)], right: f64, top: f64, bottom: f64) -> Vec<Node> {
+/// Small multiples by `panels.by`: one panel per value, `panels.columns`
+/// across (default: about square), wrapped into rows, each under a strip
+/// naming it. Laid out by [`cell_grid`], so shared axes are drawn along
+/// the grid's edges only (an x axis under the lowest panel of each column)
+/// and axis titles once.
+fn panel_grid(inp: &PlotInputs, plan: &Plan, panels: &[(String, Plan)], right: f64, top: f64, bottom: f64) -> Vec<Node> {
     let n = panels.len();
     let default_cols = (n as f64).sqrt().ceil() as usize;
-    let cols = spec.panels.as_ref().and_then(|p| p.columns).map(|c| c as usize).unwrap_or(default_cols).clamp(1, n.max(1));
-    let rows = n.div_ceil(cols);
-    let (gap_x, gap_y) = panel_gaps(inp.narrow);
-    let x0 = inp.left;
-    let cell_w = ((right - x0) - gap_x * (cols - 1) as f64) / cols as f64;
-    let cell_h = ((bottom - top) - gap_y * (rows - 1) as f64) / rows as f64;
-    panels
-        .iter()
-        .enumerate()
-        .map(|(i, (key, plan))| {
-            let (r, c) = (i / cols, i % cols);
-            let left = x0 + c as f64 * (cell_w + gap_x);
-            let cell_top = top + r as f64 * (cell_h + gap_y);
-            let mut kids = vec![strip_text(left, cell_top + inp.ts * text::ASCENT, key.clone(), Anchor::Start, 0.0, inp.pal, inp.ts)];
-            kids.extend(plot_area(inp, plan, left, left + cell_w, cell_top + strip(inp.ts), cell_top + cell_h));
-            Node::Group { class: "strata-facet".into(), role: Some("graphics-object".into()), label: Some(format!("panel {key}")), children: kids }
-        })
-        .collect()
+    let cols = inp.spec.panels.as_ref().and_then(|p| p.columns).map(|c| c as usize).unwrap_or(default_cols).clamp(1, n.max(1));
+    let names: Vec<String> = panels.iter().map(|(k, _)| k.clone()).collect();
+    let cells: Vec<Plan> = panels.iter().map(|(_, p)| p.clone()).collect();
+    cell_grid(inp, plan, GridNames::Wrap { names: &names, columns: cols }, &cells, right, top, bottom)
+}
+
+/// How a panel grid names its panels.
+#[derive(Clone, Copy)]
+enum GridNames<'a> {
+    /// `rows` x `cols`: every combination is a cell.
+    Cross { rows: Option<&'a [String]>, cols: Option<&'a [String]> },
+    /// `by`: the panels in order, `columns` to a row, each with its own strip.
+    Wrap { names: &'a [String], columns: usize },
 }
 
 /// Small multiples by `panels.rows` and `panels.cols`: one row of panels
@@ -288,10 +285,22 @@ fn panel_grid(inp: &PlotInputs, spec: &Spec, panels: &[(String, Plan)], right: f
 /// left column, or the sides `scales.*.axis` asks for); a free axis
 /// (`panels.free`) in every panel. Axis titles are drawn once, centred on
 /// the whole grid.
-#[allow(clippy::too_many_arguments)]
-fn cell_grid(inp: &PlotInputs, plan: &Plan, rows: Option<&[String]>, cols: Option<&[String]>, cells: &[Plan], right: f64, top: f64, bottom: f64) -> Vec<Node> {
+///
+/// Wrapped panels (`by`) use the same layout with a strip over every
+/// panel; the last row may be short, and then the x axis of a column
+/// without a panel there is drawn under the panel above.
+fn cell_grid(inp: &PlotInputs, plan: &Plan, names: GridNames, cells: &[Plan], right: f64, top: f64, bottom: f64) -> Vec<Node> {
     let spec = inp.spec;
-    let (nr, nc) = (rows.map_or(1, <[String]>::len), cols.map_or(1, <[String]>::len));
+    let (rows, cols, wrap) = match names {
+        GridNames::Cross { rows, cols } => (rows, cols, None),
+        GridNames::Wrap { names, columns } => (None, None, Some((names, columns))),
+    };
+    let (nr, nc) = match wrap {
+        Some((names, columns)) => (names.len().div_ceil(columns).max(1), columns),
+        None => (rows.map_or(1, <[String]>::len), cols.map_or(1, <[String]>::len)),
+    };
+    // Whether row r, column c holds a panel (a cross grid is full).
+    let exists = |r: usize, c: usize| r * nc + c < cells.len();
     let flip = matches!(spec.coords, Coords::Flip);
     let (free_x, free_y) = crate::plan::free_axes(spec);
     let (free_h, free_v) = if flip { (free_y, free_x) } else { (free_x, free_y) };
@@ -302,6 +311,8 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, rows: Option<&[String]>, cols: Optio
     let band = guides::title_band(inp.ts);
     let row_strip = if rows.is_some() { strip(inp.ts) + 4.0 } else { 0.0 };
     let col_strip = if cols.is_some() { strip(inp.ts) } else { 0.0 };
+    // Wrapped panels: a strip over every panel, so over every row.
+    let each_strip = if wrap.is_some() { strip(inp.ts) } else { 0.0 };
 
     // The room for panels, inside the axis titles and the strips.
     let x_start = inp.left + if !v_title.is_empty() && !v_right { band } else { 0.0 };
@@ -314,16 +325,23 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, rows: Option<&[String]>, cols: Optio
     // axes take; then give every column and row the room its drawn axes need.
     let cell_w = ((x_end - x_start) - gap_x * (nc - 1) as f64) / nc as f64;
     let cell_h = ((y_end - y_start) - gap_y * (nr - 1) as f64) / nr as f64;
-    let lays: Vec<PlotLayout> = cells.iter().map(|p| plot_layout(inp, p, 0.0, cell_w, 0.0, cell_h, false)).collect();
-    let draw_h = |r: usize| free_h || r == if h_top { 0 } else { nr - 1 };
-    let draw_v = |c: usize| free_v || c == if v_right { nc - 1 } else { 0 };
+    let lays: Vec<PlotLayout> = cells.iter().map(|p| plot_layout(inp, p, 0.0, cell_w, 0.0, cell_h - each_strip, false)).collect();
+    // Shared axes along the grid's edges: x under the lowest panel of each
+    // column (or over the top row), y beside the first (or last) panel of each row.
+    let last_row = |c: usize| (0..nr).rev().find(|r| exists(*r, c)).unwrap_or(0);
+    let last_col = |r: usize| (0..nc).rev().find(|c| exists(r, *c)).unwrap_or(0);
+    let draw_h = |r: usize, c: usize| free_h || r == if h_top { 0 } else { last_row(c) };
+    let draw_v = |r: usize, c: usize| free_v || c == if v_right { last_col(r) } else { 0 };
     // Room beside the frame of the panel in row r, column c: left, right,
     // top, bottom. At the grid's outer ends the horizontal labels reach as
     // in a single plot; between columns they share the gap, and take more
     // room when their halves do not fit in it.
     let margins = |r: usize, c: usize| {
+        if !exists(r, c) {
+            return (0.0, 0.0, 0.0, 0.0);
+        }
         let l = &lays[r * nc + c];
-        let (h, v) = (draw_h(r), draw_v(c));
+        let (h, v) = (draw_h(r, c), draw_v(r, c));
         let on = |b: bool, x: f64| if b { x } else { 0.0 };
         let (v_left, v_right_w) = (on(v && !v_right, l.v_axis_w), on(v && v_right, l.v_axis_w));
         let (over_left, over_right) = h_label_overhang(l, inp.ts);
@@ -333,7 +351,7 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, rows: Option<&[String]>, cols: Optio
         (
             v_left.max(on(h, h_left)),
             v_right_w.max(on(h, h_right)),
-            4.0 + on(h && h_top, l.h_axis_h),
+            4.0 + each_strip + on(h && h_top, l.h_axis_h),
             on(h && !h_top, l.h_axis_h),
         )
     };
@@ -363,9 +381,19 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, rows: Option<&[String]>, cols: Optio
     for r in 0..nr {
         for c in 0..nc {
             let i = r * nc + c;
+            if !exists(r, c) {
+                continue;
+            }
             let frame = Frame { left: lefts[c], top: tops[r], width: pw, height: ph };
             let mut kids = Vec::new();
             let mut says = Vec::new();
+            if let Some((names, _)) = wrap {
+                // The panel's own strip, at the top of its row's band (over
+                // any top axis).
+                let words = text::fit(&names[i], inp.ts, true, pw);
+                kids.push(strip_text(frame.left, tops[r] - row_top[r] + inp.ts * text::ASCENT, words, Anchor::Start, 0.0, inp.pal, inp.ts));
+                says.push(names[i].clone());
+            }
             if let Some(rows) = rows {
                 says.push(format!("{row_name}: {}", rows[r]));
                 if c == nc - 1 {
@@ -381,7 +409,7 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, rows: Option<&[String]>, cols: Optio
                     kids.push(strip_text(frame.left + pw / 2.0, strip_top + inp.ts * text::ASCENT, words, Anchor::Middle, 0.0, inp.pal, inp.ts));
                 }
             }
-            kids.extend(plot_draw(inp, &cells[i], &lays[i], frame, draw_h(r), draw_v(c)));
+            kids.extend(plot_draw(inp, &cells[i], &lays[i], frame, draw_h(r, c), draw_v(r, c)));
             out.push(Node::Group { class: "strata-facet".into(), role: Some("graphics-object".into()), label: Some(format!("panel {}", says.join(", "))), children: kids });
         }
     }
@@ -494,7 +522,7 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
     let (h_title, v_title, h_shown, v_shown) = axis_titles(spec, scales);
     let (h_title, v_title) = if titles { (h_title, v_title) } else { ("", "") };
     let wanted = |s: &crate::spec::ScaleSpec, length: f64, per: f64| {
-        s.ticks.map(|t| t as usize).unwrap_or_else(|| ((length / per).floor() as usize).clamp(2, if narrow { 5 } else { 10 }))
+        s.ticks.map(|t| t as usize).unwrap_or_else(|| ((length / per).floor() as usize).clamp(3, if narrow { 5 } else { 10 }))
     };
     let top = top + 4.0;
     // First guess of the plot height, for the vertical ticks (and so the left margin).
