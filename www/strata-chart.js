@@ -125,6 +125,7 @@ export class StrataChart extends HTMLElement {
     adoptStyles();
     this.addEventListener('focusin', this.#showTip);
     this.addEventListener('focusout', this.#hideTip);
+    this.addEventListener('keydown', this.#moveFocus);
     this.#schedule();
   }
 
@@ -145,6 +146,28 @@ export class StrataChart extends HTMLElement {
     tip.style.left = `${Math.round(at.right - box.left + 6)}px`;
     tip.style.top = `${Math.round(at.top - box.top - 4)}px`;
     tip.hidden = false;
+  };
+
+  /**
+   * The chart is one tab stop (the engine gives the first mark with tips
+   * tabindex 0 and the rest -1); the arrow keys, Home and End move the stop
+   * from mark to mark in drawing order (WAI-ARIA's roving tabindex).
+   */
+  #moveFocus = (event) => {
+    const mark = event.target;
+    if (!(mark instanceof SVGElement) || !mark.hasAttribute('tabindex')) return;
+    const svg = mark.ownerSVGElement;
+    if (!svg || svg.parentElement !== this) return;
+    const marks = [...svg.querySelectorAll('[tabindex]')];
+    const at = marks.indexOf(mark);
+    const to = { ArrowRight: at + 1, ArrowDown: at + 1, ArrowLeft: at - 1, ArrowUp: at - 1, Home: 0, End: marks.length - 1 }[event.key];
+    if (to === undefined || at < 0) return;
+    event.preventDefault();
+    const next = marks[Math.max(0, Math.min(marks.length - 1, to))];
+    if (next === mark) return;
+    mark.setAttribute('tabindex', '-1');
+    next.setAttribute('tabindex', '0');
+    next.focus();
   };
 
   #hideTip = () => {

@@ -114,6 +114,31 @@ test('a mark with tip columns takes keyboard focus and shows its words', async (
   assert.ok(await page.evaluate(() => document.querySelector('#points > .strata-tip').hidden));
 });
 
+test('a chart is one tab stop; the arrow keys move between its marks', async () => {
+  const stops = await page.evaluate(() => document.querySelectorAll('#points svg [tabindex="0"]').length);
+  assert.equal(stops, 1, 'one mark takes Tab');
+  const labels = await page.evaluate(() => [...document.querySelectorAll('#points svg [tabindex]')].map((m) => m.getAttribute('aria-label')));
+  assert.ok(labels.length > 3);
+  await page.evaluate(() => document.querySelector('#points svg [tabindex="0"]').focus());
+  const focused = () => page.evaluate(() => ({
+    label: document.activeElement.getAttribute('aria-label'),
+    tip: document.querySelector('#points > .strata-tip').textContent,
+    stops: document.querySelectorAll('#points svg [tabindex="0"]').length,
+  }));
+  await page.keyboard.press('ArrowRight');
+  assert.deepEqual(await focused(), { label: labels[1], tip: labels[1], stops: 1 });
+  await page.keyboard.press('End');
+  assert.deepEqual(await focused(), { label: labels.at(-1), tip: labels.at(-1), stops: 1 });
+  await page.keyboard.press('ArrowRight'); // stays on the last
+  assert.equal((await focused()).label, labels.at(-1));
+  await page.keyboard.press('Home');
+  assert.equal((await focused()).label, labels[0]);
+  // Tab leaves the chart at once instead of walking every mark.
+  await page.keyboard.press('Tab');
+  const out = await page.evaluate(() => !!document.activeElement.closest('#points svg'));
+  assert.equal(out, false);
+});
+
 test('CSV pages load the engine once and never the Arrow module', () => {
   assert.equal(requested.filter((p) => p.endsWith('/strata_wasm_bg.wasm')).length, 1);
   assert.ok(!requested.some((p) => p.includes('strata_wasm_arrow')));

@@ -103,7 +103,10 @@ fn tips_become_hover_titles_and_focusable_marks() {
     let spec = r#"{"layers":[{"draw":"point","x":"a","y":"b","tip":["who"]}]}"#;
     let csv = b"a,b,who\n1,2,<Ann & Bo>\n2,3,Cy\n";
     let r = render(spec, Some(DataBytes { bytes: csv, name: "d.csv" }), &RenderOptions::default()).unwrap();
-    assert_eq!(r.svg.matches("tabindex=\"0\"").count(), 2);
+    // One tab stop for the chart (roving tabindex): the first mark, the rest -1.
+    assert_eq!(r.svg.matches("tabindex=\"0\"").count(), 1);
+    assert_eq!(r.svg.matches("tabindex=\"-1\"").count(), 1);
+    assert!(r.svg.find("tabindex=\"0\"") < r.svg.find("tabindex=\"-1\""));
     assert!(r.svg.contains("<title>x: 1, y: 2, who: &lt;Ann &amp; Bo&gt;</title></circle>"), "{}", r.svg);
     assert!(r.svg.contains("aria-label=\"x: 2, y: 3, who: Cy\""));
     // The scene lists the tip values with each mark.

@@ -103,6 +103,8 @@ fn datum_words(d: &crate::scene::Datum) -> String {
     parts.join(", ")
 }
 
+const FOCUSABLE: &str = " tabindex=\"0\"";
+
 /// `role` and `aria-label` of a data mark (its values, "x: Jan, y: 82");
 /// marks with `tip` columns are also focusable with the keyboard.
 fn mark_label(out: &mut String, datum: &Option<crate::scene::Datum>, labelled: bool) {
@@ -112,7 +114,7 @@ fn mark_label(out: &mut String, datum: &Option<crate::scene::Datum>, labelled: b
     }
     let _ = write!(out, " role=\"graphics-symbol\" aria-label=\"{}\"", escape(&datum_words(d)));
     if d.contains_key("tip") {
-        out.push_str(" tabindex=\"0\"");
+        out.push_str(FOCUSABLE);
     }
 }
 
@@ -199,6 +201,16 @@ pub fn write(scene: &Scene) -> String {
     let labelled = scene.marks().len() <= LABELLED_MARKS;
     for c in &scene.children {
         node(&mut body, c, 1, labelled);
+    }
+    // One tab stop for the whole chart (WAI-ARIA's roving tabindex): the
+    // first focusable mark takes Tab, the others -1; the element moves the
+    // stop with the arrow keys. (Every quote in written text is escaped, so
+    // this attribute only ever comes from `mark_label`.)
+    if let Some(first) = body.find(FOCUSABLE) {
+        let at = first + FOCUSABLE.len();
+        let rest = body[at..].replace(FOCUSABLE, " tabindex=\"-1\"");
+        body.truncate(at);
+        body.push_str(&rest);
     }
     let id = format!("strata-{:08x}", fnv1a(format!("{}\u{0}{}\u{0}{}", scene.label, scene.description, body).as_bytes()) as u32);
     let mut out = String::with_capacity(body.len() + 512);
