@@ -187,3 +187,65 @@ fn specs_never_panic() {
     }
     assert!(parsed > 0);
 }
+
+/// Random but well-formed specs over small awkward tables (nulls, one row,
+/// ties, negatives, dates, huge and tiny numbers), through the whole
+/// pipeline: the render either succeeds with well-formed output or fails
+/// with located errors; it never panics (a panic would take the page's
+/// engine down with it).
+#[test]
+fn rendering_never_panics() {
+    let mut r = Rng(0x0dd_ba11);
+    let geometries = ["point", "line", "step", "area", "bar", "ribbon", "rule", "label", "tile", "box", "range"];
+    let stats = [
+        "\"identity\"", "\"count\"", "\"box\"", "{\"bin\":{\"rule\":\"fd\"}}", "{\"bin\":{\"width\":0.5}}", "{\"bin\":{\"rule\":\"doane\",\"density\":true}}",
+        "{\"summary\":\"mean\",\"interval\":\"ci95\"}", "{\"summary\":\"quantile\",\"p\":0.9}", "{\"summary\":\"mean\",\"interval\":\"wilson\"}",
+        "{\"fit\":\"linear\",\"band\":0.95}", "{\"fit\":\"loess\",\"span\":0.3,\"robust\":true}", "{\"density\":{\"bandwidth\":\"silverman\"}}",
+        "{\"window\":{\"rows\":3,\"summary\":\"sum\",\"align\":\"trailing\"}}", "{\"window\":{\"rows\":2,\"summary\":\"running_total\"}}",
+    ];
+    let arranges = ["none", "stack", "beside", "proportion", "jitter"];
+    let coords = ["\"cartesian\"", "\"flip\"", "{\"kind\":\"polar\",\"angle\":\"x\",\"inner\":0.3}", "{\"kind\":\"polar\",\"angle\":\"y\",\"start\":90}"];
+    let panels = ["", ",\"panels\":{\"by\":\"g\",\"columns\":2}", ",\"panels\":{\"rows\":\"g\",\"cols\":\"h\"}", ",\"panels\":{\"cols\":\"g\",\"free\":\"both\"}", ",\"panels\":{\"by\":\"h\",\"free\":\"y\"}"];
+    let notes = ["", ",\"notes\":[{\"y\":1,\"text\":\"one\"},{\"x\":0,\"x_end\":2,\"text\":\"span\"}]", ",\"notes\":[{\"x\":\"a\",\"y\":2,\"text\":\"p\"},{\"y\":0,\"y_end\":1}]"];
+    let scales = ["", ",\"scales\":{\"y\":{\"kind\":\"log\"}}", ",\"scales\":{\"x\":{\"kind\":\"category\"},\"y\":{\"zero\":true,\"format\":\"#,##0.0\"}}", ",\"scales\":{\"y\":{\"kind\":\"symlog\",\"axis\":\"right\"},\"color\":{\"legend\":\"left\"}}", ",\"scales\":{\"x\":{\"domain\":[5,1]}}"];
+    let xs = ["n", "m", "g", "d", "e"];
+    let ys = ["n", "m", "v", "e"];
+    let extra = ["", ",\"color\":\"g\"", ",\"color\":\"v\"", ",\"group\":\"h\",\"tip\":[\"g\",\"d\"]", ",\"size\":\"m\",\"shape\":\"h\"", ",\"y_end\":\"m\",\"x_end\":\"n\"", ",\"text\":\"g\""];
+    let themes = ["", ",\"theme\":{\"font_size\":20,\"base\":\"dark\"}", ",\"data_table\":\"open\",\"locale\":\"de\""];
+    // Rows: n number (with a null), m number, v 0/1, g and h text, d date, e empty.
+    let row = |r: &mut Rng, i: usize| {
+        let n = match r.below(6) { 0 => "null".to_string(), 1 => "-1e12".into(), 2 => "0".into(), _ => format!("{}", (i % 5) as f64 * 1.5 - 2.0) };
+        let m = match r.below(5) { 0 => "1e-300".into(), 1 => "3".into(), _ => format!("{}", r.below(100)) };
+        let d = match r.below(4) { 0 => "null".into(), _ => format!("\"2024-0{}-1{}\"", 1 + r.below(9), r.below(9)) };
+        format!(r#"{{"n":{n},"m":{m},"v":{},"g":"{}","h":"{}","d":{d},"e":null}}"#, r.below(2), ["a", "b", "c"][r.below(3)], ["p", "q"][r.below(2)])
+    };
+    let (mut ok, mut err) = (0, 0);
+    for _ in 0..cases() / 3 {
+        let rows: Vec<String> = (0..[0, 1, 2, 5, 40][r.below(5)]).map(|i| row(&mut r, i)).collect();
+        let layers: Vec<String> = (0..1 + r.below(2))
+            .map(|_| {
+                format!(
+                    r#"{{"draw":"{}","x":"{}","y":"{}","stat":{},"arrange":"{}"{}}}"#,
+                    r.pick(&geometries), r.pick(&xs), r.pick(&ys), r.pick(&stats), r.pick(&arranges), r.pick(&extra)
+                )
+            })
+            .collect();
+        let spec = format!(
+            r#"{{"title":"T","data":{{"rows":[{}]}},"layers":[{}],"coords":{}{}{}{}{},"size":{{"width":{}}}}}"#,
+            rows.join(","), layers.join(","), r.pick(&coords), r.pick(&panels), r.pick(&notes), r.pick(&scales), r.pick(&themes),
+            [120, 330, 640][r.below(3)]
+        );
+        match strata::render(&spec, None, &strata::RenderOptions::default()) {
+            Ok(out) => {
+                ok += 1;
+                assert!(out.svg.starts_with("<svg") && out.svg.trim_end().ends_with("</svg>"), "{spec}");
+                assert!(!out.svg.contains("NaN") && !out.svg.contains("inf"), "non-finite number in the SVG of {spec}");
+            }
+            Err(e) => {
+                err += 1;
+                assert!(!e.0.is_empty(), "{spec}");
+            }
+        }
+    }
+    assert!(ok > 0 && err > 0, "ok {ok}, err {err}");
+}

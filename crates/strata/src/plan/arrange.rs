@@ -12,6 +12,7 @@
 //!   or up to 30 % of a band either way (`x_offset`) for categories.
 
 use super::{LayerData, Nums, Values};
+use std::collections::HashMap;
 use crate::spec::{Arrange, Geometry, Layer};
 use crate::stat::rng::SplitMix64;
 
@@ -30,28 +31,27 @@ pub fn apply(index: usize, layer: &Layer, geometry: Geometry, mut data: LayerDat
     let mut base = vec![Some(0.0); data.len];
     let mut top: Vec<Option<f64>> = ys.iter().collect();
     if layer.arrange == Arrange::Stack || layer.arrange == Arrange::Proportion {
-        let keys: Vec<Option<String>> = (0..data.len).map(|i| stack_key(&data, i)).collect();
-        let mut up: Vec<(Option<String>, f64)> = Vec::new();
-        let mut down: Vec<(Option<String>, f64)> = Vec::new();
+        // Each stack (rows sharing x and panel) by its key, found by hash so
+        // that many stacks stay linear: running totals upward and downward.
+        let mut slot_of: HashMap<Option<String>, usize> = HashMap::new();
+        let slots: Vec<usize> = (0..data.len)
+            .map(|i| {
+                let n = slot_of.len();
+                *slot_of.entry(stack_key(&data, i)).or_insert(n)
+            })
+            .collect();
+        let mut up = vec![0.0f64; slot_of.len()];
+        let mut down = vec![0.0f64; slot_of.len()];
         for i in 0..data.len {
             let Some(y) = ys.get(i) else { continue };
-            let key = &keys[i];
-            let acc = if y >= 0.0 { &mut up } else { &mut down };
-            let slot = match acc.iter().position(|(k, _)| k == key) {
-                Some(p) => p,
-                None => {
-                    acc.push((key.clone(), 0.0));
-                    acc.len() - 1
-                }
-            };
-            base[i] = Some(acc[slot].1);
-            acc[slot].1 += y;
-            top[i] = Some(acc[slot].1);
+            let acc = if y >= 0.0 { &mut up[slots[i]] } else { &mut down[slots[i]] };
+            base[i] = Some(*acc);
+            *acc += y;
+            top[i] = Some(*acc);
         }
         if layer.arrange == Arrange::Proportion {
             for i in 0..data.len {
-                let key = &keys[i];
-                let total: f64 = up.iter().chain(&down).filter(|(k, _)| k == key).map(|(_, s)| s.abs()).sum();
+                let total = up[slots[i]].abs() + down[slots[i]].abs();
                 if total > 0.0 {
                     base[i] = base[i].map(|b| b / total);
                     top[i] = top[i].map(|t| t / total);

@@ -7,6 +7,7 @@ use crate::error::{Diagnostic, Errors};
 use crate::format::{self, Locale};
 use crate::scale::{PositionScale, SizeScale, Transform};
 use crate::spec::{Geometry, ScaleKind, ScaleSpec, Spec};
+use std::collections::{HashMap, HashSet};
 
 #[derive(Debug, Clone, PartialEq)]
 pub enum ColorScale {
@@ -44,6 +45,8 @@ pub struct Scales {
     pub shape_spec: ScaleSpec,
     /// Locale of every label (`locale` in the spec).
     pub locale: &'static Locale,
+    /// Each colour category's place in the `color` list, for lookups by hash.
+    pub color_index: HashMap<String, usize>,
 }
 
 impl Scales {
@@ -52,7 +55,7 @@ impl Scales {
         match (self.color.as_ref()?, self.color_scheme) {
             (ColorScale::Categories(cats), scheme) => {
                 let k = vals.key(i)?;
-                let idx = cats.iter().position(|c| *c == k)?;
+                let idx = *self.color_index.get(&k)?;
                 Some(match scheme {
                     Scheme::Categorical(_, list) => list[idx % list.len()].to_string(),
                     // A ramp for categories: evenly spaced samples.
@@ -183,6 +186,12 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
         None
     };
 
+    let mut color_index = HashMap::new();
+    if let Some(ColorScale::Categories(cats)) = &color {
+        for (i, c) in cats.iter().enumerate() {
+            color_index.entry(c.clone()).or_insert(i);
+        }
+    }
     Ok(Scales {
         x_title: title("x", &x_spec),
         y_title: title("y", &y_spec),
@@ -204,7 +213,19 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
         shape,
         shape_spec,
         locale,
+        color_index,
     })
+}
+
+/// Append the values of `v` not seen yet, in order of first appearance
+/// (a hash set keeps many distinct values linear).
+fn add_distinct(cats: &mut Vec<String>, seen: &mut HashSet<String>, v: &[Option<String>]) {
+    for s in v.iter().flatten() {
+        if !seen.contains(s) {
+            seen.insert(s.clone());
+            cats.push(s.clone());
+        }
+    }
 }
 
 fn json_word(v: &serde_json::Value) -> String {
@@ -214,15 +235,12 @@ fn json_word(v: &serde_json::Value) -> String {
 /// Categories (text) and the numeric range of a channel across layers.
 fn collect(layers: &[PlannedLayer], ch: &str) -> (Vec<String>, Option<(f64, f64)>) {
     let mut cats: Vec<String> = Vec::new();
+    let mut seen = HashSet::new();
     let (mut lo, mut hi) = (f64::INFINITY, f64::NEG_INFINITY);
     for l in layers {
         match l.data.get(ch) {
             Some(Values::Text(v)) => {
-                for s in v.iter().flatten() {
-                    if !cats.contains(s) {
-                        cats.push(s.clone());
-                    }
-                }
+                add_distinct(&mut cats, &mut seen, v);
             }
             Some(Values::Num(v)) | Some(Values::Time(v)) => {
                 if let Some((a, b)) = v.extent() {
@@ -277,6 +295,7 @@ fn explicit_domain(s: &ScaleSpec, axis: &str) -> Result<Option<(f64, f64)>, Erro
 /// A trained position scale and whether its domain is still to be made nice.
 fn train_position(channels: &[&str], axis: &str, s: &ScaleSpec, layers: &[PlannedLayer]) -> Result<(PositionScale, bool), Errors> {
     let mut cats: Vec<String> = Vec::new();
+    let mut seen = HashSet::new();
     let (mut lo, mut hi) = (f64::INFINITY, f64::NEG_INFINITY);
     let (mut any_num, mut any_text, mut time) = (false, false, false);
     let mut extent = false;
@@ -285,11 +304,7 @@ fn train_position(channels: &[&str], axis: &str, s: &ScaleSpec, layers: &[Planne
             match l.data.get(ch) {
                 Some(Values::Text(v)) => {
                     any_text = true;
-                    for s in v.iter().flatten() {
-                        if !cats.contains(s) {
-                            cats.push(s.clone());
-                        }
-                    }
+                    add_distinct(&mut cats, &mut seen, v);
                 }
                 Some(vals @ (Values::Num(_) | Values::Time(_))) => {
                     any_num = true;
@@ -319,7 +334,7 @@ fn train_position(channels: &[&str], axis: &str, s: &ScaleSpec, layers: &[Planne
         if s.reverse {
             cats.reverse();
         }
-        return Ok((PositionScale::Category { values: cats, padding: 0.1 }, false));
+        return Ok((PositionScale::category(cats, 0.1), false));
     }
     if any_text && any_num {
         return Err(Diagnostic::error("spec.mixed_axis", format!("the {axis} axis mixes text and numbers across layers"))

@@ -376,15 +376,36 @@ fn bin_edges(index: usize, b: &BinSpec, xs: &[f64], is_time: bool) -> Result<Vec
         return Ok(bin::calendar_edges(lo, hi, unit));
     }
     let boundary = b.boundary;
+    // Too many bins is refused where it was asked for, not truncated.
+    let too_many = |n: f64, key: &str| {
+        (n > bin::MAX_BINS as f64).then(|| {
+            Errors::from(
+                Diagnostic::error("stat.too_many_bins", format!("this would make {n:.0} bins, more than the {} a histogram may have", bin::MAX_BINS))
+                    .at_path(format!("layers[{index}].stat.bin.{key}"))
+                    .with_hint("give a larger `width`, a smaller `count`, or a `rule`"),
+            )
+        })
+    };
+    if let Some(c) = b.count {
+        if let Some(e) = too_many(c as f64, "count") {
+            return Err(e);
+        }
+    }
+    let width_for_count = |c: u32| {
+        let (lo, hi) = bin::min_max(xs).unwrap_or((0.0, 0.0));
+        if hi > lo { (hi - lo) / c as f64 } else { 1.0 }
+    };
+    let asked_width = b.width.map(|w| (w, "width")).or_else(|| b.count.filter(|_| boundary.is_some()).map(|c| (width_for_count(c), "count")));
+    if let Some((w, key)) = asked_width {
+        if let Some(e) = too_many(bin::width_bin_count(xs, w, boundary.unwrap_or(0.0)), key) {
+            return Err(e);
+        }
+    }
     Ok(match (b.width, b.count) {
         (Some(w), _) => bin::edges_by_width(xs, w, boundary.unwrap_or(0.0)),
         (None, Some(c)) => match boundary {
             None => bin::edges_by_count(xs, c as usize),
-            Some(bd) => {
-                let (lo, hi) = bin::min_max(xs).unwrap();
-                let w = if hi > lo { (hi - lo) / c as f64 } else { 1.0 };
-                bin::edges_by_width(xs, w, bd)
-            }
+            Some(bd) => bin::edges_by_width(xs, width_for_count(c), bd),
         },
         (None, None) => {
             let e = bin::edges_by_rule(xs, rule);

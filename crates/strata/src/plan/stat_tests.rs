@@ -502,3 +502,23 @@ fn y_scale_covers_interval_ends() {
     let (u_hi, u_lo) = (s.unit_num(high).unwrap(), s.unit_num(low).unwrap());
     assert!(u_hi <= 1.0 + 1e-12 && u_lo >= -1e-12, "interval {low}..{high} maps to {u_lo}..{u_hi}");
 }
+
+#[test]
+fn too_many_bins_is_refused_where_asked_not_truncated() {
+    // A tiny width over a huge range, and a huge count: each a located error
+    // before anything is allocated (truncating would drop data silently).
+    let csv = b"x\n-1e12\n0\n5\n";
+    let data = Some(DataBytes { bytes: csv, name: "d.csv" });
+    let e = render(r#"{"layers":[{"draw":"area","x":"x","stat":{"bin":{"width":0.5}},"arrange":"stack"}]}"#, data, &RenderOptions::default()).unwrap_err();
+    assert_eq!((e.0[0].code.as_str(), e.0[0].at.path.as_str()), ("stat.too_many_bins", "layers[0].stat.bin.width"));
+    let e = render(r#"{"layers":[{"draw":"bar","x":"x","stat":{"bin":{"count":4000000000}}}]}"#, data, &RenderOptions::default()).unwrap_err();
+    assert_eq!((e.0[0].code.as_str(), e.0[0].at.path.as_str()), ("stat.too_many_bins", "layers[0].stat.bin.count"));
+    // Within the limit every value is counted: 11 bins of 1e11 from -1e12
+    // hold all three rows.
+    let r = render(r#"{"layers":[{"draw":"bar","x":"x","stat":{"bin":{"width":1e11,"boundary":0}}}]}"#, data, &RenderOptions::default()).unwrap();
+    let total: f64 = r.scene.marks().iter().filter_map(|m| match m {
+        Node::Rect { datum: Some(d), .. } => d.get("count").and_then(Value::as_f64),
+        _ => None,
+    }).sum();
+    assert_eq!(total, 3.0);
+}

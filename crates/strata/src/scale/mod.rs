@@ -61,7 +61,9 @@ pub enum PositionScale {
     Continuous { lo: f64, hi: f64, transform: Transform, time: bool, step: Option<f64> },
     /// Discrete values, each a band of equal width; `padding` is the share
     /// of a band left empty around a bar (bands) — points sit at band centres.
-    Category { values: Vec<String>, padding: f64 },
+    /// `index` finds a value's band by hash (made by [`PositionScale::category`]),
+    /// so placing n rows on k categories is O(n), not O(n k).
+    Category { values: Vec<String>, padding: f64, index: std::collections::HashMap<String, usize> },
 }
 
 /// One tick: where it goes (unit position) and its label.
@@ -104,11 +106,20 @@ impl PositionScale {
         }
     }
 
+    /// A category scale over `values` (the first of any repeated value counts).
+    pub fn category(values: Vec<String>, padding: f64) -> PositionScale {
+        let mut index = std::collections::HashMap::with_capacity(values.len());
+        for (i, v) in values.iter().enumerate() {
+            index.entry(v.clone()).or_insert(i);
+        }
+        PositionScale::Category { values, padding, index }
+    }
+
     /// Unit position of the centre of a category's band.
     pub fn unit_cat(&self, v: &str) -> Option<f64> {
         match self {
-            PositionScale::Category { values, .. } => {
-                let i = values.iter().position(|c| c == v)?;
+            PositionScale::Category { values, index, .. } => {
+                let i = *index.get(v)?;
                 Some((i as f64 + 0.5) / values.len() as f64)
             }
             PositionScale::Continuous { .. } => None,

@@ -77,17 +77,17 @@ fn series(layer: &PlannedLayer) -> Vec<Vec<usize>> {
     if cols.is_empty() {
         return vec![(0..layer.data.len).collect()];
     }
-    let mut keys: Vec<Vec<Option<String>>> = Vec::new();
+    // Series in order of first appearance, found by hash (many series stay linear).
+    let mut slot: std::collections::HashMap<Vec<Option<String>>, usize> = std::collections::HashMap::new();
     let mut rows: Vec<Vec<usize>> = Vec::new();
     for i in 0..layer.data.len {
         let k: Vec<Option<String>> = cols.iter().map(|v| v.key(i)).collect();
-        match keys.iter().position(|x| *x == k) {
-            Some(p) => rows[p].push(i),
-            None => {
-                keys.push(k);
-                rows.push(vec![i]);
-            }
+        let n = rows.len();
+        let p = *slot.entry(k).or_insert(n);
+        if p == n {
+            rows.push(Vec::new());
         }
+        rows[p].push(i);
     }
     rows
 }

@@ -120,21 +120,25 @@ pub fn edges_by_rule(xs: &[f64], rule: Rule) -> Vec<f64> {
     let Some((lo, hi)) = range_of(xs) else { return vec![] };
     let w = rule_width(rule, xs);
     let count = if w > 0.0 && w.is_finite() { ((hi - lo) / w).ceil() as usize } else { 1 };
-    even_edges(lo, hi, count.clamp(1, 100_000))
+    even_edges(lo, hi, count.clamp(1, MAX_BINS))
 }
 
 /// `count` even bins over the data range.
 pub fn edges_by_count(xs: &[f64], count: usize) -> Vec<f64> {
     let Some((lo, hi)) = range_of(xs) else { return vec![] };
-    even_edges(lo, hi, count)
+    even_edges(lo, hi, count.min(MAX_BINS))
 }
 
-/// Bins of exactly `width`, one edge falling on `boundary` (edges are
-/// `boundary + k * width`), covering the data.
-pub fn edges_by_width(xs: &[f64], width: f64, boundary: f64) -> Vec<f64> {
-    let Some((lo, hi)) = min_max(xs) else { return vec![] };
+/// Most bins a histogram may have: past this a width or count is refused
+/// (a located error) rather than truncated, which would drop data.
+pub const MAX_BINS: usize = 100_000;
+
+/// How many bins of `width` from `boundary` cover the data (as a float, so
+/// a tiny width over a huge range is seen before anything is allocated).
+pub fn width_bin_count(xs: &[f64], width: f64, boundary: f64) -> f64 {
+    let Some((lo, hi)) = min_max(xs) else { return 0.0 };
     if width.is_nan() || width <= 0.0 {
-        return vec![];
+        return 0.0;
     }
     let k0 = ((lo - boundary) / width).floor();
     let mut k1 = ((hi - boundary) / width).floor();
@@ -142,7 +146,21 @@ pub fn edges_by_width(xs: &[f64], width: f64, boundary: f64) -> Vec<f64> {
     if boundary + k1 * width == hi && k1 > k0 {
         k1 -= 1.0;
     }
-    let count = ((k1 - k0) as usize + 1).min(100_000);
+    k1 - k0 + 1.0
+}
+
+/// Bins of exactly `width`, one edge falling on `boundary` (edges are
+/// `boundary + k * width`), covering the data. At most [`MAX_BINS`]
+/// (callers check [`width_bin_count`] first).
+pub fn edges_by_width(xs: &[f64], width: f64, boundary: f64) -> Vec<f64> {
+    let Some((lo, _)) = min_max(xs) else { return vec![] };
+    let n = width_bin_count(xs, width, boundary);
+    if !(n >= 1.0) {
+        return vec![];
+    }
+    let k0 = ((lo - boundary) / width).floor();
+    // (A rule's width moved onto a boundary may need one bin more.)
+    let count = (n as usize).min(MAX_BINS + 1);
     (0..=count).map(|k| boundary + (k0 + k as f64) * width).collect()
 }
 
