@@ -19,9 +19,6 @@ use crate::svg::escape;
 /// Rows listed per layer.
 pub const MAX_ROWS: usize = 500;
 
-/// Channels that are drawing aids, not data.
-const HIDDEN: [&str; 2] = ["y_base", "x_offset"];
-
 /// Header words for the channels statistics add (common practice names).
 fn added_name(ch: &str, d: &LayerData) -> String {
     let of = |c: &str| d.names.get(c).cloned().unwrap_or_else(|| c.to_string());
@@ -73,7 +70,7 @@ fn layer_table(spec: &Spec, plan: &Plan, l: &PlannedLayer, out: &mut String) {
     for (k, v) in &d.channels {
         let name = header(k);
         // Statistics keep some numbers twice (a histogram's height is its count).
-        if HIDDEN.contains(k) || v.len() != d.len || cols.iter().any(|(n, _, w)| *n == name && *w == v) {
+        if crate::plan::DRAWING_AIDS.contains(k) || v.len() != d.len || cols.iter().any(|(n, _, w)| *n == name && *w == v) {
             continue;
         }
         cols.push((name, k, v));

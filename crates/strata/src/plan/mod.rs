@@ -45,6 +45,10 @@ use indexmap::IndexMap;
 ///   row's values of `panels.rows` and `panels.cols`, naming its grid cell.
 ///   Statistics group by them like `color` and `group`; stacks and series
 ///   never cross a panel.
+/// Internal channels that only help drawing (where an extent starts, an
+/// offset in a band): left out of a mark's datum and of the data table.
+pub const DRAWING_AIDS: [&str; 2] = ["y_base", "x_offset"];
+
 #[derive(Debug, Clone, PartialEq, Default)]
 pub struct LayerData {
     pub len: usize,

@@ -19,11 +19,8 @@ pub struct Ctx<'a> {
     pub text_size: f64,
 }
 
-/// Channels kept out of a mark's datum: drawing aids, not data.
-const HIDDEN: [&str; 2] = ["y_base", "x_offset"];
-
 fn datum(layer: &PlannedLayer, i: usize) -> Datum {
-    let mut d: Datum = layer.data.channels.iter().filter(|(k, _)| !HIDDEN.contains(k)).map(|(k, v)| (k.to_string(), v.json(i))).collect();
+    let mut d: Datum = layer.data.channels.iter().filter(|(k, _)| !crate::plan::DRAWING_AIDS.contains(k)).map(|(k, v)| (k.to_string(), v.json(i))).collect();
     // `tip` columns ride along under one key; the SVG writer turns them into
     // a hover title and makes the mark keyboard-focusable.
     if !layer.data.tips.is_empty() && layer.data.tips.iter().all(|(_, v)| v.len() == layer.data.len) {
