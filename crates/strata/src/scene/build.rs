@@ -216,7 +216,7 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
     let inputs = PlotInputs { spec, pal: &pal, loc, narrow, pad, left, width, legend_on_right, ts };
     match crate::plan::split_panels(spec, plan) {
         None => children.extend(plot_area(&inputs, plan, left, right, top, bottom)),
-        Some(PanelPlans::Wrap(panels)) => children.extend(panel_grid(&inputs, plan, &panels, right, top, bottom)),
+        Some(PanelPlans::Wrap(panels)) => children.extend(panel_grid(&inputs, plan, panels, right, top, bottom)),
         Some(PanelPlans::Grid { rows, cols, cells }) => children.extend(cell_grid(&inputs, plan, GridNames::Cross { rows: rows.as_deref(), cols: cols.as_deref() }, &cells, right, top, bottom)),
     }
     if !legend_nodes.is_empty() {
@@ -257,12 +257,11 @@ fn strip_text(x: f64, y: f64, words: String, anchor: Anchor, angle: f64, pal: &P
 /// naming it. Laid out by [`cell_grid`], so shared axes are drawn along
 /// the grid's edges only (an x axis under the lowest panel of each column)
 /// and axis titles once.
-fn panel_grid(inp: &PlotInputs, plan: &Plan, panels: &[(String, Plan)], right: f64, top: f64, bottom: f64) -> Vec<Node> {
+fn panel_grid(inp: &PlotInputs, plan: &Plan, panels: Vec<(String, Plan)>, right: f64, top: f64, bottom: f64) -> Vec<Node> {
     let n = panels.len();
     let default_cols = (n as f64).sqrt().ceil() as usize;
     let cols = inp.spec.panels.as_ref().and_then(|p| p.columns).map(|c| c as usize).unwrap_or(default_cols).clamp(1, n.max(1));
-    let names: Vec<String> = panels.iter().map(|(k, _)| k.clone()).collect();
-    let cells: Vec<Plan> = panels.iter().map(|(_, p)| p.clone()).collect();
+    let (names, cells): (Vec<String>, Vec<Plan>) = panels.into_iter().unzip();
     cell_grid(inp, plan, GridNames::Wrap { names: &names, columns: cols }, &cells, right, top, bottom)
 }
 
