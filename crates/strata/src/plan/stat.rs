@@ -97,6 +97,14 @@ fn group_keys(data: &LayerData) -> Vec<&'static str> {
     GROUP_CHANNELS.iter().copied().filter(|c| data.get(c).is_some_and(Values::is_discrete)).collect()
 }
 
+/// `x` (when mapped) and the discrete group channels: what count, summary
+/// and box statistics group by.
+fn x_and_group_keys(data: &LayerData) -> Vec<&'static str> {
+    let mut keys = if data.get("x").is_some() { vec!["x"] } else { vec![] };
+    keys.extend(group_keys(data));
+    keys
+}
+
 /// Rows grouped by the given channels, in order of first appearance.
 fn group_rows(data: &LayerData, keys: &[&'static str]) -> IndexMap<Vec<Option<String>>, Vec<usize>> {
     let mut groups: IndexMap<Vec<Option<String>>, Vec<usize>> = IndexMap::new();
@@ -187,11 +195,7 @@ fn need_numeric<'a>(index: usize, data: &'a LayerData, ch: &str, what: &str) -> 
 // ------------------------------------------------------------ count and summary
 
 fn count(data: LayerData) -> LayerData {
-    let mut keys = vec![];
-    if data.get("x").is_some() {
-        keys.push("x");
-    }
-    keys.extend(group_keys(&data));
+    let keys = x_and_group_keys(&data);
     let groups = group_rows(&data, &keys);
     let mut out = Out::new();
     for (key, rows) in &groups {
@@ -229,11 +233,7 @@ fn summarise(index: usize, layer: &Layer, o: &StatObject, name: &str, data: Laye
     let mut data = data;
     booleans_as_numbers(&mut data, "y");
     let y = need_numeric(index, &data, "y", &format!("a `{name}` summary"))?;
-    let mut keys = vec![];
-    if data.get("x").is_some() {
-        keys.push("x");
-    }
-    keys.extend(group_keys(&data));
+    let keys = x_and_group_keys(&data);
     let groups = group_rows(&data, &keys);
     let bounds_in_y = matches!(layer.draw, Geometry::Range | Geometry::Rule | Geometry::Ribbon) && interval.is_some();
     let mut out = Out::new();
@@ -561,11 +561,7 @@ fn densities(index: usize, layer: &Layer, d: &crate::spec::DensitySpec, data: La
 
 fn boxes(index: usize, data: LayerData) -> Result<LayerData, Errors> {
     let y = need_numeric(index, &data, "y", "a `box` statistic")?;
-    let mut keys = vec![];
-    if data.get("x").is_some() {
-        keys.push("x");
-    }
-    keys.extend(group_keys(&data));
+    let keys = x_and_group_keys(&data);
     let groups = group_rows(&data, &keys);
     let mut out = Out::new();
     for rows in groups.values() {

@@ -75,18 +75,11 @@ fn series(layer: &PlannedLayer) -> Vec<Vec<usize>> {
         return vec![(0..layer.data.len).collect()];
     }
     // Series in order of first appearance, found by hash (many series stay linear).
-    let mut slot: std::collections::HashMap<Vec<Option<String>>, usize> = std::collections::HashMap::new();
-    let mut rows: Vec<Vec<usize>> = Vec::new();
+    let mut series: indexmap::IndexMap<Vec<Option<String>>, Vec<usize>> = indexmap::IndexMap::new();
     for i in 0..layer.data.len {
-        let k: Vec<Option<String>> = cols.iter().map(|v| v.key(i)).collect();
-        let n = rows.len();
-        let p = *slot.entry(k).or_insert(n);
-        if p == n {
-            rows.push(Vec::new());
-        }
-        rows[p].push(i);
+        series.entry(cols.iter().map(|v| v.key(i)).collect()).or_default().push(i);
     }
-    rows
+    series.into_values().collect()
 }
 
 fn series_datum(layer: &PlannedLayer, first: usize) -> Datum {
