@@ -36,26 +36,22 @@ fn collect(html: &str) -> Result<Vec<Found>, String> {
     rewrite_str(
         html,
         RewriteStrSettings::new()
-            .append_element_content_handler(
-                element!("strata-chart", move |el| {
-                    f1.borrow_mut().push(Found {
-                        id: el.get_attribute("id"),
-                        src: el.get_attribute("src"),
-                        spec_src: el.get_attribute("spec-src"),
-                        theme: el.get_attribute("theme"),
-                        spec: String::new(),
-                    });
-                    Ok(())
-                }),
-            )
-            .append_element_content_handler(
-                text!("strata-chart > script[type='application/json']", move |t| {
-                    if let Some(last) = f2.borrow_mut().last_mut() {
-                        last.spec.push_str(t.as_str());
-                    }
-                    Ok(())
-                }),
-            ),
+            .append_element_content_handler(element!("strata-chart", move |el| {
+                f1.borrow_mut().push(Found {
+                    id: el.get_attribute("id"),
+                    src: el.get_attribute("src"),
+                    spec_src: el.get_attribute("spec-src"),
+                    theme: el.get_attribute("theme"),
+                    spec: String::new(),
+                });
+                Ok(())
+            }))
+            .append_element_content_handler(text!("strata-chart > script[type='application/json']", move |t| {
+                if let Some(last) = f2.borrow_mut().last_mut() {
+                    last.spec.push_str(t.as_str());
+                }
+                Ok(())
+            })),
     )
     .map_err(|e| format!("cannot parse the page: {e}"))?;
     let v = found.borrow().clone();
@@ -130,23 +126,21 @@ pub fn bake_html(page: &Path, html: &str, width: f64) -> Result<(String, PageRep
     let out = rewrite_str(
         html,
         RewriteStrSettings::new()
-            .append_element_content_handler(
-                element!("strata-chart", move |el| {
-                    let i = *i1.borrow();
-                    *i1.borrow_mut() += 1;
-                    if let Some(Ok(svg)) = r1.get(i) {
-                        let svg = svg.clone();
-                        if let Some(handlers) = el.end_tag_handlers() {
-                            let h: lol_html::EndTagHandler<'static> = Box::new(move |end| {
-                                end.before(&svg, ContentType::Html);
-                                Ok(())
-                            });
-                            handlers.push(h);
-                        }
+            .append_element_content_handler(element!("strata-chart", move |el| {
+                let i = *i1.borrow();
+                *i1.borrow_mut() += 1;
+                if let Some(Ok(svg)) = r1.get(i) {
+                    let svg = svg.clone();
+                    if let Some(handlers) = el.end_tag_handlers() {
+                        let h: lol_html::EndTagHandler<'static> = Box::new(move |end| {
+                            end.before(&svg, ContentType::Html);
+                            Ok(())
+                        });
+                        handlers.push(h);
                     }
-                    Ok(())
-                }),
-            )
+                }
+                Ok(())
+            }))
             .append_element_content_handler(
                 // An earlier bake's chart and table make way for the new ones.
                 element!("strata-chart > svg, strata-chart > details.strata-data", move |el| {

@@ -7,10 +7,8 @@ use std::process::Command;
 fn renders_a_png_at_twice_the_size() {
     let root = concat!(env!("CARGO_MANIFEST_DIR"), "/../..");
     let out = std::env::temp_dir().join(format!("strata-cli-test-{}.png", std::process::id()));
-    let status = Command::new(env!("CARGO_BIN_EXE_strata"))
-        .args(["render", &format!("{root}/examples/bars.json"), "-o", out.to_str().unwrap()])
-        .status()
-        .unwrap();
+    let status =
+        Command::new(env!("CARGO_BIN_EXE_strata")).args(["render", &format!("{root}/examples/bars.json"), "-o", out.to_str().unwrap()]).status().unwrap();
     assert!(status.success());
     let bytes = std::fs::read(&out).unwrap();
     let _ = std::fs::remove_file(&out);

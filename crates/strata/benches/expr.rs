@@ -81,10 +81,5 @@ fn main() {
     let lang = median_secs(&mut || {
         black_box(language(&t));
     });
-    println!(
-        "expr ratio: derive+where {:.2} ms, hand-written {:.2} ms, ratio {:.2}x over {ROWS} rows",
-        lang * 1e3,
-        base * 1e3,
-        lang / base
-    );
+    println!("expr ratio: derive+where {:.2} ms, hand-written {:.2} ms, ratio {:.2}x over {ROWS} rows", lang * 1e3, base * 1e3, lang / base);
 }

@@ -15,12 +15,8 @@ fn ranges() -> Vec<(f64, f64)> {
 
 fn bench(c: &mut Criterion) {
     let r = ranges();
-    c.bench_function("ticks/heckbert x100 (baseline)", |b| {
-        b.iter(|| r.iter().map(|(a, z)| ticks::nice_ticks(black_box(*a), *z, 6).len()).sum::<usize>())
-    });
-    c.bench_function("ticks/extended x100", |b| {
-        b.iter(|| r.iter().map(|(a, z)| ticks::extended(black_box(*a), *z, 6, false).len()).sum::<usize>())
-    });
+    c.bench_function("ticks/heckbert x100 (baseline)", |b| b.iter(|| r.iter().map(|(a, z)| ticks::nice_ticks(black_box(*a), *z, 6).len()).sum::<usize>()));
+    c.bench_function("ticks/extended x100", |b| b.iter(|| r.iter().map(|(a, z)| ticks::extended(black_box(*a), *z, 6, false).len()).sum::<usize>()));
     let de = format::locale("de");
     c.bench_function("format/number #,##0.0 x100", |b| {
         b.iter(|| (0..100).map(|i| format::number(black_box(i as f64 * 1234.567), "#,##0.0", de).len()).sum::<usize>())

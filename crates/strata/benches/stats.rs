@@ -99,7 +99,13 @@ fn line_svg(c: &mut Criterion) {
     let n = 10_000_000;
     let noise = normals(n, 5);
     let mut y = 0.0;
-    let ys: Vec<f64> = noise.iter().map(|e| { y += e; y }).collect();
+    let ys: Vec<f64> = noise
+        .iter()
+        .map(|e| {
+            y += e;
+            y
+        })
+        .collect();
     let xs: Vec<f64> = (0..n).map(|i| i as f64).collect();
     let schema = Arc::new(Schema::new(vec![Field::new("t", DataType::Float64, true), Field::new("v", DataType::Float64, true)]));
     let cols: Vec<ArrayRef> = vec![Arc::new(Float64Array::from(xs)), Arc::new(Float64Array::from(ys))];

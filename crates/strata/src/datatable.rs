@@ -141,8 +141,10 @@ mod tests {
     fn a_histogram_lists_its_bins() {
         // Six values 1..6 in bins of width 2 from 0: [0,2) [2,4) [4,6] hold
         // 1, 2 and 3 values (left-closed, last bin closed: common practice).
-        let t = table(r#"{ "title": "Sizes <b>", "data": { "rows": [ {"v": 1}, {"v": 2}, {"v": 3}, {"v": 4}, {"v": 5}, {"v": 6} ] },
-            "layers": [ { "draw": "bar", "x": "v", "stat": { "bin": { "width": 2, "boundary": 0 } } } ] }"#);
+        let t = table(
+            r#"{ "title": "Sizes <b>", "data": { "rows": [ {"v": 1}, {"v": 2}, {"v": 3}, {"v": 4}, {"v": 5}, {"v": 6} ] },
+            "layers": [ { "draw": "bar", "x": "v", "stat": { "bin": { "width": 2, "boundary": 0 } } } ] }"#,
+        );
         assert!(t.starts_with("<details class=\"strata-data\"><summary>Data table: Sizes &lt;b&gt;</summary>"), "{t}");
         assert!(t.contains("<caption>Layer 1: bar (3 rows)</caption>"), "{t}");
         assert!(t.contains("<thead><tr><th scope=\"col\">v from</th><th scope=\"col\">v to</th><th scope=\"col\">count</th></tr></thead>"), "{t}");

@@ -41,13 +41,7 @@ pub struct Diagnostic {
 
 impl Diagnostic {
     pub fn error(code: &str, message: impl Into<String>) -> Self {
-        Diagnostic {
-            severity: Severity::Error,
-            code: code.to_string(),
-            message: message.into(),
-            at: Location::default(),
-            hint: None,
-        }
+        Diagnostic { severity: Severity::Error, code: code.to_string(), message: message.into(), at: Location::default(), hint: None }
     }
     pub fn warning(code: &str, message: impl Into<String>) -> Self {
         Diagnostic { severity: Severity::Warning, ..Diagnostic::error(code, message) }

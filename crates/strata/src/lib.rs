@@ -69,7 +69,14 @@ pub fn load_table(spec: &Spec, data: Option<DataBytes>) -> Result<data::Table, E
             None if obj.format.is_none() && format == Some(spec::DataFormat::Csv) => Some(data::csv::sniff_delimiter(d.bytes)),
             None => None,
         };
-        let mut opts = data::ReadOptions { format, types: obj.types.clone(), sha256: obj.sha256.clone(), delimiter, decimal_comma: obj.decimal_comma, ..Default::default() };
+        let mut opts = data::ReadOptions {
+            format,
+            types: obj.types.clone(),
+            sha256: obj.sha256.clone(),
+            delimiter,
+            decimal_comma: obj.decimal_comma,
+            ..Default::default()
+        };
         if let Some(missing) = &obj.missing {
             opts.null_tokens = missing.clone();
         }

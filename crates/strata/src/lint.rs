@@ -332,15 +332,10 @@ mod tests {
             rendered(&format!(r#"{{{data},"layers":[{{"draw":"bar","x":"k","y":"v"}}],"scales":{{"y":{{"domain":[40,60]}}}}}}"#)),
             vec!["lint.axis_without_zero"]
         );
-        assert_eq!(
-            rendered(&format!(r#"{{{data},"layers":[{{"draw":"point","x":"n","y":"v"}}],"coords":"polar"}}"#)),
-            vec!["lint.polar_angle_not_cyclic"]
-        );
+        assert_eq!(rendered(&format!(r#"{{{data},"layers":[{{"draw":"point","x":"n","y":"v"}}],"coords":"polar"}}"#)), vec!["lint.polar_angle_not_cyclic"]);
         assert!(rendered(&format!(r#"{{{data},"layers":[{{"draw":"bar","x":"k","y":"v"}}],"coords":"polar"}}"#)).is_empty());
-        assert!(rendered(&format!(
-            r#"{{{data},"layers":[{{"draw":"point","x":"n","y":"v"}}],"coords":"polar","quiet":["lint.polar_angle_not_cyclic"]}}"#
-        ))
-        .is_empty());
+        assert!(rendered(&format!(r#"{{{data},"layers":[{{"draw":"point","x":"n","y":"v"}}],"coords":"polar","quiet":["lint.polar_angle_not_cyclic"]}}"#))
+            .is_empty());
     }
 
     #[test]

@@ -8,24 +8,46 @@
 //! need no wrapper.
 
 #[inline]
-pub fn ln(x: f64) -> f64 { libm::log(x) }
+pub fn ln(x: f64) -> f64 {
+    libm::log(x)
+}
 #[inline]
-pub fn log10(x: f64) -> f64 { libm::log10(x) }
+pub fn log10(x: f64) -> f64 {
+    libm::log10(x)
+}
 #[inline]
-pub fn log2(x: f64) -> f64 { libm::log2(x) }
+pub fn log2(x: f64) -> f64 {
+    libm::log2(x)
+}
 #[inline]
-pub fn exp(x: f64) -> f64 { libm::exp(x) }
+pub fn exp(x: f64) -> f64 {
+    libm::exp(x)
+}
 #[inline]
-pub fn pow(x: f64, y: f64) -> f64 { libm::pow(x, y) }
+pub fn pow(x: f64, y: f64) -> f64 {
+    libm::pow(x, y)
+}
 #[inline]
-pub fn powi(x: f64, n: i32) -> f64 { libm::pow(x, n as f64) }
+pub fn powi(x: f64, n: i32) -> f64 {
+    libm::pow(x, n as f64)
+}
 #[inline]
-pub fn sin(x: f64) -> f64 { libm::sin(x) }
+pub fn sin(x: f64) -> f64 {
+    libm::sin(x)
+}
 #[inline]
-pub fn cos(x: f64) -> f64 { libm::cos(x) }
+pub fn cos(x: f64) -> f64 {
+    libm::cos(x)
+}
 #[inline]
-pub fn atan2(y: f64, x: f64) -> f64 { libm::atan2(y, x) }
+pub fn atan2(y: f64, x: f64) -> f64 {
+    libm::atan2(y, x)
+}
 #[inline]
-pub fn cbrt(x: f64) -> f64 { libm::cbrt(x) }
+pub fn cbrt(x: f64) -> f64 {
+    libm::cbrt(x)
+}
 #[inline]
-pub fn hypot(x: f64, y: f64) -> f64 { libm::hypot(x, y) }
+pub fn hypot(x: f64, y: f64) -> f64 {
+    libm::hypot(x, y)
+}

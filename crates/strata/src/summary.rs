@@ -38,7 +38,13 @@ pub fn trend_word(pts: &[(f64, f64)]) -> Option<&'static str> {
         return Some("stays level");
     }
     let change = b * (xhi - xlo) / (yhi - ylo);
-    Some(if change > 0.2 { "rises" } else if change < -0.2 { "falls" } else { "shows no clear trend" })
+    Some(if change > 0.2 {
+        "rises"
+    } else if change < -0.2 {
+        "falls"
+    } else {
+        "shows no clear trend"
+    })
 }
 
 /// One pass over a layer's y (and numeric x): the lowest and highest y with

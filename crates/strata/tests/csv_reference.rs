@@ -152,10 +152,7 @@ fn rfc4180_examples() {
     // Rule 5: fields may be enclosed in double quotes.
     assert_eq!(records(b"\"aaa\",\"bbb\",\"ccc\"\r\nzzz,yyy,xxx", b',').unwrap(), vec![abc.clone(), zyx.clone()]);
     // Rule 6: line breaks, double quotes and commas inside quoted fields.
-    assert_eq!(
-        records(b"\"aaa\",\"b\r\nbb\",\"ccc\"\r\nzzz,yyy,xxx", b',').unwrap(),
-        vec![vec!["aaa", "b\r\nbb", "ccc"], zyx.clone()]
-    );
+    assert_eq!(records(b"\"aaa\",\"b\r\nbb\",\"ccc\"\r\nzzz,yyy,xxx", b',').unwrap(), vec![vec!["aaa", "b\r\nbb", "ccc"], zyx.clone()]);
     // Rule 7: a double quote inside a quoted field is doubled.
     assert_eq!(records(b"\"aaa\",\"b\"\"bb\",\"ccc\"", b',').unwrap(), vec![vec!["aaa", "b\"bb", "ccc"]]);
     // Rule 3: the optional header line has the same format; Strata always

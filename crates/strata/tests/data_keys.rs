@@ -114,7 +114,9 @@ fn tips_become_hover_titles_and_focusable_marks() {
     let Node::Circle { datum: Some(d), .. } = m[1] else { panic!() };
     assert_eq!(d["tip"]["who"], "Cy");
     // A tip column that is not there is located.
-    let e = render(r#"{"layers":[{"draw":"point","x":"a","y":"b","tip":["a","whom"]}]}"#, Some(DataBytes { bytes: csv, name: "d.csv" }), &RenderOptions::default()).unwrap_err();
+    let e =
+        render(r#"{"layers":[{"draw":"point","x":"a","y":"b","tip":["a","whom"]}]}"#, Some(DataBytes { bytes: csv, name: "d.csv" }), &RenderOptions::default())
+            .unwrap_err();
     assert_eq!(e.0[0].at.path, "layers[0].tip[1]");
 }
 
@@ -127,7 +129,15 @@ fn notes_mark_data_positions() {
         "size":{"width":600,"height":400}}"#;
     let csv = b"a,b\n1,2\n2,4\n3,6\n";
     let r = render(spec, Some(DataBytes { bytes: csv, name: "d.csv" }), &RenderOptions::default()).unwrap();
-    let pts: Vec<(f64, f64)> = r.scene.marks().into_iter().filter_map(|m| match m { Node::Circle { cx, cy, datum: Some(_), .. } => Some((*cx, *cy)), _ => None }).collect();
+    let pts: Vec<(f64, f64)> = r
+        .scene
+        .marks()
+        .into_iter()
+        .filter_map(|m| match m {
+            Node::Circle { cx, cy, datum: Some(_), .. } => Some((*cx, *cy)),
+            _ => None,
+        })
+        .collect();
     fn walk<'a>(n: &'a Node, out: &mut Vec<&'a Node>) {
         match n {
             Node::Group { class, children, .. } if class == "strata-notes" => out.extend(children.iter()),
@@ -137,14 +147,38 @@ fn notes_mark_data_positions() {
     }
     let mut notes = Vec::new();
     r.scene.children.iter().for_each(|c| walk(c, &mut notes));
-    let line = notes.iter().find_map(|n| match n { Node::Line { x1, x2, .. } => Some((*x1, *x2)), _ => None }).unwrap();
+    let line = notes
+        .iter()
+        .find_map(|n| match n {
+            Node::Line { x1, x2, .. } => Some((*x1, *x2)),
+            _ => None,
+        })
+        .unwrap();
     assert!((line.0 - pts[1].0).abs() < 1e-9 && (line.1 - pts[1].0).abs() < 1e-9, "line at x = 2: {line:?} vs {:?}", pts[1]);
-    let band = notes.iter().find_map(|n| match n { Node::Rect { y, height, .. } => Some((*y, *y + *height)), _ => None }).unwrap();
+    let band = notes
+        .iter()
+        .find_map(|n| match n {
+            Node::Rect { y, height, .. } => Some((*y, *y + *height)),
+            _ => None,
+        })
+        .unwrap();
     // y = 4 (the second point) lies inside the 3..5 band, y = 2 and 6 outside.
     assert!(band.0 < pts[1].1 && pts[1].1 < band.1);
     assert!(pts[0].1 > band.1 && pts[2].1 < band.0);
-    let dot = notes.iter().find_map(|n| match n { Node::Circle { cx, cy, .. } => Some((*cx, *cy)), _ => None }).unwrap();
+    let dot = notes
+        .iter()
+        .find_map(|n| match n {
+            Node::Circle { cx, cy, .. } => Some((*cx, *cy)),
+            _ => None,
+        })
+        .unwrap();
     assert!((dot.0 - pts[2].0).abs() < 1e-9 && (dot.1 - pts[2].1).abs() < 1e-9);
-    let words: Vec<&str> = notes.iter().filter_map(|n| match n { Node::Text { text, .. } => Some(text.as_str()), _ => None }).collect();
+    let words: Vec<&str> = notes
+        .iter()
+        .filter_map(|n| match n {
+            Node::Text { text, .. } => Some(text.as_str()),
+            _ => None,
+        })
+        .collect();
     assert_eq!(words, vec!["change", "target band", "peak"]);
 }

@@ -31,11 +31,74 @@ fn cases() -> usize {
 const TABLE: &str = "i,x,s,b,d,t\n1,1.5,a,true,2024-01-31,2024-01-31T10:00:00Z\n-7,,It's,false,,2000-02-29T00:00:00Z\n,0.0,,,1969-12-31,\n9223372036854775807,-2.5e10,Ünï,true,2024-02-29,2024-02-29T23:59:59Z\n";
 
 const TOKENS: &[&str] = &[
-    "i", "x", "s", "b", "d", "t", "\"i\"", "\"s\"", "nope", "1", "0", "-1", "2.5", "1e308", "9223372036854775807", "'a'", "''", "'It''s'",
-    "TRUE", "FALSE", "NULL", "DATE '2024-02-29'", "TIMESTAMP '2024-01-01 00:00:00'", "+", "-", "*", "/", "||", "=", "<>", "<", "<=", ">",
-    ">=", "AND", "OR", "NOT", "IN", "BETWEEN", "IS", "CASE", "WHEN", "THEN", "ELSE", "END", "(", ")", ",", "log(", "ln(", "exp(",
-    "sqrt(", "abs(", "round(", "floor(", "ceil(", "lower(", "upper(", "length(", "year(", "month(", "day(", "coalesce(", "'", "\"", "%",
-    "é", "\n",
+    "i",
+    "x",
+    "s",
+    "b",
+    "d",
+    "t",
+    "\"i\"",
+    "\"s\"",
+    "nope",
+    "1",
+    "0",
+    "-1",
+    "2.5",
+    "1e308",
+    "9223372036854775807",
+    "'a'",
+    "''",
+    "'It''s'",
+    "TRUE",
+    "FALSE",
+    "NULL",
+    "DATE '2024-02-29'",
+    "TIMESTAMP '2024-01-01 00:00:00'",
+    "+",
+    "-",
+    "*",
+    "/",
+    "||",
+    "=",
+    "<>",
+    "<",
+    "<=",
+    ">",
+    ">=",
+    "AND",
+    "OR",
+    "NOT",
+    "IN",
+    "BETWEEN",
+    "IS",
+    "CASE",
+    "WHEN",
+    "THEN",
+    "ELSE",
+    "END",
+    "(",
+    ")",
+    ",",
+    "log(",
+    "ln(",
+    "exp(",
+    "sqrt(",
+    "abs(",
+    "round(",
+    "floor(",
+    "ceil(",
+    "lower(",
+    "upper(",
+    "length(",
+    "year(",
+    "month(",
+    "day(",
+    "coalesce(",
+    "'",
+    "\"",
+    "%",
+    "é",
+    "\n",
 ];
 
 /// A well-formed random expression (so that evaluation, not only parsing, is exercised).
@@ -151,7 +214,8 @@ fn specs_never_panic() {
         .collect();
     seeds.sort();
     seeds.push(r##"{"data":{"rows":[{"a":1,"b":"x"},{"a":null,"b":"y"}]},"derive":{"c":"a * 2"},"where":"b <> 'y'","layers":[{"draw":"bar","x":"b","y":"c"}],"theme":{"text":"#777"}}"##.into());
-    let pieces = ["{", "}", "[", "]", ",", ":", "\"", "null", "true", "1e999", "-0", "\"layers\"", "\"draw\"", "\"where\"", "\"derive\"", "\"rows\"", "\\u0000", "é"];
+    let pieces =
+        ["{", "}", "[", "]", ",", ":", "\"", "null", "true", "1e999", "-0", "\"layers\"", "\"draw\"", "\"where\"", "\"derive\"", "\"rows\"", "\\u0000", "é"];
     let mut r = Rng(0x5bec_f022);
     let mut parsed = 0;
     for n in 0..cases() {
@@ -198,25 +262,71 @@ fn rendering_never_panics() {
     let mut r = Rng(0x0dd_ba11);
     let geometries = ["point", "line", "step", "area", "bar", "ribbon", "rule", "label", "tile", "box", "range"];
     let stats = [
-        "\"identity\"", "\"count\"", "\"box\"", "{\"bin\":{\"rule\":\"fd\"}}", "{\"bin\":{\"width\":0.5}}", "{\"bin\":{\"rule\":\"doane\",\"density\":true}}",
-        "{\"summary\":\"mean\",\"interval\":\"ci95\"}", "{\"summary\":\"quantile\",\"p\":0.9}", "{\"summary\":\"mean\",\"interval\":\"wilson\"}",
-        "{\"fit\":\"linear\",\"band\":0.95}", "{\"fit\":\"loess\",\"span\":0.3,\"robust\":true}", "{\"density\":{\"bandwidth\":\"silverman\"}}",
-        "{\"window\":{\"rows\":3,\"summary\":\"sum\",\"align\":\"trailing\"}}", "{\"window\":{\"rows\":2,\"summary\":\"running_total\"}}",
+        "\"identity\"",
+        "\"count\"",
+        "\"box\"",
+        "{\"bin\":{\"rule\":\"fd\"}}",
+        "{\"bin\":{\"width\":0.5}}",
+        "{\"bin\":{\"rule\":\"doane\",\"density\":true}}",
+        "{\"summary\":\"mean\",\"interval\":\"ci95\"}",
+        "{\"summary\":\"quantile\",\"p\":0.9}",
+        "{\"summary\":\"mean\",\"interval\":\"wilson\"}",
+        "{\"fit\":\"linear\",\"band\":0.95}",
+        "{\"fit\":\"loess\",\"span\":0.3,\"robust\":true}",
+        "{\"density\":{\"bandwidth\":\"silverman\"}}",
+        "{\"window\":{\"rows\":3,\"summary\":\"sum\",\"align\":\"trailing\"}}",
+        "{\"window\":{\"rows\":2,\"summary\":\"running_total\"}}",
     ];
     let arranges = ["none", "stack", "beside", "proportion", "jitter"];
     let coords = ["\"cartesian\"", "\"flip\"", "{\"kind\":\"polar\",\"angle\":\"x\",\"inner\":0.3}", "{\"kind\":\"polar\",\"angle\":\"y\",\"start\":90}"];
-    let panels = ["", ",\"panels\":{\"by\":\"g\",\"columns\":2}", ",\"panels\":{\"rows\":\"g\",\"cols\":\"h\"}", ",\"panels\":{\"cols\":\"g\",\"free\":\"both\"}", ",\"panels\":{\"by\":\"h\",\"free\":\"y\"}"];
-    let notes = ["", ",\"notes\":[{\"y\":1,\"text\":\"one\"},{\"x\":0,\"x_end\":2,\"text\":\"span\"}]", ",\"notes\":[{\"x\":\"a\",\"y\":2,\"text\":\"p\"},{\"y\":0,\"y_end\":1}]"];
-    let scales = ["", ",\"scales\":{\"y\":{\"kind\":\"log\"}}", ",\"scales\":{\"x\":{\"kind\":\"category\"},\"y\":{\"zero\":true,\"format\":\"#,##0.0\"}}", ",\"scales\":{\"y\":{\"kind\":\"symlog\",\"axis\":\"right\"},\"color\":{\"legend\":\"left\"}}", ",\"scales\":{\"x\":{\"domain\":[5,1]}}"];
+    let panels = [
+        "",
+        ",\"panels\":{\"by\":\"g\",\"columns\":2}",
+        ",\"panels\":{\"rows\":\"g\",\"cols\":\"h\"}",
+        ",\"panels\":{\"cols\":\"g\",\"free\":\"both\"}",
+        ",\"panels\":{\"by\":\"h\",\"free\":\"y\"}",
+    ];
+    let notes = [
+        "",
+        ",\"notes\":[{\"y\":1,\"text\":\"one\"},{\"x\":0,\"x_end\":2,\"text\":\"span\"}]",
+        ",\"notes\":[{\"x\":\"a\",\"y\":2,\"text\":\"p\"},{\"y\":0,\"y_end\":1}]",
+    ];
+    let scales = [
+        "",
+        ",\"scales\":{\"y\":{\"kind\":\"log\"}}",
+        ",\"scales\":{\"x\":{\"kind\":\"category\"},\"y\":{\"zero\":true,\"format\":\"#,##0.0\"}}",
+        ",\"scales\":{\"y\":{\"kind\":\"symlog\",\"axis\":\"right\"},\"color\":{\"legend\":\"left\"}}",
+        ",\"scales\":{\"x\":{\"domain\":[5,1]}}",
+    ];
     let xs = ["n", "m", "g", "d", "e"];
     let ys = ["n", "m", "v", "e"];
-    let extra = ["", ",\"color\":\"g\"", ",\"color\":\"v\"", ",\"group\":\"h\",\"tip\":[\"g\",\"d\"]", ",\"size\":\"m\",\"shape\":\"h\"", ",\"y_end\":\"m\",\"x_end\":\"n\"", ",\"text\":\"g\""];
+    let extra = [
+        "",
+        ",\"color\":\"g\"",
+        ",\"color\":\"v\"",
+        ",\"group\":\"h\",\"tip\":[\"g\",\"d\"]",
+        ",\"size\":\"m\",\"shape\":\"h\"",
+        ",\"y_end\":\"m\",\"x_end\":\"n\"",
+        ",\"text\":\"g\"",
+    ];
     let themes = ["", ",\"theme\":{\"font_size\":20,\"base\":\"dark\"}", ",\"data_table\":\"open\",\"locale\":\"de\""];
     // Rows: n number (with a null), m number, v 0/1, g and h text, d date, e empty.
     let row = |r: &mut Rng, i: usize| {
-        let n = match r.below(6) { 0 => "null".to_string(), 1 => "-1e12".into(), 2 => "0".into(), _ => format!("{}", (i % 5) as f64 * 1.5 - 2.0) };
-        let m = match r.below(5) { 0 => "1e-300".into(), 1 => "3".into(), _ => format!("{}", r.below(100)) };
-        let d = match r.below(4) { 0 => "null".into(), _ => format!("\"2024-0{}-1{}\"", 1 + r.below(9), r.below(9)) };
+        let n = match r.below(6) {
+            0 => "null".to_string(),
+            1 => "-1e12".into(),
+            2 => "0".into(),
+            _ => format!("{}", (i % 5) as f64 * 1.5 - 2.0),
+        };
+        let m = match r.below(5) {
+            0 => "1e-300".into(),
+            1 => "3".into(),
+            _ => format!("{}", r.below(100)),
+        };
+        let d = match r.below(4) {
+            0 => "null".into(),
+            _ => format!("\"2024-0{}-1{}\"", 1 + r.below(9), r.below(9)),
+        };
         format!(r#"{{"n":{n},"m":{m},"v":{},"g":"{}","h":"{}","d":{d},"e":null}}"#, r.below(2), ["a", "b", "c"][r.below(3)], ["p", "q"][r.below(2)])
     };
     let (mut ok, mut err) = (0, 0);
@@ -226,13 +336,24 @@ fn rendering_never_panics() {
             .map(|_| {
                 format!(
                     r#"{{"draw":"{}","x":"{}","y":"{}","stat":{},"arrange":"{}"{}}}"#,
-                    r.pick(&geometries), r.pick(&xs), r.pick(&ys), r.pick(&stats), r.pick(&arranges), r.pick(&extra)
+                    r.pick(&geometries),
+                    r.pick(&xs),
+                    r.pick(&ys),
+                    r.pick(&stats),
+                    r.pick(&arranges),
+                    r.pick(&extra)
                 )
             })
             .collect();
         let spec = format!(
             r#"{{"title":"T","data":{{"rows":[{}]}},"layers":[{}],"coords":{}{}{}{}{},"size":{{"width":{}}}}}"#,
-            rows.join(","), layers.join(","), r.pick(&coords), r.pick(&panels), r.pick(&notes), r.pick(&scales), r.pick(&themes),
+            rows.join(","),
+            layers.join(","),
+            r.pick(&coords),
+            r.pick(&panels),
+            r.pick(&notes),
+            r.pick(&scales),
+            r.pick(&themes),
             [120, 330, 640][r.below(3)]
         );
         match strata::render(&spec, None, &strata::RenderOptions::default()) {

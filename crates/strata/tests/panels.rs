@@ -222,7 +222,16 @@ fn statistics_count_and_stack_within_each_cell() {
     let f = facets(&r.scene);
     let counts: Vec<Vec<f64>> = f
         .iter()
-        .map(|p| p.node.marks().into_iter().filter_map(|m| match m { Node::Rect { datum: Some(d), .. } => d["y"].as_f64(), _ => None }).collect())
+        .map(|p| {
+            p.node
+                .marks()
+                .into_iter()
+                .filter_map(|m| match m {
+                    Node::Rect { datum: Some(d), .. } => d["y"].as_f64(),
+                    _ => None,
+                })
+                .collect()
+        })
         .collect();
     assert_eq!(counts, vec![vec![2.0], vec![1.0], vec![1.0], vec![1.0], vec![2.0], vec![]]);
 
@@ -234,7 +243,16 @@ fn statistics_count_and_stack_within_each_cell() {
     let f = facets(&r.scene);
     let tops: Vec<Vec<f64>> = f
         .iter()
-        .map(|p| p.node.marks().into_iter().filter_map(|m| match m { Node::Rect { datum: Some(d), .. } => d["y"].as_f64(), _ => None }).collect())
+        .map(|p| {
+            p.node
+                .marks()
+                .into_iter()
+                .filter_map(|m| match m {
+                    Node::Rect { datum: Some(d), .. } => d["y"].as_f64(),
+                    _ => None,
+                })
+                .collect()
+        })
         .collect();
     // West: 1 then 1 + 2; east: 4 then 4 + 8 (not 3 + 4 and 3 + 4 + 8).
     assert_eq!(tops, vec![vec![1.0, 3.0], vec![4.0, 12.0]]);
@@ -355,7 +373,11 @@ fn too_many_panels_is_an_error_at_the_key() {
     let fewer = format!("{}\n", csv.lines().filter(|l| !l.starts_with("r20,")).collect::<Vec<_>>().join("\n"));
     let r = scene(spec, fewer.as_bytes());
     assert_eq!(facets(&r.scene).len(), 400);
-    let e = render(r#"{"layers":[{"draw":"point","x":"v","y":"v"}],"panels":{"by":"v"}}"#, Some(DataBytes { bytes: csv.as_bytes(), name: "d.csv" }), &RenderOptions::default());
+    let e = render(
+        r#"{"layers":[{"draw":"point","x":"v","y":"v"}],"panels":{"by":"v"}}"#,
+        Some(DataBytes { bytes: csv.as_bytes(), name: "d.csv" }),
+        &RenderOptions::default(),
+    );
     assert!(e.is_ok(), "41 values of v are few enough");
 }
 

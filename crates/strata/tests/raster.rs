@@ -41,7 +41,11 @@ impl Picture {
         let f = ((255.0 - p[k]) / (255.0 - c[k])).clamp(0.0, 1.0);
         // Only blends of white and c count (grey lines and text do not).
         let blend = (0..3).all(|j| (p[j] - (255.0 - f * (255.0 - c[j]))).abs() <= 12.0);
-        if blend { f } else { 0.0 }
+        if blend {
+            f
+        } else {
+            0.0
+        }
     }
     /// Is the pixel close to colour c?
     fn near(&self, x: u32, y: u32, c: [f64; 3], tol: f64) -> bool {

@@ -106,8 +106,8 @@ impl Rng {
 }
 
 const KEYS: &[&str] = &[
-    "title", "layers", "draw", "x", "y", "color", "stat", "bin", "rule", "summary", "fit", "band", "window", "size", "kind", "domain",
-    "zero", "coords", "angle", "inner", "theme", "text", "muted", "quiet", "style", "opacity", "dash", "data", "rows", "types", "titel", "colour",
+    "title", "layers", "draw", "x", "y", "color", "stat", "bin", "rule", "summary", "fit", "band", "window", "size", "kind", "domain", "zero", "coords",
+    "angle", "inner", "theme", "text", "muted", "quiet", "style", "opacity", "dash", "data", "rows", "types", "titel", "colour",
 ];
 
 fn random_value(r: &mut Rng, depth: usize) -> Value {

@@ -17,12 +17,20 @@ use crate::math;
 
 /// IEC 61966-2-1 sRGB decoding: encoded 0..1 to linear light.
 pub fn srgb_to_linear(c: f64) -> f64 {
-    if c <= 0.04045 { c / 12.92 } else { math::pow((c + 0.055) / 1.055, 2.4) }
+    if c <= 0.04045 {
+        c / 12.92
+    } else {
+        math::pow((c + 0.055) / 1.055, 2.4)
+    }
 }
 
 /// IEC 61966-2-1 sRGB encoding: linear light to encoded 0..1.
 pub fn linear_to_srgb(c: f64) -> f64 {
-    if c <= 0.0031308 { 12.92 * c } else { 1.055 * math::pow(c, 1.0 / 2.4) - 0.055 }
+    if c <= 0.0031308 {
+        12.92 * c
+    } else {
+        1.055 * math::pow(c, 1.0 / 2.4) - 0.055
+    }
 }
 
 /// `#rrggbb` (or `#rgb`) to encoded sRGB 0..1.
@@ -47,41 +55,21 @@ pub fn hex_to_linear(s: &str) -> Option<[f64; 3]> {
 }
 
 fn mul(m: &[[f64; 3]; 3], v: [f64; 3]) -> [f64; 3] {
-    [
-        m[0][0] * v[0] + m[0][1] * v[1] + m[0][2] * v[2],
-        m[1][0] * v[0] + m[1][1] * v[1] + m[1][2] * v[2],
-        m[2][0] * v[0] + m[2][1] * v[1] + m[2][2] * v[2],
-    ]
+    [m[0][0] * v[0] + m[0][1] * v[1] + m[0][2] * v[2], m[1][0] * v[0] + m[1][1] * v[1] + m[1][2] * v[2], m[2][0] * v[0] + m[2][1] * v[1] + m[2][2] * v[2]]
 }
 
 /// Ottosson (2020): linear sRGB to LMS.
-const RGB_TO_LMS: [[f64; 3]; 3] = [
-    [0.4122214708, 0.5363325363, 0.0514459929],
-    [0.2119034982, 0.6806995451, 0.1073969566],
-    [0.0883024619, 0.2817188376, 0.6299787005],
-];
+const RGB_TO_LMS: [[f64; 3]; 3] =
+    [[0.4122214708, 0.5363325363, 0.0514459929], [0.2119034982, 0.6806995451, 0.1073969566], [0.0883024619, 0.2817188376, 0.6299787005]];
 /// Ottosson (2020): XYZ (D65) to LMS, "M1".
-const XYZ_TO_LMS: [[f64; 3]; 3] = [
-    [0.8189330101, 0.3618667424, -0.1288597137],
-    [0.0329845436, 0.9293118715, 0.0361456387],
-    [0.0482003018, 0.2643662691, 0.6338517070],
-];
+const XYZ_TO_LMS: [[f64; 3]; 3] =
+    [[0.8189330101, 0.3618667424, -0.1288597137], [0.0329845436, 0.9293118715, 0.0361456387], [0.0482003018, 0.2643662691, 0.6338517070]];
 /// Ottosson (2020): non-linear LMS to Lab, "M2".
-const LMS_TO_LAB: [[f64; 3]; 3] = [
-    [0.2104542553, 0.7936177850, -0.0040720468],
-    [1.9779984951, -2.4285922050, 0.4505937099],
-    [0.0259040371, 0.7827717662, -0.8086757660],
-];
-const LAB_TO_LMS: [[f64; 3]; 3] = [
-    [1.0, 0.3963377774, 0.2158037573],
-    [1.0, -0.1055613458, -0.0638541728],
-    [1.0, -0.0894841775, -1.2914855480],
-];
-const LMS_TO_RGB: [[f64; 3]; 3] = [
-    [4.0767416621, -3.3077115913, 0.2309699292],
-    [-1.2684380046, 2.6097574011, -0.3413193965],
-    [-0.0041960863, -0.7034186147, 1.7076147010],
-];
+const LMS_TO_LAB: [[f64; 3]; 3] =
+    [[0.2104542553, 0.7936177850, -0.0040720468], [1.9779984951, -2.4285922050, 0.4505937099], [0.0259040371, 0.7827717662, -0.8086757660]];
+const LAB_TO_LMS: [[f64; 3]; 3] = [[1.0, 0.3963377774, 0.2158037573], [1.0, -0.1055613458, -0.0638541728], [1.0, -0.0894841775, -1.2914855480]];
+const LMS_TO_RGB: [[f64; 3]; 3] =
+    [[4.0767416621, -3.3077115913, 0.2309699292], [-1.2684380046, 2.6097574011, -0.3413193965], [-0.0041960863, -0.7034186147, 1.7076147010]];
 
 fn lms_to_oklab(lms: [f64; 3]) -> [f64; 3] {
     mul(&LMS_TO_LAB, lms.map(math::cbrt))
@@ -218,11 +206,13 @@ pub struct Ramp {
 }
 
 /// Sequential "lagoon": pale blue-green to deep blue.
-pub const LAGOON: Ramp = Ramp { name: "lagoon", stops: &[[0.96, 0.03, 190.0], [0.75, 0.09, 215.0], [0.52, 0.11, 245.0], [0.30, 0.08, 265.0]], diverging: false };
+pub const LAGOON: Ramp =
+    Ramp { name: "lagoon", stops: &[[0.96, 0.03, 190.0], [0.75, 0.09, 215.0], [0.52, 0.11, 245.0], [0.30, 0.08, 265.0]], diverging: false };
 /// Sequential "loam": pale sand to dark earth.
 pub const LOAM: Ramp = Ramp { name: "loam", stops: &[[0.96, 0.03, 90.0], [0.78, 0.09, 75.0], [0.56, 0.10, 50.0], [0.33, 0.06, 35.0]], diverging: false };
 /// Sequential "heather": pale lilac to deep plum.
-pub const HEATHER: Ramp = Ramp { name: "heather", stops: &[[0.96, 0.02, 320.0], [0.76, 0.08, 315.0], [0.53, 0.12, 320.0], [0.31, 0.09, 330.0]], diverging: false };
+pub const HEATHER: Ramp =
+    Ramp { name: "heather", stops: &[[0.96, 0.02, 320.0], [0.76, 0.08, 315.0], [0.53, 0.12, 320.0], [0.31, 0.09, 330.0]], diverging: false };
 /// Diverging "crossing": blue through a light grey to copper.
 pub const CROSSING: Ramp = Ramp {
     name: "crossing",
@@ -230,11 +220,8 @@ pub const CROSSING: Ramp = Ramp {
     diverging: true,
 };
 /// Diverging "ridge": green through a light grey to purple.
-pub const RIDGE: Ramp = Ramp {
-    name: "ridge",
-    stops: &[[0.40, 0.09, 150.0], [0.66, 0.10, 145.0], [0.94, 0.005, 250.0], [0.66, 0.10, 315.0], [0.40, 0.12, 315.0]],
-    diverging: true,
-};
+pub const RIDGE: Ramp =
+    Ramp { name: "ridge", stops: &[[0.40, 0.09, 150.0], [0.66, 0.10, 145.0], [0.94, 0.005, 250.0], [0.66, 0.10, 315.0], [0.40, 0.12, 315.0]], diverging: true };
 
 pub const RAMPS: [Ramp; 5] = [LAGOON, LOAM, HEATHER, CROSSING, RIDGE];
 

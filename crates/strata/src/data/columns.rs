@@ -128,7 +128,11 @@ pub fn parse_int(b: &[u8]) -> Option<i64> {
         v = v * 10 + x as u64;
     }
     if neg {
-        if v > i64::MAX as u64 + 1 { None } else { Some((v as i64).wrapping_neg()) }
+        if v > i64::MAX as u64 + 1 {
+            None
+        } else {
+            Some((v as i64).wrapping_neg())
+        }
     } else if v > i64::MAX as u64 {
         None
     } else {
@@ -148,9 +152,7 @@ pub fn parse_float(b: &[u8], decimal_comma: bool) -> Option<f64> {
 }
 
 /// Exact powers of ten up to 10^22, the largest that f64 holds exactly.
-const POW10: [f64; 23] = [
-    1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22,
-];
+const POW10: [f64; 23] = [1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22];
 
 /// `[-+]digits[.digits]` with at most 15 significant digits: the digits
 /// as an integer below 2^53 and the power of ten are both exact in f64, so
@@ -258,11 +260,7 @@ fn first_kind(col: &TextColumn, rules: &CellRules) -> Inferred {
 }
 
 /// Parse every non-null cell with `f`; `Err(row)` names the first that fails.
-fn scan<T: Default + Copy>(
-    col: &TextColumn,
-    rules: &CellRules,
-    f: impl Fn(&[u8]) -> Option<T>,
-) -> Result<(Vec<T>, Option<NullBuffer>), usize> {
+fn scan<T: Default + Copy>(col: &TextColumn, rules: &CellRules, f: impl Fn(&[u8]) -> Option<T>) -> Result<(Vec<T>, Option<NullBuffer>), usize> {
     let n = col.len();
     let mut vals = Vec::with_capacity(n);
     let mut nulls: Option<BooleanBufferBuilder> = None;
@@ -326,7 +324,11 @@ pub fn build(col: TextColumn, forced: Option<ColumnType>, rules: &CellRules) -> 
     };
     let strict = forced.is_some();
     let fallback = |col: TextColumn, row: usize, expected| {
-        if strict { Err(cell_error(&col, row, expected)) } else { text(col, rules) }
+        if strict {
+            Err(cell_error(&col, row, expected))
+        } else {
+            text(col, rules)
+        }
     };
     match kind {
         Inferred::Int => match scan(&col, rules, parse_int) {
@@ -370,20 +372,18 @@ fn text(col: TextColumn, rules: &CellRules) -> Result<ArrayRef, CellError> {
         let pos = e.valid_up_to();
         let row = col.cell_at_byte(pos);
         let at = pos - col.offsets[row] as usize;
-        return Err(CellError {
-            row,
-            value: String::from_utf8_lossy(col.cell(row)).into_owned(),
-            expected: "UTF-8 text",
-            invalid_utf8: Some(at),
-        });
+        return Err(CellError { row, value: String::from_utf8_lossy(col.cell(row)).into_owned(), expected: "UTF-8 text", invalid_utf8: Some(at) });
     }
     let n = col.len();
     let nulls = text_nulls(&col, rules);
     let TextColumn { values, offsets } = col;
     let offsets = OffsetBuffer::new(ScalarBuffer::from(offsets));
-    StringArray::try_new(offsets, Buffer::from_vec(values), nulls)
-        .map(|a| Arc::new(a) as ArrayRef)
-        .map_err(|e| CellError { row: n, value: e.to_string(), expected: "UTF-8 text", invalid_utf8: Some(0) })
+    StringArray::try_new(offsets, Buffer::from_vec(values), nulls).map(|a| Arc::new(a) as ArrayRef).map_err(|e| CellError {
+        row: n,
+        value: e.to_string(),
+        expected: "UTF-8 text",
+        invalid_utf8: Some(0),
+    })
 }
 
 fn text_nulls(col: &TextColumn, rules: &CellRules) -> Option<NullBuffer> {

@@ -8,8 +8,7 @@
 //! finds its line afterwards from the record's byte offset.
 
 use super::columns::{
-    build, parse_bool, parse_date, parse_datetime, parse_float, parse_int, type_word, unique_names, CellError, CellRules, TextColumn, EXPECT_BOOL,
-    EXPECT_DATE,
+    build, parse_bool, parse_date, parse_datetime, parse_float, parse_int, type_word, unique_names, CellError, CellRules, TextColumn, EXPECT_BOOL, EXPECT_DATE,
 };
 use super::{ReadOptions, Table};
 use crate::error::{Diagnostic, Errors};
@@ -234,14 +233,7 @@ fn header_record(bytes: &[u8], delimiter: u8) -> Option<Vec<Vec<u8>>> {
     header
 }
 
-fn tokenize(
-    bytes: &[u8],
-    delimiter: u8,
-    max_rows: usize,
-    names: &[String],
-    forced: &[Option<ColumnType>],
-    rules: &CellRules,
-) -> Result<Parsed, Errors> {
+fn tokenize(bytes: &[u8], delimiter: u8, max_rows: usize, names: &[String], forced: &[Option<ColumnType>], rules: &CellRules) -> Result<Parsed, Errors> {
     let ncols = names.len();
     let mut sinks: Vec<Sink> = Vec::new();
     let mut errors: Vec<Diagnostic> = Vec::new();
@@ -560,9 +552,9 @@ pub fn read(bytes: &[u8], delimiter: u8, opts: &ReadOptions) -> Result<Table, Er
             Sink::Float { vals, mut nulls } => Arc::new(Float64Array::new(ScalarBuffer::from(vals), nulls.as_mut().map(|b| NullBuffer::new(b.finish())))),
             Sink::Bool { mut vals, mut nulls } => Arc::new(BooleanArray::new(vals.finish(), nulls.as_mut().map(|b| NullBuffer::new(b.finish())))),
             Sink::Date { vals, mut nulls } => Arc::new(Date32Array::new(ScalarBuffer::from(vals), nulls.as_mut().map(|b| NullBuffer::new(b.finish())))),
-            Sink::DateTime { vals, mut nulls } => Arc::new(
-                TimestampMillisecondArray::new(ScalarBuffer::from(vals), nulls.as_mut().map(|b| NullBuffer::new(b.finish()))).with_timezone("UTC"),
-            ),
+            Sink::DateTime { vals, mut nulls } => {
+                Arc::new(TimestampMillisecondArray::new(ScalarBuffer::from(vals), nulls.as_mut().map(|b| NullBuffer::new(b.finish()))).with_timezone("UTC"))
+            }
             Sink::Text(col) => build(col, forced[c], &rules).map_err(|e| cell_error(bytes, delimiter, name, c, forced[c], e))?,
             Sink::Redo => return Err(Diagnostic::error("data.internal", format!("column `{name}` was not read")).into()),
         };
@@ -580,12 +572,11 @@ fn cell_error(bytes: &[u8], delimiter: u8, name: &str, c: usize, forced: Option<
             format!("the data is not valid UTF-8: byte {} of the cell in column `{name}` is not part of a UTF-8 character", at + 1),
         )
         .with_hint("save the file as UTF-8"),
-        (None, Some(t)) => Diagnostic::error(
-            "data.type_mismatch",
-            format!("column `{name}` is declared `{}` but holds `{}`: expected {}", type_word(t), e.value, e.expected),
-        )
-        .at_path(format!("data.types.{name}"))
-        .with_hint(format!("fix the cell, make it empty for a missing value, or drop `{name}` from `data.types`")),
+        (None, Some(t)) => {
+            Diagnostic::error("data.type_mismatch", format!("column `{name}` is declared `{}` but holds `{}`: expected {}", type_word(t), e.value, e.expected))
+                .at_path(format!("data.types.{name}"))
+                .with_hint(format!("fix the cell, make it empty for a missing value, or drop `{name}` from `data.types`"))
+        }
         (None, None) => Diagnostic::error("data.internal", format!("column `{name}`: {}", e.value)),
     };
     d.at_data(line, Some(c as u64 + 1)).into()
@@ -728,8 +719,31 @@ mod tests {
     #[test]
     fn streaming_types_match_typing_the_text() {
         let pool = [
-            "1", "-0", "0", "007", "+5", "9007199254740993", "-9223372036854775808", "2.5", "-0.0", "1e3", ".5", "", "NA", "-", "x", "true",
-            "2024-01-02", "-999", " 7 ", "False", "TRUE", "1969-12-31", "2024-05-06T07:08:09+02:00", "2024-05-06 07:08", "2023-02-29",
+            "1",
+            "-0",
+            "0",
+            "007",
+            "+5",
+            "9007199254740993",
+            "-9223372036854775808",
+            "2.5",
+            "-0.0",
+            "1e3",
+            ".5",
+            "",
+            "NA",
+            "-",
+            "x",
+            "true",
+            "2024-01-02",
+            "-999",
+            " 7 ",
+            "False",
+            "TRUE",
+            "1969-12-31",
+            "2024-05-06T07:08:09+02:00",
+            "2024-05-06 07:08",
+            "2023-02-29",
         ];
         let mut x: u64 = 0x2545_F491_4F6C_DD1D;
         for round in 0..6000 {
@@ -742,13 +756,7 @@ mod tests {
             let n = 1 + (next() % 6) as usize;
             let lead = (next() % 3) as usize; // bias the first cells to numbers
             let cells: Vec<&str> = (0..n)
-                .map(|i| {
-                    if i == 0 && lead > 0 {
-                        pool[[0, 3, 7, 19, 16, 22, 23][(next() % 7) as usize]]
-                    } else {
-                        pool[(next() % pool.len() as u64) as usize]
-                    }
-                })
+                .map(|i| if i == 0 && lead > 0 { pool[[0, 3, 7, 19, 16, 22, 23][(next() % 7) as usize]] } else { pool[(next() % pool.len() as u64) as usize] })
                 .collect();
             let mut o = opts();
             if round % 3 == 0 {

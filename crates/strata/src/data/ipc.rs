@@ -19,8 +19,7 @@ use crate::spec::ColumnType;
 use arrow_array::cast::AsArray;
 use arrow_array::types::*;
 use arrow_array::{
-    new_empty_array, Array, ArrayRef, ArrowPrimitiveType, Date32Array, Float64Array, Int64Array, RecordBatch,
-    StringArray, TimestampMillisecondArray,
+    new_empty_array, Array, ArrayRef, ArrowPrimitiveType, Date32Array, Float64Array, Int64Array, RecordBatch, StringArray, TimestampMillisecondArray,
 };
 use arrow_ipc::reader::{FileReader, StreamReader};
 use arrow_schema::{ArrowError, DataType, Field, Schema, SchemaRef, TimeUnit};
@@ -118,9 +117,7 @@ fn dictionary_values(dt: &DataType, out: &mut Vec<DataType>) {
             out.push(v.as_ref().clone());
             dictionary_values(v, out);
         }
-        D::List(f) | D::LargeList(f) | D::Map(f, _) | D::ListView(f) | D::LargeListView(f) | D::FixedSizeList(f, _) => {
-            dictionary_values(f.data_type(), out)
-        }
+        D::List(f) | D::LargeList(f) | D::Map(f, _) | D::ListView(f) | D::LargeListView(f) | D::FixedSizeList(f, _) => dictionary_values(f.data_type(), out),
         D::Struct(fs) => fs.iter().for_each(|f| dictionary_values(f.data_type(), out)),
         D::Union(fs, _) => fs.iter().for_each(|(_, f)| dictionary_values(f.data_type(), out)),
         D::RunEndEncoded(a, b) => {
@@ -330,10 +327,8 @@ pub fn read(bytes: &[u8], opts: &ReadOptions) -> Result<Table, Errors> {
     let mut warnings: Vec<Diagnostic> = notes.into_iter().map(|n| Diagnostic::warning("data.renamed_header", n)).collect();
     warnings.extend(super::unknown_type_keys(&opts.types, &names));
     for (name, dt) in left_out {
-        warnings.push(Diagnostic::warning(
-            "data.unsupported_column",
-            format!("column `{name}` has Arrow type {dt}, which Strata cannot chart; it was left out"),
-        ));
+        warnings
+            .push(Diagnostic::warning("data.unsupported_column", format!("column `{name}` has Arrow type {dt}, which Strata cannot chart; it was left out")));
     }
     let mut fields = Vec::new();
     let mut arrays = Vec::new();
@@ -402,7 +397,11 @@ fn pow10(k: i32) -> f64 {
     for _ in 0..k.unsigned_abs().min(400) {
         v *= 10.0;
     }
-    if k < 0 { 1.0 / v } else { v }
+    if k < 0 {
+        1.0 / v
+    } else {
+        v
+    }
 }
 
 /// Any Arrow array as one of the six hand-off types; `None` for types

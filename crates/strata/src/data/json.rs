@@ -27,11 +27,7 @@ pub fn read(bytes: &[u8], opts: &ReadOptions) -> Result<Table, Errors> {
         match it {
             Value::Object(m) => rows.push(m),
             other => {
-                return Err(Diagnostic::error(
-                    "data.json_shape",
-                    format!("record {} of the JSON array is {}, expected an object", i + 1, kind(&other)),
-                )
-                .into());
+                return Err(Diagnostic::error("data.json_shape", format!("record {} of the JSON array is {}, expected an object", i + 1, kind(&other))).into());
             }
         }
     }
@@ -135,7 +131,8 @@ mod tests {
 
     #[test]
     fn records_become_typed_columns() {
-        let t = read(br#"[{"a": 1, "b": 1.5, "c": true, "d": "2024-01-02", "e": "x"}, {"a": null, "b": 2, "c": false, "d": null, "f": [1]}]"#, &opts()).unwrap();
+        let t =
+            read(br#"[{"a": 1, "b": 1.5, "c": true, "d": "2024-01-02", "e": "x"}, {"a": null, "b": 2, "c": false, "d": null, "f": [1]}]"#, &opts()).unwrap();
         let s = t.batch.schema();
         let types: Vec<_> = s.fields().iter().map(|f| (f.name().as_str(), f.data_type().clone())).collect();
         assert_eq!(

@@ -109,12 +109,9 @@ pub fn format_from_name(name: &str) -> Option<DataFormat> {
 /// Read bytes into a table.
 pub fn read(bytes: &[u8], opts: &ReadOptions) -> Result<Table, Errors> {
     if bytes.len() > opts.max_bytes {
-        return Err(Diagnostic::error(
-            "data.too_large",
-            format!("the data is {} bytes, over the byte cap of {} bytes", bytes.len(), opts.max_bytes),
-        )
-        .with_hint("raise the byte cap (`ReadOptions::max_bytes`) where the data is loaded, or chart a smaller extract")
-        .into());
+        return Err(Diagnostic::error("data.too_large", format!("the data is {} bytes, over the byte cap of {} bytes", bytes.len(), opts.max_bytes))
+            .with_hint("raise the byte cap (`ReadOptions::max_bytes`) where the data is loaded, or chart a smaller extract")
+            .into());
     }
     if let Some(expected) = &opts.sha256 {
         check_sha256(bytes, expected)?;
@@ -133,12 +130,11 @@ pub fn read(bytes: &[u8], opts: &ReadOptions) -> Result<Table, Errors> {
         #[cfg(feature = "ipc")]
         DataFormat::Arrow => ipc::read(bytes, opts),
         #[cfg(not(feature = "ipc"))]
-        DataFormat::Arrow => Err(Diagnostic::error(
-            "data.format_unsupported",
-            "Arrow IPC data is not supported by this build (built without the `ipc` feature)",
-        )
-        .at_path("data.format")
-        .into()),
+        DataFormat::Arrow => {
+            Err(Diagnostic::error("data.format_unsupported", "Arrow IPC data is not supported by this build (built without the `ipc` feature)")
+                .at_path("data.format")
+                .into())
+        }
     }
 }
 
@@ -157,12 +153,9 @@ pub fn sha256_hex(bytes: &[u8]) -> String {
 fn check_sha256(bytes: &[u8], expected: &str) -> Result<(), Errors> {
     let want = expected.trim().to_ascii_lowercase();
     if want.len() != 64 || !want.bytes().all(|b| b.is_ascii_hexdigit()) {
-        return Err(Diagnostic::error(
-            "data.sha256_invalid",
-            format!("`{expected}` is not a SHA-256 digest: expected 64 hexadecimal digits"),
-        )
-        .at_path("data.sha256")
-        .into());
+        return Err(Diagnostic::error("data.sha256_invalid", format!("`{expected}` is not a SHA-256 digest: expected 64 hexadecimal digits"))
+            .at_path("data.sha256")
+            .into());
     }
     let got = sha256_hex(bytes);
     if got != want {

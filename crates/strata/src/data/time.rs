@@ -35,7 +35,13 @@ pub fn days_in_month(y: i64, m: u32) -> u32 {
     match m {
         1 | 3 | 5 | 7 | 8 | 10 | 12 => 31,
         4 | 6 | 9 | 11 => 30,
-        _ => if is_leap(y) { 29 } else { 28 },
+        _ => {
+            if is_leap(y) {
+                29
+            } else {
+                28
+            }
+        }
     }
 }
 
@@ -121,14 +127,22 @@ pub fn parse_datetime_bytes(b: &[u8]) -> Option<i64> {
                 return None;
             }
             let v = h * 60 + m;
-            if *sign == b'-' { -v } else { v }
+            if *sign == b'-' {
+                -v
+            } else {
+                v
+            }
         }
         [sign @ (b'+' | b'-'), h1, h2] => {
             let v = digits(&[*h1, *h2])?.min(24) * 60;
             if v > 23 * 60 {
                 return None;
             }
-            if *sign == b'-' { -v } else { v }
+            if *sign == b'-' {
+                -v
+            } else {
+                v
+            }
         }
         _ => return None,
     };

@@ -85,12 +85,7 @@ fn zip<A: Clone, B: Clone, U>(a: &Data<A>, b: &Data<B>, n: usize, f: impl Fn(Opt
 
 /// Combine two columns row by row, NULL in gives NULL out; `f` may fail
 /// (integer overflow), which reports the row.
-fn try_zip<A: Clone, B: Clone, U>(
-    a: &Data<A>,
-    b: &Data<B>,
-    n: usize,
-    f: impl Fn(&A, &B) -> Result<Option<U>, ()>,
-) -> Result<Data<U>, Option<usize>> {
+fn try_zip<A: Clone, B: Clone, U>(a: &Data<A>, b: &Data<B>, n: usize, f: impl Fn(&A, &B) -> Result<Option<U>, ()>) -> Result<Data<U>, Option<usize>> {
     match (a, b) {
         (Data::Const(x), Data::Const(y)) => match (x, y) {
             (Some(x), Some(y)) => f(x, y).map(Data::Const).map_err(|_| None),
@@ -203,9 +198,7 @@ impl Col {
             DataType::Boolean => Col::Bool(Data::Vec(a.as_boolean().iter().collect())),
             DataType::Utf8 => Col::Text(Data::Vec(a.as_string::<i32>().iter().map(|v| v.map(str::to_string)).collect())),
             DataType::Date32 => Col::Date(Data::Vec(a.as_primitive::<Date32Type>().iter().collect())),
-            DataType::Timestamp(TimeUnit::Millisecond, _) => {
-                Col::Timestamp(Data::Vec(a.as_primitive::<TimestampMillisecondType>().iter().collect()))
-            }
+            DataType::Timestamp(TimeUnit::Millisecond, _) => Col::Timestamp(Data::Vec(a.as_primitive::<TimestampMillisecondType>().iter().collect())),
             DataType::Null => Col::Null,
             _ => return None,
         })
@@ -252,9 +245,9 @@ pub fn eval(e: &Expr, env: &Env) -> R {
             let c = eval(inner, env)?;
             match c {
                 Col::Null => Ok(Col::Null),
-                Col::Int(d) => try_zip(&d, &Data::Const(Some(())), n, |v, _| v.checked_neg().map(Some).ok_or(()))
-                    .map(Col::Int)
-                    .map_err(|row| overflow(*span, row)),
+                Col::Int(d) => {
+                    try_zip(&d, &Data::Const(Some(())), n, |v, _| v.checked_neg().map(Some).ok_or(())).map(Col::Int).map_err(|row| overflow(*span, row))
+                }
                 Col::Float(d) => Ok(Col::Float(d.map(n, |v| Some(-v)))),
                 c => Err(type_err("`-`", "a number", &c, inner.span())),
             }
@@ -326,9 +319,8 @@ fn column(name: &str, quoted: bool, span: Span, env: &Env) -> R {
         };
         return Err(err);
     };
-    Col::from_array(&env.columns[pos]).ok_or_else(|| {
-        ExprError::new(format!("column `{name}` has type {:?}, which expressions cannot read", env.columns[pos].data_type()), span)
-    })
+    Col::from_array(&env.columns[pos])
+        .ok_or_else(|| ExprError::new(format!("column `{name}` has type {:?}, which expressions cannot read", env.columns[pos].data_type()), span))
 }
 
 pub(super) fn type_err(what: &str, wanted: &str, got: &Col, span: Span) -> ExprError {
@@ -535,17 +527,15 @@ fn case(operand: Option<&Expr>, whens: &[(Expr, Expr)], otherwise: Option<&Expr>
         let cb = c.as_bool().ok_or_else(|| type_err("WHEN", "a true/false condition", &c, w.span()))?;
         conds.push(cb);
         let val = eval(v, env)?;
-        ty = unify(ty, val.ty()).ok_or_else(|| {
-            ExprError::new(format!("this CASE branch gives {}, but an earlier one gives {}", val.ty().word(), ty.word()), v.span())
-        })?;
+        ty = unify(ty, val.ty())
+            .ok_or_else(|| ExprError::new(format!("this CASE branch gives {}, but an earlier one gives {}", val.ty().word(), ty.word()), v.span()))?;
         vals.push(val);
     }
     let other = match otherwise {
         Some(e) => {
             let val = eval(e, env)?;
-            ty = unify(ty, val.ty()).ok_or_else(|| {
-                ExprError::new(format!("the ELSE branch gives {}, but an earlier one gives {}", val.ty().word(), ty.word()), e.span())
-            })?;
+            ty = unify(ty, val.ty())
+                .ok_or_else(|| ExprError::new(format!("the ELSE branch gives {}, but an earlier one gives {}", val.ty().word(), ty.word()), e.span()))?;
             val
         }
         None => Col::Null,

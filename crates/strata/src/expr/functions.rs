@@ -6,12 +6,17 @@ use super::parse::{Expr, ExprError, Span};
 use crate::math;
 
 /// The function names, for suggestions and documentation.
-pub const NAMES: [&str; 15] =
-    ["abs", "ceil", "coalesce", "day", "exp", "floor", "length", "ln", "log", "lower", "month", "round", "sqrt", "upper", "year"];
+pub const NAMES: [&str; 15] = ["abs", "ceil", "coalesce", "day", "exp", "floor", "length", "ln", "log", "lower", "month", "round", "sqrt", "upper", "year"];
 
 fn arity(name: &str, args: &[Expr], lo: usize, hi: usize, span: Span) -> Result<(), ExprError> {
     if args.len() < lo || args.len() > hi {
-        let want = if lo == hi { format!("{lo}") } else if hi == usize::MAX { format!("at least {lo}") } else { format!("{lo} or {hi}") };
+        let want = if lo == hi {
+            format!("{lo}")
+        } else if hi == usize::MAX {
+            format!("at least {lo}")
+        } else {
+            format!("{lo} or {hi}")
+        };
         return Err(ExprError::new(format!("{name}() takes {want} argument{}, not {}", if hi == 1 { "" } else { "s" }, args.len()), span));
     }
     Ok(())
@@ -61,7 +66,11 @@ pub fn round_decimal(x: f64, digits: i64) -> f64 {
     let int_len = digits_vec.len() - d;
     let text = format!("{}.{}", std::str::from_utf8(&digits_vec[..int_len]).unwrap(), std::str::from_utf8(&digits_vec[int_len..]).unwrap());
     let v: f64 = text.parse().unwrap_or(x.abs());
-    if x < 0.0 { -v } else { v }
+    if x < 0.0 {
+        -v
+    } else {
+        v
+    }
 }
 
 pub fn call(name: &str, args: &[Expr], span: Span, env: &Env) -> Result<Col, ExprError> {
@@ -177,9 +186,7 @@ pub fn call(name: &str, args: &[Expr], span: Span, env: &Env) -> Result<Col, Exp
             let mut ty = Ty::Null;
             for a in args {
                 let c = eval(a, env)?;
-                ty = unify(ty, c.ty()).ok_or_else(|| {
-                    ExprError::new(format!("coalesce() mixes {} with {}", ty.word(), c.ty().word()), a.span())
-                })?;
+                ty = unify(ty, c.ty()).ok_or_else(|| ExprError::new(format!("coalesce() mixes {} with {}", ty.word(), c.ty().word()), a.span()))?;
                 cols.push(c);
             }
             let cols: Vec<Col> = cols.into_iter().map(|c| cast(c, ty, n)).collect();

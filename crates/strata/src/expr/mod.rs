@@ -163,9 +163,9 @@ fn filter_array(a: &ArrayRef, mask: &[bool]) -> ArrayRef {
         DataType::Boolean => Arc::new(BooleanArray::from(pick(a.as_boolean().iter(), mask))),
         DataType::Utf8 => Arc::new(StringArray::from(pick(a.as_string::<i32>().iter(), mask))),
         DataType::Date32 => Arc::new(Date32Array::from(pick(a.as_primitive::<Date32Type>().iter(), mask))),
-        DataType::Timestamp(_, tz) => Arc::new(
-            TimestampMillisecondArray::from(pick(a.as_primitive::<TimestampMillisecondType>().iter(), mask)).with_timezone_opt(tz.clone()),
-        ),
+        DataType::Timestamp(_, tz) => {
+            Arc::new(TimestampMillisecondArray::from(pick(a.as_primitive::<TimestampMillisecondType>().iter(), mask)).with_timezone_opt(tz.clone()))
+        }
         _ => Arc::new(NullArray::new(mask.iter().filter(|b| **b).count())),
     }
 }

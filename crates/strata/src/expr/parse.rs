@@ -112,11 +112,7 @@ impl Expr {
     pub fn span(&self) -> Span {
         match self {
             Expr::Lit(_, s) | Expr::Column(_, _, s) | Expr::Neg(_, s) | Expr::Not(_, s) | Expr::Binary(_, _, _, s) => *s,
-            Expr::IsNull { span, .. }
-            | Expr::In { span, .. }
-            | Expr::Between { span, .. }
-            | Expr::Case { span, .. }
-            | Expr::Call { span, .. } => *span,
+            Expr::IsNull { span, .. } | Expr::In { span, .. } | Expr::Between { span, .. } | Expr::Case { span, .. } | Expr::Call { span, .. } => *span,
         }
     }
 }
@@ -260,10 +256,8 @@ fn lex(text: &str) -> Result<Vec<(Tok, Span)>, ExprError> {
 // ---------------------------------------------------------------- parser
 
 /// Words that cannot be bare column names (quote them: `"end"`).
-pub const RESERVED: [&str; 17] = [
-    "AND", "OR", "NOT", "IN", "BETWEEN", "IS", "NULL", "CASE", "WHEN", "THEN", "ELSE", "END", "TRUE", "FALSE", "DATE",
-    "TIMESTAMP", "UNKNOWN",
-];
+pub const RESERVED: [&str; 17] =
+    ["AND", "OR", "NOT", "IN", "BETWEEN", "IS", "NULL", "CASE", "WHEN", "THEN", "ELSE", "END", "TRUE", "FALSE", "DATE", "TIMESTAMP", "UNKNOWN"];
 
 struct Parser {
     toks: Vec<(Tok, Span)>,
@@ -559,7 +553,10 @@ impl Parser {
                             crate::data::time::parse_datetime(&s)
                                 .or_else(|| crate::data::time::parse_date(&s).map(|d| d * 86_400_000))
                                 .map(|t| Expr::Lit(Literal::Timestamp(t), full))
-                                .ok_or_else(|| ExprError::new(format!("'{s}' is not a date-time"), sspan).hint("write TIMESTAMP 'yyyy-MM-dd HH:mm:ss', such as TIMESTAMP '2024-03-01 12:00:00'"))
+                                .ok_or_else(|| {
+                                    ExprError::new(format!("'{s}' is not a date-time"), sspan)
+                                        .hint("write TIMESTAMP 'yyyy-MM-dd HH:mm:ss', such as TIMESTAMP '2024-03-01 12:00:00'")
+                                })
                         };
                     }
                     _ => {}

@@ -5,8 +5,7 @@ use crate::data::from_rows;
 use serde_json::json;
 
 fn table(rows: serde_json::Value) -> Table {
-    let rows: Vec<serde_json::Map<String, serde_json::Value>> =
-        rows.as_array().unwrap().iter().map(|r| r.as_object().unwrap().clone()).collect();
+    let rows: Vec<serde_json::Map<String, serde_json::Value>> = rows.as_array().unwrap().iter().map(|r| r.as_object().unwrap().clone()).collect();
     from_rows(&rows, &IndexMap::new()).unwrap()
 }
 

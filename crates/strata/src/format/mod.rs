@@ -314,7 +314,13 @@ impl NumberPattern {
         let pos_prefix = parse_affix(&pre);
         let pos_suffix = parse_affix(&suf);
         let has = |a: &Affix| pos_prefix.contains(a) || pos_suffix.contains(a);
-        let scale = if has(&Affix::Percent) { 2 } else if has(&Affix::Permille) { 3 } else { 0 };
+        let scale = if has(&Affix::Percent) {
+            2
+        } else if has(&Affix::Permille) {
+            3
+        } else {
+            0
+        };
         let neg = subs.get(1).map(|n| {
             let (p, _, s) = split_sub(n);
             (parse_affix(&p), parse_affix(&s))
@@ -325,7 +331,13 @@ impl NumberPattern {
     /// Format `v` in locale `loc`.
     pub fn format(&self, v: f64, loc: &Locale) -> String {
         if !v.is_finite() {
-            return if v.is_nan() { "NaN".into() } else if v > 0.0 { "\u{221e}".into() } else { format!("{}\u{221e}", loc.minus) };
+            return if v.is_nan() {
+                "NaN".into()
+            } else if v > 0.0 {
+                "\u{221e}".into()
+            } else {
+                format!("{}\u{221e}", loc.minus)
+            };
         }
         let mut d = Dec::from_f64(v);
         d.shift(self.scale);
@@ -439,7 +451,15 @@ pub fn compact(v: f64, fraction_digits: usize, loc: &Locale) -> String {
     let sign = if v < 0.0 && !d.is_zero() { loc.minus } else { "" };
     let body = num_pat.digits(&d, loc);
     let (pre, suf) = literal.split_once('\u{0}').unwrap_or(("", ""));
-    let text = |s: &str| parse_affix(s).iter().map(|a| match a { Affix::Text(t) => t.clone(), _ => String::new() }).collect::<String>();
+    let text = |s: &str| {
+        parse_affix(s)
+            .iter()
+            .map(|a| match a {
+                Affix::Text(t) => t.clone(),
+                _ => String::new(),
+            })
+            .collect::<String>()
+    };
     format!("{sign}{}{body}{}", text(pre), text(suf))
 }
 
@@ -473,7 +493,11 @@ pub fn step_decimals(step: f64) -> usize {
 /// many decimals as the step has, so labels never show false precision.
 pub fn default_pattern(step: f64) -> String {
     let d = step_decimals(step);
-    if d == 0 { "#,##0".to_string() } else { format!("#,##0.{}", "0".repeat(d)) }
+    if d == 0 {
+        "#,##0".to_string()
+    } else {
+        format!("#,##0.{}", "0".repeat(d))
+    }
 }
 
 /// A tick label for `v` when ticks are `step` apart (English).
@@ -658,8 +682,7 @@ mod tests {
     /// tests/reference/gen/babel_locales.py.
     #[test]
     fn numbers_match_babel() {
-        let f: Fixture<NumberCase> =
-            serde_json::from_str(include_str!("../../../../tests/reference/fixtures/format/numbers.json")).unwrap();
+        let f: Fixture<NumberCase> = serde_json::from_str(include_str!("../../../../tests/reference/fixtures/format/numbers.json")).unwrap();
         let mut bad = Vec::new();
         for c in &f.cases {
             let got = number(c.value, &c.pattern, locale(&c.locale));
@@ -675,8 +698,7 @@ mod tests {
     /// by tests/reference/gen/babel_locales.py.
     #[test]
     fn dates_match_babel() {
-        let f: Fixture<DateCase> =
-            serde_json::from_str(include_str!("../../../../tests/reference/fixtures/format/dates.json")).unwrap();
+        let f: Fixture<DateCase> = serde_json::from_str(include_str!("../../../../tests/reference/fixtures/format/dates.json")).unwrap();
         let mut bad = Vec::new();
         for c in &f.cases {
             let got = date(c.ms, &c.pattern, locale(&c.locale));

@@ -12,9 +12,9 @@
 //!   or up to 30 % of a band either way (`x_offset`) for categories.
 
 use super::{LayerData, Nums, Values};
-use std::collections::HashMap;
 use crate::spec::{Arrange, Geometry, Layer};
 use crate::stat::rng::SplitMix64;
+use std::collections::HashMap;
 
 /// Seed of the jitter generator; the layer index is mixed in.
 const JITTER_SEED: u64 = 0x5354_5241_5441_0001;
@@ -80,7 +80,11 @@ fn resolution(v: &Nums) -> f64 {
     s.sort_by(f64::total_cmp);
     s.dedup();
     let r = s.windows(2).map(|w| w[1] - w[0]).filter(|d| *d > 0.0).fold(f64::INFINITY, f64::min);
-    if r.is_finite() { r } else { 1.0 }
+    if r.is_finite() {
+        r
+    } else {
+        1.0
+    }
 }
 
 fn jitter(index: usize, data: &mut LayerData) {

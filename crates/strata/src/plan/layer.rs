@@ -28,7 +28,11 @@ pub fn extract(index: usize, layer: &Layer, table: &Table) -> Result<LayerData, 
             None => errors.push(unknown_column(col, &names, format!("layers[{index}].tip[{j}]"))),
         }
     }
-    if errors.is_empty() { Ok(out) } else { Err(Errors(errors)) }
+    if errors.is_empty() {
+        Ok(out)
+    } else {
+        Err(Errors(errors))
+    }
 }
 
 /// Check `panels` against the table once (not once per layer): its columns
@@ -52,7 +56,11 @@ pub fn check_panels(panels: Option<&Panels>, table: &Table) -> Result<(), Errors
             }
         }
     }
-    if errors.is_empty() { Ok(()) } else { Err(Errors(errors)) }
+    if errors.is_empty() {
+        Ok(())
+    } else {
+        Err(Errors(errors))
+    }
 }
 
 /// Add the panel channels: `panel`, the key of each row's panel, from
@@ -86,12 +94,14 @@ pub fn to_values(col: &ArrayRef, as_type: Option<ColumnType>) -> Values {
         }
         DataType::Int64 => {
             let a = col.as_primitive::<Int64Type>();
-            Values::Num(if a.null_count() == 0 { a.values().iter().map(|x| *x as f64).collect::<Vec<f64>>().into() } else { a.iter().map(|v| v.map(|x| x as f64)).collect() })
+            Values::Num(if a.null_count() == 0 {
+                a.values().iter().map(|x| *x as f64).collect::<Vec<f64>>().into()
+            } else {
+                a.iter().map(|v| v.map(|x| x as f64)).collect()
+            })
         }
         DataType::Date32 => Values::Time(col.as_primitive::<Date32Type>().iter().map(|v| v.map(|d| d as f64 * 86_400_000.0)).collect()),
-        DataType::Timestamp(_, _) => {
-            Values::Time(col.as_primitive::<TimestampMillisecondType>().iter().map(|v| v.map(|x| x as f64)).collect())
-        }
+        DataType::Timestamp(_, _) => Values::Time(col.as_primitive::<TimestampMillisecondType>().iter().map(|v| v.map(|x| x as f64)).collect()),
         DataType::Boolean => Values::Text(col.as_boolean().iter().map(|v| v.map(|b| b.to_string())).collect()),
         DataType::Utf8 => Values::Text(col.as_string::<i32>().iter().map(|v| v.map(str::to_string)).collect()),
         _ => Values::Text((0..col.len()).map(|_| None).collect()),
@@ -99,12 +109,16 @@ pub fn to_values(col: &ArrayRef, as_type: Option<ColumnType>) -> Values {
     match (as_type, base) {
         (Some(ColumnType::Text), v @ (Values::Num(_) | Values::Time(_))) => {
             let time = matches!(v, Values::Time(_));
-            Values::Text((0..v.len()).map(|i| match (time, v.num(i)) {
-                (_, None) => None,
-                (true, Some(ms)) => Some(crate::format::date_label(ms)),
-                (false, Some(x)) if x.fract() == 0.0 && x.abs() < 1e15 => Some(format!("{}", x as i64)),
-                (false, Some(x)) => Some(format!("{x}")),
-            }).collect())
+            Values::Text(
+                (0..v.len())
+                    .map(|i| match (time, v.num(i)) {
+                        (_, None) => None,
+                        (true, Some(ms)) => Some(crate::format::date_label(ms)),
+                        (false, Some(x)) if x.fract() == 0.0 && x.abs() < 1e15 => Some(format!("{}", x as i64)),
+                        (false, Some(x)) => Some(format!("{x}")),
+                    })
+                    .collect(),
+            )
         }
         (_, v) => v,
     }

@@ -21,7 +21,6 @@ use crate::error::{Diagnostic, Errors};
 use crate::spec::{Arrange, Geometry, Spec, Style};
 use indexmap::IndexMap;
 
-
 /// A layer's rows after its statistic and position adjustment, keyed by
 /// channel (`x`, `y`, `color`, ...).
 ///

@@ -77,9 +77,19 @@ impl Scales {
         };
         let t = match (ramp.diverging, self.color_mid) {
             (true, Some(m)) if hi > m && m > lo => {
-                if v <= m { 0.5 * (v - lo) / (m - lo) } else { 0.5 + 0.5 * (v - m) / (hi - m) }
+                if v <= m {
+                    0.5 * (v - lo) / (m - lo)
+                } else {
+                    0.5 + 0.5 * (v - m) / (hi - m)
+                }
             }
-            _ => if hi > lo { (v - lo) / (hi - lo) } else { 0.5 },
+            _ => {
+                if hi > lo {
+                    (v - lo) / (hi - lo)
+                } else {
+                    0.5
+                }
+            }
         };
         ramp.at(t)
     }
@@ -123,9 +133,7 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
     let (x_spec, y_spec, color_spec, size_spec, shape_spec) = (get("x"), get("y"), get("color"), get("size"), get("shape"));
     let (x, x_nice) = train_position(X_CHANNELS, "x", &x_spec, layers)?;
     let (y, y_nice) = train_position(Y_CHANNELS, "y", &y_spec, layers)?;
-    let title = |ch: &str, s: &ScaleSpec| {
-        s.title.clone().unwrap_or_else(|| layers.iter().find_map(|l| l.data.names.get(ch).cloned()).unwrap_or_default())
-    };
+    let title = |ch: &str, s: &ScaleSpec| s.title.clone().unwrap_or_else(|| layers.iter().find_map(|l| l.data.names.get(ch).cloned()).unwrap_or_default());
     let locale = format::locale(spec.locale.as_deref().unwrap_or("en"));
 
     // Colour.
@@ -280,9 +288,7 @@ fn explicit_domain(s: &ScaleSpec, axis: &str) -> Result<Option<(f64, f64)>, Erro
         .filter_map(|v| {
             v.as_f64().or_else(|| {
                 let t = v.as_str()?;
-                crate::data::time::parse_date(t)
-                    .map(|d| d as f64 * 86_400_000.0)
-                    .or_else(|| crate::data::time::parse_datetime(t).map(|ms| ms as f64))
+                crate::data::time::parse_date(t).map(|d| d as f64 * 86_400_000.0).or_else(|| crate::data::time::parse_datetime(t).map(|ms| ms as f64))
             })
         })
         .collect();

@@ -53,7 +53,12 @@ pub fn apply(index: usize, layer: &Layer, data: LayerData) -> Result<Stated, Err
                         warnings.push(
                             Diagnostic::warning(
                                 "stat.scatter_binned",
-                                format!("layer {} has {n} points, too many to draw one by one; they are shown as {}x{} tiles shaded by count", index + 1, SCATTER_COLUMNS, SCATTER_ROWS),
+                                format!(
+                                    "layer {} has {n} points, too many to draw one by one; they are shown as {}x{} tiles shaded by count",
+                                    index + 1,
+                                    SCATTER_COLUMNS,
+                                    SCATTER_ROWS
+                                ),
                             )
                             .at_path(format!("layers[{index}]"))
                             .with_hint("set `\"style\": {\"every_point\": true}` to draw every point"),
@@ -393,7 +398,11 @@ fn bin_edges(index: usize, b: &BinSpec, xs: &[f64], is_time: bool) -> Result<Vec
     }
     let width_for_count = |c: u32| {
         let (lo, hi) = bin::min_max(xs).unwrap_or((0.0, 0.0));
-        if hi > lo { (hi - lo) / c as f64 } else { 1.0 }
+        if hi > lo {
+            (hi - lo) / c as f64
+        } else {
+            1.0
+        }
     };
     let asked_width = b.width.map(|w| (w, "width")).or_else(|| b.count.filter(|_| boundary.is_some()).map(|c| (width_for_count(c), "count")));
     if let Some((w, key)) = asked_width {
@@ -567,14 +576,17 @@ fn boxes(index: usize, data: LayerData) -> Result<LayerData, Errors> {
     for rows in groups.values() {
         let ys = nums_of(y, rows);
         let Some(b) = tukey::box_stats(&ys) else { continue };
-        out.row(rows[0], &[
-            ("y", Some(b.lower_whisker.min(b.q1))),
-            ("y_end", Some(b.upper_whisker.max(b.q3))),
-            ("q1", Some(b.q1)),
-            ("median", Some(b.median)),
-            ("q3", Some(b.q3)),
-            ("count", Some(b.n as f64)),
-        ]);
+        out.row(
+            rows[0],
+            &[
+                ("y", Some(b.lower_whisker.min(b.q1))),
+                ("y_end", Some(b.upper_whisker.max(b.q3))),
+                ("q1", Some(b.q1)),
+                ("median", Some(b.median)),
+                ("q3", Some(b.q3)),
+                ("count", Some(b.n as f64)),
+            ],
+        );
         out.text("part", "box");
         for v in &b.outliers {
             out.row(rows[0], &[("y", Some(*v)), ("y_end", Some(*v))]);
@@ -684,7 +696,10 @@ fn scatter_tiles(data: &LayerData) -> Option<LayerData> {
             for c in 0..nx {
                 let k = counts[r * nx + c];
                 if k > 0 {
-                    out.row(rows[0], &[("x", Some(xe[c])), ("x_end", Some(xe[c + 1])), ("y", Some(ye[r])), ("y_end", Some(ye[r + 1])), ("count", Some(k as f64))]);
+                    out.row(
+                        rows[0],
+                        &[("x", Some(xe[c])), ("x_end", Some(xe[c + 1])), ("y", Some(ye[r])), ("y_end", Some(ye[r + 1])), ("count", Some(k as f64))],
+                    );
                 }
             }
         }

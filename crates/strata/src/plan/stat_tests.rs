@@ -74,7 +74,9 @@ fn density_area_matches_exact_kde_and_integrates_to_one() {
     let r = run(spec, FAITHFUL);
     let m = marks_of(&r);
     assert_eq!(m.len(), 1);
-    let table = crate::data::read(FAITHFUL, &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() }).unwrap();
+    let table =
+        crate::data::read(FAITHFUL, &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() })
+            .unwrap();
     let spec = crate::spec::parse_spec(spec).unwrap();
     let plan = crate::plan::build(&spec, &table).unwrap();
     let d = &plan.layers[0].data;
@@ -94,10 +96,13 @@ fn density_area_matches_exact_kde_and_integrates_to_one() {
 
 fn faithful_columns() -> (Vec<f64>, Vec<f64>) {
     let text = std::str::from_utf8(FAITHFUL).unwrap();
-    text.lines().skip(1).map(|l| {
-        let mut it = l.split(',');
-        (it.next().unwrap().parse::<f64>().unwrap(), it.next().unwrap().parse::<f64>().unwrap())
-    }).unzip()
+    text.lines()
+        .skip(1)
+        .map(|l| {
+            let mut it = l.split(',');
+            (it.next().unwrap().parse::<f64>().unwrap(), it.next().unwrap().parse::<f64>().unwrap())
+        })
+        .unzip()
 }
 
 #[test]
@@ -142,7 +147,9 @@ fn quantile_summary_takes_p() {
 fn stack_puts_negatives_below_zero_on_their_own() {
     let csv = b"x,s,v\na,s1,3\na,s2,-2\na,s3,4\na,s4,-1\nb,s1,1\nb,s2,1\n";
     let spec = crate::spec::parse_spec(r#"{"layers":[{"draw":"bar","x":"x","y":"v","color":"s","arrange":"stack"}]}"#).unwrap();
-    let table = crate::data::read(csv, &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() }).unwrap();
+    let table =
+        crate::data::read(csv, &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() })
+            .unwrap();
     let plan = crate::plan::build(&spec, &table).unwrap();
     let d = &plan.layers[0].data;
     let col = |c: &str| (0..d.len).map(|i| d.get(c).unwrap().num(i).unwrap()).collect::<Vec<_>>();
@@ -161,7 +168,13 @@ fn stack_puts_negatives_below_zero_on_their_own() {
 fn beside_splits_the_band_among_colours() {
     let csv = b"x,s,v\na,p,3\na,q,2\nb,p,1\nb,q,4\n";
     let r = run(r#"{"layers":[{"draw":"bar","x":"x","y":"v","color":"s","arrange":"beside"}]}"#, csv);
-    let rects: Vec<(f64, f64)> = marks_of(&r).iter().map(|n| match n { Node::Rect { x, width, .. } => (*x, *width), _ => panic!() }).collect();
+    let rects: Vec<(f64, f64)> = marks_of(&r)
+        .iter()
+        .map(|n| match n {
+            Node::Rect { x, width, .. } => (*x, *width),
+            _ => panic!(),
+        })
+        .collect();
     assert!((rects[0].1 - rects[1].1).abs() < 1e-9);
     assert!((rects[0].0 + rects[0].1 - rects[1].0).abs() < 1e-9, "p then q, touching");
 }
@@ -173,11 +186,19 @@ fn jitter_is_identical_every_run_and_bounded() {
     let a = run(spec, csv);
     let b = run(spec, csv);
     assert_eq!(a.svg, b.svg);
-    let xs: Vec<f64> = marks_of(&a).iter().map(|n| match n { Node::Circle { cx, .. } => *cx, _ => panic!() }).collect();
+    let xs: Vec<f64> = marks_of(&a)
+        .iter()
+        .map(|n| match n {
+            Node::Circle { cx, .. } => *cx,
+            _ => panic!(),
+        })
+        .collect();
     assert!(xs[0] != xs[1] && xs[1] != xs[2], "points moved apart");
     // Jitter in y is at most 40 % of the resolution (1).
     let spec_p = crate::spec::parse_spec(spec).unwrap();
-    let table = crate::data::read(csv, &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() }).unwrap();
+    let table =
+        crate::data::read(csv, &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() })
+            .unwrap();
     let plan = crate::plan::build(&spec_p, &table).unwrap();
     let d = &plan.layers[0].data;
     let orig = [1.0, 1.0, 1.0, 2.0, 2.0, 3.0];
@@ -216,7 +237,10 @@ fn dates_bin_by_calendar_month() {
     let r = run(r#"{"layers":[{"draw":"bar","x":"day","stat":{"bin":{"unit":"month"}}}]}"#, csv);
     let got: Vec<(String, String, f64)> = marks_of(&r)
         .iter()
-        .map(|n| { let d = datum(n); (d["x"].as_str().unwrap().to_string(), d["x_end"].as_str().unwrap().to_string(), f(&d["count"])) })
+        .map(|n| {
+            let d = datum(n);
+            (d["x"].as_str().unwrap().to_string(), d["x_end"].as_str().unwrap().to_string(), f(&d["count"]))
+        })
         .collect();
     assert_eq!(got.len(), 3);
     assert!(got[0].0.starts_with("2024-01-01") && got[0].1.starts_with("2024-02-01"), "{got:?}");
@@ -237,7 +261,11 @@ fn linear_fit_draws_band_under_line_on_anscombe_set_one() {
     let paths: Vec<&Node> = marks_of(&r).into_iter().filter(|n| matches!(n, Node::Path { .. })).collect();
     assert_eq!(paths.len(), 2, "band then line");
     assert!(matches!(paths[0], Node::Path { paint, .. } if paint.fill.as_deref() != Some("none")));
-    let table = crate::data::read(csv.as_bytes(), &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() }).unwrap();
+    let table = crate::data::read(
+        csv.as_bytes(),
+        &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() },
+    )
+    .unwrap();
     let plan = crate::plan::build(&crate::spec::parse_spec(spec).unwrap(), &table).unwrap();
     let d = &plan.layers[1].data;
     for i in 0..d.len {
@@ -256,7 +284,11 @@ fn loess_options_reach_the_fit() {
         csv.push_str(&format!("{x},{}\n", x * x));
     }
     let spec = r#"{"layers":[{"draw":"line","x":"x","y":"y","stat":{"fit":"loess","span":0.3,"degree":2,"robust":true}}]}"#;
-    let table = crate::data::read(csv.as_bytes(), &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() }).unwrap();
+    let table = crate::data::read(
+        csv.as_bytes(),
+        &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() },
+    )
+    .unwrap();
     let plan = crate::plan::build(&crate::spec::parse_spec(spec).unwrap(), &table).unwrap();
     let d = &plan.layers[0].data;
     // Local quadratics reproduce a parabola (Cleveland & Devlin 1988).
@@ -273,7 +305,9 @@ fn loess_options_reach_the_fit() {
 fn rolling_window_per_group_in_x_order() {
     let csv = b"t,g,v\n3,a,30\n1,a,10\n2,a,20\n1,b,1\n2,b,3\n";
     let spec = r#"{"layers":[{"draw":"line","x":"t","y":"v","color":"g","stat":{"window":{"rows":2,"align":"trailing"}}}]}"#;
-    let table = crate::data::read(csv, &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() }).unwrap();
+    let table =
+        crate::data::read(csv, &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() })
+            .unwrap();
     let plan = crate::plan::build(&crate::spec::parse_spec(spec).unwrap(), &table).unwrap();
     let d = &plan.layers[0].data;
     let y: Vec<f64> = (0..d.len).map(|i| d.get("y").unwrap().num(i).unwrap()).collect();
@@ -363,17 +397,35 @@ fn too_many_marks_is_an_error_that_suggests_a_statistic() {
 #[test]
 fn unknown_options_name_their_path() {
     let csv = b"x,y\n1,2\n2,3\n";
-    let e = render(r#"{"layers":[{"draw":"bar","x":"x","stat":{"bin":{"rule":"fancy"}}}]}"#, Some(DataBytes { bytes: csv, name: "d.csv" }), &RenderOptions::default()).unwrap_err();
+    let e = render(
+        r#"{"layers":[{"draw":"bar","x":"x","stat":{"bin":{"rule":"fancy"}}}]}"#,
+        Some(DataBytes { bytes: csv, name: "d.csv" }),
+        &RenderOptions::default(),
+    )
+    .unwrap_err();
     assert_eq!(e.0[0].at.path, "layers[0].stat.bin.rule");
     assert!(format!("{} {}", e.0[0].message, e.0[0].hint.as_deref().unwrap_or("")).contains("sturges"));
-    let e = render(r#"{"layers":[{"draw":"point","x":"x","y":"y","stat":{"summary":"mean","interval":"ci"}}]}"#, Some(DataBytes { bytes: csv, name: "d.csv" }), &RenderOptions::default()).unwrap_err();
+    let e = render(
+        r#"{"layers":[{"draw":"point","x":"x","y":"y","stat":{"summary":"mean","interval":"ci"}}]}"#,
+        Some(DataBytes { bytes: csv, name: "d.csv" }),
+        &RenderOptions::default(),
+    )
+    .unwrap_err();
     assert_eq!(e.0[0].at.path, "layers[0].stat.interval");
 }
 
 #[test]
 fn geometries_draw() {
     let csv = b"x,y,y2,c,t\n1,2,4,p,one\n2,3,5,p,two\n3,1,6,q,three\n";
-    for (geom, extra) in [("ribbon", r#","y_end":"y2""#), ("rule", r#","y_end":"y2""#), ("range", r#","y_end":"y2""#), ("area", ""), ("step", ""), ("label", r#","text":"t""#), ("tile", "")] {
+    for (geom, extra) in [
+        ("ribbon", r#","y_end":"y2""#),
+        ("rule", r#","y_end":"y2""#),
+        ("range", r#","y_end":"y2""#),
+        ("area", ""),
+        ("step", ""),
+        ("label", r#","text":"t""#),
+        ("tile", ""),
+    ] {
         let spec = format!(r#"{{"layers":[{{"draw":"{geom}","x":"x","y":"y"{extra}}}]}}"#);
         let r = run(&spec, csv);
         assert!(r.svg.contains("<path") || r.svg.contains("<rect") || r.svg.contains("<text"), "{geom}");
@@ -395,7 +447,10 @@ fn m4_streaming_and_sorting_paths_agree() {
     let rev = format!("t,v\n{}", rows.iter().rev().cloned().collect::<String>());
     let spec = r#"{"size":{"width":500},"layers":[{"draw":"line","x":"t","y":"v"}]}"#;
     let (a, b) = (run(spec, fwd.as_bytes()), run(spec, rev.as_bytes()));
-    let path = |r: &crate::Rendered| match r.scene.marks()[0] { Node::Path { d, .. } => d.clone(), _ => panic!() };
+    let path = |r: &crate::Rendered| match r.scene.marks()[0] {
+        Node::Path { d, .. } => d.clone(),
+        _ => panic!(),
+    };
     assert_eq!(path(&a), path(&b));
     assert!(f(&datum(a.scene.marks()[0])["drawn_points"]) < 4.0 * 500.0);
 }
@@ -516,9 +571,14 @@ fn too_many_bins_is_refused_where_asked_not_truncated() {
     // Within the limit every value is counted: 11 bins of 1e11 from -1e12
     // hold all three rows.
     let r = render(r#"{"layers":[{"draw":"bar","x":"x","stat":{"bin":{"width":1e11,"boundary":0}}}]}"#, data, &RenderOptions::default()).unwrap();
-    let total: f64 = r.scene.marks().iter().filter_map(|m| match m {
-        Node::Rect { datum: Some(d), .. } => d.get("count").and_then(Value::as_f64),
-        _ => None,
-    }).sum();
+    let total: f64 = r
+        .scene
+        .marks()
+        .iter()
+        .filter_map(|m| match m {
+            Node::Rect { datum: Some(d), .. } => d.get("count").and_then(Value::as_f64),
+            _ => None,
+        })
+        .sum();
     assert_eq!(total, 3.0);
 }

@@ -117,10 +117,7 @@ impl Values {
     pub fn json(&self, i: usize) -> serde_json::Value {
         match self {
             Values::Num(v) => v.get(i).map(json_num).unwrap_or(serde_json::Value::Null),
-            Values::Time(v) => v
-                .get(i)
-                .map(|ms| serde_json::Value::String(crate::format::date_label(ms)))
-                .unwrap_or(serde_json::Value::Null),
+            Values::Time(v) => v.get(i).map(|ms| serde_json::Value::String(crate::format::date_label(ms))).unwrap_or(serde_json::Value::Null),
             Values::Text(v) => v[i].clone().map(serde_json::Value::String).unwrap_or(serde_json::Value::Null),
         }
     }

@@ -16,13 +16,17 @@ use ticks::TimeUnit;
 pub enum Transform {
     Linear,
     /// Logarithm in `base`; values <= 0 have no position.
-    Log { base: f64 },
+    Log {
+        base: f64,
+    },
     /// Square root of the magnitude, keeping the sign.
     Sqrt,
     /// sign(x) log(1 + |x| / c): linear near zero, logarithmic far out
     /// (Webber, "A bi-symmetric log transformation for wide-range data",
     /// Meas. Sci. Technol. 24, 2013).
-    Symlog { constant: f64 },
+    Symlog {
+        constant: f64,
+    },
 }
 
 impl Transform {
@@ -291,19 +295,12 @@ impl PositionScale {
                 } else {
                     number_labels(&vals, step, o)
                 };
-                vals.iter()
-                    .zip(labels)
-                    .map(|(v, label)| Tick { unit: self.unit_num(*v).unwrap_or(0.0), value: *v, label })
-                    .collect()
+                vals.iter().zip(labels).map(|(v, label)| Tick { unit: self.unit_num(*v).unwrap_or(0.0), value: *v, label }).collect()
             }
             PositionScale::Category { values, .. } => values
                 .iter()
                 .enumerate()
-                .map(|(i, v)| Tick {
-                    unit: (i as f64 + 0.5) / values.len() as f64,
-                    value: i as f64,
-                    label: if o.short { shorten(v, 10) } else { v.clone() },
-                })
+                .map(|(i, v)| Tick { unit: (i as f64 + 0.5) / values.len() as f64, value: i as f64, label: if o.short { shorten(v, 10) } else { v.clone() } })
                 .collect(),
         }
     }
@@ -347,20 +344,33 @@ fn number_labels(vals: &[f64], step: TickStep, o: &TickOptions) -> Vec<String> {
 fn default_time_pattern(unit: TimeUnit, vals: &[f64], loc: &Locale, short: bool) -> String {
     let years: Vec<i64> = vals.iter().map(|v| format::civil(*v).year).collect();
     let many_years = years.first() != years.last();
-    let days: Vec<(i64, u32, u32)> = vals.iter().map(|v| {
-        let c = format::civil(*v);
-        (c.year, c.month, c.day)
-    }).collect();
+    let days: Vec<(i64, u32, u32)> = vals
+        .iter()
+        .map(|v| {
+            let c = format::civil(*v);
+            (c.year, c.month, c.day)
+        })
+        .collect();
     let many_days = days.first() != days.last();
     match unit {
-        TimeUnit::Year => if short { "yy".into() } else { "yyyy".into() },
+        TimeUnit::Year => {
+            if short {
+                "yy".into()
+            } else {
+                "yyyy".into()
+            }
+        }
         TimeUnit::Month => match (many_years, short) {
             (true, true) => "MM/yy".into(),
             _ => "MMM".into(),
         },
         TimeUnit::Week | TimeUnit::Day => loc.day_month.to_string(),
         TimeUnit::Hour | TimeUnit::Minute => {
-            if many_days && !short { format!("{} HH:mm", loc.day_month) } else { "HH:mm".into() }
+            if many_days && !short {
+                format!("{} HH:mm", loc.day_month)
+            } else {
+                "HH:mm".into()
+            }
         }
         TimeUnit::Second => "HH:mm:ss".into(),
     }
@@ -422,7 +432,16 @@ pub fn shape_path(i: usize, cx: f64, cy: f64, r: f64) -> String {
         "circle" => {
             return format!(
                 "M{},{}A{},{} 0 1,1 {},{}A{},{} 0 1,1 {},{}Z",
-                num(cx - r), num(cy), num(r), num(r), num(cx + r), num(cy), num(r), num(r), num(cx - r), num(cy)
+                num(cx - r),
+                num(cy),
+                num(r),
+                num(r),
+                num(cx + r),
+                num(cy),
+                num(r),
+                num(r),
+                num(cx - r),
+                num(cy)
             );
         }
         "square" => {

@@ -22,7 +22,15 @@ pub fn nice_num(x: f64, round: bool) -> f64 {
     let exp = math::log10(x).floor();
     let f = x / math::pow(10.0, exp);
     let nf = if round {
-        if f < 1.5 { 1.0 } else if f < 3.0 { 2.0 } else if f < 7.0 { 5.0 } else { 10.0 }
+        if f < 1.5 {
+            1.0
+        } else if f < 3.0 {
+            2.0
+        } else if f < 7.0 {
+            5.0
+        } else {
+            10.0
+        }
     } else if f <= 1.0 {
         1.0
     } else if f <= 2.0 {
@@ -57,7 +65,11 @@ pub fn clean(v: f64, step: f64) -> f64 {
     let digits = (-math::log10(step).floor()).max(0.0) as i32 + 2;
     let p = math::powi(10.0, digits.min(15));
     let r = (v * p).round() / p;
-    if r == 0.0 { 0.0 } else { r }
+    if r == 0.0 {
+        0.0
+    } else {
+        r
+    }
 }
 
 // ---------------------------------------------------------------- Talbot, Lin & Hanrahan
@@ -102,7 +114,11 @@ fn density(k: f64, m: f64, dmin: f64, dmax: f64, lmin: f64, lmax: f64) -> f64 {
 }
 
 fn density_max(k: f64, m: f64) -> f64 {
-    if k >= m { 2.0 - (k - 1.0) / (m - 1.0) } else { 1.0 }
+    if k >= m {
+        2.0 - (k - 1.0) / (m - 1.0)
+    } else {
+        1.0
+    }
 }
 
 /// The best labelling `(lmin, lmax, step)` of `dmin..dmax` with about `m`
@@ -434,9 +450,7 @@ mod tests {
     fn labellings_match_the_python_transcription() {
         let f: Fixture = serde_json::from_str(include_str!("../../../../tests/reference/fixtures/ticks/labellings.json")).unwrap();
         assert_eq!(f.cases.len(), 150);
-        let same = |a: &[f64], b: &[f64]| {
-            a.len() == b.len() && a.iter().zip(b).all(|(x, y)| (x - y).abs() <= 1e-9 * x.abs().max(y.abs()).max(1e-300))
-        };
+        let same = |a: &[f64], b: &[f64]| a.len() == b.len() && a.iter().zip(b).all(|(x, y)| (x - y).abs() <= 1e-9 * x.abs().max(y.abs()).max(1e-300));
         for c in &f.cases {
             let e = extended(c.lo, c.hi, c.m, false);
             assert!(same(&e, &c.extended), "extended {} {} {}: {e:?} vs {:?}", c.lo, c.hi, c.m, c.extended);

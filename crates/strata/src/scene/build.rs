@@ -217,7 +217,9 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
     match crate::plan::split_panels(spec, plan) {
         None => children.extend(plot_area(&inputs, plan, left, right, top, bottom)),
         Some(PanelPlans::Wrap(panels)) => children.extend(panel_grid(&inputs, plan, panels, right, top, bottom)),
-        Some(PanelPlans::Grid { rows, cols, cells }) => children.extend(cell_grid(&inputs, plan, GridNames::Cross { rows: rows.as_deref(), cols: cols.as_deref() }, &cells, right, top, bottom)),
+        Some(PanelPlans::Grid { rows, cols, cells }) => {
+            children.extend(cell_grid(&inputs, plan, GridNames::Cross { rows: rows.as_deref(), cols: cols.as_deref() }, &cells, right, top, bottom))
+        }
     }
     if !legend_nodes.is_empty() {
         children.push(Node::Group { class: "strata-legends".into(), role: None, label: None, children: legend_nodes });
@@ -225,21 +227,16 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
 
     let label = spec.title.clone().unwrap_or_else(|| default_label(plan));
     let description = spec.description.clone().unwrap_or_else(|| crate::summary::describe(spec, plan));
-    Scene {
-        width,
-        height,
-        label,
-        description,
-        font_family: text::FONT_FAMILY.to_string(),
-        background: pal.background.clone(),
-        classes: theme_class,
-        children,
-    }
+    Scene { width, height, label, description, font_family: text::FONT_FAMILY.to_string(), background: pal.background.clone(), classes: theme_class, children }
 }
 
 /// Gaps between neighbouring panels, across and down.
 fn panel_gaps(narrow: bool) -> (f64, f64) {
-    if narrow { (8.0, 8.0) } else { (16.0, 12.0) }
+    if narrow {
+        (8.0, 8.0)
+    } else {
+        (16.0, 12.0)
+    }
 }
 
 /// Depth of the strip that names a panel: one line of bold tick-size text.
@@ -347,12 +344,7 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, names: GridNames, cells: &[Plan], ri
         let between = |over: f64| (over + guides::LABEL_GAP / 2.0 - gap_x / 2.0).max(0.0);
         let h_left = if c == 0 { v_left + l.h_reach_left } else { between(over_left) };
         let h_right = if c == nc - 1 { v_right_w + l.h_reach_right } else { between(over_right) };
-        (
-            v_left.max(on(h, h_left)),
-            v_right_w.max(on(h, h_right)),
-            4.0 + each_strip + on(h && h_top, l.h_axis_h),
-            on(h && !h_top, l.h_axis_h),
-        )
+        (v_left.max(on(h, h_left)), v_right_w.max(on(h, h_right)), 4.0 + each_strip + on(h && h_top, l.h_axis_h), on(h && !h_top, l.h_axis_h))
     };
     let col_left: Vec<f64> = (0..nc).map(|c| (0..nr).map(|r| margins(r, c).0).fold(0.0, f64::max)).collect();
     let col_right: Vec<f64> = (0..nc).map(|c| (0..nr).map(|r| margins(r, c).1).fold(0.0, f64::max)).collect();
@@ -409,7 +401,12 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, names: GridNames, cells: &[Plan], ri
                 }
             }
             kids.extend(plot_draw(inp, &cells[i], &lays[i], frame, draw_h(r, c), draw_v(r, c)));
-            out.push(Node::Group { class: "strata-facet".into(), role: Some("graphics-object".into()), label: Some(format!("panel {}", says.join(", "))), children: kids });
+            out.push(Node::Group {
+                class: "strata-facet".into(),
+                role: Some("graphics-object".into()),
+                label: Some(format!("panel {}", says.join(", "))),
+                children: kids,
+            });
         }
     }
 
@@ -440,10 +437,7 @@ fn h_label_overhang(lay: &PlotLayout, ts: f64) -> (f64, f64) {
         let c = crate::math::cos((-lay.h_angle).to_radians());
         return (lay.h_ticks.iter().map(|t| w(t) * c - t.unit * fw).fold(0.0, f64::max), 0.0);
     }
-    (
-        lay.h_ticks.iter().map(|t| w(t) / 2.0 - t.unit * fw).fold(0.0, f64::max),
-        lay.h_ticks.iter().map(|t| w(t) / 2.0 - (1.0 - t.unit) * fw).fold(0.0, f64::max),
-    )
+    (lay.h_ticks.iter().map(|t| w(t) / 2.0 - t.unit * fw).fold(0.0, f64::max), lay.h_ticks.iter().map(|t| w(t) / 2.0 - (1.0 - t.unit) * fw).fold(0.0, f64::max))
 }
 
 /// What every plot area of a chart shares.
@@ -531,14 +525,37 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
     let (h_len_guess, v_len) = ((right - x0 - 60.0).max(20.0), guess_h);
     let (x_len, y_len) = if flip { (v_len, h_len_guess) } else { (h_len_guess, v_len) };
     if scales.x_nice {
-        nice_scales.x = scales.x.nice(wanted(&scales.x_spec, x_len, if flip { 50.0 } else if narrow { 70.0 } else { 90.0 }));
+        nice_scales.x = scales.x.nice(wanted(
+            &scales.x_spec,
+            x_len,
+            if flip {
+                50.0
+            } else if narrow {
+                70.0
+            } else {
+                90.0
+            },
+        ));
     }
     if scales.y_nice {
-        nice_scales.y = scales.y.nice(wanted(&scales.y_spec, y_len, if flip { if narrow { 70.0 } else { 90.0 } } else { 50.0 }));
+        nice_scales.y = scales.y.nice(wanted(
+            &scales.y_spec,
+            y_len,
+            if flip {
+                if narrow {
+                    70.0
+                } else {
+                    90.0
+                }
+            } else {
+                50.0
+            },
+        ));
     }
     let scales = &nice_scales;
     let (h_scale, v_scale) = if flip { (&scales.y, &scales.x) } else { (&scales.x, &scales.y) };
-    let v_ticks0 = if v_shown { guides::left_ticks(v_scale, guess_h, wanted(v_spec, guess_h, 45.0), v_spec.format.as_deref(), loc, max_left, inp.ts) } else { vec![] };
+    let v_ticks0 =
+        if v_shown { guides::left_ticks(v_scale, guess_h, wanted(v_spec, guess_h, 45.0), v_spec.format.as_deref(), loc, max_left, inp.ts) } else { vec![] };
     let v_label_w = guides::widest_label(&v_ticks0, inp.ts);
     // Placement: the vertical axis left (or right), the horizontal one at the bottom (or top).
     let v_right = v_spec.axis == Some(Placement::Right);
@@ -556,13 +573,11 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
     // Rotated labels reach left of their ticks: widen the left margin for them.
     let (left, frame_w, h_ticks, h_angle) = if h_angle != 0.0 && h_shown {
         let c = crate::math::cos((-h_angle).to_radians());
-        let reach = h_ticks
-            .iter()
-            .map(|t| text::width(&t.label, inp.ts, false) * c - t.unit * frame_w - (left - x0))
-            .fold(0.0, f64::max);
+        let reach = h_ticks.iter().map(|t| text::width(&t.label, inp.ts, false) * c - t.unit * frame_w - (left - x0)).fold(0.0, f64::max);
         if reach > 0.0 {
             let (l, w) = (left + reach, (frame_w - reach).max(20.0));
-            let (t, a) = guides::bottom_ticks(h_scale, w, wanted(h_spec, w, if narrow { 70.0 } else { 90.0 }), h_spec.format.as_deref(), loc, max_label_h, inp.ts);
+            let (t, a) =
+                guides::bottom_ticks(h_scale, w, wanted(h_spec, w, if narrow { 70.0 } else { 90.0 }), h_spec.format.as_deref(), loc, max_label_h, inp.ts);
             (l, w, t, a)
         } else {
             (left, frame_w, h_ticks, h_angle)
@@ -572,14 +587,23 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
     };
     // Keep the outermost labels inside the chart: shrink the frame by any overhang.
     let (frame_w, h_ticks, h_angle) = {
-        let room_right = if legend_on_right { if narrow { 8.0 } else { 16.0 } } else { pad };
+        let room_right = if legend_on_right {
+            if narrow {
+                8.0
+            } else {
+                16.0
+            }
+        } else {
+            pad
+        };
         let over = |t: &[crate::scale::Tick], w: f64| {
             t.last().map(|l| (text::width(&l.label, inp.ts, false) / 2.0 - (1.0 - l.unit) * w - room_right + 2.0).max(0.0)).unwrap_or(0.0)
         };
         let o = if h_angle == 0.0 { over(&h_ticks, frame_w) } else { 0.0 };
         if o > 0.0 && h_shown {
             let w = (frame_w - o).max(20.0);
-            let (t, a) = guides::bottom_ticks(h_scale, w, wanted(h_spec, w, if narrow { 70.0 } else { 90.0 }), h_spec.format.as_deref(), loc, max_label_h, inp.ts);
+            let (t, a) =
+                guides::bottom_ticks(h_scale, w, wanted(h_spec, w, if narrow { 70.0 } else { 90.0 }), h_spec.format.as_deref(), loc, max_label_h, inp.ts);
             (w, t, a)
         } else {
             (frame_w, h_ticks, h_angle)
@@ -591,12 +615,26 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
     // Vertical ticks again for the real height, kept within the margin.
     let v_ticks = if v_shown {
         let t = guides::left_ticks(v_scale, frame.height, wanted(v_spec, frame.height, 45.0), v_spec.format.as_deref(), loc, max_left, inp.ts);
-        if guides::widest_label(&t, inp.ts) <= v_label_w + 0.5 { t } else { v_ticks0 }
+        if guides::widest_label(&t, inp.ts) <= v_label_w + 0.5 {
+            t
+        } else {
+            v_ticks0
+        }
     } else {
         vec![]
     };
     // Vertical categories in flipped coordinates run top to bottom.
-    let v_ticks = if flip { v_ticks.into_iter().map(|mut t| { t.unit = 1.0 - t.unit; t }).collect() } else { v_ticks };
+    let v_ticks = if flip {
+        v_ticks
+            .into_iter()
+            .map(|mut t| {
+                t.unit = 1.0 - t.unit;
+                t
+            })
+            .collect()
+    } else {
+        v_ticks
+    };
     let h_reach_left = frame.left - x0 - if v_right { 0.0 } else { v_axis_w };
     let h_reach_right = (right - frame.right()).max(0.0);
     PlotLayout {
@@ -644,7 +682,8 @@ fn plot_draw(inp: &PlotInputs, plan: &Plan, lay: &PlotLayout, frame: Frame, draw
             let r_opts = crate::scale::TickOptions { wanted: 4, pattern: r_spec.format.as_deref(), locale: loc, short: false };
             let r_ticks = if r_spec.hide { vec![] } else { r_scale.ticks_with(&r_opts) };
             let (mx, my) = guides::polar_margin(&a_ticks, inp.ts);
-            let inset = Frame { left: frame.left + mx, top: frame.top + my, width: (frame.width - 2.0 * mx).max(20.0), height: (frame.height - 2.0 * my).max(20.0) };
+            let inset =
+                Frame { left: frame.left + mx, top: frame.top + my, width: (frame.width - 2.0 * mx).max(20.0), height: (frame.height - 2.0 * my).max(20.0) };
             (inset, Some((angle_is_x, a_ticks, r_ticks)))
         }
         _ => (frame, None),
@@ -683,12 +722,7 @@ fn plot_draw(inp: &PlotInputs, plan: &Plan, lay: &PlotLayout, frame: Frame, draw
     }
     // Notes go over the marks, inside the plot.
     layers.extend(super::notes::draw(&spec.notes, scales, &coord, &pal, inp.ts));
-    children.push(Node::Group {
-        class: "strata-panel".into(),
-        role: Some("graphics-object".into()),
-        label: Some(panel_label(plan)),
-        children: layers,
-    });
+    children.push(Node::Group { class: "strata-panel".into(), role: Some("graphics-object".into()), label: Some(panel_label(plan)), children: layers });
     children
 }
 
@@ -796,8 +830,10 @@ mod tests {
             }
         }
         let spec = |style: &str| {
-            format!(r#"{{ "data": {{ "rows": [ {{"m": "a", "v": 1}}, {{"m": "b", "v": 3}} ] }},
-                "layers": [ {{ "draw": "label", "x": "m", "y": "v", "text": "v" {style} }} ] }}"#)
+            format!(
+                r#"{{ "data": {{ "rows": [ {{"m": "a", "v": 1}}, {{"m": "b", "v": 3}} ] }},
+                "layers": [ {{ "draw": "label", "x": "m", "y": "v", "text": "v" {style} }} ] }}"#
+            )
         };
         let got = |style: &str| {
             let scene = render(&spec(style), None, &RenderOptions::default()).unwrap().scene;
@@ -812,8 +848,10 @@ mod tests {
     #[test]
     fn style_shape_draws_every_point_in_that_shape() {
         let spec = |shape: &str| {
-            format!(r#"{{ "data": {{ "rows": [ {{"a": 1, "b": 2}}, {{"a": 2, "b": 3}} ] }},
-                "layers": [ {{ "draw": "point", "x": "a", "y": "b", "style": {{ "shape": "{shape}" }} }} ] }}"#)
+            format!(
+                r#"{{ "data": {{ "rows": [ {{"a": 1, "b": 2}}, {{"a": 2, "b": 3}} ] }},
+                "layers": [ {{ "draw": "point", "x": "a", "y": "b", "style": {{ "shape": "{shape}" }} }} ] }}"#
+            )
         };
         let marks = |shape: &str| {
             let scene = render(&spec(shape), None, &RenderOptions::default()).unwrap().scene;
@@ -837,10 +875,12 @@ mod tests {
             }
         }
         let spec = |theme: &str| {
-            format!(r#"{{ "title": "Visitors", "subtitle": "By gate", "source": "Invented", {theme}
+            format!(
+                r#"{{ "title": "Visitors", "subtitle": "By gate", "source": "Invented", {theme}
                 "data": {{ "rows": [ {{"m": 1, "v": 120, "g": "Lane"}}, {{"m": 2, "v": 340, "g": "River"}} ] }},
                 "layers": [ {{ "draw": "point", "x": "m", "y": "v", "color": "g" }} ],
-                "notes": [ {{ "y": 200, "text": "target" }} ] }}"#)
+                "notes": [ {{ "y": 200, "text": "target" }} ] }}"#
+            )
         };
         let texts = |theme: &str| {
             let scene = render(&spec(theme), None, &RenderOptions::default()).unwrap().scene;
@@ -852,7 +892,15 @@ mod tests {
         let plain = texts("");
         let big = texts(r#""theme": { "font_size": 16 },"#);
         // Default sizes, then each scaled by 16/12.
-        for (class, default) in [("strata-title", 18.0), ("strata-subtitle", 14.0), ("strata-source", 11.0), ("strata-tick", 12.0), ("strata-axis-title", 12.0), ("strata-legend-label", 12.0), ("strata-note", 12.0)] {
+        for (class, default) in [
+            ("strata-title", 18.0),
+            ("strata-subtitle", 14.0),
+            ("strata-source", 11.0),
+            ("strata-tick", 12.0),
+            ("strata-axis-title", 12.0),
+            ("strata-legend-label", 12.0),
+            ("strata-note", 12.0),
+        ] {
             assert_eq!(size_of(&plain, class), Some(default), "{class}");
             let got = size_of(&big, class).unwrap_or(0.0);
             assert!((got - default * 16.0 / 12.0).abs() < 1e-9, "{class}: {got}");
@@ -867,9 +915,11 @@ mod tests {
     #[test]
     fn a_legend_asked_on_the_left_sits_left_of_the_plot() {
         let spec = |legend: &str| {
-            format!(r#"{{ "data": {{ "rows": [ {{"m": 1, "v": 120, "g": "Lane gate"}}, {{"m": 2, "v": 340, "g": "River gate"}} ] }},
+            format!(
+                r#"{{ "data": {{ "rows": [ {{"m": 1, "v": 120, "g": "Lane gate"}}, {{"m": 2, "v": 340, "g": "River gate"}} ] }},
                 "layers": [ {{ "draw": "point", "x": "m", "y": "v", "color": "g" }} ],
-                "scales": {{ "color": {{ "legend": "{legend}" }} }} }}"#)
+                "scales": {{ "color": {{ "legend": "{legend}" }} }} }}"#
+            )
         };
         let scene = |legend: &str| render(&spec(legend), None, &RenderOptions { scene: SceneOptions { width: 640.0 } }).unwrap().scene;
         let (left, right) = (scene("left"), scene("right"));

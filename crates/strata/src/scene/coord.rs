@@ -26,7 +26,12 @@ pub enum Coord {
     Cartesian(Frame),
     /// The x scale runs down the vertical axis, the y scale across.
     Flip(Frame),
-    Polar { frame: Frame, angle_is_x: bool, start: f64, inner: f64 },
+    Polar {
+        frame: Frame,
+        angle_is_x: bool,
+        start: f64,
+        inner: f64,
+    },
 }
 
 /// A shape in pixels for an extent between two unit corners.
@@ -40,12 +45,7 @@ impl Coord {
         match c {
             Coords::Cartesian => Coord::Cartesian(frame),
             Coords::Flip => Coord::Flip(frame),
-            Coords::Polar(p) => Coord::Polar {
-                frame,
-                angle_is_x: p.angle == AngleChannel::X,
-                start: p.start,
-                inner: p.inner.clamp(0.0, 0.95),
-            },
+            Coords::Polar(p) => Coord::Polar { frame, angle_is_x: p.angle == AngleChannel::X, start: p.start, inner: p.inner.clamp(0.0, 0.95) },
         }
     }
 
@@ -124,7 +124,6 @@ impl Coord {
             _ => units.iter().map(|(x, y)| self.point(*x, *y)).collect(),
         }
     }
-
 }
 
 pub fn polar_centre(f: Frame) -> (f64, f64, f64) {

@@ -81,7 +81,15 @@ fn every(ticks: &[Tick], k: usize) -> Vec<Tick> {
 
 /// Ticks of a horizontal axis `length` px long, after thinning, rotating and shortening.
 /// Returns the ticks and the label angle.
-pub fn bottom_ticks(scale: &PositionScale, length: f64, wanted: usize, pattern: Option<&str>, loc: &Locale, max_label_height: f64, ts: f64) -> (Vec<Tick>, f64) {
+pub fn bottom_ticks(
+    scale: &PositionScale,
+    length: f64,
+    wanted: usize,
+    pattern: Option<&str>,
+    loc: &Locale,
+    max_label_height: f64,
+    ts: f64,
+) -> (Vec<Tick>, f64) {
     let opts = |wanted: usize, short: bool| TickOptions { wanted, pattern, locale: loc, short };
     if let PositionScale::Category { .. } = scale {
         let full = scale.ticks_with(&opts(wanted, false));
@@ -106,7 +114,14 @@ pub fn bottom_ticks(scale: &PositionScale, length: f64, wanted: usize, pattern: 
         let max_w = max_label_height / crate::math::sin((-ROTATION).to_radians());
         let labels: Vec<String> = rotated.iter().map(|t| t.label.clone()).collect();
         let short = shorten_all(&labels, max_w, ts);
-        let cut: Vec<Tick> = rotated.into_iter().zip(short).map(|(mut t, l)| { t.label = l; t }).collect();
+        let cut: Vec<Tick> = rotated
+            .into_iter()
+            .zip(short)
+            .map(|(mut t, l)| {
+                t.label = l;
+                t
+            })
+            .collect();
         return (cut, ROTATION);
     }
     // Continuous: thin by asking for fewer ticks, then shorten, then (dates) rotate.
@@ -167,7 +182,11 @@ pub fn shorten_all(labels: &[String], max_w: f64, ts: f64) -> Vec<String> {
             fit(&format!("{pre}{mid}{post}"))
         })
         .collect();
-    if distinct(&core) { core } else { simple }
+    if distinct(&core) {
+        core
+    } else {
+        simple
+    }
 }
 
 /// Ticks of a vertical axis `length` px long: thinned to a line and a half apart.
@@ -276,7 +295,15 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
                         class: "strata-tick".into(),
                     });
                 } else {
-                    kids.push(label(x, f.bottom() + GAP + baseline - ts * (text::LINE_HEIGHT - 1.0) / 2.0, &t.label, Anchor::Middle, &pal.muted, "strata-tick", ts));
+                    kids.push(label(
+                        x,
+                        f.bottom() + GAP + baseline - ts * (text::LINE_HEIGHT - 1.0) / 2.0,
+                        &t.label,
+                        Anchor::Middle,
+                        &pal.muted,
+                        "strata-tick",
+                        ts,
+                    ));
                 }
             }
             if !axis.title.is_empty() {
@@ -447,7 +474,11 @@ pub fn legends(scales: &Scales, default_color: &str, size: f64) -> Vec<Legend> {
             let vals = crate::plan::Values::Text(cats.iter().cloned().map(Some).collect());
             let items = cats.iter().enumerate().map(|(i, c)| (c.clone(), i, merged.then(|| scales.color_of(&vals, i)).flatten())).collect();
             let l = Legend { title: scales.shape_title.clone(), body: LegendBody::Shapes(items), channel: "shape", size };
-            if merged { out.insert(0, l) } else { out.push(l) }
+            if merged {
+                out.insert(0, l)
+            } else {
+                out.push(l)
+            }
         }
     }
     let _ = default_color;
@@ -474,7 +505,11 @@ fn row_height(body: &LegendBody, ts: f64) -> f64 {
 
 fn title_height(l: &Legend) -> f64 {
     let ts = l.size;
-    if l.title.is_empty() { 0.0 } else { ts * text::LINE_HEIGHT }
+    if l.title.is_empty() {
+        0.0
+    } else {
+        ts * text::LINE_HEIGHT
+    }
 }
 
 /// Size of a legend laid out as a column.
@@ -551,14 +586,9 @@ fn legend_title(l: &Legend, x: f64, y: f64, pal: &Palette) -> Option<Node> {
 
 fn symbol(body: &LegendBody, i: usize, cx: f64, cy: f64, pal: &Palette, default_color: &str) -> Node {
     match body {
-        LegendBody::Swatches(items) => Node::Rect {
-            x: cx - SWATCH / 2.0,
-            y: cy - SWATCH / 2.0,
-            width: SWATCH,
-            height: SWATCH,
-            paint: Paint::fill(&items[i].1),
-            datum: None,
-        },
+        LegendBody::Swatches(items) => {
+            Node::Rect { x: cx - SWATCH / 2.0, y: cy - SWATCH / 2.0, width: SWATCH, height: SWATCH, paint: Paint::fill(&items[i].1), datum: None }
+        }
         LegendBody::Sizes(items) => {
             let mut p = Paint::fill(default_color);
             p.opacity = Some(0.6);
@@ -751,7 +781,13 @@ pub fn polar(coord: &Coord, angle_is_x: bool, angle_ticks: &[Tick], radius_ticks
         let len = (dx * dx + dy * dy).sqrt().max(1e-9);
         let (ux, uy) = (dx / len, dy / len);
         let (lx, ly) = (x + ux * LABEL_GAP, y + uy * LABEL_GAP);
-        let anchor = if ux > 0.3 { Anchor::Start } else if ux < -0.3 { Anchor::End } else { Anchor::Middle };
+        let anchor = if ux > 0.3 {
+            Anchor::Start
+        } else if ux < -0.3 {
+            Anchor::End
+        } else {
+            Anchor::Middle
+        };
         // Baseline so that the text sits outside the circle above and below.
         let baseline = ly + ts * (0.35 + 0.45 * uy);
         labels.push(label(lx, baseline, &t.label, anchor, &pal.muted, "strata-tick", ts));

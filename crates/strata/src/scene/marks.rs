@@ -140,9 +140,18 @@ fn error_bar(ctx: &Ctx, ux: f64, a: f64, b: f64, cap: f64, c: &str, datum: Optio
     let num = crate::svg::num;
     let d = format!(
         "M{},{}L{},{}M{},{}L{},{}M{},{}L{},{}",
-        num(p0.0), num(p0.1), num(p1.0), num(p1.1),
-        num(c0.0), num(c0.1), num(c1.0), num(c1.1),
-        num(d0.0), num(d0.1), num(d1.0), num(d1.1)
+        num(p0.0),
+        num(p0.1),
+        num(p1.0),
+        num(p1.1),
+        num(c0.0),
+        num(c0.1),
+        num(c1.0),
+        num(c1.1),
+        num(d0.0),
+        num(d0.1),
+        num(d1.0),
+        num(d1.1)
     );
     Node::Path { d, paint: Paint::stroke(c, 1.5), datum }
 }
@@ -152,16 +161,10 @@ fn error_bar(ctx: &Ctx, ux: f64, a: f64, b: f64, cap: f64, c: &str, datum: Optio
 /// The pixel column coordinate of a unit x (horizontal pixels; vertical when flipped).
 fn columns(ctx: &Ctx, units: &[(f64, f64)]) -> Option<(Vec<f64>, Vec<f64>, f64)> {
     match ctx.coord {
-        Coord::Cartesian(f) => Some((
-            units.iter().map(|u| f.left + u.0 * f.width).collect(),
-            units.iter().map(|u| f.bottom() - u.1 * f.height).collect(),
-            f.width,
-        )),
-        Coord::Flip(f) => Some((
-            units.iter().map(|u| f.top + u.0 * f.height).collect(),
-            units.iter().map(|u| f.left + u.1 * f.width).collect(),
-            f.height,
-        )),
+        Coord::Cartesian(f) => {
+            Some((units.iter().map(|u| f.left + u.0 * f.width).collect(), units.iter().map(|u| f.bottom() - u.1 * f.height).collect(), f.width))
+        }
+        Coord::Flip(f) => Some((units.iter().map(|u| f.top + u.0 * f.height).collect(), units.iter().map(|u| f.left + u.1 * f.width).collect(), f.height)),
         Coord::Polar { .. } => None,
     }
 }

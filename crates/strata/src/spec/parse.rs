@@ -5,10 +5,10 @@
 //! wrong types saying what was expected and found, ranges); and the syntax
 //! of `derive` and `where` expressions. Only then does serde read the value.
 
-use serde::Deserialize;
 use super::shape::{check, spec_shape};
 use super::Spec;
 use crate::error::{Diagnostic, Errors};
+use serde::Deserialize;
 use serde_json::Value;
 
 /// Parse a spec from JSON text. Errors carry the JSON path of the offending

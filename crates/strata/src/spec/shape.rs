@@ -19,12 +19,21 @@ pub enum Shape {
     Text(&'static str),
     /// One of a fixed set of words.
     Word(&'static [&'static str]),
-    Number { min: Option<f64>, max: Option<f64> },
-    Integer { min: i64, max: i64 },
+    Number {
+        min: Option<f64>,
+        max: Option<f64>,
+    },
+    Integer {
+        min: i64,
+        max: i64,
+    },
     Bool,
     List(Box<Shape>),
     /// An object with free keys (or keys from `keys`), each value of one shape.
-    Map { keys: Option<&'static [&'static str]>, value: Box<Shape> },
+    Map {
+        keys: Option<&'static [&'static str]>,
+        value: Box<Shape>,
+    },
     Object(Obj),
     /// Alternatives told apart by the JSON type of the value.
     Either(Vec<Shape>),
@@ -128,11 +137,19 @@ pub fn spec_shape() -> Shape {
         Shape::Text("a data URL"),
         obj(vec![
             f("url", Shape::Text("a URL"), "Where to fetch the data, relative to the page (or the spec file for the command line)."),
-            f("format", Shape::Word(DATA_FORMATS), "csv, tsv, arrow (IPC file or stream) or json (an array of records). Default: from the URL's extension, then from the bytes."),
+            f(
+                "format",
+                Shape::Word(DATA_FORMATS),
+                "csv, tsv, arrow (IPC file or stream) or json (an array of records). Default: from the URL's extension, then from the bytes.",
+            ),
             f("types", Shape::Map { keys: None, value: Box::new(Shape::Word(COLUMN_TYPES)) }, "Per-column type overrides: number, text, date, bool."),
             f("sha256", Shape::Text("a hex SHA-256 digest"), "Hex SHA-256 of the data bytes; data whose digest differs is refused."),
             f("rows", list(Shape::Map { keys: None, value: Box::new(Shape::Any) }), "Inline records, for small tables."),
-            f("delimiter", Shape::Word(&[",", ";", "\t", "|"]), "Field delimiter of delimited text: comma, semicolon, tab or pipe. Default: sniffed from the first lines."),
+            f(
+                "delimiter",
+                Shape::Word(&[",", ";", "\t", "|"]),
+                "Field delimiter of delimited text: comma, semicolon, tab or pipe. Default: sniffed from the first lines.",
+            ),
             f("decimal_comma", Shape::Bool, "Numbers use a decimal comma (1,5), as in many semicolon files."),
             f("missing", list(Shape::Text("a cell text")), "Cells read as missing values. Default: empty, NA, N/A, null, NULL and -."),
         ]),
@@ -248,7 +265,11 @@ pub fn spec_shape() -> Shape {
             f("grid", color(), "Colour of grid lines."),
             f("axis", color(), "Colour of axis lines and ticks."),
             f("mark", color(), "Colour of marks when no colour channel is mapped."),
-            f("font_size", num(Some(4.0), Some(72.0)), "Size of tick labels, axis titles, legends and notes in pixels (default 12); titles and labels keep their proportion to it."),
+            f(
+                "font_size",
+                num(Some(4.0), Some(72.0)),
+                "Size of tick labels, axis titles, legends and notes in pixels (default 12); titles and labels keep their proportion to it.",
+            ),
         ]),
     ]);
     obj(vec![
@@ -269,7 +290,11 @@ pub fn spec_shape() -> Shape {
         f("theme", theme, "light, dark, auto (default: follows the reader's preference), or overrides."),
         f("quiet", list(Shape::Word(LINT_CODES)), "Lint warnings silenced on purpose, by code."),
         f("locale", Shape::Word(LOCALES), "Language of number and date labels: en (default), de, fr, es."),
-        f("data_table", Shape::Word(DATA_TABLE), "The numbers behind the marks as a table under the chart: closed (default: a disclosure the reader opens), open, or none."),
+        f(
+            "data_table",
+            Shape::Word(DATA_TABLE),
+            "The numbers behind the marks as a table under the chart: closed (default: a disclosure the reader opens), open, or none.",
+        ),
     ])
 }
 
@@ -334,7 +359,11 @@ impl Shape {
 fn key_path(path: &str, key: &str) -> String {
     let plain = !key.is_empty() && key.chars().all(|c| c.is_alphanumeric() || c == '_' || c == '$');
     let seg = if plain { key.to_string() } else { format!("{key:?}") };
-    if path.is_empty() { seg } else { format!("{path}.{seg}") }
+    if path.is_empty() {
+        seg
+    } else {
+        format!("{path}.{seg}")
+    }
 }
 
 /// Check `v` against `shape`, pushing every problem found.

@@ -76,28 +76,22 @@ impl FromWord for Channel {
 word_or_object!(Channel);
 
 impl FromWord for Stat {
-    const EXPECTED: &'static str =
-        "`identity`, `count`, `box`, or an object with one of `bin`, `summary`, `fit`, `density`, `window`";
+    const EXPECTED: &'static str = "`identity`, `count`, `box`, or an object with one of `bin`, `summary`, `fit`, `density`, `window`";
     fn from_word(word: &str) -> Result<Self, String> {
         match word {
             "identity" => Ok(Stat::Identity),
             "count" => Ok(Stat::Count),
             "box" => Ok(Stat::Box),
-            _ => Err(format!(
-                "unknown variant `{word}`, expected one of `identity`, `count`, `box` (other statistics take an object such as {{\"bin\": {{}}}})"
-            )),
+            _ => {
+                Err(format!("unknown variant `{word}`, expected one of `identity`, `count`, `box` (other statistics take an object such as {{\"bin\": {{}}}})"))
+            }
         }
     }
     fn from_object<'de, A: MapAccess<'de>>(map: A) -> Result<Self, A::Error> {
         let o: StatObject = object(map)?;
-        let n = [o.bin.is_some(), o.summary.is_some(), o.fit.is_some(), o.density.is_some(), o.window.is_some()]
-            .iter()
-            .filter(|b| **b)
-            .count();
+        let n = [o.bin.is_some(), o.summary.is_some(), o.fit.is_some(), o.density.is_some(), o.window.is_some()].iter().filter(|b| **b).count();
         if n != 1 {
-            return Err(de::Error::custom(
-                "a statistic object needs exactly one of `bin`, `summary`, `fit`, `density`, `window`",
-            ));
+            return Err(de::Error::custom("a statistic object needs exactly one of `bin`, `summary`, `fit`, `density`, `window`"));
         }
         Ok(Stat::Object(o))
     }

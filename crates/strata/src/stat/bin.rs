@@ -79,7 +79,14 @@ pub fn rule_width(rule: Rule, xs: &[f64]) -> f64 {
                 return 0.0;
             }
             let m = xs.iter().sum::<f64>() / nf;
-            let g1 = xs.iter().map(|x| { let z = (x - m) / sigma; z * z * z }).sum::<f64>() / nf;
+            let g1 = xs
+                .iter()
+                .map(|x| {
+                    let z = (x - m) / sigma;
+                    z * z * z
+                })
+                .sum::<f64>()
+                / nf;
             ptp / (1.0 + math::log2(nf) + math::log2(1.0 + g1.abs() / sg1))
         }
     }
@@ -320,10 +327,20 @@ pub fn calendar_next(start: f64, unit: CalendarUnit) -> f64 {
     let next = match unit {
         CalendarUnit::Day => days + 1,
         CalendarUnit::Week => days + 7,
-        CalendarUnit::Month => if m == 12 { days_from_civil(y + 1, 1, 1) } else { days_from_civil(y, m + 1, 1) },
+        CalendarUnit::Month => {
+            if m == 12 {
+                days_from_civil(y + 1, 1, 1)
+            } else {
+                days_from_civil(y, m + 1, 1)
+            }
+        }
         CalendarUnit::Quarter => {
             let m2 = m + 3;
-            if m2 > 12 { days_from_civil(y + 1, m2 - 12, 1) } else { days_from_civil(y, m2, 1) }
+            if m2 > 12 {
+                days_from_civil(y + 1, m2 - 12, 1)
+            } else {
+                days_from_civil(y, m2, 1)
+            }
         }
         CalendarUnit::Year => days_from_civil(y + 1, 1, 1),
     };
@@ -376,10 +393,16 @@ mod tests {
         assert_eq!(calendar_floor(ms("2024-11-29"), CalendarUnit::Quarter), ms("2024-10-01"));
         let e = calendar_edges(ms("2023-11-15"), ms("2024-02-01"), CalendarUnit::Month);
         let days: Vec<i64> = e.iter().map(|x| (x / DAY_MS) as i64).collect();
-        assert_eq!(days, vec![
-            days_from_civil(2023, 11, 1), days_from_civil(2023, 12, 1), days_from_civil(2024, 1, 1),
-            days_from_civil(2024, 2, 1), days_from_civil(2024, 3, 1)
-        ]);
+        assert_eq!(
+            days,
+            vec![
+                days_from_civil(2023, 11, 1),
+                days_from_civil(2023, 12, 1),
+                days_from_civil(2024, 1, 1),
+                days_from_civil(2024, 2, 1),
+                days_from_civil(2024, 3, 1)
+            ]
+        );
         assert_eq!(CalendarUnit::nearest(29.0), CalendarUnit::Month);
         assert_eq!(CalendarUnit::nearest(400.0), CalendarUnit::Year);
     }

@@ -100,7 +100,12 @@ pub fn kde_binned(xs: &[f64], h: f64, lo: f64, hi: f64, m: usize) -> Vec<f64> {
     }
     // Kernel weights at offsets 0..=half in units of delta.
     let half = ((CUT * h / delta).ceil() as usize).min(big);
-    let kernel: Vec<f64> = (0..=half).map(|k| { let z = k as f64 * delta / h; math::exp(-0.5 * z * z) }).collect();
+    let kernel: Vec<f64> = (0..=half)
+        .map(|k| {
+            let z = k as f64 * delta / h;
+            math::exp(-0.5 * z * z)
+        })
+        .collect();
     let norm = INV_SQRT_2PI / (xs.len() as f64 * h);
     (0..m)
         .map(|k| {

@@ -111,7 +111,11 @@ pub fn t_cdf(t: f64, df: f64) -> f64 {
     }
     // A&S 26.5.27 / 26.7.1: P(|T| > |t|) = I_{df/(df+t²)}(df/2, 1/2).
     let tail = 0.5 * inc_beta(df / (df + t * t), 0.5 * df, 0.5);
-    if t > 0.0 { 1.0 - tail } else { tail }
+    if t > 0.0 {
+        1.0 - tail
+    } else {
+        tail
+    }
 }
 
 /// Density of Student's t.

@@ -255,7 +255,15 @@ pub fn bisquare_weights(ys: &[f64], fitted: &[f64]) -> Vec<f64> {
     let med = super::quantile::median_sorted(&sorted).unwrap_or(0.0);
     abs.iter()
         .map(|r| {
-            let u = if med == 0.0 { if *r > 0.0 { 1.0 } else { 0.0 } } else { (r / (6.0 * med)).min(1.0) };
+            let u = if med == 0.0 {
+                if *r > 0.0 {
+                    1.0
+                } else {
+                    0.0
+                }
+            } else {
+                (r / (6.0 * med)).min(1.0)
+            };
             let c = 1.0 - u * u;
             c * c
         })

@@ -11,7 +11,11 @@
 #[inline]
 pub fn column(px: f64) -> f64 {
     let t = px as i64 as f64;
-    if t > px { t - 1.0 } else { t }
+    if t > px {
+        t - 1.0
+    } else {
+        t
+    }
 }
 
 /// Indices (ascending) of the points to keep. `px` are the points' pixel

@@ -34,7 +34,11 @@ mod reference_tests;
 /// Arithmetic mean of the finite values, or `None` when there are none.
 pub fn mean(xs: &[f64]) -> Option<f64> {
     let (s, n) = xs.iter().filter(|x| x.is_finite()).fold((0.0, 0usize), |(s, n), x| (s + x, n + 1));
-    if n == 0 { None } else { Some(s / n as f64) }
+    if n == 0 {
+        None
+    } else {
+        Some(s / n as f64)
+    }
 }
 
 /// Variance with `ddof` degrees of freedom removed (0: population, 1:

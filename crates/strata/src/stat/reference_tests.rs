@@ -207,12 +207,7 @@ fn loess_matches_statsmodels_lowess() {
     let f = fixture!("lowess.json");
     let (xs, ys) = (nums(&f["x"]), nums(&f["y"]));
     for case in f["cases"].as_array().unwrap() {
-        let opts = fit::LoessOptions {
-            span: case["frac"].as_f64().unwrap(),
-            degree: 1,
-            iterations: case["it"].as_u64().unwrap() as u32,
-            delta: 0.0,
-        };
+        let opts = fit::LoessOptions { span: case["frac"].as_f64().unwrap(), degree: 1, iterations: case["it"].as_u64().unwrap() as u32, delta: 0.0 };
         let (fitted, _) = fit::loess_fit(&xs, &ys, &opts);
         assert_all_close(&fitted, &nums(&case["fitted"]), 1e-9, 1e-9, &format!("lowess frac={} it={}", case["frac"], case["it"]));
     }

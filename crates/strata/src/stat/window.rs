@@ -47,11 +47,7 @@ pub fn rolling(ys: &[Option<f64>], rows: usize, align: Align, sum: bool) -> Vec<
             }
             // Short windows are summed directly: prefix differences lose
             // digits when the running sum is much larger than the window.
-            let total = if b - a <= 64 {
-                ys[a..b].iter().flatten().filter(|v| v.is_finite()).sum()
-            } else {
-                ps[b] - ps[a]
-            };
+            let total = if b - a <= 64 { ys[a..b].iter().flatten().filter(|v| v.is_finite()).sum() } else { ps[b] - ps[a] };
             Some(if sum { total } else { total / cnt as f64 })
         })
         .collect()

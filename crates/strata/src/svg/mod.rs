@@ -197,7 +197,13 @@ fn node(out: &mut String, n: &Node, depth: usize, labelled: bool) {
 /// it can be inlined into HTML as is).
 pub fn write(scene: &Scene) -> String {
     let mut body = String::with_capacity(4096);
-    let _ = writeln!(body, "  <rect class=\"strata-background\" width=\"{}\" height=\"{}\" fill=\"{}\"/>", num(scene.width), num(scene.height), escape(&scene.background));
+    let _ = writeln!(
+        body,
+        "  <rect class=\"strata-background\" width=\"{}\" height=\"{}\" fill=\"{}\"/>",
+        num(scene.width),
+        num(scene.height),
+        escape(&scene.background)
+    );
     let labelled = scene.marks().len() <= LABELLED_MARKS;
     for c in &scene.children {
         node(&mut body, c, 1, labelled);
