@@ -9,9 +9,10 @@
 //! 4. [`scene`] — plan to [`scene::Scene`]: marks, axes and legends in pixels
 //! 5. [`svg`]   — scene to SVG text; [`datatable`] — plan to an HTML data table
 //!
-//! Libraries the stages share: [`stat`] (numerics), [`scale`] (mapping and
+//! Libraries the stages share: [`calendar`] (dates), [`stat`] (numerics), [`scale`] (mapping and
 //! ticks), [`format`] (labels), [`color`], [`text`] (measurement), [`math`].
 
+pub mod calendar;
 pub mod color;
 pub mod data;
 pub mod datatable;

@@ -95,8 +95,7 @@ fn every_chart_renders_to_its_golden_bytes() {
     }
     // A golden file that no spec writes any more is stale.
     if !bless {
-        let written: std::collections::HashSet<String> =
-            cases.iter().flat_map(|(n, p)| outputs(p).into_iter().map(move |(s, _)| format!("{n}.{s}"))).collect();
+        let written: std::collections::HashSet<String> = cases.iter().flat_map(|(n, p)| outputs(p).into_iter().map(move |(s, _)| format!("{n}.{s}"))).collect();
         for e in std::fs::read_dir(&golden).unwrap() {
             let f = e.unwrap().file_name().to_string_lossy().to_string();
             if !written.contains(&f) {

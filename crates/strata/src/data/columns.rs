@@ -4,7 +4,7 @@
 //! the same layout as an Arrow Utf8 array, so a text column becomes an Arrow
 //! array without copying.
 
-use super::time::{parse_date_bytes, parse_datetime_bytes};
+use crate::calendar::{parse_date_bytes, parse_datetime_bytes};
 use crate::spec::ColumnType;
 use arrow_array::{ArrayRef, BooleanArray, Date32Array, Float64Array, Int64Array, StringArray, TimestampMillisecondArray};
 use arrow_buffer::{BooleanBufferBuilder, Buffer, NullBuffer, OffsetBuffer, ScalarBuffer};

@@ -10,7 +10,6 @@ pub mod csv;
 #[cfg(feature = "ipc")]
 pub mod ipc;
 pub mod json;
-pub mod time;
 
 use crate::error::{Diagnostic, Errors};
 use crate::spec::{ColumnType, DataFormat};

@@ -7,7 +7,7 @@
 //! three-valued logic (ISO/IEC 9075, 8.x "boolean value expression").
 
 use super::parse::{BinOp, Expr, ExprError, Literal, Span};
-use crate::data::time::{civil_from_days, parse_date, parse_datetime};
+use crate::calendar::{civil_from_days, parse_date, parse_datetime};
 use arrow_array::cast::AsArray;
 use arrow_array::types::{Date32Type, Float64Type, Int64Type, TimestampMillisecondType};
 use arrow_array::{Array, ArrayRef, BooleanArray, Date32Array, Float64Array, Int64Array, StringArray, TimestampMillisecondArray};

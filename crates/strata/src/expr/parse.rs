@@ -546,12 +546,12 @@ impl Parser {
                         let (Tok::Str(s), sspan) = self.bump() else { unreachable!() };
                         let full = span.to(sspan);
                         return if up == "DATE" {
-                            crate::data::time::parse_date(&s)
+                            crate::calendar::parse_date(&s)
                                 .map(|d| Expr::Lit(Literal::Date(d as i32), full))
                                 .ok_or_else(|| ExprError::new(format!("'{s}' is not a date"), sspan).hint("write DATE 'yyyy-MM-dd', such as DATE '2024-03-01'"))
                         } else {
-                            crate::data::time::parse_datetime(&s)
-                                .or_else(|| crate::data::time::parse_date(&s).map(|d| d * 86_400_000))
+                            crate::calendar::parse_datetime(&s)
+                                .or_else(|| crate::calendar::parse_date(&s).map(|d| d * 86_400_000))
                                 .map(|t| Expr::Lit(Literal::Timestamp(t), full))
                                 .ok_or_else(|| {
                                     ExprError::new(format!("'{s}' is not a date-time"), sspan)

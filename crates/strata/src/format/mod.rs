@@ -13,7 +13,7 @@
 
 mod locales;
 
-use crate::data::time::civil_from_days;
+use crate::calendar::civil_from_days;
 
 /// CLDR data for one locale (see `locales.rs`, generated from babel).
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]

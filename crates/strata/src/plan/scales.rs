@@ -288,7 +288,7 @@ fn explicit_domain(s: &ScaleSpec, axis: &str) -> Result<Option<(f64, f64)>, Erro
         .filter_map(|v| {
             v.as_f64().or_else(|| {
                 let t = v.as_str()?;
-                crate::data::time::parse_date(t).map(|d| d as f64 * 86_400_000.0).or_else(|| crate::data::time::parse_datetime(t).map(|ms| ms as f64))
+                crate::calendar::parse_date(t).map(|d| d as f64 * 86_400_000.0).or_else(|| crate::calendar::parse_datetime(t).map(|ms| ms as f64))
             })
         })
         .collect();

@@ -478,9 +478,9 @@ fn dates_without_a_unit_take_the_nearest_calendar_unit() {
     // = 69.4 days (Sturges 1926), nearer a quarter (91.3 days) than a month
     // (30.4 days) on a log scale.
     let mut csv = String::from("day\n");
-    let start = crate::data::time::days_from_civil(2022, 1, 1);
+    let start = crate::calendar::days_from_civil(2022, 1, 1);
     for d in 0..730 {
-        let (y, m, dd) = crate::data::time::civil_from_days(start + d);
+        let (y, m, dd) = crate::calendar::civil_from_days(start + d);
         csv.push_str(&format!("{y:04}-{m:02}-{dd:02}\n"));
     }
     let r = run(r#"{"layers":[{"draw":"bar","x":"day","stat":{"bin":{}}}]}"#, csv.as_bytes());

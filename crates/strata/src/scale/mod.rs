@@ -577,7 +577,7 @@ mod tests {
 
     #[test]
     fn time_labels_by_unit() {
-        let day = |y, m, d| crate::data::time::days_from_civil(y, m, d) as f64 * 86_400_000.0;
+        let day = |y, m, d| crate::calendar::days_from_civil(y, m, d) as f64 * 86_400_000.0;
         let s = PositionScale::Continuous { lo: day(2024, 1, 1), hi: day(2024, 12, 31), transform: Transform::Linear, time: true, step: None };
         let t = s.ticks_with(&TickOptions { wanted: 6, pattern: None, locale: format::locale("de"), short: false });
         assert_eq!(t[0].label, "Jan. 2024");

@@ -13,7 +13,7 @@
 //! * [`time_ticks`]: calendar units (years, quarters, months, weeks, days,
 //!   hours, minutes, seconds) in UTC.
 
-use crate::data::time::{civil_from_days, days_from_civil};
+use crate::calendar::{civil_from_days, days_from_civil};
 use crate::math;
 
 /// Heckbert's NiceNum: a number of the form {1, 2, 5, 10} x 10^k close to x,

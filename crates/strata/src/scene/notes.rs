@@ -3,8 +3,8 @@
 
 use super::coord::{Area, Coord};
 use super::{Anchor, Node, Paint};
+use crate::calendar::{parse_date, parse_datetime};
 use crate::color::Palette;
-use crate::data::time::{parse_date, parse_datetime};
 use crate::plan::Scales;
 use crate::scale::PositionScale;
 use crate::spec::Note;

@@ -305,7 +305,7 @@ const DAY_MS: f64 = 86_400_000.0;
 
 /// Start (ms since the epoch, UTC) of the calendar unit holding `ms`.
 pub fn calendar_floor(ms: f64, unit: CalendarUnit) -> f64 {
-    use crate::data::time::{civil_from_days, days_from_civil};
+    use crate::calendar::{civil_from_days, days_from_civil};
     let days = (ms / DAY_MS).floor() as i64;
     let (y, m, _) = civil_from_days(days);
     let start = match unit {
@@ -321,7 +321,7 @@ pub fn calendar_floor(ms: f64, unit: CalendarUnit) -> f64 {
 
 /// The start of the unit after the one starting at `start`.
 pub fn calendar_next(start: f64, unit: CalendarUnit) -> f64 {
-    use crate::data::time::{civil_from_days, days_from_civil};
+    use crate::calendar::{civil_from_days, days_from_civil};
     let days = (start / DAY_MS).floor() as i64;
     let (y, m, _) = civil_from_days(days);
     let next = match unit {
@@ -384,7 +384,7 @@ mod tests {
 
     #[test]
     fn calendar_units() {
-        use crate::data::time::{days_from_civil, parse_date};
+        use crate::calendar::{days_from_civil, parse_date};
         let ms = |s: &str| parse_date(s).unwrap() as f64 * DAY_MS;
         // 2024-02-29 is a Thursday (Python 3.11: date(2024,2,29).isoweekday() == 4), so its
         // ISO week starts on Monday 2024-02-26.
