@@ -19,14 +19,20 @@ fn renders_csv_bytes_to_svg() {
 }
 
 #[wasm_bindgen_test]
-fn same_bytes_as_the_engine_called_directly() {
-    // In the browser the engine runs as wasm32; this equality with the
-    // engine's own call in the same module checks the bindings add nothing.
-    let data = b"a,b\n1,2\n2,4\n3,1\n";
-    let out = strata_wasm::render(SPEC, Some(data.to_vec()), "t.csv", 640.0);
-    let v: serde_json::Value = serde_json::from_str(&out).unwrap();
-    let direct = strata::render(SPEC, Some(strata::DataBytes { bytes: data, name: "t.csv" }), &Default::default()).unwrap();
-    assert_eq!(v["svg"].as_str().unwrap(), direct.svg);
+fn wasm_draws_the_committed_golden_bytes() {
+    // The engine compiled to wasm32 and run in Chromium writes the very
+    // bytes the native engine recorded under tests/golden/out: float
+    // printing, libm maths and hashing give one answer on both targets.
+    for (spec, golden) in [
+        (include_str!("../../../tests/golden/specs/diverging.json"), include_str!("../../../tests/golden/out/edge-diverging.svg")),
+        (include_str!("../../../tests/golden/specs/donut.json"), include_str!("../../../tests/golden/out/edge-donut.svg")),
+        (include_str!("../../../tests/golden/specs/box-summary.json"), include_str!("../../../tests/golden/out/edge-box-summary.svg")),
+        (include_str!("../../../tests/golden/specs/missing-values.json"), include_str!("../../../tests/golden/out/edge-missing-values.svg")),
+    ] {
+        let out = strata_wasm::render(spec, None, "", 640.0);
+        let v: serde_json::Value = serde_json::from_str(&out).unwrap();
+        assert_eq!(v["svg"].as_str(), Some(golden), "{out}");
+    }
 }
 
 #[wasm_bindgen_test]
