@@ -6,6 +6,9 @@ cd "$(dirname "$0")/.."
 scripts/setup.sh --test
 step() { printf '\n== %s\n' "$*"; }
 
+step "house habits: rustfmt"
+cargo fmt --all --check
+
 step "native tests"
 cargo test --workspace
 
