@@ -133,7 +133,9 @@ pub fn charts(html: &str) -> Result<Vec<PageChart>, String> {
     let (f1, f2, f3, f4) = (found.clone(), found.clone(), found.clone(), found.clone());
     let (p1, p2, p3) = (open_pre.clone(), open_pre.clone(), open_pre.clone());
     let (t1, t2, t3, t4) = (text_started.clone(), text_started.clone(), text_started.clone(), text_started.clone());
-    let pres: Rc<RefCell<Vec<(usize, Option<usize>)>>> = Rc::default(); // (start, end) of every <pre>
+    // Byte start and end of every <pre>.
+    type Spans = Rc<RefCell<Vec<(usize, Option<usize>)>>>;
+    let pres: Spans = Rc::default();
     let (r1, r2) = (pres.clone(), pres.clone());
     rewrite_str(
         html,
