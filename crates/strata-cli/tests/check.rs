@@ -115,3 +115,33 @@ fn pages_and_folders() {
     assert_eq!(page_diags[0]["chart"], "chart 1 (line 3)");
     assert_eq!(check(&[], &[&d.join("posts")]).0, 2);
 }
+
+#[test]
+fn spec_src_is_checked_in_its_own_file() {
+    let d = site("specsrc");
+    std::fs::write(d.join("d.csv"), "k,v\na,1\nb,2\n").unwrap();
+    // The element's `src` gives the data (relative to the page); the spec file is placed by its own lines.
+    std::fs::write(d.join("page.html"), "<p>x</p>\n<strata-chart id=\"c\" src=\"d.csv\" spec-src=\"s.json\"></strata-chart>\n").unwrap();
+    std::fs::write(d.join("s.json"), "{\n  \"layers\": [\n    {\"draw\": \"bar\", \"x\": \"k\", \"y\": \"w\"}\n  ]\n}").unwrap();
+    let v = json(&[&d.join("page.html")]);
+    let e = &v["diagnostics"][0];
+    assert_eq!(e["file"], d.join("s.json").display().to_string());
+    assert_eq!((e["line"].as_u64(), e["path"].as_str(), e["chart"].as_str()), (Some(3), Some("layers[0].y"), Some("#c")));
+    // A missing spec-src is an error placed on the element's line.
+    std::fs::write(d.join("page.html"), "<p>x</p>\n\n<strata-chart id=\"c\" spec-src=\"gone.json\"></strata-chart>\n").unwrap();
+    let v = json(&[&d.join("page.html")]);
+    assert_eq!((v["diagnostics"][0]["code"].as_str(), v["diagnostics"][0]["line"].as_u64()), (Some("spec.unreadable"), Some(3)));
+}
+
+#[test]
+fn data_errors_name_the_data_file_line_and_column() {
+    let d = site("data");
+    // Row 3 has three fields where the header has two (RFC 4180: each record the same count).
+    std::fs::write(d.join("d.csv"), "k,v\na,1\nb,2,9\n").unwrap();
+    std::fs::write(d.join("s.json"), r#"{"data": "d.csv", "layers": [{"draw": "bar", "x": "k", "y": "v"}]}"#).unwrap();
+    let v = json(&[&d.join("s.json")]);
+    let e = &v["diagnostics"][0];
+    assert_eq!(e["severity"], "error", "{v}");
+    assert_eq!(e["data_file"], d.join("d.csv").display().to_string());
+    assert_eq!(e["data_line"], 3);
+}
