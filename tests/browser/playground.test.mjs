@@ -164,6 +164,34 @@ ${snippet}
   await fresh.close();
 });
 
+test('a TSV dropped on the page is read too', async () => {
+  // Invented demo data, tab separated.
+  await page.evaluate(() => {
+    const dt = new DataTransfer();
+    dt.items.add(new File(['town\train_mm\nAsh\t12.5\nBirch\t30\n'], 'rain.tsv', { type: 'text/tab-separated-values' }));
+    document.getElementById('drop').dispatchEvent(new DragEvent('drop', { dataTransfer: dt, bubbles: true, cancelable: true }));
+  });
+  await page.waitForFunction(() => document.getElementById('data-status').textContent.startsWith('rain.tsv: 2 rows, 2 columns'));
+  assert.deepEqual(await page.$$eval('#columns li', (lis) => lis.map((li) => li.textContent)), ['town text', 'rain_mm number']);
+  await page.click('#starter');
+  assert.deepEqual(JSON.parse(await page.inputValue('#spec')).layers, [{ draw: 'bar', x: 'town', y: 'rain_mm' }]);
+  await page.waitForFunction(() => document.getElementById('status').textContent.startsWith('Drawn'));
+});
+
+test('every control is reached with the Tab key, in reading order', async () => {
+  await page.evaluate(() => document.activeElement && document.activeElement.blur());
+  await page.focus('#file');
+  const seen = [];
+  for (let i = 0; i < 14; i++) {
+    seen.push(await page.evaluate(() => document.activeElement.id || document.activeElement.textContent.trim().slice(0, 20)));
+    await page.keyboard.press('Tab');
+  }
+  const order = ['file', 'starter', 'spec', 'copy-embed', 'download-svg', 'download-png', 'download-html', 'embed'];
+  const at = order.map((id) => seen.indexOf(id));
+  assert.ok(at.every((i) => i >= 0), seen.join(' | '));
+  assert.deepEqual([...at].sort((a, b) => a - b), at, seen.join(' | '));
+});
+
 test('no CSP violation and no page error', async () => {
   assert.deepEqual(await page.evaluate(() => window.__csp), []);
   assert.deepEqual(pageErrors, []);
