@@ -440,13 +440,41 @@ function download(blob, filename) {
 
 const baseName = () => (state.name ? state.name.replace(/\.[^.]*$/, '') : 'chart') || 'chart';
 
+const base64 = (bytes) => {
+  let bin = '';
+  for (let i = 0; i < bytes.length; i += 0x8000) bin += String.fromCharCode(...bytes.subarray(i, i + 0x8000));
+  return btoa(bin);
+};
+
+let fontFaces;
+/**
+ * The bundled font as @font-face rules with data URLs: an SVG drawn as an
+ * image loads nothing from outside, so the font the engine measured text
+ * with goes inside it. Empty when the font files are not served.
+ */
+function fontCss() {
+  fontFaces ??= Promise.all(
+    [
+      ['OpenSans-Regular.ttf', 400],
+      ['OpenSans-Bold.ttf', 700],
+    ].map(async ([file, weight]) => {
+      const res = await fetch(new URL(`fonts/${file}`, import.meta.url));
+      if (!res.ok) throw new Error(`HTTP ${res.status}`);
+      const data = base64(new Uint8Array(await res.arrayBuffer()));
+      return `@font-face{font-family:"Open Sans";font-weight:${weight};src:url(data:font/ttf;base64,${data}) format("truetype")}`;
+    })
+  )
+    .then((rules) => rules.join(''))
+    .catch(() => '');
+  return fontFaces;
+}
+
 /** The SVG drawn into a canvas at twice its size, as PNG. */
 async function pngBlob(svgText, width, height) {
-  const utf8 = new TextEncoder().encode(svgText);
-  let bin = '';
-  for (let i = 0; i < utf8.length; i += 0x8000) bin += String.fromCharCode(...utf8.subarray(i, i + 0x8000));
+  const css = await fontCss();
+  const withFont = css ? svgText.replace(/^(<svg[^>]*>)/, `$1<defs><style>${css}</style></defs>`) : svgText;
   const img = new Image();
-  img.src = `data:image/svg+xml;base64,${btoa(bin)}`;
+  img.src = `data:image/svg+xml;base64,${base64(new TextEncoder().encode(withFont))}`;
   await img.decode();
   const canvas = document.createElement('canvas');
   canvas.width = Math.round(width * 2);
