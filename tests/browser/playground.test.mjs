@@ -178,6 +178,22 @@ test('a TSV dropped on the page is read too', async () => {
   await page.waitForFunction(() => document.getElementById('status').textContent.startsWith('Drawn'));
 });
 
+test('an Arrow IPC file gives the column types the pyarrow fixture lists', async () => {
+  // tests/reference/fixtures/arrow/types.arrow, written by pyarrow; types.json lists each column as read.
+  const fixtures = path.join(ROOT, 'tests', 'reference', 'fixtures', 'arrow');
+  const expected = JSON.parse(fs.readFileSync(path.join(fixtures, 'types.json'), 'utf8'));
+  const word = { int64: 'number', float64: 'number', bool: 'bool', utf8: 'text', date32: 'date', timestamp_ms_utc: 'date' };
+  const want = Object.entries(expected.columns)
+    .filter(([, c]) => c.type !== 'dropped')
+    .map(([name, c]) => `${name} ${word[c.type]}`);
+  await page.setInputFiles('#file', { name: 'types.arrow', mimeType: 'application/octet-stream', buffer: fs.readFileSync(path.join(fixtures, 'types.arrow')) });
+  await page.waitForFunction(() => document.getElementById('data-status').textContent.startsWith('types.arrow:'));
+  assert.match(await page.textContent('#data-status'), new RegExp(`types\\.arrow: ${expected.rows} rows, ${want.length} columns`));
+  assert.deepEqual(await page.$$eval('#columns li', (lis) => lis.map((li) => li.textContent)), want);
+  await page.fill('#spec', JSON.stringify({ layers: [{ draw: 'point', x: 'day', y: 'price' }], size: { width: 400, height: 260 } }));
+  await page.waitForFunction(() => document.getElementById('status').textContent.startsWith('Drawn, 400'));
+});
+
 test('every control is reached with the Tab key, in reading order', async () => {
   await page.evaluate(() => document.activeElement && document.activeElement.blur());
   await page.focus('#file');
