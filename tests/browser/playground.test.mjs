@@ -66,6 +66,31 @@ test('the starter spec follows the column types', async () => {
   assert.deepEqual(await layer([c('town', 'text')]), { draw: 'bar', x: 'town', stat: 'count' });
 });
 
+test('the JSON path locator agrees with the CLI locator (crates/strata-cli/src/locate.rs, same cases)', async () => {
+  const SPEC = '{\n  "data": {"url": "d.csv"},\n  "layers": [\n    {"draw": "bar", "x": "k"},\n    {"draw": "point",\n     "stat": {"bin": {"rule": "nope"}}}\n  ],\n  "derive": {"a b": "x + 1", "c\\"d": "1"}\n}';
+  const cases = {
+    'layers[1].stat.bin.rule': '"rule": "nope"',
+    'layers[0].x': '"x": "k"',
+    'layers[1]': '{"draw": "point"',
+    'data.url': '"url"',
+    'derive."a b"': '"a b"',
+    'derive."c\\"d"': '"c\\"d"',
+    'layers[0].y': '{"draw": "bar"',
+    'layers[7]': '[\n    {',
+    '': '{\n  "data"',
+  };
+  const got = await page.evaluate(
+    async ([text, paths]) => {
+      const { locate } = await import('./playground.js');
+      // Broken text never throws.
+      for (let cut = 0; cut < text.length; cut++) locate(text.slice(0, cut), 'layers[1].stat.bin.rule');
+      return paths.map((p) => text.slice(locate(text, p)));
+    },
+    [SPEC, Object.keys(cases)]
+  );
+  Object.values(cases).forEach((start, i) => assert.ok(got[i].startsWith(start), `${Object.keys(cases)[i]}: ${got[i]}`));
+});
+
 test('a mistake is listed with its path, and clicking it moves the cursor there', async () => {
   await page.fill('#spec', WRONG);
   const button = page.locator('#problems button', { hasText: 'layers[0].y' });
