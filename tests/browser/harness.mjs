@@ -47,8 +47,8 @@ export function serve() {
   });
 }
 
-/** Debian's Chromium, headless, with a scratch profile. */
-export async function launch() {
+/** Debian's Chromium, headless, with a scratch profile; `options` go to the context (e.g. `javaScriptEnabled`). */
+export async function launch(options = {}) {
   const scratch = fs.mkdtempSync(path.join(os.tmpdir(), 'strata-chromium-'));
   const executablePath = fs.existsSync('/usr/lib/chromium/chromium') ? '/usr/lib/chromium/chromium' : '/usr/bin/chromium';
   const context = await chromium.launchPersistentContext(scratch, {
@@ -64,6 +64,7 @@ export async function launch() {
       '--disable-sync',
     ],
     env: { ...process.env, TMPDIR: scratch, XDG_CONFIG_HOME: scratch, XDG_CACHE_HOME: scratch },
+    ...options,
   });
   return {
     context,

@@ -60,7 +60,7 @@ fn collect(html: &str) -> Result<Vec<Found>, String> {
 
 /// Resolve a page-relative reference to a local file; URLs with a scheme
 /// cannot be baked.
-fn local(base: &Path, reference: &str) -> Result<PathBuf, String> {
+pub(crate) fn local(base: &Path, reference: &str) -> Result<PathBuf, String> {
     if reference.contains("://") || reference.starts_with("//") {
         return Err(format!("`{reference}` is not a local file; bake reads files next to the page only"));
     }

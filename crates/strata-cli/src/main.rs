@@ -1,6 +1,11 @@
 //! `strata`: validate specs, render charts to SVG, print scenes.
 
 mod bake;
+mod bake_progress;
+mod check;
+mod locate;
+mod markdown;
+mod pages;
 mod png;
 
 use clap::{Parser, Subcommand};
@@ -50,18 +55,37 @@ enum Command {
         #[arg(short = 'o', long)]
         output: Option<PathBuf>,
     },
-    /// Validate a spec (and its data, when found), list lint warnings; exit non-zero on error.
+    /// Validate and lint spec files and pages (every chart in them; folders: all pages and specs under them).
+    /// Exit 0 when clean, 1 on warnings with --strict, 2 on errors.
     Check {
-        spec: PathBuf,
+        /// Spec files, HTML pages and folders.
+        #[arg(required = true)]
+        files: Vec<PathBuf>,
+        /// Data file for the spec files given; overrides their `data.url`.
         #[arg(long)]
         data: Option<PathBuf>,
+        /// Exit 1 when there are warnings (and no errors).
+        #[arg(long)]
+        strict: bool,
+        /// `text` (one line a diagnostic) or `json` (one document, for CI annotations).
+        #[arg(long, value_enum, default_value_t = Format::Text)]
+        format: Format,
     },
     /// Print the JSON Schema (draft 2020-12) of the spec.
     Schema,
 }
 
+#[derive(Clone, Copy, PartialEq, Eq, clap::ValueEnum)]
+enum Format {
+    Text,
+    Json,
+}
+
 fn main() -> ExitCode {
     let cli = Cli::parse();
+    if let Command::Check { files, data, strict, format } = &cli.command {
+        return check::run(files, data.as_deref(), *strict, *format == Format::Json);
+    }
     match run(cli.command) {
         Ok(()) => ExitCode::SUCCESS,
         Err(msg) => {
@@ -125,45 +149,37 @@ fn run(cmd: Command) -> Result<(), String> {
             Ok(())
         }
         Command::Bake { pages, width, output } => {
+            let pages = pages::html_files(&pages)?;
             if output.is_some() && pages.len() != 1 {
                 return Err("strata: bake -o takes exactly one page".into());
             }
-            let mut failures = Vec::new();
+            let mut progress = bake_progress::Progress::new(pages.len());
+            let (mut failures, mut baked) = (Vec::new(), 0);
             for page in &pages {
+                progress.step(page);
                 let html = std::fs::read_to_string(page).map_err(|e| format!("strata: cannot read {}: {e}", page.display()))?;
-                let (out, report) = bake::bake_html(page, &html, width).map_err(|e| format!("strata: {}: {e}", page.display()))?;
+                // Markdown `strata` blocks become elements, then every element is drawn.
+                let md = markdown::convert(page, &html).map_err(|e| format!("strata: {}: {e}", page.display()))?;
+                let (out, report) = bake::bake_html(page, &md.html, width).map_err(|e| format!("strata: {}: {e}", page.display()))?;
                 let dest = output.clone().unwrap_or_else(|| page.clone());
                 if out != html || output.is_some() {
                     std::fs::write(&dest, out).map_err(|e| format!("strata: cannot write {}: {e}", dest.display()))?;
                 }
-                eprintln!("strata: {}: baked {} chart{}", page.display(), report.baked, if report.baked == 1 { "" } else { "s" });
-                failures.extend(report.failures);
+                baked += report.baked;
+                failures.extend(md.failures);
+                failures.extend(report.failures.iter().map(|f| format!("strata: {f}")));
             }
+            progress.finish();
+            let plural = |n: usize, w: &str| format!("{n} {w}{}", if n == 1 { "" } else { "s" });
+            let failed = if failures.is_empty() { String::new() } else { format!(", {} failed", plural(failures.len(), "chart")) };
+            eprintln!("strata: baked {} in {}{failed}", plural(baked, "chart"), plural(pages.len(), "page"));
             if failures.is_empty() {
                 Ok(())
             } else {
-                Err(failures.iter().map(|f| format!("strata: {f}")).collect::<Vec<_>>().join("\n"))
+                Err(failures.join("\n"))
             }
         }
-        Command::Check { spec, data } => {
-            let (_, parsed, bytes) = load(&spec, data.as_deref())?;
-            // With data, a full render (which lints with the trained scales);
-            // without, the lint rules that need only the spec.
-            let warnings = if bytes.is_some() || parsed.data.as_ref().is_some_and(|d| d.object().rows.is_some()) {
-                let data = bytes.as_ref().map(|(b, n)| DataBytes { bytes: b, name: n });
-                strata::render_spec(&parsed, data, &RenderOptions::default()).map_err(|e| report(&spec, &e))?.warnings
-            } else {
-                strata::lint::check(&parsed, None)
-            };
-            for w in &warnings {
-                println!("strata: {}: {w}", spec.display());
-            }
-            match warnings.len() {
-                0 => println!("{}: ok", spec.display()),
-                n => println!("{}: ok, {n} warning{}", spec.display(), if n == 1 { "" } else { "s" }),
-            }
-            Ok(())
-        }
+        Command::Check { .. } => unreachable!("handled in main"),
         Command::Schema => {
             println!("{}", strata::spec::schema_text());
             Ok(())

@@ -67,6 +67,40 @@ pub fn table_shape(data: &[u8], data_name: &str) -> String {
     }
 }
 
+/// The columns of data bytes with the type the reader inferred for each, as
+/// JSON: `{"ok":true,"rows":N,"columns":[{"name":"day","type":"date"},...]}`
+/// (types in the spec's words: `number`, `text`, `date`, `bool`) or located
+/// errors. The playground builds its starter spec from this.
+#[wasm_bindgen]
+pub fn columns(data: &[u8], data_name: &str) -> String {
+    columns_json(data, data_name)
+}
+
+pub fn columns_json(data: &[u8], data_name: &str) -> String {
+    use arrow_schema::DataType;
+    let opts = strata::data::ReadOptions { format: strata::data::format_from_name(data_name), ..Default::default() };
+    match strata::data::read(data, &opts) {
+        Ok(t) => {
+            let schema = t.batch.schema();
+            let cols: Vec<serde_json::Value> = schema
+                .fields()
+                .iter()
+                .map(|f| {
+                    let kind = match f.data_type() {
+                        DataType::Boolean => "bool",
+                        DataType::Utf8 | DataType::LargeUtf8 => "text",
+                        DataType::Date32 | DataType::Date64 | DataType::Timestamp(..) => "date",
+                        _ => "number",
+                    };
+                    serde_json::json!({ "name": f.name(), "type": kind })
+                })
+                .collect();
+            serde_json::json!({ "ok": true, "rows": t.num_rows(), "columns": cols }).to_string()
+        }
+        Err(e) => serde_json::json!({ "ok": false, "errors": e.0 }).to_string(),
+    }
+}
+
 /// The engine's version, for the element's diagnostics.
 #[wasm_bindgen]
 pub fn version() -> String {
@@ -85,6 +119,17 @@ mod tests {
         assert_eq!(v["width"], 300.0);
         assert!(v["svg"].as_str().unwrap().contains("<circle"));
         assert!(v["table"].as_str().unwrap().starts_with("<details class=\"strata-data\">"));
+    }
+
+    #[test]
+    fn columns_name_the_inferred_types() {
+        let out = columns_json(b"day,rain_mm,town,wet\n2024-01-02,1.5,Oslo,true\n2024-01-03,0,Bergen,false\n", "d.csv");
+        let v: serde_json::Value = serde_json::from_str(&out).unwrap();
+        assert_eq!(v["rows"], 2);
+        let kinds: Vec<(&str, &str)> = v["columns"].as_array().unwrap().iter().map(|c| (c["name"].as_str().unwrap(), c["type"].as_str().unwrap())).collect();
+        assert_eq!(kinds, [("day", "date"), ("rain_mm", "number"), ("town", "text"), ("wet", "bool")]);
+        let bad: serde_json::Value = serde_json::from_str(&columns_json(b"[1,", "d.json")).unwrap();
+        assert_eq!(bad["ok"], false);
     }
 
     #[test]
