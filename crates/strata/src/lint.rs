@@ -12,7 +12,7 @@ use crate::scale::PositionScale;
 use crate::spec::{AngleChannel, Coords, Geometry, ScaleKind, Spec, Theme};
 
 /// Every lint code, for `quiet` and the schema.
-pub const CODES: [&str; 5] = ["lint.axis_without_zero", "lint.log_bars", "lint.too_many_colors", "lint.polar_angle_not_cyclic", "lint.low_contrast"];
+pub const CODES: &[&str] = crate::spec::shape::LINT_CODES;
 
 /// WCAG 2.1 success criterion 1.4.3 (level AA): 4.5:1 for normal text.
 pub const MIN_TEXT_CONTRAST: f64 = 4.5;

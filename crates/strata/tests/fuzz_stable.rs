@@ -361,6 +361,8 @@ fn rendering_never_panics() {
                 ok += 1;
                 assert!(out.svg.starts_with("<svg") && out.svg.trim_end().ends_with("</svg>"), "{spec}");
                 assert!(!out.svg.contains("NaN") && !out.svg.contains("inf"), "non-finite number in the SVG of {spec}");
+                let bad = out.scene.non_finite();
+                assert!(bad.is_empty(), "non-finite geometry at {bad:?} in the scene of {spec}");
             }
             Err(e) => {
                 err += 1;

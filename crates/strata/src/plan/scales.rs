@@ -437,6 +437,19 @@ fn num_as_text_position(layers: &[PlannedLayer], channels: &[&str]) -> Vec<Strin
     v.into_iter().map(l_key).collect()
 }
 
+impl PositionScale {
+    /// Unit position of row `i` of a plan column. (Here rather than in
+    /// `scale`, so the scale library knows nothing of the plan's columns.)
+    pub fn unit(&self, values: &Values, i: usize) -> Option<f64> {
+        match (self, values) {
+            // Numbers on a category scale are found by their text (as `Values::key` writes it).
+            (PositionScale::Category { .. }, Values::Num(v) | Values::Time(v)) => v.get(i).and_then(|x| self.unit_cat(&format!("{x}"))),
+            (_, Values::Num(v) | Values::Time(v)) => v.get(i).and_then(|x| self.unit_num(x)),
+            (_, Values::Text(v)) => v[i].as_deref().and_then(|s| self.unit_cat(s)),
+        }
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;

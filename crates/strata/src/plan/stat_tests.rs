@@ -350,7 +350,13 @@ fn long_line_is_reduced_by_m4() {
     assert!(drawn <= 4.0 * 640.0 && drawn > 640.0, "{drawn}");
     // The single spike survives: the smallest pixel y stands far above the next.
     let Node::Path { d: path, .. } = m[0] else { panic!() };
-    let mut ys: Vec<f64> = path.split(['M', 'L']).filter(|s| !s.is_empty()).map(|p| p.split(',').nth(1).unwrap().parse::<f64>().unwrap()).collect();
+    let mut ys: Vec<f64> = path
+        .iter()
+        .filter_map(|s| match *s {
+            crate::scene::Seg::Move(_, y) | crate::scene::Seg::Line(_, y) => Some(y),
+            _ => None,
+        })
+        .collect();
     ys.sort_by(f64::total_cmp);
     assert!(ys[1] - ys[0] > 30.0, "spike at {} next {}", ys[0], ys[1]);
     assert!(r.svg.len() < 60_000, "{}", r.svg.len());

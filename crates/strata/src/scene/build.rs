@@ -780,7 +780,7 @@ mod tests {
         let s = render(spec, None, &RenderOptions::default()).unwrap().scene;
         let marks = s.marks();
         let Node::Path { d, .. } = marks[0] else { panic!("a line") };
-        let nums: Vec<f64> = d.split(['M', 'L', ',']).filter(|t| !t.is_empty()).map(|t| t.parse().unwrap()).collect();
+        let nums: Vec<f64> = d.iter().flat_map(|s| s.numbers()).collect();
         let (xs, ys): (Vec<f64>, Vec<f64>) = (nums.iter().step_by(2).copied().collect(), nums.iter().skip(1).step_by(2).copied().collect());
         let ticks = all(&s, "strata-tick");
         // Vertical labels right of the data, horizontal labels above it.
@@ -862,7 +862,7 @@ mod tests {
         let scene = render(&spec("triangle"), None, &RenderOptions::default()).unwrap().scene;
         let Node::Path { d, .. } = scene.marks()[0] else { panic!("not a path") };
         // A triangle's path has three corners.
-        assert_eq!(d.matches('L').count(), 2, "{d}");
+        assert_eq!(d.iter().filter(|s| matches!(s, crate::scene::Seg::Line(..))).count(), 2, "{d:?}");
     }
 
     #[test]

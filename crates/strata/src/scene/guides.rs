@@ -7,11 +7,11 @@
 //! (compact numbers, shorter dates, truncated words).
 
 use super::coord::{Coord, Frame};
-use super::{Anchor, Node, Paint};
+use super::{polyline, shape_path, Anchor, Node, Paint};
 use crate::color::Palette;
 use crate::format::Locale;
 use crate::plan::{ColorScale, Scales};
-use crate::scale::{shape_path, PositionScale, Tick, TickOptions};
+use crate::scale::{PositionScale, Tick, TickOptions};
 use crate::text;
 
 /// Default size of tick labels, legend text and axis titles; the theme's
@@ -767,7 +767,7 @@ pub fn polar(coord: &Coord, angle_is_x: bool, angle_ticks: &[Tick], radius_ticks
         }
         let steps = 72;
         let pts: Vec<(f64, f64)> = (0..=steps).map(|k| at(k as f64 / steps as f64, t.unit)).collect();
-        grid.push(Node::Path { d: super::coord::path_d(&pts, true), paint: Paint::stroke(&pal.grid, 1.0), datum: None });
+        grid.push(Node::Path { d: polyline(&pts, true), paint: Paint::stroke(&pal.grid, 1.0), datum: None });
     }
     for t in angle_ticks {
         let (x0, y0) = at(t.unit, 0.0);

@@ -4,8 +4,8 @@
 //! by M4 (first, last, lowest and highest point per column; Jugel et al.
 //! 2014) at the width being drawn, which draws the same pixels.
 
-use super::coord::{path_d, Area, Coord};
-use super::{Anchor, Datum, Node, Paint};
+use super::coord::{Area, Coord};
+use super::{polyline, shape_path, Anchor, Datum, Node, Paint, Seg};
 use crate::plan::{ColorScale, PlannedLayer, Scales, Values};
 use crate::scale::{PositionScale, Transform};
 use crate::spec::{Arrange, Geometry};
@@ -121,7 +121,7 @@ fn points(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         // Size and shape scales (plan/scales.rs): area-true radius, shape by category.
         let r = layer.data.get("size").and_then(|v| ctx.scales.radius_of(v, i)).unwrap_or(r);
         if let Some(k) = layer.data.get("shape").and_then(|v| ctx.scales.shape_of(v, i)).or(fixed_shape) {
-            out.push(Node::Path { d: crate::scale::shape_path(k, cx, cy, r), paint, datum: Some(datum(layer, i)) });
+            out.push(Node::Path { d: shape_path(k, cx, cy, r), paint, datum: Some(datum(layer, i)) });
             continue;
         }
         out.push(Node::Circle { cx, cy, r, paint, datum: Some(datum(layer, i)) });
@@ -137,22 +137,7 @@ fn error_bar(ctx: &Ctx, ux: f64, a: f64, b: f64, cap: f64, c: &str, datum: Optio
     let capped = |p: (f64, f64)| if flip { ((p.0, p.1 - cap), (p.0, p.1 + cap)) } else { ((p.0 - cap, p.1), (p.0 + cap, p.1)) };
     let (c0, c1) = capped(p0);
     let (d0, d1) = capped(p1);
-    let num = crate::svg::num;
-    let d = format!(
-        "M{},{}L{},{}M{},{}L{},{}M{},{}L{},{}",
-        num(p0.0),
-        num(p0.1),
-        num(p1.0),
-        num(p1.1),
-        num(c0.0),
-        num(c0.1),
-        num(c1.0),
-        num(c1.1),
-        num(d0.0),
-        num(d0.1),
-        num(d1.0),
-        num(d1.1)
-    );
+    let d = vec![Seg::Move(p0.0, p0.1), Seg::Line(p1.0, p1.1), Seg::Move(c0.0, c0.1), Seg::Line(c1.0, c1.1), Seg::Move(d0.0, d0.1), Seg::Line(d1.0, d1.1)];
     Node::Path { d, paint: Paint::stroke(c, 1.5), datum }
 }
 
@@ -382,7 +367,7 @@ fn lines(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         if reduced {
             d.insert("drawn_points".into(), serde_json::Value::from(drawn.len()));
         }
-        out.push(Node::Path { d: path_d(&px, false), paint, datum: Some(d) });
+        out.push(Node::Path { d: polyline(&px, false), paint, datum: Some(d) });
     }
     out
 }
@@ -466,7 +451,7 @@ fn band_path(ctx: &Ctx, layer: &PlannedLayer, rows: &[usize], lo: &str, hi: &str
     paint.opacity = Some(opacity);
     let mut d = series_datum(layer, rows[0]);
     d.insert("points".into(), serde_json::Value::from(pts.len()));
-    Some(Node::Path { d: path_d(&outline, true), paint, datum: Some(d) })
+    Some(Node::Path { d: polyline(&outline, true), paint, datum: Some(d) })
 }
 
 // ------------------------------------------------------------ bars
@@ -558,7 +543,7 @@ fn rules(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         let mut paint = Paint::stroke(&color_of(ctx, layer, i), width);
         paint.opacity = layer.style.opacity;
         paint.dash = layer.style.dash.clone();
-        out.push(Node::Path { d: path_d(&px, false), paint, datum: Some(datum(layer, i)) });
+        out.push(Node::Path { d: polyline(&px, false), paint, datum: Some(datum(layer, i)) });
     }
     out
 }
@@ -625,14 +610,11 @@ fn boxes(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         if uw > q3 {
             lines.push(seg((xm, q3), (xm, uw)));
         }
-        let mut dd = String::new();
-        for l in &lines {
-            dd.push_str(&path_d(l, false));
-        }
+        let dd: Vec<Seg> = lines.iter().flat_map(|l| polyline(l, false)).collect();
         out.push(Node::Path { d: dd, paint: Paint::stroke(&c, 1.5), datum: None });
         // The box outline.
         let outline = ctx.coord.line(&[(x0, q1), (x1, q1), (x1, q3), (x0, q3)]);
-        out.push(Node::Path { d: path_d(&outline, true), paint: Paint::stroke(&c, 1.5), datum: None });
+        out.push(Node::Path { d: polyline(&outline, true), paint: Paint::stroke(&c, 1.5), datum: None });
     }
     out
 }
