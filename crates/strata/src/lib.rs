@@ -128,8 +128,41 @@ fn no_effect(spec: &Spec) -> Vec<Diagnostic> {
     out
 }
 
+/// Stage 1 from spec text: JSON syntax, the shape of every key and word,
+/// and the syntax of the `derive` and `where` expressions, every problem at
+/// once with its JSON path.
+pub fn parse_spec(text: &str) -> Result<Spec, Errors> {
+    spec::parse_spec_with(text, &expression_errors)
+}
+
+/// [`parse_spec`] for a spec already parsed as JSON.
+pub fn spec_from_value(value: &serde_json::Value) -> Result<Spec, Errors> {
+    spec::spec_from_value_with(value, &expression_errors)
+}
+
+/// Expression syntax, so that `strata check` finds it without data. (Here,
+/// so the spec stage does not depend on the expression stage.)
+fn expression_errors(value: &serde_json::Value) -> Vec<Diagnostic> {
+    let mut errors = Vec::new();
+    if let Some(derive) = value.get("derive").and_then(serde_json::Value::as_object) {
+        for (name, text) in derive {
+            if let Some(text) = text.as_str() {
+                if let Err(e) = expr::parse(text) {
+                    errors.push(expr::diagnostic(&format!("derive.{}", expr::path_key(name)), text, &e));
+                }
+            }
+        }
+    }
+    if let Some(text) = value.get("where").and_then(serde_json::Value::as_str) {
+        if let Err(e) = expr::parse(text) {
+            errors.push(expr::diagnostic("where", text, &e));
+        }
+    }
+    errors
+}
+
 /// The whole pipeline from spec text.
 pub fn render(spec_text: &str, data: Option<DataBytes>, opts: &RenderOptions) -> Result<Rendered, Errors> {
-    let spec = spec::parse_spec(spec_text)?;
+    let spec = parse_spec(spec_text)?;
     render_spec(&spec, data, opts)
 }

@@ -253,7 +253,7 @@ pub fn parse_css_color(s: &str) -> Option<[f64; 4]> {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::spec::parse_spec;
+    use crate::parse_spec;
 
     fn codes(spec: &str) -> Vec<String> {
         check(&parse_spec(spec).unwrap(), None).into_iter().map(|d| d.code).collect()

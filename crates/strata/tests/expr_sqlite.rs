@@ -91,7 +91,7 @@ fn evaluator_matches_sqlite_value_by_value() {
                         DataType::Date32 => {
                             let a = got.as_primitive::<Date32Type>();
                             let v = a.is_valid(i).then(|| {
-                                let (y, m, d) = strata::data::time::civil_from_days(a.value(i) as i64);
+                                let (y, m, d) = strata::calendar::civil_from_days(a.value(i) as i64);
                                 format!("{y:04}-{m:02}-{d:02}")
                             });
                             v.as_deref() == w.as_str()

@@ -18,7 +18,7 @@ fn root() -> PathBuf {
 /// (suffix, text).
 fn outputs(spec_path: &Path) -> Vec<(&'static str, String)> {
     let text = std::fs::read_to_string(spec_path).unwrap();
-    let spec = match strata::spec::parse_spec(&text) {
+    let spec = match strata::parse_spec(&text) {
         Ok(s) => s,
         Err(e) => return vec![("err.txt", format!("{e}\n"))],
     };

@@ -4,8 +4,9 @@
 //! validator on thousands of seeded mutations of those specs.
 
 use serde_json::{json, Value};
+use strata::spec::schema_text;
 use strata::spec::shape::{check, spec_shape, GEOMETRIES, LINT_CODES, SCALE_KINDS, STAT_WORDS, SUMMARIES};
-use strata::spec::{parse_spec, schema_text, spec_from_value};
+use strata::{parse_spec, spec_from_value};
 
 fn root() -> std::path::PathBuf {
     std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("../..")

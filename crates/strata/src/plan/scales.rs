@@ -464,7 +464,7 @@ mod tests {
     }
 
     fn spec(scales: &str) -> Spec {
-        crate::spec::parse_spec(&format!(r#"{{ "layers": [ {{ "draw": "point" }} ], "scales": {scales} }}"#)).unwrap()
+        crate::parse_spec(&format!(r#"{{ "layers": [ {{ "draw": "point" }} ], "scales": {scales} }}"#)).unwrap()
     }
 
     #[test]

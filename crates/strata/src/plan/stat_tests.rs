@@ -77,7 +77,7 @@ fn density_area_matches_exact_kde_and_integrates_to_one() {
     let table =
         crate::data::read(FAITHFUL, &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() })
             .unwrap();
-    let spec = crate::spec::parse_spec(spec).unwrap();
+    let spec = crate::parse_spec(spec).unwrap();
     let plan = crate::plan::build(&spec, &table).unwrap();
     let d = &plan.layers[0].data;
     let xs: Vec<f64> = (0..d.len).map(|i| d.get("x").unwrap().num(i).unwrap()).collect();
@@ -146,7 +146,7 @@ fn quantile_summary_takes_p() {
 #[test]
 fn stack_puts_negatives_below_zero_on_their_own() {
     let csv = b"x,s,v\na,s1,3\na,s2,-2\na,s3,4\na,s4,-1\nb,s1,1\nb,s2,1\n";
-    let spec = crate::spec::parse_spec(r#"{"layers":[{"draw":"bar","x":"x","y":"v","color":"s","arrange":"stack"}]}"#).unwrap();
+    let spec = crate::parse_spec(r#"{"layers":[{"draw":"bar","x":"x","y":"v","color":"s","arrange":"stack"}]}"#).unwrap();
     let table =
         crate::data::read(csv, &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() })
             .unwrap();
@@ -156,7 +156,7 @@ fn stack_puts_negatives_below_zero_on_their_own() {
     assert_eq!(col("y_base"), vec![0.0, 0.0, 3.0, -2.0, 0.0, 1.0]);
     assert_eq!(col("y"), vec![3.0, -2.0, 7.0, -3.0, 1.0, 2.0]);
 
-    let spec = crate::spec::parse_spec(r#"{"layers":[{"draw":"bar","x":"x","y":"v","color":"s","arrange":"proportion"}]}"#).unwrap();
+    let spec = crate::parse_spec(r#"{"layers":[{"draw":"bar","x":"x","y":"v","color":"s","arrange":"proportion"}]}"#).unwrap();
     let plan = crate::plan::build(&spec, &table).unwrap();
     let d = &plan.layers[0].data;
     let col = |c: &str| (0..d.len).map(|i| d.get(c).unwrap().num(i).unwrap()).collect::<Vec<_>>();
@@ -195,7 +195,7 @@ fn jitter_is_identical_every_run_and_bounded() {
         .collect();
     assert!(xs[0] != xs[1] && xs[1] != xs[2], "points moved apart");
     // Jitter in y is at most 40 % of the resolution (1).
-    let spec_p = crate::spec::parse_spec(spec).unwrap();
+    let spec_p = crate::parse_spec(spec).unwrap();
     let table =
         crate::data::read(csv, &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() })
             .unwrap();
@@ -266,7 +266,7 @@ fn linear_fit_draws_band_under_line_on_anscombe_set_one() {
         &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() },
     )
     .unwrap();
-    let plan = crate::plan::build(&crate::spec::parse_spec(spec).unwrap(), &table).unwrap();
+    let plan = crate::plan::build(&crate::parse_spec(spec).unwrap(), &table).unwrap();
     let d = &plan.layers[1].data;
     for i in 0..d.len {
         let x = d.get("x").unwrap().num(i).unwrap();
@@ -289,7 +289,7 @@ fn loess_options_reach_the_fit() {
         &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() },
     )
     .unwrap();
-    let plan = crate::plan::build(&crate::spec::parse_spec(spec).unwrap(), &table).unwrap();
+    let plan = crate::plan::build(&crate::parse_spec(spec).unwrap(), &table).unwrap();
     let d = &plan.layers[0].data;
     // Local quadratics reproduce a parabola (Cleveland & Devlin 1988).
     for i in 0..d.len {
@@ -297,7 +297,7 @@ fn loess_options_reach_the_fit() {
         assert!((d.get("y").unwrap().num(i).unwrap() - x * x).abs() < 1e-8);
     }
     // Out-of-range options are caught by the spec's shape check, at their path.
-    let bad = crate::spec::parse_spec(r#"{"layers":[{"draw":"line","x":"x","y":"y","stat":{"fit":"loess","degree":3}}]}"#).unwrap_err();
+    let bad = crate::parse_spec(r#"{"layers":[{"draw":"line","x":"x","y":"y","stat":{"fit":"loess","degree":3}}]}"#).unwrap_err();
     assert_eq!(bad.0[0].at.path, "layers[0].stat.degree");
 }
 
@@ -308,12 +308,12 @@ fn rolling_window_per_group_in_x_order() {
     let table =
         crate::data::read(csv, &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() })
             .unwrap();
-    let plan = crate::plan::build(&crate::spec::parse_spec(spec).unwrap(), &table).unwrap();
+    let plan = crate::plan::build(&crate::parse_spec(spec).unwrap(), &table).unwrap();
     let d = &plan.layers[0].data;
     let y: Vec<f64> = (0..d.len).map(|i| d.get("y").unwrap().num(i).unwrap()).collect();
     assert_eq!(y, vec![10.0, 15.0, 25.0, 1.0, 2.0]);
     let spec = r#"{"layers":[{"draw":"line","x":"t","y":"v","color":"g","stat":{"window":{"summary":"running_total"}}}]}"#;
-    let plan = crate::plan::build(&crate::spec::parse_spec(spec).unwrap(), &table).unwrap();
+    let plan = crate::plan::build(&crate::parse_spec(spec).unwrap(), &table).unwrap();
     let d = &plan.layers[0].data;
     let y: Vec<f64> = (0..d.len).map(|i| d.get("y").unwrap().num(i).unwrap()).collect();
     assert_eq!(y, vec![10.0, 30.0, 60.0, 1.0, 4.0]);
@@ -555,7 +555,7 @@ fn y_scale_covers_interval_ends() {
     let csv = b"g,v\na,1\na,9\na,2\nb,4\nb,5\nb,15\n";
     let spec = r#"{"layers":[{"draw":"point","x":"g","y":"v","stat":{"summary":"mean","interval":"ci95"}}]}"#;
     let table = crate::data::read(csv, &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), ..Default::default() }).unwrap();
-    let plan = crate::plan::build(&crate::spec::parse_spec(spec).unwrap(), &table).unwrap();
+    let plan = crate::plan::build(&crate::parse_spec(spec).unwrap(), &table).unwrap();
     let d = &plan.layers[0].data;
     let high = (0..d.len).filter_map(|i| d.get("y_high").unwrap().num(i)).fold(f64::MIN, f64::max);
     let low = (0..d.len).filter_map(|i| d.get("y_low").unwrap().num(i)).fold(f64::MAX, f64::min);

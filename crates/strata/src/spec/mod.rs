@@ -9,7 +9,7 @@ pub mod shape;
 mod suggest;
 mod words;
 
-pub use parse::{parse_spec, spec_from_value};
+pub use parse::{parse_spec_with, spec_from_value_with, ExtraCheck};
 pub use suggest::{closest, edit_distance, levenshtein};
 
 /// The JSON Schema of a spec as pretty-printed text (what `strata schema`
