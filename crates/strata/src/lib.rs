@@ -13,6 +13,7 @@
 //! ticks), [`format`] (labels), [`color`], [`text`] (measurement), [`math`].
 
 pub mod calendar;
+pub mod channel;
 pub mod color;
 pub mod data;
 pub mod datatable;

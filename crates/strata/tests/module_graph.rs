@@ -3,8 +3,8 @@
 //!
 //! The graph is read from the source text: every `use crate::x...` line
 //! (with `use crate::{x, y::z}` groups) and every inline `crate::x::` path in
-//! `crates/strata/src`, outside comments and outside test code (what follows
-//! a `#[cfg(test)]` in a file, and files declared as `#[cfg(test)] mod x;`).
+//! `crates/strata/src`, outside comments and outside test code (items under
+//! `#[cfg(test)]`, and files declared as `#[cfg(test)] mod x;`).
 //! A node is a top-level module: a file `src/foo.rs` or a folder `src/foo/`.
 //! `lib.rs` is the driver that runs the stages and is not a node.
 //!
@@ -80,14 +80,25 @@ fn test_only_files(files: &[PathBuf]) -> BTreeSet<PathBuf> {
     out
 }
 
-/// The source a build without tests compiles: comments and everything from
-/// the first `#[cfg(test)]` on removed (test modules sit at the end of a file).
+/// The source a build without tests compiles: comments and `#[cfg(test)]`
+/// items removed. An item under `#[cfg(test)]` ends at its line `;` or, for
+/// a block, at the `}` line with the attribute's indentation (as rustfmt
+/// writes it).
 fn code_of(text: &str) -> String {
     let mut out = String::new();
-    for line in text.lines() {
+    let mut lines = text.lines();
+    while let Some(line) = lines.next() {
         let t = line.trim();
         if t == "#[cfg(test)]" {
-            break;
+            let indent = &line[..line.len() - line.trim_start().len()];
+            let close = format!("{indent}}}");
+            // Further attributes, then the item's first line.
+            let first = lines.by_ref().find(|l| !l.trim().starts_with("#[")).unwrap_or_default();
+            if !first.trim_end().ends_with(';') && !first.trim_end().ends_with('}') {
+                // A block: skip to its closing line.
+                lines.by_ref().find(|l| l.trim_end() == close);
+            }
+            continue;
         }
         if t.starts_with("//") {
             continue;
@@ -229,7 +240,8 @@ fn the_reader_finds_cycles_and_groups() {
     let modules: BTreeSet<String> = ["a", "b", "c"].iter().map(|s| s.to_string()).collect();
     assert_eq!(named_modules("use crate::{a::X, b::{self, Y}};\nfn f() { crate::c::g(); other_crate::a::h(); }", &modules), modules);
     assert!(named_modules("use strata_crate::a;", &modules).is_empty());
-    assert_eq!(code_of("use crate::a; // crate::b\n// crate::c\n#[cfg(test)]\nmod tests { use crate::c; }"), "use crate::a; \n");
+    assert_eq!(code_of("use crate::a; // crate::b\n// crate::c\n#[cfg(test)]\nmod tests {\n    use crate::c;\n}\nfn f() {}\n"), "use crate::a; \nfn f() {}\n");
+    assert_eq!(code_of("#[cfg(test)]\n#[path = \"t.rs\"]\nmod t;\nuse crate::b;\n"), "use crate::b;\n");
     let mut g: BTreeMap<String, BTreeSet<String>> = BTreeMap::new();
     g.insert("a".into(), ["b".to_string()].into());
     g.insert("b".into(), ["c".to_string()].into());

@@ -16,6 +16,7 @@
 
 use super::scales::retrain_positions;
 use super::{LayerData, Plan, PlannedLayer};
+use crate::channel::Channel;
 use crate::error::{Diagnostic, Errors};
 use crate::spec::{FreeAxes, Spec};
 use indexmap::IndexSet;
@@ -46,7 +47,7 @@ pub fn free_axes(spec: &Spec) -> (bool, bool) {
 }
 
 /// Distinct values of a channel over every layer, in order of first appearance.
-fn values_of(layers: &[PlannedLayer], channel: &str) -> IndexSet<String> {
+fn values_of(layers: &[PlannedLayer], channel: Channel) -> IndexSet<String> {
     let mut keys = IndexSet::new();
     for l in layers {
         if let Some(v) = l.data.get(channel) {
@@ -66,9 +67,9 @@ type Values3 = (Option<IndexSet<String>>, Option<IndexSet<String>>, Option<Index
 fn panel_values(spec: &Spec, layers: &[PlannedLayer]) -> Option<Values3> {
     let p = spec.panels.as_ref()?;
     if p.by.is_some() {
-        return Some((Some(values_of(layers, "panel")), None, None));
+        return Some((Some(values_of(layers, Channel::Panel)), None, None));
     }
-    Some((None, p.rows.as_ref().map(|_| values_of(layers, "panel_row")), p.cols.as_ref().map(|_| values_of(layers, "panel_col"))))
+    Some((None, p.rows.as_ref().map(|_| values_of(layers, Channel::PanelRow)), p.cols.as_ref().map(|_| values_of(layers, Channel::PanelCol))))
 }
 
 /// An error when the panels would be too many to draw.
@@ -96,7 +97,7 @@ pub fn split(spec: &Spec, plan: &Plan) -> Option<PanelPlans> {
         if keys.is_empty() {
             return None;
         }
-        let cells = cut(plan, &[("panel", &keys)], free);
+        let cells = cut(plan, &[(Channel::Panel, &keys)], free);
         return Some(PanelPlans::Wrap(keys.into_iter().zip(cells).collect()));
     }
     let (n_rows, n_cols) = (rows.as_ref().map_or(1, IndexSet::len), cols.as_ref().map_or(1, IndexSet::len));
@@ -105,10 +106,10 @@ pub fn split(spec: &Spec, plan: &Plan) -> Option<PanelPlans> {
     }
     let mut by_channel = Vec::new();
     if let Some(r) = &rows {
-        by_channel.push(("panel_row", r));
+        by_channel.push((Channel::PanelRow, r));
     }
     if let Some(c) = &cols {
-        by_channel.push(("panel_col", c));
+        by_channel.push((Channel::PanelCol, c));
     }
     let cells = cut(plan, &by_channel, free);
     let list = |s: Option<IndexSet<String>>| s.map(|s| s.into_iter().collect());
@@ -117,11 +118,11 @@ pub fn split(spec: &Spec, plan: &Plan) -> Option<PanelPlans> {
 
 /// One plan per cell of the grid the channels span (the first channel's
 /// values vary slowest). Each row goes to its cell in one pass.
-fn cut(plan: &Plan, channels: &[(&str, &IndexSet<String>)], free: (bool, bool)) -> Vec<Plan> {
+fn cut(plan: &Plan, channels: &[(Channel, &IndexSet<String>)], free: (bool, bool)) -> Vec<Plan> {
     let n: usize = channels.iter().map(|(_, v)| v.len()).product();
     let mut layers: Vec<Vec<PlannedLayer>> = (0..n).map(|_| Vec::with_capacity(plan.layers.len())).collect();
     for l in &plan.layers {
-        let cols: Vec<_> = channels.iter().filter_map(|(c, values)| l.data.get(c).map(|v| (v, *values))).collect();
+        let cols: Vec<_> = channels.iter().filter_map(|(c, values)| l.data.get(*c).map(|v| (v, *values))).collect();
         if cols.len() < channels.len() {
             // A layer without its panel channels is drawn in every panel.
             for cell in &mut layers {

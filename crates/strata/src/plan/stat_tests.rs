@@ -1,6 +1,7 @@
 //! Statistics and position adjustments through the whole pipeline: spec and
 //! data in, plan and scene out.
 
+use crate::channel::Channel;
 use crate::scene::Node;
 use crate::{render, DataBytes, RenderOptions};
 use serde_json::Value;
@@ -80,8 +81,8 @@ fn density_area_matches_exact_kde_and_integrates_to_one() {
     let spec = crate::parse_spec(spec).unwrap();
     let plan = crate::plan::build(&spec, &table).unwrap();
     let d = &plan.layers[0].data;
-    let xs: Vec<f64> = (0..d.len).map(|i| d.get("x").unwrap().num(i).unwrap()).collect();
-    let ys: Vec<f64> = (0..d.len).map(|i| d.get("y").unwrap().num(i).unwrap()).collect();
+    let xs: Vec<f64> = (0..d.len).map(|i| d.get(Channel::X).unwrap().num(i).unwrap()).collect();
+    let ys: Vec<f64> = (0..d.len).map(|i| d.get(Channel::Y).unwrap().num(i).unwrap()).collect();
     let (e, _) = faithful_columns();
     let h = crate::stat::density::bandwidth(&e, crate::stat::density::Bandwidth::Silverman).unwrap();
     let exact = crate::stat::density::kde_exact(&e, h, &xs);
@@ -152,16 +153,16 @@ fn stack_puts_negatives_below_zero_on_their_own() {
             .unwrap();
     let plan = crate::plan::build(&spec, &table).unwrap();
     let d = &plan.layers[0].data;
-    let col = |c: &str| (0..d.len).map(|i| d.get(c).unwrap().num(i).unwrap()).collect::<Vec<_>>();
-    assert_eq!(col("y_base"), vec![0.0, 0.0, 3.0, -2.0, 0.0, 1.0]);
-    assert_eq!(col("y"), vec![3.0, -2.0, 7.0, -3.0, 1.0, 2.0]);
+    let col = |c: Channel| (0..d.len).map(|i| d.get(c).unwrap().num(i).unwrap()).collect::<Vec<_>>();
+    assert_eq!(col(Channel::YBase), vec![0.0, 0.0, 3.0, -2.0, 0.0, 1.0]);
+    assert_eq!(col(Channel::Y), vec![3.0, -2.0, 7.0, -3.0, 1.0, 2.0]);
 
     let spec = crate::parse_spec(r#"{"layers":[{"draw":"bar","x":"x","y":"v","color":"s","arrange":"proportion"}]}"#).unwrap();
     let plan = crate::plan::build(&spec, &table).unwrap();
     let d = &plan.layers[0].data;
-    let col = |c: &str| (0..d.len).map(|i| d.get(c).unwrap().num(i).unwrap()).collect::<Vec<_>>();
+    let col = |c: Channel| (0..d.len).map(|i| d.get(c).unwrap().num(i).unwrap()).collect::<Vec<_>>();
     // x = a: |3| + |-2| + |4| + |-1| = 10.
-    assert_eq!(col("y"), vec![0.3, -0.2, 0.7, -0.3, 0.5, 1.0]);
+    assert_eq!(col(Channel::Y), vec![0.3, -0.2, 0.7, -0.3, 0.5, 1.0]);
 }
 
 #[test]
@@ -203,9 +204,9 @@ fn jitter_is_identical_every_run_and_bounded() {
     let d = &plan.layers[0].data;
     let orig = [1.0, 1.0, 1.0, 2.0, 2.0, 3.0];
     for i in 0..d.len {
-        let y = d.get("y").unwrap().num(i).unwrap();
+        let y = d.get(Channel::Y).unwrap().num(i).unwrap();
         assert!((y - orig[i]).abs() <= 0.4);
-        assert!(d.get("x_offset").unwrap().num(i).unwrap().abs() <= 0.3);
+        assert!(d.get(Channel::XOffset).unwrap().num(i).unwrap().abs() <= 0.3);
     }
 }
 
@@ -269,10 +270,10 @@ fn linear_fit_draws_band_under_line_on_anscombe_set_one() {
     let plan = crate::plan::build(&crate::parse_spec(spec).unwrap(), &table).unwrap();
     let d = &plan.layers[1].data;
     for i in 0..d.len {
-        let x = d.get("x").unwrap().num(i).unwrap();
-        let y = d.get("y").unwrap().num(i).unwrap();
+        let x = d.get(Channel::X).unwrap().num(i).unwrap();
+        let y = d.get(Channel::Y).unwrap().num(i).unwrap();
         assert!((y - (3.0 + 0.5 * x)).abs() < 0.01);
-        assert!(d.get("y_low").unwrap().num(i).unwrap() < y && d.get("y_high").unwrap().num(i).unwrap() > y);
+        assert!(d.get(Channel::YLow).unwrap().num(i).unwrap() < y && d.get(Channel::YHigh).unwrap().num(i).unwrap() > y);
     }
 }
 
@@ -293,8 +294,8 @@ fn loess_options_reach_the_fit() {
     let d = &plan.layers[0].data;
     // Local quadratics reproduce a parabola (Cleveland & Devlin 1988).
     for i in 0..d.len {
-        let x = d.get("x").unwrap().num(i).unwrap();
-        assert!((d.get("y").unwrap().num(i).unwrap() - x * x).abs() < 1e-8);
+        let x = d.get(Channel::X).unwrap().num(i).unwrap();
+        assert!((d.get(Channel::Y).unwrap().num(i).unwrap() - x * x).abs() < 1e-8);
     }
     // Out-of-range options are caught by the spec's shape check, at their path.
     let bad = crate::parse_spec(r#"{"layers":[{"draw":"line","x":"x","y":"y","stat":{"fit":"loess","degree":3}}]}"#).unwrap_err();
@@ -310,12 +311,12 @@ fn rolling_window_per_group_in_x_order() {
             .unwrap();
     let plan = crate::plan::build(&crate::parse_spec(spec).unwrap(), &table).unwrap();
     let d = &plan.layers[0].data;
-    let y: Vec<f64> = (0..d.len).map(|i| d.get("y").unwrap().num(i).unwrap()).collect();
+    let y: Vec<f64> = (0..d.len).map(|i| d.get(Channel::Y).unwrap().num(i).unwrap()).collect();
     assert_eq!(y, vec![10.0, 15.0, 25.0, 1.0, 2.0]);
     let spec = r#"{"layers":[{"draw":"line","x":"t","y":"v","color":"g","stat":{"window":{"summary":"running_total"}}}]}"#;
     let plan = crate::plan::build(&crate::parse_spec(spec).unwrap(), &table).unwrap();
     let d = &plan.layers[0].data;
-    let y: Vec<f64> = (0..d.len).map(|i| d.get("y").unwrap().num(i).unwrap()).collect();
+    let y: Vec<f64> = (0..d.len).map(|i| d.get(Channel::Y).unwrap().num(i).unwrap()).collect();
     assert_eq!(y, vec![10.0, 30.0, 60.0, 1.0, 4.0]);
 }
 
@@ -506,21 +507,21 @@ fn statistics_group_by_panel_and_colour() {
     let colour = ["p", "p", "q", "q", "p", "p", "p", "q"];
     let panel = ["left", "left", "left", "left", "right", "right", "right", "right"];
     let mut data = LayerData { len: xs.len(), ..Default::default() };
-    data.channels.insert("x", Values::Num(xs.iter().map(|x| Some(*x)).collect()));
-    data.channels.insert("color", Values::Text(colour.iter().map(|s| Some(s.to_string())).collect()));
-    data.channels.insert("panel", Values::Text(panel.iter().map(|s| Some(s.to_string())).collect()));
+    data.channels.insert(Channel::X, Values::Num(xs.iter().map(|x| Some(*x)).collect()));
+    data.channels.insert(Channel::Color, Values::Text(colour.iter().map(|s| Some(s.to_string())).collect()));
+    data.channels.insert(Channel::Panel, Values::Text(panel.iter().map(|s| Some(s.to_string())).collect()));
     let layer: crate::spec::Layer = serde_json::from_str(r#"{"draw":"bar","x":"x","color":"c","stat":{"bin":{"count":2}}}"#).unwrap();
     let out = super::apply(0, &layer, data.clone()).unwrap().data;
     // Four groups (left/p, left/q, right/p, right/q) x two shared bins [1, 2), [2, 3].
     assert_eq!(out.len, 8);
-    let counts: Vec<f64> = (0..out.len).map(|i| out.get("count").unwrap().num(i).unwrap()).collect();
+    let counts: Vec<f64> = (0..out.len).map(|i| out.get(Channel::Count).unwrap().num(i).unwrap()).collect();
     assert_eq!(counts, vec![1.0, 1.0, 0.0, 2.0, 2.0, 1.0, 0.0, 1.0]);
-    assert_eq!(out.get("panel").unwrap().key(2).as_deref(), Some("left"));
-    assert_eq!(out.get("color").unwrap().key(2).as_deref(), Some("q"));
+    assert_eq!(out.get(Channel::Panel).unwrap().key(2).as_deref(), Some("left"));
+    assert_eq!(out.get(Channel::Color).unwrap().key(2).as_deref(), Some("q"));
     // Counts split the same way, and also by x.
     let layer: crate::spec::Layer = serde_json::from_str(r#"{"draw":"bar","x":"x","color":"c","stat":"count"}"#).unwrap();
     let out = super::apply(0, &layer, data).unwrap().data;
-    let n: f64 = (0..out.len).map(|i| out.get("y").unwrap().num(i).unwrap()).sum();
+    let n: f64 = (0..out.len).map(|i| out.get(Channel::Y).unwrap().num(i).unwrap()).sum();
     assert_eq!(n, 8.0);
     // right/p/x=3 and right/q/x=3 are separate rows.
     assert_eq!(out.len, 8);
@@ -557,8 +558,8 @@ fn y_scale_covers_interval_ends() {
     let table = crate::data::read(csv, &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), ..Default::default() }).unwrap();
     let plan = crate::plan::build(&crate::parse_spec(spec).unwrap(), &table).unwrap();
     let d = &plan.layers[0].data;
-    let high = (0..d.len).filter_map(|i| d.get("y_high").unwrap().num(i)).fold(f64::MIN, f64::max);
-    let low = (0..d.len).filter_map(|i| d.get("y_low").unwrap().num(i)).fold(f64::MAX, f64::min);
+    let high = (0..d.len).filter_map(|i| d.get(Channel::YHigh).unwrap().num(i)).fold(f64::MIN, f64::max);
+    let low = (0..d.len).filter_map(|i| d.get(Channel::YLow).unwrap().num(i)).fold(f64::MAX, f64::min);
     let s = &plan.scales.y;
     let (u_hi, u_lo) = (s.unit_num(high).unwrap(), s.unit_num(low).unwrap());
     assert!(u_hi <= 1.0 + 1e-12 && u_lo >= -1e-12, "interval {low}..{high} maps to {u_lo}..{u_hi}");

@@ -9,6 +9,7 @@ use super::coord::{Coord, Frame};
 use super::guides::{self, AxisGuide, Legend, Side};
 use super::marks::{layer_marks, Ctx};
 use super::{Anchor, Node, Scene};
+use crate::channel::Channel;
 use crate::color::Palette;
 use crate::plan::{PanelPlans, Plan};
 use crate::spec::{Coords, Placement, Spec, Theme};
@@ -161,8 +162,8 @@ pub fn build(spec: &Spec, plan: &Plan, opts: &SceneOptions) -> Scene {
         let col_w = legends.iter().map(|l| guides::column_size(l).0).fold(0.0, f64::max);
         let col_h: f64 = legends.iter().map(|l| guides::column_size(l).1 + 12.0).sum();
         let placement_of = |l: &Legend| match l.channel {
-            "size" => scales.size_spec.legend,
-            "shape" => scales.shape_spec.legend,
+            Channel::Size => scales.size_spec.legend,
+            Channel::Shape => scales.shape_spec.legend,
             _ => scales.color_spec.legend,
         };
         let wants_top = legends.iter().any(|l| matches!(placement_of(l), Some(Placement::Top) | Some(Placement::Bottom)));

@@ -8,6 +8,7 @@
 
 use super::coord::{Coord, Frame};
 use super::{polyline, shape_path, Anchor, Node, Paint};
+use crate::channel::Channel;
 use crate::color::Palette;
 use crate::format::Locale;
 use crate::plan::{ColorScale, Scales};
@@ -430,7 +431,7 @@ pub struct Legend {
     pub title: String,
     pub body: LegendBody,
     /// `color`, `size` or `shape`.
-    pub channel: &'static str,
+    pub channel: Channel,
     /// Text size of its title and labels.
     pub size: f64,
 }
@@ -447,7 +448,7 @@ pub fn legends(scales: &Scales, default_color: &str, size: f64) -> Vec<Legend> {
         Some(ColorScale::Categories(cats)) if !hidden(&scales.color_spec) => {
             let vals = crate::plan::Values::Text(cats.iter().cloned().map(Some).collect());
             let items = cats.iter().enumerate().map(|(i, c)| (c.clone(), scales.color_of(&vals, i).unwrap_or_default())).collect();
-            out.push(Legend { title: scales.color_title.clone(), body: LegendBody::Swatches(items), channel: "color", size });
+            out.push(Legend { title: scales.color_title.clone(), body: LegendBody::Swatches(items), channel: Channel::Color, size });
         }
         Some(ColorScale::Ramp { lo, hi }) if !hidden(&scales.color_spec) => {
             let (lo, hi) = (*lo, *hi);
@@ -456,7 +457,7 @@ pub fn legends(scales: &Scales, default_color: &str, size: f64) -> Vec<Legend> {
                 .collect();
             let scale = PositionScale::linear(lo, hi);
             let ticks = scale.ticks_with(&TickOptions { wanted: 3, pattern: scales.color_spec.format.as_deref(), locale: loc, short: false });
-            out.push(Legend { title: scales.color_title.clone(), body: LegendBody::Gradient { colors, ticks }, channel: "color", size });
+            out.push(Legend { title: scales.color_title.clone(), body: LegendBody::Gradient { colors, ticks }, channel: Channel::Color, size });
         }
         _ => {}
     }
@@ -466,14 +467,14 @@ pub fn legends(scales: &Scales, default_color: &str, size: f64) -> Vec<Legend> {
             let step = if vals.len() > 1 { vals[1] - vals[0] } else { vals.first().copied().unwrap_or(1.0) };
             let pattern = scales.size_spec.format.clone().unwrap_or_else(|| crate::format::default_pattern(step));
             let items = vals.iter().filter_map(|v| Some((crate::format::number(*v, &pattern, loc), s.radius(*v)?))).collect();
-            out.push(Legend { title: scales.size_title.clone(), body: LegendBody::Sizes(items), channel: "size", size });
+            out.push(Legend { title: scales.size_title.clone(), body: LegendBody::Sizes(items), channel: Channel::Size, size });
         }
     }
     if let Some(cats) = &scales.shape {
         if !hidden(&scales.shape_spec) {
             let vals = crate::plan::Values::Text(cats.iter().cloned().map(Some).collect());
             let items = cats.iter().enumerate().map(|(i, c)| (c.clone(), i, merged.then(|| scales.color_of(&vals, i)).flatten())).collect();
-            let l = Legend { title: scales.shape_title.clone(), body: LegendBody::Shapes(items), channel: "shape", size };
+            let l = Legend { title: scales.shape_title.clone(), body: LegendBody::Shapes(items), channel: Channel::Shape, size };
             if merged {
                 out.insert(0, l)
             } else {
@@ -690,8 +691,8 @@ pub fn rows(l: &Legend, x: f64, y: f64, max_width: f64, pal: &Palette, default_c
 
 fn wrap_legend(l: &Legend, kids: Vec<Node>) -> Node {
     let what = match l.channel {
-        "size" => "size",
-        "shape" => "shape",
+        Channel::Size => "size",
+        Channel::Shape => "shape",
         _ => "colour",
     };
     let label = if l.title.is_empty() { format!("{what} legend") } else { format!("{what} legend: {}", l.title) };

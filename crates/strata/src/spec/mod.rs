@@ -19,6 +19,7 @@ pub fn schema_text() -> String {
 }
 pub use words::FromWord;
 
+use crate::channel::Channel;
 use indexmap::IndexMap;
 use serde::{Deserialize, Serialize};
 
@@ -161,25 +162,25 @@ pub enum ColumnType {
 pub struct Layer {
     pub draw: Geometry,
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub x: Option<Channel>,
+    pub x: Option<Mapping>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub y: Option<Channel>,
+    pub y: Option<Mapping>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub x_end: Option<Channel>,
+    pub x_end: Option<Mapping>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub y_end: Option<Channel>,
+    pub y_end: Option<Mapping>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub color: Option<Channel>,
+    pub color: Option<Mapping>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub size: Option<Channel>,
+    pub size: Option<Mapping>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub shape: Option<Channel>,
+    pub shape: Option<Mapping>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub opacity: Option<Channel>,
+    pub opacity: Option<Mapping>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub text: Option<Channel>,
+    pub text: Option<Mapping>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub group: Option<Channel>,
+    pub group: Option<Mapping>,
     /// Columns shown on hover or focus.
     #[serde(default, skip_serializing_if = "Vec::is_empty")]
     pub tip: Vec<String>,
@@ -226,9 +227,9 @@ impl Geometry {
     }
 }
 
-/// A channel: a column name, or `{ "column": "c", "as": "date" }`.
+/// What a channel maps to: a column name, or `{ "column": "c", "as": "date" }`.
 #[derive(Debug, Clone, PartialEq, Serialize)]
-pub struct Channel {
+pub struct Mapping {
     pub column: String,
     #[serde(default, rename = "as", skip_serializing_if = "Option::is_none")]
     pub as_type: Option<ColumnType>,
@@ -553,18 +554,18 @@ pub struct ThemeOverrides {
 
 impl Layer {
     /// The layer's channels that are set, by name, in a fixed order.
-    pub fn channels(&self) -> Vec<(&'static str, &Channel)> {
-        let all: [(&'static str, &Option<Channel>); 10] = [
-            ("x", &self.x),
-            ("y", &self.y),
-            ("x_end", &self.x_end),
-            ("y_end", &self.y_end),
-            ("color", &self.color),
-            ("size", &self.size),
-            ("shape", &self.shape),
-            ("opacity", &self.opacity),
-            ("text", &self.text),
-            ("group", &self.group),
+    pub fn channels(&self) -> Vec<(Channel, &Mapping)> {
+        let all: [(Channel, &Option<Mapping>); 10] = [
+            (Channel::X, &self.x),
+            (Channel::Y, &self.y),
+            (Channel::XEnd, &self.x_end),
+            (Channel::YEnd, &self.y_end),
+            (Channel::Color, &self.color),
+            (Channel::Size, &self.size),
+            (Channel::Shape, &self.shape),
+            (Channel::Opacity, &self.opacity),
+            (Channel::Text, &self.text),
+            (Channel::Group, &self.group),
         ];
         all.into_iter().filter_map(|(n, c)| c.as_ref().map(|c| (n, c))).collect()
     }

@@ -56,10 +56,10 @@ impl FromWord for DataRef {
 }
 word_or_object!(DataRef);
 
-impl FromWord for Channel {
+impl FromWord for Mapping {
     const EXPECTED: &'static str = "a column name or an object such as {\"column\": \"c\", \"as\": \"date\"}";
     fn from_word(word: &str) -> Result<Self, String> {
-        Ok(Channel { column: word.to_string(), as_type: None })
+        Ok(Mapping { column: word.to_string(), as_type: None })
     }
     fn from_object<'de, A: MapAccess<'de>>(map: A) -> Result<Self, A::Error> {
         #[derive(Deserialize)]
@@ -70,10 +70,10 @@ impl FromWord for Channel {
             as_type: Option<ColumnType>,
         }
         let r: Raw = object(map)?;
-        Ok(Channel { column: r.column, as_type: r.as_type })
+        Ok(Mapping { column: r.column, as_type: r.as_type })
     }
 }
-word_or_object!(Channel);
+word_or_object!(Mapping);
 
 impl FromWord for Stat {
     const EXPECTED: &'static str = "`identity`, `count`, `box`, or an object with one of `bin`, `summary`, `fit`, `density`, `window`";
