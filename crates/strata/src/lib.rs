@@ -98,7 +98,7 @@ pub fn render_spec(spec: &Spec, data: Option<DataBytes>, opts: &RenderOptions) -
     let table = load_table(spec, data)?;
     let table = expr::apply(table, &spec.derive, spec.where_.as_deref())?;
     let plan = plan::build(spec, &table)?;
-    let scene = scene::build(spec, &plan, &opts.scene);
+    let scene = scene::build(&plan, &opts.scene);
     let svg = svg::write(&scene);
     let html_table = datatable::write(spec, &plan);
     let mut warnings = table.warnings;

@@ -4,7 +4,6 @@
 use crate::channel::Channel;
 use crate::format::{self, Locale};
 use crate::plan::{ColorScale, Plan, Values};
-use crate::spec::Spec;
 
 fn value_text(v: &Values, i: usize, loc: &Locale) -> String {
     match v {
@@ -98,7 +97,7 @@ fn extremes(ys: &[f64], xs: Option<&[f64]>) -> Option<Extremes> {
     (e.hi_row != usize::MAX).then_some(e)
 }
 
-pub fn describe(spec: &Spec, plan: &Plan) -> String {
+pub fn describe(plan: &Plan) -> String {
     let s = &plan.scales;
     let loc = s.locale;
     let mut parts = Vec::new();
@@ -144,7 +143,7 @@ pub fn describe(spec: &Spec, plan: &Plan) -> String {
             }
         }
     }
-    if let Some(t) = &spec.subtitle {
+    if let Some(t) = &plan.chart.subtitle {
         parts.push(t.clone());
     }
     let mut out = parts.join(". ");

@@ -228,7 +228,6 @@ fn modules_form_no_cycle() {
 }
 
 #[test]
-#[ignore = "the scene still reads the spec: being moved into the plan"]
 fn scene_never_names_the_spec() {
     let g = graph();
     assert!(!g["scene"].contains("spec"), "scene names spec; the scene reads only the plan: {:?}", g["scene"]);

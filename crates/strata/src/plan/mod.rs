@@ -6,21 +6,26 @@
 //! statistic, in data units) and trained [`Scales`]. No pixels yet.
 
 mod arrange;
+mod chart;
 mod layer;
 mod panels;
 mod scales;
 mod stat;
 mod values;
 
-pub use panels::{free_axes, split as split_panels, PanelPlans, MAX_PANELS};
+pub use chart::{free_axes, Chart, PanelLayout};
+pub use panels::{split as split_panels, PanelPlans, MAX_PANELS};
 pub use scales::{ColorScale, Scales};
 pub use values::{Nums, Values};
 
 pub use crate::channel::Channel;
+/// The spec's typed words and options the plan hands on as they are, so the
+/// scene reads them from the plan and never from the spec.
+pub use crate::spec::{AngleChannel, Arrange, Coords, Geometry, Note, Placement, ScaleSpec, Size, Style, Theme};
 
 use crate::data::Table;
 use crate::error::{Diagnostic, Errors};
-use crate::spec::{Arrange, Geometry, Spec, Style};
+use crate::spec::Spec;
 use indexmap::IndexMap;
 
 /// A layer's rows after its statistic and position adjustment, keyed by
@@ -59,6 +64,11 @@ pub struct Plan {
     pub layers: Vec<PlannedLayer>,
     pub scales: Scales,
     pub warnings: Vec<Diagnostic>,
+    /// The chart-wide options (default in a panel's own plan).
+    pub chart: Chart,
+    /// Small multiples: one plan per panel, each with its own rows and, for
+    /// free axes, its own position scales; `None` without panels.
+    pub panels: Option<PanelPlans>,
 }
 
 /// Resolve the spec against the table.
@@ -89,5 +99,7 @@ pub fn build(spec: &Spec, table: &Table) -> Result<Plan, Errors> {
     }
     panels::check_count(spec, &layers)?;
     let scales = scales::train(spec, &layers)?;
-    Ok(Plan { layers, scales, warnings })
+    let mut plan = Plan { layers, scales, warnings, chart: Chart::of(spec), panels: None };
+    plan.panels = panels::split(spec, &plan);
+    Ok(plan)
 }

@@ -14,11 +14,12 @@
 //! own rows. A panel with no rows, or whose rows alone cannot make a scale
 //! (a log axis with nothing above zero), keeps the shared scale.
 
+use super::chart::free_axes;
 use super::scales::retrain_positions;
 use super::{LayerData, Plan, PlannedLayer};
 use crate::channel::Channel;
 use crate::error::{Diagnostic, Errors};
-use crate::spec::{FreeAxes, Spec};
+use crate::spec::Spec;
 use indexmap::IndexSet;
 
 /// More panels than this is a mistake (a column of many distinct values
@@ -28,22 +29,12 @@ pub const MAX_PANELS: usize = 400;
 /// The plans of a chart's panels.
 #[derive(Debug, Clone)]
 pub enum PanelPlans {
-    /// `panels.by`: (key, plan) per panel.
-    Wrap(Vec<(String, Plan)>),
+    /// `panels.by`: each panel's key and plan.
+    Wrap { names: Vec<String>, cells: Vec<Plan> },
     /// `panels.rows`/`cols`: the row and column values (`None` when the
     /// spec gives no `rows` or no `cols`: one row or one column) and the
     /// plan of each cell, row by row: `cells[r * columns + c]`.
     Grid { rows: Option<Vec<String>>, cols: Option<Vec<String>>, cells: Vec<Plan> },
-}
-
-/// Which position scales each panel trains on its own rows: (x, y).
-pub fn free_axes(spec: &Spec) -> (bool, bool) {
-    match spec.panels.as_ref().and_then(|p| p.free) {
-        Some(FreeAxes::X) => (true, false),
-        Some(FreeAxes::Y) => (false, true),
-        Some(FreeAxes::Both) => (true, true),
-        None => (false, false),
-    }
 }
 
 /// Distinct values of a channel over every layer, in order of first appearance.
@@ -98,7 +89,7 @@ pub fn split(spec: &Spec, plan: &Plan) -> Option<PanelPlans> {
             return None;
         }
         let cells = cut(plan, &[(Channel::Panel, &keys)], free);
-        return Some(PanelPlans::Wrap(keys.into_iter().zip(cells).collect()));
+        return Some(PanelPlans::Wrap { names: keys.into_iter().collect(), cells });
     }
     let (n_rows, n_cols) = (rows.as_ref().map_or(1, IndexSet::len), cols.as_ref().map_or(1, IndexSet::len));
     if rows.is_none() && cols.is_none() || n_rows == 0 || n_cols == 0 {
@@ -154,7 +145,8 @@ fn cut(plan: &Plan, channels: &[(Channel, &IndexSet<String>)], free: (bool, bool
                     scales = own;
                 }
             }
-            Plan { layers, scales, warnings: plan.warnings.clone() }
+            // A panel's plan: its rows and scales; the chart-wide options stay on the whole plan.
+            Plan { layers, scales, warnings: plan.warnings.clone(), chart: Default::default(), panels: None }
         })
         .collect()
 }

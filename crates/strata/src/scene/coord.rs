@@ -2,7 +2,7 @@
 
 use super::{polyline, Seg};
 use crate::math;
-use crate::spec::{AngleChannel, Coords};
+use crate::plan::{AngleChannel, Coords};
 
 /// The panel's pixel rectangle.
 #[derive(Debug, Clone, Copy, PartialEq)]

@@ -440,7 +440,7 @@ pub struct Legend {
 pub fn legends(scales: &Scales, default_color: &str, size: f64) -> Vec<Legend> {
     let mut out = Vec::new();
     let loc = scales.locale;
-    let hidden = |s: &crate::spec::ScaleSpec| s.hide || s.legend == Some(crate::spec::Placement::None);
+    let hidden = |s: &crate::plan::ScaleSpec| s.hide || s.legend == Some(crate::plan::Placement::None);
     // Colour and shape of the same categories share one legend of coloured shapes.
     let merged = matches!((&scales.color, &scales.shape), (Some(ColorScale::Categories(c)), Some(s)) if c == s && scales.color_title == scales.shape_title);
     match &scales.color {

@@ -7,9 +7,9 @@
 use super::coord::{Area, Coord};
 use super::{polyline, shape_path, Anchor, Datum, Node, Paint, Seg};
 use crate::channel::Channel;
+use crate::plan::{Arrange, Geometry};
 use crate::plan::{ColorScale, PlannedLayer, Scales, Values};
 use crate::scale::{PositionScale, Transform};
-use crate::spec::{Arrange, Geometry};
 
 /// What a layer needs from outside: the scales, coordinates and theme mark colour.
 pub struct Ctx<'a> {

@@ -5,9 +5,9 @@ use super::coord::{Area, Coord};
 use super::{polyline, Anchor, Node, Paint};
 use crate::calendar::{parse_date, parse_datetime};
 use crate::color::Palette;
+use crate::plan::Note;
 use crate::plan::Scales;
 use crate::scale::PositionScale;
-use crate::spec::Note;
 use crate::text;
 use serde_json::Value;
 
