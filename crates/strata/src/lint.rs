@@ -127,7 +127,7 @@ fn contrast(spec: &Spec) -> Vec<Diagnostic> {
         Theme::Dark => vec![(Palette::dark(), "dark")],
         Theme::Auto => vec![(Palette::light(), "light"), (Palette::dark(), "dark")],
         Theme::Custom(o) => {
-            let dark = o.base.as_deref() == Some("dark");
+            let dark = o.base == Some(crate::spec::ThemeBase::Dark);
             let mut p = if dark { Palette::dark() } else { Palette::light() };
             let set = |slot: &mut String, v: &Option<String>| {
                 if let Some(v) = v {

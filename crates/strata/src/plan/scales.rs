@@ -135,7 +135,7 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
     let (x, x_nice) = train_position(X_CHANNELS, "x", &x_spec, layers)?;
     let (y, y_nice) = train_position(Y_CHANNELS, "y", &y_spec, layers)?;
     let title = |ch: Channel, s: &ScaleSpec| s.title.clone().unwrap_or_else(|| layers.iter().find_map(|l| l.data.names.get(&ch).cloned()).unwrap_or_default());
-    let locale = format::locale(spec.locale.as_deref().unwrap_or("en"));
+    let locale = format::locale(spec.locale.map_or("en", |l| l.word()));
 
     // Colour.
     let (cats, num) = collect(layers, Channel::Color);

@@ -15,7 +15,9 @@
 use super::{LayerData, Values};
 use crate::channel::Channel;
 use crate::error::{Diagnostic, Errors};
-use crate::spec::{BinSpec, Geometry, Layer, Stat, StatObject};
+use crate::spec::{
+    Bandwidth, BandwidthRule, BinRule, BinSpec, BinUnit, FitWord, Geometry, IntervalWord, Layer, Stat, StatObject, SummaryWord, WindowAlign, WindowSummary,
+};
 use crate::stat::{self, bin, density, fit, summary, tukey, window};
 use indexmap::IndexMap;
 
@@ -81,10 +83,10 @@ fn object(index: usize, layer: &Layer, o: &StatObject, data: LayerData) -> Resul
     if let Some(b) = &o.bin {
         return binned(index, layer, b, data);
     }
-    if let Some(name) = &o.summary {
-        return summarise(index, layer, o, name, data);
+    if let Some(word) = o.summary {
+        return summarise(index, layer, o, word, data);
     }
-    if let Some(kind) = &o.fit {
+    if let Some(kind) = o.fit {
         return fitted(index, layer, o, kind, data);
     }
     if let Some(d) = &o.density {
@@ -213,29 +215,42 @@ fn count(data: LayerData) -> LayerData {
     out.finish(&data, &keys, &[], &[(Channel::Y, "count".to_string())])
 }
 
-fn summarise(index: usize, layer: &Layer, o: &StatObject, name: &str, data: LayerData) -> Result<LayerData, Errors> {
-    let s = summary::Summary::from_word(name, o.p).ok_or_else(|| {
-        Errors::from(
-            Diagnostic::error("spec.unknown_summary", format!("unknown summary `{name}`"))
-                .at_path(format!("layers[{index}].stat.summary"))
-                .with_hint(format!("use one of {}", summary::Summary::WORDS)),
-        )
-    })?;
+/// The statistic a summary word names.
+fn summary_of(word: SummaryWord, p: Option<f64>) -> summary::Summary {
+    match word {
+        SummaryWord::Mean => summary::Summary::Mean,
+        SummaryWord::Median => summary::Summary::Median,
+        SummaryWord::Sum => summary::Summary::Sum,
+        SummaryWord::Min => summary::Summary::Min,
+        SummaryWord::Max => summary::Summary::Max,
+        SummaryWord::Count => summary::Summary::Count,
+        SummaryWord::Quantile => summary::Summary::Quantile(p.unwrap_or(0.5)),
+        SummaryWord::StandardDeviation => summary::Summary::StandardDeviation,
+    }
+}
+
+/// The interval an interval word names.
+fn interval_of(word: IntervalWord) -> summary::Interval {
+    match word {
+        IntervalWord::Ci95 => summary::Interval::Confidence(0.95),
+        IntervalWord::Ci90 => summary::Interval::Confidence(0.90),
+        IntervalWord::Ci99 => summary::Interval::Confidence(0.99),
+        IntervalWord::Ci80 => summary::Interval::Confidence(0.80),
+        IntervalWord::StandardError => summary::Interval::StandardError,
+        IntervalWord::MinMax => summary::Interval::MinMax,
+        IntervalWord::Wilson => summary::Interval::Wilson(0.95),
+    }
+}
+
+fn summarise(index: usize, layer: &Layer, o: &StatObject, word: SummaryWord, data: LayerData) -> Result<LayerData, Errors> {
+    let name = word.word();
+    let s = summary_of(word, o.p);
     if let Some(p) = o.p {
         if !(0.0..=1.0).contains(&p) {
             return Err(err(index, "stat.p", "stat.bad_option", "`p` must be between 0 and 1"));
         }
     }
-    let interval = match &o.interval {
-        None => None,
-        Some(w) => Some(summary::Interval::from_word(w).ok_or_else(|| {
-            Errors::from(
-                Diagnostic::error("spec.unknown_interval", format!("unknown interval `{w}`"))
-                    .at_path(format!("layers[{index}].stat.interval"))
-                    .with_hint(format!("use one of {}", summary::Interval::WORDS)),
-            )
-        })?),
-    };
+    let interval = o.interval.map(interval_of);
     let mut data = data;
     booleans_as_numbers(&mut data, Channel::Y);
     let y = need_numeric(index, &data, Channel::Y, &format!("a `{name}` summary"))?;
@@ -358,26 +373,22 @@ fn bin_edges(index: usize, b: &BinSpec, xs: &[f64], is_time: bool) -> Result<Vec
     if b.count == Some(0) {
         return Err(err(index, "stat.bin.count", "stat.bad_option", "a bin `count` must be at least 1"));
     }
-    let rule = match b.rule.as_deref() {
+    let rule = match b.rule {
         None => bin::Rule::Sturges,
-        Some(r) => bin::Rule::from_word(r).ok_or_else(|| {
-            Errors::from(
-                Diagnostic::error("spec.unknown_bin_rule", format!("unknown bin rule `{r}`"))
-                    .at_path(format!("layers[{index}].stat.bin.rule"))
-                    .with_hint(format!("use one of {}", bin::Rule::WORDS)),
-            )
-        })?,
+        Some(BinRule::Fd) => bin::Rule::Fd,
+        Some(BinRule::Scott) => bin::Rule::Scott,
+        Some(BinRule::Sturges) => bin::Rule::Sturges,
+        Some(BinRule::Sqrt) => bin::Rule::Sqrt,
+        Some(BinRule::Rice) => bin::Rule::Rice,
+        Some(BinRule::Doane) => bin::Rule::Doane,
     };
-    let unit = match b.unit.as_deref() {
-        None => None,
-        Some(u) => Some(bin::CalendarUnit::from_word(u).ok_or_else(|| {
-            Errors::from(
-                Diagnostic::error("spec.unknown_unit", format!("unknown calendar unit `{u}`"))
-                    .at_path(format!("layers[{index}].stat.bin.unit"))
-                    .with_hint("use one of day, week, month, quarter, year"),
-            )
-        })?),
-    };
+    let unit = b.unit.map(|u| match u {
+        BinUnit::Day => bin::CalendarUnit::Day,
+        BinUnit::Week => bin::CalendarUnit::Week,
+        BinUnit::Month => bin::CalendarUnit::Month,
+        BinUnit::Quarter => bin::CalendarUnit::Quarter,
+        BinUnit::Year => bin::CalendarUnit::Year,
+    });
     if unit.is_some() && !is_time {
         return Err(err(index, "stat.bin.unit", "stat.bad_option", "a calendar `unit` bins dates; this `x` holds numbers"));
     }
@@ -440,7 +451,7 @@ fn bin_edges(index: usize, b: &BinSpec, xs: &[f64], is_time: bool) -> Result<Vec
 
 const FIT_POINTS: usize = 80;
 
-fn fitted(index: usize, layer: &Layer, o: &StatObject, kind: &str, data: LayerData) -> Result<LayerData, Errors> {
+fn fitted(index: usize, layer: &Layer, o: &StatObject, kind: FitWord, data: LayerData) -> Result<LayerData, Errors> {
     let x = need_numeric(index, &data, Channel::X, "a fit")?;
     let y = need_numeric(index, &data, Channel::Y, "a fit")?;
     let is_time = matches!(x, Values::Time(_));
@@ -449,8 +460,8 @@ fn fitted(index: usize, layer: &Layer, o: &StatObject, kind: &str, data: LayerDa
         return Err(err(index, "stat.band", "stat.bad_option", "`band` is a confidence level between 0 and 1, such as 0.95 (0 for no band)"));
     }
     let loess_opts = match kind {
-        "linear" => None,
-        "loess" => {
+        FitWord::Linear => None,
+        FitWord::Loess => {
             let span = o.span.unwrap_or(0.75);
             if !(span > 0.0 && span <= 1.0) {
                 return Err(err(index, "stat.span", "stat.bad_option", "`span` is the fraction of points in each local fit, between 0 and 1"));
@@ -468,12 +479,6 @@ fn fitted(index: usize, layer: &Layer, o: &StatObject, kind: &str, data: LayerDa
                 },
             };
             Some(fit::LoessOptions { span, degree, iterations, delta: 0.0 })
-        }
-        other => {
-            return Err(Diagnostic::error("spec.unknown_fit", format!("unknown fit `{other}`"))
-                .at_path(format!("layers[{index}].stat.fit"))
-                .with_hint("use `linear` or `loess`")
-                .into())
         }
     };
     let keys = group_keys(&data);
@@ -533,12 +538,12 @@ fn densities(index: usize, layer: &Layer, d: &crate::spec::DensitySpec, data: La
     let x = need_numeric(index, &data, Channel::X, "a density")?;
     let rule = match &d.bandwidth {
         None => density::Bandwidth::Scott,
-        Some(serde_json::Value::String(s)) if s == "scott" => density::Bandwidth::Scott,
-        Some(serde_json::Value::String(s)) if s == "silverman" => density::Bandwidth::Silverman,
-        Some(v) => match v.as_f64() {
+        Some(Bandwidth::Rule(BandwidthRule::Scott)) => density::Bandwidth::Scott,
+        Some(Bandwidth::Rule(BandwidthRule::Silverman)) => density::Bandwidth::Silverman,
+        Some(Bandwidth::Width(h)) => match Some(*h) {
             Some(h) if h > 0.0 && h.is_finite() => density::Bandwidth::Fixed(h),
             _ => {
-                return Err(Diagnostic::error("stat.bad_option", format!("unknown bandwidth {v}"))
+                return Err(Diagnostic::error("stat.bad_option", format!("unknown bandwidth {h}"))
                     .at_path(format!("layers[{index}].stat.density.bandwidth"))
                     .with_hint("use \"scott\", \"silverman\" or a positive number in the units of x")
                     .into())
@@ -611,22 +616,10 @@ fn boxes(index: usize, data: LayerData) -> Result<LayerData, Errors> {
 
 fn windowed(index: usize, w: &crate::spec::WindowSpec, data: LayerData) -> Result<LayerData, Errors> {
     let y = need_numeric(index, &data, Channel::Y, "a `window` statistic")?.clone();
-    let kind = w.summary.as_deref().unwrap_or("mean");
-    if !matches!(kind, "mean" | "sum" | "running_total") {
-        return Err(Diagnostic::error("stat.bad_option", format!("unknown window summary `{kind}`"))
-            .at_path(format!("layers[{index}].stat.window.summary"))
-            .with_hint("use mean, sum or running_total")
-            .into());
-    }
-    let align = match w.align.as_deref() {
-        None | Some("center") | Some("centre") => window::Align::Center,
-        Some("trailing") => window::Align::Trailing,
-        Some(a) => {
-            return Err(Diagnostic::error("stat.bad_option", format!("unknown window alignment `{a}`"))
-                .at_path(format!("layers[{index}].stat.window.align"))
-                .with_hint("use center or trailing")
-                .into())
-        }
+    let kind = w.summary.unwrap_or(WindowSummary::Mean);
+    let align = match w.align {
+        None | Some(WindowAlign::Center) => window::Align::Center,
+        Some(WindowAlign::Trailing) => window::Align::Trailing,
     };
     let rows_n = w.rows.unwrap_or(7).max(1) as usize;
     let keys = group_keys(&data);
@@ -643,9 +636,9 @@ fn windowed(index: usize, w: &crate::spec::WindowSpec, data: LayerData) -> Resul
         }
         let ys: Vec<Option<f64>> = rows.iter().map(|i| y.num(*i)).collect();
         let r = match kind {
-            "running_total" => window::running_total(&ys),
-            "sum" => window::rolling(&ys, rows_n, align, true),
-            _ => window::rolling(&ys, rows_n, align, false),
+            WindowSummary::RunningTotal => window::running_total(&ys),
+            WindowSummary::Sum => window::rolling(&ys, rows_n, align, true),
+            WindowSummary::Mean => window::rolling(&ys, rows_n, align, false),
         };
         order.extend(rows);
         result.extend(r);
@@ -657,8 +650,8 @@ fn windowed(index: usize, w: &crate::spec::WindowSpec, data: LayerData) -> Resul
     out.names = data.names.clone();
     out.channels.insert(Channel::Y, if y_is_time(&y) { Values::Time(result.into()) } else { Values::Num(result.into()) });
     let label = match kind {
-        "running_total" => format!("running total of {}", name_of(&data, Channel::Y)),
-        k => format!("{rows_n}-row {k} of {}", name_of(&data, Channel::Y)),
+        WindowSummary::RunningTotal => format!("running total of {}", name_of(&data, Channel::Y)),
+        k => format!("{rows_n}-row {} of {}", k.word(), name_of(&data, Channel::Y)),
     };
     out.names.insert(Channel::Y, label);
     Ok(out)

@@ -11,7 +11,7 @@ use super::marks::{layer_marks, Ctx};
 use super::{Anchor, Node, Scene};
 use crate::channel::Channel;
 use crate::color::Palette;
-use crate::plan::{Chart, Coords, PanelPlans, Placement, Plan, Size, Theme};
+use crate::plan::{Chart, Coords, PanelPlans, Placement, Plan, Size, Theme, ThemeBase};
 use crate::text;
 
 /// What the host decides: the width when the chart gives none.
@@ -53,12 +53,12 @@ pub fn palette(theme: &Theme) -> (Palette, String) {
         Theme::Light => (Palette::light(), "strata-light".into()),
         Theme::Auto => (Palette::light(), "strata-auto".into()),
         Theme::Custom(o) => {
-            let dark = o.base.as_deref() == Some("dark");
+            let dark = o.base == Some(ThemeBase::Dark);
             let mut p = if dark { Palette::dark() } else { Palette::light() };
-            let mut classes = vec![match o.base.as_deref() {
-                Some("dark") => "strata-dark",
-                Some("light") => "strata-light",
-                _ => "strata-auto",
+            let mut classes = vec![match o.base {
+                Some(ThemeBase::Dark) => "strata-dark",
+                Some(ThemeBase::Light) => "strata-light",
+                None => "strata-auto",
             }
             .to_string()];
             let mut set = |slot: &mut String, v: &Option<String>, name: &str| {

@@ -101,7 +101,8 @@ fn points(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     let (lo, hi) = (layer.data.get(Channel::YLow), layer.data.get(Channel::YHigh));
     let beside = beside_keys(ctx, layer);
     // `style.shape`: one shape for every point (a circle stays a <circle>).
-    let fixed_shape = layer.style.shape.as_deref().and_then(|s| crate::scale::SHAPES.iter().position(|k| *k == s)).filter(|k| *k != 0);
+    // The point shapes are the first of the shape channel's shapes, in order.
+    let fixed_shape = layer.style.shape.and_then(|s| crate::scale::SHAPES.iter().position(|k| *k == s.word())).filter(|k| *k != 0);
     let mut out = Vec::with_capacity(layer.data.len);
     for i in 0..layer.data.len {
         let (Some(mut ux), Some(uy)) = (ux(ctx, layer, xv, i), ctx.scales.y.unit(yv, i)) else { continue };

@@ -4,6 +4,8 @@
 //! Hand-off: [`Spec`], a typed, validated description of the chart. Nothing in
 //! here looks at data.
 
+#[macro_use]
+mod vocab;
 mod parse;
 pub mod shape;
 mod suggest;
@@ -17,6 +19,7 @@ pub use suggest::{closest, edit_distance, levenshtein};
 pub fn schema_text() -> String {
     serde_json::to_string_pretty(&shape::json_schema()).expect("schema serialises")
 }
+pub use vocab::*;
 pub use words::FromWord;
 
 use crate::channel::Channel;
@@ -67,27 +70,14 @@ pub struct Spec {
     pub quiet: Vec<String>,
     /// BCP 47 language tag for number and date labels (`en`, `de`, `fr`, `es`).
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub locale: Option<String>,
+    pub locale: Option<LocaleWord>,
     /// The data table under the chart (see `crate::datatable`).
-    #[serde(default, skip_serializing_if = "DataTable::is_default")]
+    #[serde(default, skip_serializing_if = "is_closed")]
     pub data_table: DataTable,
 }
 
-/// `data_table`: how the numbers behind the marks are offered as a table.
-#[derive(Debug, Clone, Copy, Default, PartialEq, Eq, Serialize, Deserialize)]
-#[serde(rename_all = "snake_case")]
-pub enum DataTable {
-    /// A disclosure under the chart that the reader opens.
-    #[default]
-    Closed,
-    Open,
-    None,
-}
-
-impl DataTable {
-    fn is_default(&self) -> bool {
-        *self == DataTable::Closed
-    }
+fn is_closed(t: &DataTable) -> bool {
+    *t == DataTable::Closed
 }
 
 // ---------------------------------------------------------------- data
@@ -137,24 +127,6 @@ impl DataRef {
     }
 }
 
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
-#[serde(rename_all = "snake_case")]
-pub enum DataFormat {
-    Csv,
-    Tsv,
-    Arrow,
-    Json,
-}
-
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
-#[serde(rename_all = "snake_case")]
-pub enum ColumnType {
-    Number,
-    Text,
-    Date,
-    Bool,
-}
-
 // ---------------------------------------------------------------- layers
 
 #[derive(Debug, Clone, Serialize, Deserialize)]
@@ -192,41 +164,6 @@ pub struct Layer {
     pub arrange: Arrange,
 }
 
-/// The geometry of a layer. It keeps its name in every coordinate system.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
-#[serde(rename_all = "snake_case")]
-pub enum Geometry {
-    Point,
-    Line,
-    Step,
-    Area,
-    Bar,
-    Ribbon,
-    Rule,
-    Label,
-    Tile,
-    Box,
-    Range,
-}
-
-impl Geometry {
-    pub fn word(self) -> &'static str {
-        match self {
-            Geometry::Point => "point",
-            Geometry::Line => "line",
-            Geometry::Step => "step",
-            Geometry::Area => "area",
-            Geometry::Bar => "bar",
-            Geometry::Ribbon => "ribbon",
-            Geometry::Rule => "rule",
-            Geometry::Label => "label",
-            Geometry::Tile => "tile",
-            Geometry::Box => "box",
-            Geometry::Range => "range",
-        }
-    }
-}
-
 /// What a channel maps to: a column name, or `{ "column": "c", "as": "date" }`.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct Mapping {
@@ -258,7 +195,7 @@ pub struct Style {
     pub band: Option<f64>,
     /// Shape of points: `circle`, `square`, `triangle`, `diamond`, `plus`, `cross`.
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub shape: Option<String>,
+    pub shape: Option<PointShape>,
     /// Text size of labels in pixels.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub font_size: Option<f64>,
@@ -287,11 +224,11 @@ pub struct StatObject {
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub bin: Option<BinSpec>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub summary: Option<String>,
+    pub summary: Option<SummaryWord>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub interval: Option<String>,
+    pub interval: Option<IntervalWord>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub fit: Option<String>,
+    pub fit: Option<FitWord>,
     /// Confidence level of a fit's band, such as 0.95.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub band: Option<f64>,
@@ -319,9 +256,17 @@ pub struct StatObject {
 #[serde(deny_unknown_fields)]
 pub struct DensitySpec {
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub bandwidth: Option<serde_json::Value>,
+    pub bandwidth: Option<Bandwidth>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub grid: Option<u32>,
+}
+
+/// A density's bandwidth: a rule, or a width in data units.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+#[serde(untagged)]
+pub enum Bandwidth {
+    Rule(BandwidthRule),
+    Width(f64),
 }
 
 /// `window` options: `summary` is `"mean"` (default), `"sum"` or
@@ -331,18 +276,18 @@ pub struct DensitySpec {
 #[serde(deny_unknown_fields)]
 pub struct WindowSpec {
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub summary: Option<String>,
+    pub summary: Option<WindowSummary>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub rows: Option<u32>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub align: Option<String>,
+    pub align: Option<WindowAlign>,
 }
 
 #[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
 #[serde(deny_unknown_fields)]
 pub struct BinSpec {
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub rule: Option<String>,
+    pub rule: Option<BinRule>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub width: Option<f64>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
@@ -351,22 +296,10 @@ pub struct BinSpec {
     pub boundary: Option<f64>,
     /// Calendar unit for dates: `day`, `week`, `month`, `quarter`, `year`.
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub unit: Option<String>,
+    pub unit: Option<BinUnit>,
     /// Bar heights as a density (count / (n · width)) instead of counts.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub density: Option<bool>,
-}
-
-/// Position adjustment.
-#[derive(Debug, Clone, Copy, Default, PartialEq, Eq, Serialize, Deserialize)]
-#[serde(rename_all = "snake_case")]
-pub enum Arrange {
-    #[default]
-    None,
-    Stack,
-    Beside,
-    Proportion,
-    Jitter,
 }
 
 // ---------------------------------------------------------------- scales
@@ -405,27 +338,6 @@ pub struct ScaleSpec {
     pub base: Option<f64>,
 }
 
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
-#[serde(rename_all = "snake_case")]
-pub enum ScaleKind {
-    Linear,
-    Log,
-    Sqrt,
-    Symlog,
-    Time,
-    Category,
-}
-
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
-#[serde(rename_all = "snake_case")]
-pub enum Placement {
-    Top,
-    Bottom,
-    Left,
-    Right,
-    None,
-}
-
 // ---------------------------------------------------------------- coords, panels, notes, size, theme
 
 #[derive(Debug, Clone, Default, PartialEq, Serialize)]
@@ -456,19 +368,6 @@ fn default_angle() -> AngleChannel {
     AngleChannel::X
 }
 
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
-#[serde(rename_all = "snake_case")]
-pub enum PolarKind {
-    Polar,
-}
-
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
-#[serde(rename_all = "snake_case")]
-pub enum AngleChannel {
-    X,
-    Y,
-}
-
 #[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
 #[serde(deny_unknown_fields)]
 pub struct Panels {
@@ -482,14 +381,6 @@ pub struct Panels {
     pub cols: Option<String>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub free: Option<FreeAxes>,
-}
-
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
-#[serde(rename_all = "snake_case")]
-pub enum FreeAxes {
-    X,
-    Y,
-    Both,
 }
 
 /// An annotation at data positions: text, a shaded span, or a reference line.
@@ -535,7 +426,7 @@ pub enum Theme {
 #[serde(deny_unknown_fields)]
 pub struct ThemeOverrides {
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub base: Option<String>,
+    pub base: Option<ThemeBase>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub background: Option<String>,
     #[serde(default, skip_serializing_if = "Option::is_none")]

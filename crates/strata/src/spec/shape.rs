@@ -7,6 +7,7 @@
 //! reads with serde.
 
 use super::suggest::closest;
+use super::vocab::*;
 use crate::error::Diagnostic;
 use serde_json::{json, Map, Value};
 
@@ -80,28 +81,32 @@ fn list(s: Shape) -> Shape {
 
 // ---------------------------------------------------------------- vocabulary
 
-pub const GEOMETRIES: &[&str] = &["point", "line", "step", "area", "bar", "ribbon", "rule", "label", "tile", "box", "range"];
+// Each word list is its enum's (see `vocab.rs`): serde, this check, the
+// schema and the plan share one definition.
+pub const GEOMETRIES: &[&str] = Geometry::WORDS;
+/// The channels a layer maps (the keys of `scales`): the first ten of
+/// [`crate::channel::Channel`] (a test holds the two equal).
 pub const CHANNELS: &[&str] = &["x", "y", "x_end", "y_end", "color", "size", "shape", "opacity", "text", "group"];
-pub const COLUMN_TYPES: &[&str] = &["number", "text", "date", "bool"];
-pub const DATA_FORMATS: &[&str] = &["csv", "tsv", "arrow", "json"];
-pub const STAT_WORDS: &[&str] = &["identity", "count", "box"];
-pub const SUMMARIES: &[&str] = &["mean", "median", "sum", "min", "max", "count", "quantile", "standard_deviation"];
-pub const INTERVALS: &[&str] = &["ci95", "ci90", "ci99", "ci80", "standard_error", "min_max", "wilson"];
-pub const FITS: &[&str] = &["linear", "loess"];
-pub const BIN_RULES: &[&str] = &["fd", "scott", "sturges", "sqrt", "rice", "doane"];
-pub const BIN_UNITS: &[&str] = &["day", "week", "month", "quarter", "year"];
-pub const WINDOW_SUMMARIES: &[&str] = &["mean", "sum", "running_total"];
-pub const LOCALES: &[&str] = &["en", "de", "fr", "es"];
-pub const BANDWIDTHS: &[&str] = &["scott", "silverman"];
-pub const WINDOW_ALIGN: &[&str] = &["center", "trailing"];
-pub const ARRANGES: &[&str] = &["none", "stack", "beside", "proportion", "jitter"];
-pub const SCALE_KINDS: &[&str] = &["linear", "log", "sqrt", "symlog", "time", "category"];
-pub const PLACEMENTS: &[&str] = &["top", "bottom", "left", "right", "none"];
-pub const COORD_WORDS: &[&str] = &["cartesian", "flip", "polar"];
-pub const FREE: &[&str] = &["x", "y", "both"];
-pub const THEME_WORDS: &[&str] = &["auto", "light", "dark"];
-pub const DATA_TABLE: &[&str] = &["closed", "open", "none"];
-pub const POINT_SHAPES: &[&str] = &["circle", "square", "triangle", "diamond", "plus", "cross"];
+pub const COLUMN_TYPES: &[&str] = ColumnType::WORDS;
+pub const DATA_FORMATS: &[&str] = DataFormat::WORDS;
+pub const STAT_WORDS: &[&str] = StatWord::WORDS;
+pub const SUMMARIES: &[&str] = SummaryWord::WORDS;
+pub const INTERVALS: &[&str] = IntervalWord::WORDS;
+pub const FITS: &[&str] = FitWord::WORDS;
+pub const BIN_RULES: &[&str] = BinRule::WORDS;
+pub const BIN_UNITS: &[&str] = BinUnit::WORDS;
+pub const WINDOW_SUMMARIES: &[&str] = WindowSummary::WORDS;
+pub const LOCALES: &[&str] = LocaleWord::WORDS;
+pub const BANDWIDTHS: &[&str] = BandwidthRule::WORDS;
+pub const WINDOW_ALIGN: &[&str] = WindowAlign::WORDS;
+pub const ARRANGES: &[&str] = Arrange::WORDS;
+pub const SCALE_KINDS: &[&str] = ScaleKind::WORDS;
+pub const PLACEMENTS: &[&str] = Placement::WORDS;
+pub const COORD_WORDS: &[&str] = CoordWord::WORDS;
+pub const FREE: &[&str] = FreeAxes::WORDS;
+pub const THEME_WORDS: &[&str] = ThemeWord::WORDS;
+pub const DATA_TABLE: &[&str] = DataTable::WORDS;
+pub const POINT_SHAPES: &[&str] = PointShape::WORDS;
 /// Lint codes that `quiet` may silence: the spec names them, the lint
 /// stage (which reads the spec) raises them.
 pub const LINT_CODES: &[&str] = &["lint.axis_without_zero", "lint.log_bars", "lint.too_many_colors", "lint.polar_angle_not_cyclic", "lint.low_contrast"];
@@ -231,8 +236,8 @@ pub fn spec_shape() -> Shape {
     let coords = Shape::Either(vec![
         Shape::Word(COORD_WORDS),
         obj(vec![
-            req("kind", Shape::Word(&["polar"]), "polar."),
-            f("angle", Shape::Word(&["x", "y"]), "Which position channel becomes the angle (default x)."),
+            req("kind", Shape::Word(PolarKind::WORDS), "polar."),
+            f("angle", Shape::Word(AngleChannel::WORDS), "Which position channel becomes the angle (default x)."),
             f("start", num(None, None), "Start angle in degrees clockwise from 12 o'clock (default 0)."),
             f("inner", num(Some(0.0), Some(1.0)), "Inner radius as a fraction of the outer one (default 0)."),
         ]),
@@ -259,7 +264,7 @@ pub fn spec_shape() -> Shape {
     let theme = Shape::Either(vec![
         Shape::Word(THEME_WORDS),
         obj(vec![
-            f("base", Shape::Word(&["light", "dark"]), "The theme these overrides start from (default light)."),
+            f("base", Shape::Word(ThemeBase::WORDS), "The theme these overrides start from (default light)."),
             f("background", color(), "Background colour."),
             f("text", color(), "Colour of titles and labels."),
             f("muted", color(), "Colour of subtitles, source lines and tick labels."),
