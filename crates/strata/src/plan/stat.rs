@@ -15,6 +15,7 @@
 use super::{LayerData, Values};
 use crate::channel::Channel;
 use crate::error::{Diagnostic, Errors};
+use crate::spec::defaults;
 use crate::spec::{
     Bandwidth, BandwidthRule, BinRule, BinSpec, BinUnit, FitWord, Geometry, IntervalWord, Layer, Stat, StatObject, SummaryWord, WindowAlign, WindowSummary,
 };
@@ -224,7 +225,7 @@ fn summary_of(word: SummaryWord, p: Option<f64>) -> summary::Summary {
         SummaryWord::Min => summary::Summary::Min,
         SummaryWord::Max => summary::Summary::Max,
         SummaryWord::Count => summary::Summary::Count,
-        SummaryWord::Quantile => summary::Summary::Quantile(p.unwrap_or(0.5)),
+        SummaryWord::Quantile => summary::Summary::Quantile(p.unwrap_or(defaults::QUANTILE_P)),
         SummaryWord::StandardDeviation => summary::Summary::StandardDeviation,
     }
 }
@@ -373,14 +374,13 @@ fn bin_edges(index: usize, b: &BinSpec, xs: &[f64], is_time: bool) -> Result<Vec
     if b.count == Some(0) {
         return Err(err(index, "stat.bin.count", "stat.bad_option", "a bin `count` must be at least 1"));
     }
-    let rule = match b.rule {
-        None => bin::Rule::Sturges,
-        Some(BinRule::Fd) => bin::Rule::Fd,
-        Some(BinRule::Scott) => bin::Rule::Scott,
-        Some(BinRule::Sturges) => bin::Rule::Sturges,
-        Some(BinRule::Sqrt) => bin::Rule::Sqrt,
-        Some(BinRule::Rice) => bin::Rule::Rice,
-        Some(BinRule::Doane) => bin::Rule::Doane,
+    let rule = match b.rule.unwrap_or(defaults::BIN_RULE) {
+        BinRule::Fd => bin::Rule::Fd,
+        BinRule::Scott => bin::Rule::Scott,
+        BinRule::Sturges => bin::Rule::Sturges,
+        BinRule::Sqrt => bin::Rule::Sqrt,
+        BinRule::Rice => bin::Rule::Rice,
+        BinRule::Doane => bin::Rule::Doane,
     };
     let unit = b.unit.map(|u| match u {
         BinUnit::Day => bin::CalendarUnit::Day,
@@ -455,24 +455,24 @@ fn fitted(index: usize, layer: &Layer, o: &StatObject, kind: FitWord, data: Laye
     let x = need_numeric(index, &data, Channel::X, "a fit")?;
     let y = need_numeric(index, &data, Channel::Y, "a fit")?;
     let is_time = matches!(x, Values::Time(_));
-    let level = o.band.unwrap_or(0.95);
+    let level = o.band.unwrap_or(defaults::FIT_BAND);
     if !(0.0..1.0).contains(&level) {
         return Err(err(index, "stat.band", "stat.bad_option", "`band` is a confidence level between 0 and 1, such as 0.95 (0 for no band)"));
     }
     let loess_opts = match kind {
         FitWord::Linear => None,
         FitWord::Loess => {
-            let span = o.span.unwrap_or(0.75);
+            let span = o.span.unwrap_or(defaults::LOESS_SPAN);
             if !(span > 0.0 && span <= 1.0) {
                 return Err(err(index, "stat.span", "stat.bad_option", "`span` is the fraction of points in each local fit, between 0 and 1"));
             }
-            let degree = o.degree.unwrap_or(1);
+            let degree = o.degree.unwrap_or(defaults::LOESS_DEGREE);
             if !(1..=2).contains(&degree) {
                 return Err(err(index, "stat.degree", "stat.bad_option", "`degree` is 1 (local lines) or 2 (local parabolas)"));
             }
             let iterations = match &o.robust {
                 None | Some(serde_json::Value::Bool(false)) => 0,
-                Some(serde_json::Value::Bool(true)) => 3,
+                Some(serde_json::Value::Bool(true)) => defaults::LOESS_ROBUST_ITERATIONS,
                 Some(v) => match v.as_u64() {
                     Some(n) if n <= 20 => n as u32,
                     _ => return Err(err(index, "stat.robust", "stat.bad_option", "`robust` is true, false or a number of iterations (0 to 20)")),
@@ -536,11 +536,10 @@ fn fitted(index: usize, layer: &Layer, o: &StatObject, kind: FitWord, data: Laye
 
 fn densities(index: usize, layer: &Layer, d: &crate::spec::DensitySpec, data: LayerData) -> Result<LayerData, Errors> {
     let x = need_numeric(index, &data, Channel::X, "a density")?;
-    let rule = match &d.bandwidth {
-        None => density::Bandwidth::Scott,
-        Some(Bandwidth::Rule(BandwidthRule::Scott)) => density::Bandwidth::Scott,
-        Some(Bandwidth::Rule(BandwidthRule::Silverman)) => density::Bandwidth::Silverman,
-        Some(Bandwidth::Width(h)) => match Some(*h) {
+    let rule = match &d.bandwidth.unwrap_or(Bandwidth::Rule(defaults::BANDWIDTH)) {
+        Bandwidth::Rule(BandwidthRule::Scott) => density::Bandwidth::Scott,
+        Bandwidth::Rule(BandwidthRule::Silverman) => density::Bandwidth::Silverman,
+        Bandwidth::Width(h) => match Some(*h) {
             Some(h) if h > 0.0 && h.is_finite() => density::Bandwidth::Fixed(h),
             _ => {
                 return Err(Diagnostic::error("stat.bad_option", format!("unknown bandwidth {h}"))
@@ -550,7 +549,7 @@ fn densities(index: usize, layer: &Layer, d: &crate::spec::DensitySpec, data: La
             }
         },
     };
-    let m = d.grid.unwrap_or(256).clamp(2, 10_000) as usize;
+    let m = d.grid.unwrap_or(defaults::DENSITY_GRID).clamp(2, 10_000) as usize;
     let keys = group_keys(&data);
     let groups = group_rows(&data, &keys);
     // One grid for every group, so that densities stack and compare.
@@ -616,12 +615,12 @@ fn boxes(index: usize, data: LayerData) -> Result<LayerData, Errors> {
 
 fn windowed(index: usize, w: &crate::spec::WindowSpec, data: LayerData) -> Result<LayerData, Errors> {
     let y = need_numeric(index, &data, Channel::Y, "a `window` statistic")?.clone();
-    let kind = w.summary.unwrap_or(WindowSummary::Mean);
-    let align = match w.align {
-        None | Some(WindowAlign::Center) => window::Align::Center,
-        Some(WindowAlign::Trailing) => window::Align::Trailing,
+    let kind = w.summary.unwrap_or(defaults::WINDOW_SUMMARY);
+    let align = match w.align.unwrap_or(defaults::WINDOW_ALIGN) {
+        WindowAlign::Center => window::Align::Center,
+        WindowAlign::Trailing => window::Align::Trailing,
     };
-    let rows_n = w.rows.unwrap_or(7).max(1) as usize;
+    let rows_n = w.rows.unwrap_or(defaults::WINDOW_ROWS).max(1) as usize;
     let keys = group_keys(&data);
     let groups = group_rows(&data, &keys);
     // Rows in x order within each group (stable, so ties keep data order).

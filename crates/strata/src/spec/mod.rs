@@ -6,6 +6,7 @@
 
 #[macro_use]
 mod vocab;
+pub mod defaults;
 mod parse;
 pub mod shape;
 mod suggest;

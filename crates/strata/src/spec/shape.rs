@@ -161,7 +161,7 @@ pub fn spec_shape() -> Shape {
         ]),
     ]);
     let bin = obj(vec![
-        f("rule", Shape::Word(BIN_RULES), "How to choose the bin width: fd (Freedman-Diaconis, default), scott, sturges, sqrt, rice, doane."),
+        f("rule", Shape::Word(BIN_RULES), "How to choose the bin width: sturges, fd (Freedman-Diaconis), scott, sqrt, rice, doane (default sturges)."),
         f("width", num(Some(0.0), None), "Bin width in data units; overrides the rule."),
         f("count", count(1), "Wanted number of bins; overrides the rule."),
         f("boundary", num(None, None), "A value that falls on a bin edge."),
@@ -169,13 +169,17 @@ pub fn spec_shape() -> Shape {
         f("density", Shape::Bool, "Bar heights as a density (count / (n x width)) instead of counts."),
     ]);
     let density = obj(vec![
-        f("bandwidth", Shape::Either(vec![Shape::Word(BANDWIDTHS), num(Some(0.0), None)]), "scott (default), silverman, or a number in data units."),
-        f("grid", count(2), "Points at which the density is evaluated (default 512)."),
+        f(
+            "bandwidth",
+            Shape::Either(vec![Shape::Word(BANDWIDTHS), num(Some(0.0), None)]),
+            "A rule, scott or silverman, or a number in data units (default scott).",
+        ),
+        f("grid", count(2), "Points at which the density is evaluated (default 256)."),
     ]);
     let window = obj(vec![
-        f("summary", Shape::Word(WINDOW_SUMMARIES), "mean (default) or sum over the window, or running_total."),
-        f("rows", count(1), "Rows in the window (for mean and sum)."),
-        f("align", Shape::Word(WINDOW_ALIGN), "Window centred on the row (center, default) or ending at it (trailing)."),
+        f("summary", Shape::Word(WINDOW_SUMMARIES), "mean or sum over the window, or running_total (default mean)."),
+        f("rows", count(1), "Rows in the window, for mean and sum (default 7)."),
+        f("align", Shape::Word(WINDOW_ALIGN), "Window centred on the row (center) or ending at it (trailing); default center."),
     ]);
     let stat = Shape::Either(vec![
         Shape::Word(STAT_WORDS),
@@ -183,12 +187,12 @@ pub fn spec_shape() -> Shape {
             fields: vec![
                 f("bin", bin, "Count rows in bins along x."),
                 f("summary", Shape::Word(SUMMARIES), "Summarise y for each x (and colour/group)."),
-                f("interval", Shape::Word(INTERVALS), "With summary: an interval around it (ci95, ci90, ci99, sd, se, range)."),
+                f("interval", Shape::Word(INTERVALS), "With summary: an interval around it (ci95, ci90, ci99, ci80, standard_error, min_max, wilson)."),
                 f("fit", Shape::Word(FITS), "Fit a curve of y on x: linear or loess."),
-                f("band", num(Some(0.0), Some(1.0)), "With fit: confidence level of the band, such as 0.95."),
-                f("p", num(Some(0.0), Some(1.0)), "With summary quantile: the probability, such as 0.9."),
+                f("band", num(Some(0.0), Some(1.0)), "With fit: confidence level of the band (default 0.95; 0 for no band)."),
+                f("p", num(Some(0.0), Some(1.0)), "With summary quantile: the probability, such as 0.9 (default 0.5)."),
                 f("span", num(Some(0.0), Some(1.0)), "With fit loess: the share of points in each local fit (default 0.75)."),
-                f("degree", Shape::Integer { min: 1, max: 2 }, "With fit loess: local polynomial degree, 1 or 2 (default 2)."),
+                f("degree", Shape::Integer { min: 1, max: 2 }, "With fit loess: local polynomial degree, 1 or 2 (default 1)."),
                 f("robust", Shape::Either(vec![Shape::Bool, count(0)]), "With fit loess: true (3 robustness iterations) or a number of iterations."),
                 f("density", density, "Kernel density estimate of x."),
                 f("window", window, "Running summary over neighbouring rows, in x order."),
