@@ -150,6 +150,20 @@ impl Channel {
     }
 }
 
+/// By name, as a spec writes it (the keys of `scales`).
+impl serde::Serialize for Channel {
+    fn serialize<S: serde::Serializer>(&self, s: S) -> Result<S::Ok, S::Error> {
+        s.serialize_str(self.name())
+    }
+}
+
+impl<'de> serde::Deserialize<'de> for Channel {
+    fn deserialize<D: serde::Deserializer<'de>>(d: D) -> Result<Self, D::Error> {
+        let name = <std::borrow::Cow<'de, str>>::deserialize(d)?;
+        Channel::from_name(&name).ok_or_else(|| serde::de::Error::custom(format!("unknown channel `{name}`")))
+    }
+}
+
 impl fmt::Display for Channel {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         f.write_str(self.name())

@@ -89,8 +89,8 @@ fn layer_table(spec: &Spec, plan: &Plan, l: &PlannedLayer, out: &mut String) {
     }
     out.push_str("</tr></thead><tbody>");
     let pattern = |ch: Channel| match ch {
-        Channel::X | Channel::XEnd => spec.scales.get("x").and_then(|s| s.format.as_deref()),
-        Channel::Y | Channel::YEnd | Channel::YLow | Channel::YHigh => spec.scales.get("y").and_then(|s| s.format.as_deref()),
+        Channel::X | Channel::XEnd => spec.scales.get(&Channel::X).and_then(|s| s.format.as_deref()),
+        Channel::Y | Channel::YEnd | Channel::YLow | Channel::YHigh => spec.scales.get(&Channel::Y).and_then(|s| s.format.as_deref()),
         _ => None,
     };
     for i in 0..shown {

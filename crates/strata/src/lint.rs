@@ -5,6 +5,7 @@
 //! [`check`] runs on the spec alone (as `strata check` does without data)
 //! or with the plan (every render), which knows the trained scales.
 
+use crate::channel::Channel;
 use crate::color::{Palette, HARBOUR};
 use crate::error::Diagnostic;
 use crate::plan::{ColorScale, Plan};
@@ -25,8 +26,8 @@ fn warn(code: &str, path: impl Into<String>, why: String) -> Diagnostic {
 /// those the spec silences in `quiet`.
 pub fn check(spec: &Spec, plan: Option<&Plan>) -> Vec<Diagnostic> {
     let mut out = Vec::new();
-    let y_spec = spec.scales.get("y").cloned().unwrap_or_default();
-    let x_spec = spec.scales.get("x").cloned().unwrap_or_default();
+    let y_spec = spec.scales.get(&Channel::Y).cloned().unwrap_or_default();
+    let x_spec = spec.scales.get(&Channel::X).cloned().unwrap_or_default();
     // The value axis of bars is y, unless the plan shows categories on y and numbers on x.
     let value_axis = match plan {
         Some(p) if matches!(p.scales.y, PositionScale::Category { .. }) && matches!(p.scales.x, PositionScale::Continuous { .. }) => "x",

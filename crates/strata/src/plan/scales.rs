@@ -130,8 +130,8 @@ pub fn retrain_positions(layers: &[PlannedLayer], scales: &mut Scales, x: bool, 
 }
 
 pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
-    let get = |k: &str| spec.scales.get(k).cloned().unwrap_or_default();
-    let (x_spec, y_spec, color_spec, size_spec, shape_spec) = (get("x"), get("y"), get("color"), get("size"), get("shape"));
+    let get = |k: Channel| spec.scales.get(&k).cloned().unwrap_or_default();
+    let (x_spec, y_spec, color_spec, size_spec, shape_spec) = (get(Channel::X), get(Channel::Y), get(Channel::Color), get(Channel::Size), get(Channel::Shape));
     let (x, x_nice) = train_position(X_CHANNELS, "x", &x_spec, layers)?;
     let (y, y_nice) = train_position(Y_CHANNELS, "y", &y_spec, layers)?;
     let title = |ch: Channel, s: &ScaleSpec| s.title.clone().unwrap_or_else(|| layers.iter().find_map(|l| l.data.names.get(&ch).cloned()).unwrap_or_default());

@@ -55,7 +55,7 @@ pub struct Spec {
     pub layers: Vec<Layer>,
     /// Scales keyed by channel name (`x`, `y`, `color`, ...).
     #[serde(default, skip_serializing_if = "IndexMap::is_empty")]
-    pub scales: IndexMap<String, ScaleSpec>,
+    pub scales: IndexMap<Channel, ScaleSpec>,
     #[serde(default)]
     pub coords: Coords,
     #[serde(default, skip_serializing_if = "Option::is_none")]
