@@ -1,16 +1,23 @@
 //! Strata: a layered grammar-of-graphics engine.
 //!
 //! The pipeline, one stage a module, each handing a small typed value to the
-//! next:
+//! next; a stage names only earlier stages and the shared libraries, never a
+//! later one (`tests/module_graph.rs` fails on any cycle between modules and
+//! on the scene naming the spec):
 //!
-//! 1. [`spec`]  — JSON text to [`spec::Spec`]
-//! 2. [`data`]  — bytes to [`data::Table`] (Arrow columns); [`expr`] derives and filters
-//! 3. [`plan`]  — spec + table to [`plan::Plan`]: statistics, positions, trained scales
-//! 4. [`scene`] — plan to [`scene::Scene`]: marks, axes and legends in pixels
-//! 5. [`svg`]   — scene to SVG text; [`datatable`] — plan to an HTML data table
+//! 1. [`spec`]  — JSON text to [`spec::Spec`] ([`parse_spec`]: shape check, expression syntax, serde).
+//!    Every word is an enum from one list ([`spec`]'s `vocab.rs`); defaults live in [`spec::defaults`].
+//! 2. [`data`]  — bytes to [`data::Table`]; [`expr`] derives and filters
+//! 3. [`plan`]  — spec + table to [`plan::Plan`]: per layer, [`channel::Channel`]-keyed columns
+//!    after statistics and positions; trained scales; panels split (free scales trained per panel);
+//!    the chart-wide options the scene needs ([`plan::Chart`]: titles, size, theme, coordinates, notes)
+//! 4. [`scene`] — plan (only) to [`scene::Scene`]: marks, axes and legends in pixels; paths are
+//!    typed segments ([`scene::Seg`]) and [`scene::Scene::non_finite`] lists any NaN geometry
+//! 5. [`svg`]   — scene to SVG text (it writes the path data); [`datatable`] — plan to an HTML data table
 //!
-//! Libraries the stages share: [`calendar`] (dates), [`stat`] (numerics), [`scale`] (mapping and
-//! ticks), [`format`] (labels), [`color`], [`text`] (measurement), [`math`].
+//! Libraries the stages share: [`channel`] (the channel names), [`calendar`] (dates), [`stat`]
+//! (numerics), [`scale`] (mapping and ticks), [`format`](mod@format) (labels), [`color`], [`text`]
+//! (measurement), [`math`].
 
 pub mod calendar;
 pub mod channel;
