@@ -11,7 +11,8 @@ pub struct Chart {
     pub subtitle: Option<String>,
     /// The source line under the chart.
     pub source: Option<String>,
-    /// The spec's own text alternative (else the scene writes a summary).
+    /// The text alternative: the spec's `description`, else the summary the
+    /// plan writes (`plan::summary`); `None` only in a panel's own plan.
     pub description: Option<String>,
     pub size: Size,
     pub theme: Theme,

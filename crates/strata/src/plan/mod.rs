@@ -11,6 +11,7 @@ mod layer;
 mod panels;
 mod scales;
 mod stat;
+pub mod summary;
 mod values;
 
 pub use chart::{free_axes, Chart, PanelLayout};
@@ -101,5 +102,8 @@ pub fn build(spec: &Spec, table: &Table) -> Result<Plan, Errors> {
     let scales = scales::train(spec, &layers)?;
     let mut plan = Plan { layers, scales, warnings, chart: Chart::of(spec), panels: None };
     plan.panels = panels::split(spec, &plan);
+    if plan.chart.description.is_none() {
+        plan.chart.description = Some(summary::describe(&plan));
+    }
     Ok(plan)
 }

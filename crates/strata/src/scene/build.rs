@@ -227,7 +227,7 @@ pub fn build(plan: &Plan, opts: &SceneOptions) -> Scene {
     }
 
     let label = chart.title.clone().unwrap_or_else(|| default_label(plan));
-    let description = chart.description.clone().unwrap_or_else(|| crate::summary::describe(plan));
+    let description = chart.description.clone().unwrap_or_default();
     Scene { width, height, label, description, font_family: text::FONT_FAMILY.to_string(), background: pal.background.clone(), classes: theme_class, children }
 }
 

@@ -1,9 +1,11 @@
 //! The automatic text alternative (the SVG's `<desc>`): what is plotted
 //! against what, the ranges, the extremes and, for a continuous x, the trend.
+//! Written by the plan (into `Plan.chart.description` when the spec gives
+//! none), from the plan's own facts.
 
+use super::{ColorScale, Plan, Values};
 use crate::channel::Channel;
 use crate::format::{self, Locale};
-use crate::plan::{ColorScale, Plan, Values};
 
 fn value_text(v: &Values, i: usize, loc: &Locale) -> String {
     match v {
