@@ -17,7 +17,8 @@ use crate::channel::Channel;
 use crate::error::{Diagnostic, Errors};
 use crate::spec::defaults;
 use crate::spec::{
-    Bandwidth, BandwidthRule, BinRule, BinSpec, BinUnit, FitWord, Geometry, IntervalWord, Layer, Stat, StatObject, SummaryWord, WindowAlign, WindowSummary,
+    Bandwidth, BandwidthRule, BinRule, BinSpec, BinUnit, FitWord, Geometry, IntervalWord, Layer, Robust, Stat, StatObject, SummaryWord, WindowAlign,
+    WindowSummary,
 };
 use crate::stat::{self, bin, density, fit, summary, tukey, window};
 use indexmap::IndexMap;
@@ -470,13 +471,13 @@ fn fitted(index: usize, layer: &Layer, o: &StatObject, kind: FitWord, data: Laye
             if !(1..=2).contains(&degree) {
                 return Err(err(index, "stat.degree", "stat.bad_option", "`degree` is 1 (local lines) or 2 (local parabolas)"));
             }
-            let iterations = match &o.robust {
-                None | Some(serde_json::Value::Bool(false)) => 0,
-                Some(serde_json::Value::Bool(true)) => defaults::LOESS_ROBUST_ITERATIONS,
-                Some(v) => match v.as_u64() {
-                    Some(n) if n <= 20 => n as u32,
-                    _ => return Err(err(index, "stat.robust", "stat.bad_option", "`robust` is true, false or a number of iterations (0 to 20)")),
-                },
+            let iterations = match o.robust {
+                None | Some(Robust::Flag(false)) => 0,
+                Some(Robust::Flag(true)) => defaults::LOESS_ROBUST_ITERATIONS,
+                Some(Robust::Iterations(n)) if n <= 20 => n as u32,
+                Some(Robust::Iterations(_)) => {
+                    return Err(err(index, "stat.robust", "stat.bad_option", "`robust` is true, false or a number of iterations (0 to 20)"))
+                }
             };
             Some(fit::LoessOptions { span, degree, iterations, delta: 0.0 })
         }

@@ -409,8 +409,35 @@ impl SizeScale {
     }
 }
 
+/// A shape of the shape channel.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum MarkShape {
+    Circle,
+    Square,
+    Triangle,
+    Diamond,
+    Plus,
+    Cross,
+    Star,
+}
+
+impl MarkShape {
+    pub fn name(self) -> &'static str {
+        match self {
+            MarkShape::Circle => "circle",
+            MarkShape::Square => "square",
+            MarkShape::Triangle => "triangle",
+            MarkShape::Diamond => "diamond",
+            MarkShape::Plus => "plus",
+            MarkShape::Cross => "cross",
+            MarkShape::Star => "star",
+        }
+    }
+}
+
 /// The shapes of the shape channel, in the order categories take them.
-pub const SHAPES: [&str; 7] = ["circle", "square", "triangle", "diamond", "plus", "cross", "star"];
+pub const SHAPES: [MarkShape; 7] =
+    [MarkShape::Circle, MarkShape::Square, MarkShape::Triangle, MarkShape::Diamond, MarkShape::Plus, MarkShape::Cross, MarkShape::Star];
 
 #[cfg(test)]
 mod tests {

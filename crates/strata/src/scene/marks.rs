@@ -7,8 +7,9 @@
 use super::coord::{Area, Coord};
 use super::{polyline, shape_path, Anchor, Datum, Node, Paint, Seg};
 use crate::channel::Channel;
-use crate::plan::{Arrange, Geometry};
+use crate::plan::{Arrange, Geometry, PointShape};
 use crate::plan::{ColorScale, PlannedLayer, Scales, Values};
+use crate::scale::{MarkShape, SHAPES};
 use crate::scale::{PositionScale, Transform};
 
 /// What a layer needs from outside: the scales, coordinates and theme mark colour.
@@ -101,8 +102,7 @@ fn points(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     let (lo, hi) = (layer.data.get(Channel::YLow), layer.data.get(Channel::YHigh));
     let beside = beside_keys(ctx, layer);
     // `style.shape`: one shape for every point (a circle stays a <circle>).
-    // The point shapes are the first of the shape channel's shapes, in order.
-    let fixed_shape = layer.style.shape.and_then(|s| crate::scale::SHAPES.iter().position(|k| *k == s.word())).filter(|k| *k != 0);
+    let fixed_shape = layer.style.shape.map(mark_shape).and_then(|m| SHAPES.iter().position(|k| *k == m)).filter(|k| *k != 0);
     let mut out = Vec::with_capacity(layer.data.len);
     for i in 0..layer.data.len {
         let (Some(mut ux), Some(uy)) = (ux(ctx, layer, xv, i), ctx.scales.y.unit(yv, i)) else { continue };
@@ -129,6 +129,18 @@ fn points(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         out.push(Node::Circle { cx, cy, r, paint, datum: Some(datum(layer, i)) });
     }
     out
+}
+
+/// The drawn shape of a `style.shape` word.
+fn mark_shape(s: PointShape) -> MarkShape {
+    match s {
+        PointShape::Circle => MarkShape::Circle,
+        PointShape::Square => MarkShape::Square,
+        PointShape::Triangle => MarkShape::Triangle,
+        PointShape::Diamond => MarkShape::Diamond,
+        PointShape::Plus => MarkShape::Plus,
+        PointShape::Cross => MarkShape::Cross,
+    }
 }
 
 /// A vertical (in data terms) segment from a to b at x with caps `cap` px wide.

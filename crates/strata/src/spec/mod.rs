@@ -248,7 +248,7 @@ pub struct StatObject {
     pub degree: Option<u32>,
     /// LOESS: `true` (3 robustness iterations) or a number of iterations.
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub robust: Option<serde_json::Value>,
+    pub robust: Option<Robust>,
 }
 
 /// `density` options: `bandwidth` is `"scott"` (default), `"silverman"` or a
@@ -260,6 +260,15 @@ pub struct DensitySpec {
     pub bandwidth: Option<Bandwidth>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub grid: Option<u32>,
+}
+
+/// LOESS robustness: `true` (the default number of iterations), `false`, or
+/// a number of iterations.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(untagged)]
+pub enum Robust {
+    Flag(bool),
+    Iterations(u64),
 }
 
 /// A density's bandwidth: a rule, or a width in data units.
