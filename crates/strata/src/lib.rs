@@ -10,7 +10,7 @@
 //! 2. [`data`]  — bytes to [`data::Table`]; [`expr`] derives and filters
 //! 3. [`plan`]  — spec + table to [`plan::Plan`]: per layer, [`channel::Channel`]-keyed columns
 //!    after statistics and positions; trained scales; panels split (free scales trained per panel);
-//!    the chart-wide options the scene needs ([`plan::Chart`]: titles, size, theme, coordinates, notes,
+//!    the chart-wide options the scene needs ([`plan::Chart`]: titles, size, palette, coordinates, notes,
 //!    and the text alternative, written by [`plan::summary`] when the spec gives none)
 //! 4. [`scene`] — plan (only) to [`scene::Scene`]: marks, axes and legends in pixels; paths are
 //!    typed segments ([`scene::Seg`]) and [`scene::Scene::non_finite`] lists any NaN geometry

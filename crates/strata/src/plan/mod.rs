@@ -22,7 +22,7 @@ pub use values::{Nums, Values};
 pub use crate::channel::Channel;
 /// The spec's typed words and options the plan hands on as they are, so the
 /// scene reads them from the plan and never from the spec.
-pub use crate::spec::{AngleChannel, Arrange, Coords, Geometry, Note, Placement, PointShape, ScaleSpec, Size, Style, Theme, ThemeBase};
+pub use crate::spec::{AngleChannel, Arrange, Coords, Geometry, Note, Placement, PointShape, ScaleSpec, Size, Style};
 
 use crate::data::Table;
 use crate::error::{Diagnostic, Errors};

@@ -11,7 +11,7 @@ use super::marks::{layer_marks, Ctx};
 use super::{Anchor, Node, Scene};
 use crate::channel::Channel;
 use crate::color::Palette;
-use crate::plan::{Chart, Coords, PanelPlans, Placement, Plan, Size, Theme, ThemeBase};
+use crate::plan::{Chart, Coords, PanelPlans, Placement, Plan, Size};
 use crate::text;
 
 /// What the host decides: the width when the chart gives none.
@@ -33,50 +33,6 @@ const DEFAULT_ASPECT: f64 = 1.6;
 const NARROW_ASPECT: f64 = 1.1;
 /// Widths at or below this are laid out as narrow (phones).
 pub const NARROW: f64 = 400.0;
-
-/// The theme's colours and the classes the SVG root carries for the
-/// stylesheet (`www/strata-theme.css`): `strata-light`, `strata-dark` or
-/// `strata-auto`, plus `strata-own-<slot>` for each colour the chart sets,
-/// which the stylesheet then leaves alone.
-/// The tick-label size for a theme: its `font_size` when it sets a sensible
-/// one (4 to 72 px), else the default.
-pub fn text_size(theme: &Theme) -> f64 {
-    match theme {
-        Theme::Custom(o) => o.font_size.filter(|s| s.is_finite() && (4.0..=72.0).contains(s)).unwrap_or(guides::TICK_SIZE),
-        _ => guides::TICK_SIZE,
-    }
-}
-
-pub fn palette(theme: &Theme) -> (Palette, String) {
-    match theme {
-        Theme::Dark => (Palette::dark(), "strata-dark".into()),
-        Theme::Light => (Palette::light(), "strata-light".into()),
-        Theme::Auto => (Palette::light(), "strata-auto".into()),
-        Theme::Custom(o) => {
-            let dark = o.base == Some(ThemeBase::Dark);
-            let mut p = if dark { Palette::dark() } else { Palette::light() };
-            let mut classes = vec![match o.base {
-                Some(ThemeBase::Dark) => "strata-dark",
-                Some(ThemeBase::Light) => "strata-light",
-                None => "strata-auto",
-            }
-            .to_string()];
-            let mut set = |slot: &mut String, v: &Option<String>, name: &str| {
-                if let Some(v) = v {
-                    *slot = v.clone();
-                    classes.push(format!("strata-own-{name}"));
-                }
-            };
-            set(&mut p.background, &o.background, "background");
-            set(&mut p.text, &o.text, "text");
-            set(&mut p.muted, &o.muted, "muted");
-            set(&mut p.grid, &o.grid, "grid");
-            set(&mut p.axis, &o.axis, "axis");
-            set(&mut p.mark, &o.mark, "mark");
-            (p, classes.join(" "))
-        }
-    }
-}
 
 fn text_block(lines: &[String], x: f64, top: f64, size: f64, bold: bool, fill: &str, class: &str) -> (Vec<Node>, f64) {
     let mut y = top;
@@ -111,10 +67,10 @@ pub fn build(plan: &Plan, opts: &SceneOptions) -> Scene {
     let (width, height) = chart_size(&chart.size, opts);
     let narrow = width <= NARROW;
     let pad = if narrow { 8.0 } else { 16.0 };
-    let (pal, theme_class) = palette(&chart.theme);
+    let (pal, theme_class) = (chart.palette.clone(), chart.theme_classes.clone());
     // Text sizes: the theme's `font_size` sets the tick-label size and every
     // other text keeps its proportion to it.
-    let ts = text_size(&chart.theme);
+    let ts = chart.font_size.unwrap_or(guides::TICK_SIZE);
     let k = ts / guides::TICK_SIZE;
     let scales = &plan.scales;
     let loc = scales.locale;
