@@ -1,7 +1,9 @@
 //! The JSON Schema: committed file up to date; every spec in the repository
 //! valid under a general-purpose validator (`jsonschema` crate 0.61,
 //! draft 2020-12); and the engine's own shape check agreeing with that
-//! validator on thousands of seeded mutations of those specs.
+//! validator on thousands of seeded mutations of those specs; every key and
+//! every word in docs/spec.md; every default the same in code, schema and
+//! docs.
 
 use serde_json::{json, Value};
 use strata::spec::schema_text;
@@ -135,6 +137,41 @@ fn defaults_agree_in_code_schema_and_docs() {
         let at = from + stat_docs[from..].find(&format!("`{key}`")).unwrap_or_else(|| panic!("docs/spec.md does not mention `{key}` after `{parent}`"));
         let near: String = stat_docs[at..].split_whitespace().collect::<Vec<_>>().join(" ").chars().take(90).collect();
         assert!(says(&near), "docs/spec.md does not say `default {word}` for `{key}`: {near:?}");
+    }
+}
+
+#[test]
+fn every_word_is_documented() {
+    use strata::spec::shape::*;
+    let doc = std::fs::read_to_string(root().join("docs/spec.md")).unwrap();
+    let lists: &[(&str, &[&str])] = &[
+        ("draw", GEOMETRIES),
+        ("as/types", COLUMN_TYPES),
+        ("format", DATA_FORMATS),
+        ("stat", STAT_WORDS),
+        ("summary", SUMMARIES),
+        ("interval", INTERVALS),
+        ("fit", FITS),
+        ("rule", BIN_RULES),
+        ("unit", BIN_UNITS),
+        ("window summary", WINDOW_SUMMARIES),
+        ("locale", LOCALES),
+        ("bandwidth", BANDWIDTHS),
+        ("align", WINDOW_ALIGN),
+        ("arrange", ARRANGES),
+        ("kind", SCALE_KINDS),
+        ("axis/legend", PLACEMENTS),
+        ("coords", COORD_WORDS),
+        ("free", FREE),
+        ("theme", THEME_WORDS),
+        ("data_table", DATA_TABLE),
+        ("style.shape", POINT_SHAPES),
+        ("quiet", LINT_CODES),
+    ];
+    for (key, words) in lists {
+        for w in *words {
+            assert!(doc.contains(&format!("`{w}`")) || doc.contains(&format!("\"{w}\"")), "docs/spec.md does not mention the {key} word `{w}`");
+        }
     }
 }
 
