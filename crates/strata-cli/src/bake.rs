@@ -86,7 +86,7 @@ fn render_one(page: &Path, chart: &Found, width: f64) -> Result<String, String> 
         }
         text = serde_json::to_string(&v).map_err(|e| e.to_string())?;
     }
-    let spec = strata::spec::parse_spec(&text).map_err(|e| e.to_string())?;
+    let spec = strata::parse_spec(&text).map_err(|e| e.to_string())?;
     let data_path = match (&chart.src, spec.data.as_ref().and_then(|d| d.object().url)) {
         (Some(src), _) => Some(local(page_dir, src)?),
         (None, Some(url)) => Some(local(&spec_dir, &url)?),

@@ -98,7 +98,7 @@ fn main() -> ExitCode {
 /// Read the spec and the data it names (relative to the spec's folder).
 fn load(spec_path: &Path, data: Option<&Path>) -> Result<(String, strata::spec::Spec, Option<(Vec<u8>, String)>), String> {
     let text = std::fs::read_to_string(spec_path).map_err(|e| format!("strata: cannot read {}: {e}", spec_path.display()))?;
-    let spec = strata::spec::parse_spec(&text).map_err(|e| report(spec_path, &e))?;
+    let spec = strata::parse_spec(&text).map_err(|e| report(spec_path, &e))?;
     let data_path = match data {
         Some(p) => Some(p.to_path_buf()),
         None => spec.data.as_ref().and_then(|d| d.object().url).map(|u| {

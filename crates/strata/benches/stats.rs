@@ -110,11 +110,11 @@ fn line_svg(c: &mut Criterion) {
     let schema = Arc::new(Schema::new(vec![Field::new("t", DataType::Float64, true), Field::new("v", DataType::Float64, true)]));
     let cols: Vec<ArrayRef> = vec![Arc::new(Float64Array::from(xs)), Arc::new(Float64Array::from(ys))];
     let table = strata::data::Table { batch: RecordBatch::try_new(schema, cols).unwrap(), warnings: vec![] };
-    let spec = strata::spec::parse_spec(r#"{"size":{"width":800},"layers":[{"draw":"line","x":"t","y":"v"}]}"#).unwrap();
+    let spec = strata::parse_spec(r#"{"size":{"width":800},"layers":[{"draw":"line","x":"t","y":"v"}]}"#).unwrap();
     let opts = strata::scene::SceneOptions::default();
     let render = || {
         let plan = strata::plan::build(&spec, &table).unwrap();
-        let scene = strata::scene::build(&spec, &plan, &opts);
+        let scene = strata::scene::build(&plan, &opts);
         strata::svg::write(&scene)
     };
     let svg = render();

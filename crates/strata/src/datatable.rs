@@ -11,6 +11,7 @@
 //! a summary its groups. Past [`MAX_ROWS`] rows a layer lists its first rows
 //! and says how many there are.
 
+use crate::channel::Channel;
 use crate::format::{self, Locale};
 use crate::plan::{LayerData, Plan, PlannedLayer, Values};
 use crate::spec::{DataTable, Spec};
@@ -20,18 +21,18 @@ use crate::svg::escape;
 pub const MAX_ROWS: usize = 500;
 
 /// Header words for the channels statistics add (common practice names).
-fn added_name(ch: &str, d: &LayerData) -> String {
-    let of = |c: &str| d.names.get(c).cloned().unwrap_or_else(|| c.to_string());
+fn added_name(ch: Channel, d: &LayerData) -> String {
+    let of = |c: Channel| d.names.get(&c).cloned().unwrap_or_else(|| c.name().to_string());
     match ch {
-        "x_end" => format!("{} (end)", of("x")),
-        "y_end" => format!("{} (end)", of("y")),
-        "y_low" => "lower bound".into(),
-        "y_high" => "upper bound".into(),
-        "bin_start" => "bin start".into(),
-        "bin_end" => "bin end".into(),
-        "q1" => "lower quartile".into(),
-        "q3" => "upper quartile".into(),
-        other => other.replace('_', " "),
+        Channel::XEnd => format!("{} (end)", of(Channel::X)),
+        Channel::YEnd => format!("{} (end)", of(Channel::Y)),
+        Channel::YLow => "lower bound".into(),
+        Channel::YHigh => "upper bound".into(),
+        Channel::BinStart => "bin start".into(),
+        Channel::BinEnd => "bin end".into(),
+        Channel::Q1 => "lower quartile".into(),
+        Channel::Q3 => "upper quartile".into(),
+        other => other.name().replace('_', " "),
     }
 }
 
@@ -57,20 +58,20 @@ fn layer_table(spec: &Spec, plan: &Plan, l: &PlannedLayer, out: &mut String) {
     let d = &l.data;
     let loc = plan.scales.locale;
     let boxes = l.geometry == crate::spec::Geometry::Box;
-    let header = |ch: &str| match (ch, d.get("x_end").is_some()) {
+    let header = |ch: Channel| match (ch, d.get(Channel::XEnd).is_some()) {
         // A box row spans its whiskers; an outlier row holds one value in y.
-        ("y", _) if boxes => "lower whisker or outlier".to_string(),
-        ("y_end", _) if boxes => "upper whisker".to_string(),
+        (Channel::Y, _) if boxes => "lower whisker or outlier".to_string(),
+        (Channel::YEnd, _) if boxes => "upper whisker".to_string(),
         // A range along x (bins, tiles): "from" and "to" read better than a bare start.
-        ("x", true) => format!("{} from", d.names.get("x").map(String::as_str).unwrap_or("x")),
-        ("x_end", true) => format!("{} to", d.names.get("x").map(String::as_str).unwrap_or("x")),
-        _ => d.names.get(ch).cloned().unwrap_or_else(|| added_name(ch, d)),
+        (Channel::X, true) => format!("{} from", d.names.get(&Channel::X).map(String::as_str).unwrap_or("x")),
+        (Channel::XEnd, true) => format!("{} to", d.names.get(&Channel::X).map(String::as_str).unwrap_or("x")),
+        _ => d.names.get(&ch).cloned().unwrap_or_else(|| added_name(ch, d)),
     };
-    let mut cols: Vec<(String, &str, &Values)> = Vec::new();
-    for (k, v) in &d.channels {
+    let mut cols: Vec<(String, Channel, &Values)> = Vec::new();
+    for (&k, v) in &d.channels {
         let name = header(k);
         // Statistics keep some numbers twice (a histogram's height is its count).
-        if crate::plan::DRAWING_AIDS.contains(k) || v.len() != d.len || cols.iter().any(|(n, _, w)| *n == name && *w == v) {
+        if k.is_drawing_aid() || v.len() != d.len || cols.iter().any(|(n, _, w)| *n == name && *w == v) {
             continue;
         }
         cols.push((name, k, v));
@@ -87,15 +88,15 @@ fn layer_table(spec: &Spec, plan: &Plan, l: &PlannedLayer, out: &mut String) {
         out.push_str(&format!("<th scope=\"col\">{}</th>", escape(c)));
     }
     out.push_str("</tr></thead><tbody>");
-    let pattern = |ch: &str| match ch {
-        "x" | "x_end" => spec.scales.get("x").and_then(|s| s.format.as_deref()),
-        "y" | "y_end" | "y_low" | "y_high" => spec.scales.get("y").and_then(|s| s.format.as_deref()),
+    let pattern = |ch: Channel| match ch {
+        Channel::X | Channel::XEnd => spec.scales.get(&Channel::X).and_then(|s| s.format.as_deref()),
+        Channel::Y | Channel::YEnd | Channel::YLow | Channel::YHigh => spec.scales.get(&Channel::Y).and_then(|s| s.format.as_deref()),
         _ => None,
     };
     for i in 0..shown {
         out.push_str("<tr>");
         for (_, ch, v) in &cols {
-            let (text, num) = cell(v, i, pattern(ch), loc);
+            let (text, num) = cell(v, i, pattern(*ch), loc);
             out.push_str(if num { "<td class=\"strata-num\">" } else { "<td>" });
             out.push_str(&escape(&text));
             out.push_str("</td>");

@@ -1,18 +1,27 @@
 //! Strata: a layered grammar-of-graphics engine.
 //!
 //! The pipeline, one stage a module, each handing a small typed value to the
-//! next:
+//! next; a stage names only earlier stages and the shared libraries, never a
+//! later one (`tests/module_graph.rs` fails on any cycle between modules and
+//! on the scene naming the spec):
 //!
-//! 1. [`spec`]  — JSON text to [`spec::Spec`]
-//! 2. [`data`]  — bytes to [`data::Table`] (Arrow columns); [`expr`] derives and filters
-//! 3. [`plan`]  — spec + table to [`plan::Plan`]: statistics, positions, trained scales
-//! 4. [`scene`] — plan to [`scene::Scene`]: marks, axes and legends in pixels
-//! 5. [`svg`]   — scene to SVG text; [`datatable`] — plan to an HTML data table
+//! 1. [`spec`]  — JSON text to [`spec::Spec`] ([`parse_spec`]: shape check, expression syntax, serde).
+//!    Every word is an enum from one list ([`spec`]'s `vocab.rs`); defaults live in [`spec::defaults`].
+//! 2. [`data`]  — bytes to [`data::Table`]; [`expr`] derives and filters
+//! 3. [`plan`]  — spec + table to [`plan::Plan`]: per layer, [`channel::Channel`]-keyed columns
+//!    after statistics and positions; trained scales; panels split (free scales trained per panel);
+//!    the chart-wide options the scene needs ([`plan::Chart`]: titles, size, palette, coordinates, notes,
+//!    and the text alternative, written by [`plan::summary`] when the spec gives none)
+//! 4. [`scene`] — plan (only) to [`scene::Scene`]: marks, axes and legends in pixels; paths are
+//!    typed segments ([`scene::Seg`]) and [`scene::Scene::non_finite`] lists any NaN geometry
+//! 5. [`svg`]   — scene to SVG text (it writes the path data); [`datatable`] — plan to an HTML data table
 //!
-//! Libraries the stages share: [`calendar`] (dates), [`stat`] (numerics), [`scale`] (mapping and
-//! ticks), [`format`] (labels), [`color`], [`text`] (measurement), [`math`].
+//! Libraries the stages share: [`channel`] (the channel names), [`calendar`] (dates), [`stat`]
+//! (numerics), [`scale`] (mapping and ticks), [`format`](mod@format) (labels), [`color`], [`text`]
+//! (measurement), [`math`].
 
 pub mod calendar;
+pub mod channel;
 pub mod color;
 pub mod data;
 pub mod datatable;
@@ -26,7 +35,6 @@ pub mod scale;
 pub mod scene;
 pub mod spec;
 pub mod stat;
-pub mod summary;
 pub mod svg;
 pub mod text;
 
@@ -97,7 +105,7 @@ pub fn render_spec(spec: &Spec, data: Option<DataBytes>, opts: &RenderOptions) -
     let table = load_table(spec, data)?;
     let table = expr::apply(table, &spec.derive, spec.where_.as_deref())?;
     let plan = plan::build(spec, &table)?;
-    let scene = scene::build(spec, &plan, &opts.scene);
+    let scene = scene::build(&plan, &opts.scene);
     let svg = svg::write(&scene);
     let html_table = datatable::write(spec, &plan);
     let mut warnings = table.warnings;
@@ -128,8 +136,41 @@ fn no_effect(spec: &Spec) -> Vec<Diagnostic> {
     out
 }
 
+/// Stage 1 from spec text: JSON syntax, the shape of every key and word,
+/// and the syntax of the `derive` and `where` expressions, every problem at
+/// once with its JSON path.
+pub fn parse_spec(text: &str) -> Result<Spec, Errors> {
+    spec::parse_spec_with(text, &expression_errors)
+}
+
+/// [`parse_spec`] for a spec already parsed as JSON.
+pub fn spec_from_value(value: &serde_json::Value) -> Result<Spec, Errors> {
+    spec::spec_from_value_with(value, &expression_errors)
+}
+
+/// Expression syntax, so that `strata check` finds it without data. (Here,
+/// so the spec stage does not depend on the expression stage.)
+fn expression_errors(value: &serde_json::Value) -> Vec<Diagnostic> {
+    let mut errors = Vec::new();
+    if let Some(derive) = value.get("derive").and_then(serde_json::Value::as_object) {
+        for (name, text) in derive {
+            if let Some(text) = text.as_str() {
+                if let Err(e) = expr::parse(text) {
+                    errors.push(expr::diagnostic(&format!("derive.{}", expr::path_key(name)), text, &e));
+                }
+            }
+        }
+    }
+    if let Some(text) = value.get("where").and_then(serde_json::Value::as_str) {
+        if let Err(e) = expr::parse(text) {
+            errors.push(expr::diagnostic("where", text, &e));
+        }
+    }
+    errors
+}
+
 /// The whole pipeline from spec text.
 pub fn render(spec_text: &str, data: Option<DataBytes>, opts: &RenderOptions) -> Result<Rendered, Errors> {
-    let spec = spec::parse_spec(spec_text)?;
+    let spec = parse_spec(spec_text)?;
     render_spec(&spec, data, opts)
 }

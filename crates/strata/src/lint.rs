@@ -5,6 +5,7 @@
 //! [`check`] runs on the spec alone (as `strata check` does without data)
 //! or with the plan (every render), which knows the trained scales.
 
+use crate::channel::Channel;
 use crate::color::{Palette, HARBOUR};
 use crate::error::Diagnostic;
 use crate::plan::{ColorScale, Plan};
@@ -12,7 +13,7 @@ use crate::scale::PositionScale;
 use crate::spec::{AngleChannel, Coords, Geometry, ScaleKind, Spec, Theme};
 
 /// Every lint code, for `quiet` and the schema.
-pub const CODES: [&str; 5] = ["lint.axis_without_zero", "lint.log_bars", "lint.too_many_colors", "lint.polar_angle_not_cyclic", "lint.low_contrast"];
+pub const CODES: &[&str] = crate::spec::shape::LINT_CODES;
 
 /// WCAG 2.1 success criterion 1.4.3 (level AA): 4.5:1 for normal text.
 pub const MIN_TEXT_CONTRAST: f64 = 4.5;
@@ -25,8 +26,8 @@ fn warn(code: &str, path: impl Into<String>, why: String) -> Diagnostic {
 /// those the spec silences in `quiet`.
 pub fn check(spec: &Spec, plan: Option<&Plan>) -> Vec<Diagnostic> {
     let mut out = Vec::new();
-    let y_spec = spec.scales.get("y").cloned().unwrap_or_default();
-    let x_spec = spec.scales.get("x").cloned().unwrap_or_default();
+    let y_spec = spec.scales.get(&Channel::Y).cloned().unwrap_or_default();
+    let x_spec = spec.scales.get(&Channel::X).cloned().unwrap_or_default();
     // The value axis of bars is y, unless the plan shows categories on y and numbers on x.
     let value_axis = match plan {
         Some(p) if matches!(p.scales.y, PositionScale::Category { .. }) && matches!(p.scales.x, PositionScale::Continuous { .. }) => "x",
@@ -127,7 +128,7 @@ fn contrast(spec: &Spec) -> Vec<Diagnostic> {
         Theme::Dark => vec![(Palette::dark(), "dark")],
         Theme::Auto => vec![(Palette::light(), "light"), (Palette::dark(), "dark")],
         Theme::Custom(o) => {
-            let dark = o.base.as_deref() == Some("dark");
+            let dark = o.base == Some(crate::spec::ThemeBase::Dark);
             let mut p = if dark { Palette::dark() } else { Palette::light() };
             let set = |slot: &mut String, v: &Option<String>| {
                 if let Some(v) = v {
@@ -253,7 +254,7 @@ pub fn parse_css_color(s: &str) -> Option<[f64; 4]> {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::spec::parse_spec;
+    use crate::parse_spec;
 
     fn codes(spec: &str) -> Vec<String> {
         check(&parse_spec(spec).unwrap(), None).into_iter().map(|d| d.code).collect()

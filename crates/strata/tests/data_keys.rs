@@ -35,7 +35,7 @@ fn decimal_comma_and_missing_tokens_from_the_spec() {
 
 #[test]
 fn an_unknown_delimiter_is_a_located_error() {
-    let e = strata::spec::parse_spec(&format!(r#"{BARS},"data":{{"delimiter":":"}}}}"#)).unwrap_err();
+    let e = strata::parse_spec(&format!(r#"{BARS},"data":{{"delimiter":":"}}}}"#)).unwrap_err();
     assert_eq!(e.0[0].at.path, "data.delimiter");
 }
 

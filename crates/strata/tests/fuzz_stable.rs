@@ -235,7 +235,7 @@ fn specs_never_panic() {
             }
         }
         let text: String = text.into_iter().collect();
-        if let Ok(spec) = strata::spec::parse_spec(&text) {
+        if let Ok(spec) = strata::parse_spec(&text) {
             parsed += 1;
             let _ = strata::lint::check(&spec, None);
             if let Some(rows) = spec.data.as_ref().and_then(|d| d.object().rows) {
@@ -245,7 +245,7 @@ fn specs_never_panic() {
             }
         } else if let Err(e) = serde_json::from_str::<Value>(&text) {
             // Invalid JSON: the engine must say so with a position.
-            let msg = strata::spec::parse_spec(&text).unwrap_err().0[0].message.clone();
+            let msg = strata::parse_spec(&text).unwrap_err().0[0].message.clone();
             assert!(msg.contains("line"), "{e}: {msg}");
         }
     }
@@ -361,6 +361,8 @@ fn rendering_never_panics() {
                 ok += 1;
                 assert!(out.svg.starts_with("<svg") && out.svg.trim_end().ends_with("</svg>"), "{spec}");
                 assert!(!out.svg.contains("NaN") && !out.svg.contains("inf"), "non-finite number in the SVG of {spec}");
+                let bad = out.scene.non_finite();
+                assert!(bad.is_empty(), "non-finite geometry at {bad:?} in the scene of {spec}");
             }
             Err(e) => {
                 err += 1;

@@ -18,7 +18,7 @@ fn root() -> PathBuf {
 /// (suffix, text).
 fn outputs(spec_path: &Path) -> Vec<(&'static str, String)> {
     let text = std::fs::read_to_string(spec_path).unwrap();
-    let spec = match strata::spec::parse_spec(&text) {
+    let spec = match strata::parse_spec(&text) {
         Ok(s) => s,
         Err(e) => return vec![("err.txt", format!("{e}\n"))],
     };
@@ -31,6 +31,10 @@ fn outputs(spec_path: &Path) -> Vec<(&'static str, String)> {
     let data = bytes.as_ref().map(|(b, n)| DataBytes { bytes: b, name: n });
     match strata::render_spec(&spec, data, &RenderOptions::default()) {
         Ok(r) => {
+            // No NaN or infinity anywhere in the scene (the SVG writer would
+            // otherwise have to write something for it).
+            let bad = r.scene.non_finite();
+            assert!(bad.is_empty(), "{}: non-finite geometry at {bad:?}", spec_path.display());
             let mut warnings: String = r.warnings.iter().map(|w| format!("{w}\n")).collect();
             if warnings.is_empty() {
                 warnings = "no warnings\n".into();

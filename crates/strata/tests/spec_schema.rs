@@ -1,11 +1,14 @@
 //! The JSON Schema: committed file up to date; every spec in the repository
 //! valid under a general-purpose validator (`jsonschema` crate 0.61,
 //! draft 2020-12); and the engine's own shape check agreeing with that
-//! validator on thousands of seeded mutations of those specs.
+//! validator on thousands of seeded mutations of those specs; every key and
+//! every word in docs/spec.md; every default the same in code, schema and
+//! docs.
 
 use serde_json::{json, Value};
+use strata::spec::schema_text;
 use strata::spec::shape::{check, spec_shape, GEOMETRIES, LINT_CODES, SCALE_KINDS, STAT_WORDS, SUMMARIES};
-use strata::spec::{parse_spec, schema_text, spec_from_value};
+use strata::{parse_spec, spec_from_value};
 
 fn root() -> std::path::PathBuf {
     std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("../..")
@@ -85,6 +88,90 @@ fn every_key_is_documented() {
     for path in strata::spec::shape::key_paths() {
         let leaf = path.rsplit(['.', ']']).next().unwrap();
         assert!(doc.contains(&format!("`{leaf}`")) || doc.contains(&format!("\"{leaf}\"")), "docs/spec.md does not mention `{leaf}` ({path})");
+    }
+}
+
+/// The descriptions of every property named `key` inside a property named
+/// `parent`, anywhere in the schema.
+fn descriptions(schema: &Value, parent: &str, key: &str, inside: bool, out: &mut Vec<String>) {
+    match schema {
+        Value::Object(m) => {
+            for (k, v) in m {
+                if k == "properties" {
+                    if let Value::Object(props) = v {
+                        for (name, p) in props {
+                            if inside && name == key {
+                                out.push(p.get("description").and_then(Value::as_str).unwrap_or_default().to_string());
+                            }
+                            descriptions(p, parent, key, name == parent, out);
+                        }
+                    }
+                } else {
+                    descriptions(v, parent, key, inside, out);
+                }
+            }
+        }
+        Value::Array(a) => a.iter().for_each(|v| descriptions(v, parent, key, inside, out)),
+        _ => {}
+    }
+}
+
+#[test]
+fn defaults_agree_in_code_schema_and_docs() {
+    // The LOESS degree default was once 2 in the docs and the schema and 1 in
+    // the code: each default is now defined once (spec::defaults) and both
+    // texts are held to it.
+    let schema: Value = serde_json::from_str(&schema_text()).unwrap();
+    let doc = std::fs::read_to_string(root().join("docs/spec.md")).unwrap();
+    let stat_docs = &doc[doc.find("### `stat`").expect("a stat section")..];
+    let stat_docs = &stat_docs[..stat_docs[4..].find("\n### ").map_or(stat_docs.len(), |i| i + 4)];
+    for (parent, key, word) in strata::spec::defaults::documented() {
+        let mut found = Vec::new();
+        descriptions(&schema, parent, key, false, &mut found);
+        assert!(!found.is_empty(), "no `{parent}.{key}` in the schema");
+        let says = |text: &str| text.contains(&format!("default {word}")) || text.contains(&format!("default `{word}`"));
+        assert!(found.iter().any(|d| says(d)), "the schema's `{parent}.{key}` does not say `default {word}`: {found:?}");
+        // In the docs: just after the key's first mention following its
+        // parent's in the stat section.
+        let from = stat_docs.find(&format!("`{parent}`")).unwrap_or_else(|| panic!("docs/spec.md's stat section does not mention `{parent}`"));
+        let at = from + stat_docs[from..].find(&format!("`{key}`")).unwrap_or_else(|| panic!("docs/spec.md does not mention `{key}` after `{parent}`"));
+        let near: String = stat_docs[at..].split_whitespace().collect::<Vec<_>>().join(" ").chars().take(90).collect();
+        assert!(says(&near), "docs/spec.md does not say `default {word}` for `{key}`: {near:?}");
+    }
+}
+
+#[test]
+fn every_word_is_documented() {
+    use strata::spec::shape::*;
+    let doc = std::fs::read_to_string(root().join("docs/spec.md")).unwrap();
+    let lists: &[(&str, &[&str])] = &[
+        ("draw", GEOMETRIES),
+        ("as/types", COLUMN_TYPES),
+        ("format", DATA_FORMATS),
+        ("stat", STAT_WORDS),
+        ("summary", SUMMARIES),
+        ("interval", INTERVALS),
+        ("fit", FITS),
+        ("rule", BIN_RULES),
+        ("unit", BIN_UNITS),
+        ("window summary", WINDOW_SUMMARIES),
+        ("locale", LOCALES),
+        ("bandwidth", BANDWIDTHS),
+        ("align", WINDOW_ALIGN),
+        ("arrange", ARRANGES),
+        ("kind", SCALE_KINDS),
+        ("axis/legend", PLACEMENTS),
+        ("coords", COORD_WORDS),
+        ("free", FREE),
+        ("theme", THEME_WORDS),
+        ("data_table", DATA_TABLE),
+        ("style.shape", POINT_SHAPES),
+        ("quiet", LINT_CODES),
+    ];
+    for (key, words) in lists {
+        for w in *words {
+            assert!(doc.contains(&format!("`{w}`")) || doc.contains(&format!("\"{w}\"")), "docs/spec.md does not mention the {key} word `{w}`");
+        }
     }
 }
 

@@ -12,6 +12,7 @@
 //!   or up to 30 % of a band either way (`x_offset`) for categories.
 
 use super::{LayerData, Nums, Values};
+use crate::channel::Channel;
 use crate::spec::{Arrange, Geometry, Layer};
 use crate::stat::rng::SplitMix64;
 use std::collections::HashMap;
@@ -24,10 +25,10 @@ pub fn apply(index: usize, layer: &Layer, geometry: Geometry, mut data: LayerDat
         jitter(index, &mut data);
     }
     let extent = matches!(geometry, Geometry::Bar | Geometry::Area);
-    if !extent || data.get("y_base").is_some() {
+    if !extent || data.get(Channel::YBase).is_some() {
         return data;
     }
-    let Some(Values::Num(ys)) = data.get("y").cloned() else { return data };
+    let Some(Values::Num(ys)) = data.get(Channel::Y).cloned() else { return data };
     let mut base = vec![Some(0.0); data.len];
     let mut top: Vec<Option<f64>> = ys.iter().collect();
     if layer.arrange == Arrange::Stack || layer.arrange == Arrange::Proportion {
@@ -59,15 +60,15 @@ pub fn apply(index: usize, layer: &Layer, geometry: Geometry, mut data: LayerDat
             }
         }
     }
-    data.channels.insert("y", Values::Num(top.into()));
-    data.channels.insert("y_base", Values::Num(base.into()));
+    data.channels.insert(Channel::Y, Values::Num(top.into()));
+    data.channels.insert(Channel::YBase, Values::Num(base.into()));
     data
 }
 
 /// Marks stack when they share x and panel (or grid cell).
 fn stack_key(data: &LayerData, i: usize) -> Option<String> {
-    let x = data.get("x").and_then(|x| x.key(i));
-    let cell: Vec<String> = super::PANEL_CHANNELS.iter().filter_map(|c| data.get(c)).map(|v| v.key(i).unwrap_or_default()).collect();
+    let x = data.get(Channel::X).and_then(|x| x.key(i));
+    let cell: Vec<String> = Channel::PANEL.iter().filter_map(|c| data.get(*c)).map(|v| v.key(i).unwrap_or_default()).collect();
     if cell.is_empty() {
         return x;
     }
@@ -92,22 +93,22 @@ fn jitter(index: usize, data: &mut LayerData) {
     let n = data.len;
     // Draw x then y for each row, so either column's jitter never depends on the other being present.
     let draws: Vec<(f64, f64)> = (0..n).map(|_| (rng.next_f64() * 2.0 - 1.0, rng.next_f64() * 2.0 - 1.0)).collect();
-    match data.get("x").cloned() {
+    match data.get(Channel::X).cloned() {
         Some(Values::Text(_)) => {
-            data.channels.insert("x_offset", Values::Num(draws.iter().map(|d| Some(0.3 * d.0)).collect()));
+            data.channels.insert(Channel::XOffset, Values::Num(draws.iter().map(|d| Some(0.3 * d.0)).collect()));
         }
         Some(Values::Num(v)) => {
             let r = 0.4 * resolution(&v);
-            data.channels.insert("x", Values::Num(v.iter().zip(&draws).map(|(x, d)| x.map(|x| x + r * d.0)).collect()));
+            data.channels.insert(Channel::X, Values::Num(v.iter().zip(&draws).map(|(x, d)| x.map(|x| x + r * d.0)).collect()));
         }
         Some(Values::Time(v)) => {
             let r = 0.4 * resolution(&v);
-            data.channels.insert("x", Values::Time(v.iter().zip(&draws).map(|(x, d)| x.map(|x| x + r * d.0)).collect()));
+            data.channels.insert(Channel::X, Values::Time(v.iter().zip(&draws).map(|(x, d)| x.map(|x| x + r * d.0)).collect()));
         }
         None => {}
     }
-    if let Some(Values::Num(v)) = data.get("y").cloned() {
+    if let Some(Values::Num(v)) = data.get(Channel::Y).cloned() {
         let r = 0.4 * resolution(&v);
-        data.channels.insert("y", Values::Num(v.iter().zip(&draws).map(|(y, d)| y.map(|y| y + r * d.1)).collect()));
+        data.channels.insert(Channel::Y, Values::Num(v.iter().zip(&draws).map(|(y, d)| y.map(|y| y + r * d.1)).collect()));
     }
 }

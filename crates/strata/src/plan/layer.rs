@@ -1,6 +1,7 @@
 //! Pull a layer's channels out of the table.
 
 use super::{LayerData, Nums, Values};
+use crate::channel::Channel;
 use crate::data::Table;
 use crate::error::{Diagnostic, Errors};
 use crate::spec::{ColumnType, Layer, Panels};
@@ -70,9 +71,9 @@ pub fn check_panels(panels: Option<&Panels>, table: &Table) -> Result<(), Errors
 /// A column that is not there is left out here: [`check_panels`] says so.
 pub fn with_panel(mut data: LayerData, panels: Option<&Panels>, table: &Table) -> LayerData {
     let Some(p) = panels else { return data };
-    let wanted: [(&'static str, Option<&String>); 3] = match &p.by {
-        Some(by) => [("panel", Some(by)), ("panel_row", None), ("panel_col", None)],
-        None => [("panel", None), ("panel_row", p.rows.as_ref()), ("panel_col", p.cols.as_ref())],
+    let wanted: [(Channel, Option<&String>); 3] = match &p.by {
+        Some(by) => [(Channel::Panel, Some(by)), (Channel::PanelRow, None), (Channel::PanelCol, None)],
+        None => [(Channel::Panel, None), (Channel::PanelRow, p.rows.as_ref()), (Channel::PanelCol, p.cols.as_ref())],
     };
     let names = table.column_names();
     for (channel, column) in wanted {

@@ -6,62 +6,48 @@
 //! statistic, in data units) and trained [`Scales`]. No pixels yet.
 
 mod arrange;
+mod chart;
 mod layer;
 mod panels;
 mod scales;
 mod stat;
+pub mod summary;
 mod values;
 
-pub use panels::{free_axes, split as split_panels, PanelPlans, MAX_PANELS};
+pub use chart::{free_axes, Chart, PanelLayout};
+pub use panels::{split as split_panels, PanelPlans, MAX_PANELS};
 pub use scales::{ColorScale, Scales};
 pub use values::{Nums, Values};
 
+pub use crate::channel::Channel;
+/// The spec's typed words and options the plan hands on as they are, so the
+/// scene reads them from the plan and never from the spec.
+pub use crate::spec::{AngleChannel, Arrange, Coords, Geometry, Note, Placement, PointShape, ScaleSpec, Size, Style};
+
 use crate::data::Table;
 use crate::error::{Diagnostic, Errors};
-use crate::spec::{Arrange, Geometry, Spec, Style};
+use crate::spec::Spec;
 use indexmap::IndexMap;
 
 /// A layer's rows after its statistic and position adjustment, keyed by
-/// channel (`x`, `y`, `color`, ...).
-///
-/// Internal channels added by statistics and position adjustments:
-/// - `y_base`: where a bar's or area's extent starts (0, or the top of the
-///   mark below it when stacked).
-/// - `x_end`: a histogram bin's right edge (`x` is its left edge); tiles'
-///   right edges. `y_end`: the upper end of a range, ribbon, tile or box
-///   whisker (`y` is then the lower end).
-/// - `y_low`, `y_high`: an interval around `y` (a summary's `interval`, a
-///   linear fit's confidence band), drawn as error bars on points and bars
-///   and as a band under a fitted line. `estimate`: the summary value on a
-///   `range`/`rule` layer whose `y`/`y_end` hold the interval.
-/// - `count` (rows behind a bin, tile or box), `bin_start`/`bin_end` (bin
-///   edges when `x` is the bin middle), `bandwidth` (density), `fitted`
-///   (ribbon from a fit), `part` (`box` or `outlier`), `q1`, `median`, `q3`
-///   (box plots).
-/// - `x_offset`: jitter or dodge within a band, as a fraction of the band
-///   (discrete x only; continuous x is moved in data units).
-/// - `panel`: the panel key (`panels.by`); `panel_row`, `panel_col`: the
-///   row's values of `panels.rows` and `panels.cols`, naming its grid cell.
-///   Statistics group by them like `color` and `group`; stacks and series
-///   never cross a panel.
-/// Internal channels that only help drawing (where an extent starts, an
-/// offset in a band): left out of a mark's datum and of the data table.
-pub const DRAWING_AIDS: [&str; 2] = ["y_base", "x_offset"];
-
+/// channel (`x`, `y`, `color`, ...; the internal channels that statistics,
+/// position adjustments and panels add are listed with [`Channel`]).
+/// Statistics group by the panel channels like `color` and `group`; stacks
+/// and series never cross a panel.
 #[derive(Debug, Clone, PartialEq, Default)]
 pub struct LayerData {
     pub len: usize,
-    pub channels: IndexMap<&'static str, Values>,
+    pub channels: IndexMap<Channel, Values>,
     /// The column name behind each channel, for axis titles and legends.
-    pub names: IndexMap<&'static str, String>,
+    pub names: IndexMap<Channel, String>,
     /// The layer's `tip` columns, row for row (kept by statistics that keep
     /// rows; aggregating ones show their own values instead).
     pub tips: Vec<(String, Values)>,
 }
 
 impl LayerData {
-    pub fn get(&self, ch: &str) -> Option<&Values> {
-        self.channels.get(ch)
+    pub fn get(&self, ch: Channel) -> Option<&Values> {
+        self.channels.get(&ch)
     }
 }
 
@@ -79,11 +65,12 @@ pub struct Plan {
     pub layers: Vec<PlannedLayer>,
     pub scales: Scales,
     pub warnings: Vec<Diagnostic>,
+    /// The chart-wide options (default in a panel's own plan).
+    pub chart: Chart,
+    /// Small multiples: one plan per panel, each with its own rows and, for
+    /// free axes, its own position scales; `None` without panels.
+    pub panels: Option<PanelPlans>,
 }
-
-/// The internal channels that place a row in a panel: stacks, series and
-/// statistics never cross them.
-pub const PANEL_CHANNELS: [&str; 3] = ["panel", "panel_row", "panel_col"];
 
 /// Resolve the spec against the table.
 pub fn build(spec: &Spec, table: &Table) -> Result<Plan, Errors> {
@@ -113,5 +100,10 @@ pub fn build(spec: &Spec, table: &Table) -> Result<Plan, Errors> {
     }
     panels::check_count(spec, &layers)?;
     let scales = scales::train(spec, &layers)?;
-    Ok(Plan { layers, scales, warnings })
+    let mut plan = Plan { layers, scales, warnings, chart: Chart::of(spec), panels: None };
+    plan.panels = panels::split(spec, &plan);
+    if plan.chart.description.is_none() {
+        plan.chart.description = Some(summary::describe(&plan));
+    }
+    Ok(plan)
 }

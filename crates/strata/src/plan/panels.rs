@@ -14,10 +14,12 @@
 //! own rows. A panel with no rows, or whose rows alone cannot make a scale
 //! (a log axis with nothing above zero), keeps the shared scale.
 
+use super::chart::free_axes;
 use super::scales::retrain_positions;
 use super::{LayerData, Plan, PlannedLayer};
+use crate::channel::Channel;
 use crate::error::{Diagnostic, Errors};
-use crate::spec::{FreeAxes, Spec};
+use crate::spec::Spec;
 use indexmap::IndexSet;
 
 /// More panels than this is a mistake (a column of many distinct values
@@ -27,26 +29,16 @@ pub const MAX_PANELS: usize = 400;
 /// The plans of a chart's panels.
 #[derive(Debug, Clone)]
 pub enum PanelPlans {
-    /// `panels.by`: (key, plan) per panel.
-    Wrap(Vec<(String, Plan)>),
+    /// `panels.by`: each panel's key and plan.
+    Wrap { names: Vec<String>, cells: Vec<Plan> },
     /// `panels.rows`/`cols`: the row and column values (`None` when the
     /// spec gives no `rows` or no `cols`: one row or one column) and the
     /// plan of each cell, row by row: `cells[r * columns + c]`.
     Grid { rows: Option<Vec<String>>, cols: Option<Vec<String>>, cells: Vec<Plan> },
 }
 
-/// Which position scales each panel trains on its own rows: (x, y).
-pub fn free_axes(spec: &Spec) -> (bool, bool) {
-    match spec.panels.as_ref().and_then(|p| p.free) {
-        Some(FreeAxes::X) => (true, false),
-        Some(FreeAxes::Y) => (false, true),
-        Some(FreeAxes::Both) => (true, true),
-        None => (false, false),
-    }
-}
-
 /// Distinct values of a channel over every layer, in order of first appearance.
-fn values_of(layers: &[PlannedLayer], channel: &str) -> IndexSet<String> {
+fn values_of(layers: &[PlannedLayer], channel: Channel) -> IndexSet<String> {
     let mut keys = IndexSet::new();
     for l in layers {
         if let Some(v) = l.data.get(channel) {
@@ -66,9 +58,9 @@ type Values3 = (Option<IndexSet<String>>, Option<IndexSet<String>>, Option<Index
 fn panel_values(spec: &Spec, layers: &[PlannedLayer]) -> Option<Values3> {
     let p = spec.panels.as_ref()?;
     if p.by.is_some() {
-        return Some((Some(values_of(layers, "panel")), None, None));
+        return Some((Some(values_of(layers, Channel::Panel)), None, None));
     }
-    Some((None, p.rows.as_ref().map(|_| values_of(layers, "panel_row")), p.cols.as_ref().map(|_| values_of(layers, "panel_col"))))
+    Some((None, p.rows.as_ref().map(|_| values_of(layers, Channel::PanelRow)), p.cols.as_ref().map(|_| values_of(layers, Channel::PanelCol))))
 }
 
 /// An error when the panels would be too many to draw.
@@ -96,8 +88,8 @@ pub fn split(spec: &Spec, plan: &Plan) -> Option<PanelPlans> {
         if keys.is_empty() {
             return None;
         }
-        let cells = cut(plan, &[("panel", &keys)], free);
-        return Some(PanelPlans::Wrap(keys.into_iter().zip(cells).collect()));
+        let cells = cut(plan, &[(Channel::Panel, &keys)], free);
+        return Some(PanelPlans::Wrap { names: keys.into_iter().collect(), cells });
     }
     let (n_rows, n_cols) = (rows.as_ref().map_or(1, IndexSet::len), cols.as_ref().map_or(1, IndexSet::len));
     if rows.is_none() && cols.is_none() || n_rows == 0 || n_cols == 0 {
@@ -105,10 +97,10 @@ pub fn split(spec: &Spec, plan: &Plan) -> Option<PanelPlans> {
     }
     let mut by_channel = Vec::new();
     if let Some(r) = &rows {
-        by_channel.push(("panel_row", r));
+        by_channel.push((Channel::PanelRow, r));
     }
     if let Some(c) = &cols {
-        by_channel.push(("panel_col", c));
+        by_channel.push((Channel::PanelCol, c));
     }
     let cells = cut(plan, &by_channel, free);
     let list = |s: Option<IndexSet<String>>| s.map(|s| s.into_iter().collect());
@@ -117,11 +109,11 @@ pub fn split(spec: &Spec, plan: &Plan) -> Option<PanelPlans> {
 
 /// One plan per cell of the grid the channels span (the first channel's
 /// values vary slowest). Each row goes to its cell in one pass.
-fn cut(plan: &Plan, channels: &[(&str, &IndexSet<String>)], free: (bool, bool)) -> Vec<Plan> {
+fn cut(plan: &Plan, channels: &[(Channel, &IndexSet<String>)], free: (bool, bool)) -> Vec<Plan> {
     let n: usize = channels.iter().map(|(_, v)| v.len()).product();
     let mut layers: Vec<Vec<PlannedLayer>> = (0..n).map(|_| Vec::with_capacity(plan.layers.len())).collect();
     for l in &plan.layers {
-        let cols: Vec<_> = channels.iter().filter_map(|(c, values)| l.data.get(c).map(|v| (v, *values))).collect();
+        let cols: Vec<_> = channels.iter().filter_map(|(c, values)| l.data.get(*c).map(|v| (v, *values))).collect();
         if cols.len() < channels.len() {
             // A layer without its panel channels is drawn in every panel.
             for cell in &mut layers {
@@ -153,7 +145,8 @@ fn cut(plan: &Plan, channels: &[(&str, &IndexSet<String>)], free: (bool, bool)) 
                     scales = own;
                 }
             }
-            Plan { layers, scales, warnings: plan.warnings.clone() }
+            // A panel's plan: its rows and scales; the chart-wide options stay on the whole plan.
+            Plan { layers, scales, warnings: plan.warnings.clone(), chart: Default::default(), panels: None }
         })
         .collect()
 }

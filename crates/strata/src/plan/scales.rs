@@ -2,6 +2,7 @@
 //! splits the same rows): domains, kinds, titles, palettes, sizes, shapes.
 
 use super::{PlannedLayer, Values};
+use crate::channel::Channel;
 use crate::color::{self, Scheme};
 use crate::error::{Diagnostic, Errors};
 use crate::format::{self, Locale};
@@ -113,8 +114,8 @@ fn domain_error(axis: &str) -> Errors {
 }
 
 /// The channels each position scale is trained on.
-const X_CHANNELS: &[&str] = &["x", "x_end"];
-const Y_CHANNELS: &[&str] = &["y", "y_end", "y_base", "y_low", "y_high"];
+const X_CHANNELS: &[Channel] = &[Channel::X, Channel::XEnd];
+const Y_CHANNELS: &[Channel] = &[Channel::Y, Channel::YEnd, Channel::YBase, Channel::YLow, Channel::YHigh];
 
 /// Train the x and/or y scale of `scales` again on `layers` alone (one
 /// panel's rows, for `panels.free`), as [`train`] trains them on every row.
@@ -129,20 +130,20 @@ pub fn retrain_positions(layers: &[PlannedLayer], scales: &mut Scales, x: bool, 
 }
 
 pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
-    let get = |k: &str| spec.scales.get(k).cloned().unwrap_or_default();
-    let (x_spec, y_spec, color_spec, size_spec, shape_spec) = (get("x"), get("y"), get("color"), get("size"), get("shape"));
+    let get = |k: Channel| spec.scales.get(&k).cloned().unwrap_or_default();
+    let (x_spec, y_spec, color_spec, size_spec, shape_spec) = (get(Channel::X), get(Channel::Y), get(Channel::Color), get(Channel::Size), get(Channel::Shape));
     let (x, x_nice) = train_position(X_CHANNELS, "x", &x_spec, layers)?;
     let (y, y_nice) = train_position(Y_CHANNELS, "y", &y_spec, layers)?;
-    let title = |ch: &str, s: &ScaleSpec| s.title.clone().unwrap_or_else(|| layers.iter().find_map(|l| l.data.names.get(ch).cloned()).unwrap_or_default());
-    let locale = format::locale(spec.locale.as_deref().unwrap_or("en"));
+    let title = |ch: Channel, s: &ScaleSpec| s.title.clone().unwrap_or_else(|| layers.iter().find_map(|l| l.data.names.get(&ch).cloned()).unwrap_or_default());
+    let locale = format::locale(spec.locale.map_or("en", |l| l.word()));
 
     // Colour.
-    let (cats, num) = collect(layers, "color");
+    let (cats, num) = collect(layers, Channel::Color);
     let color = if color_spec.kind == Some(ScaleKind::Category) || !cats.is_empty() {
         let cats = match &color_spec.domain {
             Some(d) => d.iter().map(json_word).collect(),
             None if !cats.is_empty() => cats,
-            None => num_as_text(layers, "color"),
+            None => num_as_text(layers, Channel::Color),
         };
         (!cats.is_empty()).then_some(ColorScale::Categories(cats))
     } else if let Some((lo, hi)) = num {
@@ -172,7 +173,7 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
     };
 
     // Size: area proportional to value, from zero unless told otherwise.
-    let (_, size_num) = collect(layers, "size");
+    let (_, size_num) = collect(layers, Channel::Size);
     let size = match size_num {
         Some((lo, hi)) => {
             let (mut lo, hi) = explicit_domain(&size_spec, "size")?.unwrap_or((lo, hi));
@@ -185,11 +186,11 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
     };
 
     // Shape: categories (numbers read as text).
-    let (shape_cats, shape_num) = collect(layers, "shape");
+    let (shape_cats, shape_num) = collect(layers, Channel::Shape);
     let shape = if !shape_cats.is_empty() {
         Some(shape_cats)
     } else if shape_num.is_some() {
-        Some(num_as_text(layers, "shape"))
+        Some(num_as_text(layers, Channel::Shape))
     } else {
         None
     };
@@ -201,11 +202,11 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
         }
     }
     Ok(Scales {
-        x_title: title("x", &x_spec),
-        y_title: title("y", &y_spec),
-        color_title: title("color", &color_spec),
-        size_title: title("size", &size_spec),
-        shape_title: title("shape", &shape_spec),
+        x_title: title(Channel::X, &x_spec),
+        y_title: title(Channel::Y, &y_spec),
+        color_title: title(Channel::Color, &color_spec),
+        size_title: title(Channel::Size, &size_spec),
+        shape_title: title(Channel::Shape, &shape_spec),
         x,
         y,
         x_nice,
@@ -241,7 +242,7 @@ fn json_word(v: &serde_json::Value) -> String {
 }
 
 /// Categories (text) and the numeric range of a channel across layers.
-fn collect(layers: &[PlannedLayer], ch: &str) -> (Vec<String>, Option<(f64, f64)>) {
+fn collect(layers: &[PlannedLayer], ch: Channel) -> (Vec<String>, Option<(f64, f64)>) {
     let mut cats: Vec<String> = Vec::new();
     let mut seen = HashSet::new();
     let (mut lo, mut hi) = (f64::INFINITY, f64::NEG_INFINITY);
@@ -263,7 +264,7 @@ fn collect(layers: &[PlannedLayer], ch: &str) -> (Vec<String>, Option<(f64, f64)
 }
 
 /// Distinct numbers of a channel, sorted, as category words.
-fn num_as_text(layers: &[PlannedLayer], ch: &str) -> Vec<String> {
+fn num_as_text(layers: &[PlannedLayer], ch: Channel) -> Vec<String> {
     let mut v: Vec<f64> = Vec::new();
     for l in layers {
         if let Some(Values::Num(xs) | Values::Time(xs)) = l.data.get(ch) {
@@ -299,14 +300,14 @@ fn explicit_domain(s: &ScaleSpec, axis: &str) -> Result<Option<(f64, f64)>, Erro
 }
 
 /// A trained position scale and whether its domain is still to be made nice.
-fn train_position(channels: &[&str], axis: &str, s: &ScaleSpec, layers: &[PlannedLayer]) -> Result<(PositionScale, bool), Errors> {
+fn train_position(channels: &[Channel], axis: &str, s: &ScaleSpec, layers: &[PlannedLayer]) -> Result<(PositionScale, bool), Errors> {
     let mut cats: Vec<String> = Vec::new();
     let mut seen = HashSet::new();
     let (mut lo, mut hi) = (f64::INFINITY, f64::NEG_INFINITY);
     let (mut any_num, mut any_text, mut time) = (false, false, false);
     let mut extent = false;
     for l in layers {
-        for ch in channels {
+        for &ch in channels {
             match l.data.get(ch) {
                 Some(Values::Text(v)) => {
                     any_text = true;
@@ -315,7 +316,7 @@ fn train_position(channels: &[&str], axis: &str, s: &ScaleSpec, layers: &[Planne
                 Some(vals @ (Values::Num(_) | Values::Time(_))) => {
                     any_num = true;
                     time |= matches!(vals, Values::Time(_));
-                    if *ch == "y_base" || (*ch == "y" && matches!(l.geometry, Geometry::Bar | Geometry::Area)) {
+                    if ch == Channel::YBase || (ch == Channel::Y && matches!(l.geometry, Geometry::Bar | Geometry::Area)) {
                         extent = true;
                     }
                     if let Values::Num(v) | Values::Time(v) = vals {
@@ -407,10 +408,10 @@ fn train_position(channels: &[&str], axis: &str, s: &ScaleSpec, layers: &[Planne
     Ok((PositionScale::Continuous { lo, hi, transform, time, step: None }, nice))
 }
 
-fn positive_min(layers: &[PlannedLayer], channels: &[&str]) -> Option<f64> {
+fn positive_min(layers: &[PlannedLayer], channels: &[Channel]) -> Option<f64> {
     let mut m = f64::INFINITY;
     for l in layers {
-        for ch in channels {
+        for &ch in channels {
             if let Some(Values::Num(v)) = l.data.get(ch) {
                 for x in v.present() {
                     if x > 0.0 {
@@ -423,10 +424,10 @@ fn positive_min(layers: &[PlannedLayer], channels: &[&str]) -> Option<f64> {
     m.is_finite().then_some(m)
 }
 
-fn num_as_text_position(layers: &[PlannedLayer], channels: &[&str]) -> Vec<String> {
+fn num_as_text_position(layers: &[PlannedLayer], channels: &[Channel]) -> Vec<String> {
     let mut v: Vec<f64> = Vec::new();
     for l in layers {
-        for ch in channels {
+        for &ch in channels {
             if let Some(Values::Num(xs) | Values::Time(xs)) = l.data.get(ch) {
                 v.extend(xs.present());
             }
@@ -437,6 +438,19 @@ fn num_as_text_position(layers: &[PlannedLayer], channels: &[&str]) -> Vec<Strin
     v.into_iter().map(l_key).collect()
 }
 
+impl PositionScale {
+    /// Unit position of row `i` of a plan column. (Here rather than in
+    /// `scale`, so the scale library knows nothing of the plan's columns.)
+    pub fn unit(&self, values: &Values, i: usize) -> Option<f64> {
+        match (self, values) {
+            // Numbers on a category scale are found by their text (as `Values::key` writes it).
+            (PositionScale::Category { .. }, Values::Num(v) | Values::Time(v)) => v.get(i).and_then(|x| self.unit_cat(&format!("{x}"))),
+            (_, Values::Num(v) | Values::Time(v)) => v.get(i).and_then(|x| self.unit_num(x)),
+            (_, Values::Text(v)) => v[i].as_deref().and_then(|s| self.unit_cat(s)),
+        }
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -445,31 +459,31 @@ mod tests {
 
     fn layer(geometry: Geometry, xs: Vec<f64>, ys: Vec<f64>) -> PlannedLayer {
         let mut data = LayerData { len: xs.len(), ..Default::default() };
-        data.channels.insert("x", Values::Num(xs.into()));
-        data.channels.insert("y", Values::Num(ys.into()));
+        data.channels.insert(Channel::X, Values::Num(xs.into()));
+        data.channels.insert(Channel::Y, Values::Num(ys.into()));
         PlannedLayer { index: 0, geometry, arrange: Arrange::None, style: Style::default(), data }
     }
 
     fn spec(scales: &str) -> Spec {
-        crate::spec::parse_spec(&format!(r#"{{ "layers": [ {{ "draw": "point" }} ], "scales": {scales} }}"#)).unwrap()
+        crate::parse_spec(&format!(r#"{{ "layers": [ {{ "draw": "point" }} ], "scales": {scales} }}"#)).unwrap()
     }
 
     #[test]
     fn palettes_by_name() {
         let mut l = layer(Geometry::Point, vec![1.0, 2.0, 3.0], vec![1.0, 2.0, 3.0]);
-        l.data.channels.insert("color", Values::Num(vec![10.0, 20.0, 30.0].into()));
+        l.data.channels.insert(Channel::Color, Values::Num(vec![10.0, 20.0, 30.0].into()));
         let s = train(&spec(r#"{ "color": { "palette": "loam" } }"#), std::slice::from_ref(&l)).unwrap();
-        let c = l.data.get("color").unwrap();
+        let c = l.data.get(Channel::Color).unwrap();
         assert_eq!(s.color_of(c, 0), Some(color::LOAM.at(0.0)));
         assert_eq!(s.color_of(c, 2), Some(color::LOAM.at(1.0)));
         // Numbers spanning zero default to the diverging ramp, centred on zero.
-        l.data.channels.insert("color", Values::Num(vec![-10.0, 0.0, 30.0].into()));
+        l.data.channels.insert(Channel::Color, Values::Num(vec![-10.0, 0.0, 30.0].into()));
         let s = train(&spec("{}"), std::slice::from_ref(&l)).unwrap();
-        assert_eq!(s.color_of(l.data.get("color").unwrap(), 1), Some(color::CROSSING.at(0.5)));
+        assert_eq!(s.color_of(l.data.get(Channel::Color).unwrap(), 1), Some(color::CROSSING.at(0.5)));
         // Categories take the default palette in order of first appearance.
-        l.data.channels.insert("color", Values::Text(vec![Some("b".into()), Some("a".into()), Some("b".into())]));
+        l.data.channels.insert(Channel::Color, Values::Text(vec![Some("b".into()), Some("a".into()), Some("b".into())]));
         let s = train(&spec("{}"), std::slice::from_ref(&l)).unwrap();
-        let c = l.data.get("color").unwrap();
+        let c = l.data.get(Channel::Color).unwrap();
         assert_eq!(s.color_of(c, 0).as_deref(), Some(color::HARBOUR[0]));
         assert_eq!(s.color_of(c, 1).as_deref(), Some(color::HARBOUR[1]));
     }

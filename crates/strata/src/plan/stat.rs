@@ -13,13 +13,18 @@
 //! outlier (`part` = `outlier`).
 
 use super::{LayerData, Values};
+use crate::channel::Channel;
 use crate::error::{Diagnostic, Errors};
-use crate::spec::{BinSpec, Geometry, Layer, Stat, StatObject};
+use crate::spec::defaults;
+use crate::spec::{
+    Bandwidth, BandwidthRule, BinRule, BinSpec, BinUnit, FitWord, Geometry, IntervalWord, Layer, Robust, Stat, StatObject, SummaryWord, WindowAlign,
+    WindowSummary,
+};
 use crate::stat::{self, bin, density, fit, summary, tukey, window};
 use indexmap::IndexMap;
 
 /// Discrete channels a statistic groups by (when they hold text), in order.
-const GROUP_CHANNELS: [&str; 6] = ["color", "group", "shape", "panel", "panel_row", "panel_col"];
+const GROUP_CHANNELS: [Channel; 6] = [Channel::Color, Channel::Group, Channel::Shape, Channel::Panel, Channel::PanelRow, Channel::PanelCol];
 
 /// A scatter with more points than this becomes 2-D binned tiles unless the
 /// layer's style sets `every_point`.
@@ -80,10 +85,10 @@ fn object(index: usize, layer: &Layer, o: &StatObject, data: LayerData) -> Resul
     if let Some(b) = &o.bin {
         return binned(index, layer, b, data);
     }
-    if let Some(name) = &o.summary {
-        return summarise(index, layer, o, name, data);
+    if let Some(word) = o.summary {
+        return summarise(index, layer, o, word, data);
     }
-    if let Some(kind) = &o.fit {
+    if let Some(kind) = o.fit {
         return fitted(index, layer, o, kind, data);
     }
     if let Some(d) = &o.density {
@@ -98,22 +103,22 @@ fn object(index: usize, layer: &Layer, o: &StatObject, data: LayerData) -> Resul
 // ------------------------------------------------------------ grouping
 
 /// The group channels present with text values.
-fn group_keys(data: &LayerData) -> Vec<&'static str> {
-    GROUP_CHANNELS.iter().copied().filter(|c| data.get(c).is_some_and(Values::is_discrete)).collect()
+fn group_keys(data: &LayerData) -> Vec<Channel> {
+    GROUP_CHANNELS.iter().copied().filter(|c| data.get(*c).is_some_and(Values::is_discrete)).collect()
 }
 
 /// `x` (when mapped) and the discrete group channels: what count, summary
 /// and box statistics group by.
-fn x_and_group_keys(data: &LayerData) -> Vec<&'static str> {
-    let mut keys = if data.get("x").is_some() { vec!["x"] } else { vec![] };
+fn x_and_group_keys(data: &LayerData) -> Vec<Channel> {
+    let mut keys = if data.get(Channel::X).is_some() { vec![Channel::X] } else { vec![] };
     keys.extend(group_keys(data));
     keys
 }
 
 /// Rows grouped by the given channels, in order of first appearance.
-fn group_rows(data: &LayerData, keys: &[&'static str]) -> IndexMap<Vec<Option<String>>, Vec<usize>> {
+fn group_rows(data: &LayerData, keys: &[Channel]) -> IndexMap<Vec<Option<String>>, Vec<usize>> {
     let mut groups: IndexMap<Vec<Option<String>>, Vec<usize>> = IndexMap::new();
-    let cols: Vec<&Values> = keys.iter().map(|k| &data.channels[*k]).collect();
+    let cols: Vec<&Values> = keys.iter().map(|k| &data.channels[k]).collect();
     for i in 0..data.len {
         let key: Vec<Option<String>> = cols.iter().map(|c| c.key(i)).collect();
         groups.entry(key).or_default().push(i);
@@ -125,24 +130,24 @@ fn group_rows(data: &LayerData, keys: &[&'static str]) -> IndexMap<Vec<Option<St
 /// channels it copies.
 struct Out {
     from: Vec<usize>,
-    num: IndexMap<&'static str, Vec<Option<f64>>>,
-    text: IndexMap<&'static str, Vec<Option<String>>>,
+    num: IndexMap<Channel, Vec<Option<f64>>>,
+    text: IndexMap<Channel, Vec<Option<String>>>,
 }
 
 impl Out {
     fn new() -> Self {
         Out { from: vec![], num: IndexMap::new(), text: IndexMap::new() }
     }
-    fn row(&mut self, from: usize, nums: &[(&'static str, Option<f64>)]) {
+    fn row(&mut self, from: usize, nums: &[(Channel, Option<f64>)]) {
         let n = self.from.len();
         self.from.push(from);
         for (k, v) in nums {
-            let col = self.num.entry(k).or_insert_with(|| vec![None; n]);
+            let col = self.num.entry(*k).or_insert_with(|| vec![None; n]);
             col.resize(n, None);
             col.push(*v);
         }
     }
-    fn text(&mut self, key: &'static str, v: &str) {
+    fn text(&mut self, key: Channel, v: &str) {
         let n = self.from.len();
         let col = self.text.entry(key).or_default();
         col.resize(n - 1, None);
@@ -150,13 +155,13 @@ impl Out {
     }
     /// Assemble: group channels copied from the source rows, then the new
     /// columns; `time` names the new columns in time units.
-    fn finish(self, src: &LayerData, keys: &[&'static str], time: &[&str], names: &[(&'static str, String)]) -> LayerData {
+    fn finish(self, src: &LayerData, keys: &[Channel], time: &[Channel], names: &[(Channel, String)]) -> LayerData {
         let n = self.from.len();
         let mut out = LayerData { len: n, ..Default::default() };
         for k in keys {
-            out.channels.insert(k, src.channels[*k].take(&self.from));
+            out.channels.insert(*k, src.channels[k].take(&self.from));
             if let Some(nm) = src.names.get(k) {
-                out.names.insert(k, nm.clone());
+                out.names.insert(*k, nm.clone());
             }
         }
         for (k, mut v) in self.num {
@@ -168,25 +173,25 @@ impl Out {
             out.channels.insert(k, Values::Text(v));
         }
         for (k, nm) in names {
-            out.names.insert(k, nm.clone());
+            out.names.insert(*k, nm.clone());
         }
         out
     }
 }
 
-fn name_of(data: &LayerData, ch: &str) -> String {
-    data.names.get(ch).cloned().unwrap_or_else(|| ch.to_string())
+fn name_of(data: &LayerData, ch: Channel) -> String {
+    data.names.get(&ch).cloned().unwrap_or_else(|| ch.to_string())
 }
 
 fn nums_of(v: &Values, rows: &[usize]) -> Vec<f64> {
     rows.iter().filter_map(|i| v.num(*i)).filter(|x| x.is_finite()).collect()
 }
 
-fn need<'a>(index: usize, data: &'a LayerData, ch: &str, what: &str) -> Result<&'a Values, Errors> {
-    data.get(ch).ok_or_else(|| err(index, ch, "spec.missing_channel", format!("{what} needs a `{ch}` channel")))
+fn need<'a>(index: usize, data: &'a LayerData, ch: Channel, what: &str) -> Result<&'a Values, Errors> {
+    data.get(ch).ok_or_else(|| err(index, ch.name(), "spec.missing_channel", format!("{what} needs a `{ch}` channel")))
 }
 
-fn need_numeric<'a>(index: usize, data: &'a LayerData, ch: &str, what: &str) -> Result<&'a Values, Errors> {
+fn need_numeric<'a>(index: usize, data: &'a LayerData, ch: Channel, what: &str) -> Result<&'a Values, Errors> {
     let v = need(index, data, ch, what)?;
     if v.is_discrete() {
         return Err(Diagnostic::error("stat.not_numeric", format!("{what} needs numbers or dates in `{ch}`, but `{}` holds text", name_of(data, ch)))
@@ -204,46 +209,59 @@ fn count(data: LayerData) -> LayerData {
     let groups = group_rows(&data, &keys);
     let mut out = Out::new();
     for (key, rows) in &groups {
-        if data.get("x").is_some() && key[0].is_none() {
+        if data.get(Channel::X).is_some() && key[0].is_none() {
             continue; // rows with a missing x are not counted
         }
-        out.row(rows[0], &[("y", Some(rows.len() as f64))]);
+        out.row(rows[0], &[(Channel::Y, Some(rows.len() as f64))]);
     }
-    out.finish(&data, &keys, &[], &[("y", "count".to_string())])
+    out.finish(&data, &keys, &[], &[(Channel::Y, "count".to_string())])
 }
 
-fn summarise(index: usize, layer: &Layer, o: &StatObject, name: &str, data: LayerData) -> Result<LayerData, Errors> {
-    let s = summary::Summary::from_word(name, o.p).ok_or_else(|| {
-        Errors::from(
-            Diagnostic::error("spec.unknown_summary", format!("unknown summary `{name}`"))
-                .at_path(format!("layers[{index}].stat.summary"))
-                .with_hint(format!("use one of {}", summary::Summary::WORDS)),
-        )
-    })?;
+/// The statistic a summary word names.
+fn summary_of(word: SummaryWord, p: Option<f64>) -> summary::Summary {
+    match word {
+        SummaryWord::Mean => summary::Summary::Mean,
+        SummaryWord::Median => summary::Summary::Median,
+        SummaryWord::Sum => summary::Summary::Sum,
+        SummaryWord::Min => summary::Summary::Min,
+        SummaryWord::Max => summary::Summary::Max,
+        SummaryWord::Count => summary::Summary::Count,
+        SummaryWord::Quantile => summary::Summary::Quantile(p.unwrap_or(defaults::QUANTILE_P)),
+        SummaryWord::StandardDeviation => summary::Summary::StandardDeviation,
+    }
+}
+
+/// The interval an interval word names.
+fn interval_of(word: IntervalWord) -> summary::Interval {
+    match word {
+        IntervalWord::Ci95 => summary::Interval::Confidence(0.95),
+        IntervalWord::Ci90 => summary::Interval::Confidence(0.90),
+        IntervalWord::Ci99 => summary::Interval::Confidence(0.99),
+        IntervalWord::Ci80 => summary::Interval::Confidence(0.80),
+        IntervalWord::StandardError => summary::Interval::StandardError,
+        IntervalWord::MinMax => summary::Interval::MinMax,
+        IntervalWord::Wilson => summary::Interval::Wilson(0.95),
+    }
+}
+
+fn summarise(index: usize, layer: &Layer, o: &StatObject, word: SummaryWord, data: LayerData) -> Result<LayerData, Errors> {
+    let name = word.word();
+    let s = summary_of(word, o.p);
     if let Some(p) = o.p {
         if !(0.0..=1.0).contains(&p) {
             return Err(err(index, "stat.p", "stat.bad_option", "`p` must be between 0 and 1"));
         }
     }
-    let interval = match &o.interval {
-        None => None,
-        Some(w) => Some(summary::Interval::from_word(w).ok_or_else(|| {
-            Errors::from(
-                Diagnostic::error("spec.unknown_interval", format!("unknown interval `{w}`"))
-                    .at_path(format!("layers[{index}].stat.interval"))
-                    .with_hint(format!("use one of {}", summary::Interval::WORDS)),
-            )
-        })?),
-    };
+    let interval = o.interval.map(interval_of);
     let mut data = data;
-    booleans_as_numbers(&mut data, "y");
-    let y = need_numeric(index, &data, "y", &format!("a `{name}` summary"))?;
+    booleans_as_numbers(&mut data, Channel::Y);
+    let y = need_numeric(index, &data, Channel::Y, &format!("a `{name}` summary"))?;
     let keys = x_and_group_keys(&data);
     let groups = group_rows(&data, &keys);
     let bounds_in_y = matches!(layer.draw, Geometry::Range | Geometry::Rule | Geometry::Ribbon) && interval.is_some();
     let mut out = Out::new();
     for (key, rows) in &groups {
-        if data.get("x").is_some() && key[0].is_none() {
+        if data.get(Channel::X).is_some() && key[0].is_none() {
             continue;
         }
         let ys = nums_of(y, rows);
@@ -251,25 +269,25 @@ fn summarise(index: usize, layer: &Layer, o: &StatObject, name: &str, data: Laye
         let iv = interval.and_then(|iv| iv.of(&ys));
         let (lo, hi) = (iv.map(|b| b.0), iv.map(|b| b.1));
         if bounds_in_y {
-            out.row(rows[0], &[("y", lo), ("y_end", hi), ("estimate", v), ("count", Some(ys.len() as f64))]);
+            out.row(rows[0], &[(Channel::Y, lo), (Channel::YEnd, hi), (Channel::Estimate, v), (Channel::Count, Some(ys.len() as f64))]);
         } else if interval.is_some() {
-            out.row(rows[0], &[("y", v), ("y_low", lo), ("y_high", hi), ("count", Some(ys.len() as f64))]);
+            out.row(rows[0], &[(Channel::Y, v), (Channel::YLow, lo), (Channel::YHigh, hi), (Channel::Count, Some(ys.len() as f64))]);
         } else {
-            out.row(rows[0], &[("y", v)]);
+            out.row(rows[0], &[(Channel::Y, v)]);
         }
     }
     let time = if y_is_time(y) && !matches!(s, summary::Summary::Count | summary::Summary::StandardDeviation) {
-        vec!["y", "y_end", "y_low", "y_high", "estimate"]
+        vec![Channel::Y, Channel::YEnd, Channel::YLow, Channel::YHigh, Channel::Estimate]
     } else {
         vec![]
     };
-    let title = format!("{name} of {}", name_of(&data, "y"));
-    Ok(out.finish(&data, &keys, &time, &[("y", title)]))
+    let title = format!("{name} of {}", name_of(&data, Channel::Y));
+    Ok(out.finish(&data, &keys, &time, &[(Channel::Y, title)]))
 }
 
 /// A column of `true`/`false` becomes 1/0, so that a mean is a proportion
 /// (and a Wilson interval applies).
-fn booleans_as_numbers(data: &mut LayerData, ch: &'static str) {
+fn booleans_as_numbers(data: &mut LayerData, ch: Channel) {
     if let Some(Values::Text(v)) = data.get(ch) {
         if v.iter().flatten().all(|s| s == "true" || s == "false") && v.iter().any(Option::is_some) {
             let nums = v.iter().map(|s| s.as_deref().map(|s| if s == "true" { 1.0 } else { 0.0 })).collect();
@@ -285,14 +303,14 @@ fn y_is_time(v: &Values) -> bool {
 // ------------------------------------------------------------ bin
 
 fn binned(index: usize, layer: &Layer, b: &BinSpec, data: LayerData) -> Result<LayerData, Errors> {
-    let x = need_numeric(index, &data, "x", "a `bin` statistic")?;
+    let x = need_numeric(index, &data, Channel::X, "a `bin` statistic")?;
     let is_time = matches!(x, Values::Time(_));
     let all: Vec<usize> = (0..data.len).collect();
     let xs = nums_of(x, &all);
     let edges = bin_edges(index, b, &xs, is_time)?;
     let keys = group_keys(&data);
     let groups = group_rows(&data, &keys);
-    let weights = data.get("y").filter(|v| !v.is_discrete());
+    let weights = data.get(Channel::Y).filter(|v| !v.is_discrete());
     let as_density = b.density == Some(true);
     let edge_channels = matches!(layer.draw, Geometry::Bar | Geometry::Tile);
     let mut out = Out::new();
@@ -321,19 +339,28 @@ fn binned(index: usize, layer: &Layer, b: &BinSpec, data: LayerData) -> Result<L
                 height = if total != 0.0 { height / (total * (e - a)) } else { 0.0 };
             }
             if edge_channels {
-                out.row(rows[0], &[("x", Some(a)), ("x_end", Some(e)), ("y", Some(height)), ("count", Some(counts[k]))]);
+                out.row(rows[0], &[(Channel::X, Some(a)), (Channel::XEnd, Some(e)), (Channel::Y, Some(height)), (Channel::Count, Some(counts[k]))]);
             } else {
-                out.row(rows[0], &[("x", Some(0.5 * (a + e))), ("bin_start", Some(a)), ("bin_end", Some(e)), ("y", Some(height)), ("count", Some(counts[k]))]);
+                out.row(
+                    rows[0],
+                    &[
+                        (Channel::X, Some(0.5 * (a + e))),
+                        (Channel::BinStart, Some(a)),
+                        (Channel::BinEnd, Some(e)),
+                        (Channel::Y, Some(height)),
+                        (Channel::Count, Some(counts[k])),
+                    ],
+                );
             }
         }
     }
-    let time: &[&str] = if is_time { &["x", "x_end", "bin_start", "bin_end"] } else { &[] };
+    let time: &[Channel] = if is_time { &[Channel::X, Channel::XEnd, Channel::BinStart, Channel::BinEnd] } else { &[] };
     let yname = match (weights.is_some(), as_density) {
         (_, true) => "density".to_string(),
-        (true, false) => format!("sum of {}", name_of(&data, "y")),
+        (true, false) => format!("sum of {}", name_of(&data, Channel::Y)),
         (false, false) => "count".to_string(),
     };
-    Ok(out.finish(&data, &keys, time, &[("x", name_of(&data, "x")), ("y", yname)]))
+    Ok(out.finish(&data, &keys, time, &[(Channel::X, name_of(&data, Channel::X)), (Channel::Y, yname)]))
 }
 
 fn bin_edges(index: usize, b: &BinSpec, xs: &[f64], is_time: bool) -> Result<Vec<f64>, Errors> {
@@ -348,26 +375,21 @@ fn bin_edges(index: usize, b: &BinSpec, xs: &[f64], is_time: bool) -> Result<Vec
     if b.count == Some(0) {
         return Err(err(index, "stat.bin.count", "stat.bad_option", "a bin `count` must be at least 1"));
     }
-    let rule = match b.rule.as_deref() {
-        None => bin::Rule::Sturges,
-        Some(r) => bin::Rule::from_word(r).ok_or_else(|| {
-            Errors::from(
-                Diagnostic::error("spec.unknown_bin_rule", format!("unknown bin rule `{r}`"))
-                    .at_path(format!("layers[{index}].stat.bin.rule"))
-                    .with_hint(format!("use one of {}", bin::Rule::WORDS)),
-            )
-        })?,
+    let rule = match b.rule.unwrap_or(defaults::BIN_RULE) {
+        BinRule::Fd => bin::Rule::Fd,
+        BinRule::Scott => bin::Rule::Scott,
+        BinRule::Sturges => bin::Rule::Sturges,
+        BinRule::Sqrt => bin::Rule::Sqrt,
+        BinRule::Rice => bin::Rule::Rice,
+        BinRule::Doane => bin::Rule::Doane,
     };
-    let unit = match b.unit.as_deref() {
-        None => None,
-        Some(u) => Some(bin::CalendarUnit::from_word(u).ok_or_else(|| {
-            Errors::from(
-                Diagnostic::error("spec.unknown_unit", format!("unknown calendar unit `{u}`"))
-                    .at_path(format!("layers[{index}].stat.bin.unit"))
-                    .with_hint("use one of day, week, month, quarter, year"),
-            )
-        })?),
-    };
+    let unit = b.unit.map(|u| match u {
+        BinUnit::Day => bin::CalendarUnit::Day,
+        BinUnit::Week => bin::CalendarUnit::Week,
+        BinUnit::Month => bin::CalendarUnit::Month,
+        BinUnit::Quarter => bin::CalendarUnit::Quarter,
+        BinUnit::Year => bin::CalendarUnit::Year,
+    });
     if unit.is_some() && !is_time {
         return Err(err(index, "stat.bin.unit", "stat.bad_option", "a calendar `unit` bins dates; this `x` holds numbers"));
     }
@@ -430,40 +452,34 @@ fn bin_edges(index: usize, b: &BinSpec, xs: &[f64], is_time: bool) -> Result<Vec
 
 const FIT_POINTS: usize = 80;
 
-fn fitted(index: usize, layer: &Layer, o: &StatObject, kind: &str, data: LayerData) -> Result<LayerData, Errors> {
-    let x = need_numeric(index, &data, "x", "a fit")?;
-    let y = need_numeric(index, &data, "y", "a fit")?;
+fn fitted(index: usize, layer: &Layer, o: &StatObject, kind: FitWord, data: LayerData) -> Result<LayerData, Errors> {
+    let x = need_numeric(index, &data, Channel::X, "a fit")?;
+    let y = need_numeric(index, &data, Channel::Y, "a fit")?;
     let is_time = matches!(x, Values::Time(_));
-    let level = o.band.unwrap_or(0.95);
+    let level = o.band.unwrap_or(defaults::FIT_BAND);
     if !(0.0..1.0).contains(&level) {
         return Err(err(index, "stat.band", "stat.bad_option", "`band` is a confidence level between 0 and 1, such as 0.95 (0 for no band)"));
     }
     let loess_opts = match kind {
-        "linear" => None,
-        "loess" => {
-            let span = o.span.unwrap_or(0.75);
+        FitWord::Linear => None,
+        FitWord::Loess => {
+            let span = o.span.unwrap_or(defaults::LOESS_SPAN);
             if !(span > 0.0 && span <= 1.0) {
                 return Err(err(index, "stat.span", "stat.bad_option", "`span` is the fraction of points in each local fit, between 0 and 1"));
             }
-            let degree = o.degree.unwrap_or(1);
+            let degree = o.degree.unwrap_or(defaults::LOESS_DEGREE);
             if !(1..=2).contains(&degree) {
                 return Err(err(index, "stat.degree", "stat.bad_option", "`degree` is 1 (local lines) or 2 (local parabolas)"));
             }
-            let iterations = match &o.robust {
-                None | Some(serde_json::Value::Bool(false)) => 0,
-                Some(serde_json::Value::Bool(true)) => 3,
-                Some(v) => match v.as_u64() {
-                    Some(n) if n <= 20 => n as u32,
-                    _ => return Err(err(index, "stat.robust", "stat.bad_option", "`robust` is true, false or a number of iterations (0 to 20)")),
-                },
+            let iterations = match o.robust {
+                None | Some(Robust::Flag(false)) => 0,
+                Some(Robust::Flag(true)) => defaults::LOESS_ROBUST_ITERATIONS,
+                Some(Robust::Iterations(n)) if n <= 20 => n as u32,
+                Some(Robust::Iterations(_)) => {
+                    return Err(err(index, "stat.robust", "stat.bad_option", "`robust` is true, false or a number of iterations (0 to 20)"))
+                }
             };
             Some(fit::LoessOptions { span, degree, iterations, delta: 0.0 })
-        }
-        other => {
-            return Err(Diagnostic::error("spec.unknown_fit", format!("unknown fit `{other}`"))
-                .at_path(format!("layers[{index}].stat.fit"))
-                .with_hint("use `linear` or `loess`")
-                .into())
         }
     };
     let keys = group_keys(&data);
@@ -486,9 +502,9 @@ fn fitted(index: usize, layer: &Layer, o: &StatObject, kind: &str, data: LayerDa
                     let band = if with_band { l.band(a, level) } else { None };
                     let (lo, hi) = (band.map(|b| b.0), band.map(|b| b.1));
                     if bounds_in_y {
-                        out.row(rows[0], &[("x", Some(a)), ("y", lo), ("y_end", hi), ("fitted", Some(l.predict(a)))]);
+                        out.row(rows[0], &[(Channel::X, Some(a)), (Channel::Y, lo), (Channel::YEnd, hi), (Channel::Fitted, Some(l.predict(a)))]);
                     } else {
-                        out.row(rows[0], &[("x", Some(a)), ("y", Some(l.predict(a))), ("y_low", lo), ("y_high", hi)]);
+                        out.row(rows[0], &[(Channel::X, Some(a)), (Channel::Y, Some(l.predict(a))), (Channel::YLow, lo), (Channel::YHigh, hi)]);
                     }
                 }
             }
@@ -505,37 +521,36 @@ fn fitted(index: usize, layer: &Layer, o: &StatObject, kind: &str, data: LayerDa
                 for (a, f) in at.iter().zip(fitted) {
                     let f = f.is_finite().then_some(f);
                     if bounds_in_y {
-                        out.row(rows[0], &[("x", Some(*a)), ("y", f), ("y_end", f), ("fitted", f)]);
+                        out.row(rows[0], &[(Channel::X, Some(*a)), (Channel::Y, f), (Channel::YEnd, f), (Channel::Fitted, f)]);
                     } else {
-                        out.row(rows[0], &[("x", Some(*a)), ("y", f)]);
+                        out.row(rows[0], &[(Channel::X, Some(*a)), (Channel::Y, f)]);
                     }
                 }
             }
         }
     }
-    let time: &[&str] = if is_time { &["x"] } else { &[] };
-    Ok(out.finish(&data, &keys, time, &[("x", name_of(&data, "x")), ("y", name_of(&data, "y"))]))
+    let time: &[Channel] = if is_time { &[Channel::X] } else { &[] };
+    Ok(out.finish(&data, &keys, time, &[(Channel::X, name_of(&data, Channel::X)), (Channel::Y, name_of(&data, Channel::Y))]))
 }
 
 // ------------------------------------------------------------ density
 
 fn densities(index: usize, layer: &Layer, d: &crate::spec::DensitySpec, data: LayerData) -> Result<LayerData, Errors> {
-    let x = need_numeric(index, &data, "x", "a density")?;
-    let rule = match &d.bandwidth {
-        None => density::Bandwidth::Scott,
-        Some(serde_json::Value::String(s)) if s == "scott" => density::Bandwidth::Scott,
-        Some(serde_json::Value::String(s)) if s == "silverman" => density::Bandwidth::Silverman,
-        Some(v) => match v.as_f64() {
+    let x = need_numeric(index, &data, Channel::X, "a density")?;
+    let rule = match &d.bandwidth.unwrap_or(Bandwidth::Rule(defaults::BANDWIDTH)) {
+        Bandwidth::Rule(BandwidthRule::Scott) => density::Bandwidth::Scott,
+        Bandwidth::Rule(BandwidthRule::Silverman) => density::Bandwidth::Silverman,
+        Bandwidth::Width(h) => match Some(*h) {
             Some(h) if h > 0.0 && h.is_finite() => density::Bandwidth::Fixed(h),
             _ => {
-                return Err(Diagnostic::error("stat.bad_option", format!("unknown bandwidth {v}"))
+                return Err(Diagnostic::error("stat.bad_option", format!("unknown bandwidth {h}"))
                     .at_path(format!("layers[{index}].stat.density.bandwidth"))
                     .with_hint("use \"scott\", \"silverman\" or a positive number in the units of x")
                     .into())
             }
         },
     };
-    let m = d.grid.unwrap_or(256).clamp(2, 10_000) as usize;
+    let m = d.grid.unwrap_or(defaults::DENSITY_GRID).clamp(2, 10_000) as usize;
     let keys = group_keys(&data);
     let groups = group_rows(&data, &keys);
     // One grid for every group, so that densities stack and compare.
@@ -557,19 +572,19 @@ fn densities(index: usize, layer: &Layer, d: &crate::spec::DensitySpec, data: La
             let Some(h) = *h else { continue };
             let dens = if xs.len().saturating_mul(m) > 200_000 { density::kde_binned(xs, h, lo, hi, m) } else { density::kde_exact(xs, h, &grid) };
             for (g, v) in grid.iter().zip(dens) {
-                out.row(rows[0], &[("x", Some(*g)), ("y", Some(v)), ("bandwidth", Some(h))]);
+                out.row(rows[0], &[(Channel::X, Some(*g)), (Channel::Y, Some(v)), (Channel::Bandwidth, Some(h))]);
             }
         }
     }
     let _ = layer;
-    let time: &[&str] = if matches!(x, Values::Time(_)) { &["x"] } else { &[] };
-    Ok(out.finish(&data, &keys, time, &[("x", name_of(&data, "x")), ("y", "density".to_string())]))
+    let time: &[Channel] = if matches!(x, Values::Time(_)) { &[Channel::X] } else { &[] };
+    Ok(out.finish(&data, &keys, time, &[(Channel::X, name_of(&data, Channel::X)), (Channel::Y, "density".to_string())]))
 }
 
 // ------------------------------------------------------------ box
 
 fn boxes(index: usize, data: LayerData) -> Result<LayerData, Errors> {
-    let y = need_numeric(index, &data, "y", "a `box` statistic")?;
+    let y = need_numeric(index, &data, Channel::Y, "a `box` statistic")?;
     let keys = x_and_group_keys(&data);
     let groups = group_rows(&data, &keys);
     let mut out = Out::new();
@@ -579,46 +594,34 @@ fn boxes(index: usize, data: LayerData) -> Result<LayerData, Errors> {
         out.row(
             rows[0],
             &[
-                ("y", Some(b.lower_whisker.min(b.q1))),
-                ("y_end", Some(b.upper_whisker.max(b.q3))),
-                ("q1", Some(b.q1)),
-                ("median", Some(b.median)),
-                ("q3", Some(b.q3)),
-                ("count", Some(b.n as f64)),
+                (Channel::Y, Some(b.lower_whisker.min(b.q1))),
+                (Channel::YEnd, Some(b.upper_whisker.max(b.q3))),
+                (Channel::Q1, Some(b.q1)),
+                (Channel::Median, Some(b.median)),
+                (Channel::Q3, Some(b.q3)),
+                (Channel::Count, Some(b.n as f64)),
             ],
         );
-        out.text("part", "box");
+        out.text(Channel::Part, "box");
         for v in &b.outliers {
-            out.row(rows[0], &[("y", Some(*v)), ("y_end", Some(*v))]);
-            out.text("part", "outlier");
+            out.row(rows[0], &[(Channel::Y, Some(*v)), (Channel::YEnd, Some(*v))]);
+            out.text(Channel::Part, "outlier");
         }
     }
-    let time: &[&str] = if y_is_time(y) { &["y", "y_end", "q1", "median", "q3"] } else { &[] };
-    Ok(out.finish(&data, &keys, time, &[("y", name_of(&data, "y"))]))
+    let time: &[Channel] = if y_is_time(y) { &[Channel::Y, Channel::YEnd, Channel::Q1, Channel::Median, Channel::Q3] } else { &[] };
+    Ok(out.finish(&data, &keys, time, &[(Channel::Y, name_of(&data, Channel::Y))]))
 }
 
 // ------------------------------------------------------------ window
 
 fn windowed(index: usize, w: &crate::spec::WindowSpec, data: LayerData) -> Result<LayerData, Errors> {
-    let y = need_numeric(index, &data, "y", "a `window` statistic")?.clone();
-    let kind = w.summary.as_deref().unwrap_or("mean");
-    if !matches!(kind, "mean" | "sum" | "running_total") {
-        return Err(Diagnostic::error("stat.bad_option", format!("unknown window summary `{kind}`"))
-            .at_path(format!("layers[{index}].stat.window.summary"))
-            .with_hint("use mean, sum or running_total")
-            .into());
-    }
-    let align = match w.align.as_deref() {
-        None | Some("center") | Some("centre") => window::Align::Center,
-        Some("trailing") => window::Align::Trailing,
-        Some(a) => {
-            return Err(Diagnostic::error("stat.bad_option", format!("unknown window alignment `{a}`"))
-                .at_path(format!("layers[{index}].stat.window.align"))
-                .with_hint("use center or trailing")
-                .into())
-        }
+    let y = need_numeric(index, &data, Channel::Y, "a `window` statistic")?.clone();
+    let kind = w.summary.unwrap_or(defaults::WINDOW_SUMMARY);
+    let align = match w.align.unwrap_or(defaults::WINDOW_ALIGN) {
+        WindowAlign::Center => window::Align::Center,
+        WindowAlign::Trailing => window::Align::Trailing,
     };
-    let rows_n = w.rows.unwrap_or(7).max(1) as usize;
+    let rows_n = w.rows.unwrap_or(defaults::WINDOW_ROWS).max(1) as usize;
     let keys = group_keys(&data);
     let groups = group_rows(&data, &keys);
     // Rows in x order within each group (stable, so ties keep data order).
@@ -626,38 +629,38 @@ fn windowed(index: usize, w: &crate::spec::WindowSpec, data: LayerData) -> Resul
     let mut result = Vec::with_capacity(data.len);
     for rows in groups.values() {
         let mut rows = rows.clone();
-        if let Some(x) = data.get("x") {
+        if let Some(x) = data.get(Channel::X) {
             if !x.is_discrete() {
                 rows.sort_by(|a, b| x.num(*a).unwrap_or(f64::INFINITY).total_cmp(&x.num(*b).unwrap_or(f64::INFINITY)));
             }
         }
         let ys: Vec<Option<f64>> = rows.iter().map(|i| y.num(*i)).collect();
         let r = match kind {
-            "running_total" => window::running_total(&ys),
-            "sum" => window::rolling(&ys, rows_n, align, true),
-            _ => window::rolling(&ys, rows_n, align, false),
+            WindowSummary::RunningTotal => window::running_total(&ys),
+            WindowSummary::Sum => window::rolling(&ys, rows_n, align, true),
+            WindowSummary::Mean => window::rolling(&ys, rows_n, align, false),
         };
         order.extend(rows);
         result.extend(r);
     }
     let mut out = LayerData { len: order.len(), ..Default::default() };
     for (k, v) in &data.channels {
-        out.channels.insert(k, v.take(&order));
+        out.channels.insert(*k, v.take(&order));
     }
     out.names = data.names.clone();
-    out.channels.insert("y", if y_is_time(&y) { Values::Time(result.into()) } else { Values::Num(result.into()) });
+    out.channels.insert(Channel::Y, if y_is_time(&y) { Values::Time(result.into()) } else { Values::Num(result.into()) });
     let label = match kind {
-        "running_total" => format!("running total of {}", name_of(&data, "y")),
-        k => format!("{rows_n}-row {k} of {}", name_of(&data, "y")),
+        WindowSummary::RunningTotal => format!("running total of {}", name_of(&data, Channel::Y)),
+        k => format!("{rows_n}-row {} of {}", k.word(), name_of(&data, Channel::Y)),
     };
-    out.names.insert("y", label);
+    out.names.insert(Channel::Y, label);
     Ok(out)
 }
 
 // ------------------------------------------------------------ crowded scatters
 
 fn count_xy(data: &LayerData) -> usize {
-    match (data.get("x"), data.get("y")) {
+    match (data.get(Channel::X), data.get(Channel::Y)) {
         (Some(x), Some(y)) => (0..data.len).filter(|i| x.num(*i).is_some() && y.num(*i).is_some()).count(),
         _ => 0,
     }
@@ -666,7 +669,7 @@ fn count_xy(data: &LayerData) -> usize {
 /// A crowded scatter as 2-D bins: tiles with `x`/`x_end`, `y`/`y_end` and
 /// `count`, per group. `None` when either axis is not numeric.
 fn scatter_tiles(data: &LayerData) -> Option<LayerData> {
-    let (x, y) = (data.get("x")?, data.get("y")?);
+    let (x, y) = (data.get(Channel::X)?, data.get(Channel::Y)?);
     if x.is_discrete() || y.is_discrete() {
         return None;
     }
@@ -698,7 +701,13 @@ fn scatter_tiles(data: &LayerData) -> Option<LayerData> {
                 if k > 0 {
                     out.row(
                         rows[0],
-                        &[("x", Some(xe[c])), ("x_end", Some(xe[c + 1])), ("y", Some(ye[r])), ("y_end", Some(ye[r + 1])), ("count", Some(k as f64))],
+                        &[
+                            (Channel::X, Some(xe[c])),
+                            (Channel::XEnd, Some(xe[c + 1])),
+                            (Channel::Y, Some(ye[r])),
+                            (Channel::YEnd, Some(ye[r + 1])),
+                            (Channel::Count, Some(k as f64)),
+                        ],
                     );
                 }
             }
@@ -706,12 +715,12 @@ fn scatter_tiles(data: &LayerData) -> Option<LayerData> {
     }
     let mut time = vec![];
     if matches!(x, Values::Time(_)) {
-        time.extend(["x", "x_end"]);
+        time.extend([Channel::X, Channel::XEnd]);
     }
     if matches!(y, Values::Time(_)) {
-        time.extend(["y", "y_end"]);
+        time.extend([Channel::Y, Channel::YEnd]);
     }
-    Some(out.finish(data, &keys, &time, &[("x", name_of(data, "x")), ("y", name_of(data, "y"))]))
+    Some(out.finish(data, &keys, &time, &[(Channel::X, name_of(data, Channel::X)), (Channel::Y, name_of(data, Channel::Y))]))
 }
 
 // ------------------------------------------------------------ element cap

@@ -1,6 +1,7 @@
 //! Statistics and position adjustments through the whole pipeline: spec and
 //! data in, plan and scene out.
 
+use crate::channel::Channel;
 use crate::scene::Node;
 use crate::{render, DataBytes, RenderOptions};
 use serde_json::Value;
@@ -77,11 +78,11 @@ fn density_area_matches_exact_kde_and_integrates_to_one() {
     let table =
         crate::data::read(FAITHFUL, &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() })
             .unwrap();
-    let spec = crate::spec::parse_spec(spec).unwrap();
+    let spec = crate::parse_spec(spec).unwrap();
     let plan = crate::plan::build(&spec, &table).unwrap();
     let d = &plan.layers[0].data;
-    let xs: Vec<f64> = (0..d.len).map(|i| d.get("x").unwrap().num(i).unwrap()).collect();
-    let ys: Vec<f64> = (0..d.len).map(|i| d.get("y").unwrap().num(i).unwrap()).collect();
+    let xs: Vec<f64> = (0..d.len).map(|i| d.get(Channel::X).unwrap().num(i).unwrap()).collect();
+    let ys: Vec<f64> = (0..d.len).map(|i| d.get(Channel::Y).unwrap().num(i).unwrap()).collect();
     let (e, _) = faithful_columns();
     let h = crate::stat::density::bandwidth(&e, crate::stat::density::Bandwidth::Silverman).unwrap();
     let exact = crate::stat::density::kde_exact(&e, h, &xs);
@@ -146,22 +147,22 @@ fn quantile_summary_takes_p() {
 #[test]
 fn stack_puts_negatives_below_zero_on_their_own() {
     let csv = b"x,s,v\na,s1,3\na,s2,-2\na,s3,4\na,s4,-1\nb,s1,1\nb,s2,1\n";
-    let spec = crate::spec::parse_spec(r#"{"layers":[{"draw":"bar","x":"x","y":"v","color":"s","arrange":"stack"}]}"#).unwrap();
+    let spec = crate::parse_spec(r#"{"layers":[{"draw":"bar","x":"x","y":"v","color":"s","arrange":"stack"}]}"#).unwrap();
     let table =
         crate::data::read(csv, &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() })
             .unwrap();
     let plan = crate::plan::build(&spec, &table).unwrap();
     let d = &plan.layers[0].data;
-    let col = |c: &str| (0..d.len).map(|i| d.get(c).unwrap().num(i).unwrap()).collect::<Vec<_>>();
-    assert_eq!(col("y_base"), vec![0.0, 0.0, 3.0, -2.0, 0.0, 1.0]);
-    assert_eq!(col("y"), vec![3.0, -2.0, 7.0, -3.0, 1.0, 2.0]);
+    let col = |c: Channel| (0..d.len).map(|i| d.get(c).unwrap().num(i).unwrap()).collect::<Vec<_>>();
+    assert_eq!(col(Channel::YBase), vec![0.0, 0.0, 3.0, -2.0, 0.0, 1.0]);
+    assert_eq!(col(Channel::Y), vec![3.0, -2.0, 7.0, -3.0, 1.0, 2.0]);
 
-    let spec = crate::spec::parse_spec(r#"{"layers":[{"draw":"bar","x":"x","y":"v","color":"s","arrange":"proportion"}]}"#).unwrap();
+    let spec = crate::parse_spec(r#"{"layers":[{"draw":"bar","x":"x","y":"v","color":"s","arrange":"proportion"}]}"#).unwrap();
     let plan = crate::plan::build(&spec, &table).unwrap();
     let d = &plan.layers[0].data;
-    let col = |c: &str| (0..d.len).map(|i| d.get(c).unwrap().num(i).unwrap()).collect::<Vec<_>>();
+    let col = |c: Channel| (0..d.len).map(|i| d.get(c).unwrap().num(i).unwrap()).collect::<Vec<_>>();
     // x = a: |3| + |-2| + |4| + |-1| = 10.
-    assert_eq!(col("y"), vec![0.3, -0.2, 0.7, -0.3, 0.5, 1.0]);
+    assert_eq!(col(Channel::Y), vec![0.3, -0.2, 0.7, -0.3, 0.5, 1.0]);
 }
 
 #[test]
@@ -195,7 +196,7 @@ fn jitter_is_identical_every_run_and_bounded() {
         .collect();
     assert!(xs[0] != xs[1] && xs[1] != xs[2], "points moved apart");
     // Jitter in y is at most 40 % of the resolution (1).
-    let spec_p = crate::spec::parse_spec(spec).unwrap();
+    let spec_p = crate::parse_spec(spec).unwrap();
     let table =
         crate::data::read(csv, &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() })
             .unwrap();
@@ -203,9 +204,9 @@ fn jitter_is_identical_every_run_and_bounded() {
     let d = &plan.layers[0].data;
     let orig = [1.0, 1.0, 1.0, 2.0, 2.0, 3.0];
     for i in 0..d.len {
-        let y = d.get("y").unwrap().num(i).unwrap();
+        let y = d.get(Channel::Y).unwrap().num(i).unwrap();
         assert!((y - orig[i]).abs() <= 0.4);
-        assert!(d.get("x_offset").unwrap().num(i).unwrap().abs() <= 0.3);
+        assert!(d.get(Channel::XOffset).unwrap().num(i).unwrap().abs() <= 0.3);
     }
 }
 
@@ -266,13 +267,13 @@ fn linear_fit_draws_band_under_line_on_anscombe_set_one() {
         &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() },
     )
     .unwrap();
-    let plan = crate::plan::build(&crate::spec::parse_spec(spec).unwrap(), &table).unwrap();
+    let plan = crate::plan::build(&crate::parse_spec(spec).unwrap(), &table).unwrap();
     let d = &plan.layers[1].data;
     for i in 0..d.len {
-        let x = d.get("x").unwrap().num(i).unwrap();
-        let y = d.get("y").unwrap().num(i).unwrap();
+        let x = d.get(Channel::X).unwrap().num(i).unwrap();
+        let y = d.get(Channel::Y).unwrap().num(i).unwrap();
         assert!((y - (3.0 + 0.5 * x)).abs() < 0.01);
-        assert!(d.get("y_low").unwrap().num(i).unwrap() < y && d.get("y_high").unwrap().num(i).unwrap() > y);
+        assert!(d.get(Channel::YLow).unwrap().num(i).unwrap() < y && d.get(Channel::YHigh).unwrap().num(i).unwrap() > y);
     }
 }
 
@@ -289,15 +290,15 @@ fn loess_options_reach_the_fit() {
         &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() },
     )
     .unwrap();
-    let plan = crate::plan::build(&crate::spec::parse_spec(spec).unwrap(), &table).unwrap();
+    let plan = crate::plan::build(&crate::parse_spec(spec).unwrap(), &table).unwrap();
     let d = &plan.layers[0].data;
     // Local quadratics reproduce a parabola (Cleveland & Devlin 1988).
     for i in 0..d.len {
-        let x = d.get("x").unwrap().num(i).unwrap();
-        assert!((d.get("y").unwrap().num(i).unwrap() - x * x).abs() < 1e-8);
+        let x = d.get(Channel::X).unwrap().num(i).unwrap();
+        assert!((d.get(Channel::Y).unwrap().num(i).unwrap() - x * x).abs() < 1e-8);
     }
     // Out-of-range options are caught by the spec's shape check, at their path.
-    let bad = crate::spec::parse_spec(r#"{"layers":[{"draw":"line","x":"x","y":"y","stat":{"fit":"loess","degree":3}}]}"#).unwrap_err();
+    let bad = crate::parse_spec(r#"{"layers":[{"draw":"line","x":"x","y":"y","stat":{"fit":"loess","degree":3}}]}"#).unwrap_err();
     assert_eq!(bad.0[0].at.path, "layers[0].stat.degree");
 }
 
@@ -308,14 +309,14 @@ fn rolling_window_per_group_in_x_order() {
     let table =
         crate::data::read(csv, &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() })
             .unwrap();
-    let plan = crate::plan::build(&crate::spec::parse_spec(spec).unwrap(), &table).unwrap();
+    let plan = crate::plan::build(&crate::parse_spec(spec).unwrap(), &table).unwrap();
     let d = &plan.layers[0].data;
-    let y: Vec<f64> = (0..d.len).map(|i| d.get("y").unwrap().num(i).unwrap()).collect();
+    let y: Vec<f64> = (0..d.len).map(|i| d.get(Channel::Y).unwrap().num(i).unwrap()).collect();
     assert_eq!(y, vec![10.0, 15.0, 25.0, 1.0, 2.0]);
     let spec = r#"{"layers":[{"draw":"line","x":"t","y":"v","color":"g","stat":{"window":{"summary":"running_total"}}}]}"#;
-    let plan = crate::plan::build(&crate::spec::parse_spec(spec).unwrap(), &table).unwrap();
+    let plan = crate::plan::build(&crate::parse_spec(spec).unwrap(), &table).unwrap();
     let d = &plan.layers[0].data;
-    let y: Vec<f64> = (0..d.len).map(|i| d.get("y").unwrap().num(i).unwrap()).collect();
+    let y: Vec<f64> = (0..d.len).map(|i| d.get(Channel::Y).unwrap().num(i).unwrap()).collect();
     assert_eq!(y, vec![10.0, 30.0, 60.0, 1.0, 4.0]);
 }
 
@@ -350,7 +351,13 @@ fn long_line_is_reduced_by_m4() {
     assert!(drawn <= 4.0 * 640.0 && drawn > 640.0, "{drawn}");
     // The single spike survives: the smallest pixel y stands far above the next.
     let Node::Path { d: path, .. } = m[0] else { panic!() };
-    let mut ys: Vec<f64> = path.split(['M', 'L']).filter(|s| !s.is_empty()).map(|p| p.split(',').nth(1).unwrap().parse::<f64>().unwrap()).collect();
+    let mut ys: Vec<f64> = path
+        .iter()
+        .filter_map(|s| match *s {
+            crate::scene::Seg::Move(_, y) | crate::scene::Seg::Line(_, y) => Some(y),
+            _ => None,
+        })
+        .collect();
     ys.sort_by(f64::total_cmp);
     assert!(ys[1] - ys[0] > 30.0, "spike at {} next {}", ys[0], ys[1]);
     assert!(r.svg.len() < 60_000, "{}", r.svg.len());
@@ -499,21 +506,21 @@ fn statistics_group_by_panel_and_colour() {
     let colour = ["p", "p", "q", "q", "p", "p", "p", "q"];
     let panel = ["left", "left", "left", "left", "right", "right", "right", "right"];
     let mut data = LayerData { len: xs.len(), ..Default::default() };
-    data.channels.insert("x", Values::Num(xs.iter().map(|x| Some(*x)).collect()));
-    data.channels.insert("color", Values::Text(colour.iter().map(|s| Some(s.to_string())).collect()));
-    data.channels.insert("panel", Values::Text(panel.iter().map(|s| Some(s.to_string())).collect()));
+    data.channels.insert(Channel::X, Values::Num(xs.iter().map(|x| Some(*x)).collect()));
+    data.channels.insert(Channel::Color, Values::Text(colour.iter().map(|s| Some(s.to_string())).collect()));
+    data.channels.insert(Channel::Panel, Values::Text(panel.iter().map(|s| Some(s.to_string())).collect()));
     let layer: crate::spec::Layer = serde_json::from_str(r#"{"draw":"bar","x":"x","color":"c","stat":{"bin":{"count":2}}}"#).unwrap();
     let out = super::apply(0, &layer, data.clone()).unwrap().data;
     // Four groups (left/p, left/q, right/p, right/q) x two shared bins [1, 2), [2, 3].
     assert_eq!(out.len, 8);
-    let counts: Vec<f64> = (0..out.len).map(|i| out.get("count").unwrap().num(i).unwrap()).collect();
+    let counts: Vec<f64> = (0..out.len).map(|i| out.get(Channel::Count).unwrap().num(i).unwrap()).collect();
     assert_eq!(counts, vec![1.0, 1.0, 0.0, 2.0, 2.0, 1.0, 0.0, 1.0]);
-    assert_eq!(out.get("panel").unwrap().key(2).as_deref(), Some("left"));
-    assert_eq!(out.get("color").unwrap().key(2).as_deref(), Some("q"));
+    assert_eq!(out.get(Channel::Panel).unwrap().key(2).as_deref(), Some("left"));
+    assert_eq!(out.get(Channel::Color).unwrap().key(2).as_deref(), Some("q"));
     // Counts split the same way, and also by x.
     let layer: crate::spec::Layer = serde_json::from_str(r#"{"draw":"bar","x":"x","color":"c","stat":"count"}"#).unwrap();
     let out = super::apply(0, &layer, data).unwrap().data;
-    let n: f64 = (0..out.len).map(|i| out.get("y").unwrap().num(i).unwrap()).sum();
+    let n: f64 = (0..out.len).map(|i| out.get(Channel::Y).unwrap().num(i).unwrap()).sum();
     assert_eq!(n, 8.0);
     // right/p/x=3 and right/q/x=3 are separate rows.
     assert_eq!(out.len, 8);
@@ -548,10 +555,10 @@ fn y_scale_covers_interval_ends() {
     let csv = b"g,v\na,1\na,9\na,2\nb,4\nb,5\nb,15\n";
     let spec = r#"{"layers":[{"draw":"point","x":"g","y":"v","stat":{"summary":"mean","interval":"ci95"}}]}"#;
     let table = crate::data::read(csv, &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), ..Default::default() }).unwrap();
-    let plan = crate::plan::build(&crate::spec::parse_spec(spec).unwrap(), &table).unwrap();
+    let plan = crate::plan::build(&crate::parse_spec(spec).unwrap(), &table).unwrap();
     let d = &plan.layers[0].data;
-    let high = (0..d.len).filter_map(|i| d.get("y_high").unwrap().num(i)).fold(f64::MIN, f64::max);
-    let low = (0..d.len).filter_map(|i| d.get("y_low").unwrap().num(i)).fold(f64::MAX, f64::min);
+    let high = (0..d.len).filter_map(|i| d.get(Channel::YHigh).unwrap().num(i)).fold(f64::MIN, f64::max);
+    let low = (0..d.len).filter_map(|i| d.get(Channel::YLow).unwrap().num(i)).fold(f64::MAX, f64::min);
     let s = &plan.scales.y;
     let (u_hi, u_lo) = (s.unit_num(high).unwrap(), s.unit_num(low).unwrap());
     assert!(u_hi <= 1.0 + 1e-12 && u_lo >= -1e-12, "interval {low}..{high} maps to {u_lo}..{u_hi}");

@@ -8,7 +8,6 @@ pub mod ticks;
 
 use crate::format::{self, Locale};
 use crate::math;
-use crate::plan::Values;
 use ticks::TimeUnit;
 
 /// How a continuous scale bends the data before mapping it linearly.
@@ -127,16 +126,6 @@ impl PositionScale {
                 Some((i as f64 + 0.5) / values.len() as f64)
             }
             PositionScale::Continuous { .. } => None,
-        }
-    }
-
-    /// Unit position of row `i` of a column.
-    pub fn unit(&self, values: &Values, i: usize) -> Option<f64> {
-        match (self, values) {
-            // Numbers on a category scale are found by their text (as `Values::key` writes it).
-            (PositionScale::Category { .. }, Values::Num(v) | Values::Time(v)) => v.get(i).and_then(|x| self.unit_cat(&format!("{x}"))),
-            (_, Values::Num(v) | Values::Time(v)) => v.get(i).and_then(|x| self.unit_num(x)),
-            (_, Values::Text(v)) => v[i].as_deref().and_then(|s| self.unit_cat(s)),
         }
     }
 
@@ -420,80 +409,35 @@ impl SizeScale {
     }
 }
 
-/// The shapes of the shape channel, in the order categories take them.
-pub const SHAPES: [&str; 7] = ["circle", "square", "triangle", "diamond", "plus", "cross", "star"];
-
-/// SVG path data of shape `i` centred at (cx, cy) with the area of a
-/// circle of radius `r`, so no shape looks bigger than another (common practice).
-pub fn shape_path(i: usize, cx: f64, cy: f64, r: f64) -> String {
-    use crate::svg::num;
-    let area = std::f64::consts::PI * r * r;
-    let pts: Vec<(f64, f64)> = match SHAPES[i % SHAPES.len()] {
-        "circle" => {
-            return format!(
-                "M{},{}A{},{} 0 1,1 {},{}A{},{} 0 1,1 {},{}Z",
-                num(cx - r),
-                num(cy),
-                num(r),
-                num(r),
-                num(cx + r),
-                num(cy),
-                num(r),
-                num(r),
-                num(cx - r),
-                num(cy)
-            );
-        }
-        "square" => {
-            let h = area.sqrt() / 2.0;
-            vec![(-h, -h), (h, -h), (h, h), (-h, h)]
-        }
-        "triangle" => {
-            // Equilateral: area = sqrt(3)/4 s^2.
-            let s = (4.0 * area / 3f64.sqrt()).sqrt();
-            let h = s * 3f64.sqrt() / 2.0;
-            vec![(0.0, -2.0 * h / 3.0), (s / 2.0, h / 3.0), (-s / 2.0, h / 3.0)]
-        }
-        "diamond" => {
-            let h = (area / 2.0).sqrt();
-            vec![(0.0, -h), (h, 0.0), (0.0, h), (-h, 0.0)]
-        }
-        "plus" | "cross" => {
-            // A plus of arm width w and span 3w has area 5 w^2.
-            let w = (area / 5.0).sqrt();
-            let (a, b) = (w / 2.0, 1.5 * w);
-            let p = vec![(-a, -b), (a, -b), (a, -a), (b, -a), (b, a), (a, a), (a, b), (-a, b), (-a, a), (-b, a), (-b, -a), (-a, -a)];
-            if SHAPES[i % SHAPES.len()] == "cross" {
-                let c = std::f64::consts::FRAC_1_SQRT_2;
-                p.into_iter().map(|(x, y)| (c * (x - y), c * (x + y))).collect()
-            } else {
-                p
-            }
-        }
-        _ => {
-            // "star": five points; ten triangles of sides s and 0.4 s at 36
-            // degrees have area 10 x 0.5 x 0.4 s^2 sin 36.
-            let sin36 = math::sin(std::f64::consts::PI / 5.0);
-            let s = (area / (2.0 * sin36)).sqrt();
-            let mut p = Vec::new();
-            for k in 0..10 {
-                let ang = std::f64::consts::PI / 5.0 * k as f64 - std::f64::consts::FRAC_PI_2;
-                let rr = if k % 2 == 0 { s } else { s * 0.4 };
-                p.push((rr * math::cos(ang), rr * math::sin(ang)));
-            }
-            p
-        }
-    };
-    let mut d = String::new();
-    for (k, (x, y)) in pts.iter().enumerate() {
-        d.push(if k == 0 { 'M' } else { 'L' });
-        d.push_str(&num(cx + x));
-        d.push(',');
-        d.push_str(&num(cy + y));
-    }
-    d.push('Z');
-    d
+/// A shape of the shape channel.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum MarkShape {
+    Circle,
+    Square,
+    Triangle,
+    Diamond,
+    Plus,
+    Cross,
+    Star,
 }
+
+impl MarkShape {
+    pub fn name(self) -> &'static str {
+        match self {
+            MarkShape::Circle => "circle",
+            MarkShape::Square => "square",
+            MarkShape::Triangle => "triangle",
+            MarkShape::Diamond => "diamond",
+            MarkShape::Plus => "plus",
+            MarkShape::Cross => "cross",
+            MarkShape::Star => "star",
+        }
+    }
+}
+
+/// The shapes of the shape channel, in the order categories take them.
+pub const SHAPES: [MarkShape; 7] =
+    [MarkShape::Circle, MarkShape::Square, MarkShape::Triangle, MarkShape::Diamond, MarkShape::Plus, MarkShape::Cross, MarkShape::Star];
 
 #[cfg(test)]
 mod tests {
@@ -598,30 +542,5 @@ mod tests {
         assert_eq!(s.legend_values(), vec![25.0, 50.0, 100.0]);
         let s = SizeScale { lo: 0.0, hi: 99.2, max_radius: 10.0 };
         assert_eq!(s.legend_values(), vec![25.0, 50.0, 75.0]);
-    }
-
-    #[test]
-    fn shapes_have_equal_area() {
-        // Shoelace area of each polygon equals pi r^2 (circle excluded).
-        for i in 1..SHAPES.len() {
-            let d = shape_path(i, 0.0, 0.0, 10.0);
-            let pts: Vec<(f64, f64)> = d
-                .trim_end_matches('Z')
-                .split(['M', 'L'])
-                .filter(|s| !s.is_empty())
-                .map(|p| {
-                    let (x, y) = p.split_once(',').unwrap();
-                    (x.parse().unwrap(), y.parse().unwrap())
-                })
-                .collect();
-            let mut area = 0.0;
-            for k in 0..pts.len() {
-                let (a, b) = (pts[k], pts[(k + 1) % pts.len()]);
-                area += a.0 * b.1 - b.0 * a.1;
-            }
-            let area = area.abs() / 2.0;
-            let want = std::f64::consts::PI * 100.0;
-            assert!((area - want).abs() / want < 0.02, "{} {area}", SHAPES[i]);
-        }
     }
 }

@@ -1,7 +1,8 @@
 //! Coordinate systems: unit positions (0..1 along each scale) to pixels.
 
+use super::{polyline, Seg};
 use crate::math;
-use crate::spec::{AngleChannel, Coords};
+use crate::plan::{AngleChannel, Coords};
 
 /// The panel's pixel rectangle.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -37,7 +38,7 @@ pub enum Coord {
 /// A shape in pixels for an extent between two unit corners.
 pub enum Area {
     Rect { x: f64, y: f64, width: f64, height: f64 },
-    Path(String),
+    Path(Vec<Seg>),
 }
 
 impl Coord {
@@ -95,7 +96,7 @@ impl Coord {
                     let t = k as f64 / steps as f64;
                     pts.push(self.point(x0 + (x1 - x0) * t, y0));
                 }
-                Area::Path(path_d(&pts, true))
+                Area::Path(polyline(&pts, true))
             }
         }
     }
@@ -128,19 +129,4 @@ impl Coord {
 
 pub fn polar_centre(f: Frame) -> (f64, f64, f64) {
     (f.left + f.width / 2.0, f.top + f.height / 2.0, f.width.min(f.height) / 2.0)
-}
-
-/// SVG path data through pixel points, 2 decimals.
-pub fn path_d(pts: &[(f64, f64)], close: bool) -> String {
-    let mut d = String::with_capacity(pts.len() * 14);
-    for (i, (x, y)) in pts.iter().enumerate() {
-        d.push(if i == 0 { 'M' } else { 'L' });
-        d.push_str(&crate::svg::num(*x));
-        d.push(',');
-        d.push_str(&crate::svg::num(*y));
-    }
-    if close {
-        d.push('Z');
-    }
-    d
 }

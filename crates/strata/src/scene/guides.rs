@@ -7,11 +7,12 @@
 //! (compact numbers, shorter dates, truncated words).
 
 use super::coord::{Coord, Frame};
-use super::{Anchor, Node, Paint};
+use super::{polyline, shape_path, Anchor, Node, Paint};
+use crate::channel::Channel;
 use crate::color::Palette;
 use crate::format::Locale;
 use crate::plan::{ColorScale, Scales};
-use crate::scale::{shape_path, PositionScale, Tick, TickOptions};
+use crate::scale::{PositionScale, Tick, TickOptions};
 use crate::text;
 
 /// Default size of tick labels, legend text and axis titles; the theme's
@@ -430,7 +431,7 @@ pub struct Legend {
     pub title: String,
     pub body: LegendBody,
     /// `color`, `size` or `shape`.
-    pub channel: &'static str,
+    pub channel: Channel,
     /// Text size of its title and labels.
     pub size: f64,
 }
@@ -439,7 +440,7 @@ pub struct Legend {
 pub fn legends(scales: &Scales, default_color: &str, size: f64) -> Vec<Legend> {
     let mut out = Vec::new();
     let loc = scales.locale;
-    let hidden = |s: &crate::spec::ScaleSpec| s.hide || s.legend == Some(crate::spec::Placement::None);
+    let hidden = |s: &crate::plan::ScaleSpec| s.hide || s.legend == Some(crate::plan::Placement::None);
     // Colour and shape of the same categories share one legend of coloured shapes.
     let merged = matches!((&scales.color, &scales.shape), (Some(ColorScale::Categories(c)), Some(s)) if c == s && scales.color_title == scales.shape_title);
     match &scales.color {
@@ -447,7 +448,7 @@ pub fn legends(scales: &Scales, default_color: &str, size: f64) -> Vec<Legend> {
         Some(ColorScale::Categories(cats)) if !hidden(&scales.color_spec) => {
             let vals = crate::plan::Values::Text(cats.iter().cloned().map(Some).collect());
             let items = cats.iter().enumerate().map(|(i, c)| (c.clone(), scales.color_of(&vals, i).unwrap_or_default())).collect();
-            out.push(Legend { title: scales.color_title.clone(), body: LegendBody::Swatches(items), channel: "color", size });
+            out.push(Legend { title: scales.color_title.clone(), body: LegendBody::Swatches(items), channel: Channel::Color, size });
         }
         Some(ColorScale::Ramp { lo, hi }) if !hidden(&scales.color_spec) => {
             let (lo, hi) = (*lo, *hi);
@@ -456,7 +457,7 @@ pub fn legends(scales: &Scales, default_color: &str, size: f64) -> Vec<Legend> {
                 .collect();
             let scale = PositionScale::linear(lo, hi);
             let ticks = scale.ticks_with(&TickOptions { wanted: 3, pattern: scales.color_spec.format.as_deref(), locale: loc, short: false });
-            out.push(Legend { title: scales.color_title.clone(), body: LegendBody::Gradient { colors, ticks }, channel: "color", size });
+            out.push(Legend { title: scales.color_title.clone(), body: LegendBody::Gradient { colors, ticks }, channel: Channel::Color, size });
         }
         _ => {}
     }
@@ -466,14 +467,14 @@ pub fn legends(scales: &Scales, default_color: &str, size: f64) -> Vec<Legend> {
             let step = if vals.len() > 1 { vals[1] - vals[0] } else { vals.first().copied().unwrap_or(1.0) };
             let pattern = scales.size_spec.format.clone().unwrap_or_else(|| crate::format::default_pattern(step));
             let items = vals.iter().filter_map(|v| Some((crate::format::number(*v, &pattern, loc), s.radius(*v)?))).collect();
-            out.push(Legend { title: scales.size_title.clone(), body: LegendBody::Sizes(items), channel: "size", size });
+            out.push(Legend { title: scales.size_title.clone(), body: LegendBody::Sizes(items), channel: Channel::Size, size });
         }
     }
     if let Some(cats) = &scales.shape {
         if !hidden(&scales.shape_spec) {
             let vals = crate::plan::Values::Text(cats.iter().cloned().map(Some).collect());
             let items = cats.iter().enumerate().map(|(i, c)| (c.clone(), i, merged.then(|| scales.color_of(&vals, i)).flatten())).collect();
-            let l = Legend { title: scales.shape_title.clone(), body: LegendBody::Shapes(items), channel: "shape", size };
+            let l = Legend { title: scales.shape_title.clone(), body: LegendBody::Shapes(items), channel: Channel::Shape, size };
             if merged {
                 out.insert(0, l)
             } else {
@@ -690,8 +691,8 @@ pub fn rows(l: &Legend, x: f64, y: f64, max_width: f64, pal: &Palette, default_c
 
 fn wrap_legend(l: &Legend, kids: Vec<Node>) -> Node {
     let what = match l.channel {
-        "size" => "size",
-        "shape" => "shape",
+        Channel::Size => "size",
+        Channel::Shape => "shape",
         _ => "colour",
     };
     let label = if l.title.is_empty() { format!("{what} legend") } else { format!("{what} legend: {}", l.title) };
@@ -767,7 +768,7 @@ pub fn polar(coord: &Coord, angle_is_x: bool, angle_ticks: &[Tick], radius_ticks
         }
         let steps = 72;
         let pts: Vec<(f64, f64)> = (0..=steps).map(|k| at(k as f64 / steps as f64, t.unit)).collect();
-        grid.push(Node::Path { d: super::coord::path_d(&pts, true), paint: Paint::stroke(&pal.grid, 1.0), datum: None });
+        grid.push(Node::Path { d: polyline(&pts, true), paint: Paint::stroke(&pal.grid, 1.0), datum: None });
     }
     for t in angle_ticks {
         let (x0, y0) = at(t.unit, 0.0);

@@ -4,11 +4,13 @@
 //! by M4 (first, last, lowest and highest point per column; Jugel et al.
 //! 2014) at the width being drawn, which draws the same pixels.
 
-use super::coord::{path_d, Area, Coord};
-use super::{Anchor, Datum, Node, Paint};
+use super::coord::{Area, Coord};
+use super::{polyline, shape_path, Anchor, Datum, Node, Paint, Seg};
+use crate::channel::Channel;
+use crate::plan::{Arrange, Geometry, PointShape};
 use crate::plan::{ColorScale, PlannedLayer, Scales, Values};
+use crate::scale::{MarkShape, SHAPES};
 use crate::scale::{PositionScale, Transform};
-use crate::spec::{Arrange, Geometry};
 
 /// What a layer needs from outside: the scales, coordinates and theme mark colour.
 pub struct Ctx<'a> {
@@ -20,7 +22,7 @@ pub struct Ctx<'a> {
 }
 
 fn datum(layer: &PlannedLayer, i: usize) -> Datum {
-    let mut d: Datum = layer.data.channels.iter().filter(|(k, _)| !crate::plan::DRAWING_AIDS.contains(k)).map(|(k, v)| (k.to_string(), v.json(i))).collect();
+    let mut d: Datum = layer.data.channels.iter().filter(|(k, _)| !k.is_drawing_aid()).map(|(k, v)| (k.name().to_string(), v.json(i))).collect();
     // `tip` columns ride along under one key; the SVG writer turns them into
     // a hover title and makes the mark keyboard-focusable.
     if !layer.data.tips.is_empty() && layer.data.tips.iter().all(|(_, v)| v.len() == layer.data.len) {
@@ -31,7 +33,7 @@ fn datum(layer: &PlannedLayer, i: usize) -> Datum {
 }
 
 fn color_of(ctx: &Ctx, layer: &PlannedLayer, i: usize) -> String {
-    if let Some(c) = layer.data.get("color").and_then(|vals| ctx.scales.color_of(vals, i)) {
+    if let Some(c) = layer.data.get(Channel::Color).and_then(|vals| ctx.scales.color_of(vals, i)) {
         return c;
     }
     layer.style.color.clone().unwrap_or_else(|| ctx.default_color.to_string())
@@ -41,7 +43,7 @@ fn color_of(ctx: &Ctx, layer: &PlannedLayer, i: usize) -> String {
 /// jitter offset (a fraction of the band).
 fn ux(ctx: &Ctx, layer: &PlannedLayer, v: &Values, i: usize) -> Option<f64> {
     let u = ctx.scales.x.unit(v, i)?;
-    let off = layer.data.get("x_offset").and_then(|o| o.num(i)).unwrap_or(0.0);
+    let off = layer.data.get(Channel::XOffset).and_then(|o| o.num(i)).unwrap_or(0.0);
     Some(u + off * ctx.scales.x.band())
 }
 
@@ -54,8 +56,8 @@ pub fn layer_marks(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         Geometry::Point => points(ctx, layer),
         Geometry::Line | Geometry::Step => lines(ctx, layer),
         Geometry::Bar => bars(ctx, layer),
-        Geometry::Area => bands(ctx, layer, "y", Band::Base),
-        Geometry::Ribbon => bands(ctx, layer, "y", Band::End),
+        Geometry::Area => bands(ctx, layer, Channel::Y, Band::Base),
+        Geometry::Ribbon => bands(ctx, layer, Channel::Y, Band::End),
         Geometry::Rule => rules(ctx, layer),
         Geometry::Range => ranges(ctx, layer),
         Geometry::Box => boxes(ctx, layer),
@@ -66,11 +68,11 @@ pub fn layer_marks(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
 
 /// Channels that split a layer's rows into series: a line never joins two
 /// colours, groups or panels.
-const SERIES_CHANNELS: [&str; 5] = ["color", "group", "panel", "panel_row", "panel_col"];
+const SERIES_CHANNELS: [Channel; 5] = [Channel::Color, Channel::Group, Channel::Panel, Channel::PanelRow, Channel::PanelCol];
 
 /// Rows split into series by colour, group and panel, in order of first appearance.
 fn series(layer: &PlannedLayer) -> Vec<Vec<usize>> {
-    let cols: Vec<&Values> = SERIES_CHANNELS.iter().filter_map(|c| layer.data.get(c)).collect();
+    let cols: Vec<&Values> = SERIES_CHANNELS.iter().filter_map(|c| layer.data.get(*c)).collect();
     if cols.is_empty() {
         return vec![(0..layer.data.len).collect()];
     }
@@ -95,12 +97,12 @@ fn series_datum(layer: &PlannedLayer, first: usize) -> Datum {
 // ------------------------------------------------------------ points
 
 fn points(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
-    let (Some(xv), Some(yv)) = (layer.data.get("x"), layer.data.get("y")) else { return vec![] };
+    let (Some(xv), Some(yv)) = (layer.data.get(Channel::X), layer.data.get(Channel::Y)) else { return vec![] };
     let r = layer.style.radius.unwrap_or(3.5);
-    let (lo, hi) = (layer.data.get("y_low"), layer.data.get("y_high"));
+    let (lo, hi) = (layer.data.get(Channel::YLow), layer.data.get(Channel::YHigh));
     let beside = beside_keys(ctx, layer);
     // `style.shape`: one shape for every point (a circle stays a <circle>).
-    let fixed_shape = layer.style.shape.as_deref().and_then(|s| crate::scale::SHAPES.iter().position(|k| *k == s)).filter(|k| *k != 0);
+    let fixed_shape = layer.style.shape.map(mark_shape).and_then(|m| SHAPES.iter().position(|k| *k == m)).filter(|k| *k != 0);
     let mut out = Vec::with_capacity(layer.data.len);
     for i in 0..layer.data.len {
         let (Some(mut ux), Some(uy)) = (ux(ctx, layer, xv, i), ctx.scales.y.unit(yv, i)) else { continue };
@@ -119,14 +121,26 @@ fn points(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         let mut paint = Paint::fill(&c);
         paint.opacity = layer.style.opacity;
         // Size and shape scales (plan/scales.rs): area-true radius, shape by category.
-        let r = layer.data.get("size").and_then(|v| ctx.scales.radius_of(v, i)).unwrap_or(r);
-        if let Some(k) = layer.data.get("shape").and_then(|v| ctx.scales.shape_of(v, i)).or(fixed_shape) {
-            out.push(Node::Path { d: crate::scale::shape_path(k, cx, cy, r), paint, datum: Some(datum(layer, i)) });
+        let r = layer.data.get(Channel::Size).and_then(|v| ctx.scales.radius_of(v, i)).unwrap_or(r);
+        if let Some(k) = layer.data.get(Channel::Shape).and_then(|v| ctx.scales.shape_of(v, i)).or(fixed_shape) {
+            out.push(Node::Path { d: shape_path(k, cx, cy, r), paint, datum: Some(datum(layer, i)) });
             continue;
         }
         out.push(Node::Circle { cx, cy, r, paint, datum: Some(datum(layer, i)) });
     }
     out
+}
+
+/// The drawn shape of a `style.shape` word.
+fn mark_shape(s: PointShape) -> MarkShape {
+    match s {
+        PointShape::Circle => MarkShape::Circle,
+        PointShape::Square => MarkShape::Square,
+        PointShape::Triangle => MarkShape::Triangle,
+        PointShape::Diamond => MarkShape::Diamond,
+        PointShape::Plus => MarkShape::Plus,
+        PointShape::Cross => MarkShape::Cross,
+    }
 }
 
 /// A vertical (in data terms) segment from a to b at x with caps `cap` px wide.
@@ -137,22 +151,7 @@ fn error_bar(ctx: &Ctx, ux: f64, a: f64, b: f64, cap: f64, c: &str, datum: Optio
     let capped = |p: (f64, f64)| if flip { ((p.0, p.1 - cap), (p.0, p.1 + cap)) } else { ((p.0 - cap, p.1), (p.0 + cap, p.1)) };
     let (c0, c1) = capped(p0);
     let (d0, d1) = capped(p1);
-    let num = crate::svg::num;
-    let d = format!(
-        "M{},{}L{},{}M{},{}L{},{}M{},{}L{},{}",
-        num(p0.0),
-        num(p0.1),
-        num(p1.0),
-        num(p1.1),
-        num(c0.0),
-        num(c0.1),
-        num(c1.0),
-        num(c1.1),
-        num(d0.0),
-        num(d0.1),
-        num(d1.0),
-        num(d1.1)
-    );
+    let d = vec![Seg::Move(p0.0, p0.1), Seg::Line(p1.0, p1.1), Seg::Move(c0.0, c0.1), Seg::Line(c1.0, c1.1), Seg::Move(d0.0, d0.1), Seg::Line(d1.0, d1.1)];
     Node::Path { d, paint: Paint::stroke(c, 1.5), datum }
 }
 
@@ -219,7 +218,7 @@ impl RowSet {
 }
 
 fn line_series(layer: &PlannedLayer) -> Vec<RowSet> {
-    if SERIES_CHANNELS.iter().all(|c| layer.data.get(c).is_none()) {
+    if SERIES_CHANNELS.iter().all(|c| layer.data.get(*c).is_none()) {
         return vec![RowSet::All(layer.data.len)];
     }
     series(layer).into_iter().map(RowSet::List).collect()
@@ -240,9 +239,9 @@ fn column_of(ctx: &Ctx) -> Option<(f64, f64)> {
 /// Sorted, crowded series (the common case for big data) are reduced in one
 /// streaming pass without materialising every point; others are collected,
 /// sorted and then reduced, with the same result.
-fn series_units(ctx: &Ctx, layer: &PlannedLayer, rows: &RowSet, ych: &str) -> (Vec<(f64, f64)>, usize, bool) {
-    let (Some(xv), Some(yv)) = (layer.data.get("x"), layer.data.get(ych)) else { return (vec![], 0, false) };
-    let off = layer.data.get("x_offset");
+fn series_units(ctx: &Ctx, layer: &PlannedLayer, rows: &RowSet, ych: Channel) -> (Vec<(f64, f64)>, usize, bool) {
+    let (Some(xv), Some(yv)) = (layer.data.get(Channel::X), layer.data.get(ych)) else { return (vec![], 0, false) };
+    let off = layer.data.get(Channel::XOffset);
     let band = ctx.scales.x.band();
     let unit = |i: usize| -> Option<(f64, f64)> {
         let mut u = ctx.scales.x.unit(xv, i)?;
@@ -350,10 +349,10 @@ fn m4_stream(points: impl Iterator<Item = (f64, f64)>, origin: f64, extent: f64)
 fn lines(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     let width = layer.style.width.unwrap_or(2.0);
     let mut out = Vec::new();
-    let banded = layer.data.get("y_low").is_some() && layer.data.get("y_high").is_some();
+    let banded = layer.data.get(Channel::YLow).is_some() && layer.data.get(Channel::YHigh).is_some();
     for rows in line_series(layer) {
         let Some(first) = rows.first() else { continue };
-        let (drawn, total, reduced) = series_units(ctx, layer, &rows, "y");
+        let (drawn, total, reduced) = series_units(ctx, layer, &rows, Channel::Y);
         if drawn.is_empty() {
             continue;
         }
@@ -364,7 +363,7 @@ fn lines(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
                 RowSet::All(n) => (0..*n).collect(),
                 RowSet::List(v) => v.clone(),
             };
-            out.extend(band_path(ctx, layer, &list, "y_low", "y_high", &c, layer.style.opacity.unwrap_or(1.0) * 0.25));
+            out.extend(band_path(ctx, layer, &list, Channel::YLow, Channel::YHigh, &c, layer.style.opacity.unwrap_or(1.0) * 0.25));
         }
         let mut stepped: Vec<(f64, f64)> = Vec::with_capacity(drawn.len() * 2);
         for (k, p) in drawn.iter().enumerate() {
@@ -382,7 +381,7 @@ fn lines(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         if reduced {
             d.insert("drawn_points".into(), serde_json::Value::from(drawn.len()));
         }
-        out.push(Node::Path { d: path_d(&px, false), paint, datum: Some(d) });
+        out.push(Node::Path { d: polyline(&px, false), paint, datum: Some(d) });
     }
     out
 }
@@ -396,7 +395,7 @@ enum Band {
     End,
 }
 
-fn bands(ctx: &Ctx, layer: &PlannedLayer, _y: &str, kind: Band) -> Vec<Node> {
+fn bands(ctx: &Ctx, layer: &PlannedLayer, _y: Channel, kind: Band) -> Vec<Node> {
     let mut out = Vec::new();
     for rows in series(layer) {
         let Some(&first) = rows.first() else { continue };
@@ -406,8 +405,8 @@ fn bands(ctx: &Ctx, layer: &PlannedLayer, _y: &str, kind: Band) -> Vec<Node> {
             Band::End => 0.3,
         });
         let (lo, hi) = match kind {
-            Band::Base => ("y_base", "y"),
-            Band::End => ("y", "y_end"),
+            Band::Base => (Channel::YBase, Channel::Y),
+            Band::End => (Channel::Y, Channel::YEnd),
         };
         out.extend(band_path(ctx, layer, &rows, lo, hi, &c, opacity));
     }
@@ -415,8 +414,8 @@ fn bands(ctx: &Ctx, layer: &PlannedLayer, _y: &str, kind: Band) -> Vec<Node> {
 }
 
 /// A filled band between channels `lo` and `hi` over x, for one series.
-fn band_path(ctx: &Ctx, layer: &PlannedLayer, rows: &[usize], lo: &str, hi: &str, c: &str, opacity: f64) -> Option<Node> {
-    let xv = layer.data.get("x")?;
+fn band_path(ctx: &Ctx, layer: &PlannedLayer, rows: &[usize], lo: Channel, hi: Channel, c: &str, opacity: f64) -> Option<Node> {
+    let xv = layer.data.get(Channel::X)?;
     let hv = layer.data.get(hi)?;
     let lv = layer.data.get(lo);
     let zero = ctx.scales.y.unit_num(0.0).unwrap_or(0.0);
@@ -466,7 +465,7 @@ fn band_path(ctx: &Ctx, layer: &PlannedLayer, rows: &[usize], lo: &str, hi: &str
     paint.opacity = Some(opacity);
     let mut d = series_datum(layer, rows[0]);
     d.insert("points".into(), serde_json::Value::from(pts.len()));
-    Some(Node::Path { d: path_d(&outline, true), paint, datum: Some(d) })
+    Some(Node::Path { d: polyline(&outline, true), paint, datum: Some(d) })
 }
 
 // ------------------------------------------------------------ bars
@@ -475,16 +474,16 @@ fn band_path(ctx: &Ctx, layer: &PlannedLayer, rows: &[usize], lo: &str, hi: &str
 /// x..x_end when an end is given, or 1 % of the axis; split among colour
 /// categories when the layer is arranged `beside`.
 fn x_extent(ctx: &Ctx, layer: &PlannedLayer, i: usize, fraction: f64, beside: &[String]) -> Option<(f64, f64)> {
-    let xv = layer.data.get("x")?;
+    let xv = layer.data.get(Channel::X)?;
     let cx = ux(ctx, layer, xv, i)?;
     let band = ctx.scales.x.band();
     let (mut x0, mut x1) = if band > 0.0 { (cx - band * fraction / 2.0, cx + band * fraction / 2.0) } else { (cx - 0.005, cx + 0.005) };
-    if let Some(xe) = layer.data.get("x_end").and_then(|v| ctx.scales.x.unit(v, i)) {
+    if let Some(xe) = layer.data.get(Channel::XEnd).and_then(|v| ctx.scales.x.unit(v, i)) {
         x0 = cx.min(xe);
         x1 = cx.max(xe);
     }
     if !beside.is_empty() {
-        if let Some(k) = layer.data.get("color").and_then(|c| c.key(i)).and_then(|k| beside.iter().position(|b| *b == k)) {
+        if let Some(k) = layer.data.get(Channel::Color).and_then(|c| c.key(i)).and_then(|k| beside.iter().position(|b| *b == k)) {
             let w = (x1 - x0) / beside.len() as f64;
             x0 += w * k as f64;
             x1 = x0 + w;
@@ -494,7 +493,7 @@ fn x_extent(ctx: &Ctx, layer: &PlannedLayer, i: usize, fraction: f64, beside: &[
 }
 
 fn beside_keys(ctx: &Ctx, layer: &PlannedLayer) -> Vec<String> {
-    if layer.arrange != Arrange::Beside || layer.data.get("color").is_none() {
+    if layer.arrange != Arrange::Beside || layer.data.get(Channel::Color).is_none() {
         return vec![];
     }
     match &ctx.scales.color {
@@ -511,11 +510,11 @@ fn rect_node(ctx: &Ctx, x0: f64, x1: f64, y0: f64, y1: f64, paint: Paint, datum:
 }
 
 fn bars(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
-    let Some(yv) = layer.data.get("y") else { return vec![] };
-    let base = layer.data.get("y_base");
+    let Some(yv) = layer.data.get(Channel::Y) else { return vec![] };
+    let base = layer.data.get(Channel::YBase);
     let fraction = layer.style.band.unwrap_or(0.8).clamp(0.05, 1.0);
     let beside = beside_keys(ctx, layer);
-    let (lo, hi) = (layer.data.get("y_low"), layer.data.get("y_high"));
+    let (lo, hi) = (layer.data.get(Channel::YLow), layer.data.get(Channel::YHigh));
     let mut out = Vec::with_capacity(layer.data.len);
     let mut bars_after = Vec::new();
     for i in 0..layer.data.len {
@@ -538,8 +537,8 @@ fn bars(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
 
 fn rules(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     let width = layer.style.width.unwrap_or(1.5);
-    let (xv, yv) = (layer.data.get("x"), layer.data.get("y"));
-    let (xe, ye) = (layer.data.get("x_end"), layer.data.get("y_end"));
+    let (xv, yv) = (layer.data.get(Channel::X), layer.data.get(Channel::Y));
+    let (xe, ye) = (layer.data.get(Channel::XEnd), layer.data.get(Channel::YEnd));
     let mut out = Vec::new();
     for i in 0..layer.data.len {
         let ux0 = xv.and_then(|v| ux(ctx, layer, v, i));
@@ -558,13 +557,13 @@ fn rules(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         let mut paint = Paint::stroke(&color_of(ctx, layer, i), width);
         paint.opacity = layer.style.opacity;
         paint.dash = layer.style.dash.clone();
-        out.push(Node::Path { d: path_d(&px, false), paint, datum: Some(datum(layer, i)) });
+        out.push(Node::Path { d: polyline(&px, false), paint, datum: Some(datum(layer, i)) });
     }
     out
 }
 
 fn ranges(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
-    let (Some(xv), Some(yv), Some(ye)) = (layer.data.get("x"), layer.data.get("y"), layer.data.get("y_end")) else {
+    let (Some(xv), Some(yv), Some(ye)) = (layer.data.get(Channel::X), layer.data.get(Channel::Y), layer.data.get(Channel::YEnd)) else {
         return rules(ctx, layer);
     };
     let beside = beside_keys(ctx, layer);
@@ -580,7 +579,7 @@ fn ranges(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         }
         out.push(node);
         // The estimate, when the interval came from a summary.
-        if let Some(e) = layer.data.get("estimate").and_then(|v| v.num(i)).and_then(|v| ctx.scales.y.unit_num(v)) {
+        if let Some(e) = layer.data.get(Channel::Estimate).and_then(|v| v.num(i)).and_then(|v| ctx.scales.y.unit_num(v)) {
             let (cx, cy) = ctx.coord.point(0.5 * (x0 + x1), e);
             out.push(Node::Circle { cx, cy, r: 3.0, paint: Paint::fill(&c), datum: None });
         }
@@ -592,11 +591,11 @@ fn ranges(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
 
 fn boxes(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     let d = &layer.data;
-    let (Some(yv), Some(ye)) = (d.get("y"), d.get("y_end")) else { return vec![] };
-    let part = d.get("part");
+    let (Some(yv), Some(ye)) = (d.get(Channel::Y), d.get(Channel::YEnd)) else { return vec![] };
+    let part = d.get(Channel::Part);
     let fraction = layer.style.band.unwrap_or(0.6).clamp(0.05, 1.0);
     let beside = beside_keys(ctx, layer);
-    let unit = |ch: &str, i: usize| d.get(ch).and_then(|v| v.num(i)).and_then(|v| ctx.scales.y.unit_num(v));
+    let unit = |ch: Channel, i: usize| d.get(ch).and_then(|v| v.num(i)).and_then(|v| ctx.scales.y.unit_num(v));
     let mut out = Vec::new();
     for i in 0..d.len {
         let Some((x0, x1)) = x_extent(ctx, layer, i, fraction, &beside) else { continue };
@@ -609,7 +608,7 @@ fn boxes(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
             continue;
         }
         let (Some(lw), Some(uw), Some(q1), Some(med), Some(q3)) =
-            (ctx.scales.y.unit(yv, i), ctx.scales.y.unit(ye, i), unit("q1", i), unit("median", i), unit("q3", i))
+            (ctx.scales.y.unit(yv, i), ctx.scales.y.unit(ye, i), unit(Channel::Q1, i), unit(Channel::Median, i), unit(Channel::Q3, i))
         else {
             continue;
         };
@@ -625,14 +624,11 @@ fn boxes(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         if uw > q3 {
             lines.push(seg((xm, q3), (xm, uw)));
         }
-        let mut dd = String::new();
-        for l in &lines {
-            dd.push_str(&path_d(l, false));
-        }
+        let dd: Vec<Seg> = lines.iter().flat_map(|l| polyline(l, false)).collect();
         out.push(Node::Path { d: dd, paint: Paint::stroke(&c, 1.5), datum: None });
         // The box outline.
         let outline = ctx.coord.line(&[(x0, q1), (x1, q1), (x1, q3), (x0, q3)]);
-        out.push(Node::Path { d: path_d(&outline, true), paint: Paint::stroke(&c, 1.5), datum: None });
+        out.push(Node::Path { d: polyline(&outline, true), paint: Paint::stroke(&c, 1.5), datum: None });
     }
     out
 }
@@ -641,24 +637,24 @@ fn boxes(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
 
 fn tiles(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     let d = &layer.data;
-    let (Some(xv), Some(yv)) = (d.get("x"), d.get("y")) else { return vec![] };
-    let counts = d.get("count");
+    let (Some(xv), Some(yv)) = (d.get(Channel::X), d.get(Channel::Y)) else { return vec![] };
+    let counts = d.get(Channel::Count);
     let max_count = counts.map(|c| (0..d.len).filter_map(|i| c.num(i)).fold(0.0, f64::max)).unwrap_or(0.0);
     let (xb, yb) = (ctx.scales.x.band(), ctx.scales.y.band());
     let mut out = Vec::with_capacity(d.len);
     for i in 0..d.len {
         let (Some(ux0), Some(uy0)) = (ctx.scales.x.unit(xv, i), ctx.scales.y.unit(yv, i)) else { continue };
-        let (x0, x1) = match d.get("x_end").and_then(|v| ctx.scales.x.unit(v, i)) {
+        let (x0, x1) = match d.get(Channel::XEnd).and_then(|v| ctx.scales.x.unit(v, i)) {
             Some(e) => (ux0, e),
             None => (ux0 - xb / 2.0, ux0 + xb / 2.0),
         };
-        let (y0, y1) = match d.get("y_end").and_then(|v| ctx.scales.y.unit(v, i)) {
+        let (y0, y1) = match d.get(Channel::YEnd).and_then(|v| ctx.scales.y.unit(v, i)) {
             Some(e) => (uy0, e),
             None => (uy0 - yb / 2.0, uy0 + yb / 2.0),
         };
         let mut paint = Paint::fill(&color_of(ctx, layer, i));
         // Without a colour channel, shade by count: darker is more.
-        paint.opacity = match (d.get("color"), counts.and_then(|c| c.num(i))) {
+        paint.opacity = match (d.get(Channel::Color), counts.and_then(|c| c.num(i))) {
             (None, Some(k)) if max_count > 0.0 => Some(0.15 + 0.85 * (k / max_count).sqrt()),
             _ => layer.style.opacity,
         };
@@ -666,7 +662,7 @@ fn tiles(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     }
     // A note in the plot's corner saying what the shading means (a crowded
     // scatter drawn as tiles, or any tiles shaded by count).
-    if d.get("color").is_none() && max_count > 0.0 && !out.is_empty() {
+    if d.get(Channel::Color).is_none() && max_count > 0.0 && !out.is_empty() {
         let f = ctx.coord.frame();
         out.push(Node::Text {
             x: f.right() - 4.0,
@@ -685,8 +681,8 @@ fn tiles(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
 
 fn labels(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     let d = &layer.data;
-    let (Some(xv), Some(yv)) = (d.get("x"), d.get("y")) else { return vec![] };
-    let tv = d.get("text").or(d.get("y"));
+    let (Some(xv), Some(yv)) = (d.get(Channel::X), d.get(Channel::Y)) else { return vec![] };
+    let tv = d.get(Channel::Text).or(d.get(Channel::Y));
     let size = layer.style.font_size.filter(|s| s.is_finite() && *s > 0.0).unwrap_or(ctx.text_size * 11.0 / 12.0);
     let mut out = Vec::new();
     for i in 0..d.len {

@@ -9,11 +9,14 @@ mod coord;
 mod guides;
 mod marks;
 mod notes;
+mod shapes;
 
 pub use build::{build, chart_size, SceneOptions, TITLE_SIZE};
+pub use shapes::shape_path;
 
 use indexmap::IndexMap;
-use serde::Serialize;
+use serde::ser::SerializeSeq;
+use serde::{Serialize, Serializer};
 
 /// The data values a mark stands for, keyed by channel.
 pub type Datum = IndexMap<String, serde_json::Value>;
@@ -50,12 +53,91 @@ pub struct Paint {
 }
 
 impl Paint {
+    /// The paint's numbers, for checks.
+    pub fn numbers(&self) -> Vec<f64> {
+        self.stroke_width.into_iter().chain(self.opacity).chain(self.dash.iter().flatten().copied()).collect()
+    }
     pub fn fill(c: &str) -> Self {
         Paint { fill: Some(c.to_string()), ..Default::default() }
     }
     pub fn stroke(c: &str, width: f64) -> Self {
         Paint { fill: Some("none".into()), stroke: Some(c.to_string()), stroke_width: Some(width), ..Default::default() }
     }
+}
+
+/// One segment of a path, in pixels. The SVG stage writes them as path
+/// data; the scene itself writes no path text.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum Seg {
+    Move(f64, f64),
+    Line(f64, f64),
+    /// An elliptical arc to (x, y) with radii (rx, ry), the large-arc and
+    /// sweep flags of SVG's `A` command, and no rotation.
+    Arc {
+        rx: f64,
+        ry: f64,
+        large: bool,
+        sweep: bool,
+        x: f64,
+        y: f64,
+    },
+    Close,
+}
+
+impl Seg {
+    /// The segment's numbers, for checks.
+    pub fn numbers(&self) -> Vec<f64> {
+        match *self {
+            Seg::Move(x, y) | Seg::Line(x, y) => vec![x, y],
+            Seg::Arc { rx, ry, x, y, .. } => vec![rx, ry, x, y],
+            Seg::Close => vec![],
+        }
+    }
+}
+
+/// In `--scene` JSON a segment is an array led by its SVG letter:
+/// `["M", x, y]`, `["L", x, y]`, `["A", rx, ry, large, sweep, x, y]`, `["Z"]`.
+impl Serialize for Seg {
+    fn serialize<S: Serializer>(&self, ser: S) -> Result<S::Ok, S::Error> {
+        let mut seq = ser.serialize_seq(None)?;
+        match *self {
+            Seg::Move(x, y) => {
+                seq.serialize_element("M")?;
+                seq.serialize_element(&x)?;
+                seq.serialize_element(&y)?;
+            }
+            Seg::Line(x, y) => {
+                seq.serialize_element("L")?;
+                seq.serialize_element(&x)?;
+                seq.serialize_element(&y)?;
+            }
+            Seg::Arc { rx, ry, large, sweep, x, y } => {
+                seq.serialize_element("A")?;
+                for v in [rx, ry] {
+                    seq.serialize_element(&v)?;
+                }
+                seq.serialize_element(&large)?;
+                seq.serialize_element(&sweep)?;
+                for v in [x, y] {
+                    seq.serialize_element(&v)?;
+                }
+            }
+            Seg::Close => seq.serialize_element("Z")?,
+        }
+        seq.end()
+    }
+}
+
+/// A polyline through pixel points, closed or not.
+pub fn polyline(pts: &[(f64, f64)], close: bool) -> Vec<Seg> {
+    let mut d = Vec::with_capacity(pts.len() + 1);
+    for (i, &(x, y)) in pts.iter().enumerate() {
+        d.push(if i == 0 { Seg::Move(x, y) } else { Seg::Line(x, y) });
+    }
+    if close {
+        d.push(Seg::Close);
+    }
+    d
 }
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
@@ -105,7 +187,7 @@ pub enum Node {
         paint: Paint,
     },
     Path {
-        d: String,
+        d: Vec<Seg>,
         #[serde(flatten)]
         paint: Paint,
         #[serde(skip_serializing_if = "Option::is_none")]
@@ -149,5 +231,40 @@ impl Scene {
     /// Every data mark in drawing order.
     pub fn marks(&self) -> Vec<&Node> {
         self.children.iter().flat_map(|c| c.marks()).collect()
+    }
+
+    /// Every node holding a number that is not finite (NaN or an infinity),
+    /// described by its place in the tree. Geometry is computed, never read
+    /// from input, so anything listed here is an engine bug: the golden and
+    /// fuzz tests assert the list is empty, and the SVG writer debug-asserts.
+    pub fn non_finite(&self) -> Vec<String> {
+        fn walk(n: &Node, at: String, out: &mut Vec<String>) {
+            let (kind, nums): (&str, Vec<f64>) = match n {
+                Node::Group { children, .. } => {
+                    for (i, c) in children.iter().enumerate() {
+                        walk(c, format!("{at}/{i}"), out);
+                    }
+                    return;
+                }
+                Node::Rect { x, y, width, height, paint, .. } => ("rect", [vec![*x, *y, *width, *height], paint.numbers()].concat()),
+                Node::Circle { cx, cy, r, paint, .. } => ("circle", [vec![*cx, *cy, *r], paint.numbers()].concat()),
+                Node::Line { x1, y1, x2, y2, paint } => ("line", [vec![*x1, *y1, *x2, *y2], paint.numbers()].concat()),
+                Node::Path { d, paint, .. } => ("path", paint.numbers().into_iter().chain(d.iter().flat_map(Seg::numbers)).collect()),
+                Node::Text { x, y, size, angle, .. } => ("text", vec![*x, *y, *size, *angle]),
+            };
+            if let Some(v) = nums.iter().find(|v| !v.is_finite()) {
+                out.push(format!("{at} ({kind}): {v}"));
+            }
+        }
+        let mut out = Vec::new();
+        for v in [self.width, self.height] {
+            if !v.is_finite() {
+                out.push(format!("scene size: {v}"));
+            }
+        }
+        for (i, c) in self.children.iter().enumerate() {
+            walk(c, format!("/{i}"), &mut out);
+        }
+        out
     }
 }

@@ -2,12 +2,12 @@
 //! text, placed so that their texts do not overlap one another.
 
 use super::coord::{Area, Coord};
-use super::{Anchor, Node, Paint};
+use super::{polyline, Anchor, Node, Paint};
 use crate::calendar::{parse_date, parse_datetime};
 use crate::color::Palette;
+use crate::plan::Note;
 use crate::plan::Scales;
 use crate::scale::PositionScale;
-use crate::spec::Note;
 use crate::text;
 use serde_json::Value;
 
@@ -83,7 +83,7 @@ fn shade(coord: &Coord, x0: f64, x1: f64, y0: f64, y1: f64, paint: Paint) -> Opt
         pts.extend(traced(coord, (x0, y1), (x0, y0)).into_iter().skip(1));
         let (l, t) = pts.iter().fold((f64::INFINITY, f64::INFINITY), |a, p| (a.0.min(p.0), a.1.min(p.1)));
         let (r, b) = pts.iter().fold((f64::NEG_INFINITY, f64::NEG_INFINITY), |a, p| (a.0.max(p.0), a.1.max(p.1)));
-        return Some((Node::Path { d: super::coord::path_d(&pts, true), paint, datum: None }, (l, t, r - l, b - t)));
+        return Some((Node::Path { d: polyline(&pts, true), paint, datum: None }, (l, t, r - l, b - t)));
     }
     match coord.area(x0, x1, y0, y1) {
         Area::Rect { x, y, width, height } => Some((Node::Rect { x, y, width, height, paint, datum: None }, (x, y, width, height))),
@@ -115,7 +115,7 @@ fn reference(coord: &Coord, a: (f64, f64), b: (f64, f64), pal: &Palette) -> (Nod
     paint.dash = Some(vec![4.0, 3.0]);
     let (p, q) = (coord.point(a.0, a.1), coord.point(b.0, b.1));
     if coord.is_polar() {
-        let d = super::coord::path_d(&traced(coord, a, b), false);
+        let d = polyline(&traced(coord, a, b), false);
         return (Node::Path { d, paint, datum: None }, p, q);
     }
     (Node::Line { x1: p.0, y1: p.1, x2: q.0, y2: q.1, paint }, p, q)
@@ -248,14 +248,13 @@ mod tests {
         out
     }
 
-    /// Pixel points of an SVG path made of M and L commands.
-    fn points(d: &str) -> Vec<(f64, f64)> {
-        d.trim_end_matches('Z')
-            .split(['M', 'L'])
-            .filter(|s| !s.is_empty())
-            .map(|p| {
-                let (x, y) = p.split_once(',').unwrap();
-                (x.parse().unwrap(), y.parse().unwrap())
+    /// Pixel points of a path made of moves and lines.
+    fn points(d: &[crate::scene::Seg]) -> Vec<(f64, f64)> {
+        use crate::scene::Seg;
+        d.iter()
+            .filter_map(|s| match *s {
+                Seg::Move(x, y) | Seg::Line(x, y) => Some((x, y)),
+                _ => None,
             })
             .collect()
     }

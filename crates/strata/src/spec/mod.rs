@@ -4,12 +4,15 @@
 //! Hand-off: [`Spec`], a typed, validated description of the chart. Nothing in
 //! here looks at data.
 
+#[macro_use]
+mod vocab;
+pub mod defaults;
 mod parse;
 pub mod shape;
 mod suggest;
 mod words;
 
-pub use parse::{parse_spec, spec_from_value};
+pub use parse::{parse_spec_with, spec_from_value_with, ExtraCheck};
 pub use suggest::{closest, edit_distance, levenshtein};
 
 /// The JSON Schema of a spec as pretty-printed text (what `strata schema`
@@ -17,8 +20,10 @@ pub use suggest::{closest, edit_distance, levenshtein};
 pub fn schema_text() -> String {
     serde_json::to_string_pretty(&shape::json_schema()).expect("schema serialises")
 }
+pub use vocab::*;
 pub use words::FromWord;
 
+use crate::channel::Channel;
 use indexmap::IndexMap;
 use serde::{Deserialize, Serialize};
 
@@ -50,7 +55,7 @@ pub struct Spec {
     pub layers: Vec<Layer>,
     /// Scales keyed by channel name (`x`, `y`, `color`, ...).
     #[serde(default, skip_serializing_if = "IndexMap::is_empty")]
-    pub scales: IndexMap<String, ScaleSpec>,
+    pub scales: IndexMap<Channel, ScaleSpec>,
     #[serde(default)]
     pub coords: Coords,
     #[serde(default, skip_serializing_if = "Option::is_none")]
@@ -66,27 +71,14 @@ pub struct Spec {
     pub quiet: Vec<String>,
     /// BCP 47 language tag for number and date labels (`en`, `de`, `fr`, `es`).
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub locale: Option<String>,
+    pub locale: Option<LocaleWord>,
     /// The data table under the chart (see `crate::datatable`).
-    #[serde(default, skip_serializing_if = "DataTable::is_default")]
+    #[serde(default, skip_serializing_if = "is_closed")]
     pub data_table: DataTable,
 }
 
-/// `data_table`: how the numbers behind the marks are offered as a table.
-#[derive(Debug, Clone, Copy, Default, PartialEq, Eq, Serialize, Deserialize)]
-#[serde(rename_all = "snake_case")]
-pub enum DataTable {
-    /// A disclosure under the chart that the reader opens.
-    #[default]
-    Closed,
-    Open,
-    None,
-}
-
-impl DataTable {
-    fn is_default(&self) -> bool {
-        *self == DataTable::Closed
-    }
+fn is_closed(t: &DataTable) -> bool {
+    *t == DataTable::Closed
 }
 
 // ---------------------------------------------------------------- data
@@ -136,24 +128,6 @@ impl DataRef {
     }
 }
 
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
-#[serde(rename_all = "snake_case")]
-pub enum DataFormat {
-    Csv,
-    Tsv,
-    Arrow,
-    Json,
-}
-
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
-#[serde(rename_all = "snake_case")]
-pub enum ColumnType {
-    Number,
-    Text,
-    Date,
-    Bool,
-}
-
 // ---------------------------------------------------------------- layers
 
 #[derive(Debug, Clone, Serialize, Deserialize)]
@@ -161,25 +135,25 @@ pub enum ColumnType {
 pub struct Layer {
     pub draw: Geometry,
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub x: Option<Channel>,
+    pub x: Option<Mapping>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub y: Option<Channel>,
+    pub y: Option<Mapping>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub x_end: Option<Channel>,
+    pub x_end: Option<Mapping>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub y_end: Option<Channel>,
+    pub y_end: Option<Mapping>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub color: Option<Channel>,
+    pub color: Option<Mapping>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub size: Option<Channel>,
+    pub size: Option<Mapping>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub shape: Option<Channel>,
+    pub shape: Option<Mapping>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub opacity: Option<Channel>,
+    pub opacity: Option<Mapping>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub text: Option<Channel>,
+    pub text: Option<Mapping>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub group: Option<Channel>,
+    pub group: Option<Mapping>,
     /// Columns shown on hover or focus.
     #[serde(default, skip_serializing_if = "Vec::is_empty")]
     pub tip: Vec<String>,
@@ -191,44 +165,9 @@ pub struct Layer {
     pub arrange: Arrange,
 }
 
-/// The geometry of a layer. It keeps its name in every coordinate system.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
-#[serde(rename_all = "snake_case")]
-pub enum Geometry {
-    Point,
-    Line,
-    Step,
-    Area,
-    Bar,
-    Ribbon,
-    Rule,
-    Label,
-    Tile,
-    Box,
-    Range,
-}
-
-impl Geometry {
-    pub fn word(self) -> &'static str {
-        match self {
-            Geometry::Point => "point",
-            Geometry::Line => "line",
-            Geometry::Step => "step",
-            Geometry::Area => "area",
-            Geometry::Bar => "bar",
-            Geometry::Ribbon => "ribbon",
-            Geometry::Rule => "rule",
-            Geometry::Label => "label",
-            Geometry::Tile => "tile",
-            Geometry::Box => "box",
-            Geometry::Range => "range",
-        }
-    }
-}
-
-/// A channel: a column name, or `{ "column": "c", "as": "date" }`.
+/// What a channel maps to: a column name, or `{ "column": "c", "as": "date" }`.
 #[derive(Debug, Clone, PartialEq, Serialize)]
-pub struct Channel {
+pub struct Mapping {
     pub column: String,
     #[serde(default, rename = "as", skip_serializing_if = "Option::is_none")]
     pub as_type: Option<ColumnType>,
@@ -257,7 +196,7 @@ pub struct Style {
     pub band: Option<f64>,
     /// Shape of points: `circle`, `square`, `triangle`, `diamond`, `plus`, `cross`.
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub shape: Option<String>,
+    pub shape: Option<PointShape>,
     /// Text size of labels in pixels.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub font_size: Option<f64>,
@@ -286,11 +225,11 @@ pub struct StatObject {
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub bin: Option<BinSpec>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub summary: Option<String>,
+    pub summary: Option<SummaryWord>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub interval: Option<String>,
+    pub interval: Option<IntervalWord>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub fit: Option<String>,
+    pub fit: Option<FitWord>,
     /// Confidence level of a fit's band, such as 0.95.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub band: Option<f64>,
@@ -309,7 +248,7 @@ pub struct StatObject {
     pub degree: Option<u32>,
     /// LOESS: `true` (3 robustness iterations) or a number of iterations.
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub robust: Option<serde_json::Value>,
+    pub robust: Option<Robust>,
 }
 
 /// `density` options: `bandwidth` is `"scott"` (default), `"silverman"` or a
@@ -318,9 +257,26 @@ pub struct StatObject {
 #[serde(deny_unknown_fields)]
 pub struct DensitySpec {
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub bandwidth: Option<serde_json::Value>,
+    pub bandwidth: Option<Bandwidth>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub grid: Option<u32>,
+}
+
+/// LOESS robustness: `true` (the default number of iterations), `false`, or
+/// a number of iterations.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(untagged)]
+pub enum Robust {
+    Flag(bool),
+    Iterations(u64),
+}
+
+/// A density's bandwidth: a rule, or a width in data units.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+#[serde(untagged)]
+pub enum Bandwidth {
+    Rule(BandwidthRule),
+    Width(f64),
 }
 
 /// `window` options: `summary` is `"mean"` (default), `"sum"` or
@@ -330,18 +286,18 @@ pub struct DensitySpec {
 #[serde(deny_unknown_fields)]
 pub struct WindowSpec {
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub summary: Option<String>,
+    pub summary: Option<WindowSummary>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub rows: Option<u32>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub align: Option<String>,
+    pub align: Option<WindowAlign>,
 }
 
 #[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
 #[serde(deny_unknown_fields)]
 pub struct BinSpec {
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub rule: Option<String>,
+    pub rule: Option<BinRule>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub width: Option<f64>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
@@ -350,22 +306,10 @@ pub struct BinSpec {
     pub boundary: Option<f64>,
     /// Calendar unit for dates: `day`, `week`, `month`, `quarter`, `year`.
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub unit: Option<String>,
+    pub unit: Option<BinUnit>,
     /// Bar heights as a density (count / (n · width)) instead of counts.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub density: Option<bool>,
-}
-
-/// Position adjustment.
-#[derive(Debug, Clone, Copy, Default, PartialEq, Eq, Serialize, Deserialize)]
-#[serde(rename_all = "snake_case")]
-pub enum Arrange {
-    #[default]
-    None,
-    Stack,
-    Beside,
-    Proportion,
-    Jitter,
 }
 
 // ---------------------------------------------------------------- scales
@@ -404,27 +348,6 @@ pub struct ScaleSpec {
     pub base: Option<f64>,
 }
 
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
-#[serde(rename_all = "snake_case")]
-pub enum ScaleKind {
-    Linear,
-    Log,
-    Sqrt,
-    Symlog,
-    Time,
-    Category,
-}
-
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
-#[serde(rename_all = "snake_case")]
-pub enum Placement {
-    Top,
-    Bottom,
-    Left,
-    Right,
-    None,
-}
-
 // ---------------------------------------------------------------- coords, panels, notes, size, theme
 
 #[derive(Debug, Clone, Default, PartialEq, Serialize)]
@@ -455,19 +378,6 @@ fn default_angle() -> AngleChannel {
     AngleChannel::X
 }
 
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
-#[serde(rename_all = "snake_case")]
-pub enum PolarKind {
-    Polar,
-}
-
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
-#[serde(rename_all = "snake_case")]
-pub enum AngleChannel {
-    X,
-    Y,
-}
-
 #[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
 #[serde(deny_unknown_fields)]
 pub struct Panels {
@@ -481,14 +391,6 @@ pub struct Panels {
     pub cols: Option<String>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub free: Option<FreeAxes>,
-}
-
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
-#[serde(rename_all = "snake_case")]
-pub enum FreeAxes {
-    X,
-    Y,
-    Both,
 }
 
 /// An annotation at data positions: text, a shaded span, or a reference line.
@@ -534,7 +436,7 @@ pub enum Theme {
 #[serde(deny_unknown_fields)]
 pub struct ThemeOverrides {
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub base: Option<String>,
+    pub base: Option<ThemeBase>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub background: Option<String>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
@@ -553,18 +455,18 @@ pub struct ThemeOverrides {
 
 impl Layer {
     /// The layer's channels that are set, by name, in a fixed order.
-    pub fn channels(&self) -> Vec<(&'static str, &Channel)> {
-        let all: [(&'static str, &Option<Channel>); 10] = [
-            ("x", &self.x),
-            ("y", &self.y),
-            ("x_end", &self.x_end),
-            ("y_end", &self.y_end),
-            ("color", &self.color),
-            ("size", &self.size),
-            ("shape", &self.shape),
-            ("opacity", &self.opacity),
-            ("text", &self.text),
-            ("group", &self.group),
+    pub fn channels(&self) -> Vec<(Channel, &Mapping)> {
+        let all: [(Channel, &Option<Mapping>); 10] = [
+            (Channel::X, &self.x),
+            (Channel::Y, &self.y),
+            (Channel::XEnd, &self.x_end),
+            (Channel::YEnd, &self.y_end),
+            (Channel::Color, &self.color),
+            (Channel::Size, &self.size),
+            (Channel::Shape, &self.shape),
+            (Channel::Opacity, &self.opacity),
+            (Channel::Text, &self.text),
+            (Channel::Group, &self.group),
         ];
         all.into_iter().filter_map(|(n, c)| c.as_ref().map(|c| (n, c))).collect()
     }

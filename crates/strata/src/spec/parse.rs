@@ -1,9 +1,11 @@
 //! Spec text to [`Spec`], with errors that carry the JSON path.
 //!
-//! Three passes, each reporting every problem it finds: JSON syntax; the
-//! shape check ([`super::shape`]: unknown keys and words with did-you-mean,
-//! wrong types saying what was expected and found, ranges); and the syntax
-//! of `derive` and `where` expressions. Only then does serde read the value.
+//! Passes, each reporting every problem it finds: JSON syntax; the shape
+//! check ([`super::shape`]: unknown keys and words with did-you-mean, wrong
+//! types saying what was expected and found, ranges); and checks that later
+//! stages pass in (the crate's `parse_spec` passes the syntax check of
+//! `derive` and `where` expressions, so the spec stage needs no expression
+//! parser). Only then does serde read the value.
 
 use super::shape::{check, spec_shape};
 use super::Spec;
@@ -11,20 +13,24 @@ use crate::error::{Diagnostic, Errors};
 use serde::Deserialize;
 use serde_json::Value;
 
+/// A check of the raw spec value that a later stage owns, run beside the
+/// shape check so every problem is reported at once.
+pub type ExtraCheck<'a> = &'a dyn Fn(&Value) -> Vec<Diagnostic>;
+
 /// Parse a spec from JSON text. Errors carry the JSON path of the offending
 /// key (`layers[0].draw`) and, for JSON syntax errors, the line and column.
-pub fn parse_spec(text: &str) -> Result<Spec, Errors> {
+pub fn parse_spec_with(text: &str, extra: ExtraCheck) -> Result<Spec, Errors> {
     let value: Value = serde_json::from_str(text).map_err(|e| {
         Diagnostic::error(
             "spec.json_syntax",
             format!("the spec is not valid JSON: {} (spec line {}, column {})", strip_position(&e.to_string()), e.line(), e.column()),
         )
     })?;
-    spec_from_value(&value)
+    spec_from_value_with(&value, extra)
 }
 
 /// Check and read a spec already parsed as JSON.
-pub fn spec_from_value(value: &Value) -> Result<Spec, Errors> {
+pub fn spec_from_value_with(value: &Value, extra: ExtraCheck) -> Result<Spec, Errors> {
     let mut errors = Vec::new();
     if !value.is_object() {
         return Err(Diagnostic::error("spec.wrong_type", "a spec is a JSON object, such as {\"layers\": [...]}").into());
@@ -38,21 +44,7 @@ pub fn spec_from_value(value: &Value) -> Result<Spec, Errors> {
             );
         }
     }
-    // Expression syntax, so that `strata check` finds it without data.
-    if let Some(derive) = value.get("derive").and_then(Value::as_object) {
-        for (name, text) in derive {
-            if let Some(text) = text.as_str() {
-                if let Err(e) = crate::expr::parse(text) {
-                    errors.push(crate::expr::diagnostic(&format!("derive.{}", crate::expr::path_key(name)), text, &e));
-                }
-            }
-        }
-    }
-    if let Some(text) = value.get("where").and_then(Value::as_str) {
-        if let Err(e) = crate::expr::parse(text) {
-            errors.push(crate::expr::diagnostic("where", text, &e));
-        }
-    }
+    errors.extend(extra(value));
     if !errors.is_empty() {
         return Err(Errors(errors));
     }
@@ -74,6 +66,7 @@ fn strip_position(msg: &str) -> String {
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::parse_spec;
 
     fn errs(text: &str) -> Vec<Diagnostic> {
         parse_spec(text).unwrap_err().0

@@ -7,6 +7,7 @@
 //! reads with serde.
 
 use super::suggest::closest;
+use super::vocab::*;
 use crate::error::Diagnostic;
 use serde_json::{json, Map, Value};
 
@@ -80,30 +81,35 @@ fn list(s: Shape) -> Shape {
 
 // ---------------------------------------------------------------- vocabulary
 
-pub const GEOMETRIES: &[&str] = &["point", "line", "step", "area", "bar", "ribbon", "rule", "label", "tile", "box", "range"];
+// Each word list is its enum's (see `vocab.rs`): serde, this check, the
+// schema and the plan share one definition.
+pub const GEOMETRIES: &[&str] = Geometry::WORDS;
+/// The channels a layer maps (the keys of `scales`): the first ten of
+/// [`crate::channel::Channel`] (a test holds the two equal).
 pub const CHANNELS: &[&str] = &["x", "y", "x_end", "y_end", "color", "size", "shape", "opacity", "text", "group"];
-pub const COLUMN_TYPES: &[&str] = &["number", "text", "date", "bool"];
-pub const DATA_FORMATS: &[&str] = &["csv", "tsv", "arrow", "json"];
-pub const STAT_WORDS: &[&str] = &["identity", "count", "box"];
-pub const SUMMARIES: &[&str] = &["mean", "median", "sum", "min", "max", "count", "quantile", "standard_deviation"];
-pub const INTERVALS: &[&str] = &["ci95", "ci90", "ci99", "ci80", "standard_error", "min_max", "wilson"];
-pub const FITS: &[&str] = &["linear", "loess"];
-pub const BIN_RULES: &[&str] = &["fd", "scott", "sturges", "sqrt", "rice", "doane"];
-pub const BIN_UNITS: &[&str] = &["day", "week", "month", "quarter", "year"];
-pub const WINDOW_SUMMARIES: &[&str] = &["mean", "sum", "running_total"];
-pub const LOCALES: &[&str] = &["en", "de", "fr", "es"];
-pub const BANDWIDTHS: &[&str] = &["scott", "silverman"];
-pub const WINDOW_ALIGN: &[&str] = &["center", "trailing"];
-pub const ARRANGES: &[&str] = &["none", "stack", "beside", "proportion", "jitter"];
-pub const SCALE_KINDS: &[&str] = &["linear", "log", "sqrt", "symlog", "time", "category"];
-pub const PLACEMENTS: &[&str] = &["top", "bottom", "left", "right", "none"];
-pub const COORD_WORDS: &[&str] = &["cartesian", "flip", "polar"];
-pub const FREE: &[&str] = &["x", "y", "both"];
-pub const THEME_WORDS: &[&str] = &["auto", "light", "dark"];
-pub const DATA_TABLE: &[&str] = &["closed", "open", "none"];
-pub const POINT_SHAPES: &[&str] = &["circle", "square", "triangle", "diamond", "plus", "cross"];
-/// Lint codes that `quiet` may silence (see `crate::lint`).
-pub const LINT_CODES: &[&str] = &crate::lint::CODES;
+pub const COLUMN_TYPES: &[&str] = ColumnType::WORDS;
+pub const DATA_FORMATS: &[&str] = DataFormat::WORDS;
+pub const STAT_WORDS: &[&str] = StatWord::WORDS;
+pub const SUMMARIES: &[&str] = SummaryWord::WORDS;
+pub const INTERVALS: &[&str] = IntervalWord::WORDS;
+pub const FITS: &[&str] = FitWord::WORDS;
+pub const BIN_RULES: &[&str] = BinRule::WORDS;
+pub const BIN_UNITS: &[&str] = BinUnit::WORDS;
+pub const WINDOW_SUMMARIES: &[&str] = WindowSummary::WORDS;
+pub const LOCALES: &[&str] = LocaleWord::WORDS;
+pub const BANDWIDTHS: &[&str] = BandwidthRule::WORDS;
+pub const WINDOW_ALIGN: &[&str] = WindowAlign::WORDS;
+pub const ARRANGES: &[&str] = Arrange::WORDS;
+pub const SCALE_KINDS: &[&str] = ScaleKind::WORDS;
+pub const PLACEMENTS: &[&str] = Placement::WORDS;
+pub const COORD_WORDS: &[&str] = CoordWord::WORDS;
+pub const FREE: &[&str] = FreeAxes::WORDS;
+pub const THEME_WORDS: &[&str] = ThemeWord::WORDS;
+pub const DATA_TABLE: &[&str] = DataTable::WORDS;
+pub const POINT_SHAPES: &[&str] = PointShape::WORDS;
+/// Lint codes that `quiet` may silence: the spec names them, the lint
+/// stage (which reads the spec) raises them.
+pub const LINT_CODES: &[&str] = &["lint.axis_without_zero", "lint.log_bars", "lint.too_many_colors", "lint.polar_angle_not_cyclic", "lint.low_contrast"];
 
 /// Named shapes, written once under `$defs` in the schema.
 pub fn defs() -> Vec<(&'static str, Shape, &'static str)> {
@@ -155,7 +161,7 @@ pub fn spec_shape() -> Shape {
         ]),
     ]);
     let bin = obj(vec![
-        f("rule", Shape::Word(BIN_RULES), "How to choose the bin width: fd (Freedman-Diaconis, default), scott, sturges, sqrt, rice, doane."),
+        f("rule", Shape::Word(BIN_RULES), "How to choose the bin width: sturges, fd (Freedman-Diaconis), scott, sqrt, rice, doane (default sturges)."),
         f("width", num(Some(0.0), None), "Bin width in data units; overrides the rule."),
         f("count", count(1), "Wanted number of bins; overrides the rule."),
         f("boundary", num(None, None), "A value that falls on a bin edge."),
@@ -163,13 +169,17 @@ pub fn spec_shape() -> Shape {
         f("density", Shape::Bool, "Bar heights as a density (count / (n x width)) instead of counts."),
     ]);
     let density = obj(vec![
-        f("bandwidth", Shape::Either(vec![Shape::Word(BANDWIDTHS), num(Some(0.0), None)]), "scott (default), silverman, or a number in data units."),
-        f("grid", count(2), "Points at which the density is evaluated (default 512)."),
+        f(
+            "bandwidth",
+            Shape::Either(vec![Shape::Word(BANDWIDTHS), num(Some(0.0), None)]),
+            "A rule, scott or silverman, or a number in data units (default scott).",
+        ),
+        f("grid", count(2), "Points at which the density is evaluated (default 256)."),
     ]);
     let window = obj(vec![
-        f("summary", Shape::Word(WINDOW_SUMMARIES), "mean (default) or sum over the window, or running_total."),
-        f("rows", count(1), "Rows in the window (for mean and sum)."),
-        f("align", Shape::Word(WINDOW_ALIGN), "Window centred on the row (center, default) or ending at it (trailing)."),
+        f("summary", Shape::Word(WINDOW_SUMMARIES), "mean or sum over the window, or running_total (default mean)."),
+        f("rows", count(1), "Rows in the window, for mean and sum (default 7)."),
+        f("align", Shape::Word(WINDOW_ALIGN), "Window centred on the row (center) or ending at it (trailing); default center."),
     ]);
     let stat = Shape::Either(vec![
         Shape::Word(STAT_WORDS),
@@ -177,12 +187,12 @@ pub fn spec_shape() -> Shape {
             fields: vec![
                 f("bin", bin, "Count rows in bins along x."),
                 f("summary", Shape::Word(SUMMARIES), "Summarise y for each x (and colour/group)."),
-                f("interval", Shape::Word(INTERVALS), "With summary: an interval around it (ci95, ci90, ci99, sd, se, range)."),
+                f("interval", Shape::Word(INTERVALS), "With summary: an interval around it (ci95, ci90, ci99, ci80, standard_error, min_max, wilson)."),
                 f("fit", Shape::Word(FITS), "Fit a curve of y on x: linear or loess."),
-                f("band", num(Some(0.0), Some(1.0)), "With fit: confidence level of the band, such as 0.95."),
-                f("p", num(Some(0.0), Some(1.0)), "With summary quantile: the probability, such as 0.9."),
+                f("band", num(Some(0.0), Some(1.0)), "With fit: confidence level of the band (default 0.95; 0 for no band)."),
+                f("p", num(Some(0.0), Some(1.0)), "With summary quantile: the probability, such as 0.9 (default 0.5)."),
                 f("span", num(Some(0.0), Some(1.0)), "With fit loess: the share of points in each local fit (default 0.75)."),
-                f("degree", Shape::Integer { min: 1, max: 2 }, "With fit loess: local polynomial degree, 1 or 2 (default 2)."),
+                f("degree", Shape::Integer { min: 1, max: 2 }, "With fit loess: local polynomial degree, 1 or 2 (default 1)."),
                 f("robust", Shape::Either(vec![Shape::Bool, count(0)]), "With fit loess: true (3 robustness iterations) or a number of iterations."),
                 f("density", density, "Kernel density estimate of x."),
                 f("window", window, "Running summary over neighbouring rows, in x order."),
@@ -230,8 +240,8 @@ pub fn spec_shape() -> Shape {
     let coords = Shape::Either(vec![
         Shape::Word(COORD_WORDS),
         obj(vec![
-            req("kind", Shape::Word(&["polar"]), "polar."),
-            f("angle", Shape::Word(&["x", "y"]), "Which position channel becomes the angle (default x)."),
+            req("kind", Shape::Word(PolarKind::WORDS), "polar."),
+            f("angle", Shape::Word(AngleChannel::WORDS), "Which position channel becomes the angle (default x)."),
             f("start", num(None, None), "Start angle in degrees clockwise from 12 o'clock (default 0)."),
             f("inner", num(Some(0.0), Some(1.0)), "Inner radius as a fraction of the outer one (default 0)."),
         ]),
@@ -258,7 +268,7 @@ pub fn spec_shape() -> Shape {
     let theme = Shape::Either(vec![
         Shape::Word(THEME_WORDS),
         obj(vec![
-            f("base", Shape::Word(&["light", "dark"]), "The theme these overrides start from (default light)."),
+            f("base", Shape::Word(ThemeBase::WORDS), "The theme these overrides start from (default light)."),
             f("background", color(), "Background colour."),
             f("text", color(), "Colour of titles and labels."),
             f("muted", color(), "Colour of subtitles, source lines and tick labels."),

@@ -41,6 +41,11 @@ macro_rules! word_or_object {
     };
 }
 
+/// `a`, `b`, `c`: words as messages list them.
+fn quoted(words: &[&str]) -> String {
+    words.iter().map(|w| format!("`{w}`")).collect::<Vec<_>>().join(", ")
+}
+
 fn object<'de, A: MapAccess<'de>, T: Deserialize<'de>>(map: A) -> Result<T, A::Error> {
     T::deserialize(de::value::MapAccessDeserializer::new(map))
 }
@@ -56,10 +61,10 @@ impl FromWord for DataRef {
 }
 word_or_object!(DataRef);
 
-impl FromWord for Channel {
+impl FromWord for Mapping {
     const EXPECTED: &'static str = "a column name or an object such as {\"column\": \"c\", \"as\": \"date\"}";
     fn from_word(word: &str) -> Result<Self, String> {
-        Ok(Channel { column: word.to_string(), as_type: None })
+        Ok(Mapping { column: word.to_string(), as_type: None })
     }
     fn from_object<'de, A: MapAccess<'de>>(map: A) -> Result<Self, A::Error> {
         #[derive(Deserialize)]
@@ -70,21 +75,22 @@ impl FromWord for Channel {
             as_type: Option<ColumnType>,
         }
         let r: Raw = object(map)?;
-        Ok(Channel { column: r.column, as_type: r.as_type })
+        Ok(Mapping { column: r.column, as_type: r.as_type })
     }
 }
-word_or_object!(Channel);
+word_or_object!(Mapping);
 
 impl FromWord for Stat {
     const EXPECTED: &'static str = "`identity`, `count`, `box`, or an object with one of `bin`, `summary`, `fit`, `density`, `window`";
     fn from_word(word: &str) -> Result<Self, String> {
-        match word {
-            "identity" => Ok(Stat::Identity),
-            "count" => Ok(Stat::Count),
-            "box" => Ok(Stat::Box),
-            _ => {
-                Err(format!("unknown variant `{word}`, expected one of `identity`, `count`, `box` (other statistics take an object such as {{\"bin\": {{}}}})"))
-            }
+        match StatWord::from_word(word) {
+            Some(StatWord::Identity) => Ok(Stat::Identity),
+            Some(StatWord::Count) => Ok(Stat::Count),
+            Some(StatWord::Box) => Ok(Stat::Box),
+            None => Err(format!(
+                "unknown variant `{word}`, expected one of {} (other statistics take an object such as {{\"bin\": {{}}}})",
+                quoted(StatWord::WORDS)
+            )),
         }
     }
     fn from_object<'de, A: MapAccess<'de>>(map: A) -> Result<Self, A::Error> {
@@ -101,11 +107,11 @@ word_or_object!(Stat);
 impl FromWord for Coords {
     const EXPECTED: &'static str = "`cartesian`, `flip`, or an object {\"kind\": \"polar\", ...}";
     fn from_word(word: &str) -> Result<Self, String> {
-        match word {
-            "cartesian" => Ok(Coords::Cartesian),
-            "flip" => Ok(Coords::Flip),
-            "polar" => Ok(Coords::Polar(Polar { kind: PolarKind::Polar, angle: AngleChannel::X, start: 0.0, inner: 0.0 })),
-            _ => Err(format!("unknown variant `{word}`, expected one of `cartesian`, `flip`, `polar`")),
+        match CoordWord::from_word(word) {
+            Some(CoordWord::Cartesian) => Ok(Coords::Cartesian),
+            Some(CoordWord::Flip) => Ok(Coords::Flip),
+            Some(CoordWord::Polar) => Ok(Coords::Polar(Polar { kind: PolarKind::Polar, angle: AngleChannel::X, start: 0.0, inner: 0.0 })),
+            None => Err(format!("unknown variant `{word}`, expected one of {}", quoted(CoordWord::WORDS))),
         }
     }
     fn from_object<'de, A: MapAccess<'de>>(map: A) -> Result<Self, A::Error> {
@@ -117,11 +123,11 @@ word_or_object!(Coords);
 impl FromWord for Theme {
     const EXPECTED: &'static str = "`light`, `dark`, `auto`, or an object of overrides";
     fn from_word(word: &str) -> Result<Self, String> {
-        match word {
-            "auto" => Ok(Theme::Auto),
-            "light" => Ok(Theme::Light),
-            "dark" => Ok(Theme::Dark),
-            _ => Err(format!("unknown variant `{word}`, expected one of `light`, `dark`, `auto`")),
+        match ThemeWord::from_word(word) {
+            Some(ThemeWord::Auto) => Ok(Theme::Auto),
+            Some(ThemeWord::Light) => Ok(Theme::Light),
+            Some(ThemeWord::Dark) => Ok(Theme::Dark),
+            None => Err(format!("unknown variant `{word}`, expected one of {}", quoted(ThemeWord::WORDS))),
         }
     }
     fn from_object<'de, A: MapAccess<'de>>(map: A) -> Result<Self, A::Error> {

@@ -35,6 +35,9 @@ pub enum Rule {
 }
 
 impl Rule {
+    /// The fixtures name cases by the spec's words (the engine maps the
+    /// spec's word enums in `plan/stat.rs`).
+    #[cfg(test)]
     pub fn from_word(w: &str) -> Option<Rule> {
         Some(match w {
             "sturges" => Rule::Sturges,
@@ -46,7 +49,6 @@ impl Rule {
             _ => return None,
         })
     }
-    pub const WORDS: &'static str = "sturges, scott, fd, sqrt, rice, doane";
 }
 
 /// Bin width by a rule for finite values `xs` (unsorted); 0 when the rule
@@ -265,6 +267,9 @@ pub enum CalendarUnit {
 }
 
 impl CalendarUnit {
+    /// The fixtures name cases by the spec's words (the engine maps the
+    /// spec's word enums in `plan/stat.rs`).
+    #[cfg(test)]
     pub fn from_word(w: &str) -> Option<CalendarUnit> {
         Some(match w {
             "day" => CalendarUnit::Day,

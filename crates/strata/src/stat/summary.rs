@@ -19,6 +19,9 @@ pub enum Summary {
 }
 
 impl Summary {
+    /// The fixtures name cases by the spec's words (the engine maps the
+    /// spec's word enums in `plan/stat.rs`).
+    #[cfg(test)]
     pub fn from_word(w: &str, p: Option<f64>) -> Option<Summary> {
         Some(match w {
             "count" => Summary::Count,
@@ -32,7 +35,6 @@ impl Summary {
             _ => return None,
         })
     }
-    pub const WORDS: &'static str = "count, sum, mean, median, min, max, quantile (with `p`), standard_deviation";
 
     /// The summary of finite values `xs`.
     pub fn of(self, xs: &[f64]) -> Option<f64> {
@@ -68,6 +70,9 @@ pub enum Interval {
 impl Interval {
     /// `ci95`, `ci90`, `ci99` (any `ciNN`), `standard_error`, `min_max`,
     /// `wilson` (95 %) or `wilson90` etc.
+    /// The fixtures name cases by the spec's words (the engine maps the
+    /// spec's word enums in `plan/stat.rs`).
+    #[cfg(test)]
     pub fn from_word(w: &str) -> Option<Interval> {
         let level = |s: &str| -> Option<f64> {
             if s.is_empty() {
@@ -91,7 +96,6 @@ impl Interval {
             _ => None,
         }
     }
-    pub const WORDS: &'static str = "ci95 (or ci90, ci99, ...), standard_error, min_max, wilson";
 
     /// (low, high) for finite values `xs`; `None` when undefined (such as
     /// a t interval of one value).

@@ -15,12 +15,18 @@
 /// Charts with at most this many data marks label each mark for screen readers.
 pub const LABELLED_MARKS: usize = 500;
 
-use crate::scene::{Anchor, Node, Paint, Scene};
+use crate::scene::{Anchor, Node, Paint, Scene, Seg};
 use std::fmt::Write;
 
 /// A number with at most two decimals, no trailing zeros, never `-0`.
+///
+/// Geometry is never non-finite in a correct scene
+/// ([`Scene::non_finite`](crate::scene::Scene::non_finite) lists any that
+/// is, and the tests assert it lists none); a debug build stops here, a
+/// release build writes `0` rather than break the SVG.
 pub fn num(v: f64) -> String {
     if !v.is_finite() {
+        debug_assert!(false, "non-finite number {v} reached the SVG writer");
         return "0".into();
     }
     let r = (v * 100.0).round() / 100.0;
@@ -35,6 +41,23 @@ pub fn num(v: f64) -> String {
         s = "0".into();
     }
     s
+}
+
+/// SVG path data: command letters without spaces, `x,y` pairs, numbers as
+/// [`num`] writes them (so the text needs no escaping).
+pub fn path_data(d: &[Seg]) -> String {
+    let mut out = String::with_capacity(d.len() * 14);
+    for s in d {
+        let _ = match *s {
+            Seg::Move(x, y) => write!(out, "M{},{}", num(x), num(y)),
+            Seg::Line(x, y) => write!(out, "L{},{}", num(x), num(y)),
+            Seg::Arc { rx, ry, large, sweep, x, y } => {
+                write!(out, "A{},{} 0 {},{} {},{}", num(rx), num(ry), u8::from(large), u8::from(sweep), num(x), num(y))
+            }
+            Seg::Close => write!(out, "Z"),
+        };
+    }
+    out
 }
 
 /// Escape text for element content and attribute values.
@@ -170,7 +193,7 @@ fn node(out: &mut String, n: &Node, depth: usize, labelled: bool) {
             out.push_str("/>\n");
         }
         Node::Path { d, paint: p, datum } => {
-            let _ = write!(out, "<path d=\"{}\"", escape(d));
+            let _ = write!(out, "<path d=\"{}\"", path_data(d));
             paint(out, p);
             mark_label(out, datum, labelled);
             close_mark(out, "path", datum);
@@ -245,7 +268,13 @@ mod tests {
         assert_eq!(num(1.005), "1");
         assert_eq!(num(2.345), "2.35");
         assert_eq!(num(-0.001), "0");
-        assert_eq!(num(f64::NAN), "0");
+    }
+
+    #[test]
+    #[cfg(debug_assertions)]
+    #[should_panic(expected = "non-finite")]
+    fn non_finite_geometry_stops_a_debug_build() {
+        num(f64::NAN);
     }
 
     #[test]

@@ -1,9 +1,11 @@
 //! The automatic text alternative (the SVG's `<desc>`): what is plotted
 //! against what, the ranges, the extremes and, for a continuous x, the trend.
+//! Written by the plan (into `Plan.chart.description` when the spec gives
+//! none), from the plan's own facts.
 
+use super::{ColorScale, Plan, Values};
+use crate::channel::Channel;
 use crate::format::{self, Locale};
-use crate::plan::{ColorScale, Plan, Values};
-use crate::spec::Spec;
 
 fn value_text(v: &Values, i: usize, loc: &Locale) -> String {
     match v {
@@ -97,7 +99,7 @@ fn extremes(ys: &[f64], xs: Option<&[f64]>) -> Option<Extremes> {
     (e.hi_row != usize::MAX).then_some(e)
 }
 
-pub fn describe(spec: &Spec, plan: &Plan) -> String {
+pub fn describe(plan: &Plan) -> String {
     let s = &plan.scales;
     let loc = s.locale;
     let mut parts = Vec::new();
@@ -115,7 +117,7 @@ pub fn describe(spec: &Spec, plan: &Plan) -> String {
     }
     parts.push(head);
     for l in &plan.layers {
-        let (Some(Values::Num(ys)), xv) = (l.data.get("y"), l.data.get("x")) else { continue };
+        let (Some(Values::Num(ys)), xv) = (l.data.get(Channel::Y), l.data.get(Channel::X)) else { continue };
         let xs = match xv {
             Some(Values::Num(x) | Values::Time(x)) => Some(x.raw()),
             _ => None,
@@ -123,7 +125,7 @@ pub fn describe(spec: &Spec, plan: &Plan) -> String {
         let Some(e) = extremes(ys.raw(), xs) else { continue };
         let (lo, il, hi, ih) = (e.lo, e.lo_row, e.hi, e.hi_row);
         let at = |i: usize| xv.map(|x| format!(" at {}", value_text(x, i, loc))).unwrap_or_default();
-        let name = l.data.names.get("y").cloned().unwrap_or_else(|| "y".into());
+        let name = l.data.names.get(&Channel::Y).cloned().unwrap_or_else(|| "y".into());
         parts.push(format!("{name} ranges from {}{} to {}{}", format::value_label_in(lo, loc), at(il), format::value_label_in(hi, loc), at(ih)));
         if let Some(x @ (Values::Num(_) | Values::Time(_))) = xv {
             // The trend word is a coarse reading of the least-squares slope:
@@ -138,12 +140,12 @@ pub fn describe(spec: &Spec, plan: &Plan) -> String {
                     Values::Time(_) => format!("{} to {}", format::date(first, "yyyy-MM-dd", loc), format::date(last, "yyyy-MM-dd", loc)),
                     _ => format!("{} to {}", format::value_label_in(first, loc), format::value_label_in(last, loc)),
                 };
-                let xname = l.data.names.get("x").cloned().unwrap_or_else(|| "x".into());
+                let xname = l.data.names.get(&Channel::X).cloned().unwrap_or_else(|| "x".into());
                 parts.push(format!("over {xname} from {span} it {w}"));
             }
         }
     }
-    if let Some(t) = &spec.subtitle {
+    if let Some(t) = &plan.chart.subtitle {
         parts.push(t.clone());
     }
     let mut out = parts.join(". ");
