@@ -123,7 +123,7 @@ pub(crate) fn check_text(src: &Source, theme: Option<&str>, data: DataFrom) -> V
             text = serde_json::Value::Object(o).to_string();
         }
     }
-    let spec = match strata::spec::parse_spec(&text) {
+    let spec = match strata::parse_spec(&text) {
         Ok(s) => s,
         Err(e) => return e.0.iter().map(|d| place(d, None)).collect(),
     };
