@@ -62,7 +62,7 @@ pub fn render(spec: &str, data: Option<Vec<u8>>, data_name: &str, width: f64) ->
 pub fn table_shape(data: &[u8], data_name: &str) -> String {
     let opts = strata::data::ReadOptions { format: strata::data::format_from_name(data_name), ..Default::default() };
     match strata::data::read(data, &opts) {
-        Ok(t) => format!("{{\"ok\":true,\"rows\":{},\"columns\":{}}}", t.num_rows(), t.batch.num_columns()),
+        Ok(t) => format!("{{\"ok\":true,\"rows\":{},\"columns\":{}}}", t.num_rows(), t.num_columns()),
         Err(e) => serde_json::json!({ "ok": false, "errors": e.0 }).to_string(),
     }
 }
