@@ -32,9 +32,23 @@ struct Answer<'a> {
 /// (a URL or file name; its extension hints the format). `width` is the
 /// container's width in CSS pixels, used when the spec sets none.
 pub fn render_json(spec: &str, data: Option<&[u8]>, data_name: &str, width: f64) -> String {
-    let opts = RenderOptions { scene: SceneOptions { width: if width.is_finite() && width > 0.0 { width } else { 640.0 } } };
+    let opts = render_options(width);
     let data = data.map(|bytes| DataBytes { bytes, name: data_name });
-    let answer = match strata::render(spec, data, &opts) {
+    answer_json(strata::render(spec, data, &opts))
+}
+
+fn render_options(width: f64) -> RenderOptions {
+    RenderOptions { scene: SceneOptions { width: if width.is_finite() && width > 0.0 { width } else { 640.0 } } }
+}
+
+/// Render `spec` with data the Arrow add-on (`strata-wasm-arrow`) decoded
+/// into the column interchange.
+pub fn render_columns_json(spec: &str, columns: &[u8], width: f64) -> String {
+    answer_json(strata::render_columns(spec, columns, &render_options(width)))
+}
+
+fn answer_json(result: Result<strata::Rendered, strata::Errors>) -> String {
+    let answer = match result {
         Ok(r) => serde_json::to_string(&Answer {
             ok: true,
             svg: Some(&r.svg),
@@ -47,6 +61,13 @@ pub fn render_json(spec: &str, data: Option<&[u8]>, data_name: &str, width: f64)
         Err(e) => serde_json::to_string(&Answer { ok: false, svg: None, table: None, width: None, height: None, warnings: &[], errors: &e.0 }),
     };
     answer.unwrap_or_else(|_| r#"{"ok":false,"errors":[{"severity":"error","code":"internal","message":"could not encode the answer"}]}"#.to_string())
+}
+
+/// JavaScript entry point for Arrow data: `columns` is what the add-on's
+/// `decode` returned.
+#[wasm_bindgen]
+pub fn render_columns(spec: &str, columns: &[u8], width: f64) -> String {
+    render_columns_json(spec, columns, width)
 }
 
 /// JavaScript entry point; `data` may be `undefined` for specs with inline rows.

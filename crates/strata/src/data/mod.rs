@@ -118,10 +118,15 @@ pub fn read(bytes: &[u8], opts: &ReadOptions) -> Result<Table, Errors> {
     }
 }
 
+/// SHA-256 of the bytes.
+pub fn sha256_bytes(bytes: &[u8]) -> [u8; 32] {
+    use sha2::{Digest, Sha256};
+    Sha256::digest(bytes).into()
+}
+
 /// Lower-case hex SHA-256 of the bytes.
 pub fn sha256_hex(bytes: &[u8]) -> String {
-    use sha2::{Digest, Sha256};
-    let digest = Sha256::digest(bytes);
+    let digest = sha256_bytes(bytes);
     let mut s = String::with_capacity(64);
     for b in digest.iter() {
         s.push(char::from(b"0123456789abcdef"[(b >> 4) as usize]));
