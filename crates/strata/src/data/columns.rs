@@ -189,6 +189,24 @@ fn fast_decimal(b: &[u8], point: u8) -> Option<f64> {
 
 #[cold]
 fn slow_float(b: &[u8], decimal_comma: bool) -> Option<f64> {
+    any_float(b, decimal_comma).filter(|v| v.is_finite())
+}
+
+/// A number that is not finite: `NaN`, `inf`, `Infinity` (any case, with a
+/// sign) or a decimal too large for a 64-bit float (`1e309`). In a number
+/// column such a cell is read as missing, and the reader warns once.
+#[cold]
+pub fn is_not_finite(b: &[u8], decimal_comma: bool) -> bool {
+    let t = trim(b);
+    let w = t.strip_prefix(b"-").or_else(|| t.strip_prefix(b"+")).unwrap_or(t);
+    w.eq_ignore_ascii_case(b"nan")
+        || w.eq_ignore_ascii_case(b"inf")
+        || w.eq_ignore_ascii_case(b"infinity")
+        || any_float(t, decimal_comma).is_some_and(|v| !v.is_finite())
+}
+
+/// The general parser, infinities (from overflow) included.
+fn any_float(b: &[u8], decimal_comma: bool) -> Option<f64> {
     if b.is_empty() || b.len() > 64 {
         return None;
     }
@@ -210,7 +228,7 @@ fn slow_float(b: &[u8], decimal_comma: bool) -> Option<f64> {
         return None;
     }
     let s = std::str::from_utf8(&buf[..b.len()]).ok()?;
-    s.parse::<f64>().ok().filter(|v| v.is_finite())
+    s.parse::<f64>().ok()
 }
 
 #[inline]
@@ -235,7 +253,7 @@ pub(crate) fn parse_datetime(b: &[u8]) -> Option<i64> {
 fn first_kind(col: &TextColumn, rules: &CellRules) -> Inferred {
     for i in 0..col.len() {
         let c = col.cell(i);
-        if rules.is_null(c) {
+        if rules.is_null(c) || is_not_finite(c, rules.decimal_comma) {
             continue;
         }
         return if parse_int(c).is_some() {
@@ -255,11 +273,22 @@ fn first_kind(col: &TextColumn, rules: &CellRules) -> Inferred {
     Inferred::Text
 }
 
-/// Parse every non-null cell with `f`; `Err(row)` names the first that fails.
-fn scan<T: Default + Copy>(col: &TextColumn, rules: &CellRules, f: impl Fn(&[u8]) -> Option<T>) -> Result<(Vec<T>, Option<Vec<bool>>), usize> {
+/// Cells of a number column that were not finite numbers: the first row and how many.
+pub type NotFinite = Option<(usize, usize)>;
+
+/// Parse every non-null cell with `f`; `Err(row)` names the first that
+/// fails. With `numbers`, a cell that is a non-finite number is missing
+/// (and noted).
+fn scan<T: Default + Copy>(
+    col: &TextColumn,
+    rules: &CellRules,
+    numbers: bool,
+    f: impl Fn(&[u8]) -> Option<T>,
+) -> Result<(Vec<T>, Option<Vec<bool>>, NotFinite), usize> {
     let n = col.len();
     let mut vals = Vec::with_capacity(n);
     let mut nulls = ValidBuilder::default();
+    let mut odd: NotFinite = None;
     for i in 0..n {
         let c = col.cell(i);
         // Null tokens first: a configured token such as `-999` is missing,
@@ -273,10 +302,24 @@ fn scan<T: Default + Copy>(col: &TextColumn, rules: &CellRules, f: impl Fn(&[u8]
                 nulls.missing(vals.len());
                 vals.push(T::default());
             }
+            None if numbers && is_not_finite(c, rules.decimal_comma) => {
+                nulls.missing(vals.len());
+                vals.push(T::default());
+                note(&mut odd, i);
+            }
             None => return Err(i),
         }
     }
-    Ok((vals, nulls.finish()))
+    Ok((vals, nulls.finish(), odd))
+}
+
+/// Count a non-finite cell at `row`.
+#[inline]
+pub(crate) fn note(odd: &mut NotFinite, row: usize) {
+    match odd {
+        Some((_, k)) => *k += 1,
+        None => *odd = Some((row, 1)),
+    }
 }
 
 /// Numbers with NaN where the validity list says missing.
@@ -314,6 +357,12 @@ fn cell_error(col: &TextColumn, row: usize, expected: &'static str) -> CellError
 /// the narrowest of integer, number, bool, date, date-time and text that
 /// every non-null cell fits.
 pub fn build(col: TextColumn, forced: Option<ColumnType>, rules: &CellRules) -> Result<Column, CellError> {
+    build_noting(col, forced, rules).map(|(c, _)| c)
+}
+
+/// [`build`], and where a number column had cells that were not finite
+/// numbers (read as missing).
+pub fn build_noting(col: TextColumn, forced: Option<ColumnType>, rules: &CellRules) -> Result<(Column, NotFinite), CellError> {
     let dc = rules.decimal_comma;
     let kind = match forced {
         None => first_kind(&col, rules),
@@ -330,36 +379,37 @@ pub fn build(col: TextColumn, forced: Option<ColumnType>, rules: &CellRules) -> 
             text(col, rules)
         }
     };
+    let plain = |r: Result<Column, CellError>| r.map(|c| (c, None));
     match kind {
-        Inferred::Int => match scan(&col, rules, parse_int) {
-            Ok((values, valid)) => Ok(Column::Int(Ints { values, valid })),
+        Inferred::Int => match scan(&col, rules, true, parse_int) {
+            Ok((values, valid, odd)) => Ok((Column::Int(Ints { values, valid }), odd)),
             Err(_) => float(col, rules, dc, strict),
         },
         Inferred::Float => float(col, rules, dc, strict),
-        Inferred::Bool => match scan(&col, rules, parse_bool) {
-            Ok((v, n)) => Ok(Column::Bool(v.into_iter().enumerate().map(|(i, b)| n.as_ref().is_none_or(|m| m[i]).then_some(b)).collect())),
+        Inferred::Bool => plain(match scan(&col, rules, false, parse_bool) {
+            Ok((v, n, _)) => Ok(Column::Bool(v.into_iter().enumerate().map(|(i, b)| n.as_ref().is_none_or(|m| m[i]).then_some(b)).collect())),
             Err(row) => fallback(col, row, EXPECT_BOOL),
-        },
-        Inferred::Date => match scan(&col, rules, parse_date) {
-            Ok((v, n)) => Ok(Column::Date(with_nan(v.into_iter().map(|d| d as f64).collect(), n))),
+        }),
+        Inferred::Date => plain(match scan(&col, rules, false, parse_date) {
+            Ok((v, n, _)) => Ok(Column::Date(with_nan(v.into_iter().map(|d| d as f64).collect(), n))),
             Err(_) => datetime(col, rules, strict),
-        },
-        Inferred::DateTime => datetime(col, rules, strict),
-        Inferred::Text => text(col, rules),
+        }),
+        Inferred::DateTime => plain(datetime(col, rules, strict)),
+        Inferred::Text => plain(text(col, rules)),
     }
 }
 
-fn float(col: TextColumn, rules: &CellRules, dc: bool, strict: bool) -> Result<Column, CellError> {
-    match scan(&col, rules, |c| parse_float(c, dc)) {
-        Ok((v, n)) => Ok(Column::Float(with_nan(v, n))),
+fn float(col: TextColumn, rules: &CellRules, dc: bool, strict: bool) -> Result<(Column, NotFinite), CellError> {
+    match scan(&col, rules, true, |c| parse_float(c, dc)) {
+        Ok((v, n, odd)) => Ok((Column::Float(with_nan(v, n)), odd)),
         Err(row) if strict => Err(cell_error(&col, row, if dc { "a number (decimal comma)" } else { EXPECT_NUMBER })),
-        Err(_) => text(col, rules),
+        Err(_) => text(col, rules).map(|c| (c, None)),
     }
 }
 
 fn datetime(col: TextColumn, rules: &CellRules, strict: bool) -> Result<Column, CellError> {
-    match scan(&col, rules, parse_datetime) {
-        Ok((v, n)) => Ok(Column::DateTime(with_nan(v.into_iter().map(|x| x as f64).collect(), n))),
+    match scan(&col, rules, false, parse_datetime) {
+        Ok((v, n, _)) => Ok(Column::DateTime(with_nan(v.into_iter().map(|x| x as f64).collect(), n))),
         Err(row) if strict => Err(cell_error(&col, row, EXPECT_DATE)),
         Err(_) => text(col, rules),
     }
@@ -482,8 +532,12 @@ mod tests {
         assert_eq!(ty(&["2024-01-02", "2024-01-03"]), Kind::Date);
         assert_eq!(ty(&["2024-01-02", "2024-01-03T04:05:06Z"]), Kind::DateTime);
         assert_eq!(ty(&["1", "true"]), Kind::Text);
-        assert_eq!(ty(&["1", "inf"]), Kind::Text);
+        // A non-finite number among numbers is a missing number, not text;
+        // with no finite number the column stays text.
+        assert_eq!(ty(&["1", "inf"]), Kind::Int);
+        assert_eq!(ty(&["NaN", "2.5", "1e309"]), Kind::Float);
         assert_eq!(ty(&["NaN"]), Kind::Text);
+        assert_eq!(ty(&["x", "NaN", "1"]), Kind::Text);
         assert_eq!(ty(&["", "NA"]), Kind::Text);
         // 2^63 does not fit i64, so the column is a float one.
         assert_eq!(ty(&["9223372036854775808"]), Kind::Float);

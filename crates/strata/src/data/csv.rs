@@ -7,8 +7,8 @@
 //! finds its line afterwards from the record's byte offset.
 
 use super::columns::{
-    build, parse_bool, parse_date, parse_datetime, parse_float, parse_int, type_word, unique_names, with_nan, CellError, CellRules, TextColumn, EXPECT_BOOL,
-    EXPECT_DATE,
+    build_noting, is_not_finite, note, parse_bool, parse_date, parse_datetime, parse_float, parse_int, type_word, unique_names, with_nan, CellError, CellRules,
+    NotFinite, TextColumn, EXPECT_BOOL, EXPECT_DATE,
 };
 use super::table::{Column, Ints};
 use super::{ReadOptions, Table};
@@ -209,6 +209,8 @@ fn mismatch(bytes: &[u8], start: usize, k: usize, name: &str, t: Option<ColumnTy
 /// What reading the records gives: one sink per header cell.
 struct Parsed {
     sinks: Vec<Sink>,
+    /// Per column: cells of a number column that were not finite numbers.
+    odd: Vec<NotFinite>,
 }
 
 /// The header record's cells, and the offset where the data starts.
@@ -239,6 +241,7 @@ fn tokenize(bytes: &[u8], delimiter: u8, max_rows: usize, names: &[String], forc
     let mut seen_header = false;
     let dc = rules.decimal_comma;
     let share = bytes.len() / ncols.max(1) + 16;
+    let mut odd: Vec<NotFinite> = vec![None; ncols];
     let done = for_each_record(bytes, delimiter, |start, buf, ends| {
         if !seen_header {
             seen_header = true;
@@ -317,6 +320,10 @@ fn tokenize(bytes: &[u8], delimiter: u8, max_rows: usize, names: &[String], forc
                         let mut n = nulls.take();
                         push_valid(&mut n);
                         *sink = Sink::Float { vals: fv, nulls: n };
+                    } else if is_not_finite(cell, dc) {
+                        vals.push(0);
+                        push_null(nulls, row);
+                        note(&mut odd[k], row);
                     } else {
                         *sink = Sink::Redo;
                     }
@@ -328,6 +335,10 @@ fn tokenize(bytes: &[u8], delimiter: u8, max_rows: usize, names: &[String], forc
                     } else if let Some(v) = parse_float(cell, dc) {
                         vals.push(v);
                         push_valid(nulls);
+                    } else if is_not_finite(cell, dc) {
+                        vals.push(0.0);
+                        push_null(nulls, row);
+                        note(&mut odd[k], row);
                     } else if forced[k].is_some() {
                         fatal = Some(mismatch(bytes, start, k, &names[k], forced[k], cell, if dc { "a number (decimal comma)" } else { "a number" }));
                         return false;
@@ -436,9 +447,10 @@ fn tokenize(bytes: &[u8], delimiter: u8, max_rows: usize, names: &[String], forc
         }
         for (col, k) in cols.into_iter().zip(redo) {
             sinks[k] = Sink::Text(col);
+            odd[k] = None;
         }
     }
-    Ok(Parsed { sinks })
+    Ok(Parsed { sinks, odd })
 }
 
 /// Every record's cells as text, header first, for tests against other
@@ -540,21 +552,39 @@ pub fn read(bytes: &[u8], delimiter: u8, opts: &ReadOptions) -> Result<Table, Er
     warnings.extend(super::unknown_type_keys(&opts.types, &names));
     let rules = CellRules::new(&opts.null_tokens, opts.decimal_comma);
     let forced: Vec<Option<ColumnType>> = names.iter().map(|n| opts.types.get(n).copied()).collect();
-    let Parsed { sinks } = tokenize(bytes, delimiter, opts.max_rows, &names, &forced, &rules)?;
+    let Parsed { sinks, odd } = tokenize(bytes, delimiter, opts.max_rows, &names, &forced, &rules)?;
     let mut columns = Vec::with_capacity(names.len());
-    for (c, (sink, name)) in sinks.into_iter().zip(&names).enumerate() {
+    for (c, ((sink, name), mut odd)) in sinks.into_iter().zip(&names).zip(odd).enumerate() {
         let col = match sink {
             Sink::Int { vals, nulls, .. } => Column::Int(Ints { values: vals, valid: nulls }),
             Sink::Float { vals, nulls } => Column::Float(with_nan(vals, nulls)),
             Sink::Bool { vals, nulls } => Column::Bool(vals.into_iter().enumerate().map(|(i, b)| nulls.as_ref().is_none_or(|m| m[i]).then_some(b)).collect()),
             Sink::Date { vals, nulls } => Column::Date(with_nan(vals.into_iter().map(|d| d as f64).collect(), nulls)),
             Sink::DateTime { vals, nulls } => Column::DateTime(with_nan(vals.into_iter().map(|x| x as f64).collect(), nulls)),
-            Sink::Text(col) => build(col, forced[c], &rules).map_err(|e| cell_error(bytes, delimiter, name, c, forced[c], e))?,
+            Sink::Text(col) => {
+                let (col, o) = build_noting(col, forced[c], &rules).map_err(|e| cell_error(bytes, delimiter, name, c, forced[c], e))?;
+                odd = o;
+                col
+            }
             Sink::Redo => return Err(Diagnostic::error("data.internal", format!("column `{name}` was not read")).into()),
         };
+        if let Some((row, count)) = odd {
+            let line = line_at(bytes, record_start(bytes, delimiter, row + 1));
+            warnings.push(not_finite_warning(name, count, &format!("line {line}")).at_data(line, Some(c as u64 + 1)));
+        }
         columns.push(col);
     }
     Ok(Table::from_columns(names, columns, warnings))
+}
+
+/// One warning for a number column's cells that were not finite numbers.
+pub(crate) fn not_finite_warning(name: &str, count: usize, first: &str) -> Diagnostic {
+    let cells = if count == 1 { "1 cell".to_string() } else { format!("{count} cells") };
+    Diagnostic::warning(
+        "data.not_finite",
+        format!("column `{name}` holds numbers, but {cells} (the first on {first}) hold NaN, an infinity or a number too large for a 64-bit float; they are read as missing"),
+    )
+    .with_hint("write an empty cell for a missing value")
 }
 
 fn cell_error(bytes: &[u8], delimiter: u8, name: &str, c: usize, forced: Option<ColumnType>, e: CellError) -> Errors {
@@ -578,6 +608,7 @@ fn cell_error(bytes: &[u8], delimiter: u8, name: &str, c: usize, forced: Option<
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::data::columns::build;
     use crate::spec::ColumnType;
     use indexmap::IndexMap;
 
@@ -778,6 +809,32 @@ mod tests {
                 (w, g) => panic!("{cells:?}: {w:?} vs {g:?}"),
             }
         }
+    }
+
+    #[test]
+    fn a_non_finite_cell_among_numbers_is_missing_with_one_warning() {
+        // Streamed (the first cell is a number) and typed afterwards (it is not).
+        for text in ["v,w\n1,x\nNaN,y\n2.5,z\ninf,w\n", "v,w\nNaN,x\n1,y\n2.5,z\n-Infinity,w\n"] {
+            let tb = t(text);
+            let Column::Float(v) = tb.column(0) else { panic!("{text}: {:?}", tb.column(0)) };
+            assert_eq!(v.iter().filter(Option::is_none).count(), 2, "{text}");
+            assert_eq!(tb.warnings.len(), 1, "{text}");
+            let w = &tb.warnings[0];
+            assert_eq!((w.code.as_str(), w.at.column), ("data.not_finite", Some(1)));
+            assert!(w.message.contains("`v`") && w.message.contains("2 cells"), "{}", w.message);
+        }
+        assert_eq!(t("v,w\n1,x\nNaN,y\n").warnings[0].at.line, Some(3));
+        assert_eq!(t("v,w\nNaN,x\n1,y\n").warnings[0].at.line, Some(2));
+        // Integers stay integers; a too-large number is not finite either.
+        let tb = t("v\n1\n1e309\n3\n");
+        assert!(matches!(tb.column(0), Column::Int(_)));
+        assert_eq!(tb.column(0).null_count(), 1);
+        // A declared number column reads them as missing too, not as an error.
+        let mut o = opts();
+        o.types.insert("v".into(), ColumnType::Number);
+        assert_eq!(read(b"v\nnan\n2\n", b',', &o).unwrap().column(0).null_count(), 1);
+        // Text stays text.
+        assert!(matches!(t("v\nx\nNaN\n").column(0), Column::Text(_)));
     }
 
     #[test]

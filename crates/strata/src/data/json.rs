@@ -1,6 +1,6 @@
 //! JSON arrays of records (and the spec's inline `rows`) into table columns.
 
-use super::columns::{build, type_word, unique_names, CellRules, TextColumn};
+use super::columns::{build_noting, type_word, unique_names, CellRules, TextColumn};
 use super::table::Column;
 use super::{ReadOptions, Table};
 use crate::error::{Diagnostic, Errors};
@@ -95,7 +95,7 @@ pub fn from_records(rows: &[Map<String, Value>], opts: &ReadOptions) -> Result<T
                     return Err(Diagnostic::error("data.too_large", format!("column `{name}` holds more than 2 GiB of text")).into());
                 }
             }
-            build(col, forced, &rules).map_err(|e| {
+            let (col, odd) = build_noting(col, forced, &rules).map_err(|e| {
                 Diagnostic::error(
                     "data.type_mismatch",
                     format!(
@@ -107,7 +107,11 @@ pub fn from_records(rows: &[Map<String, Value>], opts: &ReadOptions) -> Result<T
                     ),
                 )
                 .at_path(format!("data.types.{name}"))
-            })?
+            })?;
+            if let Some((row, count)) = odd {
+                warnings.push(super::csv::not_finite_warning(name, count, &format!("record {}", row + 1)));
+            }
+            col
         };
         columns.push(col);
     }
@@ -132,6 +136,18 @@ mod tests {
         assert!(t.column(0).is_null(1));
         let Column::Text(f) = t.column(5) else { panic!() };
         assert_eq!(f.get(1), Some("[1]"));
+    }
+
+    #[test]
+    fn non_finite_numbers_are_missing_as_in_csv() {
+        // JSON has no NaN or infinity literal: they come as strings, as a
+        // CSV cell would; the column stays a number column with one warning.
+        let t = read(br#"[{"v": 1}, {"v": "NaN"}, {"v": 2.5}, {"v": "-inf"}, {"v": null}]"#, &opts()).unwrap();
+        let Column::Float(v) = t.column(0) else { panic!("{:?}", t.column(0)) };
+        assert_eq!(v.iter().collect::<Vec<_>>(), vec![Some(1.0), None, Some(2.5), None, None]);
+        assert_eq!(t.warnings.len(), 1);
+        assert_eq!(t.warnings[0].code, "data.not_finite");
+        assert!(t.warnings[0].message.contains("2 cells (the first on record 2)"), "{}", t.warnings[0].message);
     }
 
     #[test]
