@@ -16,6 +16,9 @@ if [ ! -x "$opt" ]; then
   echo "build-wasm: $opt is missing: run (cd tests/browser && npm ci) first (npm's binaryen; Debian's is too old)" >&2
   exit 1
 fi
+# ahash (under the Arrow crates in the add-on) seeds its hasher at compile
+# time through const-random; a fixed seed makes every build the same bytes.
+export CONST_RANDOM_SEED=strata-wasm-build
 rm -rf www/pkg
 for crate in strata-wasm strata-wasm-arrow; do
   name=${crate//-/_}
