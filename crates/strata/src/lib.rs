@@ -4,7 +4,7 @@
 //! next:
 //!
 //! 1. [`spec`]  — JSON text to [`spec::Spec`]
-//! 2. [`data`]  — bytes to [`data::Table`] (Arrow columns); [`expr`] derives and filters
+//! 2. [`data`]  — bytes to [`data::Table`] (typed columns of our own); [`expr`] derives and filters
 //! 3. [`plan`]  — spec + table to [`plan::Plan`]: statistics, positions, trained scales
 //! 4. [`scene`] — plan to [`scene::Scene`]: marks, axes and legends in pixels
 //! 5. [`svg`]   — scene to SVG text; [`datatable`] — plan to an HTML data table
