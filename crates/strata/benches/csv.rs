@@ -62,7 +62,7 @@ fn write_mixed(path: &Path) {
     while out.len() < TARGET_BYTES {
         id += 1;
         let day = rng.below(20_000) as i64;
-        let (y, m, d) = strata::data::time::civil_from_days(day);
+        let (y, m, d) = strata::calendar::civil_from_days(day);
         let secs = rng.below(86_400);
         let w = words[rng.below(words.len() as u64) as usize];
         let station = if w.contains(['"', ',']) { format!("\"{}\"", w.replace('"', "\"\"")) } else { w.to_string() };

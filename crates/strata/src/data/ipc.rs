@@ -13,6 +13,7 @@
 //! structs, durations, times of day) are dropped with a warning.
 
 use super::columns::{retype, unique_names};
+use super::table::Column;
 use super::{ReadOptions, Table};
 use crate::error::{Diagnostic, Errors};
 use arrow_array::cast::AsArray;
@@ -332,20 +333,14 @@ pub fn read(bytes: &[u8], opts: &ReadOptions) -> Result<Table, Errors> {
     let mut out_names = Vec::new();
     let mut columns = Vec::new();
     for (i, (field, name)) in schema.fields().iter().zip(&names).enumerate() {
-        let mut parts = Vec::with_capacity(batches.len().max(1));
-        if batches.is_empty() {
-            parts.push(new_empty_array(field.data_type()));
+        // Each batch's column to the table's own, then one after another
+        // (no Arrow concatenation: the add-on stays small).
+        let mut arrays: Vec<ArrayRef> = batches.iter().map(|b| b.column(i).clone()).collect();
+        if arrays.is_empty() {
+            arrays.push(new_empty_array(field.data_type()));
         }
-        for b in &batches {
-            parts.push(b.column(i).clone());
-        }
-        let whole = if parts.len() == 1 {
-            parts.pop().unwrap_or_else(|| new_empty_array(field.data_type()))
-        } else {
-            let refs: Vec<&dyn Array> = parts.iter().map(|a| a.as_ref()).collect();
-            arrow_select::concat::concat(&refs).map_err(ipc_error)?
-        };
-        let Some(col) = normalise(&whole).as_ref().and_then(super::arrow::column) else {
+        let parts: Option<Vec<Column>> = arrays.iter().map(to_column).collect();
+        let Some(col) = parts.and_then(Column::concat) else {
             warnings.push(Diagnostic::warning(
                 "data.unsupported_column",
                 format!("column `{name}` has Arrow type {}, which Strata cannot chart; it was left out", field.data_type()),
@@ -436,11 +431,20 @@ pub fn normalise(a: &ArrayRef) -> Option<ArrayRef> {
         D::LargeUtf8 => Arc::new(a.as_string::<i64>().iter().collect::<StringArray>()),
         D::Utf8View => Arc::new(a.as_string_view().iter().collect::<StringArray>()),
         D::Null => Arc::new(StringArray::new_null(a.len())),
-        D::Dictionary(_, _) => {
-            let d = a.as_any_dictionary();
-            let values = normalise(d.values())?;
-            arrow_select::take::take(values.as_ref(), d.keys(), None).ok()?
-        }
         _ => return None,
     })
+}
+
+/// Any Arrow array as a table column; dictionary-encoded arrays are
+/// decoded through their (normalised) values. `None` for types Strata does
+/// not chart.
+pub fn to_column(a: &ArrayRef) -> Option<Column> {
+    if let DataType::Dictionary(_, _) = a.data_type() {
+        let d = a.as_any_dictionary();
+        let values = to_column(d.values())?;
+        let keys = d.normalized_keys();
+        let idx: Vec<Option<usize>> = keys.iter().enumerate().map(|(i, k)| d.keys().is_valid(i).then_some(*k)).collect();
+        return Some(values.take(&idx));
+    }
+    normalise(a).as_ref().and_then(super::arrow::column)
 }

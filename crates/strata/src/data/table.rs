@@ -150,6 +150,67 @@ impl Column {
     }
 }
 
+impl Column {
+    /// The rows `idx` picks, in its order (`None` or an index out of range:
+    /// a missing row).
+    pub fn take(&self, idx: &[Option<usize>]) -> Column {
+        let n = self.len();
+        let at = |i: &Option<usize>| i.filter(|i| *i < n);
+        match self {
+            Column::Int(v) => Column::Int(idx.iter().map(|i| at(i).and_then(|i| v.get(i))).collect()),
+            Column::Float(v) => Column::Float(idx.iter().map(|i| at(i).and_then(|i| v.get(i))).collect()),
+            Column::Date(v) => Column::Date(idx.iter().map(|i| at(i).and_then(|i| v.get(i))).collect()),
+            Column::DateTime(v) => Column::DateTime(idx.iter().map(|i| at(i).and_then(|i| v.get(i))).collect()),
+            Column::Bool(v) => Column::Bool(idx.iter().map(|i| at(i).and_then(|i| v[i])).collect()),
+            Column::Text(v) => Column::Text(idx.iter().map(|i| at(i).and_then(|i| v.get(i))).collect()),
+        }
+    }
+
+    /// The parts one after another; `None` when their kinds differ (integers
+    /// and numbers together become numbers).
+    pub fn concat(parts: Vec<Column>) -> Option<Column> {
+        let kinds: Vec<Kind> = parts.iter().map(Column::kind).collect();
+        let first = *kinds.first()?;
+        let numbers = kinds.iter().all(|k| matches!(k, Kind::Int | Kind::Float));
+        if parts.len() == 1 {
+            return parts.into_iter().next();
+        }
+        if !kinds.iter().all(|k| *k == first) && !numbers {
+            return None;
+        }
+        let nums = |parts: Vec<Column>| -> Nums {
+            let mut out = Vec::new();
+            for p in parts {
+                match p {
+                    Column::Float(v) | Column::Date(v) | Column::DateTime(v) => out.extend_from_slice(v.raw()),
+                    Column::Int(v) => out.extend(v.iter().map(|x| x.map(|x| x as f64).unwrap_or(f64::NAN))),
+                    _ => {}
+                }
+            }
+            out.into()
+        };
+        Some(match first {
+            _ if numbers && kinds.contains(&Kind::Float) => Column::Float(nums(parts)),
+            Kind::Float => Column::Float(nums(parts)),
+            Kind::Date => Column::Date(nums(parts)),
+            Kind::DateTime => Column::DateTime(nums(parts)),
+            Kind::Int => Column::Int(parts.iter().flat_map(|p| if let Column::Int(v) = p { v.iter().collect::<Vec<_>>() } else { vec![] }).collect()),
+            Kind::Bool => Column::Bool(parts.into_iter().flat_map(|p| if let Column::Bool(v) = p { v } else { vec![] }).collect()),
+            Kind::Text => {
+                let mut b = TextBuilder::default();
+                for p in &parts {
+                    if let Column::Text(v) = p {
+                        for x in v.iter() {
+                            b.push(x.map(str::as_bytes));
+                        }
+                    }
+                }
+                Column::Text(b.finish())
+            }
+        })
+    }
+}
+
 /// Integers with a validity list (`None`: every row is present).
 #[derive(Debug, Clone, PartialEq, Default)]
 pub struct Ints {
@@ -439,6 +500,22 @@ mod tests {
         assert!(Text::from_parts(vec![2], "ab".into(), vec![1, 2]).is_none());
         assert!(Text::from_parts(vec![0], "é".into(), vec![1]).is_none());
         assert!(Text::from_parts(vec![0], "ab".into(), vec![3]).is_none());
+    }
+
+    #[test]
+    fn take_and_concat() {
+        let t: Text = [Some("a"), None, Some("b")].into_iter().collect();
+        let c = Column::Text(t).take(&[Some(2), Some(0), None, Some(1), Some(9)]);
+        let Column::Text(t) = &c else { unreachable!() };
+        assert_eq!(t.iter().collect::<Vec<_>>(), vec![Some("b"), Some("a"), None, None, None]);
+        let both = Column::concat(vec![c.clone(), c]).unwrap();
+        assert_eq!(both.len(), 10);
+        let i = Column::Int([Some(1), None].into_iter().collect());
+        let f = Column::Float(vec![2.5].into());
+        let Some(Column::Float(n)) = Column::concat(vec![i.clone(), f]) else { panic!() };
+        assert_eq!(n.iter().collect::<Vec<_>>(), vec![Some(1.0), None, Some(2.5)]);
+        assert_eq!(Column::concat(vec![i.clone(), i]).unwrap().null_count(), 2);
+        assert!(Column::concat(vec![Column::Bool(vec![None]), Column::Float(vec![1.0].into())]).is_none());
     }
 
     #[test]
