@@ -3,7 +3,7 @@
 //! Cells live in a [`TextColumn`]: one byte buffer and one offset per cell;
 //! a text column becomes a dictionary-coded [`Text`].
 
-use super::table::{Column, Ints, TextBuilder, ValidBuilder};
+use super::table::{Column, Ints, Text, TextBuilder, ValidBuilder, MISSING};
 use crate::calendar::{parse_date_bytes, parse_datetime_bytes};
 use crate::spec::ColumnType;
 
@@ -428,8 +428,26 @@ fn text(col: TextColumn, rules: &CellRules) -> Result<Column, CellError> {
     for i in 0..n {
         let c = col.cell(i);
         b.push((!rules.is_null(c)).then_some(c));
+        // Mostly distinct values (names, free text): a dictionary would cost
+        // a hash a cell and a second copy of the text for nothing, so the
+        // cells themselves become the dictionary, one entry a row.
+        if (i + 1 == 4096 || i + 1 == 65_536) && b.dict_len() * 2 > i + 1 {
+            return Ok(Column::Text(row_coded(col, rules)));
+        }
     }
     Ok(Column::Text(b.finish()))
+}
+
+/// Text whose dictionary is the cells as they are (entry `i` is row `i`),
+/// for columns of mostly distinct values: no hashing and no copy of the text.
+fn row_coded(col: TextColumn, rules: &CellRules) -> Text {
+    let codes: Vec<u32> = (0..col.len()).map(|i| if rules.is_null(col.cell(i)) { MISSING } else { i as u32 }).collect();
+    let TextColumn { values, offsets } = col;
+    let ends: Vec<u32> = offsets[1..].iter().map(|o| *o as u32).collect();
+    // The bytes were checked as UTF-8 by the caller and cells end on
+    // character boundaries, which `from_parts` checks again.
+    let dict = String::from_utf8(values).unwrap_or_default();
+    Text::from_parts(codes, dict, ends).unwrap_or_default()
 }
 
 /// Apply a `data.types` override to a column read from typed data (Arrow,
@@ -595,6 +613,21 @@ mod tests {
         let a = build(col(&["a", "NA", "c"]), None, &CellRules::default()).unwrap();
         let Column::Text(s) = a else { panic!("not text") };
         assert_eq!(s.iter().collect::<Vec<_>>(), vec![Some("a"), None, Some("c")]);
+    }
+
+    #[test]
+    fn mostly_distinct_text_is_coded_by_row() {
+        let cells: Vec<String> = (0..5000).map(|i| if i % 7 == 3 { "NA".to_string() } else { format!("name {i} é") }).collect();
+        let c = col(&cells.iter().map(String::as_str).collect::<Vec<_>>());
+        let Column::Text(t) = build(c, None, &CellRules::default()).unwrap() else { panic!() };
+        assert_eq!(t.dict_len(), 5000);
+        for (i, v) in t.iter().enumerate() {
+            assert_eq!(v, (i % 7 != 3).then_some(cells[i].as_str()));
+        }
+        // Few distinct values stay dictionary-coded.
+        let cells: Vec<&str> = (0..5000).map(|i| ["a", "b", "c"][i % 3]).collect();
+        let Column::Text(t) = build(col(&cells), None, &CellRules::default()).unwrap() else { panic!() };
+        assert_eq!(t.dict_len(), 3);
     }
 
     #[test]

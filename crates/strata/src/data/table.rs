@@ -457,9 +457,9 @@ impl TextBuilder {
     pub fn finish(self) -> Text {
         self.finish_checked().unwrap_or_default()
     }
-    /// The first row holding dictionary value `code`.
-    pub fn first_row_of(&self, code: u32) -> usize {
-        self.codes.iter().position(|c| *c == code).unwrap_or(0)
+    /// Distinct values so far.
+    pub fn dict_len(&self) -> usize {
+        self.ends.len()
     }
 }
 
