@@ -6,20 +6,14 @@
 //! with the `arrow` feature a null-free Arrow `Float64` buffer is held as it
 //! is, so a 10M-row column handed in by native code is never copied.
 
-use std::sync::Arc;
-
-#[derive(Clone)]
-enum Store {
-    Own(Arc<Vec<f64>>),
-    #[cfg(feature = "arrow")]
-    Arrow(arrow_buffer::ScalarBuffer<f64>),
-}
-
-impl Default for Store {
-    fn default() -> Self {
-        Store::Own(Arc::new(Vec::new()))
-    }
-}
+/// The storage: with the `arrow` feature an Arrow buffer (a `Vec<f64>`
+/// becomes one without a copy, and an Arrow column is held as it is);
+/// without it a shared `Vec`. One kind of storage a build, so reading a
+/// value is one slice access, with no branch, in the hot loops.
+#[cfg(feature = "arrow")]
+type Store = arrow_buffer::ScalarBuffer<f64>;
+#[cfg(not(feature = "arrow"))]
+type Store = std::sync::Arc<Vec<f64>>;
 
 /// A column of numbers (or of times, in ms since 1970-01-01 UTC).
 /// `get(i)` is `None` where the value is missing or not finite.
@@ -30,7 +24,7 @@ impl Nums {
     /// Share an Arrow buffer as it is; its non-finite numbers read as missing.
     #[cfg(feature = "arrow")]
     pub fn shared(values: arrow_buffer::ScalarBuffer<f64>) -> Nums {
-        Nums(Store::Arrow(values))
+        Nums(values)
     }
     pub fn len(&self) -> usize {
         self.raw().len()
@@ -54,11 +48,7 @@ impl Nums {
     /// The stored numbers, NaN (or an infinity) where a value is missing.
     #[inline]
     pub fn raw(&self) -> &[f64] {
-        match &self.0 {
-            Store::Own(v) => v,
-            #[cfg(feature = "arrow")]
-            Store::Arrow(b) => b,
-        }
+        &self.0
     }
     /// Lowest and highest present value, `None` when none is present.
     /// Branch-free so the compiler can vectorise it over millions of rows.
@@ -110,7 +100,7 @@ impl From<Vec<Option<f64>>> for Nums {
 
 impl From<Vec<f64>> for Nums {
     fn from(v: Vec<f64>) -> Nums {
-        Nums(Store::Own(Arc::new(v)))
+        Nums(v.into())
     }
 }
 
