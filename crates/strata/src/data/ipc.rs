@@ -442,8 +442,13 @@ pub fn to_column(a: &ArrayRef) -> Option<Column> {
     if let DataType::Dictionary(_, _) = a.data_type() {
         let d = a.as_any_dictionary();
         let values = to_column(d.values())?;
-        let keys = d.normalized_keys();
-        let idx: Vec<Option<usize>> = keys.iter().enumerate().map(|(i, k)| d.keys().is_valid(i).then_some(*k)).collect();
+        let n = d.keys().len();
+        // (`normalized_keys` asserts a non-empty dictionary; with none, every row is missing.)
+        let idx: Vec<Option<usize>> = if d.values().is_empty() {
+            vec![None; n]
+        } else {
+            d.normalized_keys().into_iter().enumerate().map(|(i, k)| d.keys().is_valid(i).then_some(k)).collect()
+        };
         return Some(values.take(&idx));
     }
     normalise(a).as_ref().and_then(super::arrow::column)
