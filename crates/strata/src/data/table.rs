@@ -416,9 +416,9 @@ impl TextBuilder {
         let start = if k == 0 { 0 } else { ends[k - 1] as usize };
         &dict[start..ends[k] as usize]
     }
-    /// Append a row; the bytes must be UTF-8 (checked by [`finish`](Self::finish)'s caller
-    /// through [`TextBuilder::push_str`], or known). `false` when the
-    /// dictionary would pass 4 GiB.
+    /// Append a row; the bytes must be UTF-8 (or [`finish_checked`](Self::finish_checked)
+    /// reports the value that is not). `false` when the dictionary would
+    /// pass 4 GiB (the row is then missing).
     #[inline]
     pub fn push(&mut self, v: Option<&[u8]>) -> bool {
         let Some(v) = v else {
@@ -431,7 +431,12 @@ impl TextBuilder {
             self.codes.push(k);
             return true;
         }
-        let Ok(end) = u32::try_from(self.dict.len() + v.len()) else { return false };
+        let Ok(end) = u32::try_from(self.dict.len() + v.len()) else {
+            // Past 4 GiB of distinct text: the row reads as missing (every
+            // row still gets a code), and the caller is told.
+            self.codes.push(MISSING);
+            return false;
+        };
         let k = self.ends.len() as u32;
         self.dict.extend_from_slice(v);
         self.ends.push(end);
