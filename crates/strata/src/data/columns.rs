@@ -276,15 +276,13 @@ fn first_kind(col: &TextColumn, rules: &CellRules) -> Inferred {
 /// Cells of a number column that were not finite numbers: the first row and how many.
 pub type NotFinite = Option<(usize, usize)>;
 
+/// Values, validity, and the non-finite cells of a scanned column.
+type Scanned<T> = (Vec<T>, Option<Vec<bool>>, NotFinite);
+
 /// Parse every non-null cell with `f`; `Err(row)` names the first that
 /// fails. With `numbers`, a cell that is a non-finite number is missing
 /// (and noted).
-fn scan<T: Default + Copy>(
-    col: &TextColumn,
-    rules: &CellRules,
-    numbers: bool,
-    f: impl Fn(&[u8]) -> Option<T>,
-) -> Result<(Vec<T>, Option<Vec<bool>>, NotFinite), usize> {
+fn scan<T: Default + Copy>(col: &TextColumn, rules: &CellRules, numbers: bool, f: impl Fn(&[u8]) -> Option<T>) -> Result<Scanned<T>, usize> {
     let n = col.len();
     let mut vals = Vec::with_capacity(n);
     let mut nulls = ValidBuilder::default();
