@@ -5,7 +5,8 @@
 //
 // It uses the engine's public wasm API: `render(spec, data, name, width)`
 // (JSON with the SVG or located errors) and `columns(data, name)` (the
-// columns and their inferred types, for the starter spec).
+// columns and their inferred types, for the starter spec); for Arrow files the
+// add-on's `decode` and the core's `render_columns` / `columns_of_interchange`.
 
 import initCore, * as core from './pkg/strata_wasm.js';
 
@@ -35,7 +36,7 @@ const NARROW = 360;
 // ------------------------------------------------------------ the engine
 
 const engines = {};
-/** The engine module: the core one, or the one with the Arrow IPC reader. */
+/** The engine module: the core one, or the Arrow add-on that decodes IPC for it. */
 function engine(kind) {
   if (!engines[kind]) {
     engines[kind] =
@@ -191,6 +192,7 @@ const state = {
   bytes: null, // Uint8Array of the opened file
   name: '', // its file name
   columns: [],
+  interchange: null, // Arrow data decoded by the add-on into the column interchange
   answer: null, // the last drawing of the spec as written
   width: 640,
 };
@@ -203,10 +205,14 @@ async function openFile(file) {
   state.bytes = bytes;
   state.name = file.name;
   state.columns = [];
+  state.interchange = null;
   ui.columns.replaceChildren();
   try {
-    const eng = await engine(isArrow(bytes, file.name) ? 'arrow' : 'core');
-    const info = JSON.parse(eng.columns(bytes, file.name));
+    const eng = await engine('core');
+    // Arrow IPC: the add-on decodes it once into the column interchange,
+    // which the core engine reads (it carries no Arrow code itself).
+    state.interchange = isArrow(bytes, file.name) ? (await engine('arrow')).decode(bytes) : null;
+    const info = JSON.parse(state.interchange ? eng.columns_of_interchange(state.interchange) : eng.columns(bytes, file.name));
     if (!info.ok) {
       ui.dataStatus.textContent = `${file.name}: could not read it: ${info.errors.map(describe).join('; ')}`;
       ui.starter.disabled = true;
@@ -321,7 +327,7 @@ async function draw() {
   }
   let eng;
   try {
-    eng = await engine(state.bytes && isArrow(state.bytes, state.name) ? 'arrow' : 'core');
+    eng = await engine('core');
   } catch (e) {
     ui.status.textContent = `The engine could not load: ${e.message}`;
     return;
@@ -330,7 +336,7 @@ async function draw() {
   const bytes = state.bytes || undefined;
   const name = state.name;
   const width = Math.max(200, Math.round(ui.light.clientWidth || 640));
-  const run = (t, w) => JSON.parse(eng.render(t, bytes, name, w));
+  const run = (t, w) => JSON.parse(state.interchange ? eng.render_columns(t, state.interchange, w) : eng.render(t, bytes, name, w));
   const answer = run(text, width);
   state.answer = answer;
   state.width = width;

@@ -14,7 +14,8 @@
 
 const ENGINE_URLS = {
   core: new URL('./pkg/strata_wasm.js', import.meta.url),
-  // The same engine with the Arrow IPC reader: loaded only for Arrow data.
+  // The Arrow add-on: decodes Arrow IPC into columns the core engine reads
+  // (render_columns). Loaded only for Arrow data.
   arrow: new URL('./pkg/strata_wasm_arrow.js', import.meta.url),
 };
 const SVG_NS = 'http://www.w3.org/2000/svg';
@@ -319,9 +320,10 @@ export class StrataChart extends HTMLElement {
         }
       }
       const width = this.#width(spec);
-      const engine = await loadEngine(bytes && isArrow(bytes, name, spec) ? 'arrow' : 'core');
+      const arrow = !!bytes && isArrow(bytes, name, spec);
+      const [engine, addon] = await Promise.all([loadEngine('core'), arrow ? loadEngine('arrow') : null]);
       if (generation !== this.#generation) return;
-      const answer = JSON.parse(engine.render(text, bytes, name, width));
+      const answer = JSON.parse(arrow ? engine.render_columns(text, addon.decode(bytes), width) : engine.render(text, bytes, name, width));
       if (generation !== this.#generation) return;
       if (!answer.ok) throw new ChartError(answer.errors);
       this.#lastWidth = width;

@@ -32,9 +32,23 @@ struct Answer<'a> {
 /// (a URL or file name; its extension hints the format). `width` is the
 /// container's width in CSS pixels, used when the spec sets none.
 pub fn render_json(spec: &str, data: Option<&[u8]>, data_name: &str, width: f64) -> String {
-    let opts = RenderOptions { scene: SceneOptions { width: if width.is_finite() && width > 0.0 { width } else { 640.0 } } };
+    let opts = render_options(width);
     let data = data.map(|bytes| DataBytes { bytes, name: data_name });
-    let answer = match strata::render(spec, data, &opts) {
+    answer_json(strata::render(spec, data, &opts))
+}
+
+fn render_options(width: f64) -> RenderOptions {
+    RenderOptions { scene: SceneOptions { width: if width.is_finite() && width > 0.0 { width } else { 640.0 } } }
+}
+
+/// Render `spec` with data the Arrow add-on (`strata-wasm-arrow`) decoded
+/// into the column interchange.
+pub fn render_columns_json(spec: &str, columns: &[u8], width: f64) -> String {
+    answer_json(strata::render_columns(spec, columns, &render_options(width)))
+}
+
+fn answer_json(result: Result<strata::Rendered, strata::Errors>) -> String {
+    let answer = match result {
         Ok(r) => serde_json::to_string(&Answer {
             ok: true,
             svg: Some(&r.svg),
@@ -47,6 +61,13 @@ pub fn render_json(spec: &str, data: Option<&[u8]>, data_name: &str, width: f64)
         Err(e) => serde_json::to_string(&Answer { ok: false, svg: None, table: None, width: None, height: None, warnings: &[], errors: &e.0 }),
     };
     answer.unwrap_or_else(|_| r#"{"ok":false,"errors":[{"severity":"error","code":"internal","message":"could not encode the answer"}]}"#.to_string())
+}
+
+/// JavaScript entry point for Arrow data: `columns` is what the add-on's
+/// `decode` returned.
+#[wasm_bindgen]
+pub fn render_columns(spec: &str, columns: &[u8], width: f64) -> String {
+    render_columns_json(spec, columns, width)
 }
 
 /// JavaScript entry point; `data` may be `undefined` for specs with inline rows.
@@ -62,7 +83,7 @@ pub fn render(spec: &str, data: Option<Vec<u8>>, data_name: &str, width: f64) ->
 pub fn table_shape(data: &[u8], data_name: &str) -> String {
     let opts = strata::data::ReadOptions { format: strata::data::format_from_name(data_name), ..Default::default() };
     match strata::data::read(data, &opts) {
-        Ok(t) => format!("{{\"ok\":true,\"rows\":{},\"columns\":{}}}", t.num_rows(), t.batch.num_columns()),
+        Ok(t) => format!("{{\"ok\":true,\"rows\":{},\"columns\":{}}}", t.num_rows(), t.num_columns()),
         Err(e) => serde_json::json!({ "ok": false, "errors": e.0 }).to_string(),
     }
 }
@@ -77,22 +98,32 @@ pub fn columns(data: &[u8], data_name: &str) -> String {
 }
 
 pub fn columns_json(data: &[u8], data_name: &str) -> String {
-    use arrow_schema::DataType;
     let opts = strata::data::ReadOptions { format: strata::data::format_from_name(data_name), ..Default::default() };
-    match strata::data::read(data, &opts) {
+    columns_answer(strata::data::read(data, &opts))
+}
+
+/// [`columns`] for data the Arrow add-on decoded into the column interchange.
+#[wasm_bindgen]
+pub fn columns_of_interchange(columns: &[u8]) -> String {
+    columns_answer(strata::data::interchange::read(columns, &strata::data::ReadOptions::default()))
+}
+
+fn columns_answer(table: Result<strata::data::Table, strata::Errors>) -> String {
+    use strata::data::Column;
+    match table {
         Ok(t) => {
-            let schema = t.batch.schema();
-            let cols: Vec<serde_json::Value> = schema
-                .fields()
+            let cols: Vec<serde_json::Value> = t
+                .names()
                 .iter()
-                .map(|f| {
-                    let kind = match f.data_type() {
-                        DataType::Boolean => "bool",
-                        DataType::Utf8 | DataType::LargeUtf8 => "text",
-                        DataType::Date32 | DataType::Date64 | DataType::Timestamp(..) => "date",
-                        _ => "number",
+                .zip(t.columns())
+                .map(|(name, c)| {
+                    let kind = match c {
+                        Column::Bool(_) => "bool",
+                        Column::Text(_) => "text",
+                        Column::Date(_) | Column::DateTime(_) => "date",
+                        Column::Int(_) | Column::Float(_) => "number",
                     };
-                    serde_json::json!({ "name": f.name(), "type": kind })
+                    serde_json::json!({ "name": name, "type": kind })
                 })
                 .collect();
             serde_json::json!({ "ok": true, "rows": t.num_rows(), "columns": cols }).to_string()

@@ -3,12 +3,10 @@
 //!
 //! cargo bench -p strata --bench stats
 
-use arrow_array::{Array, ArrayRef, Float64Array, RecordBatch};
-use arrow_schema::{DataType, Field, Schema};
 use criterion::{criterion_group, criterion_main, Criterion};
 use std::hint::black_box;
-use std::sync::Arc;
 use std::time::Duration;
+use strata::data::{Column, Table};
 use strata::stat::{bin, density, fit, rng::SplitMix64};
 
 /// Standard normal draws by Box-Muller from SplitMix64 (seeded).
@@ -107,31 +105,30 @@ fn line_svg(c: &mut Criterion) {
         })
         .collect();
     let xs: Vec<f64> = (0..n).map(|i| i as f64).collect();
-    let schema = Arc::new(Schema::new(vec![Field::new("t", DataType::Float64, true), Field::new("v", DataType::Float64, true)]));
-    let cols: Vec<ArrayRef> = vec![Arc::new(Float64Array::from(xs)), Arc::new(Float64Array::from(ys))];
-    let table = strata::data::Table { batch: RecordBatch::try_new(schema, cols).unwrap(), warnings: vec![] };
+    let table = Table::new(vec!["t".into(), "v".into()], vec![Column::Float(xs.into()), Column::Float(ys.into())], n, vec![]);
     let spec = strata::parse_spec(r#"{"size":{"width":800},"layers":[{"draw":"line","x":"t","y":"v"}]}"#).unwrap();
     let opts = strata::scene::SceneOptions::default();
     let render = || {
         let plan = strata::plan::build(&spec, &table).unwrap();
-        let scene = strata::scene::build(&plan, &opts);
+        let scene = strata::scene::build(&spec, &plan, &opts);
         strata::svg::write(&scene)
     };
     let svg = render();
     eprintln!("line_10m_svg_800px: SVG {} bytes", svg.len());
     let mut g = c.benchmark_group("stats");
     g.sample_size(10).warm_up_time(Duration::from_millis(500)).measurement_time(Duration::from_secs(5));
-    // From an in-memory Arrow table to SVG text: plan (column extraction),
+    // From an in-memory table to SVG text: plan (column extraction),
     // scene (scales, M4 at the plot width) and SVG writing.
     g.bench_function("line_10m_svg_800px", |b| b.iter(|| black_box(render()).len()));
     // Baseline for the ratio: one read of both columns (their extents), the
     // least any drawing of every point has to do.
-    let cols = [table.batch.column(0).clone(), table.batch.column(1).clone()];
+    let cols = [table.column(0).clone(), table.column(1).clone()];
     g.bench_function("line_10m_read_columns", |b| {
         b.iter(|| {
             cols.iter()
                 .map(|c| {
-                    let v = c.as_any().downcast_ref::<Float64Array>().unwrap().values();
+                    let Column::Float(v) = c else { unreachable!() };
+                    let v = v.raw();
                     v.iter().fold((f64::INFINITY, f64::NEG_INFINITY), |(lo, hi), x| (if *x < lo { *x } else { lo }, if *x > hi { *x } else { hi }))
                 })
                 .map(|(lo, hi)| black_box(lo + hi))

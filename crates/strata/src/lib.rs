@@ -7,7 +7,7 @@
 //!
 //! 1. [`spec`]  — JSON text to [`spec::Spec`] ([`parse_spec`]: shape check, expression syntax, serde).
 //!    Every word is an enum from one list ([`spec`]'s `vocab.rs`); defaults live in [`spec::defaults`].
-//! 2. [`data`]  — bytes to [`data::Table`]; [`expr`] derives and filters
+//! 2. [`data`]  — bytes to [`data::Table`] (typed columns of our own); [`expr`] derives and filters
 //! 3. [`plan`]  — spec + table to [`plan::Plan`]: per layer, [`channel::Channel`]-keyed columns
 //!    after statistics and positions; trained scales; panels split (free scales trained per panel);
 //!    the chart-wide options the scene needs ([`plan::Chart`]: titles, size, palette, coordinates, notes,
@@ -66,6 +66,17 @@ pub struct RenderOptions {
     pub scene: scene::SceneOptions,
 }
 
+/// The reading options a spec's `data` sets (types, digest, delimiter...).
+fn read_options(spec: &Spec, format: Option<spec::DataFormat>, delimiter: Option<u8>) -> data::ReadOptions {
+    let obj = spec.data.as_ref().map(|d| d.object()).unwrap_or_default();
+    let mut opts =
+        data::ReadOptions { format, types: obj.types.clone(), sha256: obj.sha256.clone(), delimiter, decimal_comma: obj.decimal_comma, ..Default::default() };
+    if let Some(missing) = &obj.missing {
+        opts.null_tokens = missing.clone();
+    }
+    opts
+}
+
 /// Read the table a spec asks for: inline `rows`, or the given bytes.
 pub fn load_table(spec: &Spec, data: Option<DataBytes>) -> Result<data::Table, Errors> {
     let obj = spec.data.as_ref().map(|d| d.object()).unwrap_or_default();
@@ -78,18 +89,7 @@ pub fn load_table(spec: &Spec, data: Option<DataBytes>) -> Result<data::Table, E
             None if obj.format.is_none() && format == Some(spec::DataFormat::Csv) => Some(data::csv::sniff_delimiter(d.bytes)),
             None => None,
         };
-        let mut opts = data::ReadOptions {
-            format,
-            types: obj.types.clone(),
-            sha256: obj.sha256.clone(),
-            delimiter,
-            decimal_comma: obj.decimal_comma,
-            ..Default::default()
-        };
-        if let Some(missing) = &obj.missing {
-            opts.null_tokens = missing.clone();
-        }
-        return data::read(d.bytes, &opts);
+        return data::read(d.bytes, &read_options(spec, format, delimiter));
     }
     if let Some(rows) = &obj.rows {
         return data::from_rows(rows, &obj.types);
@@ -102,7 +102,11 @@ pub fn load_table(spec: &Spec, data: Option<DataBytes>) -> Result<data::Table, E
 
 /// The whole pipeline for a parsed spec.
 pub fn render_spec(spec: &Spec, data: Option<DataBytes>, opts: &RenderOptions) -> Result<Rendered, Errors> {
-    let table = load_table(spec, data)?;
+    render_table(spec, load_table(spec, data)?, opts)
+}
+
+/// The pipeline from stage 2b on, for a table already read.
+pub fn render_table(spec: &Spec, table: data::Table, opts: &RenderOptions) -> Result<Rendered, Errors> {
     let table = expr::apply(table, &spec.derive, spec.where_.as_deref())?;
     let plan = plan::build(spec, &table)?;
     let scene = scene::build(&plan, &opts.scene);
@@ -167,6 +171,15 @@ fn expression_errors(value: &serde_json::Value) -> Vec<Diagnostic> {
         }
     }
     errors
+}
+
+/// The whole pipeline from spec text, for data the page's Arrow add-on has
+/// decoded into the column interchange (`data::interchange`): the spec's
+/// `data.types` and `data.sha256` apply as they do to the Arrow bytes.
+pub fn render_columns(spec_text: &str, columns: &[u8], opts: &RenderOptions) -> Result<Rendered, Errors> {
+    let spec = parse_spec(spec_text)?;
+    let table = data::interchange::read(columns, &read_options(&spec, Some(spec::DataFormat::Arrow), None))?;
+    render_table(&spec, table, opts)
 }
 
 /// The whole pipeline from spec text.

@@ -1,15 +1,19 @@
 #!/usr/bin/env python3
 """Reference results for Strata's SQL-subset expressions, computed by SQLite.
 
-Run with: /work/venv/bin/python tests/reference/gen/sqlite_expr.py
-Generated with Python 3 `sqlite3`, SQLite 3.40.1 (math functions enabled);
-the version actually used is written into expressions.json.
+Run with: python3 -m venv .venv && .venv/bin/python tests/reference/gen/sqlite_expr.py
+(standard library only). Generated with Python 3.11.7's `sqlite3`, SQLite
+3.40.1 (math functions enabled); the versions actually used are written
+into expressions.json.gz.
 
 Writes tests/reference/fixtures/expr/:
-  table.csv         10,000 rows (seeded), empty cells are NULL
+  table.csv         a few hundred rows chosen from a seeded pool of 10,000:
+                    every (expression, kind of result, which of its columns
+                    are NULL) case the pool shows is kept by at least one
+                    row (greedy cover), then seeded random rows up to ROWS;
+                    empty cells are NULL
   expressions.json.gz  expressions, the SQL actually sent to SQLite, and
-                    the expected value of every row (gzip: 89 x 10,000 values
-                    are 4 MB as plain JSON, 1.3 MB compressed)
+                    the expected value of every row (gzip, mtime 0)
 
 Where SQLite departs from ISO SQL or from Strata's chosen semantics, the
 expression is adapted for SQLite (column `sqlite`) or its result mapped,
@@ -27,6 +31,7 @@ with the reason beside it:
 """
 import csv
 import gzip
+import heapq
 import json
 import os
 import random
@@ -35,7 +40,8 @@ import sqlite3
 import sys
 
 OUT = os.path.join(os.path.dirname(__file__), "..", "fixtures", "expr")
-N = 10_000
+N = 10_000  # the pool the rows are chosen from
+ROWS = 400  # rows kept
 rng = random.Random(20240601)
 
 WORDS = ["North pier", "Lighthouse", "harbour", "Quay", "quay", "Old mill", "alpha", "Beta", "gamma delta", "Zed",
@@ -107,16 +113,69 @@ def to_sqlite(e):
     return e
 
 
+def result_class(kind, v):
+    """The kind of a result, for choosing rows: NULL, sign, zero, whole or
+    not; text and booleans by value."""
+    if v is None or (isinstance(v, float) and (v != v or v in (float("inf"), float("-inf")))):
+        return "null"
+    if kind in ("bool", "text"):
+        return str(v)
+    if kind == "date":
+        return "date"
+    if v == 0:
+        return "zero"
+    return ("neg" if v < 0 else "pos") + ("" if float(v).is_integer() else ".frac")
+
+
+def choose(con):
+    """Row ids covering every (expression, result class, NULL pattern of
+    the expression's columns) the pool shows, then random ones up to ROWS."""
+    cases = {}  # row id -> set of case keys
+    j_of = dict(con.execute("SELECT id, j FROM data"))
+    for n, (expr, kind) in enumerate(EXPRESSIONS):
+        used = [c for c in COLS if re.search(rf'\b{c}\b', expr)]
+        sql = to_sqlite(expr)
+        cols = ", ".join(used) if used else "NULL"
+        for row_id, v, *inputs in con.execute(f"SELECT id, {sql}, {cols} FROM data ORDER BY id"):
+            nulls = "".join("N" if x is None else "v" for x in inputs)
+            # Integer division by zero deserves its own case.
+            extra = "j0" if "j" in used and j_of[row_id] == 0 else ""
+            cases.setdefault(row_id, set()).add((n, result_class(kind, v), nulls, extra))
+    # Greedy set cover, lazily: a row's gain only shrinks as cases are covered.
+    chosen, covered = [], set()
+    heap = [(-len(c), r) for r, c in cases.items()]
+    heapq.heapify(heap)
+    while heap:
+        neg, r = heapq.heappop(heap)
+        gain = len(cases[r] - covered)
+        if gain == 0:
+            continue
+        if gain < -neg:
+            heapq.heappush(heap, (-gain, r))
+            continue
+        chosen.append(r)
+        covered |= cases[r]
+    pick = random.Random(20240602)
+    rest = [r for r in sorted(cases) if r not in set(chosen)]
+    chosen += pick.sample(rest, max(0, ROWS - len(chosen)))
+    return sorted(chosen), len(covered)
+
+
 def main():
     con = sqlite3.connect(":memory:")
     con.execute("CREATE TABLE data (id INTEGER, i INTEGER, j INTEGER, x REAL, y REAL, s TEXT, b INTEGER, d TEXT, t TEXT)")
     con.executemany("INSERT INTO data VALUES (?,?,?,?,?,?,?,?,?)",
                     [tuple(int(r[c]) if isinstance(r[c], bool) else r[c] for c in COLS) for r in rows])
+    keep, n_cases = choose(con)
+    con.execute("DELETE FROM data WHERE id NOT IN (%s)" % ",".join(map(str, keep)))
+    kept = set(keep)
 
     with open(os.path.join(OUT, "table.csv"), "w", newline="") as f:
         w = csv.writer(f, lineterminator="\n")
         w.writerow(COLS)
         for r in rows:
+            if r["id"] not in kept:
+                continue
             w.writerow(["" if r[c] is None else ("true" if r[c] is True else "false" if r[c] is False else
                         (repr(r[c]) if isinstance(r[c], float) else r[c])) for c in COLS])
 
@@ -135,12 +194,13 @@ def main():
                 enc.append(v)
         out.append({"expr": expr, "sqlite": sql, "kind": kind, "values": enc})
     doc = {"generator": "tests/reference/gen/sqlite_expr.py",
-           "python": sys.version.split()[0], "sqlite": sqlite3.sqlite_version, "rows": N, "expressions": out}
+           "python": sys.version.split()[0], "sqlite": sqlite3.sqlite_version, "rows": len(keep),
+           "pool": N, "cases": n_cases, "expressions": out}
     text = json.dumps(doc, separators=(",", ":")) + "\n"
     # mtime=0: the same input gives the same bytes.
     with open(os.path.join(OUT, "expressions.json.gz"), "wb") as f:
         f.write(gzip.compress(text.encode(), compresslevel=9, mtime=0))
-    print(len(out), "expressions, SQLite", sqlite3.sqlite_version)
+    print(len(out), "expressions,", len(keep), "rows covering", n_cases, "cases, SQLite", sqlite3.sqlite_version)
 
 
 if __name__ == "__main__":

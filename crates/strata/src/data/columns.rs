@@ -1,14 +1,11 @@
-//! Text cells to typed Arrow columns: inference over all rows, or an override.
+//! Text cells to typed columns: inference over all rows, or an override.
 //!
-//! Cells live in a [`TextColumn`]: one byte buffer and one offset per cell,
-//! the same layout as an Arrow Utf8 array, so a text column becomes an Arrow
-//! array without copying.
+//! Cells live in a [`TextColumn`]: one byte buffer and one offset per cell;
+//! a text column becomes a dictionary-coded [`Text`].
 
+use super::table::{Column, Ints, Text, TextBuilder, ValidBuilder, MISSING};
 use crate::calendar::{parse_date_bytes, parse_datetime_bytes};
 use crate::spec::ColumnType;
-use arrow_array::{ArrayRef, BooleanArray, Date32Array, Float64Array, Int64Array, StringArray, TimestampMillisecondArray};
-use arrow_buffer::{BooleanBufferBuilder, Buffer, NullBuffer, OffsetBuffer, ScalarBuffer};
-use std::sync::Arc;
 
 /// Cells read as missing values unless the reader is told otherwise.
 pub const NULL_TOKENS: [&str; 6] = ["", "NA", "N/A", "null", "NULL", "-"];
@@ -37,8 +34,7 @@ impl TextColumn {
     pub fn cell(&self, i: usize) -> &[u8] {
         &self.values[self.offsets[i] as usize..self.offsets[i + 1] as usize]
     }
-    /// Append a cell; `false` when the column would pass Arrow's 2 GiB
-    /// offset limit.
+    /// Append a cell; `false` when the column would pass 2 GiB of text.
     #[inline]
     pub fn push(&mut self, cell: &[u8]) -> bool {
         self.values.extend_from_slice(cell);
@@ -193,6 +189,24 @@ fn fast_decimal(b: &[u8], point: u8) -> Option<f64> {
 
 #[cold]
 fn slow_float(b: &[u8], decimal_comma: bool) -> Option<f64> {
+    any_float(b, decimal_comma).filter(|v| v.is_finite())
+}
+
+/// A number that is not finite: `NaN`, `inf`, `Infinity` (any case, with a
+/// sign) or a decimal too large for a 64-bit float (`1e309`). In a number
+/// column such a cell is read as missing, and the reader warns once.
+#[cold]
+pub fn is_not_finite(b: &[u8], decimal_comma: bool) -> bool {
+    let t = trim(b);
+    let w = t.strip_prefix(b"-").or_else(|| t.strip_prefix(b"+")).unwrap_or(t);
+    w.eq_ignore_ascii_case(b"nan")
+        || w.eq_ignore_ascii_case(b"inf")
+        || w.eq_ignore_ascii_case(b"infinity")
+        || any_float(t, decimal_comma).is_some_and(|v| !v.is_finite())
+}
+
+/// The general parser, infinities (from overflow) included.
+fn any_float(b: &[u8], decimal_comma: bool) -> Option<f64> {
     if b.is_empty() || b.len() > 64 {
         return None;
     }
@@ -214,7 +228,7 @@ fn slow_float(b: &[u8], decimal_comma: bool) -> Option<f64> {
         return None;
     }
     let s = std::str::from_utf8(&buf[..b.len()]).ok()?;
-    s.parse::<f64>().ok().filter(|v| v.is_finite())
+    s.parse::<f64>().ok()
 }
 
 #[inline]
@@ -239,7 +253,7 @@ pub(crate) fn parse_datetime(b: &[u8]) -> Option<i64> {
 fn first_kind(col: &TextColumn, rules: &CellRules) -> Inferred {
     for i in 0..col.len() {
         let c = col.cell(i);
-        if rules.is_null(c) {
+        if rules.is_null(c) || is_not_finite(c, rules.decimal_comma) {
             continue;
         }
         return if parse_int(c).is_some() {
@@ -259,11 +273,20 @@ fn first_kind(col: &TextColumn, rules: &CellRules) -> Inferred {
     Inferred::Text
 }
 
-/// Parse every non-null cell with `f`; `Err(row)` names the first that fails.
-fn scan<T: Default + Copy>(col: &TextColumn, rules: &CellRules, f: impl Fn(&[u8]) -> Option<T>) -> Result<(Vec<T>, Option<NullBuffer>), usize> {
+/// Cells of a number column that were not finite numbers: the first row and how many.
+pub type NotFinite = Option<(usize, usize)>;
+
+/// Values, validity, and the non-finite cells of a scanned column.
+type Scanned<T> = (Vec<T>, Option<Vec<bool>>, NotFinite);
+
+/// Parse every non-null cell with `f`; `Err(row)` names the first that
+/// fails. With `numbers`, a cell that is a non-finite number is missing
+/// (and noted).
+fn scan<T: Default + Copy>(col: &TextColumn, rules: &CellRules, numbers: bool, f: impl Fn(&[u8]) -> Option<T>) -> Result<Scanned<T>, usize> {
     let n = col.len();
     let mut vals = Vec::with_capacity(n);
-    let mut nulls: Option<BooleanBufferBuilder> = None;
+    let mut nulls = ValidBuilder::default();
+    let mut odd: NotFinite = None;
     for i in 0..n {
         let c = col.cell(i);
         // Null tokens first: a configured token such as `-999` is missing,
@@ -271,24 +294,42 @@ fn scan<T: Default + Copy>(col: &TextColumn, rules: &CellRules, f: impl Fn(&[u8]
         match if rules.is_null(c) { None } else { f(c) } {
             Some(v) => {
                 vals.push(v);
-                if let Some(b) = nulls.as_mut() {
-                    b.append(true);
-                }
+                nulls.valid();
             }
             None if rules.is_null(c) => {
+                nulls.missing(vals.len());
                 vals.push(T::default());
-                nulls
-                    .get_or_insert_with(|| {
-                        let mut b = BooleanBufferBuilder::new(n);
-                        b.append_n(i, true);
-                        b
-                    })
-                    .append(false);
+            }
+            None if numbers && is_not_finite(c, rules.decimal_comma) => {
+                nulls.missing(vals.len());
+                vals.push(T::default());
+                note(&mut odd, i);
             }
             None => return Err(i),
         }
     }
-    Ok((vals, nulls.map(|mut b| NullBuffer::new(b.finish()))))
+    Ok((vals, nulls.finish(), odd))
+}
+
+/// Count a non-finite cell at `row`.
+#[inline]
+pub(crate) fn note(odd: &mut NotFinite, row: usize) {
+    match odd {
+        Some((_, k)) => *k += 1,
+        None => *odd = Some((row, 1)),
+    }
+}
+
+/// Numbers with NaN where the validity list says missing.
+pub(crate) fn with_nan(mut v: Vec<f64>, valid: Option<Vec<bool>>) -> super::Nums {
+    if let Some(m) = valid {
+        for (x, ok) in v.iter_mut().zip(m) {
+            if !ok {
+                *x = f64::NAN;
+            }
+        }
+    }
+    v.into()
 }
 
 /// A cell that does not fit the column's type.
@@ -310,10 +351,16 @@ fn cell_error(col: &TextColumn, row: usize, expected: &'static str) -> CellError
     CellError { row, value: String::from_utf8_lossy(col.cell(row)).into_owned(), expected, invalid_utf8: None }
 }
 
-/// Build one Arrow column from text cells: the override type if given, else
+/// Build one column from text cells: the override type if given, else
 /// the narrowest of integer, number, bool, date, date-time and text that
 /// every non-null cell fits.
-pub fn build(col: TextColumn, forced: Option<ColumnType>, rules: &CellRules) -> Result<ArrayRef, CellError> {
+pub fn build(col: TextColumn, forced: Option<ColumnType>, rules: &CellRules) -> Result<Column, CellError> {
+    build_noting(col, forced, rules).map(|(c, _)| c)
+}
+
+/// [`build`], and where a number column had cells that were not finite
+/// numbers (read as missing).
+pub fn build_noting(col: TextColumn, forced: Option<ColumnType>, rules: &CellRules) -> Result<(Column, NotFinite), CellError> {
     let dc = rules.decimal_comma;
     let kind = match forced {
         None => first_kind(&col, rules),
@@ -330,44 +377,44 @@ pub fn build(col: TextColumn, forced: Option<ColumnType>, rules: &CellRules) -> 
             text(col, rules)
         }
     };
+    let plain = |r: Result<Column, CellError>| r.map(|c| (c, None));
     match kind {
-        Inferred::Int => match scan(&col, rules, parse_int) {
-            Ok((v, n)) => Ok(Arc::new(Int64Array::new(ScalarBuffer::from(v), n))),
+        Inferred::Int => match scan(&col, rules, true, parse_int) {
+            Ok((values, valid, odd)) => Ok((Column::Int(Ints { values, valid }), odd)),
             Err(_) => float(col, rules, dc, strict),
         },
         Inferred::Float => float(col, rules, dc, strict),
-        Inferred::Bool => match scan(&col, rules, parse_bool) {
-            Ok((v, n)) => Ok(Arc::new(BooleanArray::new(v.into_iter().collect(), n))),
+        Inferred::Bool => plain(match scan(&col, rules, false, parse_bool) {
+            Ok((v, n, _)) => Ok(Column::Bool(v.into_iter().enumerate().map(|(i, b)| n.as_ref().is_none_or(|m| m[i]).then_some(b)).collect())),
             Err(row) => fallback(col, row, EXPECT_BOOL),
-        },
-        Inferred::Date => match scan(&col, rules, parse_date) {
-            Ok((v, n)) => Ok(Arc::new(Date32Array::new(ScalarBuffer::from(v), n))),
+        }),
+        Inferred::Date => plain(match scan(&col, rules, false, parse_date) {
+            Ok((v, n, _)) => Ok(Column::Date(with_nan(v.into_iter().map(|d| d as f64).collect(), n))),
             Err(_) => datetime(col, rules, strict),
-        },
-        Inferred::DateTime => datetime(col, rules, strict),
-        Inferred::Text => text(col, rules),
+        }),
+        Inferred::DateTime => plain(datetime(col, rules, strict)),
+        Inferred::Text => plain(text(col, rules)),
     }
 }
 
-fn float(col: TextColumn, rules: &CellRules, dc: bool, strict: bool) -> Result<ArrayRef, CellError> {
-    match scan(&col, rules, |c| parse_float(c, dc)) {
-        Ok((v, n)) => Ok(Arc::new(Float64Array::new(ScalarBuffer::from(v), n))),
+fn float(col: TextColumn, rules: &CellRules, dc: bool, strict: bool) -> Result<(Column, NotFinite), CellError> {
+    match scan(&col, rules, true, |c| parse_float(c, dc)) {
+        Ok((v, n, odd)) => Ok((Column::Float(with_nan(v, n)), odd)),
         Err(row) if strict => Err(cell_error(&col, row, if dc { "a number (decimal comma)" } else { EXPECT_NUMBER })),
-        Err(_) => text(col, rules),
+        Err(_) => text(col, rules).map(|c| (c, None)),
     }
 }
 
-fn datetime(col: TextColumn, rules: &CellRules, strict: bool) -> Result<ArrayRef, CellError> {
-    match scan(&col, rules, parse_datetime) {
-        Ok((v, n)) => Ok(Arc::new(TimestampMillisecondArray::new(ScalarBuffer::from(v), n).with_timezone("UTC"))),
+fn datetime(col: TextColumn, rules: &CellRules, strict: bool) -> Result<Column, CellError> {
+    match scan(&col, rules, false, parse_datetime) {
+        Ok((v, n, _)) => Ok(Column::DateTime(with_nan(v.into_iter().map(|x| x as f64).collect(), n))),
         Err(row) if strict => Err(cell_error(&col, row, EXPECT_DATE)),
         Err(_) => text(col, rules),
     }
 }
 
-/// The cells as an Arrow Utf8 array without copying the bytes; null tokens
-/// become nulls.
-fn text(col: TextColumn, rules: &CellRules) -> Result<ArrayRef, CellError> {
+/// The cells as dictionary-coded text; null tokens become missing rows.
+fn text(col: TextColumn, rules: &CellRules) -> Result<Column, CellError> {
     if let Err(e) = std::str::from_utf8(&col.values) {
         let pos = e.valid_up_to();
         let row = col.cell_at_byte(pos);
@@ -375,27 +422,73 @@ fn text(col: TextColumn, rules: &CellRules) -> Result<ArrayRef, CellError> {
         return Err(CellError { row, value: String::from_utf8_lossy(col.cell(row)).into_owned(), expected: "UTF-8 text", invalid_utf8: Some(at) });
     }
     let n = col.len();
-    let nulls = text_nulls(&col, rules);
-    let TextColumn { values, offsets } = col;
-    let offsets = OffsetBuffer::new(ScalarBuffer::from(offsets));
-    StringArray::try_new(offsets, Buffer::from_vec(values), nulls).map(|a| Arc::new(a) as ArrayRef).map_err(|e| CellError {
-        row: n,
-        value: e.to_string(),
-        expected: "UTF-8 text",
-        invalid_utf8: Some(0),
-    })
+    let mut b = TextBuilder::with_capacity(n);
+    for i in 0..n {
+        let c = col.cell(i);
+        b.push((!rules.is_null(c)).then_some(c));
+        // Mostly distinct values (names, free text): a dictionary would cost
+        // a hash a cell and a second copy of the text for nothing, so the
+        // cells themselves become the dictionary, one entry a row.
+        if (i + 1 == 4096 || i + 1 == 65_536) && b.dict_len() * 2 > i + 1 {
+            return Ok(Column::Text(row_coded(col, rules)));
+        }
+    }
+    Ok(Column::Text(b.finish()))
 }
 
-fn text_nulls(col: &TextColumn, rules: &CellRules) -> Option<NullBuffer> {
-    let n = col.len();
-    let mut any = false;
-    let mut b = BooleanBufferBuilder::new(n);
-    for i in 0..n {
-        let null = rules.is_null(col.cell(i));
-        any |= null;
-        b.append(!null);
-    }
-    any.then(|| NullBuffer::new(b.finish()))
+/// Text whose dictionary is the cells as they are (entry `i` is row `i`),
+/// for columns of mostly distinct values: no hashing and no copy of the text.
+fn row_coded(col: TextColumn, rules: &CellRules) -> Text {
+    let codes: Vec<u32> = (0..col.len()).map(|i| if rules.is_null(col.cell(i)) { MISSING } else { i as u32 }).collect();
+    let TextColumn { values, offsets } = col;
+    let ends: Vec<u32> = offsets[1..].iter().map(|o| *o as u32).collect();
+    // The bytes were checked as UTF-8 by the caller and cells end on
+    // character boundaries, which `from_parts` checks again.
+    let dict = String::from_utf8(values).unwrap_or_default();
+    Text::from_parts(codes, dict, ends).unwrap_or_default()
+}
+
+/// Apply a `data.types` override to a column read from typed data (Arrow,
+/// or the add-on's interchange): numbers from integers, text from numbers
+/// and booleans, and text typed like delimited text cells.
+pub(crate) fn retype(col: Column, t: ColumnType, name: &str) -> Result<Column, crate::error::Errors> {
+    use crate::error::Diagnostic;
+    let col = match (t, col) {
+        (ColumnType::Number, c @ Column::Float(_))
+        | (ColumnType::Text, c @ Column::Text(_))
+        | (ColumnType::Bool, c @ Column::Bool(_))
+        | (ColumnType::Date, c @ (Column::Date(_) | Column::DateTime(_))) => c,
+        (ColumnType::Number, Column::Int(v)) => Column::Float(v.iter().map(|x| x.map(|x| x as f64)).collect()),
+        (ColumnType::Text, Column::Int(v)) => Column::Text(v.iter().map(|x| x.map(|x| x.to_string())).collect()),
+        (ColumnType::Text, Column::Float(v)) => Column::Text(v.iter().map(|x| x.map(|x| x.to_string())).collect()),
+        (ColumnType::Text, Column::Bool(v)) => Column::Text(v.iter().map(|x| x.map(|x| x.to_string())).collect()),
+        (t, Column::Text(s)) => {
+            // Text typed like delimited text cells; missing stays missing.
+            let mut col = TextColumn::default();
+            for v in s.iter() {
+                if !col.push(v.unwrap_or("").as_bytes()) {
+                    return Err(Diagnostic::error("data.too_large", format!("column `{name}` holds more than 2 GiB of text")).into());
+                }
+            }
+            return build(col, Some(t), &CellRules::new(&[""], false)).map_err(|e| {
+                Diagnostic::error(
+                    "data.type_mismatch",
+                    format!("column `{name}` is declared `{}` but row {} holds `{}`: expected {}", type_word(t), e.row + 1, e.value, e.expected),
+                )
+                .at_path(format!("data.types.{name}"))
+                .into()
+            });
+        }
+        (t, c) => {
+            return Err(Diagnostic::error(
+                "data.type_mismatch",
+                format!("column `{name}` is declared `{}` but the data holds {}, which cannot be read as {}", type_word(t), c.kind().word(), type_word(t)),
+            )
+            .at_path(format!("data.types.{name}"))
+            .into())
+        }
+    };
+    Ok(col)
 }
 
 pub(crate) fn type_word(t: ColumnType) -> &'static str {
@@ -432,8 +525,7 @@ pub fn unique_names(raw: Vec<String>) -> (Vec<String>, Vec<String>) {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use arrow_array::Array;
-    use arrow_schema::{DataType, TimeUnit};
+    use crate::data::table::Kind;
 
     fn col(cells: &[&str]) -> TextColumn {
         let mut c = TextColumn::default();
@@ -443,25 +535,29 @@ mod tests {
         c
     }
 
-    fn ty(cells: &[&str]) -> DataType {
-        build(col(cells), None, &CellRules::default()).unwrap().data_type().clone()
+    fn ty(cells: &[&str]) -> Kind {
+        build(col(cells), None, &CellRules::default()).unwrap().kind()
     }
 
     #[test]
     fn inference_widens_within_a_family_only() {
-        assert_eq!(ty(&["1", "NA", "-3"]), DataType::Int64);
-        assert_eq!(ty(&["1", "2.5"]), DataType::Float64);
-        assert_eq!(ty(&["", "1e3", "-.5"]), DataType::Float64);
-        assert_eq!(ty(&["true", "False"]), DataType::Boolean);
-        assert_eq!(ty(&["2024-01-02", "2024-01-03"]), DataType::Date32);
-        assert_eq!(ty(&["2024-01-02", "2024-01-03T04:05:06Z"]), DataType::Timestamp(TimeUnit::Millisecond, Some("UTC".into())));
-        assert_eq!(ty(&["1", "true"]), DataType::Utf8);
-        assert_eq!(ty(&["1", "inf"]), DataType::Utf8);
-        assert_eq!(ty(&["NaN"]), DataType::Utf8);
-        assert_eq!(ty(&["", "NA"]), DataType::Utf8);
+        assert_eq!(ty(&["1", "NA", "-3"]), Kind::Int);
+        assert_eq!(ty(&["1", "2.5"]), Kind::Float);
+        assert_eq!(ty(&["", "1e3", "-.5"]), Kind::Float);
+        assert_eq!(ty(&["true", "False"]), Kind::Bool);
+        assert_eq!(ty(&["2024-01-02", "2024-01-03"]), Kind::Date);
+        assert_eq!(ty(&["2024-01-02", "2024-01-03T04:05:06Z"]), Kind::DateTime);
+        assert_eq!(ty(&["1", "true"]), Kind::Text);
+        // A non-finite number among numbers is a missing number, not text;
+        // with no finite number the column stays text.
+        assert_eq!(ty(&["1", "inf"]), Kind::Int);
+        assert_eq!(ty(&["NaN", "2.5", "1e309"]), Kind::Float);
+        assert_eq!(ty(&["NaN"]), Kind::Text);
+        assert_eq!(ty(&["x", "NaN", "1"]), Kind::Text);
+        assert_eq!(ty(&["", "NA"]), Kind::Text);
         // 2^63 does not fit i64, so the column is a float one.
-        assert_eq!(ty(&["9223372036854775808"]), DataType::Float64);
-        assert_eq!(ty(&["-9223372036854775808"]), DataType::Int64);
+        assert_eq!(ty(&["9223372036854775808"]), Kind::Float);
+        assert_eq!(ty(&["-9223372036854775808"]), Kind::Int);
     }
 
     #[test]
@@ -513,10 +609,23 @@ mod tests {
     #[test]
     fn text_keeps_bytes_and_nulls() {
         let a = build(col(&["a", "NA", "c"]), None, &CellRules::default()).unwrap();
-        let s = a.as_any().downcast_ref::<StringArray>().unwrap();
-        assert_eq!(s.value(0), "a");
-        assert!(s.is_null(1));
-        assert_eq!(s.value(2), "c");
+        let Column::Text(s) = a else { panic!("not text") };
+        assert_eq!(s.iter().collect::<Vec<_>>(), vec![Some("a"), None, Some("c")]);
+    }
+
+    #[test]
+    fn mostly_distinct_text_is_coded_by_row() {
+        let cells: Vec<String> = (0..5000).map(|i| if i % 7 == 3 { "NA".to_string() } else { format!("name {i} é") }).collect();
+        let c = col(&cells.iter().map(String::as_str).collect::<Vec<_>>());
+        let Column::Text(t) = build(c, None, &CellRules::default()).unwrap() else { panic!() };
+        assert_eq!(t.dict_len(), 5000);
+        for (i, v) in t.iter().enumerate() {
+            assert_eq!(v, (i % 7 != 3).then_some(cells[i].as_str()));
+        }
+        // Few distinct values stay dictionary-coded.
+        let cells: Vec<&str> = (0..5000).map(|i| ["a", "b", "c"][i % 3]).collect();
+        let Column::Text(t) = build(col(&cells), None, &CellRules::default()).unwrap() else { panic!() };
+        assert_eq!(t.dict_len(), 3);
     }
 
     #[test]

@@ -1,23 +1,20 @@
 //! Delimited text (RFC 4180 CSV, TSV, other single-byte delimiters)
 //! tokenised with `csv-core` straight into per-column byte buffers, then
-//! typed into Arrow arrays column by column.
+//! typed column by column (numbers as they stream past).
 //!
-//! No per-row or per-field objects are made: each column is one `Vec<u8>`
-//! plus one `i32` end offset per cell, which is already the layout of an
-//! Arrow Utf8 array. Line numbers are not tracked while reading; an error
+//! No per-row or per-field objects are made: a text column is one `Vec<u8>`
+//! plus one `i32` end offset per cell until it is dictionary-coded. Line numbers are not tracked while reading; an error
 //! finds its line afterwards from the record's byte offset.
 
 use super::columns::{
-    build, parse_bool, parse_date, parse_datetime, parse_float, parse_int, type_word, unique_names, CellError, CellRules, TextColumn, EXPECT_BOOL, EXPECT_DATE,
+    build_noting, is_not_finite, note, parse_bool, parse_date, parse_datetime, parse_float, parse_int, type_word, unique_names, with_nan, CellError, CellRules,
+    NotFinite, TextColumn, EXPECT_BOOL, EXPECT_DATE,
 };
+use super::table::{Column, Ints};
 use super::{ReadOptions, Table};
 use crate::error::{Diagnostic, Errors};
 use crate::spec::ColumnType;
-use arrow_array::{ArrayRef, BooleanArray, Date32Array, Float64Array, Int64Array, TimestampMillisecondArray};
-use arrow_buffer::{BooleanBufferBuilder, NullBuffer, ScalarBuffer};
-use arrow_schema::Field;
 use csv_core::{ReadRecordResult, ReaderBuilder};
-use std::sync::Arc;
 
 /// Most errors of one kind listed before reading stops.
 const MAX_LISTED: usize = 5;
@@ -151,29 +148,29 @@ fn open_quote(raw: &[u8], delimiter: u8) -> Option<(usize, usize)> {
 /// same as typing the text afterwards (see [`build`]).
 enum Sink {
     Text(TextColumn),
-    Int { vals: Vec<i64>, nulls: Option<BooleanBufferBuilder>, neg_zero: Vec<usize> },
-    Float { vals: Vec<f64>, nulls: Option<BooleanBufferBuilder> },
-    Bool { vals: BooleanBufferBuilder, nulls: Option<BooleanBufferBuilder> },
-    Date { vals: Vec<i32>, nulls: Option<BooleanBufferBuilder> },
-    DateTime { vals: Vec<i64>, nulls: Option<BooleanBufferBuilder> },
+    Int { vals: Vec<i64>, nulls: Option<Vec<bool>>, neg_zero: Vec<usize> },
+    Float { vals: Vec<f64>, nulls: Option<Vec<bool>> },
+    Bool { vals: Vec<bool>, nulls: Option<Vec<bool>> },
+    Date { vals: Vec<i32>, nulls: Option<Vec<bool>> },
+    DateTime { vals: Vec<i64>, nulls: Option<Vec<bool>> },
     Redo,
 }
 
 #[inline]
-fn push_null(nulls: &mut Option<BooleanBufferBuilder>, len: usize) {
+fn push_null(nulls: &mut Option<Vec<bool>>, len: usize) {
     nulls
         .get_or_insert_with(|| {
-            let mut b = BooleanBufferBuilder::new(len + 1024);
-            b.append_n(len, true);
+            let mut b = Vec::with_capacity(len + 1024);
+            b.resize(len, true);
             b
         })
-        .append(false);
+        .push(false);
 }
 
 #[inline]
-fn push_valid(nulls: &mut Option<BooleanBufferBuilder>) {
+fn push_valid(nulls: &mut Option<Vec<bool>>) {
     if let Some(b) = nulls.as_mut() {
-        b.append(true);
+        b.push(true);
     }
 }
 
@@ -183,7 +180,7 @@ fn first_sink(cell: &[u8], forced: Option<ColumnType>, rules: &CellRules, share:
         c.values.reserve(share);
         Sink::Text(c)
     };
-    let (float, boolean) = (Sink::Float { vals: Vec::new(), nulls: None }, Sink::Bool { vals: BooleanBufferBuilder::new(1024), nulls: None });
+    let (float, boolean) = (Sink::Float { vals: Vec::new(), nulls: None }, Sink::Bool { vals: Vec::with_capacity(1024), nulls: None });
     let (date, datetime) = (Sink::Date { vals: Vec::new(), nulls: None }, Sink::DateTime { vals: Vec::new(), nulls: None });
     // The same order as columns::build's inference from the first cell.
     match forced {
@@ -212,6 +209,8 @@ fn mismatch(bytes: &[u8], start: usize, k: usize, name: &str, t: Option<ColumnTy
 /// What reading the records gives: one sink per header cell.
 struct Parsed {
     sinks: Vec<Sink>,
+    /// Per column: cells of a number column that were not finite numbers.
+    odd: Vec<NotFinite>,
 }
 
 /// The header record's cells, and the offset where the data starts.
@@ -242,6 +241,7 @@ fn tokenize(bytes: &[u8], delimiter: u8, max_rows: usize, names: &[String], forc
     let mut seen_header = false;
     let dc = rules.decimal_comma;
     let share = bytes.len() / ncols.max(1) + 16;
+    let mut odd: Vec<NotFinite> = vec![None; ncols];
     let done = for_each_record(bytes, delimiter, |start, buf, ends| {
         if !seen_header {
             seen_header = true;
@@ -293,7 +293,7 @@ fn tokenize(bytes: &[u8], delimiter: u8, max_rows: usize, names: &[String], forc
                 Sink::Text(col) => {
                     if !col.push(cell) {
                         fatal = Some(
-                            Diagnostic::error("data.too_large", "a column holds more than 2 GiB of text, more than one Arrow column can hold")
+                            Diagnostic::error("data.too_large", "a column holds more than 2 GiB of text, more than one column can hold")
                                 .at_data(line_at(bytes, start), None),
                         );
                         return false;
@@ -320,6 +320,10 @@ fn tokenize(bytes: &[u8], delimiter: u8, max_rows: usize, names: &[String], forc
                         let mut n = nulls.take();
                         push_valid(&mut n);
                         *sink = Sink::Float { vals: fv, nulls: n };
+                    } else if is_not_finite(cell, dc) {
+                        vals.push(0);
+                        push_null(nulls, row);
+                        note(&mut odd[k], row);
                     } else {
                         *sink = Sink::Redo;
                     }
@@ -331,6 +335,10 @@ fn tokenize(bytes: &[u8], delimiter: u8, max_rows: usize, names: &[String], forc
                     } else if let Some(v) = parse_float(cell, dc) {
                         vals.push(v);
                         push_valid(nulls);
+                    } else if is_not_finite(cell, dc) {
+                        vals.push(0.0);
+                        push_null(nulls, row);
+                        note(&mut odd[k], row);
                     } else if forced[k].is_some() {
                         fatal = Some(mismatch(bytes, start, k, &names[k], forced[k], cell, if dc { "a number (decimal comma)" } else { "a number" }));
                         return false;
@@ -340,10 +348,10 @@ fn tokenize(bytes: &[u8], delimiter: u8, max_rows: usize, names: &[String], forc
                 }
                 Sink::Bool { vals, nulls } => {
                     if rules.is_null(cell) {
-                        vals.append(false);
+                        vals.push(false);
                         push_null(nulls, row);
                     } else if let Some(v) = parse_bool(cell) {
-                        vals.append(v);
+                        vals.push(v);
                         push_valid(nulls);
                     } else if forced[k].is_some() {
                         fatal = Some(mismatch(bytes, start, k, &names[k], forced[k], cell, EXPECT_BOOL));
@@ -435,13 +443,14 @@ fn tokenize(bytes: &[u8], delimiter: u8, max_rows: usize, names: &[String], forc
             true
         });
         if too_large {
-            return Err(Diagnostic::error("data.too_large", "a column holds more than 2 GiB of text, more than one Arrow column can hold").into());
+            return Err(Diagnostic::error("data.too_large", "a column holds more than 2 GiB of text, more than one column can hold").into());
         }
         for (col, k) in cols.into_iter().zip(redo) {
             sinks[k] = Sink::Text(col);
+            odd[k] = None;
         }
     }
-    Ok(Parsed { sinks })
+    Ok(Parsed { sinks, odd })
 }
 
 /// Every record's cells as text, header first, for tests against other
@@ -543,25 +552,39 @@ pub fn read(bytes: &[u8], delimiter: u8, opts: &ReadOptions) -> Result<Table, Er
     warnings.extend(super::unknown_type_keys(&opts.types, &names));
     let rules = CellRules::new(&opts.null_tokens, opts.decimal_comma);
     let forced: Vec<Option<ColumnType>> = names.iter().map(|n| opts.types.get(n).copied()).collect();
-    let Parsed { sinks } = tokenize(bytes, delimiter, opts.max_rows, &names, &forced, &rules)?;
-    let mut arrays = Vec::with_capacity(names.len());
-    let mut fields = Vec::with_capacity(names.len());
-    for (c, (sink, name)) in sinks.into_iter().zip(&names).enumerate() {
-        let arr: ArrayRef = match sink {
-            Sink::Int { vals, mut nulls, .. } => Arc::new(Int64Array::new(ScalarBuffer::from(vals), nulls.as_mut().map(|b| NullBuffer::new(b.finish())))),
-            Sink::Float { vals, mut nulls } => Arc::new(Float64Array::new(ScalarBuffer::from(vals), nulls.as_mut().map(|b| NullBuffer::new(b.finish())))),
-            Sink::Bool { mut vals, mut nulls } => Arc::new(BooleanArray::new(vals.finish(), nulls.as_mut().map(|b| NullBuffer::new(b.finish())))),
-            Sink::Date { vals, mut nulls } => Arc::new(Date32Array::new(ScalarBuffer::from(vals), nulls.as_mut().map(|b| NullBuffer::new(b.finish())))),
-            Sink::DateTime { vals, mut nulls } => {
-                Arc::new(TimestampMillisecondArray::new(ScalarBuffer::from(vals), nulls.as_mut().map(|b| NullBuffer::new(b.finish()))).with_timezone("UTC"))
+    let Parsed { sinks, odd } = tokenize(bytes, delimiter, opts.max_rows, &names, &forced, &rules)?;
+    let mut columns = Vec::with_capacity(names.len());
+    for (c, ((sink, name), mut odd)) in sinks.into_iter().zip(&names).zip(odd).enumerate() {
+        let col = match sink {
+            Sink::Int { vals, nulls, .. } => Column::Int(Ints { values: vals, valid: nulls }),
+            Sink::Float { vals, nulls } => Column::Float(with_nan(vals, nulls)),
+            Sink::Bool { vals, nulls } => Column::Bool(vals.into_iter().enumerate().map(|(i, b)| nulls.as_ref().is_none_or(|m| m[i]).then_some(b)).collect()),
+            Sink::Date { vals, nulls } => Column::Date(with_nan(vals.into_iter().map(|d| d as f64).collect(), nulls)),
+            Sink::DateTime { vals, nulls } => Column::DateTime(with_nan(vals.into_iter().map(|x| x as f64).collect(), nulls)),
+            Sink::Text(col) => {
+                let (col, o) = build_noting(col, forced[c], &rules).map_err(|e| cell_error(bytes, delimiter, name, c, forced[c], e))?;
+                odd = o;
+                col
             }
-            Sink::Text(col) => build(col, forced[c], &rules).map_err(|e| cell_error(bytes, delimiter, name, c, forced[c], e))?,
             Sink::Redo => return Err(Diagnostic::error("data.internal", format!("column `{name}` was not read")).into()),
         };
-        fields.push(Field::new(name, arr.data_type().clone(), true));
-        arrays.push(arr);
+        if let Some((row, count)) = odd {
+            let line = line_at(bytes, record_start(bytes, delimiter, row + 1));
+            warnings.push(not_finite_warning(name, count, &format!("line {line}")).at_data(line, Some(c as u64 + 1)));
+        }
+        columns.push(col);
     }
-    Table::from_columns(fields, arrays, warnings)
+    Ok(Table::from_columns(names, columns, warnings))
+}
+
+/// One warning for a number column's cells that were not finite numbers.
+pub(crate) fn not_finite_warning(name: &str, count: usize, first: &str) -> Diagnostic {
+    let cells = if count == 1 { "1 cell".to_string() } else { format!("{count} cells") };
+    Diagnostic::warning(
+        "data.not_finite",
+        format!("column `{name}` holds numbers, but {cells} (the first on {first}) hold NaN, an infinity or a number too large for a 64-bit float; they are read as missing"),
+    )
+    .with_hint("write an empty cell for a missing value")
 }
 
 fn cell_error(bytes: &[u8], delimiter: u8, name: &str, c: usize, forced: Option<ColumnType>, e: CellError) -> Errors {
@@ -585,9 +608,14 @@ fn cell_error(bytes: &[u8], delimiter: u8, name: &str, c: usize, forced: Option<
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::data::columns::build;
     use crate::spec::ColumnType;
-    use arrow_array::{Array, Float64Array, Int64Array, StringArray};
     use indexmap::IndexMap;
+
+    fn text(c: &Column) -> Vec<Option<&str>> {
+        let Column::Text(t) = c else { panic!("not text: {c:?}") };
+        t.iter().collect()
+    }
 
     fn opts() -> ReadOptions {
         ReadOptions::default()
@@ -603,20 +631,17 @@ mod tests {
         // fields may hold commas, line breaks and doubled quotes.
         let tb = t("\u{feff}a,b\r\n1,\"x, \"\"y\"\"\r\nz\"\r\n2,w\r\n");
         assert_eq!(tb.num_rows(), 2);
-        let b = tb.batch.column(1).as_any().downcast_ref::<StringArray>().unwrap();
-        assert_eq!(b.value(0), "x, \"y\"\r\nz");
-        let a = tb.batch.column(0).as_any().downcast_ref::<Int64Array>().unwrap();
-        assert_eq!(a.value(1), 2);
+        assert_eq!(text(tb.column(1))[0], Some("x, \"y\"\r\nz"));
+        let Column::Int(a) = tb.column(0) else { panic!() };
+        assert_eq!(a.get(1), Some(2));
         assert_eq!(tb.column_names(), vec!["a", "b"]);
     }
 
     #[test]
     fn nulls_floats_and_blank_lines() {
         let tb = t("v\n1.5\nNA\n\n-2\n");
-        let v = tb.batch.column(0).as_any().downcast_ref::<Float64Array>().unwrap();
-        assert_eq!(v.len(), 3);
-        assert!(v.is_null(1));
-        assert_eq!(v.value(2), -2.0);
+        let Column::Float(v) = tb.column(0) else { panic!() };
+        assert_eq!(v.iter().collect::<Vec<_>>(), vec![Some(1.5), None, Some(-2.0)]);
     }
 
     #[test]
@@ -698,8 +723,8 @@ mod tests {
         let mut o = opts();
         o.decimal_comma = true;
         let tb = read(b"a;b\n1,5;x\n-2,25;y\n", b';', &o).unwrap();
-        let a = tb.batch.column(0).as_any().downcast_ref::<Float64Array>().unwrap();
-        assert_eq!((a.value(0), a.value(1)), (1.5, -2.25));
+        let Column::Float(a) = tb.column(0) else { panic!() };
+        assert_eq!((a.get(0), a.get(1)), (Some(1.5), Some(-2.25)));
         assert!(read(b"a\n1\n", b',', &o).is_err());
     }
 
@@ -708,10 +733,9 @@ mod tests {
         let mut o = opts();
         o.null_tokens = vec!["".into(), "missing".into()];
         let tb = read(b"a,b\n1,NA\nmissing,x\n", b',', &o).unwrap();
-        assert_eq!(tb.batch.column(0).null_count(), 1);
+        assert_eq!(tb.column(0).null_count(), 1);
         // `NA` is text now that it is not a null token.
-        let b = tb.batch.column(1).as_any().downcast_ref::<StringArray>().unwrap();
-        assert_eq!(b.value(0), "NA");
+        assert_eq!(text(tb.column(1))[0], Some("NA"));
     }
 
     /// Typing while streaming must give exactly what typing the text
@@ -780,7 +804,7 @@ mod tests {
             let want = build(col, o.types.get("v").copied(), &rules);
             let got = read(text.as_bytes(), b',', &o);
             match (want, got) {
-                (Ok(w), Ok(g)) => assert_eq!(&w, g.batch.column(0), "{cells:?}"),
+                (Ok(w), Ok(g)) => assert_eq!(&w, g.column(0), "{cells:?}"),
                 (Err(_), Err(e)) => assert_eq!(e.0[0].code, "data.type_mismatch", "{cells:?}"),
                 (w, g) => panic!("{cells:?}: {w:?} vs {g:?}"),
             }
@@ -788,10 +812,36 @@ mod tests {
     }
 
     #[test]
+    fn a_non_finite_cell_among_numbers_is_missing_with_one_warning() {
+        // Streamed (the first cell is a number) and typed afterwards (it is not).
+        for text in ["v,w\n1,x\nNaN,y\n2.5,z\ninf,w\n", "v,w\nNaN,x\n1,y\n2.5,z\n-Infinity,w\n"] {
+            let tb = t(text);
+            let Column::Float(v) = tb.column(0) else { panic!("{text}: {:?}", tb.column(0)) };
+            assert_eq!(v.iter().filter(Option::is_none).count(), 2, "{text}");
+            assert_eq!(tb.warnings.len(), 1, "{text}");
+            let w = &tb.warnings[0];
+            assert_eq!((w.code.as_str(), w.at.column), ("data.not_finite", Some(1)));
+            assert!(w.message.contains("`v`") && w.message.contains("2 cells"), "{}", w.message);
+        }
+        assert_eq!(t("v,w\n1,x\nNaN,y\n").warnings[0].at.line, Some(3));
+        assert_eq!(t("v,w\nNaN,x\n1,y\n").warnings[0].at.line, Some(2));
+        // Integers stay integers; a too-large number is not finite either.
+        let tb = t("v\n1\n1e309\n3\n");
+        assert!(matches!(tb.column(0), Column::Int(_)));
+        assert_eq!(tb.column(0).null_count(), 1);
+        // A declared number column reads them as missing too, not as an error.
+        let mut o = opts();
+        o.types.insert("v".into(), ColumnType::Number);
+        assert_eq!(read(b"v\nnan\n2\n", b',', &o).unwrap().column(0).null_count(), 1);
+        // Text stays text.
+        assert!(matches!(t("v\nx\nNaN\n").column(0), Column::Text(_)));
+    }
+
+    #[test]
     fn header_only_and_empty() {
         let tb = t("a,b\n");
         assert_eq!(tb.num_rows(), 0);
-        assert_eq!(tb.batch.num_columns(), 2);
+        assert_eq!(tb.num_columns(), 2);
         assert_eq!(read(b"", b',', &opts()).unwrap_err().0[0].code, "data.empty");
         assert_eq!(read(b"\n\r\n", b',', &opts()).unwrap_err().0[0].code, "data.empty");
         let _ = IndexMap::<String, ColumnType>::new();

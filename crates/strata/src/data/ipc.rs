@@ -12,17 +12,17 @@
 //! without a zone is read as UTC wall time. Other types (binary, lists,
 //! structs, durations, times of day) are dropped with a warning.
 
-use super::columns::{build, type_word, unique_names, CellRules, TextColumn};
+use super::columns::{retype, unique_names};
+use super::table::Column;
 use super::{ReadOptions, Table};
 use crate::error::{Diagnostic, Errors};
-use crate::spec::ColumnType;
 use arrow_array::cast::AsArray;
 use arrow_array::types::*;
 use arrow_array::{
     new_empty_array, Array, ArrayRef, ArrowPrimitiveType, Date32Array, Float64Array, Int64Array, RecordBatch, StringArray, TimestampMillisecondArray,
 };
 use arrow_ipc::reader::{FileReader, StreamReader};
-use arrow_schema::{ArrowError, DataType, Field, Schema, SchemaRef, TimeUnit};
+use arrow_schema::{ArrowError, DataType, Schema, SchemaRef, TimeUnit};
 use std::collections::VecDeque;
 use std::io::Cursor;
 use std::sync::Arc;
@@ -330,44 +330,31 @@ pub fn read(bytes: &[u8], opts: &ReadOptions) -> Result<Table, Errors> {
         warnings
             .push(Diagnostic::warning("data.unsupported_column", format!("column `{name}` has Arrow type {dt}, which Strata cannot chart; it was left out")));
     }
-    let mut fields = Vec::new();
-    let mut arrays = Vec::new();
+    let mut out_names = Vec::new();
+    let mut columns = Vec::new();
     for (i, (field, name)) in schema.fields().iter().zip(&names).enumerate() {
-        let mut parts = Vec::with_capacity(batches.len().max(1));
-        if batches.is_empty() {
-            parts.push(new_empty_array(field.data_type()));
+        // Each batch's column to the table's own, then one after another
+        // (no Arrow concatenation: the add-on stays small).
+        let mut arrays: Vec<ArrayRef> = batches.iter().map(|b| b.column(i).clone()).collect();
+        if arrays.is_empty() {
+            arrays.push(new_empty_array(field.data_type()));
         }
-        for b in &batches {
-            parts.push(b.column(i).clone());
-        }
-        let whole = if parts.len() == 1 {
-            parts.pop().unwrap_or_else(|| new_empty_array(field.data_type()))
-        } else {
-            let refs: Vec<&dyn Array> = parts.iter().map(|a| a.as_ref()).collect();
-            arrow_select::concat::concat(&refs).map_err(ipc_error)?
-        };
-        let Some(arr) = normalise(&whole) else {
+        let parts: Option<Vec<Column>> = arrays.iter().map(to_column).collect();
+        let Some(col) = parts.and_then(Column::concat) else {
             warnings.push(Diagnostic::warning(
                 "data.unsupported_column",
                 format!("column `{name}` has Arrow type {}, which Strata cannot chart; it was left out", field.data_type()),
             ));
             continue;
         };
-        let arr = match opts.types.get(name) {
-            Some(t) => apply_override(arr, *t, name)?,
-            None => arr,
+        let col = match opts.types.get(name) {
+            Some(t) => retype(col, *t, name)?,
+            None => col,
         };
-        fields.push(Field::new(name, arr.data_type().clone(), true));
-        arrays.push(arr);
+        out_names.push(name.clone());
+        columns.push(col);
     }
-    let schema = Arc::new(Schema::new(fields));
-    let batch = if arrays.is_empty() {
-        RecordBatch::try_new_with_options(schema, vec![], &arrow_array::RecordBatchOptions::new().with_row_count(Some(rows)))
-    } else {
-        RecordBatch::try_new(schema, arrays)
-    }
-    .map_err(|e| Errors::from(Diagnostic::error("data.internal", e.to_string())))?;
-    Ok(Table { batch, warnings })
+    Ok(Table::new(out_names, columns, rows, warnings))
 }
 
 fn widen_int<T: ArrowPrimitiveType>(a: &dyn Array) -> ArrayRef
@@ -444,66 +431,25 @@ pub fn normalise(a: &ArrayRef) -> Option<ArrayRef> {
         D::LargeUtf8 => Arc::new(a.as_string::<i64>().iter().collect::<StringArray>()),
         D::Utf8View => Arc::new(a.as_string_view().iter().collect::<StringArray>()),
         D::Null => Arc::new(StringArray::new_null(a.len())),
-        D::Dictionary(_, _) => {
-            let d = a.as_any_dictionary();
-            let values = normalise(d.values())?;
-            arrow_select::take::take(values.as_ref(), d.keys(), None).ok()?
-        }
         _ => return None,
     })
 }
 
-/// Apply a `data.types` override to a normalised column.
-fn apply_override(arr: ArrayRef, t: ColumnType, name: &str) -> Result<ArrayRef, Errors> {
-    let dt = arr.data_type().clone();
-    let fits = matches!(
-        (t, &dt),
-        (ColumnType::Number, DataType::Float64)
-            | (ColumnType::Text, DataType::Utf8)
-            | (ColumnType::Bool, DataType::Boolean)
-            | (ColumnType::Date, DataType::Date32 | DataType::Timestamp(..))
-    );
-    if fits {
-        return Ok(arr);
+/// Any Arrow array as a table column; dictionary-encoded arrays are
+/// decoded through their (normalised) values. `None` for types Strata does
+/// not chart.
+pub fn to_column(a: &ArrayRef) -> Option<Column> {
+    if let DataType::Dictionary(_, _) = a.data_type() {
+        let d = a.as_any_dictionary();
+        let values = to_column(d.values())?;
+        let n = d.keys().len();
+        // (`normalized_keys` asserts a non-empty dictionary; with none, every row is missing.)
+        let idx: Vec<Option<usize>> = if d.values().is_empty() {
+            vec![None; n]
+        } else {
+            d.normalized_keys().into_iter().enumerate().map(|(i, k)| d.keys().is_valid(i).then_some(k)).collect()
+        };
+        return Some(values.take(&idx));
     }
-    if t == ColumnType::Number && dt == DataType::Int64 {
-        let p = arr.as_primitive::<Int64Type>();
-        return Ok(Arc::new(Float64Array::new(p.values().iter().map(|v| *v as f64).collect(), p.nulls().cloned())));
-    }
-    if t == ColumnType::Text && matches!(dt, DataType::Int64 | DataType::Float64 | DataType::Boolean) {
-        let text: StringArray = (0..arr.len())
-            .map(|i| {
-                (!arr.is_null(i)).then(|| match &dt {
-                    DataType::Int64 => arr.as_primitive::<Int64Type>().value(i).to_string(),
-                    DataType::Float64 => arr.as_primitive::<Float64Type>().value(i).to_string(),
-                    _ => arr.as_boolean().value(i).to_string(),
-                })
-            })
-            .collect();
-        return Ok(Arc::new(text));
-    }
-    if dt == DataType::Utf8 {
-        // Text typed like delimited text cells; nulls stay nulls.
-        let s = arr.as_string::<i32>();
-        let mut col = TextColumn::default();
-        for v in s.iter() {
-            if !col.push(v.unwrap_or("").as_bytes()) {
-                return Err(Diagnostic::error("data.too_large", format!("column `{name}` holds more than 2 GiB of text")).into());
-            }
-        }
-        return build(col, Some(t), &CellRules::new(&[""], false)).map_err(|e| {
-            Diagnostic::error(
-                "data.type_mismatch",
-                format!("column `{name}` is declared `{}` but row {} holds `{}`: expected {}", type_word(t), e.row + 1, e.value, e.expected),
-            )
-            .at_path(format!("data.types.{name}"))
-            .into()
-        });
-    }
-    Err(Diagnostic::error(
-        "data.type_mismatch",
-        format!("column `{name}` is declared `{}` but the Arrow data holds {dt}, which cannot be read as {}", type_word(t), type_word(t)),
-    )
-    .at_path(format!("data.types.{name}"))
-    .into())
+    normalise(a).as_ref().and_then(super::arrow::column)
 }

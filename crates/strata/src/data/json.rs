@@ -1,14 +1,12 @@
-//! JSON arrays of records (and the spec's inline `rows`) into Arrow columns.
+//! JSON arrays of records (and the spec's inline `rows`) into table columns.
 
-use super::columns::{build, type_word, unique_names, CellRules, TextColumn};
+use super::columns::{build_noting, type_word, unique_names, CellRules, TextColumn};
+use super::table::Column;
 use super::{ReadOptions, Table};
 use crate::error::{Diagnostic, Errors};
 use crate::spec::ColumnType;
-use arrow_array::{ArrayRef, BooleanArray, Float64Array, Int64Array};
-use arrow_schema::Field;
 use indexmap::IndexSet;
 use serde_json::{Map, Value};
-use std::sync::Arc;
 
 pub fn read(bytes: &[u8], opts: &ReadOptions) -> Result<Table, Errors> {
     let bytes = bytes.strip_prefix(b"\xEF\xBB\xBF").unwrap_or(bytes);
@@ -56,7 +54,7 @@ fn strip(msg: &str) -> &str {
 }
 
 /// Records to a table; columns in order of first appearance. JSON numbers
-/// become Int64 (all integers) or Float64, JSON booleans Boolean; strings
+/// become integers (all integers) or numbers, JSON booleans true/false; strings
 /// are typed like delimited text cells; nested values are kept as JSON text.
 pub fn from_records(rows: &[Map<String, Value>], opts: &ReadOptions) -> Result<Table, Errors> {
     if rows.len() > opts.max_rows {
@@ -72,20 +70,19 @@ pub fn from_records(rows: &[Map<String, Value>], opts: &ReadOptions) -> Result<T
     warnings.extend(super::unknown_type_keys(&opts.types, &names));
     // JSON null (and the empty string) is missing; text keeps "NA" and the like.
     let rules = CellRules::new(&[""], false);
-    let mut arrays: Vec<ArrayRef> = Vec::new();
-    let mut fields = Vec::new();
-    for (name, uname) in names.iter().zip(&unique) {
+    let mut columns: Vec<Column> = Vec::new();
+    for name in &names {
         let vals: Vec<&Value> = rows.iter().map(|r| r.get(name).unwrap_or(&Value::Null)).collect();
         let forced = opts.types.get(name).copied();
         let any = vals.iter().any(|v| !v.is_null());
         let numbers = any && vals.iter().all(|v| v.is_number() || v.is_null());
         let bools = any && vals.iter().all(|v| v.is_boolean() || v.is_null());
-        let arr: ArrayRef = if numbers && forced.is_none() && vals.iter().all(|v| v.is_null() || v.as_i64().is_some()) {
-            Arc::new(Int64Array::from(vals.iter().map(|v| v.as_i64()).collect::<Vec<_>>()))
+        let col = if numbers && forced.is_none() && vals.iter().all(|v| v.is_null() || v.as_i64().is_some()) {
+            Column::Int(vals.iter().map(|v| v.as_i64()).collect())
         } else if numbers && matches!(forced, None | Some(ColumnType::Number)) {
-            Arc::new(Float64Array::from(vals.iter().map(|v| v.as_f64()).collect::<Vec<_>>()))
+            Column::Float(vals.iter().map(|v| v.as_f64()).collect())
         } else if bools && matches!(forced, None | Some(ColumnType::Bool)) {
-            Arc::new(BooleanArray::from(vals.iter().map(|v| v.as_bool()).collect::<Vec<_>>()))
+            Column::Bool(vals.iter().map(|v| v.as_bool()).collect())
         } else {
             let mut col = TextColumn::default();
             for v in &vals {
@@ -98,7 +95,7 @@ pub fn from_records(rows: &[Map<String, Value>], opts: &ReadOptions) -> Result<T
                     return Err(Diagnostic::error("data.too_large", format!("column `{name}` holds more than 2 GiB of text")).into());
                 }
             }
-            build(col, forced, &rules).map_err(|e| {
+            let (col, odd) = build_noting(col, forced, &rules).map_err(|e| {
                 Diagnostic::error(
                     "data.type_mismatch",
                     format!(
@@ -110,20 +107,21 @@ pub fn from_records(rows: &[Map<String, Value>], opts: &ReadOptions) -> Result<T
                     ),
                 )
                 .at_path(format!("data.types.{name}"))
-            })?
+            })?;
+            if let Some((row, count)) = odd {
+                warnings.push(super::csv::not_finite_warning(name, count, &format!("record {}", row + 1)));
+            }
+            col
         };
-        fields.push(Field::new(uname, arr.data_type().clone(), true));
-        arrays.push(arr);
+        columns.push(col);
     }
-    Table::from_columns(fields, arrays, warnings)
+    Ok(Table::new(unique, columns, rows.len(), warnings))
 }
 
 #[cfg(test)]
 mod tests {
     use super::*;
-    use arrow_array::cast::AsArray;
-    use arrow_array::Array;
-    use arrow_schema::DataType;
+    use crate::data::table::Kind;
 
     fn opts() -> ReadOptions {
         ReadOptions::default()
@@ -133,21 +131,23 @@ mod tests {
     fn records_become_typed_columns() {
         let t =
             read(br#"[{"a": 1, "b": 1.5, "c": true, "d": "2024-01-02", "e": "x"}, {"a": null, "b": 2, "c": false, "d": null, "f": [1]}]"#, &opts()).unwrap();
-        let s = t.batch.schema();
-        let types: Vec<_> = s.fields().iter().map(|f| (f.name().as_str(), f.data_type().clone())).collect();
-        assert_eq!(
-            types,
-            vec![
-                ("a", DataType::Int64),
-                ("b", DataType::Float64),
-                ("c", DataType::Boolean),
-                ("d", DataType::Date32),
-                ("e", DataType::Utf8),
-                ("f", DataType::Utf8),
-            ]
-        );
-        assert!(t.batch.column(0).is_null(1));
-        assert_eq!(t.batch.column(5).as_string::<i32>().value(1), "[1]");
+        let types: Vec<_> = t.names().iter().zip(t.columns()).map(|(n, c)| (n.as_str(), c.kind())).collect();
+        assert_eq!(types, vec![("a", Kind::Int), ("b", Kind::Float), ("c", Kind::Bool), ("d", Kind::Date), ("e", Kind::Text), ("f", Kind::Text)]);
+        assert!(t.column(0).is_null(1));
+        let Column::Text(f) = t.column(5) else { panic!() };
+        assert_eq!(f.get(1), Some("[1]"));
+    }
+
+    #[test]
+    fn non_finite_numbers_are_missing_as_in_csv() {
+        // JSON has no NaN or infinity literal: they come as strings, as a
+        // CSV cell would; the column stays a number column with one warning.
+        let t = read(br#"[{"v": 1}, {"v": "NaN"}, {"v": 2.5}, {"v": "-inf"}, {"v": null}]"#, &opts()).unwrap();
+        let Column::Float(v) = t.column(0) else { panic!("{:?}", t.column(0)) };
+        assert_eq!(v.iter().collect::<Vec<_>>(), vec![Some(1.0), None, Some(2.5), None, None]);
+        assert_eq!(t.warnings.len(), 1);
+        assert_eq!(t.warnings[0].code, "data.not_finite");
+        assert!(t.warnings[0].message.contains("2 cells (the first on record 2)"), "{}", t.warnings[0].message);
     }
 
     #[test]
@@ -169,7 +169,7 @@ mod tests {
         assert_eq!(e.0[0].at.path, "data.types.a");
         assert!(e.0[0].message.contains("record 2"));
         let t = read(br#"[{"a": 1}, {"a": 2}]"#, &o).unwrap();
-        assert_eq!(t.batch.column(0).data_type(), &DataType::Float64);
+        assert_eq!(t.column(0).kind(), Kind::Float);
         let o = ReadOptions { max_rows: 1, ..opts() };
         assert_eq!(read(br#"[{"a": 1}, {"a": 2}]"#, &o).unwrap_err().0[0].code, "data.too_many_rows");
     }

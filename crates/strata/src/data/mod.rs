@@ -1,48 +1,29 @@
-//! Stage 2 — data: bytes (CSV, TSV, Arrow IPC, JSON) or inline rows into a
-//! [`Table`] of Arrow columns.
+//! Stage 2 — data: bytes (CSV, TSV, JSON, Arrow IPC with the `ipc`
+//! feature, or the Arrow add-on's column interchange) or inline rows into a
+//! [`Table`] of our own typed columns.
 //!
-//! Hand-off: [`Table`], an Arrow `RecordBatch` whose columns are one of
-//! Float64, Int64, Boolean, Utf8, Date32 or Timestamp(ms, UTC). Every
-//! reader normalises to these; later stages read nothing else.
+//! Hand-off: [`Table`], named [`Column`]s of one length: numbers ([`Nums`],
+//! NaN for missing), integers, booleans, dates (days), date-times (ms, UTC)
+//! and dictionary-coded text. Every reader normalises to these; later
+//! stages read nothing else.
 
+#[cfg(feature = "arrow")]
+pub mod arrow;
 pub mod columns;
 pub mod csv;
+pub mod interchange;
 #[cfg(feature = "ipc")]
 pub mod ipc;
 pub mod json;
+mod nums;
+pub mod table;
+
+pub use nums::Nums;
+pub use table::{Column, Table};
 
 use crate::error::{Diagnostic, Errors};
 use crate::spec::{ColumnType, DataFormat};
-use arrow_array::RecordBatch;
 use indexmap::IndexMap;
-
-/// The table every later stage reads.
-#[derive(Debug, Clone)]
-pub struct Table {
-    pub batch: RecordBatch,
-    /// Non-fatal notes from reading (renamed headers and the like).
-    pub warnings: Vec<Diagnostic>,
-}
-
-impl Table {
-    /// A table from named columns (the readers' last step).
-    pub fn from_columns(fields: Vec<arrow_schema::Field>, arrays: Vec<arrow_array::ArrayRef>, warnings: Vec<Diagnostic>) -> Result<Table, Errors> {
-        let schema = std::sync::Arc::new(arrow_schema::Schema::new(fields));
-        let batch = if arrays.is_empty() {
-            RecordBatch::new_empty(schema)
-        } else {
-            RecordBatch::try_new(schema, arrays).map_err(|e| Diagnostic::error("data.internal", e.to_string()))?
-        };
-        Ok(Table { batch, warnings })
-    }
-
-    pub fn num_rows(&self) -> usize {
-        self.batch.num_rows()
-    }
-    pub fn column_names(&self) -> Vec<String> {
-        self.batch.schema().fields().iter().map(|f| f.name().clone()).collect()
-    }
-}
 
 /// Default row cap.
 pub const DEFAULT_MAX_ROWS: usize = 5_000_000;
@@ -137,10 +118,15 @@ pub fn read(bytes: &[u8], opts: &ReadOptions) -> Result<Table, Errors> {
     }
 }
 
+/// SHA-256 of the bytes.
+pub fn sha256_bytes(bytes: &[u8]) -> [u8; 32] {
+    use sha2::{Digest, Sha256};
+    Sha256::digest(bytes).into()
+}
+
 /// Lower-case hex SHA-256 of the bytes.
 pub fn sha256_hex(bytes: &[u8]) -> String {
-    use sha2::{Digest, Sha256};
-    let digest = Sha256::digest(bytes);
+    let digest = sha256_bytes(bytes);
     let mut s = String::with_capacity(64);
     for b in digest.iter() {
         s.push(char::from(b"0123456789abcdef"[(b >> 4) as usize]));
@@ -150,13 +136,17 @@ pub fn sha256_hex(bytes: &[u8]) -> String {
 }
 
 fn check_sha256(bytes: &[u8], expected: &str) -> Result<(), Errors> {
+    check_digest(&sha256_hex(bytes), expected)
+}
+
+/// Compare a lower-case hex digest with `data.sha256`.
+pub(crate) fn check_digest(got: &str, expected: &str) -> Result<(), Errors> {
     let want = expected.trim().to_ascii_lowercase();
     if want.len() != 64 || !want.bytes().all(|b| b.is_ascii_hexdigit()) {
         return Err(Diagnostic::error("data.sha256_invalid", format!("`{expected}` is not a SHA-256 digest: expected 64 hexadecimal digits"))
             .at_path("data.sha256")
             .into());
     }
-    let got = sha256_hex(bytes);
     if got != want {
         return Err(Diagnostic::error(
             "data.sha256_mismatch",
@@ -191,6 +181,25 @@ pub(crate) fn unknown_type_keys(types: &IndexMap<String, ColumnType>, names: &[S
                 .at_path(format!("data.types.{k}"))
         })
         .collect()
+}
+
+/// Apply the `data.types` overrides to a table read from typed data
+/// (the Arrow add-on's interchange), with a warning for each key that names
+/// no column.
+pub(crate) fn retype_table(table: Table, opts: &ReadOptions) -> Result<Table, Errors> {
+    if opts.types.is_empty() {
+        return Ok(table);
+    }
+    let (names, columns, rows, mut warnings) = table.into_parts();
+    warnings.extend(unknown_type_keys(&opts.types, &names));
+    let mut out = Vec::with_capacity(columns.len());
+    for (name, col) in names.iter().zip(columns) {
+        out.push(match opts.types.get(name) {
+            Some(t) => columns::retype(col, *t, name)?,
+            None => col,
+        });
+    }
+    Ok(Table::new(names, out, rows, warnings))
 }
 
 /// Build a table from inline JSON records (`data.rows`).

@@ -1,18 +1,14 @@
-//! Typed, column-at-a-time evaluation of a parsed expression over Arrow
-//! columns. Each operator runs once over whole columns; literals stay
+//! Typed, column-at-a-time evaluation of a parsed expression over the
+//! table's columns. Each operator runs once over whole columns; literals stay
 //! constants and are never copied out to the column's length.
 //!
-//! Types: integer (Int64), number (Float64), boolean, text (Utf8), date
-//! (Date32) and date-time (Timestamp in ms, UTC). NULL follows SQL's
+//! Types: integer (`i64`), number (`f64`), boolean, text, date (days) and
+//! date-time (ms since 1970, UTC). NULL follows SQL's
 //! three-valued logic (ISO/IEC 9075, 8.x "boolean value expression").
 
 use super::parse::{BinOp, Expr, ExprError, Literal, Span};
 use crate::calendar::{civil_from_days, parse_date, parse_datetime};
-use arrow_array::cast::AsArray;
-use arrow_array::types::{Date32Type, Float64Type, Int64Type, TimestampMillisecondType};
-use arrow_array::{Array, ArrayRef, BooleanArray, Date32Array, Float64Array, Int64Array, StringArray, TimestampMillisecondArray};
-use arrow_schema::{DataType, TimeUnit};
-use std::sync::Arc;
+use crate::data::table::{Column, Ints};
 
 const DAY_MS: i64 = 86_400_000;
 
@@ -176,32 +172,30 @@ impl Col {
         }
     }
 
-    /// The column as an Arrow array of `n` rows. NULL-typed results become
-    /// an all-null Float64 column.
-    pub fn into_array(self, n: usize) -> ArrayRef {
+    /// The column as a table column of `n` rows. NULL-typed results become
+    /// an all-missing number column.
+    pub fn into_column(self, n: usize) -> Column {
         match self {
-            Col::Null => Arc::new(Float64Array::from(vec![None::<f64>; n])),
-            Col::Int(d) => Arc::new(Int64Array::from(d.into_vec(n))),
-            Col::Float(d) => Arc::new(Float64Array::from(d.into_vec(n))),
-            Col::Bool(d) => Arc::new(BooleanArray::from(d.into_vec(n))),
-            Col::Text(d) => Arc::new(StringArray::from(d.into_vec(n))),
-            Col::Date(d) => Arc::new(Date32Array::from(d.into_vec(n))),
-            Col::Timestamp(d) => Arc::new(TimestampMillisecondArray::from(d.into_vec(n)).with_timezone("UTC")),
+            Col::Null => Column::Float(vec![f64::NAN; n].into()),
+            Col::Int(d) => Column::Int(d.into_vec(n).into_iter().collect::<Ints>()),
+            Col::Float(d) => Column::Float(d.into_vec(n).into_iter().collect()),
+            Col::Bool(d) => Column::Bool(d.into_vec(n)),
+            Col::Text(d) => Column::Text(d.into_vec(n).into_iter().collect()),
+            Col::Date(d) => Column::Date(d.into_vec(n).into_iter().map(|v| v.map(|x| x as f64)).collect()),
+            Col::Timestamp(d) => Column::DateTime(d.into_vec(n).into_iter().map(|v| v.map(|x| x as f64)).collect()),
         }
     }
 
-    /// Read an Arrow column. Non-finite floats are read as NULL.
-    pub fn from_array(a: &ArrayRef) -> Option<Col> {
-        Some(match a.data_type() {
-            DataType::Float64 => Col::Float(Data::Vec(a.as_primitive::<Float64Type>().iter().map(|v| v.filter(|x| x.is_finite())).collect())),
-            DataType::Int64 => Col::Int(Data::Vec(a.as_primitive::<Int64Type>().iter().collect())),
-            DataType::Boolean => Col::Bool(Data::Vec(a.as_boolean().iter().collect())),
-            DataType::Utf8 => Col::Text(Data::Vec(a.as_string::<i32>().iter().map(|v| v.map(str::to_string)).collect())),
-            DataType::Date32 => Col::Date(Data::Vec(a.as_primitive::<Date32Type>().iter().collect())),
-            DataType::Timestamp(TimeUnit::Millisecond, _) => Col::Timestamp(Data::Vec(a.as_primitive::<TimestampMillisecondType>().iter().collect())),
-            DataType::Null => Col::Null,
-            _ => return None,
-        })
+    /// Read a table column. Non-finite numbers are read as NULL.
+    pub fn from_column(a: &Column) -> Col {
+        match a {
+            Column::Float(v) => Col::Float(Data::Vec(v.iter().collect())),
+            Column::Int(v) => Col::Int(Data::Vec(v.iter().collect())),
+            Column::Bool(v) => Col::Bool(Data::Vec(v.clone())),
+            Column::Text(v) => Col::Text(Data::Vec(v.iter().map(|v| v.map(str::to_string)).collect())),
+            Column::Date(v) => Col::Date(Data::Vec(v.iter().map(|v| v.map(|d| d as i32)).collect())),
+            Column::DateTime(v) => Col::Timestamp(Data::Vec(v.iter().map(|v| v.map(|x| x as i64)).collect())),
+        }
     }
 }
 
@@ -221,7 +215,7 @@ pub fn unify(a: Ty, b: Ty) -> Option<Ty> {
 /// The columns an expression can see, by name.
 pub struct Env<'a> {
     pub names: &'a [String],
-    pub columns: &'a [ArrayRef],
+    pub columns: &'a [Column],
     pub rows: usize,
 }
 
@@ -319,8 +313,8 @@ fn column(name: &str, quoted: bool, span: Span, env: &Env) -> R {
         };
         return Err(err);
     };
-    Col::from_array(&env.columns[pos])
-        .ok_or_else(|| ExprError::new(format!("column `{name}` has type {:?}, which expressions cannot read", env.columns[pos].data_type()), span))
+    let _ = span;
+    Ok(Col::from_column(&env.columns[pos]))
 }
 
 pub(super) fn type_err(what: &str, wanted: &str, got: &Col, span: Span) -> ExprError {

@@ -24,15 +24,11 @@ pub mod parse;
 
 pub use parse::{parse, Expr, ExprError, Span};
 
+use crate::data::Column;
 use crate::data::Table;
 use crate::error::{Diagnostic, Errors};
-use arrow_array::cast::AsArray;
-use arrow_array::types::{Date32Type, Float64Type, Int64Type, TimestampMillisecondType};
-use arrow_array::{Array, ArrayRef, BooleanArray, Date32Array, Float64Array, Int64Array, NullArray, RecordBatch, StringArray, TimestampMillisecondArray};
-use arrow_schema::{DataType, Field, Schema};
 use eval::{Col, Env};
 use indexmap::IndexMap;
-use std::sync::Arc;
 
 /// A located expression error as a spec diagnostic.
 pub(crate) fn diagnostic(path: &str, text: &str, e: &ExprError) -> Diagnostic {
@@ -42,12 +38,10 @@ pub(crate) fn diagnostic(path: &str, text: &str, e: &ExprError) -> Diagnostic {
 }
 
 /// Evaluate one expression over a table, giving a column of its rows.
-pub fn evaluate(table: &Table, text: &str) -> Result<ArrayRef, ExprError> {
+pub fn evaluate(table: &Table, text: &str) -> Result<Column, ExprError> {
     let e = parse(text)?;
-    let names = table.column_names();
-    let columns: Vec<ArrayRef> = table.batch.columns().to_vec();
-    let env = Env { names: &names, columns: &columns, rows: table.num_rows() };
-    Ok(eval::eval(&e, &env)?.into_array(table.num_rows()))
+    let env = Env { names: table.names(), columns: table.columns(), rows: table.num_rows() };
+    Ok(eval::eval(&e, &env)?.into_column(table.num_rows()))
 }
 
 /// Add derived columns (in order; each may use the ones before) and keep
@@ -79,24 +73,22 @@ pub fn apply(table: Table, derive: &IndexMap<String, String>, where_: Option<&st
         None => None,
     };
 
-    let n = table.num_rows();
-    let mut names = table.column_names();
-    let mut columns: Vec<ArrayRef> = table.batch.columns().to_vec();
+    let (mut names, mut columns, n, warnings) = table.into_parts();
     for (name, path, text, e) in parsed {
         let col = match e {
             Some(e) => {
                 let env = Env { names: &names, columns: &columns, rows: n };
                 match eval::eval(&e, &env) {
-                    Ok(c) => c.into_array(n),
+                    Ok(c) => c.into_column(n),
                     Err(err) => {
                         errors.push(diagnostic(&path, text, &err));
-                        Arc::new(NullArray::new(n)) as ArrayRef
+                        Col::Null.into_column(n)
                     }
                 }
             }
             // A column that failed stays known (as all-NULL), so later
             // expressions using it do not report a second, confusing error.
-            None => Arc::new(NullArray::new(n)) as ArrayRef,
+            None => Col::Null.into_column(n),
         };
         match names.iter().position(|c| c == name) {
             Some(i) => columns[i] = col,
@@ -124,14 +116,10 @@ pub fn apply(table: Table, derive: &IndexMap<String, String>, where_: Option<&st
         return Err(Errors(errors));
     }
     let (columns, rows) = match &keep {
-        Some(mask) => (columns.iter().map(|c| filter_array(c, mask)).collect::<Vec<_>>(), mask.iter().filter(|b| **b).count()),
+        Some(mask) => (columns.iter().map(|c| c.filter(mask)).collect::<Vec<_>>(), mask.iter().filter(|b| **b).count()),
         None => (columns, n),
     };
-    let fields: Vec<Field> = names.iter().zip(&columns).map(|(nm, c)| Field::new(nm, c.data_type().clone(), true)).collect();
-    let schema = Arc::new(Schema::new(fields));
-    let batch = RecordBatch::try_new_with_options(schema, columns, &arrow_array::RecordBatchOptions::new().with_row_count(Some(rows)))
-        .map_err(|e| Diagnostic::error("expr.internal", format!("could not assemble the derived table: {e}")))?;
-    Ok(Table { batch, warnings: table.warnings })
+    Ok(Table::new(names, columns, rows, warnings))
 }
 
 /// A derive name as a path segment: plain names as they are, others quoted.
@@ -149,24 +137,6 @@ impl<T: Clone> eval::Data<T> {
             eval::Data::Const(v) => v.clone(),
             eval::Data::Vec(v) => v[i].clone(),
         }
-    }
-}
-
-/// Keep the rows of `a` where `mask` is true.
-fn filter_array(a: &ArrayRef, mask: &[bool]) -> ArrayRef {
-    fn pick<T: Copy>(it: impl Iterator<Item = Option<T>>, mask: &[bool]) -> Vec<Option<T>> {
-        it.zip(mask).filter(|(_, k)| **k).map(|(v, _)| v).collect()
-    }
-    match a.data_type() {
-        DataType::Float64 => Arc::new(Float64Array::from(pick(a.as_primitive::<Float64Type>().iter(), mask))),
-        DataType::Int64 => Arc::new(Int64Array::from(pick(a.as_primitive::<Int64Type>().iter(), mask))),
-        DataType::Boolean => Arc::new(BooleanArray::from(pick(a.as_boolean().iter(), mask))),
-        DataType::Utf8 => Arc::new(StringArray::from(pick(a.as_string::<i32>().iter(), mask))),
-        DataType::Date32 => Arc::new(Date32Array::from(pick(a.as_primitive::<Date32Type>().iter(), mask))),
-        DataType::Timestamp(_, tz) => {
-            Arc::new(TimestampMillisecondArray::from(pick(a.as_primitive::<TimestampMillisecondType>().iter(), mask)).with_timezone_opt(tz.clone()))
-        }
-        _ => Arc::new(NullArray::new(mask.iter().filter(|b| **b).count())),
     }
 }
 

@@ -1,14 +1,11 @@
 //! Pull a layer's channels out of the table.
 
-use super::{LayerData, Nums, Values};
+use super::{LayerData, Values};
 use crate::channel::Channel;
+use crate::data::Column;
 use crate::data::Table;
 use crate::error::{Diagnostic, Errors};
 use crate::spec::{ColumnType, Layer, Panels};
-use arrow_array::cast::AsArray;
-use arrow_array::types::{Date32Type, Float64Type, Int64Type, TimestampMillisecondType};
-use arrow_array::{Array, ArrayRef};
-use arrow_schema::DataType;
 
 pub fn extract(index: usize, layer: &Layer, table: &Table) -> Result<LayerData, Errors> {
     let names = table.column_names();
@@ -19,13 +16,13 @@ pub fn extract(index: usize, layer: &Layer, table: &Table) -> Result<LayerData, 
             errors.push(unknown_column(&channel.column, &names, format!("layers[{index}].{ch}")));
             continue;
         };
-        let values = to_values(table.batch.column(pos), channel.as_type);
+        let values = to_values(table.column(pos), channel.as_type);
         out.channels.insert(ch, values);
         out.names.insert(ch, channel.column.clone());
     }
     for (j, col) in layer.tip.iter().enumerate() {
         match names.iter().position(|n| n == col) {
-            Some(pos) => out.tips.push((col.clone(), to_values(table.batch.column(pos), None))),
+            Some(pos) => out.tips.push((col.clone(), to_values(table.column(pos), None))),
             None => errors.push(unknown_column(col, &names, format!("layers[{index}].tip[{j}]"))),
         }
     }
@@ -78,34 +75,25 @@ pub fn with_panel(mut data: LayerData, panels: Option<&Panels>, table: &Table) -
     let names = table.column_names();
     for (channel, column) in wanted {
         let Some(pos) = column.and_then(|c| names.iter().position(|n| n == c)) else { continue };
-        data.channels.insert(channel, to_values(table.batch.column(pos), Some(ColumnType::Text)));
+        data.channels.insert(channel, to_values(table.column(pos), Some(ColumnType::Text)));
         data.names.insert(channel, names[pos].clone());
     }
     data
 }
 
-/// Convert an Arrow column to layer values, honouring an `as` override.
-pub fn to_values(col: &ArrayRef, as_type: Option<ColumnType>) -> Values {
-    let base = match col.data_type() {
-        // A null-free column is shared, not copied (its NaNs and infinities
-        // read as missing); one with nulls is copied with NaN in their place.
-        DataType::Float64 => {
-            let a = col.as_primitive::<Float64Type>();
-            Values::Num(if a.null_count() == 0 { Nums::shared(a.values().clone()) } else { a.iter().collect() })
-        }
-        DataType::Int64 => {
-            let a = col.as_primitive::<Int64Type>();
-            Values::Num(if a.null_count() == 0 {
-                a.values().iter().map(|x| *x as f64).collect::<Vec<f64>>().into()
-            } else {
-                a.iter().map(|v| v.map(|x| x as f64)).collect()
-            })
-        }
-        DataType::Date32 => Values::Time(col.as_primitive::<Date32Type>().iter().map(|v| v.map(|d| d as f64 * 86_400_000.0)).collect()),
-        DataType::Timestamp(_, _) => Values::Time(col.as_primitive::<TimestampMillisecondType>().iter().map(|v| v.map(|x| x as f64)).collect()),
-        DataType::Boolean => Values::Text(col.as_boolean().iter().map(|v| v.map(|b| b.to_string())).collect()),
-        DataType::Utf8 => Values::Text(col.as_string::<i32>().iter().map(|v| v.map(str::to_string)).collect()),
-        _ => Values::Text((0..col.len()).map(|_| None).collect()),
+/// Convert a table column to layer values, honouring an `as` override.
+pub fn to_values(col: &Column, as_type: Option<ColumnType>) -> Values {
+    let base = match col {
+        // Numbers are shared with the table, not copied.
+        Column::Float(v) => Values::Num(v.clone()),
+        Column::Int(v) => Values::Num(match &v.valid {
+            None => v.values.iter().map(|x| *x as f64).collect::<Vec<f64>>().into(),
+            Some(_) => v.iter().map(|v| v.map(|x| x as f64)).collect(),
+        }),
+        Column::Date(v) => Values::Time(v.iter().map(|v| v.map(|d| d * 86_400_000.0)).collect()),
+        Column::DateTime(v) => Values::Time(v.clone()),
+        Column::Bool(v) => Values::Text(v.iter().map(|v| v.map(|b| b.to_string())).collect()),
+        Column::Text(v) => Values::Text(v.iter().map(|v| v.map(str::to_string)).collect()),
     };
     match (as_type, base) {
         (Some(ColumnType::Text), v @ (Values::Num(_) | Values::Time(_))) => {
@@ -134,22 +122,19 @@ fn unknown_column(col: &str, names: &[String], path: String) -> Diagnostic {
     }
 }
 
-#[cfg(test)]
+#[cfg(all(test, feature = "arrow"))]
 mod tests {
     use super::*;
-    use arrow_array::Float64Array;
+    use arrow_array::{ArrayRef, Float64Array};
     use std::sync::Arc;
 
     #[test]
-    fn null_free_numbers_are_shared_not_copied() {
+    fn null_free_arrow_numbers_reach_the_plan_without_a_copy() {
         let a = Arc::new(Float64Array::from(vec![1.0, f64::NAN, f64::INFINITY, 4.0]));
         let col: ArrayRef = a.clone();
+        let col = crate::data::arrow::column(&col).unwrap();
         let Values::Num(n) = to_values(&col, None) else { panic!("not numbers") };
         assert_eq!(n.raw().as_ptr(), a.values().as_ptr());
         assert_eq!(n.iter().collect::<Vec<_>>(), vec![Some(1.0), None, None, Some(4.0)]);
-        // With nulls the column is copied, NaN standing for each null.
-        let col: ArrayRef = Arc::new(Float64Array::from(vec![Some(2.0), None, Some(f64::NEG_INFINITY)]));
-        let Values::Num(n) = to_values(&col, None) else { panic!("not numbers") };
-        assert_eq!(n.iter().collect::<Vec<_>>(), vec![Some(2.0), None, None]);
     }
 }
