@@ -19,6 +19,7 @@ pub mod datatable;
 pub mod error;
 pub mod expr;
 pub mod format;
+pub mod guard;
 pub mod lint;
 pub mod math;
 pub mod plan;

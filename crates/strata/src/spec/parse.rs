@@ -30,6 +30,7 @@ pub fn spec_from_value(value: &Value) -> Result<Spec, Errors> {
         return Err(Diagnostic::error("spec.wrong_type", "a spec is a JSON object, such as {\"layers\": [...]}").into());
     }
     check(value, &spec_shape(), "", &mut errors);
+    crate::guard::check_spec_value(value, &mut errors);
     if let Some(layers) = value.get("layers").and_then(Value::as_array) {
         if layers.is_empty() {
             errors.push(
