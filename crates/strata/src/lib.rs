@@ -12,6 +12,7 @@
 //! Libraries the stages share: [`calendar`] (dates), [`stat`] (numerics), [`scale`] (mapping and
 //! ticks), [`format`] (labels), [`color`], [`text`] (measurement), [`math`].
 
+pub mod budget;
 pub mod calendar;
 pub mod color;
 pub mod data;
@@ -93,18 +94,27 @@ pub fn load_table(spec: &Spec, data: Option<DataBytes>) -> Result<data::Table, E
         .into())
 }
 
-/// The whole pipeline for a parsed spec.
+/// The whole pipeline for a parsed spec; error messages are capped in length.
 pub fn render_spec(spec: &Spec, data: Option<DataBytes>, opts: &RenderOptions) -> Result<Rendered, Errors> {
+    render_stages(spec, data, opts).map_err(budget::cap_messages)
+}
+
+fn render_stages(spec: &Spec, data: Option<DataBytes>, opts: &RenderOptions) -> Result<Rendered, Errors> {
     let table = load_table(spec, data)?;
-    let table = expr::apply(table, &spec.derive, spec.where_.as_deref())?;
+    // Budgets at each stage boundary (budget.rs): the table after reading
+    // and after each derive, marks and categories after planning, the SVG.
+    let table = budget::apply_derives(table, spec)?;
     let plan = plan::build(spec, &table)?;
+    budget::check_plan(&plan)?;
     let scene = scene::build(spec, &plan, &opts.scene);
     let svg = svg::write(&scene);
+    budget::check_output(&svg)?;
     let html_table = datatable::write(spec, &plan);
     let mut warnings = table.warnings;
     warnings.extend(lint::check(spec, Some(&plan)));
     warnings.extend(plan.warnings);
     warnings.extend(no_effect(spec));
+    warnings.extend(unused_checksum(spec, data.is_some()));
     Ok(Rendered { svg, table: html_table, scene, warnings })
 }
 
@@ -129,8 +139,20 @@ fn no_effect(spec: &Spec) -> Vec<Diagnostic> {
     out
 }
 
-/// The whole pipeline from spec text.
+/// `data.sha256` checks the bytes of a file; beside inline `rows` (and no
+/// file) it checks nothing, which the author should hear.
+fn unused_checksum(spec: &Spec, has_bytes: bool) -> Option<Diagnostic> {
+    let obj = spec.data.as_ref()?.object();
+    (obj.sha256.is_some() && obj.rows.is_some() && !has_bytes).then(|| {
+        Diagnostic::warning("spec.no_effect", "`sha256` checks the bytes of a data file; with inline `rows` nothing is checked")
+            .at_path("data.sha256")
+            .with_hint("remove `sha256`, or move the rows to a file named by `data.url`")
+    })
+}
+
+/// The whole pipeline from spec text (a leading byte order mark is skipped).
 pub fn render(spec_text: &str, data: Option<DataBytes>, opts: &RenderOptions) -> Result<Rendered, Errors> {
-    let spec = spec::parse_spec(spec_text)?;
+    let spec_text = spec_text.strip_prefix('\u{feff}').unwrap_or(spec_text);
+    let spec = spec::parse_spec(spec_text).map_err(budget::cap_messages)?;
     render_spec(&spec, data, opts)
 }
