@@ -146,6 +146,17 @@ pub fn bake_html(page: &Path, html: &str, width: f64, site: &Site) -> Result<(St
                 }
                 Ok(())
             }))
+            .append_element_content_handler(text!("strata-chart > script[type='application/json']", |t| {
+                // Inline JSON with `<` written as `\u003c` (JSON's own escape,
+                // valid only inside strings, where JSON allows `<` at all): a
+                // `</script>` or `<!--<script>` in a string can no longer end
+                // the script early or swallow the rest of the page.
+                if t.as_str().contains('<') {
+                    let safe = t.as_str().replace('<', "\\u003c");
+                    t.replace(&safe, ContentType::Html);
+                }
+                Ok(())
+            }))
             .append_element_content_handler(
                 // An earlier bake's chart and table make way for the new ones.
                 element!("strata-chart > svg, strata-chart > details.strata-data", move |el| {
@@ -209,6 +220,22 @@ mod tests {
         assert_eq!(rep.baked, 0);
         assert!(rep.failures[0].contains("#c"), "{:?}", rep.failures);
         assert!(rep.failures[0].contains("layers[0].x"), "{:?}", rep.failures);
+    }
+
+    #[test]
+    fn inline_json_is_written_with_escaped_less_than_signs() {
+        let dir = std::env::temp_dir().join(format!("strata-bake-lt-{}", std::process::id()));
+        std::fs::create_dir_all(&dir).unwrap();
+        let html = r#"<strata-chart src="d.csv"><script type="application/json">{"title":"a <b> c <!-- d","layers":[{"draw":"bar","x":"k","y":"v"}]}</script></strata-chart><p id="after">after</p>"#;
+        let p = page_in(&dir, html);
+        let (out, rep) = bake_html(&p, html, 640.0, &site(&p)).unwrap();
+        assert_eq!(rep.baked, 1, "{:?}", rep.failures);
+        assert!(out.contains(r#"{"title":"a \u003cb> c \u003c!-- d","#), "{out}");
+        assert!(out.contains("a &lt;b&gt; c &lt;!-- d"), "the title drawn as text");
+        assert!(out.ends_with(r#"<p id="after">after</p>"#));
+        // The rewritten JSON means the same spec: baking again changes nothing.
+        let (again, _) = bake_html(&p, &out, 640.0, &site(&p)).unwrap();
+        assert_eq!(again, out);
     }
 
     #[test]

@@ -100,6 +100,15 @@ pub fn render_spec(spec: &Spec, data: Option<DataBytes>, opts: &RenderOptions) -
 }
 
 fn render_stages(spec: &Spec, data: Option<DataBytes>, opts: &RenderOptions) -> Result<Rendered, Errors> {
+    let w = opts.scene.width;
+    if !(w.is_finite() && w > 0.0 && w <= guard::MAX_CHART_PIXELS) {
+        return Err(Diagnostic::error(
+            "spec.too_large",
+            format!("the width the page asks for, {w} pixels, is not a size above 0 and at most {}", guard::MAX_CHART_PIXELS),
+        )
+        .at_path("size.width")
+        .into());
+    }
     let table = load_table(spec, data)?;
     // Budgets at each stage boundary (budget.rs): the table after reading
     // and after each derive, marks and categories after planning, the SVG.
