@@ -157,7 +157,9 @@ case("spec_text", "a title of a million characters draws", point(title="@repeat(
 
 # ---- hostile data
 case("data", "1 MB of commas as CSV", {"data": {"url": "d.csv"}, "layers": [{"draw": "point", "x": "a", "y": "b"}]}, ("", ""), data="@repeat(1000000,,)@")
-case("data", "a 10 MB cell", {"data": {"url": "d.csv"}, "layers": [{"draw": "point", "x": "a", "y": "b"}]}, data="a,b,k\n1,2,@repeat(10000000,x)@\n2,3,y\n")
+case("data", "a 10 MB cell", {"data": {"url": "d.csv"}, "layers": [{"draw": "point", "x": "a", "y": "b"}]}, ("budget.cell", "data"), data="a,b,k\n1,2,@repeat(10000000,x)@\n2,3,y\n")
+case("data", "a 1 MB cell draws", {"data": {"url": "d.csv"}, "layers": [{"draw": "point", "x": "a", "y": "b"}]}, data="a,b,k\n1,2,@repeat(1000000,x)@\n2,3,y\n")
+case("data", "a derive making a 2 MB cell", {"data": {"url": "d.csv"}, "derive": {"k2": "k || k || k"}, "layers": [{"draw": "point", "x": "a", "y": "b"}]}, ("budget.cell", "derive.k2"), data="a,b,k\n1,2,@repeat(700000,x)@\n2,3,y\n")
 # 100,000 columns of one repeated name is quadratic in the header renaming
 # (data/columns.rs unique_names), left to the table rework: 2,000 here.
 case("data", "2,000 columns of one name", {"data": {"url": "d.csv"}, "layers": [{"draw": "point", "x": "c0", "y": "c"}]}, data="c0@repeat(1999,,c)@\n1@repeat(1999,,2)@\n")

@@ -18,6 +18,8 @@ use indexmap::IndexMap;
 
 /// The most memory a table may take, after reading or deriving.
 pub const MAX_TABLE_BYTES: usize = 256 << 20;
+/// The longest text in one cell: a 100 MB cell once took 1.6 GB to draw.
+pub const MAX_CELL_BYTES: usize = 1 << 20;
 /// The most marks (rows after the statistics) over all layers.
 pub const MAX_MARKS: usize = 1_000_000;
 /// The most categories on a position scale, and on a colour or shape scale.
@@ -38,7 +40,34 @@ pub fn check_table(table: &Table, path: &str) -> Result<(), Errors> {
         .with_hint("keep only the rows and columns the chart needs (`where`), or shorten long texts")
         .into());
     }
+    if let Some((column, row, len)) = longest_cell(table) {
+        if len > MAX_CELL_BYTES {
+            return Err(Diagnostic::error(
+                "budget.cell",
+                format!("column `{column}` has a text of {} KB in row {}, more than the {} KB a cell may hold", len >> 10, row + 1, MAX_CELL_BYTES >> 10),
+            )
+            .at_path(path)
+            .with_hint("shorten the text, or leave the column out of the data")
+            .into());
+        }
+    }
     Ok(())
+}
+
+/// The longest text cell: its column, row (0-based) and length in bytes.
+fn longest_cell(table: &Table) -> Option<(String, usize, usize)> {
+    use arrow_array::cast::AsArray;
+    let names = table.column_names();
+    let mut best: Option<(String, usize, usize)> = None;
+    for (name, col) in names.iter().zip(table.batch.columns()) {
+        let Some(s) = col.as_string_opt::<i32>() else { continue };
+        if let Some((row, len)) = s.offsets().windows(2).map(|w| (w[1] - w[0]) as usize).enumerate().max_by_key(|&(_, len)| len) {
+            if best.as_ref().is_none_or(|b| len > b.2) {
+                best = Some((name.clone(), row, len));
+            }
+        }
+    }
+    best
 }
 
 /// Memory held by a table's columns.
