@@ -108,6 +108,8 @@ case("budget", "2,000 colour categories", {"data": {"url": "d.csv"}, "layers": [
 case("budget", "500 colour categories draw", {"data": {"url": "d.csv"}, "layers": [{"draw": "point", "x": "n", "y": "n", "color": "c"}]}, data="n,c\n@pairs(500)@")
 case("budget", "1,001 shape categories", {"data": {"url": "d.csv"}, "layers": [{"draw": "point", "x": "n", "y": "n", "shape": "c"}]}, ("budget.categories", "scales.shape"), data="n,c\n@pairs(1001)@")
 case("budget", "30,000 x categories", {"data": {"url": "d.csv"}, "layers": [{"draw": "point", "x": "c", "y": "n"}]}, ("budget.categories", "scales.x"), data="n,c\n@pairs(30000)@")
+case("budget", "200,000 colour categories (took 17 s: a grid scan per group)", {"data": {"url": "d.csv"}, "layers": [{"draw": "point", "x": "n", "y": "n", "color": "c"}]}, ("budget.categories", "scales.color"), data="n,c\n@pairs(200000)@")
+case("budget", "panels by 200,000 values", {"data": {"url": "d.csv"}, "panels": {"by": "c"}, "layers": [{"draw": "point", "x": "n", "y": "n"}]}, ("plan.too_many_panels", "panels"), data="n,c\n@pairs(200000)@")
 case("budget", "panels by 5,000 values", {"data": {"url": "d.csv"}, "panels": {"by": "n"}, "layers": [{"draw": "point", "x": "n", "y": "n"}]}, ("plan.too_many_panels", "panels"), data="n,c\n@pairs(5000)@")
 
 # ---- colours reach the SVG only as CSS colours
