@@ -82,6 +82,11 @@ test('hostile charts are refused in place and the good one beside them draws', a
   assert.match(r[2].error, /engine stopped/);
   assert.equal(r[3].error, null, r[3].error);
   assert.ok(r[3].svg > 0);
+  // The deepest chain the bound allows (128 levels) evaluates inside the
+  // WebAssembly engine's stack.
+  const deepest = Array(128).fill('a').join(' + ');
+  const [deep] = await addCharts([{ ...good('deepest chain'), derive: { c: deepest }, layers: [{ draw: 'point', x: 'a', y: 'c' }] }]);
+  assert.equal(deep.error, null, deep.error);
   // A chart added afterwards draws with a fresh engine.
   const [later] = await addCharts([good('added later')]);
   assert.equal(later.error, null, later.error);
