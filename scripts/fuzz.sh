@@ -38,5 +38,5 @@ echo "== stable seeded harness (crates/strata/tests/fuzz_smoke.rs)"
 STRATA_FUZZ_ITERATIONS="${STRATA_FUZZ_ITERATIONS:-50000}" STRATA_FUZZ_SEED="${STRATA_FUZZ_SEED:-$(date +%s)}" \
     cargo test -p strata --test fuzz_smoke -- --nocapture
 
-# The spec and expression targets.
+# The spec, expression and whole-spec (render) targets.
 fuzz/run.sh "$SECS"

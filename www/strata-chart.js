@@ -21,19 +21,43 @@ const ENGINE_URLS = {
 const SVG_NS = 'http://www.w3.org/2000/svg';
 
 const engines = {};
+const loaded = {};
+let instances = 0;
 
-/** Load an engine module once for the whole page. */
+/**
+ * Load an engine module once for the whole page. After a trap, `dropEngine`
+ * forgets it and the next chart loads a fresh instance: a new module URL
+ * (the `instance` query) gives a new module record and so new WebAssembly
+ * memory, since the old instance's state cannot be trusted.
+ */
 function loadEngine(kind = 'core') {
   if (!engines[kind]) {
-    engines[kind] = import(ENGINE_URLS[kind].href).then(async (m) => {
+    const url = new URL(ENGINE_URLS[kind]);
+    if (instances > 0) url.searchParams.set('instance', String(instances));
+    const loading = import(url.href).then(async (m) => {
       await m.default();
+      loaded[kind] = m;
       return m;
     });
+    engines[kind] = loading;
     // A failed load may be retried by the next chart.
-    engines[kind].catch(() => { delete engines[kind]; });
+    loading.catch(() => {
+      if (engines[kind] === loading) delete engines[kind];
+    });
   }
   return engines[kind];
 }
+
+/** Forget an engine that trapped (a panic, a stack overflow, out of memory). */
+function dropEngine(kind, module) {
+  if (loaded[kind] !== module) return; // already replaced by a fresh one
+  delete loaded[kind];
+  delete engines[kind];
+  instances += 1;
+}
+
+/** How long a spec or data fetch may take, in seconds, when the `timeout` attribute does not say. */
+const DEFAULT_TIMEOUT_S = 30;
 
 /** Arrow IPC file ("ARROW1") or stream (continuation marker 0xFFFFFFFF). */
 function isArrow(bytes, name, spec) {
@@ -109,7 +133,7 @@ const fail = (code, message, extra = {}) => new ChartError([{ severity: 'error',
 
 export class StrataChart extends HTMLElement {
   static get observedAttributes() {
-    return ['src', 'spec-src', 'theme'];
+    return ['src', 'spec-src', 'theme', 'timeout'];
   }
 
   #spec = null; // object set from JavaScript
@@ -121,6 +145,7 @@ export class StrataChart extends HTMLElement {
   #scheduled = false;
   #resize = null;
   #lastWidth = 0;
+  #drawing = Promise.resolve();
 
   connectedCallback() {
     adoptStyles();
@@ -212,9 +237,19 @@ export class StrataChart extends HTMLElement {
     return this.#tableHtml;
   }
 
-  /** Redraw now; resolves when done (errors are shown, not thrown). */
-  render() {
-    return this.#draw();
+  /**
+   * Redraw now; resolves when the element shows its current spec (errors are
+   * shown, not thrown). A spec, data or attribute set while this drawing is
+   * under way starts a newer one, and the promise waits for that too.
+   */
+  async render() {
+    this.#draw();
+    for (;;) {
+      const p = this.#drawing;
+      await p;
+      if (p === this.#drawing && !this.#scheduled) return;
+      if (this.#scheduled) await new Promise((r) => queueMicrotask(r));
+    }
   }
 
   #schedule() {
@@ -226,16 +261,62 @@ export class StrataChart extends HTMLElement {
     });
   }
 
+  #draw() {
+    const p = this.#drawOnce();
+    this.#drawing = p;
+    return p;
+  }
+
+  /** Seconds a fetch may take: the `timeout` attribute, else 30. */
+  #timeoutSeconds() {
+    const t = Number(this.getAttribute('timeout'));
+    return Number.isFinite(t) && t > 0 ? t : DEFAULT_TIMEOUT_S;
+  }
+
+  /**
+   * Fetch with the element's time limit; the limit covers the whole body, so
+   * a response that starts and never finishes is also stopped.
+   */
+  async #fetchBytes(url, code, what, path) {
+    const seconds = this.#timeoutSeconds();
+    const ctl = new AbortController();
+    let timedOut = false;
+    const timer = setTimeout(() => {
+      timedOut = true;
+      ctl.abort();
+    }, seconds * 1000);
+    const extra = path ? { path } : {};
+    try {
+      let res;
+      try {
+        res = await fetch(url, { signal: ctl.signal });
+      } catch (e) {
+        throw timedOut
+          ? fail(code, `the ${what} from ${url} did not arrive within ${seconds} s`, { ...extra, hint: 'check the address, or give the element a longer timeout="seconds"' })
+          : fail(code, `could not load the ${what} from ${url}: ${e.message}`, extra);
+      }
+      if (!res.ok) {
+        throw fail(code, `could not load the ${what} from ${url}: HTTP ${res.status} ${res.statusText}`.trim(), extra);
+      }
+      try {
+        return new Uint8Array(await res.arrayBuffer());
+      } catch (e) {
+        throw timedOut
+          ? fail(code, `the ${what} from ${url} did not finish arriving within ${seconds} s`, { ...extra, hint: 'check the address, or give the element a longer timeout="seconds"' })
+          : fail(code, `could not load the ${what} from ${url}: ${e.message}`, extra);
+      }
+    } finally {
+      clearTimeout(timer);
+    }
+  }
+
   async #specSource() {
     if (this.#spec) return { text: JSON.stringify(this.#spec), base: document.baseURI };
     const specSrc = this.getAttribute('spec-src');
     if (specSrc) {
       const url = new URL(specSrc, document.baseURI);
-      const res = await fetch(url).catch((e) => {
-        throw fail('spec.fetch', `could not load the spec from ${url}: ${e.message}`);
-      });
-      if (!res.ok) throw fail('spec.fetch', `could not load the spec from ${url}: HTTP ${res.status}`);
-      return { text: await res.text(), base: url.href };
+      const bytes = await this.#fetchBytes(url, 'spec.fetch', 'spec', null);
+      return { text: new TextDecoder().decode(bytes), base: url.href };
     }
     const script = this.querySelector(':scope > script[type="application/json"]');
     if (!script) {
@@ -246,19 +327,8 @@ export class StrataChart extends HTMLElement {
     return { text: script.textContent, base: document.baseURI };
   }
 
-  async #fetchData(url) {
-    let res;
-    try {
-      res = await fetch(url);
-    } catch (e) {
-      throw fail('data.fetch', `could not load the data from ${url}: ${e.message}`, { path: 'data.url' });
-    }
-    if (!res.ok) {
-      throw fail('data.fetch', `could not load the data from ${url}: HTTP ${res.status} ${res.statusText}`.trim(), {
-        path: 'data.url',
-      });
-    }
-    return new Uint8Array(await res.arrayBuffer());
+  #fetchData(url) {
+    return this.#fetchBytes(url, 'data.fetch', 'data', 'data.url');
   }
 
   #width(spec) {
@@ -280,7 +350,7 @@ export class StrataChart extends HTMLElement {
     return w > 0 ? w : 640;
   }
 
-  async #draw() {
+  async #drawOnce() {
     const generation = ++this.#generation;
     try {
       const source = await this.#specSource();
@@ -321,9 +391,32 @@ export class StrataChart extends HTMLElement {
       }
       const width = this.#width(spec);
       const arrow = !!bytes && isArrow(bytes, name, spec);
-      const [engine, addon] = await Promise.all([loadEngine('core'), arrow ? loadEngine('arrow') : null]);
-      if (generation !== this.#generation) return;
-      const answer = JSON.parse(arrow ? engine.render_columns(text, addon.decode(bytes), width) : engine.render(text, bytes, name, width));
+      let raw;
+      for (let attempt = 0; ; attempt += 1) {
+        // Arrow data: the add-on decodes it into the column interchange the core reads.
+        const [engine, addon] = await Promise.all([loadEngine('core'), arrow ? loadEngine('arrow') : null]);
+        if (generation !== this.#generation) return;
+        // Another chart's trap retired an instance while we waited: take a fresh one.
+        const current = loaded.core === engine && (!arrow || loaded.arrow === addon);
+        if (!current && attempt < 2) continue;
+        try {
+          raw = arrow ? engine.render_columns(text, addon.decode(bytes), width) : engine.render(text, bytes, name, width);
+          break;
+        } catch (e) {
+          // The engine trapped (a panic, a stack overflow, out of memory):
+          // its memory can no longer be trusted, so no later chart uses this
+          // instance; the next one starts a fresh engine. When the instance
+          // was already retired by another chart's trap, try once more.
+          dropEngine('core', engine);
+          if (arrow) dropEngine('arrow', addon);
+          if (current || attempt >= 2) {
+            throw fail('engine.trap', `the chart engine stopped on this chart (${e && e.message ? e.message : e}); other charts are not affected`, {
+              hint: 'this is a bug in Strata or a spec beyond its limits: simplify the spec, and please report it',
+            });
+          }
+        }
+      }
+      const answer = JSON.parse(raw);
       if (generation !== this.#generation) return;
       if (!answer.ok) throw new ChartError(answer.errors);
       this.#lastWidth = width;

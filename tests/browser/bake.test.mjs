@@ -10,7 +10,8 @@ const BAKED = path.join(ROOT, 'www', 'index.baked.html');
 let server, browser, bake;
 
 before(async () => {
-  bake = cli(['bake', path.join(ROOT, 'www', 'index.html'), '-o', BAKED]);
+  // The gallery page reads ../examples, so the site root is the repository.
+  bake = cli(['bake', '--root', ROOT, path.join(ROOT, 'www', 'index.html'), '-o', BAKED]);
   server = await serve();
   browser = await launch();
 });

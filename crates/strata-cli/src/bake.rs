@@ -10,10 +10,12 @@
 use lol_html::html_content::ContentType;
 use lol_html::{element, rewrite_str, text, RewriteStrSettings};
 use std::cell::RefCell;
-use std::path::{Path, PathBuf};
+use std::path::Path;
 use std::rc::Rc;
 use strata::scene::SceneOptions;
 use strata::{DataBytes, RenderOptions};
+
+use crate::files::{decode_entities, read_capped, read_text_capped, url_path, Site, MAX_DATA_BYTES, MAX_TEXT_BYTES};
 
 #[derive(Debug, Default, Clone)]
 struct Found {
@@ -58,45 +60,48 @@ fn collect(html: &str) -> Result<Vec<Found>, String> {
     Ok(v)
 }
 
-/// Resolve a page-relative reference to a local file; URLs with a scheme
-/// cannot be baked.
-pub(crate) fn local(base: &Path, reference: &str) -> Result<PathBuf, String> {
-    if reference.contains("://") || reference.starts_with("//") {
-        return Err(format!("`{reference}` is not a local file; bake reads files next to the page only"));
-    }
-    let r = reference.split(['?', '#']).next().unwrap_or(reference);
-    Ok(if let Some(abs) = r.strip_prefix('/') { base.join(abs) } else { base.join(r) })
-}
-
-fn render_one(page: &Path, chart: &Found, width: f64) -> Result<String, String> {
-    let page_dir = page.parent().unwrap_or(Path::new("."));
-    let (mut text, spec_dir) = match &chart.spec_src {
+/// Read one chart's spec and data from the site and render it. Every file
+/// reference goes through [`Site::resolve`]: attribute values are decoded of
+/// character references first, as the browser does before fetching.
+fn render_one(page: &Path, chart: &Found, width: f64, site: &Site) -> Result<String, String> {
+    let page_dir = page.parent().filter(|p| !p.as_os_str().is_empty()).unwrap_or(Path::new("."));
+    let page_base = site.segments_of(page_dir)?;
+    let (mut text, spec_base) = match &chart.spec_src {
         Some(s) => {
-            let p = local(page_dir, s)?;
-            let t = std::fs::read_to_string(&p).map_err(|e| format!("cannot read spec-src {}: {e}", p.display()))?;
-            (t, p.parent().unwrap_or(Path::new(".")).to_path_buf())
+            let s = decode_entities(s);
+            let p = site.resolve(&page_base, &s).map_err(|e| format!("spec-src: {e}"))?;
+            let t = read_text_capped(&p, MAX_TEXT_BYTES, "spec-src")
+                .map_err(|_| format!("spec-src: cannot read `{s}` as UTF-8 text of at most {} MB", MAX_TEXT_BYTES >> 20))?;
+            let mut dir = url_path(&page_base, &s)?;
+            dir.pop();
+            (t, dir)
         }
-        None => (html_unescape_script(&chart.spec), page_dir.to_path_buf()),
+        None => (html_unescape_script(&chart.spec), page_base.clone()),
     };
     if let Some(theme) = &chart.theme {
         // The element applies its theme attribute the same way.
         let mut v: serde_json::Value = serde_json::from_str(&text).map_err(|e| format!("spec is not valid JSON: {e}"))?;
         if let Some(o) = v.as_object_mut() {
-            o.insert("theme".into(), serde_json::Value::String(theme.clone()));
+            o.insert("theme".into(), serde_json::Value::String(decode_entities(theme)));
         }
         text = serde_json::to_string(&v).map_err(|e| e.to_string())?;
     }
     let spec = strata::parse_spec(&text).map_err(|e| e.to_string())?;
-    let data_path = match (&chart.src, spec.data.as_ref().and_then(|d| d.object().url)) {
-        (Some(src), _) => Some(local(page_dir, src)?),
-        (None, Some(url)) => Some(local(&spec_dir, &url)?),
+    let reference = match (&chart.src, spec.data.as_ref().and_then(|d| d.object().url)) {
+        (Some(src), _) => {
+            let src = decode_entities(src);
+            Some((site.resolve(&page_base, &src).map_err(|e| format!("src: {e}"))?, src))
+        }
+        (None, Some(url)) => Some((site.resolve(&spec_base, &url).map_err(|e| format!("data.url: {e}"))?, url.to_string())),
         _ => None,
     };
-    let bytes = match &data_path {
-        Some(p) => Some(std::fs::read(p).map_err(|e| format!("cannot read data {}: {e}", p.display()))?),
+    let bytes = match &reference {
+        Some((p, r)) => {
+            Some(read_capped(p, MAX_DATA_BYTES, "data").map_err(|_| format!("cannot read `{r}`, or it is larger than {} MB", MAX_DATA_BYTES >> 20))?)
+        }
         None => None,
     };
-    let name = data_path.as_ref().map(|p| p.display().to_string()).unwrap_or_default();
+    let name = reference.as_ref().map(|(_, r)| r.clone()).unwrap_or_default();
     let data = bytes.as_deref().map(|b| DataBytes { bytes: b, name: &name });
     let r = strata::render_spec(&spec, data, &RenderOptions { scene: SceneOptions { width } }).map_err(|e| e.to_string())?;
     // The chart, then its data table, as the element places them.
@@ -110,9 +115,9 @@ fn html_unescape_script(s: &str) -> String {
 }
 
 /// Bake one page's HTML text; returns the new text and a report.
-pub fn bake_html(page: &Path, html: &str, width: f64) -> Result<(String, PageReport), String> {
+pub fn bake_html(page: &Path, html: &str, width: f64, site: &Site) -> Result<(String, PageReport), String> {
     let charts = collect(html)?;
-    let results: Vec<Result<String, String>> = charts.iter().map(|c| render_one(page, c, width)).collect();
+    let results: Vec<Result<String, String>> = charts.iter().map(|c| render_one(page, c, width, site)).collect();
     let mut failures = Vec::new();
     for (i, (c, r)) in charts.iter().zip(&results).enumerate() {
         if let Err(e) = r {
@@ -141,6 +146,17 @@ pub fn bake_html(page: &Path, html: &str, width: f64) -> Result<(String, PageRep
                 }
                 Ok(())
             }))
+            .append_element_content_handler(text!("strata-chart > script[type='application/json']", |t| {
+                // Inline JSON with `<` written as `\u003c` (JSON's own escape,
+                // valid only inside strings, where JSON allows `<` at all): a
+                // `</script>` or `<!--<script>` in a string can no longer end
+                // the script early or swallow the rest of the page.
+                if t.as_str().contains('<') {
+                    let safe = t.as_str().replace('<', "\\u003c");
+                    t.replace(&safe, ContentType::Html);
+                }
+                Ok(())
+            }))
             .append_element_content_handler(
                 // An earlier bake's chart and table make way for the new ones.
                 element!("strata-chart > svg, strata-chart > details.strata-data", move |el| {
@@ -160,6 +176,11 @@ pub fn bake_html(page: &Path, html: &str, width: f64) -> Result<(String, PageRep
 #[cfg(test)]
 mod tests {
     use super::*;
+    use std::path::PathBuf;
+
+    fn site(p: &Path) -> Site {
+        Site::new(p.parent().unwrap()).unwrap()
+    }
 
     fn page_in(dir: &Path, html: &str) -> PathBuf {
         std::fs::write(dir.join("d.csv"), "k,v\na,1\nb,2\n").unwrap();
@@ -174,7 +195,7 @@ mod tests {
         std::fs::create_dir_all(&dir).unwrap();
         let html = r#"<p>x</p><strata-chart src="d.csv"><script type="application/json">{"size":{"width":300},"layers":[{"draw":"bar","x":"k","y":"v"}]}</script></strata-chart>"#;
         let p = page_in(&dir, html);
-        let (once, rep) = bake_html(&p, html, 640.0).unwrap();
+        let (once, rep) = bake_html(&p, html, 640.0, &site(&p)).unwrap();
         assert_eq!(rep.baked, 1);
         assert!(rep.failures.is_empty());
         assert_eq!(once.matches("<svg").count(), 1);
@@ -184,7 +205,7 @@ mod tests {
         assert!(once.contains("</svg><details class=\"strata-data\">"));
         assert!(once.ends_with("</details></strata-chart>"));
         // Baking again replaces the SVG and table instead of adding second ones.
-        let (twice, _) = bake_html(&p, &once, 640.0).unwrap();
+        let (twice, _) = bake_html(&p, &once, 640.0, &site(&p)).unwrap();
         assert_eq!(once, twice);
     }
 
@@ -194,7 +215,7 @@ mod tests {
         std::fs::create_dir_all(&dir).unwrap();
         let html = r#"<strata-chart id="c" src="d.csv"><script type="application/json">{"layers":[{"draw":"bar","x":"nope","y":"v"}]}</script><svg id="old"></svg></strata-chart>"#;
         let p = page_in(&dir, html);
-        let (out, rep) = bake_html(&p, html, 640.0).unwrap();
+        let (out, rep) = bake_html(&p, html, 640.0, &site(&p)).unwrap();
         assert_eq!(out, html);
         assert_eq!(rep.baked, 0);
         assert!(rep.failures[0].contains("#c"), "{:?}", rep.failures);
@@ -202,8 +223,124 @@ mod tests {
     }
 
     #[test]
+    fn inline_json_is_written_with_escaped_less_than_signs() {
+        let dir = std::env::temp_dir().join(format!("strata-bake-lt-{}", std::process::id()));
+        std::fs::create_dir_all(&dir).unwrap();
+        let html = r#"<strata-chart src="d.csv"><script type="application/json">{"title":"a <b> c <!-- d","layers":[{"draw":"bar","x":"k","y":"v"}]}</script></strata-chart><p id="after">after</p>"#;
+        let p = page_in(&dir, html);
+        let (out, rep) = bake_html(&p, html, 640.0, &site(&p)).unwrap();
+        assert_eq!(rep.baked, 1, "{:?}", rep.failures);
+        assert!(out.contains(r#"{"title":"a \u003cb> c \u003c!-- d","#), "{out}");
+        assert!(out.contains("a &lt;b&gt; c &lt;!-- d"), "the title drawn as text");
+        assert!(out.ends_with(r#"<p id="after">after</p>"#));
+        // The rewritten JSON means the same spec: baking again changes nothing.
+        let (again, _) = bake_html(&p, &out, 640.0, &site(&p)).unwrap();
+        assert_eq!(again, out);
+    }
+
+    #[test]
     fn remote_data_is_refused_clearly() {
-        let e = local(Path::new("."), "https://example.org/d.csv").unwrap_err();
-        assert!(e.contains("not a local file"));
+        let e = url_path(&[], "https://example.org/d.csv").unwrap_err();
+        assert!(e.contains("not a file of this site"));
+    }
+
+    /// A site folder with a secret beside it (outside the root), the way a
+    /// CI checkout sits next to other files.
+    fn hostile_site(tag: &str) -> (PathBuf, PathBuf) {
+        let top = std::env::temp_dir().join(format!("strata-bake-hostile-{tag}-{}", std::process::id()));
+        let site = top.join("site");
+        std::fs::create_dir_all(site.join("data")).unwrap();
+        std::fs::create_dir_all(site.join("docs")).unwrap();
+        std::fs::write(top.join("secret.csv"), "TOKEN,v\nhunter2,1\n").unwrap();
+        std::fs::write(site.join("data/ok.csv"), "k,v\na,1\nb,2\n").unwrap();
+        (top, site)
+    }
+
+    fn bake_chart(site_dir: &Path, page: &Path, attrs: &str, spec: &str) -> (String, PageReport) {
+        let html = format!(r#"<strata-chart id="c" {attrs}><script type="application/json">{spec}</script></strata-chart>"#);
+        std::fs::write(page, &html).unwrap();
+        bake_html(page, &html, 300.0, &Site::new(site_dir).unwrap()).unwrap()
+    }
+
+    const SPEC: &str = r#"{"layers":[{"draw":"bar","x":"k","y":"v"}]}"#;
+
+    #[test]
+    fn files_outside_the_site_are_never_read() {
+        let (top, site) = hostile_site("outside");
+        let page = site.join("docs/p.html");
+        let secret = top.join("secret.csv");
+        #[cfg(unix)]
+        {
+            let _ = std::fs::remove_file(site.join("data/link.csv"));
+            std::os::unix::fs::symlink(&secret, site.join("data/link.csv")).unwrap();
+            let _ = std::fs::remove_file(site.join("data/zero.csv"));
+            std::os::unix::fs::symlink("/dev/zero", site.join("data/zero.csv")).unwrap();
+        }
+        let attacks = [
+            "../../secret.csv".to_string(),
+            "../../../../../../../../etc/passwd".to_string(),
+            secret.display().to_string(),
+            format!("file://{}", secret.display()),
+            "&period;&period;/&period;&period;/secret.csv".into(),
+            "%2e%2e/%2e%2e/secret.csv".into(),
+            "..\\..\\secret.csv".into(),
+            "/data/link.csv".into(),
+            "../data/zero.csv".into(),
+            "/dev/zero".into(),
+            "/proc/self/environ".into(),
+            "/data".into(),
+        ];
+        for a in &attacks {
+            for (attrs, spec) in [
+                (format!(r#"src="{a}""#), SPEC.to_string()),
+                (String::new(), format!(r#"{{"data":{{"url":"{}"}},"layers":[{{"draw":"bar","x":"k","y":"v"}}]}}"#, a.replace('\\', "\\\\"))),
+            ] {
+                let (out, rep) = bake_chart(&site, &page, &attrs, &spec);
+                assert_eq!(rep.baked, 0, "{a}: {out}");
+                let msg = &rep.failures[0];
+                assert!(msg.contains("#c"), "the chart is named: {msg}");
+                assert!(!msg.contains("hunter2") && !msg.contains("TOKEN") && !msg.contains("root:"), "no contents: {msg}");
+                assert!(!out.contains("hunter2") && !out.contains("TOKEN") && !out.contains("<svg"), "{a}");
+            }
+        }
+    }
+
+    #[test]
+    fn root_relative_and_encoded_references_stay_in_the_site() {
+        let (_top, site) = hostile_site("inside");
+        let page = site.join("docs/p.html");
+        // `/data/ok.csv` is the root's data folder, as a browser serving the site reads it.
+        for a in ["/data/ok.csv", "../data/ok.csv", "&#x2e;&#x2e;/data/ok.csv", "%2E%2E/data/%6Fk.csv", "../../../data/ok.csv?v=2"] {
+            let (out, rep) = bake_chart(&site, &page, &format!(r#"src="{a}""#), SPEC);
+            assert_eq!(rep.baked, 1, "{a}: {:?}", rep.failures);
+            assert!(out.contains("<svg"));
+        }
+    }
+
+    #[cfg(unix)]
+    #[test]
+    fn special_files_are_refused_without_reading() {
+        let (_top, site) = hostile_site("fifo");
+        let page = site.join("docs/p.html");
+        let fifo = site.join("data/pipe.csv");
+        let _ = std::fs::remove_file(&fifo);
+        let made = std::process::Command::new("mkfifo").arg(&fifo).status().map(|s| s.success()).unwrap_or(false);
+        if made {
+            // Opening a FIFO with no writer would hang forever.
+            let (_, rep) = bake_chart(&site, &page, r#"src="/data/pipe.csv""#, SPEC);
+            assert!(rep.failures[0].contains("not a regular file"), "{:?}", rep.failures);
+        }
+    }
+
+    #[test]
+    fn reads_stop_at_the_cap() {
+        let dir = std::env::temp_dir().join(format!("strata-cap-{}", std::process::id()));
+        std::fs::create_dir_all(&dir).unwrap();
+        let f = dir.join("big.csv");
+        std::fs::write(&f, vec![b'a'; 2000]).unwrap();
+        assert_eq!(read_capped(&f, 2000, "data").unwrap().len(), 2000);
+        assert!(read_capped(&f, 1999, "data").unwrap_err().contains("larger than"));
+        #[cfg(unix)]
+        assert!(read_capped(Path::new("/dev/zero"), 1 << 20, "data").is_err());
     }
 }

@@ -92,7 +92,7 @@ pub(crate) enum DataFrom {
 }
 
 /// Check one spec text; returns the diagnostics, each placed.
-pub(crate) fn check_text(src: &Source, theme: Option<&str>, data: DataFrom) -> Vec<Finding> {
+pub(crate) fn check_text(src: &Source, theme: Option<&str>, data: DataFrom, root: Option<&Path>) -> Vec<Finding> {
     let place = |d: &Diagnostic, data_file: Option<&Path>| {
         let line = if d.code == "spec.json_syntax" {
             // serde_json names the line of the syntax error.
@@ -131,15 +131,21 @@ pub(crate) fn check_text(src: &Source, theme: Option<&str>, data: DataFrom) -> V
         DataFrom::File(p) => Some(p),
         DataFrom::SpecUrl(dir) => match spec.data.as_ref().and_then(|d| d.object().url) {
             // Remote data cannot be checked here; the spec is still linted.
-            Some(url) => crate::bake::local(&dir, &url).ok(),
+            Some(url) if url.contains("://") || url.starts_with("//") => None,
+            // A local file outside the site, or not a regular file, is refused
+            // as bake and the page would refuse it.
+            Some(url) => match crate::files::local(&dir, &url, root) {
+                Ok(p) => Some(p),
+                Err(e) => return vec![place(&Diagnostic::error("data.refused", format!("data.url: {e}")).at_path("data.url"), None)],
+            },
             None => None,
         },
     };
     let bytes = match &path {
-        Some(p) => match std::fs::read(p) {
+        Some(p) => match crate::files::read_capped(p, crate::files::MAX_DATA_BYTES, "data") {
             Ok(b) => Some(b),
             Err(e) => {
-                let d = Diagnostic::error("data.unreadable", format!("cannot read the data {}: {e}", p.display())).at_path("data.url");
+                let d = Diagnostic::error("data.unreadable", format!("cannot read the data: {e}")).at_path("data.url");
                 return vec![place(&d, None)];
             }
         },
@@ -162,7 +168,10 @@ pub(crate) fn check_text(src: &Source, theme: Option<&str>, data: DataFrom) -> V
 /// A spec file inside a folder: a JSON object with `layers` (data files
 /// beside it are not specs).
 fn looks_like_spec(p: &Path) -> bool {
-    std::fs::read_to_string(p).ok().and_then(|t| serde_json::from_str::<serde_json::Value>(&t).ok()).is_some_and(|v| v.get("layers").is_some())
+    crate::files::read_text_capped(p, crate::files::MAX_TEXT_BYTES, "the file")
+        .ok()
+        .and_then(|t| serde_json::from_str::<serde_json::Value>(&t).ok())
+        .is_some_and(|v| v.get("layers").is_some())
 }
 
 /// The files to check: pages and specs named outright, and under folders
@@ -209,12 +218,14 @@ pub struct Outcome {
 
 /// Check every file (see the module notes); `data` overrides the data of
 /// every spec file given.
-pub fn check(paths: &[PathBuf], data: Option<&Path>) -> Result<Outcome, String> {
+pub fn check(paths: &[PathBuf], data: Option<&Path>, root: Option<&Path>) -> Result<Outcome, String> {
     let files = files(paths)?;
     let mut findings = Vec::new();
     let mut charts = 0;
     for file in &files {
-        let text = match std::fs::read_to_string(file) {
+        let folder_root = if root.is_none() { pages::folder_root(paths, file) } else { None };
+        let root = root.or(folder_root.as_deref());
+        let text = match crate::files::read_text_capped(file, crate::files::MAX_TEXT_BYTES, "the file") {
             Ok(t) => t,
             Err(e) => {
                 findings.push(Finding {
@@ -241,7 +252,7 @@ pub fn check(paths: &[PathBuf], data: Option<&Path>) -> Result<Outcome, String> 
                 Some(d) => DataFrom::File(d.to_path_buf()),
                 None => DataFrom::SpecUrl(dir),
             };
-            findings.extend(check_text(&src, None, from));
+            findings.extend(check_text(&src, None, from, root));
             continue;
         }
         let found = pages::charts(&text).map_err(|e| format!("strata: {}: {e}", file.display()))?;
@@ -249,7 +260,7 @@ pub fn check(paths: &[PathBuf], data: Option<&Path>) -> Result<Outcome, String> 
             charts += 1;
             let name = Some(c.name(i));
             let data_from = |spec_dir: PathBuf| match &c.src {
-                Some(s) => match crate::bake::local(&dir, s) {
+                Some(s) => match crate::files::local(&dir, s, root) {
                     Ok(p) => DataFrom::File(p),
                     Err(_) => DataFrom::SpecUrl(spec_dir),
                 },
@@ -257,12 +268,13 @@ pub fn check(paths: &[PathBuf], data: Option<&Path>) -> Result<Outcome, String> 
             };
             match (&c.spec_src, c.kind) {
                 (Some(s), Kind::Element) => {
-                    let loaded = crate::bake::local(&dir, s).and_then(|p| std::fs::read_to_string(&p).map(|t| (p, t)).map_err(|e| e.to_string()));
+                    let loaded = crate::files::local(&dir, s, root)
+                        .and_then(|p| crate::files::read_text_capped(&p, crate::files::MAX_TEXT_BYTES, "spec-src").map(|t| (p, t)));
                     match loaded {
                         Ok((p, t)) => {
                             let spec_dir = p.parent().unwrap_or(Path::new(".")).to_path_buf();
                             let src = Source { file: &p, text: &t, first_line: 1, chart: name };
-                            findings.extend(check_text(&src, c.theme.as_deref(), data_from(spec_dir)));
+                            findings.extend(check_text(&src, c.theme.as_deref(), data_from(spec_dir), root));
                         }
                         Err(e) => findings.push(Finding {
                             file: file.display().to_string(),
@@ -281,7 +293,7 @@ pub fn check(paths: &[PathBuf], data: Option<&Path>) -> Result<Outcome, String> 
                 }
                 _ => {
                     let src = Source { file, text: &c.spec, first_line: c.spec_line, chart: name };
-                    findings.extend(check_text(&src, c.theme.as_deref(), data_from(dir.clone())));
+                    findings.extend(check_text(&src, c.theme.as_deref(), data_from(dir.clone()), root));
                 }
             }
         }
@@ -290,8 +302,8 @@ pub fn check(paths: &[PathBuf], data: Option<&Path>) -> Result<Outcome, String> 
 }
 
 /// The `check` command: print, and choose the exit status.
-pub fn run(paths: &[PathBuf], data: Option<&Path>, strict: bool, json: bool) -> ExitCode {
-    let outcome = match check(paths, data) {
+pub fn run(paths: &[PathBuf], data: Option<&Path>, root: Option<&Path>, strict: bool, json: bool) -> ExitCode {
+    let outcome = match check(paths, data, root) {
         Ok(o) => o,
         Err(e) => {
             eprintln!("{e}");
@@ -310,8 +322,9 @@ pub fn run(paths: &[PathBuf], data: Option<&Path>, strict: bool, json: bool) -> 
         });
         println!("{}", serde_json::to_string_pretty(&doc).unwrap_or_default());
     } else {
+        // Diagnostics on standard error, the summary on standard output.
         for f in &outcome.findings {
-            println!("{}", f.text());
+            eprintln!("{}", f.text());
         }
         let plural = |n: usize, w: &str| format!("{n} {w}{}", if n == 1 { "" } else { "s" });
         println!(

@@ -3,12 +3,14 @@
 mod bake;
 mod bake_progress;
 mod check;
+mod files;
 mod locate;
 mod markdown;
 mod pages;
 mod png;
 
 use clap::{Parser, Subcommand};
+use std::io::Write;
 use std::path::{Path, PathBuf};
 use std::process::ExitCode;
 use strata::scene::SceneOptions;
@@ -40,8 +42,11 @@ enum Command {
         #[arg(long, conflicts_with = "scene")]
         table: bool,
         /// Width in pixels when the spec sets none.
-        #[arg(long, default_value_t = 640.0)]
+        #[arg(long, default_value_t = 640.0, value_parser = parse_width)]
         width: f64,
+        /// The folder `data.url` must stay inside (default: the spec's folder).
+        #[arg(long)]
+        root: Option<PathBuf>,
     },
     /// Pre-render every <strata-chart> of HTML pages in place.
     Bake {
@@ -49,11 +54,15 @@ enum Command {
         #[arg(required = true)]
         pages: Vec<PathBuf>,
         /// Width in pixels for charts whose spec sets none.
-        #[arg(long, default_value_t = 640.0)]
+        #[arg(long, default_value_t = 640.0, value_parser = parse_width)]
         width: f64,
         /// Write the baked page here instead of in place (one page only).
         #[arg(short = 'o', long)]
         output: Option<PathBuf>,
+        /// The site's root folder: charts read regular files under it only, and
+        /// `/x.csv` means this folder's `x.csv` (default: each page's folder).
+        #[arg(long)]
+        root: Option<PathBuf>,
     },
     /// Validate and lint spec files and pages (every chart in them; folders: all pages and specs under them).
     /// Exit 0 when clean, 1 on warnings with --strict, 2 on errors.
@@ -70,6 +79,9 @@ enum Command {
         /// `text` (one line a diagnostic) or `json` (one document, for CI annotations).
         #[arg(long, value_enum, default_value_t = Format::Text)]
         format: Format,
+        /// The folder `data.url` must stay inside (default: the spec's folder).
+        #[arg(long)]
+        root: Option<PathBuf>,
     },
     /// Print the JSON Schema (draft 2020-12) of the spec.
     Schema,
@@ -81,54 +93,100 @@ enum Format {
     Json,
 }
 
+/// The widest chart, in pixels, a width option may ask for.
+const MAX_WIDTH: f64 = 100_000.0;
+
+fn parse_width(s: &str) -> Result<f64, String> {
+    let w: f64 = s.trim().parse().map_err(|_| format!("`{s}` is not a number"))?;
+    if !w.is_finite() || w <= 0.0 || w > MAX_WIDTH {
+        return Err(format!("the width must be a number of pixels above 0 and at most {MAX_WIDTH}, not `{s}`"));
+    }
+    Ok(w)
+}
+
 fn main() -> ExitCode {
     let cli = Cli::parse();
-    if let Command::Check { files, data, strict, format } = &cli.command {
-        return check::run(files, data.as_deref(), *strict, *format == Format::Json);
+    if let Command::Check { files, data, strict, format, root } = &cli.command {
+        return check::run(files, data.as_deref(), root.as_deref(), *strict, *format == Format::Json);
     }
     match run(cli.command) {
         Ok(()) => ExitCode::SUCCESS,
         Err(msg) => {
-            eprintln!("{msg}");
+            err_line(&msg);
             ExitCode::FAILURE
         }
     }
 }
 
-/// Read the spec and the data it names (relative to the spec's folder).
-fn load(spec_path: &Path, data: Option<&Path>) -> Result<(String, strata::spec::Spec, Option<(Vec<u8>, String)>), String> {
-    let text = std::fs::read_to_string(spec_path).map_err(|e| format!("strata: cannot read {}: {e}", spec_path.display()))?;
+/// A line on standard error; a closed stderr is not worth a panic.
+fn err_line(msg: &str) {
+    let _ = writeln!(std::io::stderr().lock(), "{msg}");
+}
+
+/// Text on standard output. A reader that went away (`strata ... | head`)
+/// ends the output quietly, as other command-line tools do.
+fn out_text(text: &str) -> Result<(), String> {
+    let mut o = std::io::stdout().lock();
+    match o.write_all(text.as_bytes()).and_then(|_| o.flush()) {
+        Ok(()) => Ok(()),
+        Err(e) if e.kind() == std::io::ErrorKind::BrokenPipe => Ok(()),
+        Err(e) => Err(format!("strata: cannot write to standard output: {e}")),
+    }
+}
+
+/// Read the spec and the data it names (a regular file under the root,
+/// which is the spec's folder unless given).
+fn load(spec_path: &Path, data: Option<&Path>, root: Option<&Path>) -> Result<(String, strata::spec::Spec, Option<(Vec<u8>, String)>), String> {
+    let text = files::read_text_capped(spec_path, files::MAX_TEXT_BYTES, "the spec").map_err(|e| format!("strata: {e}"))?;
     let spec = strata::parse_spec(&text).map_err(|e| report(spec_path, &e))?;
-    let data_path = match data {
-        Some(p) => Some(p.to_path_buf()),
-        None => spec.data.as_ref().and_then(|d| d.object().url).map(|u| {
-            let base = spec_path.parent().unwrap_or(Path::new("."));
-            base.join(u)
-        }),
-    };
-    let bytes = match data_path {
-        Some(p) => Some((
-            std::fs::read(&p).map_err(|e| format!("strata: {}: error at data.url: cannot read {}: {e}", spec_path.display(), p.display()))?,
-            p.display().to_string(),
-        )),
-        None => None,
+    let bytes = match data {
+        // A file named on the command line is the caller's choice: read through the cap only.
+        Some(p) => Some((files::read_capped(p, files::MAX_DATA_BYTES, "data").map_err(|e| format!("strata: {e}"))?, p.display().to_string())),
+        None => match spec.data.as_ref().and_then(|d| d.object().url) {
+            Some(u) => {
+                let fail = |e: String| format!("strata: {}: error at data.url: {e}", spec_path.display());
+                let spec_dir = spec_path.parent().filter(|p| !p.as_os_str().is_empty()).unwrap_or(Path::new("."));
+                let site = files::Site::new(root.unwrap_or(spec_dir)).map_err(fail)?;
+                let base = site.segments_of(spec_dir).map_err(fail)?;
+                let p = site.resolve(&base, &u).map_err(fail)?;
+                let b = files::read_capped(&p, files::MAX_DATA_BYTES, "data").map_err(fail)?;
+                Some((b, u.to_string()))
+            }
+            None => None,
+        },
     };
     Ok((text, spec, bytes))
 }
 
+/// The most diagnostics, and characters in one, that a report prints.
+const MAX_REPORTED: usize = 50;
+const MAX_MESSAGE_CHARS: usize = 2000;
+
 fn report(spec_path: &Path, e: &Errors) -> String {
-    e.0.iter().map(|d| format!("strata: {}: {d}", spec_path.display())).collect::<Vec<_>>().join("\n")
+    let mut lines: Vec<String> = e.0.iter().take(MAX_REPORTED).map(|d| cap_chars(&format!("strata: {}: {d}", spec_path.display()))).collect();
+    if e.0.len() > MAX_REPORTED {
+        lines.push(format!("strata: {}: ... and {} more errors", spec_path.display(), e.0.len() - MAX_REPORTED));
+    }
+    lines.join("\n")
+}
+
+/// A message cut to [`MAX_MESSAGE_CHARS`] characters.
+fn cap_chars(s: &str) -> String {
+    match s.char_indices().nth(MAX_MESSAGE_CHARS) {
+        Some((i, _)) => format!("{}... ({} more characters)", &s[..i], s[i..].chars().count()),
+        None => s.to_string(),
+    }
 }
 
 fn run(cmd: Command) -> Result<(), String> {
     match cmd {
-        Command::Render { spec, data, output, scene, table, width } => {
-            let (_, parsed, bytes) = load(&spec, data.as_deref())?;
+        Command::Render { spec, data, output, scene, table, width, root } => {
+            let (_, parsed, bytes) = load(&spec, data.as_deref(), root.as_deref())?;
             let opts = RenderOptions { scene: SceneOptions { width } };
             let data = bytes.as_ref().map(|(b, n)| DataBytes { bytes: b, name: n });
             let r = strata::render_spec(&parsed, data, &opts).map_err(|e| report(&spec, &e))?;
-            for w in &r.warnings {
-                eprintln!("strata: {}: {w}", spec.display());
+            for w in r.warnings.iter().take(MAX_REPORTED) {
+                err_line(&cap_chars(&format!("strata: {}: {w}", spec.display())));
             }
             let out = if scene {
                 serde_json::to_string_pretty(&r.scene).map_err(|e| e.to_string())? + "\n"
@@ -144,12 +202,12 @@ fn run(cmd: Command) -> Result<(), String> {
                     std::fs::write(&p, bytes).map_err(|e| format!("strata: cannot write {}: {e}", p.display()))?
                 }
                 Some(p) => std::fs::write(&p, out).map_err(|e| format!("strata: cannot write {}: {e}", p.display()))?,
-                None => print!("{out}"),
+                None => out_text(&out)?,
             }
             Ok(())
         }
-        Command::Bake { pages, width, output } => {
-            let pages = pages::html_files(&pages)?;
+        Command::Bake { pages, width, output, root } => {
+            let (folders, pages) = (pages.clone(), pages::html_files(&pages)?);
             if output.is_some() && pages.len() != 1 {
                 return Err("strata: bake -o takes exactly one page".into());
             }
@@ -157,10 +215,14 @@ fn run(cmd: Command) -> Result<(), String> {
             let (mut failures, mut baked) = (Vec::new(), 0);
             for page in &pages {
                 progress.step(page);
-                let html = std::fs::read_to_string(page).map_err(|e| format!("strata: cannot read {}: {e}", page.display()))?;
+                let html = files::read_text_capped(page, files::MAX_TEXT_BYTES, "the page").map_err(|e| format!("strata: {e}"))?;
+                let page_dir = page.parent().filter(|p| !p.as_os_str().is_empty()).unwrap_or(Path::new("."));
+                // The root: --root, else the folder given that holds the page, else the page's folder.
+                let root = root.clone().or_else(|| pages::folder_root(&folders, page));
+                let site = files::Site::new(root.as_deref().unwrap_or(page_dir)).map_err(|e| format!("strata: {}: {e}", page.display()))?;
                 // Markdown `strata` blocks become elements, then every element is drawn.
-                let md = markdown::convert(page, &html).map_err(|e| format!("strata: {}: {e}", page.display()))?;
-                let (out, report) = bake::bake_html(page, &md.html, width).map_err(|e| format!("strata: {}: {e}", page.display()))?;
+                let md = markdown::convert(page, &html, root.as_deref()).map_err(|e| format!("strata: {}: {e}", page.display()))?;
+                let (out, report) = bake::bake_html(page, &md.html, width, &site).map_err(|e| format!("strata: {}: {e}", page.display()))?;
                 let dest = output.clone().unwrap_or_else(|| page.clone());
                 if out != html || output.is_some() {
                     std::fs::write(&dest, out).map_err(|e| format!("strata: cannot write {}: {e}", dest.display()))?;
@@ -176,13 +238,10 @@ fn run(cmd: Command) -> Result<(), String> {
             if failures.is_empty() {
                 Ok(())
             } else {
-                Err(failures.join("\n"))
+                Err(failures.iter().map(|f| cap_chars(f)).collect::<Vec<_>>().join("\n"))
             }
         }
         Command::Check { .. } => unreachable!("handled in main"),
-        Command::Schema => {
-            println!("{}", strata::spec::schema_text());
-            Ok(())
-        }
+        Command::Schema => out_text(&format!("{}\n", strata::spec::schema_text())),
     }
 }

@@ -26,7 +26,7 @@ pub fn element(spec: &str) -> String {
 }
 
 /// Turn every `strata` block of a page into a `<strata-chart>`.
-pub fn convert(page: &Path, html: &str) -> Result<Converted, String> {
+pub fn convert(page: &Path, html: &str, root: Option<&Path>) -> Result<Converted, String> {
     let found = pages::charts(html)?;
     let dir = page.parent().unwrap_or(Path::new(".")).to_path_buf();
     let mut out = String::with_capacity(html.len());
@@ -36,7 +36,7 @@ pub fn convert(page: &Path, html: &str) -> Result<Converted, String> {
         let (Kind::Block, Some(range)) = (c.kind, &c.range) else { continue };
         let src = Source { file: page, text: &c.spec, first_line: c.spec_line, chart: Some(c.name(i)) };
         let errors: Vec<String> =
-            check_text(&src, None, DataFrom::SpecUrl(dir.clone())).iter().filter(|f| f.severity == Severity::Error).map(|f| f.text()).collect();
+            check_text(&src, None, DataFrom::SpecUrl(dir.clone()), root).iter().filter(|f| f.severity == Severity::Error).map(|f| f.text()).collect();
         if !errors.is_empty() {
             failures.extend(errors);
             continue;
@@ -60,7 +60,7 @@ mod tests {
         std::fs::write(dir.join("d.csv"), "k,v\na,1\nb,2\n").unwrap();
         let page = dir.join("p.html");
         let html = "<p>a</p>\n<pre><code class=\"language-strata\">{&quot;data&quot;: &quot;d.csv&quot;, &quot;title&quot;: &quot;a &lt;b&gt;&quot;,\n &quot;layers&quot;: [{&quot;draw&quot;: &quot;bar&quot;, &quot;x&quot;: &quot;k&quot;, &quot;y&quot;: &quot;v&quot;}]}\n</code></pre>\n<pre><code class=\"language-strata\">{&quot;data&quot;: &quot;d.csv&quot;,\n &quot;layers&quot;: [{&quot;draw&quot;: &quot;bar&quot;,\n  &quot;x&quot;: &quot;nope&quot;}]}</code></pre>\n<pre><code>{}</code></pre>\n";
-        let c = convert(&page, html).unwrap();
+        let c = convert(&page, html, None).unwrap();
         assert!(c.html.starts_with(
             "<p>a</p>\n<strata-chart><script type=\"application/json\">{\"data\": \"d.csv\", \"title\": \"a \\u003cb>\",\n \"layers\": [{\"draw\": \"bar\", \"x\": \"k\", \"y\": \"v\"}]}</script></strata-chart>\n<pre><code class=\"language-strata\">"
         ), "{}", c.html);
@@ -69,7 +69,7 @@ mod tests {
         let f = &c.failures[0];
         assert!(f.contains(&format!("{}:7: chart 2 (line 5): error at layers[0].x", page.display())), "{f}");
         // Converting the result again changes nothing more than the failing block would.
-        let again = convert(&page, &c.html).unwrap();
+        let again = convert(&page, &c.html, None).unwrap();
         assert_eq!(again.html, c.html);
     }
 }

@@ -41,6 +41,12 @@ fn check(args: &[&str], files: &[&Path]) -> (i32, String) {
     (out.status.code().unwrap(), String::from_utf8(out.stdout).unwrap())
 }
 
+/// Text mode: diagnostics on standard error, the summary on standard output.
+fn check_text(args: &[&str], files: &[&Path]) -> (String, String) {
+    let out = Command::new(env!("CARGO_BIN_EXE_strata")).arg("check").args(args).args(files).output().unwrap();
+    (String::from_utf8(out.stderr).unwrap(), String::from_utf8(out.stdout).unwrap())
+}
+
 fn json(files: &[&Path]) -> serde_json::Value {
     let (_, out) = check(&["--format", "json"], files);
     serde_json::from_str(&out).unwrap()
@@ -61,9 +67,9 @@ fn exit_codes_clean_warning_error() {
     assert_eq!(check(&["--strict"], &[&clean, &warning, &error]).0, 2);
     // A missing file is an error too.
     assert_eq!(check(&[], &[&d.join("nope.json")]).0, 2);
-    let (_, text) = check(&[], &[&clean, &warning, &error]);
-    assert!(text.contains("warning at scales.y.kind"), "{text}");
-    assert!(text.ends_with("checked 3 charts in 3 files: 1 error, 1 warning\n"), "{text}");
+    let (diagnostics, summary) = check_text(&[], &[&clean, &warning, &error]);
+    assert!(diagnostics.contains("warning at scales.y.kind"), "{diagnostics}");
+    assert!(summary.ends_with("checked 3 charts in 3 files: 1 error, 1 warning\n"), "{summary}");
 }
 
 #[test]

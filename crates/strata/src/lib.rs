@@ -20,6 +20,7 @@
 //! (numerics), [`scale`] (mapping and ticks), [`format`](mod@format) (labels), [`color`], [`text`]
 //! (measurement), [`math`].
 
+pub mod budget;
 pub mod calendar;
 pub mod channel;
 pub mod color;
@@ -28,6 +29,7 @@ pub mod datatable;
 pub mod error;
 pub mod expr;
 pub mod format;
+pub mod guard;
 pub mod lint;
 pub mod math;
 pub mod plan;
@@ -100,22 +102,45 @@ pub fn load_table(spec: &Spec, data: Option<DataBytes>) -> Result<data::Table, E
         .into())
 }
 
-/// The whole pipeline for a parsed spec.
+/// The whole pipeline for a parsed spec; error messages are capped in length.
 pub fn render_spec(spec: &Spec, data: Option<DataBytes>, opts: &RenderOptions) -> Result<Rendered, Errors> {
-    render_table(spec, load_table(spec, data)?, opts)
+    let has_bytes = data.is_some();
+    check_width(opts).and_then(|()| load_table(spec, data)).and_then(|table| render_stages(spec, table, has_bytes, opts)).map_err(budget::cap_messages)
 }
 
 /// The pipeline from stage 2b on, for a table already read.
 pub fn render_table(spec: &Spec, table: data::Table, opts: &RenderOptions) -> Result<Rendered, Errors> {
-    let table = expr::apply(table, &spec.derive, spec.where_.as_deref())?;
+    check_width(opts).and_then(|()| render_stages(spec, table, true, opts)).map_err(budget::cap_messages)
+}
+
+fn check_width(opts: &RenderOptions) -> Result<(), Errors> {
+    let w = opts.scene.width;
+    if !(w.is_finite() && w > 0.0 && w <= guard::MAX_CHART_PIXELS) {
+        return Err(Diagnostic::error(
+            "spec.too_large",
+            format!("the width the page asks for, {w} pixels, is not a size above 0 and at most {}", guard::MAX_CHART_PIXELS),
+        )
+        .at_path("size.width")
+        .into());
+    }
+    Ok(())
+}
+
+fn render_stages(spec: &Spec, table: data::Table, has_bytes: bool, opts: &RenderOptions) -> Result<Rendered, Errors> {
+    // Budgets at each stage boundary (budget.rs): the table after reading
+    // and after each derive, marks and categories after planning, the SVG.
+    let table = budget::apply_derives(table, spec)?;
     let plan = plan::build(spec, &table)?;
+    budget::check_plan(&plan)?;
     let scene = scene::build(&plan, &opts.scene);
     let svg = svg::write(&scene);
+    budget::check_output(&svg)?;
     let html_table = datatable::write(spec, &plan);
     let mut warnings = table.warnings;
     warnings.extend(lint::check(spec, Some(&plan)));
     warnings.extend(plan.warnings);
     warnings.extend(no_effect(spec));
+    warnings.extend(unused_checksum(spec, has_bytes));
     Ok(Rendered { svg, table: html_table, scene, warnings })
 }
 
@@ -152,10 +177,13 @@ pub fn spec_from_value(value: &serde_json::Value) -> Result<Spec, Errors> {
     spec::spec_from_value_with(value, &expression_errors)
 }
 
-/// Expression syntax, so that `strata check` finds it without data. (Here,
-/// so the spec stage does not depend on the expression stage.)
+/// Checks on the spec's JSON that need later modules: the bounds of
+/// [`guard`] (colours, sizes, patterns, counts) and the expression syntax,
+/// so that `strata check` finds them without data. (Here, so the spec stage
+/// depends on neither.)
 fn expression_errors(value: &serde_json::Value) -> Vec<Diagnostic> {
     let mut errors = Vec::new();
+    guard::check_spec_value(value, &mut errors);
     if let Some(derive) = value.get("derive").and_then(serde_json::Value::as_object) {
         for (name, text) in derive {
             if let Some(text) = text.as_str() {
@@ -177,13 +205,25 @@ fn expression_errors(value: &serde_json::Value) -> Vec<Diagnostic> {
 /// decoded into the column interchange (`data::interchange`): the spec's
 /// `data.types` and `data.sha256` apply as they do to the Arrow bytes.
 pub fn render_columns(spec_text: &str, columns: &[u8], opts: &RenderOptions) -> Result<Rendered, Errors> {
-    let spec = parse_spec(spec_text)?;
+    let spec = parse_spec(spec_text.strip_prefix('\u{feff}').unwrap_or(spec_text)).map_err(budget::cap_messages)?;
     let table = data::interchange::read(columns, &read_options(&spec, Some(spec::DataFormat::Arrow), None))?;
     render_table(&spec, table, opts)
 }
 
-/// The whole pipeline from spec text.
+/// `data.sha256` checks the bytes of a file; beside inline `rows` (and no
+/// file) it checks nothing, which the author should hear.
+fn unused_checksum(spec: &Spec, has_bytes: bool) -> Option<Diagnostic> {
+    let obj = spec.data.as_ref()?.object();
+    (obj.sha256.is_some() && obj.rows.is_some() && !has_bytes).then(|| {
+        Diagnostic::warning("spec.no_effect", "`sha256` checks the bytes of a data file; with inline `rows` nothing is checked")
+            .at_path("data.sha256")
+            .with_hint("remove `sha256`, or move the rows to a file named by `data.url`")
+    })
+}
+
+/// The whole pipeline from spec text (a leading byte order mark is skipped).
 pub fn render(spec_text: &str, data: Option<DataBytes>, opts: &RenderOptions) -> Result<Rendered, Errors> {
-    let spec = parse_spec(spec_text)?;
+    let spec_text = spec_text.strip_prefix('\u{feff}').unwrap_or(spec_text);
+    let spec = parse_spec(spec_text).map_err(budget::cap_messages)?;
     render_spec(&spec, data, opts)
 }

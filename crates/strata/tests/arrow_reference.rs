@@ -84,8 +84,10 @@ fn empty_stream_keeps_columns() {
 
 #[test]
 fn compressed_ipc_is_a_clean_error() {
+    // Issue 16: reported as compression, not as damage.
     let e = data::read(&fixture("compressed_lz4.arrow"), &ReadOptions::default()).unwrap_err();
-    assert_eq!(e.0[0].code, "data.arrow_invalid");
+    assert_eq!(e.0[0].code, "data.arrow_compressed");
+    assert!(e.0[0].message.contains("compression is not supported") && e.0[0].message.contains("LZ4"), "{}", e.0[0].message);
 }
 
 #[test]

@@ -372,3 +372,72 @@ fn rendering_never_panics() {
     }
     assert!(ok > 0 && err > 0, "ok {ok}, err {err}");
 }
+
+/// Whole specs with expressions (issue 16): random `derive` and `where`
+/// over the awkward table, well-typed, grammatical, mutated, and operator
+/// chains of random length on both sides of the depth bound, drawn by a
+/// layer that uses the derived columns; through the whole pipeline. A render
+/// either draws well-formed SVG or fails with located errors.
+#[test]
+fn whole_specs_with_expressions_never_panic() {
+    let mut r = Rng(0x5ec_0e55);
+    let (mut drew, mut refused) = (0, 0);
+    for n in 0..cases() / 3 {
+        let mut derive = serde_json::Map::new();
+        for k in 0..1 + r.below(3) {
+            let text = match r.below(5) {
+                0 => {
+                    let kind = ['n', 'b', 't'][r.below(3)];
+                    typed(&mut r, kind, 0)
+                }
+                1 => grammar(&mut r, 1),
+                2 => {
+                    // A flat chain: 1 to 400 operators (the bound is 128 levels).
+                    let op = r.pick(&["+", "-", "*", "/", "||", "AND", "OR", "=", "<"]);
+                    let len = 1 + r.below(400);
+                    let leaf = r.pick(&["i", "x", "s", "b", "1", "'a'", "c0"]);
+                    vec![leaf; len + 1].join(&format!(" {op} "))
+                }
+                3 => format!("{}{}{}", "(".repeat(r.below(80)), typed(&mut r, 'n', 2), ")".repeat(r.below(80))),
+                _ => (0..1 + r.below(12)).map(|_| r.pick(TOKENS)).collect::<Vec<_>>().join(" "),
+            };
+            derive.insert(format!("c{k}"), Value::String(text));
+        }
+        let where_ = match r.below(3) {
+            0 => Some(typed(&mut r, 'b', 1)),
+            1 => Some(format!("i IS NULL{}", " OR x > 0".repeat(r.below(200)))),
+            _ => None,
+        };
+        let y = r.pick(&["c0", "x", "i"]);
+        let layer = match r.below(4) {
+            0 => serde_json::json!({"draw": "point", "x": "i", "y": y, "color": "c0"}),
+            1 => serde_json::json!({"draw": "bar", "x": "c0", "y": "x"}),
+            2 => serde_json::json!({"draw": "line", "x": "d", "y": y, "tip": ["c0", "s"]}),
+            _ => serde_json::json!({"draw": "label", "x": "i", "y": "x", "text": "c0"}),
+        };
+        let mut spec = serde_json::json!({"derive": derive, "layers": [layer]});
+        if let Some(w) = where_ {
+            spec["where"] = Value::String(w);
+        }
+        if r.below(4) == 0 {
+            let base = [2.0, 1e6, 1e50, 0.5, 1.01][r.below(5)];
+            spec["scales"] = serde_json::json!({"x": {"kind": "log", "base": base}});
+        }
+        let text = spec.to_string();
+        match strata::render(&text, Some(strata::DataBytes { bytes: TABLE.as_bytes(), name: "t.csv" }), &Default::default()) {
+            Ok(out) => {
+                assert!(out.svg.starts_with("<svg"), "case {n}: {text}");
+                assert!(!out.svg.chars().any(|c| (c as u32) < 0x20 && !matches!(c, '\t' | '\n' | '\r')), "case {n}");
+                drew += 1;
+            }
+            Err(e) => {
+                for d in &e.0 {
+                    assert!(!d.at.path.is_empty() || d.at.line.is_some(), "case {n}: unlocated {d}: {text}");
+                    assert!(d.to_string().len() < 10_000, "case {n}: a long message");
+                }
+                refused += 1;
+            }
+        }
+    }
+    assert!(drew > 0 && refused > 0, "drew {drew}, refused {refused}");
+}

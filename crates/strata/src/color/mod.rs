@@ -13,6 +13,8 @@
 
 use crate::math;
 
+pub mod css;
+
 // ---------------------------------------------------------------- conversions
 
 /// IEC 61966-2-1 sRGB decoding: encoded 0..1 to linear light.

@@ -180,6 +180,14 @@ fn check_message(meta: &[u8], body_len: usize, schema: &Schema) -> Result<(), Er
     } else {
         return Ok(());
     };
+    if let Some(c) = rb.compression() {
+        // Compressed bodies are well-formed Arrow, just not readable here:
+        // say so rather than call the file damaged.
+        let codec = if c.codec() == arrow_ipc::CompressionType::ZSTD { "zstd" } else { "LZ4" };
+        return Err(Diagnostic::error("data.arrow_compressed", format!("the Arrow IPC data is compressed ({codec}); compression is not supported"))
+            .with_hint("write the file without compression (pyarrow: IpcWriteOptions(compression=None); arrow-rs: IpcWriteOptions::try_with_compression(None))")
+            .into());
+    }
     if rb.length() < 0 {
         return Err(invalid("a record batch has a negative length"));
     }

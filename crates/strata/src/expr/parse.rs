@@ -17,6 +17,9 @@ impl Span {
     }
 }
 
+/// How many characters of the expression an error message shows.
+pub const SHOWN: usize = 120;
+
 /// A problem in an expression, at a character range.
 #[derive(Debug, Clone, PartialEq)]
 pub struct ExprError {
@@ -35,12 +38,30 @@ impl ExprError {
     }
     /// The message with the expression underneath and a caret line under
     /// the offending characters, and the 1-based character position.
+    ///
+    /// A long expression is shown as a window of at most [`SHOWN`]
+    /// characters around the error, so the message stays short however long
+    /// the text is.
     pub fn render(&self, text: &str) -> String {
         let n = text.chars().count();
         let start = self.span.start.min(n);
-        let width = self.span.end.saturating_sub(self.span.start).max(1);
-        let one_line: String = text.chars().map(|c| if c == '\n' || c == '\r' || c == '\t' { ' ' } else { c }).collect();
-        format!("{} (character {})\n    {}\n    {}{}", self.message, start + 1, one_line, " ".repeat(start), "^".repeat(width))
+        let (from, to) = if n <= SHOWN {
+            (0, n)
+        } else {
+            let from = start.saturating_sub(SHOWN / 2).min(n - SHOWN);
+            (from, from + SHOWN)
+        };
+        let width = self.span.end.saturating_sub(self.span.start).max(1).min(to.saturating_sub(start).max(1));
+        let mut one_line: String = text.chars().skip(from).take(to - from).map(|c| if c == '\n' || c == '\r' || c == '\t' { ' ' } else { c }).collect();
+        let mut lead = start - from;
+        if from > 0 {
+            one_line.insert_str(0, "...");
+            lead += 3;
+        }
+        if to < n {
+            one_line.push_str("...");
+        }
+        format!("{} (character {})\n    {}\n    {}{}", self.message, start + 1, one_line, " ".repeat(lead), "^".repeat(width))
     }
 }
 
@@ -268,9 +289,25 @@ struct Parser {
 /// Nesting limit: deeper expressions are refused instead of overflowing the stack.
 const MAX_DEPTH: usize = 64;
 
+/// Bound on the depth of the whole syntax tree, however it was built: a
+/// flat chain `a + a + ... + a` parses without nesting but gives a left-deep
+/// tree one level per operator, and evaluation recurses once per level.
+/// Measured: a level of evaluation takes about 0.5 KB of a release build's
+/// stack (wasm or native) and 10 KB of a debug build's; 128 levels stay inside
+/// a 1 MB WebAssembly stack and a 2 MB native thread, debug build included
+/// (`long_chains_are_refused_not_overflowed`, below; 200 overflowed there).
+pub const MAX_TREE_DEPTH: usize = 128;
+
+/// Bound on the number of tokens (and so of tree nodes) in one expression.
+pub const MAX_TOKENS: usize = 8192;
+
 /// Parse an expression.
 pub fn parse(text: &str) -> Result<Expr, ExprError> {
     let toks = lex(text)?;
+    if toks.len() > MAX_TOKENS + 1 {
+        return Err(ExprError::new(format!("the expression has more than {MAX_TOKENS} words, numbers and operators"), toks[MAX_TOKENS].1)
+            .hint("split it into several `derive` steps"));
+    }
     let mut p = Parser { toks, pos: 0, depth: 0 };
     if p.peek() == &Tok::End {
         return Err(ExprError::new("the expression is empty", Span { start: 0, end: 0 }));
@@ -285,7 +322,43 @@ pub fn parse(text: &str) -> Result<Expr, ExprError> {
         };
         return Err(ExprError::new(format!("unexpected {t}"), s).hint(hint));
     }
+    check_depth(&e)?;
     Ok(e)
+}
+
+/// The children of a node, for walks that must not recurse.
+pub fn children(e: &Expr) -> Vec<&Expr> {
+    match e {
+        Expr::Lit(..) | Expr::Column(..) => Vec::new(),
+        Expr::Neg(a, _) | Expr::Not(a, _) => vec![a],
+        Expr::Binary(_, a, b, _) => vec![a, b],
+        Expr::IsNull { expr, .. } => vec![expr],
+        Expr::In { expr, list, .. } => std::iter::once(&**expr).chain(list.iter()).collect(),
+        Expr::Between { expr, low, high, .. } => vec![expr, low, high],
+        Expr::Case { operand, whens, otherwise, .. } => {
+            operand.iter().map(|b| &**b).chain(whens.iter().flat_map(|(w, t)| [w, t])).chain(otherwise.iter().map(|b| &**b)).collect()
+        }
+        Expr::Call { args, .. } => args.iter().collect(),
+    }
+}
+
+/// Refuse a tree deeper than [`MAX_TREE_DEPTH`], pointing at the operator
+/// where it gets too deep. The walk keeps its own stack.
+fn check_depth(root: &Expr) -> Result<(), ExprError> {
+    let mut stack = vec![(root, 1usize)];
+    while let Some((e, d)) = stack.pop() {
+        if d > MAX_TREE_DEPTH {
+            // For a chain, the operator after the left-hand side.
+            let at = match e {
+                Expr::Binary(_, l, r, _) => Span { start: l.span().end, end: r.span().start.max(l.span().end + 1) },
+                _ => e.span(),
+            };
+            return Err(ExprError::new(format!("the expression is more than {MAX_TREE_DEPTH} operations deep"), at)
+                .hint("a long chain of operators nests one level per operator: split it into several `derive` steps"));
+        }
+        stack.extend(children(e).into_iter().map(|c| (c, d + 1)));
+    }
+    Ok(())
 }
 
 impl Parser {
@@ -651,11 +724,66 @@ mod tests {
 
     #[test]
     fn deep_nesting_is_refused_not_overflowed() {
-        let s = "(".repeat(5000) + "1" + &")".repeat(5000);
+        let s = "(".repeat(3000) + "1" + &")".repeat(3000);
         assert!(parse(&s).unwrap_err().message.contains("nests deeper"));
         let s = "NOT ".repeat(5000) + "TRUE";
         assert!(parse(&s).is_err());
         let s = "-".repeat(5000) + "1";
         assert!(parse(&s).is_err());
+    }
+
+    /// A render in a thread with a small stack, as a page's engine or a
+    /// worker thread would have.
+    fn render_small_stack(expr: String) -> Result<usize, String> {
+        std::thread::Builder::new()
+            .stack_size(2 << 20)
+            .spawn(move || {
+                let spec = serde_json::json!({
+                    "data": {"rows": [{"a": 1}, {"a": 2}]},
+                    "derive": {"b": expr},
+                    "layers": [{"draw": "point", "x": "a", "y": "b"}]
+                });
+                crate::render(&spec.to_string(), None, &Default::default()).map(|r| r.svg.len()).map_err(|e| e.to_string())
+            })
+            .unwrap()
+            .join()
+            .unwrap()
+    }
+
+    #[test]
+    fn long_chains_are_refused_not_overflowed() {
+        // 20,000 terms once aborted the process (issue 16): refused with a place.
+        for op in ["+", "*", "||", "AND", "OR", "=", "<"] {
+            let chain = vec!["a"; 20_000].join(&format!(" {op} "));
+            let e = render_small_stack(chain).unwrap_err();
+            assert!(e.contains("derive.b") && e.contains("(character "), "{op}: {e}");
+            assert!(e.len() < 1000, "the message stays short: {} bytes", e.len());
+        }
+        // Within the bound, the deepest chains render in a 2 MB thread.
+        let ok = vec!["a"; MAX_TREE_DEPTH].join(" + ");
+        assert!(render_small_stack(ok).is_ok());
+        let over = vec!["a"; MAX_TREE_DEPTH + 1].join(" + ");
+        let e = parse(&over).unwrap_err();
+        assert!(e.message.contains("operations deep"), "{e:?}");
+        // Deep trees of other shapes: nested function calls and CASE inside chains.
+        let nested = "abs(".repeat(60) + "a" + &")".repeat(60);
+        assert!(render_small_stack(nested).is_ok());
+        let mixed = (0..300).map(|i| format!("CASE WHEN a > {i} THEN a ELSE 0 END")).collect::<Vec<_>>().join(" + ");
+        assert!(parse(&mixed).is_err());
+        // Too many tokens, even in a flat IN list.
+        let wide = format!("a IN ({})", vec!["1"; MAX_TOKENS].join(", "));
+        assert!(parse(&wide).unwrap_err().message.contains("more than"));
+    }
+
+    #[test]
+    fn long_expressions_are_shown_as_a_window() {
+        let text = "1 + ".repeat(100) + "'open";
+        let e = parse(&text).unwrap_err();
+        let r = e.render(&text);
+        assert!(r.lines().nth(1).unwrap().chars().count() <= SHOWN + 10, "{r}");
+        let caret = r.lines().nth(2).unwrap();
+        let line = r.lines().nth(1).unwrap();
+        // The caret stays under the offending quote.
+        assert_eq!(line.chars().nth(caret.find('^').unwrap()), Some('\''), "{r}");
     }
 }

@@ -15,6 +15,9 @@ mod locales;
 
 use crate::calendar::civil_from_days;
 
+/// The widest field of a pattern: a run of one letter (`yyyy`), or digits (`0`, `#`).
+pub const MAX_FIELD_WIDTH: usize = 32;
+
 /// CLDR data for one locale (see `locales.rs`, generated from babel).
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub struct Locale {
@@ -297,9 +300,12 @@ impl NumberPattern {
             Some((i, f)) => (i, f),
             None => (num.as_str(), ""),
         };
-        let min_int = int.chars().filter(|c| c.is_ascii_digit()).count();
-        let min_frac = frac.chars().filter(|c| c.is_ascii_digit()).count();
-        let max_frac = frac.chars().filter(|c| c.is_ascii_digit() || *c == '#').count();
+        // Field widths capped at the spec's bound (`MAX_FIELD_WIDTH`, which the spec's guard also checks): a
+        // width past 65,535 makes `format!` panic.
+        let cap = MAX_FIELD_WIDTH;
+        let min_int = int.chars().filter(|c| c.is_ascii_digit()).count().min(cap);
+        let min_frac = frac.chars().filter(|c| c.is_ascii_digit()).count().min(cap);
+        let max_frac = frac.chars().filter(|c| c.is_ascii_digit() || *c == '#').count().min(cap);
         let group = {
             let commas: Vec<usize> = int.char_indices().filter(|(_, c)| *c == ',').map(|(i, _)| i).collect();
             match commas.last() {
@@ -551,7 +557,10 @@ pub fn civil(ms: f64) -> Civil {
     }
 }
 
+/// Zero-padded to `width` digits; the width is capped at the spec's field
+/// bound (`MAX_FIELD_WIDTH`, which the spec's guard also checks), since `format!` panics past 65,535.
 fn pad(n: i64, width: usize) -> String {
+    let width = width.min(MAX_FIELD_WIDTH);
     if n < 0 {
         format!("-{:0width$}", -n, width = width)
     } else {
@@ -728,5 +737,14 @@ mod tests {
         assert_eq!(locale("de-AT").code, "de");
         assert_eq!(locale("xx").code, "en");
         assert!(is_known_locale("fr_CA") && !is_known_locale("nl"));
+    }
+
+    #[test]
+    fn huge_fields_do_not_panic() {
+        // Issue 16: 65,536 `y` letters panicked in `format!`; widths are capped.
+        let s = date(0.0, &"y".repeat(65_536), english());
+        assert_eq!(s, format!("{:032}", 1970));
+        let n = number(1.5, &format!("{}.{}", "0".repeat(70_000), "0".repeat(70_000)), english());
+        assert!(n.len() < 100, "{}", n.len());
     }
 }

@@ -358,8 +358,8 @@ fn train_position(channels: &[Channel], axis: &str, s: &ScaleSpec, layers: &[Pla
     let transform = match s.kind {
         Some(ScaleKind::Log) => {
             let base = s.base.unwrap_or(10.0);
-            if !(base > 0.0 && base != 1.0 && base.is_finite()) {
-                return Err(Diagnostic::error("spec.bad_base", "a log scale's base must be a positive number other than 1")
+            if !crate::scale::log_base_ok(base) {
+                return Err(Diagnostic::error("spec.bad_base", "a log scale's base must be a number from 1.01 to 1,000,000 (such as 10, 2 or 2.718)")
                     .at_path(format!("scales.{axis}.base"))
                     .into());
             }

@@ -10,6 +10,20 @@ use crate::format::{self, Locale};
 use crate::math;
 use ticks::TimeUnit;
 
+/// The most ticks any scale generates, however many the spec asks for.
+pub const MAX_TICKS: usize = 200;
+
+/// The bases a log scale accepts: below 1.01 the powers of the base crowd
+/// into hundreds of thousands per decade; above a million one power spans
+/// six decades and an axis shows a single tick.
+pub const MIN_LOG_BASE: f64 = 1.01;
+pub const MAX_LOG_BASE: f64 = 1e6;
+
+/// Whether `base` is a log base Strata accepts.
+pub fn log_base_ok(base: f64) -> bool {
+    (MIN_LOG_BASE..=MAX_LOG_BASE).contains(&base)
+}
+
 /// How a continuous scale bends the data before mapping it linearly.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub enum Transform {
@@ -158,6 +172,7 @@ impl PositionScale {
     /// covers the data, for linear, sqrt and symlog scales; powers of the base for log scales;
     /// calendar boundaries for time. Reversed domains stay reversed.
     pub fn nice(&self, wanted: usize) -> PositionScale {
+        let wanted = wanted.min(MAX_TICKS);
         let PositionScale::Continuous { lo, hi, transform, time, .. } = self else { return self.clone() };
         let rev = lo > hi;
         let (a, b) = if rev { (*hi, *lo) } else { (*lo, *hi) };
@@ -197,8 +212,18 @@ impl PositionScale {
         self.ticks_with(&TickOptions { wanted, pattern, locale: format::english(), short: false })
     }
 
-    /// Tick values (no labels) and the step they were chosen with.
+    /// Tick values (no labels) and the step they were chosen with; never
+    /// more than [`MAX_TICKS`] (every k-th when a method gives more).
     fn tick_values(&self, wanted: usize) -> (Vec<f64>, TickStep) {
+        let (t, step) = self.tick_values_unbounded(wanted.min(MAX_TICKS));
+        if t.len() <= MAX_TICKS {
+            return (t, step);
+        }
+        let k = t.len().div_ceil(MAX_TICKS);
+        (t.into_iter().step_by(k).collect(), TickStep::Varied)
+    }
+
+    fn tick_values_unbounded(&self, wanted: usize) -> (Vec<f64>, TickStep) {
         let PositionScale::Continuous { lo, hi, transform, time, step: fixed } = self else { return (vec![], TickStep::None) };
         let (a, b) = if lo <= hi { (*lo, *hi) } else { (*hi, *lo) };
         if *time {
@@ -542,5 +567,35 @@ mod tests {
         assert_eq!(s.legend_values(), vec![25.0, 50.0, 100.0]);
         let s = SizeScale { lo: 0.0, hi: 99.2, max_radius: 10.0 };
         assert_eq!(s.legend_values(), vec![25.0, 50.0, 75.0]);
+    }
+
+    #[test]
+    fn log_bases_and_tick_counts_are_bounded() {
+        // Issue 16: a base of 1e6 ran 97 s, 1e10 asked for 80 GB, 1e50 panicked.
+        for (base, ok) in [(1e50, false), (1e10, false), (f64::INFINITY, false), (0.5, false), (1.001, false), (1e6, true), (2.0, true), (1.5, true)] {
+            let spec = format!(
+                r#"{{"data":{{"rows":[{{"a":1,"b":3}},{{"a":1e30,"b":5}}]}},"scales":{{"x":{{"kind":"log","base":{base}}}}},"layers":[{{"draw":"point","x":"a","y":"b"}}]}}"#,
+                base = if base.is_finite() { format!("{base:e}") } else { "1e999".into() }
+            );
+            let r = crate::render(&spec, None, &Default::default());
+            match r {
+                Ok(_) => assert!(ok, "{base} accepted"),
+                Err(e) => {
+                    assert!(!ok, "{base}: {e}");
+                    assert!(e.0.iter().any(|d| d.code == "spec.bad_base" && d.at.path == "scales.x.base") || base.is_infinite(), "{base}: {e:?}");
+                }
+            }
+        }
+        // Ticks of a million-base log scale over 1e-300..1e300: a few, at once.
+        let t = ticks::log_ticks(1e-300, 1e300, 1e6, 5);
+        assert!(!t.is_empty() && t.len() <= 10, "{}", t.len());
+        // However many ticks a spec wants, a scale gives at most MAX_TICKS.
+        for transform in [Transform::Linear, Transform::Log { base: 1.01 }, Transform::Sqrt, Transform::Symlog { constant: 1.0 }] {
+            let s = PositionScale::Continuous { lo: 1e-3, hi: 1e12, transform, time: false, step: None };
+            let n = s.nice(u32::MAX as usize).ticks(u32::MAX as usize, None).len();
+            assert!(n <= MAX_TICKS, "{transform:?}: {n}");
+        }
+        let s = PositionScale::Continuous { lo: 0.0, hi: 3e12, transform: Transform::Linear, time: true, step: None };
+        assert!(s.ticks(u32::MAX as usize, None).len() <= MAX_TICKS);
     }
 }

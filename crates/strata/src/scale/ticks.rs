@@ -208,7 +208,7 @@ pub fn extended(dmin: f64, dmax: f64, m: usize, only_loose: bool) -> Vec<f64> {
 /// integer multiples (other bases) in between; when many, every k-th power.
 pub fn log_ticks(lo: f64, hi: f64, base: f64, wanted: usize) -> Vec<f64> {
     let (lo, hi) = if lo <= hi { (lo, hi) } else { (hi, lo) };
-    if !(lo > 0.0 && hi.is_finite() && base > 1.0) {
+    if !(lo > 0.0 && hi.is_finite() && base > 1.0 && base.is_finite()) {
         return vec![];
     }
     let lb = math::ln(base);
@@ -221,7 +221,9 @@ pub fn log_ticks(lo: f64, hi: f64, base: f64, wanted: usize) -> Vec<f64> {
         let k = powers.len().div_ceil(wanted).max(1);
         return powers.into_iter().enumerate().filter(|(i, _)| i % k == 0).map(|(_, v)| v).collect();
     }
-    let mults: Vec<f64> = if base == 10.0 { vec![1.0, 2.0, 5.0] } else { (1..base.ceil() as i64).map(|m| m as f64).collect() };
+    // Multiples of each power: at most 19 of them, whatever the base (a
+    // base of a million once asked for a million multiples a power).
+    let mults: Vec<f64> = if base == 10.0 { vec![1.0, 2.0, 5.0] } else { (1..base.min(20.0).ceil() as i64).map(|m| m as f64).collect() };
     let mut out = Vec::new();
     for e in e0..=e1 {
         let p = math::powi(base, e);

@@ -72,6 +72,8 @@ pub fn escape(s: &str) -> String {
             '\'' => out.push_str("&#39;"),
             // Control characters other than tab and newline are not allowed in XML 1.0.
             c if (c as u32) < 0x20 && c != '\t' && c != '\n' => out.push(' '),
+            // Nor are U+FFFE and U+FFFF (XML 1.0 §2.2, Char): the replacement character stands in.
+            '\u{fffe}' | '\u{ffff}' => out.push('\u{fffd}'),
             c => out.push(c),
         }
     }
