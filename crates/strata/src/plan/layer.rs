@@ -23,10 +23,10 @@ pub fn extract(index: usize, layer: &Layer, table: &Table) -> Result<LayerData, 
         out.channels.insert(ch, values);
         out.names.insert(ch, channel.column.clone());
     }
-    for (j, col) in layer.tip.iter().enumerate() {
+    for (j, col) in layer.tooltip.iter().enumerate() {
         match names.iter().position(|n| n == col) {
-            Some(pos) => out.tips.push((col.clone(), to_values(table.batch.column(pos), None))),
-            None => errors.push(unknown_column(col, &names, format!("layers[{index}].tip[{j}]"))),
+            Some(pos) => out.tooltips.push((col.clone(), to_values(table.batch.column(pos), None))),
+            None => errors.push(unknown_column(col, &names, format!("layers[{index}].tooltip[{j}]"))),
         }
     }
     if errors.is_empty() {

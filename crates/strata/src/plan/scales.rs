@@ -118,7 +118,7 @@ const X_CHANNELS: &[Channel] = &[Channel::X, Channel::XEnd];
 const Y_CHANNELS: &[Channel] = &[Channel::Y, Channel::YEnd, Channel::YBase, Channel::YLow, Channel::YHigh];
 
 /// Train the x and/or y scale of `scales` again on `layers` alone (one
-/// panel's rows, for `panels.free`), as [`train`] trains them on every row.
+/// panel's rows, for `panels.independent`), as [`train`] trains them on every row.
 pub fn retrain_positions(layers: &[PlannedLayer], scales: &mut Scales, x: bool, y: bool) -> Result<(), Errors> {
     if x {
         (scales.x, scales.x_nice) = train_position(X_CHANNELS, "x", &scales.x_spec, layers)?;

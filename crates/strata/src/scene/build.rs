@@ -234,8 +234,8 @@ enum GridNames<'a> {
 /// the right side (read top to bottom), clear of the vertical axes on the
 /// left. All frames are the same size. A shared axis is drawn once per row
 /// or column, along the grid's edge (x under the bottom row, y left of the
-/// left column, or the sides `scales.*.axis` asks for); a free axis
-/// (`panels.free`) in every panel. Axis titles are drawn once, centred on
+/// left column, or the sides `scales.*.axis` asks for); an independent axis
+/// (`panels.independent`) in every panel. Axis titles are drawn once, centred on
 /// the whole grid.
 ///
 /// Wrapped panels (`by`) use the same layout with a strip over every
@@ -253,10 +253,10 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, names: GridNames, cells: &[Plan], ri
     };
     // Whether row r, column c holds a panel (a cross grid is full).
     let exists = |r: usize, c: usize| r * nc + c < cells.len();
-    let flip = matches!(chart.coords, Coords::Flip);
-    let (free_x, free_y) = chart.panels.free;
-    let (free_h, free_v) = if flip { (free_y, free_x) } else { (free_x, free_y) };
-    let (h_spec, v_spec) = if flip { (&plan.scales.y_spec, &plan.scales.x_spec) } else { (&plan.scales.x_spec, &plan.scales.y_spec) };
+    let transposed = chart.transposed;
+    let (independent_x, independent_y) = chart.panels.independent;
+    let (independent_h, independent_v) = if transposed { (independent_y, independent_x) } else { (independent_x, independent_y) };
+    let (h_spec, v_spec) = if transposed { (&plan.scales.y_spec, &plan.scales.x_spec) } else { (&plan.scales.x_spec, &plan.scales.y_spec) };
     let (h_top, v_right) = (h_spec.axis == Some(Placement::Top), v_spec.axis == Some(Placement::Right));
     let (h_title, v_title, _, _) = axis_titles(chart, &plan.scales);
     let (gap_x, gap_y) = panel_gaps(inp.narrow);
@@ -282,8 +282,8 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, names: GridNames, cells: &[Plan], ri
     // column (or over the top row), y beside the first (or last) panel of each row.
     let last_row = |c: usize| (0..nr).rev().find(|r| exists(*r, c)).unwrap_or(0);
     let last_col = |r: usize| (0..nc).rev().find(|c| exists(r, *c)).unwrap_or(0);
-    let draw_h = |r: usize, c: usize| free_h || r == if h_top { 0 } else { last_row(c) };
-    let draw_v = |r: usize, c: usize| free_v || c == if v_right { last_col(r) } else { 0 };
+    let draw_h = |r: usize, c: usize| independent_h || r == if h_top { 0 } else { last_row(c) };
+    let draw_v = |r: usize, c: usize| independent_v || c == if v_right { last_col(r) } else { 0 };
     // Room beside the frame of the panel in row r, column c: left, right,
     // top, bottom. At the grid's outer ends the horizontal labels reach as
     // in a single plot; between columns they share the gap, and take more
@@ -419,10 +419,10 @@ fn plot_area(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, botto
 
 /// Axis titles and whether each axis shows, horizontal then vertical.
 fn axis_titles<'a>(chart: &Chart, scales: &'a crate::plan::Scales) -> (&'a str, &'a str, bool, bool) {
-    // Axes: the x scale is horizontal unless the coordinates flip it.
-    let flip = matches!(chart.coords, Coords::Flip);
+    // Axes: the x scale is horizontal unless the coordinates are transposed.
+    let transposed = chart.transposed;
     let polar = matches!(chart.coords, Coords::Polar(_));
-    let (h_title, v_title, h_spec, v_spec) = if flip {
+    let (h_title, v_title, h_spec, v_spec) = if transposed {
         (&scales.y_title, &scales.x_title, &scales.y_spec, &scales.x_spec)
     } else {
         (&scales.x_title, &scales.y_title, &scales.x_spec, &scales.y_spec)
@@ -465,8 +465,8 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
     let PlotInputs { chart, loc, narrow, pad, width, legend_on_right, .. } = *inp;
     let scales = &plan.scales;
     let mut nice_scales = plan.scales.clone();
-    let flip = matches!(chart.coords, Coords::Flip);
-    let (h_spec, v_spec) = if flip { (&scales.y_spec, &scales.x_spec) } else { (&scales.x_spec, &scales.y_spec) };
+    let transposed = chart.transposed;
+    let (h_spec, v_spec) = if transposed { (&scales.y_spec, &scales.x_spec) } else { (&scales.x_spec, &scales.y_spec) };
     let (h_title, v_title, h_shown, v_shown) = axis_titles(chart, scales);
     let (h_title, v_title) = if titles { (h_title, v_title) } else { ("", "") };
     let wanted = |s: &crate::plan::ScaleSpec, length: f64, per: f64| {
@@ -478,12 +478,12 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
     let max_left = width * if narrow { 0.3 } else { 0.25 };
     // Nice ends for the counts that fit (x along the width, y along the height).
     let (h_len_guess, v_len) = ((right - x0 - 60.0).max(20.0), guess_h);
-    let (x_len, y_len) = if flip { (v_len, h_len_guess) } else { (h_len_guess, v_len) };
+    let (x_len, y_len) = if transposed { (v_len, h_len_guess) } else { (h_len_guess, v_len) };
     if scales.x_nice {
         nice_scales.x = scales.x.nice(wanted(
             &scales.x_spec,
             x_len,
-            if flip {
+            if transposed {
                 50.0
             } else if narrow {
                 70.0
@@ -496,7 +496,7 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
         nice_scales.y = scales.y.nice(wanted(
             &scales.y_spec,
             y_len,
-            if flip {
+            if transposed {
                 if narrow {
                     70.0
                 } else {
@@ -508,7 +508,7 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
         ));
     }
     let scales = &nice_scales;
-    let (h_scale, v_scale) = if flip { (&scales.y, &scales.x) } else { (&scales.x, &scales.y) };
+    let (h_scale, v_scale) = if transposed { (&scales.y, &scales.x) } else { (&scales.x, &scales.y) };
     let v_ticks0 =
         if v_shown { guides::left_ticks(v_scale, guess_h, wanted(v_spec, guess_h, 45.0), v_spec.format.as_deref(), loc, max_left, inp.ts) } else { vec![] };
     let v_label_w = guides::widest_label(&v_ticks0, inp.ts);
@@ -578,8 +578,8 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
     } else {
         vec![]
     };
-    // Vertical categories in flipped coordinates run top to bottom.
-    let v_ticks = if flip {
+    // Vertical categories in transposed coordinates run top to bottom.
+    let v_ticks = if transposed {
         v_ticks
             .into_iter()
             .map(|mut t| {
@@ -620,9 +620,9 @@ fn plot_draw(inp: &PlotInputs, plan: &Plan, lay: &PlotLayout, frame: Frame, draw
     let pal = pal.clone();
     let mut children = Vec::new();
     let scales = &lay.scales;
-    let flip = matches!(chart.coords, Coords::Flip);
+    let transposed = chart.transposed;
     let polar = matches!(chart.coords, Coords::Polar(_));
-    let (h_scale, v_scale) = if flip { (&scales.y, &scales.x) } else { (&scales.x, &scales.y) };
+    let (h_scale, v_scale) = if transposed { (&scales.y, &scales.x) } else { (&scales.x, &scales.y) };
     let loc = inp.loc;
     // Polar charts: the angle's labels go around the circle, so inset the frame for them.
     let (frame, polar_ticks) = match &chart.coords {
@@ -643,7 +643,7 @@ fn plot_draw(inp: &PlotInputs, plan: &Plan, lay: &PlotLayout, frame: Frame, draw
         }
         _ => (frame, None),
     };
-    let coord = Coord::new(&chart.coords, frame);
+    let coord = Coord::new(&chart.coords, chart.transposed, frame);
     let h_side = if lay.h_top { Side::Top } else { Side::Bottom };
     let v_side = if lay.v_right { Side::Right } else { Side::Left };
     let h_axis = AxisGuide { side: h_side, scale: h_scale, ticks: lay.h_ticks.clone(), title: &lay.h_title, angle: lay.h_angle, size: inp.ts };

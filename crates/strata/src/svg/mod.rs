@@ -117,10 +117,10 @@ fn value_words(v: &serde_json::Value) -> String {
     }
 }
 
-/// "x: Jan, y: 82, age: 12": a mark's values, then its `tip` columns.
+/// "x: Jan, y: 82, age: 12": a mark's values, then its `tooltip` columns.
 fn datum_words(d: &crate::scene::Datum) -> String {
-    let mut parts: Vec<String> = d.iter().filter(|(k, _)| k.as_str() != "tip").map(|(k, v)| format!("{k}: {}", value_words(v))).collect();
-    if let Some(serde_json::Value::Object(tips)) = d.get("tip") {
+    let mut parts: Vec<String> = d.iter().filter(|(k, _)| k.as_str() != "tooltip").map(|(k, v)| format!("{k}: {}", value_words(v))).collect();
+    if let Some(serde_json::Value::Object(tips)) = d.get("tooltip") {
         parts.extend(tips.iter().map(|(k, v)| format!("{k}: {}", value_words(v))));
     }
     parts.join(", ")
@@ -129,23 +129,23 @@ fn datum_words(d: &crate::scene::Datum) -> String {
 const FOCUSABLE: &str = " tabindex=\"0\"";
 
 /// `role` and `aria-label` of a data mark (its values, "x: Jan, y: 82");
-/// marks with `tip` columns are also focusable with the keyboard.
+/// marks with `tooltip` columns are also focusable with the keyboard.
 fn mark_label(out: &mut String, datum: &Option<crate::scene::Datum>, labelled: bool) {
     let Some(d) = datum else { return };
     if !labelled {
         return;
     }
     let _ = write!(out, " role=\"graphics-symbol\" aria-label=\"{}\"", escape(&datum_words(d)));
-    if d.contains_key("tip") {
+    if d.contains_key("tooltip") {
         out.push_str(FOCUSABLE);
     }
 }
 
-/// Close a mark: with `tip` columns, a `<title>` child that browsers show on
+/// Close a mark: with `tooltip` columns, a `<title>` child that browsers show on
 /// hover (no script needed, so baked pages have it too).
 fn close_mark(out: &mut String, name: &str, datum: &Option<crate::scene::Datum>) {
     match datum {
-        Some(d) if d.contains_key("tip") => {
+        Some(d) if d.contains_key("tooltip") => {
             let _ = writeln!(out, "><title>{}</title></{name}>", escape(&datum_words(d)));
         }
         _ => out.push_str("/>\n"),
