@@ -21,7 +21,7 @@ for variant in core arrow; do
   fi
 done
 # The bundled font beside the theme sheet (www/strata-theme.css loads it from fonts/).
-mkdir -p www/fonts && cp fonts/*.ttf fonts/LICENSE-Apache-2.0.txt www/fonts/
+mkdir -p www/fonts && cp fonts/*.ttf fonts/OFL.txt www/fonts/
 gz() { gzip -9c "$1" | wc -c; }
 w=$(gz www/pkg/strata_wasm_bg.wasm); g=$(gz www/pkg/strata_wasm.js); e=$(gz www/strata-chart.js)
 a=$(gz www/pkg/strata_wasm_arrow_bg.wasm)

@@ -10,10 +10,10 @@ use strata::{render, RenderOptions};
 fn options() -> usvg::Options<'static> {
     let mut opt = usvg::Options::default();
     let db = opt.fontdb_mut();
-    db.load_font_data(include_bytes!("../../../fonts/OpenSans-Regular.ttf").to_vec());
-    db.load_font_data(include_bytes!("../../../fonts/OpenSans-Bold.ttf").to_vec());
-    db.set_sans_serif_family("Open Sans");
-    opt.font_family = "Open Sans".into();
+    db.load_font_data(include_bytes!("../../../fonts/AtkinsonHyperlegibleNext-Regular.ttf").to_vec());
+    db.load_font_data(include_bytes!("../../../fonts/AtkinsonHyperlegibleNext-Bold.ttf").to_vec());
+    db.set_sans_serif_family("Atkinson Hyperlegible Next");
+    opt.font_family = "Atkinson Hyperlegible Next".into();
     opt
 }
 

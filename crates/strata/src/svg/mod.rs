@@ -245,7 +245,7 @@ pub fn write(scene: &Scene) -> String {
     let mut out = String::with_capacity(body.len() + 512);
     let _ = write!(
         out,
-        "<svg xmlns=\"http://www.w3.org/2000/svg\" class=\"{c}\" width=\"{w}\" height=\"{h}\" viewBox=\"0 0 {w} {h}\" role=\"graphics-document document\" aria-roledescription=\"chart\" aria-labelledby=\"{id}-title\" aria-describedby=\"{id}-desc\" font-family=\"{f}\">\n",
+        "<svg xmlns=\"http://www.w3.org/2000/svg\" class=\"{c}\" width=\"{w}\" height=\"{h}\" viewBox=\"0 0 {w} {h}\" role=\"graphics-document document\" aria-roledescription=\"chart\" aria-labelledby=\"{id}-title\" aria-describedby=\"{id}-desc\" font-family=\"{f}\" font-kerning=\"none\">\n",
         w = num(scene.width),
         h = num(scene.height),
         f = escape(&scene.font_family),
