@@ -266,10 +266,13 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, names: GridNames, cells: &[Plan], ri
     // Wrapped panels: a strip over every panel, so over every row.
     let each_strip = if wrap.is_some() { strip(inp.ts) } else { 0.0 };
 
+    // The vertical title once, across, above the grid where it fits (else turned).
+    let v_above = !v_title.is_empty() && text::width(v_title, inp.ts, false) <= right - inp.left;
+    let v_band = if v_title.is_empty() || v_above { 0.0 } else { band };
     // The room for panels, inside the axis titles and the strips.
-    let x_start = inp.left + if !v_title.is_empty() && !v_right { band } else { 0.0 };
-    let x_end = right - row_strip - if !v_title.is_empty() && v_right { band } else { 0.0 };
-    let strip_top = top + if !h_title.is_empty() && h_top { band } else { 0.0 };
+    let x_start = inp.left + if !v_right { v_band } else { 0.0 };
+    let x_end = right - row_strip - if v_right { v_band } else { 0.0 };
+    let strip_top = top + if !h_title.is_empty() && h_top { band } else { 0.0 } + if v_above { guides::title_above_height(inp.ts) } else { 0.0 };
     let y_start = strip_top + col_strip;
     let y_end = bottom - if !h_title.is_empty() && !h_top { band } else { 0.0 };
 
@@ -373,7 +376,21 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, names: GridNames, cells: &[Plan], ri
         let y = if h_top { top + inp.ts * text::ASCENT } else { y_end + band - inp.ts * text::LINE_HEIGHT + inp.ts * text::ASCENT };
         titles.push(guides::axis_title((span_left + span_right) / 2.0, y, h_title, span_right - span_left, 0.0, inp.pal, inp.ts));
     }
-    if !v_title.is_empty() {
+    if v_above {
+        let y = strip_top - guides::title_above_height(inp.ts) + inp.ts * text::ASCENT;
+        let (x, anchor) = if v_right { (right, Anchor::End) } else { (inp.left, Anchor::Start) };
+        titles.push(Node::Text {
+            x,
+            y,
+            text: v_title.to_string(),
+            size: inp.ts,
+            anchor,
+            bold: false,
+            angle: 0.0,
+            fill: inp.pal.text.clone(),
+            class: "strata-axis-title".into(),
+        });
+    } else if !v_title.is_empty() {
         let (x, angle) = if v_right { (right - inp.ts * text::ASCENT, 90.0) } else { (inp.left + inp.ts * text::ASCENT, -90.0) };
         titles.push(guides::axis_title(x, (span_top + span_bottom) / 2.0, v_title, span_bottom - span_top, angle, inp.pal, inp.ts));
     }
@@ -447,6 +464,8 @@ struct PlotLayout {
     v_title: String,
     h_shown: bool,
     v_shown: bool,
+    /// The vertical axis's title goes above it, across (it fits there).
+    v_title_above: bool,
     h_top: bool,
     v_right: bool,
     /// Width of the vertical axis (labels and title) beside the frame.
@@ -515,7 +534,11 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
     // Placement: the vertical axis left (or right), the horizontal one at the bottom (or top).
     let v_right = v_spec.axis == Some(Placement::Right);
     let h_top = h_spec.axis == Some(Placement::Top);
-    let v_axis_w = if v_shown { guides::left_axis_width(v_label_w, !v_title.is_empty(), inp.ts) } else { 0.0 };
+    // House style: the vertical axis's title once, across, above the axis,
+    // where it fits in the width; else turned along the axis.
+    let v_title_above = v_shown && !v_title.is_empty() && text::width(v_title, inp.ts, false) <= right - x0;
+    let top = if v_title_above { top + guides::title_above_height(inp.ts) } else { top };
+    let v_axis_w = if v_shown { guides::left_axis_width(v_label_w, !v_title.is_empty() && !v_title_above, inp.ts) } else { 0.0 };
     let left = x0 + if v_right { 0.0 } else { v_axis_w };
     let right = if v_right { right - v_axis_w } else { right };
     let frame_w = (right - left).max(20.0);
@@ -602,6 +625,7 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
         v_title: v_title.to_string(),
         h_shown,
         v_shown,
+        v_title_above,
         h_top,
         v_right,
         v_axis_w,
@@ -646,15 +670,18 @@ fn plot_draw(inp: &PlotInputs, plan: &Plan, lay: &PlotLayout, frame: Frame, draw
     let coord = Coord::new(&chart.coords, chart.transposed, frame);
     let h_side = if lay.h_top { Side::Top } else { Side::Bottom };
     let v_side = if lay.v_right { Side::Right } else { Side::Left };
-    let h_axis = AxisGuide { side: h_side, scale: h_scale, ticks: lay.h_ticks.clone(), title: &lay.h_title, angle: lay.h_angle, size: inp.ts };
-    let v_axis = AxisGuide { side: v_side, scale: v_scale, ticks: lay.v_ticks.clone(), title: &lay.v_title, angle: 0.0, size: inp.ts };
+    let h_axis =
+        AxisGuide { side: h_side, scale: h_scale, ticks: lay.h_ticks.clone(), title: &lay.h_title, angle: lay.h_angle, size: inp.ts, title_above: false };
+    let v_axis =
+        AxisGuide { side: v_side, scale: v_scale, ticks: lay.v_ticks.clone(), title: &lay.v_title, angle: 0.0, size: inp.ts, title_above: lay.v_title_above };
+    // The value axis: y, across the page unless transposed. Only it gets grid lines.
+    let value_axis = if chart.transposed { &h_axis } else { &v_axis };
 
     if let Some((angle_is_x, a_ticks, r_ticks)) = &polar_ticks {
         children.extend(guides::polar(&coord, *angle_is_x, a_ticks, r_ticks, &pal, inp.ts));
     }
     if !polar {
-        let mut grid = guides::grid(&v_axis, &coord, &pal);
-        grid.extend(guides::grid(&h_axis, &coord, &pal));
+        let grid = guides::grid(value_axis, &coord, &pal);
         children.push(Node::Group { class: "strata-grid".into(), role: None, label: None, children: grid });
     }
     let ctx = Ctx { scales, coord, default_color: &pal.mark, text_size: inp.ts };
@@ -674,6 +701,10 @@ fn plot_draw(inp: &PlotInputs, plan: &Plan, lay: &PlotLayout, frame: Frame, draw
     }
     if lay.v_shown && draw_v {
         children.push(guides::axis(&v_axis, frame, &pal, lay.v_label_w));
+    }
+    // The baseline at zero, over the axis line it may lie on.
+    if !polar {
+        children.extend(guides::zero_line(value_axis, &coord, &pal));
     }
     // Notes go over the marks, inside the plot.
     layers.extend(super::notes::draw(&chart.notes, scales, &coord, &pal, inp.ts));
@@ -886,6 +917,66 @@ mod tests {
         assert!(ticks_left(&left) > ticks_left(&right) + 50.0);
     }
 
+    fn lines_in<'a>(n: &'a Node, class: &str, inside: bool, out: &mut Vec<(f64, f64, f64, f64)>) {
+        match n {
+            Node::Group { children, class: c, .. } => children.iter().for_each(|k| lines_in(k, class, inside || c.split(' ').any(|w| w == class), out)),
+            Node::Line { x1, y1, x2, y2, .. } if inside => out.push((*x1, *y1, *x2, *y2)),
+            _ => {}
+        }
+    }
+
+    fn lines_in_scene(s: &Scene, class: &str, inside: bool, out: &mut Vec<(f64, f64, f64, f64)>) {
+        s.children.iter().for_each(|c| lines_in(c, class, inside, out));
+    }
+
+    #[test]
+    fn house_style_grid_baseline_and_category_ticks() {
+        let bars = r#"{ "data": { "rows": [ {"k": "a", "v": 3}, {"k": "b", "v": 7}, {"k": "c", "v": 5} ] },
+            "layers": [ { "draw": "bar", "x": "k", "y": "v" } ], "scales": { "y": { "title": "Catch (kg)" } } }"#;
+        let s = render(bars, None, &RenderOptions { scene: SceneOptions { width: 640.0 } }).unwrap().scene;
+        let mut grid = Vec::new();
+        lines_in_scene(&s, "strata-grid", false, &mut grid);
+        // Grid along the value axis only: horizontal lines, none for the categories.
+        assert!(grid.len() >= 3 && grid.iter().all(|l| l.1 == l.3), "{grid:?}");
+        // A baseline at zero (bars start there): one line across the frame, at the bottom.
+        let mut zero = Vec::new();
+        lines_in_scene(&s, "strata-zero", false, &mut zero);
+        assert_eq!(zero.len(), 1);
+        let bottom = grid.iter().map(|l| l.1).fold(f64::NEG_INFINITY, f64::max);
+        assert!((zero[0].1 - bottom).abs() < 1e-9 && zero[0].1 == zero[0].3, "{zero:?} {bottom}");
+        // Short tick marks on the category axis: one per category, vertical, 4 px.
+        let mut axis = Vec::new();
+        lines_in_scene(&s, "strata-axis-bottom", false, &mut axis);
+        let marks: Vec<_> = axis.iter().filter(|l| l.0 == l.2).collect();
+        assert_eq!(marks.len(), 3, "{axis:?}");
+        assert!(marks.iter().all(|l| (l.3 - l.1 - guides::TICK_MARK).abs() < 1e-9));
+        // The value axis has no tick marks and its title reads across, above it.
+        let mut left = Vec::new();
+        lines_in_scene(&s, "strata-axis-left", false, &mut left);
+        assert!(left.is_empty(), "{left:?}");
+        let title = all(&s, "strata-axis-title").into_iter().find(|t| t.2 == "Catch (kg)").unwrap();
+        let top_tick = all(&s, "strata-tick").iter().map(|t| t.1).fold(f64::INFINITY, f64::min);
+        assert!(title.1 < top_tick, "{title:?}");
+        assert!(!svg_has_turned_text(&s));
+        // A value domain clear of zero gets no baseline.
+        let pts = r#"{ "data": { "rows": [ {"x": 1, "y": 30}, {"x": 2, "y": 40} ] }, "layers": [ { "draw": "point", "x": "x", "y": "y" } ] }"#;
+        let s = render(pts, None, &RenderOptions { scene: SceneOptions { width: 640.0 } }).unwrap().scene;
+        let mut zero = Vec::new();
+        lines_in_scene(&s, "strata-zero", false, &mut zero);
+        assert!(zero.is_empty(), "{zero:?}");
+    }
+
+    fn svg_has_turned_text(s: &Scene) -> bool {
+        fn walk(n: &Node) -> bool {
+            match n {
+                Node::Group { children, .. } => children.iter().any(walk),
+                Node::Text { angle, .. } => *angle != 0.0,
+                _ => false,
+            }
+        }
+        s.children.iter().any(walk)
+    }
+
     #[test]
     fn a_right_axis_title_stays_in_its_band() {
         let spec = r#"{ "data": { "rows": [ {"m": 1, "v": 120000}, {"m": 2, "v": 340000} ] },
@@ -894,12 +985,14 @@ mod tests {
         let s = render(spec, None, &RenderOptions { scene: SceneOptions { width: 640.0 } }).unwrap().scene;
         let title = all(&s, "strata-axis-title").into_iter().find(|t| t.2 == "Visitors").unwrap();
         // Tick labels start at their x (anchor start) on the right axis.
-        let ticks_end = all(&s, "strata-tick").iter().filter(|t| t.0 > 320.0).map(|t| t.0 + text::width(&t.2, guides::TICK_SIZE, false)).fold(0.0, f64::max);
+        let ticks: Vec<_> = all(&s, "strata-tick").into_iter().filter(|t| t.0 > 320.0).collect();
+        let ticks_end = ticks.iter().map(|t| t.0 + text::width(&t.2, guides::TICK_SIZE, false)).fold(0.0, f64::max);
         let size = guides::TICK_SIZE;
-        // Turned +90 degrees, the title's line box runs from its baseline
-        // (LINE_HEIGHT - ASCENT) to the left, ASCENT to the right.
-        let (box_left, box_right) = (title.0 - size * (text::LINE_HEIGHT - text::ASCENT), title.0 + size * text::ASCENT);
-        assert!(box_left >= ticks_end, "title {box_left} overlaps the tick labels ending at {ticks_end}");
-        assert!(box_right <= 640.0 - 16.0 + 1e-9, "title reaches {box_right}, past the padding");
+        // House style: written across, above the axis, ending where the
+        // widest tick label ends, its line box clear of the top label's.
+        let top_label = ticks.iter().map(|t| t.1).fold(f64::INFINITY, f64::min);
+        assert!((title.0 - ticks_end).abs() <= 1.0, "title ends at {}, labels at {ticks_end}", title.0);
+        assert!(title.1 + size * (text::LINE_HEIGHT - text::ASCENT) <= top_label - size * text::CAP, "title {:?} over labels at {top_label}", title);
+        assert!(title.0 <= 640.0 - 16.0 + 1e-9, "title reaches {}, past the padding", title.0);
     }
 }

@@ -44,6 +44,80 @@ pub struct AxisGuide<'a> {
     pub angle: f64,
     /// Text size of its labels and title.
     pub size: f64,
+    /// A vertical axis's title written once, horizontally, above the axis
+    /// (the house style where it fits) rather than turned along it.
+    pub title_above: bool,
+}
+
+/// Length of the short tick marks on a category axis (px).
+pub const TICK_MARK: f64 = 4.0;
+
+/// Short tick marks on a category axis, outward from the frame.
+fn tick_marks(axis: &AxisGuide, f: Frame, pal: &Palette) -> Vec<Node> {
+    if !axis.scale.is_discrete() {
+        return vec![];
+    }
+    let paint = || Paint::stroke(&pal.axis, 1.0);
+    axis.ticks
+        .iter()
+        .map(|t| match axis.side {
+            Side::Bottom => {
+                let x = f.left + t.unit * f.width;
+                Node::Line { x1: x, y1: f.bottom(), x2: x, y2: f.bottom() + TICK_MARK, paint: paint() }
+            }
+            Side::Top => {
+                let x = f.left + t.unit * f.width;
+                Node::Line { x1: x, y1: f.top, x2: x, y2: f.top - TICK_MARK, paint: paint() }
+            }
+            Side::Left => {
+                let y = f.bottom() - t.unit * f.height;
+                Node::Line { x1: f.left, y1: y, x2: f.left - TICK_MARK, y2: y, paint: paint() }
+            }
+            Side::Right => {
+                let y = f.bottom() - t.unit * f.height;
+                Node::Line { x1: f.right(), y1: y, x2: f.right() + TICK_MARK, y2: y, paint: paint() }
+            }
+        })
+        .collect()
+}
+
+/// Room a title written above a vertical axis takes over the frame (px).
+pub fn title_above_height(ts: f64) -> f64 {
+    ts * text::LINE_HEIGHT + GAP
+}
+
+/// A vertical axis's title above it, reading across: its start over the
+/// left axis's labels (or its end over the right axis's).
+fn title_above(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node {
+    let ts = axis.size;
+    let y = f.top - GAP - ts * (text::LINE_HEIGHT - text::ASCENT);
+    let (x, anchor) = match axis.side {
+        Side::Right => (f.right() + GAP + label_width, Anchor::End),
+        _ => (f.left - GAP - label_width, Anchor::Start),
+    };
+    Node::Text { x, y, text: axis.title.to_string(), size: ts, anchor, bold: false, angle: 0.0, fill: pal.text.clone(), class: "strata-axis-title".into() }
+}
+
+/// A stronger line at zero along the value axis, when its domain spans or
+/// touches zero (drawn over the marks).
+pub fn zero_line(axis: &AxisGuide, coord: &Coord, pal: &Palette) -> Option<Node> {
+    let (lo, hi) = axis.scale.domain()?;
+    if !(lo.min(hi) <= 0.0 && hi.max(lo) >= 0.0) {
+        return None;
+    }
+    let u = axis.scale.unit_num(0.0).filter(|u| u.is_finite() && (-1e-9..=1.0 + 1e-9).contains(u))?;
+    let f = coord.frame();
+    let line = match axis.side {
+        Side::Left | Side::Right => {
+            let y = f.bottom() - u * f.height;
+            Node::Line { x1: f.left, y1: y, x2: f.right(), y2: y, paint: Paint::stroke(&pal.text, 1.0) }
+        }
+        Side::Bottom | Side::Top => {
+            let x = f.left + u * f.width;
+            Node::Line { x1: x, y1: f.top, x2: x, y2: f.bottom(), paint: Paint::stroke(&pal.text, 1.0) }
+        }
+    };
+    Some(Node::Group { class: "strata-zero".into(), role: None, label: None, children: vec![line] })
 }
 
 fn label_width(t: &Tick, ts: f64) -> f64 {
@@ -279,6 +353,7 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
     match axis.side {
         Side::Bottom => {
             kids.push(Node::Line { x1: f.left, y1: f.bottom(), x2: f.right(), y2: f.bottom(), paint: Paint::stroke(&pal.axis, 1.0) });
+            kids.extend(tick_marks(axis, f, pal));
             for t in &axis.ticks {
                 let x = f.left + t.unit * f.width;
                 if axis.angle != 0.0 {
@@ -317,17 +392,21 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
             if axis.scale.is_discrete() {
                 kids.push(Node::Line { x1: f.left, y1: f.top, x2: f.left, y2: f.bottom(), paint: Paint::stroke(&pal.axis, 1.0) });
             }
+            kids.extend(tick_marks(axis, f, pal));
             for t in &axis.ticks {
                 let y = f.bottom() - t.unit * f.height;
                 kids.push(label(f.left - GAP, y + ts * text::CAP / 2.0, &t.label, Anchor::End, &pal.muted, "strata-tick", ts));
             }
-            if !axis.title.is_empty() {
+            if !axis.title.is_empty() && axis.title_above {
+                kids.push(title_above(axis, f, pal, label_width));
+            } else if !axis.title.is_empty() {
                 let x = f.left - GAP - label_width - GAP - ts * (text::LINE_HEIGHT - text::ASCENT);
                 kids.push(axis_title(x, f.top + f.height / 2.0, axis.title, f.height, -90.0, pal, ts));
             }
         }
         Side::Top => {
             kids.push(Node::Line { x1: f.left, y1: f.top, x2: f.right(), y2: f.top, paint: Paint::stroke(&pal.axis, 1.0) });
+            kids.extend(tick_marks(axis, f, pal));
             let labels_h = bottom_labels_height(&axis.ticks, axis.angle, ts);
             for t in &axis.ticks {
                 let x = f.left + t.unit * f.width;
@@ -358,11 +437,14 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
             if axis.scale.is_discrete() {
                 kids.push(Node::Line { x1: f.right(), y1: f.top, x2: f.right(), y2: f.bottom(), paint: Paint::stroke(&pal.axis, 1.0) });
             }
+            kids.extend(tick_marks(axis, f, pal));
             for t in &axis.ticks {
                 let y = f.bottom() - t.unit * f.height;
                 kids.push(label(f.right() + GAP, y + ts * text::CAP / 2.0, &t.label, Anchor::Start, &pal.muted, "strata-tick", ts));
             }
-            if !axis.title.is_empty() {
+            if !axis.title.is_empty() && axis.title_above {
+                kids.push(title_above(axis, f, pal, label_width));
+            } else if !axis.title.is_empty() {
                 // Turned to read downward, the line's top faces right: its
                 // baseline sits the line's depth below ascent from the left.
                 let x = f.right() + GAP + label_width + GAP + ts * (text::LINE_HEIGHT - text::ASCENT);
