@@ -131,26 +131,32 @@ fn rows_by_cols_grid_places_and_names_every_panel() {
             }
         }
     }
-    // Column values in strips along the top (over the top row only), row
-    // values in strips turned to read down the right side (beside the last
-    // column only).
+    // No turned text: column values read across above the top row, row
+    // values across at the left of each row (left of the axis labels).
+    assert!(f.iter().all(|p| p.strips.iter().all(|s| s.1 == 0.0)), "{f:?}");
+    let cols = ["west", "mid", "east"];
+    let rows = ["north", "south"];
     for col in 0..3 {
         let s = &at(0, col).strips;
-        let top_strip: Vec<_> = s.iter().filter(|s| s.1 == 0.0).collect();
-        assert_eq!(top_strip.len(), 1, "{s:?}");
-        assert_eq!(top_strip[0].0, ["west", "mid", "east"][col]);
-        assert!(top_strip[0].3 < at(0, col).frame.1, "the column strip is above the panel");
-        let (l, r) = (at(0, col).frame.0, at(0, col).frame.2);
-        assert!(top_strip[0].2 > l && top_strip[0].2 < r, "the column strip is over its column");
-        assert!(at(1, col).strips.iter().all(|s| s.1 != 0.0), "no column strip in the second row");
+        let heads: Vec<_> = s.iter().filter(|s| cols.contains(&s.0.as_str())).collect();
+        assert_eq!(heads.len(), 1, "{s:?}");
+        assert_eq!(heads[0].0, cols[col]);
+        assert!(heads[0].3 < at(0, col).frame.1, "the column name is above the panel");
+        assert!(close(heads[0].2, at(0, col).frame.0), "the column name starts over its column");
+        assert!(at(1, col).strips.iter().all(|s| !cols.contains(&s.0.as_str())), "no column name in the second row");
     }
     for row in 0..2 {
-        let side: Vec<_> = at(row, 2).strips.iter().filter(|s| s.1 == 90.0).collect();
-        assert_eq!(side.len(), 1);
-        assert_eq!(side[0].0, ["north", "south"][row]);
-        assert!(side[0].2 > at(row, 2).frame.2, "the row strip is right of the last column");
-        assert!(side[0].3 > at(row, 2).frame.1 && side[0].3 < at(row, 2).frame.3, "the row strip is beside its row");
-        assert!(at(row, 0).strips.iter().chain(&at(row, 1).strips).all(|s| s.1 != 90.0));
+        let side: Vec<_> = at(row, 0).strips.iter().filter(|s| rows.contains(&s.0.as_str())).collect();
+        assert_eq!(side.len(), 1, "{:?}", at(row, 0).strips);
+        assert_eq!(side[0].0, rows[row]);
+        // Its right end clears the widest tick label (12 px, right-aligned 6 px left of the frame).
+        let labels: Vec<&String> = at(row, 0).axes.iter().filter(|(a, _)| a == "strata-axis-left").flat_map(|(_, t)| t.iter()).collect();
+        assert!(!labels.is_empty());
+        let widest = labels.iter().map(|l| strata::text::width(l, 12.0, false)).fold(0.0, f64::max);
+        let name_end = side[0].2 + strata::text::width(&side[0].0, 12.0, true);
+        assert!(name_end <= at(row, 0).frame.0 - 6.0 - widest, "the row name ({name_end}) is left of its row's axis labels");
+        assert!(side[0].3 > at(row, 0).frame.1 && side[0].3 < at(row, 0).frame.3, "the row name is beside its row");
+        assert!(at(row, 1).strips.iter().chain(&at(row, 2).strips).all(|s| !rows.contains(&s.0.as_str())));
     }
     // Shared axes: x under the bottom row only, y left of the left column only.
     for (i, p) in f.iter().enumerate() {

@@ -201,9 +201,9 @@ fn strip(ts: f64) -> f64 {
     ts * text::LINE_HEIGHT + 2.0
 }
 
-/// The words naming a panel, in its strip.
-fn strip_text(x: f64, y: f64, words: String, anchor: Anchor, angle: f64, pal: &Palette, size: f64) -> Node {
-    Node::Text { x, y, text: words, size, anchor, bold: true, angle, fill: pal.text.clone(), class: "strata-panel-title".into() }
+/// The words naming a panel, row or column: bold, across, no background.
+fn strip_text(x: f64, y: f64, words: String, anchor: Anchor, pal: &Palette, size: f64) -> Node {
+    Node::Text { x, y, text: words, size, anchor, bold: true, angle: 0.0, fill: pal.text.clone(), class: "strata-panel-title".into() }
 }
 
 /// Small multiples by `panels.by`: one panel per value, `panels.columns`
@@ -261,7 +261,11 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, names: GridNames, cells: &[Plan], ri
     let (h_title, v_title, _, _) = axis_titles(chart, &plan.scales);
     let (gap_x, gap_y) = panel_gaps(inp.narrow);
     let band = guides::title_band(inp.ts);
-    let row_strip = if rows.is_some() { strip(inp.ts) + 4.0 } else { 0.0 };
+    // Row names read across at the left of each row (bold, up to a fifth of the width).
+    let row_names_w = match rows {
+        Some(rows) => (rows.iter().map(|r| text::width(r, inp.ts, true)).fold(0.0, f64::max) + 10.0).min(inp.width * 0.2),
+        None => 0.0,
+    };
     let col_strip = if cols.is_some() { strip(inp.ts) } else { 0.0 };
     // Wrapped panels: a strip over every panel, so over every row.
     let each_strip = if wrap.is_some() { strip(inp.ts) } else { 0.0 };
@@ -270,8 +274,9 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, names: GridNames, cells: &[Plan], ri
     let v_above = !v_title.is_empty() && text::width(v_title, inp.ts, false) <= right - inp.left;
     let v_band = if v_title.is_empty() || v_above { 0.0 } else { band };
     // The room for panels, inside the axis titles and the strips.
-    let x_start = inp.left + if !v_right { v_band } else { 0.0 };
-    let x_end = right - row_strip - if v_right { v_band } else { 0.0 };
+    let names_left = inp.left + if !v_right { v_band } else { 0.0 };
+    let x_start = names_left + row_names_w;
+    let x_end = right - if v_right { v_band } else { 0.0 };
     let strip_top = top + if !h_title.is_empty() && h_top { band } else { 0.0 } + if v_above { guides::title_above_height(inp.ts) } else { 0.0 };
     let y_start = strip_top + col_strip;
     let y_end = bottom - if !h_title.is_empty() && !h_top { band } else { 0.0 };
@@ -340,22 +345,22 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, names: GridNames, cells: &[Plan], ri
                 // The panel's own strip, at the top of its row's band (over
                 // any top axis).
                 let words = text::fit(&names[i], inp.ts, true, pw);
-                kids.push(strip_text(frame.left, tops[r] - row_top[r] + inp.ts * text::ASCENT, words, Anchor::Start, 0.0, inp.pal, inp.ts));
+                kids.push(strip_text(frame.left, tops[r] - row_top[r] + inp.ts * text::ASCENT, words, Anchor::Start, inp.pal, inp.ts));
                 says.push(names[i].clone());
             }
             if let Some(rows) = rows {
                 says.push(format!("{row_name}: {}", rows[r]));
-                if c == nc - 1 {
-                    let x = x_end + 4.0 + inp.ts * (text::LINE_HEIGHT - text::ASCENT);
-                    let words = text::fit(&rows[r], inp.ts, true, ph);
-                    kids.push(strip_text(x, frame.top + ph / 2.0, words, Anchor::Middle, 90.0, inp.pal, inp.ts));
+                if c == 0 {
+                    // Across, at the left of the row, level with its top.
+                    let words = text::fit(&rows[r], inp.ts, true, row_names_w - 10.0);
+                    kids.push(strip_text(names_left, frame.top + inp.ts * text::ASCENT, words, Anchor::Start, inp.pal, inp.ts));
                 }
             }
             if let Some(cols) = cols {
                 says.push(format!("{col_name}: {}", cols[c]));
                 if r == 0 {
                     let words = text::fit(&cols[c], inp.ts, true, pw);
-                    kids.push(strip_text(frame.left + pw / 2.0, strip_top + inp.ts * text::ASCENT, words, Anchor::Middle, 0.0, inp.pal, inp.ts));
+                    kids.push(strip_text(frame.left, strip_top + inp.ts * text::ASCENT, words, Anchor::Start, inp.pal, inp.ts));
                 }
             }
             kids.extend(plot_draw(inp, &cells[i], &lays[i], frame, draw_h(r, c), draw_v(r, c)));
