@@ -707,13 +707,17 @@ fn plot_draw(inp: &PlotInputs, plan: &Plan, lay: &PlotLayout, frame: Frame, draw
     if lay.v_shown && draw_v {
         children.push(guides::axis(&v_axis, frame, &pal, lay.v_label_w));
     }
-    // The baseline at zero, over the axis line it may lie on.
-    if !polar {
-        children.extend(guides::zero_line(value_axis, &coord, &pal));
-    }
     // Notes go over the marks, inside the plot.
     layers.extend(super::notes::draw(&chart.notes, scales, &coord, &pal, inp.ts));
     children.push(Node::Group { class: "strata-panel".into(), role: Some("graphics-object".into()), label: Some(panel_label(plan)), children: layers });
+    // Polar: the radius's labels over the wedges, on a halo.
+    if let Some((angle_is_x, _, r_ticks)) = &polar_ticks {
+        children.extend(guides::polar_radius_labels(&coord, *angle_is_x, r_ticks, &pal, inp.ts));
+    }
+    // The baseline at zero, over the marks and the axis line it may lie on.
+    if !polar {
+        children.extend(guides::zero_line(value_axis, &coord, &pal));
+    }
     children
 }
 
@@ -969,6 +973,33 @@ mod tests {
         let mut zero = Vec::new();
         lines_in_scene(&s, "strata-zero", false, &mut zero);
         assert!(zero.is_empty(), "{zero:?}");
+    }
+
+    #[test]
+    fn polar_radius_labels_sit_on_a_halo_over_the_wedges() {
+        let spec = r#"{ "data": { "rows": [ {"d": "N", "h": 120}, {"d": "E", "h": 300}, {"d": "S", "h": 90}, {"d": "W", "h": 200} ] },
+            "layers": [ { "draw": "bar", "x": "d", "y": "h" } ], "coords": "polar" }"#;
+        let s = render(spec, None, &RenderOptions { scene: SceneOptions { width: 500.0 } }).unwrap().scene;
+        fn classes(n: &Node, out: &mut Vec<String>) {
+            if let Node::Group { class, children, .. } = n {
+                out.push(class.clone());
+                children.iter().for_each(|c| classes(c, out));
+            }
+        }
+        let mut order = Vec::new();
+        s.children.iter().for_each(|c| classes(c, &mut order));
+        let marks = order.iter().position(|c| c.contains("strata-bar")).expect("a bar layer");
+        let radius = order.iter().position(|c| c == "strata-axis strata-axis-radius").expect("radius labels");
+        assert!(radius > marks, "radius labels are drawn after the wedges: {order:?}");
+        // One halo under each radius label.
+        let labels = s.children.iter().find_map(|c| match c {
+            Node::Group { class, children, .. } if class == "strata-axis strata-axis-radius" => Some(children),
+            _ => None,
+        });
+        let kids = labels.unwrap();
+        let halos = kids.iter().filter(|k| matches!(k, Node::Group { class, .. } if class == "strata-halo")).count();
+        let texts = kids.iter().filter(|k| matches!(k, Node::Text { .. })).count();
+        assert!(texts >= 2 && halos == texts, "{halos} halos for {texts} labels");
     }
 
     fn svg_has_turned_text(s: &Scene) -> bool {

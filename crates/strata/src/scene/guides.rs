@@ -875,15 +875,35 @@ pub fn polar(coord: &Coord, angle_is_x: bool, angle_ticks: &[Tick], radius_ticks
         let baseline = ly + ts * (0.35 + 0.45 * uy);
         labels.push(label(lx, baseline, &t.label, anchor, &pal.muted, "strata-tick", ts));
     }
+    vec![
+        Node::Group { class: "strata-grid".into(), role: None, label: None, children: grid },
+        Node::Group { class: "strata-axis strata-axis-polar".into(), role: None, label: Some("polar axes".into()), children: labels },
+    ]
+}
+
+/// The radius's tick labels along the starting spoke, drawn over the marks
+/// on a halo of the background colour so that wedges never hide them.
+pub fn polar_radius_labels(coord: &Coord, angle_is_x: bool, radius_ticks: &[Tick], pal: &Palette, ts: f64) -> Option<Node> {
+    let at = |angle: f64, radius: f64| if angle_is_x { coord.point(angle, radius) } else { coord.point(radius, angle) };
+    let mut kids = Vec::new();
     for t in radius_ticks {
         if !(0.0..=1.0 + 1e-9).contains(&t.unit) || t.unit <= 1e-9 {
             continue;
         }
         let (x, y) = at(0.0, t.unit);
-        labels.push(label(x + 3.0, y - 3.0, &t.label, Anchor::Start, &pal.muted, "strata-tick", ts));
+        let (lx, ly) = (x + 3.0, y - 3.0);
+        let w = label_width(t, ts);
+        // The halo: the label's line box and 2 px around it.
+        let (top, h) = (ly - ts * text::ASCENT - 2.0, ts * text::LINE_HEIGHT + 4.0);
+        let mut paint = Paint::fill(&pal.background);
+        paint.opacity = Some(0.85);
+        kids.push(Node::Group {
+            class: "strata-halo".into(),
+            role: None,
+            label: None,
+            children: vec![Node::Rect { x: lx - 2.0, y: top, width: w + 4.0, height: h, paint, datum: None }],
+        });
+        kids.push(label(lx, ly, &t.label, Anchor::Start, &pal.muted, "strata-tick", ts));
     }
-    vec![
-        Node::Group { class: "strata-grid".into(), role: None, label: None, children: grid },
-        Node::Group { class: "strata-axis strata-axis-polar".into(), role: None, label: Some("polar axes".into()), children: labels },
-    ]
+    (!kids.is_empty()).then(|| Node::Group { class: "strata-axis strata-axis-radius".into(), role: None, label: Some("radius axis".into()), children: kids })
 }
