@@ -109,7 +109,7 @@ pub fn build(plan: &Plan, opts: &SceneOptions) -> Scene {
 
     // Legends: a column on the right when wide and the column takes at most
     // a quarter of the width; otherwise rows on top.
-    let legends: Vec<Legend> = guides::legends(scales, &pal.mark, ts);
+    let legends: Vec<Legend> = guides::legends(scales, guides::SwatchMark::of(&plan.layers), ts);
     let mut right = width - pad;
     let mut left = pad;
     let mut legend_nodes = Vec::new();
@@ -1000,6 +1000,46 @@ mod tests {
         let halos = kids.iter().filter(|k| matches!(k, Node::Group { class, .. } if class == "strata-halo")).count();
         let texts = kids.iter().filter(|k| matches!(k, Node::Text { .. })).count();
         assert!(texts >= 2 && halos == texts, "{halos} halos for {texts} labels");
+    }
+
+    #[test]
+    fn legend_swatches_take_the_layer_shape_and_a_readable_title() {
+        let rows = r#"{ "rows": [ {"m": 1, "v": 3, "harbour_kg": "a"}, {"m": 2, "v": 5, "harbour_kg": "b"} ] }"#;
+        let legend = |draw: &str, scales: &str| {
+            let spec = format!(r#"{{ "data": {rows}, "layers": [ {{ "draw": "{draw}", "x": "m", "y": "v", "color": "harbour_kg" }} ] {scales} }}"#);
+            let s = render(&spec, None, &RenderOptions { scene: SceneOptions { width: 640.0 } }).unwrap().scene;
+            fn find<'a>(n: &'a Node, out: &mut Vec<&'a Node>, inside: bool) {
+                match n {
+                    Node::Group { class, children, .. } => children.iter().for_each(|c| find(c, out, inside || class.starts_with("strata-legend"))),
+                    n if inside => out.push(n),
+                    _ => {}
+                }
+            }
+            let mut nodes = Vec::new();
+            s.children.iter().for_each(|c| find(c, &mut nodes, false));
+            let title = nodes.iter().find_map(|n| match n {
+                Node::Text { class, text, bold, .. } if class == "strata-legend-title" => Some((text.clone(), *bold)),
+                _ => None,
+            });
+            let kinds: Vec<&str> = nodes
+                .iter()
+                .filter_map(|n| match n {
+                    Node::Rect { .. } => Some("square"),
+                    Node::Line { .. } => Some("line"),
+                    Node::Circle { .. } => Some("dot"),
+                    _ => None,
+                })
+                .collect();
+            (title, kinds)
+        };
+        let (title, kinds) = legend("line", "");
+        assert_eq!(title, Some(("Harbour kg".to_string(), false)));
+        assert_eq!(kinds, ["line", "line"]);
+        assert_eq!(legend("point", "").1, ["dot", "dot"]);
+        assert_eq!(legend("bar", "").1, ["square", "square"]);
+        assert_eq!(legend("area", "").1, ["square", "square"]);
+        // A scale's own title is kept as written.
+        assert_eq!(legend("point", r#", "scales": { "color": { "title": "harbour_kg (raw)" } }"#).0.unwrap().0, "harbour_kg (raw)");
     }
 
     fn svg_has_turned_text(s: &Scene) -> bool {

@@ -494,11 +494,35 @@ const GRADIENT_LENGTH: f64 = 120.0;
 const GRADIENT_THICKNESS: f64 = 10.0;
 const GRADIENT_STEPS: usize = 48;
 
+/// The shape of a colour swatch: the layer's own mark in small.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum SwatchMark {
+    /// Bars, areas, bands, cells, boxes and labels.
+    Square,
+    /// Lines, steps, segments and ranges: a short line.
+    Line,
+    /// Points: a dot.
+    Dot,
+}
+
+impl SwatchMark {
+    /// The swatch of the first layer that maps `color` (a square when none does).
+    pub fn of(layers: &[crate::plan::PlannedLayer]) -> SwatchMark {
+        use crate::plan::Geometry as G;
+        match layers.iter().find(|l| l.data.names.contains_key(&Channel::Color)).map(|l| l.geometry) {
+            Some(G::Line | G::Step | G::Segment | G::Range) => SwatchMark::Line,
+            Some(G::Point) => SwatchMark::Dot,
+            _ => SwatchMark::Square,
+        }
+    }
+}
+
 /// What one legend shows.
 #[derive(Debug, Clone)]
 pub enum LegendBody {
-    /// Colour swatches for categories: (label, colour).
-    Swatches(Vec<(String, String)>),
+    /// Colour swatches for categories: (label, colour), drawn in the shape
+    /// of the marks they stand for.
+    Swatches(Vec<(String, String)>, SwatchMark),
     /// A bar of colour samples with tick labels along it.
     Gradient { colors: Vec<String>, ticks: Vec<Tick> },
     /// Circles of the size scale: (label, radius).
@@ -519,7 +543,7 @@ pub struct Legend {
 }
 
 /// The legends the scales call for, in the order colour, size, shape.
-pub fn legends(scales: &Scales, default_color: &str, size: f64) -> Vec<Legend> {
+pub fn legends(scales: &Scales, mark: SwatchMark, size: f64) -> Vec<Legend> {
     let mut out = Vec::new();
     let loc = scales.locale;
     let hidden = |s: &crate::plan::ScaleSpec| s.hide || s.legend == Some(crate::plan::Placement::None);
@@ -530,7 +554,7 @@ pub fn legends(scales: &Scales, default_color: &str, size: f64) -> Vec<Legend> {
         Some(ColorScale::Categories(cats)) if !hidden(&scales.color_spec) => {
             let vals = crate::plan::Values::Text(cats.iter().cloned().map(Some).collect());
             let items = cats.iter().enumerate().map(|(i, c)| (c.clone(), scales.color_of(&vals, i).unwrap_or_default())).collect();
-            out.push(Legend { title: scales.color_title.clone(), body: LegendBody::Swatches(items), channel: Channel::Color, size });
+            out.push(Legend { title: scales.color_title.clone(), body: LegendBody::Swatches(items, mark), channel: Channel::Color, size });
         }
         Some(ColorScale::Ramp { lo, hi }) if !hidden(&scales.color_spec) => {
             let (lo, hi) = (*lo, *hi);
@@ -564,7 +588,6 @@ pub fn legends(scales: &Scales, default_color: &str, size: f64) -> Vec<Legend> {
             }
         }
     }
-    let _ = default_color;
     out
 }
 
@@ -598,7 +621,7 @@ fn title_height(l: &Legend) -> f64 {
 /// Size of a legend laid out as a column.
 pub fn column_size(l: &Legend) -> (f64, f64) {
     let ts = l.size;
-    let tw = text::width(&l.title, ts, true);
+    let tw = text::width(&l.title, ts, false);
     match &l.body {
         LegendBody::Gradient { ticks, .. } => {
             let w = GRADIENT_THICKNESS + 6.0 + widest_label(ticks, ts);
@@ -606,7 +629,7 @@ pub fn column_size(l: &Legend) -> (f64, f64) {
         }
         body => {
             let labels: Vec<&String> = match body {
-                LegendBody::Swatches(i) => i.iter().map(|x| &x.0).collect(),
+                LegendBody::Swatches(i, _) => i.iter().map(|x| &x.0).collect(),
                 LegendBody::Sizes(i) => i.iter().map(|x| &x.0).collect(),
                 LegendBody::Shapes(i) => i.iter().map(|x| &x.0).collect(),
                 LegendBody::Gradient { .. } => vec![],
@@ -628,10 +651,10 @@ fn row_layout(l: &Legend, max_width: f64) -> (Vec<(f64, usize)>, f64, f64) {
     let ts = l.size;
     let body = &l.body;
     if let LegendBody::Gradient { .. } = body {
-        return (vec![], title_height(l) + GRADIENT_THICKNESS + 4.0 + ts * text::LINE_HEIGHT, GRADIENT_LENGTH.max(text::width(&l.title, ts, true)));
+        return (vec![], title_height(l) + GRADIENT_THICKNESS + 4.0 + ts * text::LINE_HEIGHT, GRADIENT_LENGTH.max(text::width(&l.title, ts, false)));
     }
     let labels: Vec<&String> = match body {
-        LegendBody::Swatches(i) => i.iter().map(|x| &x.0).collect(),
+        LegendBody::Swatches(i, _) => i.iter().map(|x| &x.0).collect(),
         LegendBody::Sizes(i) => i.iter().map(|x| &x.0).collect(),
         LegendBody::Shapes(i) => i.iter().map(|x| &x.0).collect(),
         LegendBody::Gradient { .. } => vec![],
@@ -649,7 +672,7 @@ fn row_layout(l: &Legend, max_width: f64) -> (Vec<(f64, usize)>, f64, f64) {
         widest = widest.max(x - 14.0);
     }
     let rows = if pos.is_empty() { 0 } else { row + 1 };
-    (pos, title_height(l) + row_height(body, ts) * rows as f64, widest.max(text::width(&l.title, ts, true)))
+    (pos, title_height(l) + row_height(body, ts) * rows as f64, widest.max(text::width(&l.title, ts, false)))
 }
 
 fn legend_title(l: &Legend, x: f64, y: f64, pal: &Palette) -> Option<Node> {
@@ -660,7 +683,7 @@ fn legend_title(l: &Legend, x: f64, y: f64, pal: &Palette) -> Option<Node> {
         text: l.title.clone(),
         size: ts,
         anchor: Anchor::Start,
-        bold: true,
+        bold: false,
         angle: 0.0,
         fill: pal.text.clone(),
         class: "strata-legend-title".into(),
@@ -669,9 +692,13 @@ fn legend_title(l: &Legend, x: f64, y: f64, pal: &Palette) -> Option<Node> {
 
 fn symbol(body: &LegendBody, i: usize, cx: f64, cy: f64, pal: &Palette, default_color: &str) -> Node {
     match body {
-        LegendBody::Swatches(items) => {
+        LegendBody::Swatches(items, SwatchMark::Square) => {
             Node::Rect { x: cx - SWATCH / 2.0, y: cy - SWATCH / 2.0, width: SWATCH, height: SWATCH, paint: Paint::fill(&items[i].1), datum: None }
         }
+        LegendBody::Swatches(items, SwatchMark::Line) => {
+            Node::Line { x1: cx - SWATCH / 2.0 - 2.0, y1: cy, x2: cx + SWATCH / 2.0 + 2.0, y2: cy, paint: Paint::stroke(&items[i].1, 2.5) }
+        }
+        LegendBody::Swatches(items, SwatchMark::Dot) => Node::Circle { cx, cy, r: SWATCH / 2.0 - 0.5, paint: Paint::fill(&items[i].1), datum: None },
         LegendBody::Sizes(items) => {
             let mut p = Paint::fill(default_color);
             p.opacity = Some(0.6);
@@ -687,7 +714,7 @@ fn symbol(body: &LegendBody, i: usize, cx: f64, cy: f64, pal: &Palette, default_
 
 fn labels_of(body: &LegendBody) -> Vec<String> {
     match body {
-        LegendBody::Swatches(i) => i.iter().map(|x| x.0.clone()).collect(),
+        LegendBody::Swatches(i, _) => i.iter().map(|x| x.0.clone()).collect(),
         LegendBody::Sizes(i) => i.iter().map(|x| x.0.clone()).collect(),
         LegendBody::Shapes(i) => i.iter().map(|x| x.0.clone()).collect(),
         LegendBody::Gradient { .. } => vec![],

@@ -334,7 +334,7 @@ mod document_tests {
         assert!(a.contains("aria-label=\"x: Jan, y: 3.25, color: North &lt;pier&gt;\""));
         // Title and the automatic description.
         assert!(a.contains("<title id=\"") && a.contains("<desc id=\""));
-        assert!(a.contains("Bar chart of v against m, in 2 groups by g"));
+        assert!(a.contains("Bar chart of v against m, in 2 groups by G"));
     }
 
     #[test]

@@ -45,6 +45,19 @@ pub fn advance(c: char, bold: bool) -> f64 {
     }
 }
 
+/// A column name as a reader would write it, for a legend's title: `_` as
+/// spaces, the first letter capitalised (`harbour_kg` -> `Harbour kg`).
+pub fn readable_name(name: &str) -> String {
+    let spaced = name.replace('_', " ");
+    let words: Vec<&str> = spaced.split_whitespace().collect();
+    let joined = words.join(" ");
+    let mut chars = joined.chars();
+    match chars.next() {
+        Some(c) => c.to_uppercase().chain(chars).collect(),
+        None => String::new(),
+    }
+}
+
 /// Width in pixels of `text` at `size` px.
 pub fn width(text: &str, size: f64, bold: bool) -> f64 {
     let em: f64 = text.chars().map(|c| advance(c, bold)).sum();
@@ -162,6 +175,15 @@ mod tests {
             let ours = width(&c.text, c.size, c.weight == "bold");
             assert!((ours - c.width).abs() <= 0.1, "{:?} {} {}px: ours {ours}, browser {}", c.text, c.weight, c.size, c.width);
         }
+    }
+
+    #[test]
+    fn readable_names() {
+        assert_eq!(readable_name("harbour_kg"), "Harbour kg");
+        assert_eq!(readable_name("speed"), "Speed");
+        assert_eq!(readable_name("__a__b"), "A b");
+        assert_eq!(readable_name("été_moyen"), "Été moyen");
+        assert_eq!(readable_name(""), "");
     }
 
     #[test]
