@@ -442,6 +442,34 @@ mod tests {
     }
 
     #[test]
+    fn stylesheet_restyles_every_themed_part_for_auto_and_dark() {
+        // Every part the scene draws in a theme colour is restyled by the
+        // sheet, so "auto" charts follow the reader's dark preference.
+        let css = include_str!("../../../../www/strata-theme.css");
+        for part in [
+            ".strata-title",
+            ".strata-subtitle",
+            ".strata-source",
+            ".strata-tick",
+            ".strata-axis-title",
+            ".strata-legend-title",
+            ".strata-legend-label",
+            ".strata-panel-title",
+            ".strata-note",
+            ".strata-notes line",
+            ".strata-notes rect",
+            ".strata-grid line",
+            ".strata-axis line",
+            ".strata-zero line",
+            ".strata-halo rect",
+            ".strata-background",
+        ] {
+            assert!(css.contains(part), "www/strata-theme.css does not style {part}");
+        }
+        assert!(css.contains("@media (prefers-color-scheme: dark)"));
+    }
+
+    #[test]
     fn wcag_contrast() {
         // WCAG 2.1: black on white is 21:1; #767676 on white is 4.54:1 (from memory).
         assert!((contrast("#000000", "#ffffff").unwrap() - 21.0).abs() < 1e-9);
