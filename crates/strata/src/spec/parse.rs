@@ -117,10 +117,10 @@ mod tests {
             let hint = e[0].hint.as_deref().unwrap_or_default();
             assert!(hint.contains(&format!("`{new}`")), "{spec}: {hint}");
         }
-        // `coords: "flip"` is gone: orientation follows the data.
+        // `coords: "flip"` is gone: orientation is to follow the data.
         let e = errs(r#"{"layers":[{"draw":"bar"}],"coords":"flip"}"#);
         assert_eq!(e[0].at.path, "coords");
-        assert!(e[0].hint.as_deref().unwrap().contains("orientation follows the data"), "{:?}", e[0].hint);
+        assert!(e[0].hint.as_deref().unwrap().contains("orientation is to follow the data"), "{:?}", e[0].hint);
         // `band` stays a fit's key, so it gets no hint there.
         assert!(parse_spec(r#"{"layers":[{"draw":"band","stat":{"fit":"linear","band":0.9}}]}"#).is_ok());
         // The new words read.

@@ -122,7 +122,7 @@ pub const RETIRED: &[(&str, &str)] =
 fn retired_hint(word: &str, accepted: &[&str]) -> Option<String> {
     if word == "flip" && accepted.contains(&"cartesian") {
         return Some(
-            "`flip` is retired: orientation follows the data (put the categories on y for horizontal bars); write `cartesian` or leave `coords` out".into(),
+            "`flip` is retired: orientation is to follow the data (categories on y for horizontal bars), which is not drawn yet; write `cartesian` or leave `coords` out".into(),
         );
     }
     RETIRED.iter().find(|(old, new)| *old == word && accepted.contains(new)).map(|(old, new)| format!("`{old}` is now called `{new}`: did you mean `{new}`?"))
