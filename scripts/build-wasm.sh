@@ -34,7 +34,7 @@ for crate in strata-wasm strata-wasm-arrow; do
   mv "www/pkg/${name}_bg.opt.wasm" "www/pkg/${name}_bg.wasm"
 done
 # The bundled font beside the theme sheet (www/strata-theme.css loads it from fonts/).
-mkdir -p www/fonts && cp fonts/*.ttf fonts/LICENSE-Apache-2.0.txt www/fonts/
+mkdir -p www/fonts && cp fonts/*.ttf fonts/OFL.txt www/fonts/
 gz() { gzip -9c "$1" | wc -c; }
 # Brotli at its highest quality through node's zlib (node is installed for the browser tests).
 br() { node -e 'const z=require("zlib");const b=require("fs").readFileSync(process.argv[1]);process.stdout.write(String(z.brotliCompressSync(b,{params:{[z.constants.BROTLI_PARAM_QUALITY]:11,[z.constants.BROTLI_PARAM_SIZE_HINT]:b.length}}).length))' "$1"; }

@@ -17,7 +17,7 @@ rm -rf "$dir"
 mkdir -p "$dir/pkg" "$dir/fonts"
 cp www/strata-chart.js www/strata-theme.css package/strata-chart.d.ts package/README.md "$dir/"
 cp www/pkg/*.js www/pkg/*.wasm "$dir/pkg/"
-cp fonts/*.ttf fonts/LICENSE-Apache-2.0.txt "$dir/fonts/"
+cp fonts/*.ttf fonts/OFL.txt "$dir/fonts/"
 # The package's version is the workspace's.
 version=$(sed -n 's/^version = "\([0-9][^"]*\)"/\1/p' Cargo.toml | head -1)
 sed "s/\"version\": \"0.0.0\"/\"version\": \"$version\"/" package/package.json >"$dir/package.json"

@@ -461,13 +461,13 @@ let fontFaces;
 function fontCss() {
   fontFaces ??= Promise.all(
     [
-      ['OpenSans-Regular.ttf', 400],
-      ['OpenSans-Bold.ttf', 700],
+      ['AtkinsonHyperlegibleNext-Regular.ttf', 400],
+      ['AtkinsonHyperlegibleNext-Bold.ttf', 700],
     ].map(async ([file, weight]) => {
       const res = await fetch(new URL(`fonts/${file}`, import.meta.url));
       if (!res.ok) throw new Error(`HTTP ${res.status}`);
       const data = base64(new Uint8Array(await res.arrayBuffer()));
-      return `@font-face{font-family:"Open Sans";font-weight:${weight};src:url(data:font/ttf;base64,${data}) format("truetype")}`;
+      return `@font-face{font-family:"Atkinson Hyperlegible Next";font-weight:${weight};src:url(data:font/ttf;base64,${data}) format("truetype")}`;
     })
   )
     .then((rules) => rules.join(''))

@@ -79,10 +79,10 @@ function adoptStyles() {
     const sheet = new CSSStyleSheet();
     sheet.replaceSync(
       'strata-chart{display:block;max-width:100%;position:relative}' +
-      'strata-chart>.strata-tip{position:absolute;z-index:1;pointer-events:none;max-width:18em;' +
+      'strata-chart>.strata-tooltip{position:absolute;z-index:1;pointer-events:none;max-width:18em;' +
       'font:13px/1.35 system-ui,sans-serif;padding:.3em .55em;border-radius:3px;' +
-      'color:var(--strata-tip-text,#fff);background:var(--strata-tip-background,#1d232b)}' +
-      'strata-chart>.strata-tip[hidden]{display:none}' +
+      'color:var(--strata-tooltip-text,#fff);background:var(--strata-tooltip-background,#1d232b)}' +
+      'strata-chart>.strata-tooltip[hidden]{display:none}' +
       'strata-chart>svg.strata{display:block;max-width:100%;height:auto}' +
       'strata-chart>details.strata-data{font:13px/1.4 system-ui,sans-serif;margin:.25em 0 0}' +
       'strata-chart>details.strata-data>summary{cursor:pointer}' +
@@ -155,23 +155,23 @@ export class StrataChart extends HTMLElement {
     this.#schedule();
   }
 
-  /** A mark with `tip` columns took keyboard focus: show its words beside it. */
+  /** A mark with `tooltip` columns took keyboard focus: show its words beside it. */
   #showTip = (event) => {
     const mark = event.target;
     if (!(mark instanceof SVGElement) || !mark.hasAttribute('tabindex')) return;
-    let tip = this.querySelector(':scope > .strata-tip');
-    if (!tip) {
-      tip = document.createElement('div');
-      tip.className = 'strata-tip';
-      tip.setAttribute('aria-hidden', 'true'); // the mark's aria-label already speaks
-      this.append(tip);
+    let tooltip = this.querySelector(':scope > .strata-tooltip');
+    if (!tooltip) {
+      tooltip = document.createElement('div');
+      tooltip.className = 'strata-tooltip';
+      tooltip.setAttribute('aria-hidden', 'true'); // the mark's aria-label already speaks
+      this.append(tooltip);
     }
-    tip.textContent = mark.getAttribute('aria-label') || '';
+    tooltip.textContent = mark.getAttribute('aria-label') || '';
     const box = this.getBoundingClientRect();
     const at = mark.getBoundingClientRect();
-    tip.style.left = `${Math.round(at.right - box.left + 6)}px`;
-    tip.style.top = `${Math.round(at.top - box.top - 4)}px`;
-    tip.hidden = false;
+    tooltip.style.left = `${Math.round(at.right - box.left + 6)}px`;
+    tooltip.style.top = `${Math.round(at.top - box.top - 4)}px`;
+    tooltip.hidden = false;
   };
 
   /**
@@ -197,8 +197,8 @@ export class StrataChart extends HTMLElement {
   };
 
   #hideTip = () => {
-    const tip = this.querySelector(':scope > .strata-tip');
-    if (tip) tip.hidden = true;
+    const tooltip = this.querySelector(':scope > .strata-tooltip');
+    if (tooltip) tooltip.hidden = true;
   };
 
   disconnectedCallback() {

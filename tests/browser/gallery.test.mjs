@@ -109,20 +109,20 @@ test('the gallery page runs under its strict CSP without errors', () => {
   assert.deepEqual(errors, []);
 });
 
-test('a mark with tip columns takes keyboard focus and shows its words', async () => {
+test('a mark with tooltip columns takes keyboard focus and shows its words', async () => {
   const first = await page.evaluate(() => {
     const mark = document.querySelector('#points svg [tabindex="0"]');
     return { title: mark.querySelector('title')?.textContent, label: mark.getAttribute('aria-label') };
   });
   assert.match(first.title, /tree: T\d\d, planted: \d{4}-\d\d-\d\d/);
   await page.evaluate(() => document.querySelector('#points svg [tabindex="0"]').focus());
-  const tip = await page.evaluate(() => {
-    const t = document.querySelector('#points > .strata-tip');
+  const tooltip = await page.evaluate(() => {
+    const t = document.querySelector('#points > .strata-tooltip');
     return t && !t.hidden ? t.textContent : null;
   });
-  assert.equal(tip, first.label);
+  assert.equal(tooltip, first.label);
   await page.evaluate(() => document.activeElement.blur());
-  assert.ok(await page.evaluate(() => document.querySelector('#points > .strata-tip').hidden));
+  assert.ok(await page.evaluate(() => document.querySelector('#points > .strata-tooltip').hidden));
 });
 
 test('a chart is one tab stop; the arrow keys move between its marks', async () => {
@@ -133,13 +133,13 @@ test('a chart is one tab stop; the arrow keys move between its marks', async () 
   await page.evaluate(() => document.querySelector('#points svg [tabindex="0"]').focus());
   const focused = () => page.evaluate(() => ({
     label: document.activeElement.getAttribute('aria-label'),
-    tip: document.querySelector('#points > .strata-tip').textContent,
+    tooltip: document.querySelector('#points > .strata-tooltip').textContent,
     stops: document.querySelectorAll('#points svg [tabindex="0"]').length,
   }));
   await page.keyboard.press('ArrowRight');
-  assert.deepEqual(await focused(), { label: labels[1], tip: labels[1], stops: 1 });
+  assert.deepEqual(await focused(), { label: labels[1], tooltip: labels[1], stops: 1 });
   await page.keyboard.press('End');
-  assert.deepEqual(await focused(), { label: labels.at(-1), tip: labels.at(-1), stops: 1 });
+  assert.deepEqual(await focused(), { label: labels.at(-1), tooltip: labels.at(-1), stops: 1 });
   await page.keyboard.press('ArrowRight'); // stays on the last
   assert.equal((await focused()).label, labels.at(-1));
   await page.keyboard.press('Home');

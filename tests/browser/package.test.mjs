@@ -42,8 +42,8 @@ test('npm pack gives a tarball with the element, its types, the theme, the fonts
     'package/strata-chart.js',
     'package/strata-chart.d.ts',
     'package/strata-theme.css',
-    'package/fonts/OpenSans-Regular.ttf',
-    'package/fonts/OpenSans-Bold.ttf',
+    'package/fonts/AtkinsonHyperlegibleNext-Regular.ttf',
+    'package/fonts/AtkinsonHyperlegibleNext-Bold.ttf',
     'package/pkg/strata_wasm.js',
     'package/pkg/strata_wasm_bg.wasm',
   ]) {

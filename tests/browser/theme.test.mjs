@@ -30,7 +30,7 @@ async function look(scheme) {
       svgText: el.svgText,
       background: getComputedStyle(bg).fill,
       title: getComputedStyle(title).fill,
-      font: [...document.fonts].some((f) => f.family.replace(/"/g, '') === 'Open Sans' && f.status === 'loaded'),
+      font: [...document.fonts].some((f) => f.family.replace(/"/g, '') === 'Atkinson Hyperlegible Next' && f.status === 'loaded'),
     };
   });
   await page.close();
@@ -52,5 +52,5 @@ test('auto theme: light and dark readers see their colours, from the same bytes'
 
 test('the bundled font loads from the theme sheet', async () => {
   const light = await look('light');
-  assert.ok(light.font, 'Open Sans loaded');
+  assert.ok(light.font, 'Atkinson Hyperlegible Next loaded');
 });

@@ -145,12 +145,12 @@ case("size", "stroke width 1,000 draws", point(layers=[{"draw": "line", "x": "a"
 # ---- XML 1.0 forbidden characters and markup in every text
 for ch, label in [("\u0001", "U+0001"), ("\u000b", "U+000B"), ("\u001f", "U+001F"), ("\ufffe", "U+FFFE"), ("\uffff", "U+FFFF"), ("\u0000", "U+0000")]:
     s = {"title": f"t{ch}", "subtitle": f"s{ch}", "data": {"rows": [{"a": 1, "b": 2, "k": f"x{ch}"}, {"a": 2, "b": 3, "k": f"y{ch}"}]},
-         "layers": [{"draw": "bar", "x": "k", "y": "b", "tip": ["k"]}], "scales": {"y": {"title": f"y{ch}"}}}
-    case("xml", f"{label} in titles, categories and tips", s)
+         "layers": [{"draw": "bar", "x": "k", "y": "b", "tooltip": ["k"]}], "scales": {"y": {"title": f"y{ch}"}}}
+    case("xml", f"{label} in titles, categories and tooltips", s)
 for text, label in [("</script><script>alert(1)</script>", "</script>"), ("<!--<script>", "<!--<script>"), ("]]><x>", "CDATA end"),
                     ("\"><svg onload=alert(1)>", "attribute break-out"), ("&amp;&#0;&", "entities"), ("\u202eevil", "bidi override")]:
     s = {"title": text, "data": {"rows": [{"a": 1, "b": 2, "k": text}, {"a": 2, "b": 3, "k": "plain"}]},
-         "layers": [{"draw": "bar", "x": "k", "y": "b", "tip": ["k"]}]}
+         "layers": [{"draw": "bar", "x": "k", "y": "b", "tooltip": ["k"]}]}
     case("markup", f"{label} in data and title", s)
 
 # ---- spec text quirks

@@ -4,7 +4,8 @@
 use resvg::{tiny_skia, usvg};
 
 /// The bundled font files, compiled in.
-const FONTS: [&[u8]; 2] = [include_bytes!("../../../fonts/OpenSans-Regular.ttf"), include_bytes!("../../../fonts/OpenSans-Bold.ttf")];
+const FONTS: [&[u8]; 2] =
+    [include_bytes!("../../../fonts/AtkinsonHyperlegibleNext-Regular.ttf"), include_bytes!("../../../fonts/AtkinsonHyperlegibleNext-Bold.ttf")];
 
 /// Parse options whose font database holds only the bundled font, which is
 /// also every generic family.

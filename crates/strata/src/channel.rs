@@ -14,7 +14,7 @@ pub enum Channel {
     Y,
     /// Where an extent along x ends: a histogram bin's right edge, a tile's right edge.
     XEnd,
-    /// The upper end of a range, ribbon, tile or box whisker (`y` is then the lower end).
+    /// The upper end of a range, band, cell or box whisker (`y` is then the lower end).
     YEnd,
     /// Colour: categories or a ramp.
     Color,
@@ -46,7 +46,7 @@ pub enum Channel {
     BinEnd,
     /// A density estimate's bandwidth.
     Bandwidth,
-    /// The fitted value of a ribbon from a fit.
+    /// The fitted value of a band from a fit.
     Fitted,
     /// `box` or `outlier`, on box plot rows.
     Part,

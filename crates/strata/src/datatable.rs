@@ -76,7 +76,7 @@ fn layer_table(spec: &Spec, plan: &Plan, l: &PlannedLayer, out: &mut String) {
         }
         cols.push((name, k, v));
     }
-    let tips: Vec<&(String, Values)> = d.tips.iter().filter(|(c, v)| v.len() == d.len && !d.names.values().any(|n| n == c)).collect();
+    let tips: Vec<&(String, Values)> = d.tooltips.iter().filter(|(c, v)| v.len() == d.len && !d.names.values().any(|n| n == c)).collect();
     let shown = d.len.min(MAX_ROWS);
     let rows = if d.len == 1 { "1 row".to_string() } else { format!("{} rows", format::value_label_in(d.len as f64, loc)) };
     let more = if d.len > shown { format!(", the first {} shown", format::value_label_in(shown as f64, loc)) } else { String::new() };
@@ -158,7 +158,7 @@ mod tests {
     #[test]
     fn text_is_escaped_and_rows_capped() {
         let rows: Vec<String> = (0..600).map(|i| format!(r#"{{"x": {i}, "y": {i}, "who": "<img src=x onerror=alert(1)>"}}"#)).collect();
-        let spec = format!(r#"{{ "data": {{ "rows": [{}] }}, "layers": [ {{ "draw": "point", "x": "x", "y": "y", "tip": ["who"] }} ] }}"#, rows.join(","));
+        let spec = format!(r#"{{ "data": {{ "rows": [{}] }}, "layers": [ {{ "draw": "point", "x": "x", "y": "y", "tooltip": ["who"] }} ] }}"#, rows.join(","));
         let t = table(&spec);
         assert!(!t.contains("<img"), "markup from data must be text");
         assert!(t.contains("&lt;img src=x onerror=alert(1)&gt;"));

@@ -41,9 +41,9 @@ fn an_unknown_delimiter_is_a_located_error() {
 
 #[test]
 fn every_key_is_drawn_without_a_warning() {
-    // Panel grids, free scales, tips, and notes in either coordinate system are drawn: no warning.
+    // Panel grids, independent scales, tooltips, and notes in either coordinate system are drawn: no warning.
     let data = Some(DataBytes { bytes: b"station,rain\nA,1\nB,2\n", name: "d.csv" });
-    let spec = r#"{"layers":[{"draw":"bar","x":"station","y":"rain","tip":["rain"]}],"panels":{"rows":"station","free":"y"},"notes":[{"x":"A","text":"wet"}]}"#;
+    let spec = r#"{"layers":[{"draw":"bar","x":"station","y":"rain","tooltip":["rain"]}],"panels":{"rows":"station","independent":"y"},"notes":[{"x":"A","text":"wet"}]}"#;
     let r = render(spec, data, &RenderOptions::default()).unwrap();
     assert!(r.warnings.is_empty(), "{:?}", r.warnings);
     let spec = r#"{"layers":[{"draw":"bar","x":"station","y":"rain"}],"coords":{"kind":"polar"},"notes":[{"x":"A","text":"wet"}]}"#;
@@ -58,7 +58,7 @@ fn panel_keys_that_change_nothing_say_so() {
         let r = render(spec, data, &RenderOptions::default()).unwrap();
         r.warnings.iter().filter(|w| w.code == "spec.no_effect").map(|w| w.at.path.clone()).collect()
     };
-    assert_eq!(paths(r#"{"layers":[{"draw":"bar","x":"station","y":"rain"}],"panels":{"free":"y"}}"#), vec!["panels"]);
+    assert_eq!(paths(r#"{"layers":[{"draw":"bar","x":"station","y":"rain"}],"panels":{"independent":"y"}}"#), vec!["panels"]);
     assert_eq!(paths(r#"{"layers":[{"draw":"bar","x":"station","y":"rain"}],"panels":{"rows":"station","columns":2}}"#), vec!["panels.columns"]);
     assert!(paths(r#"{"layers":[{"draw":"bar","x":"station","y":"rain"}],"panels":{"by":"station","columns":2}}"#).is_empty());
 }
@@ -99,8 +99,8 @@ fn a_panel_column_that_is_not_there_is_located() {
 }
 
 #[test]
-fn tips_become_hover_titles_and_focusable_marks() {
-    let spec = r#"{"layers":[{"draw":"point","x":"a","y":"b","tip":["who"]}]}"#;
+fn tooltips_become_hover_titles_and_focusable_marks() {
+    let spec = r#"{"layers":[{"draw":"point","x":"a","y":"b","tooltip":["who"]}]}"#;
     let csv = b"a,b,who\n1,2,<Ann & Bo>\n2,3,Cy\n";
     let r = render(spec, Some(DataBytes { bytes: csv, name: "d.csv" }), &RenderOptions::default()).unwrap();
     // One tab stop for the chart (roving tabindex): the first mark, the rest -1.
@@ -109,15 +109,18 @@ fn tips_become_hover_titles_and_focusable_marks() {
     assert!(r.svg.find("tabindex=\"0\"") < r.svg.find("tabindex=\"-1\""));
     assert!(r.svg.contains("<title>x: 1, y: 2, who: &lt;Ann &amp; Bo&gt;</title></circle>"), "{}", r.svg);
     assert!(r.svg.contains("aria-label=\"x: 2, y: 3, who: Cy\""));
-    // The scene lists the tip values with each mark.
+    // The scene lists the tooltip values with each mark.
     let m = r.scene.marks();
     let Node::Circle { datum: Some(d), .. } = m[1] else { panic!() };
-    assert_eq!(d["tip"]["who"], "Cy");
-    // A tip column that is not there is located.
-    let e =
-        render(r#"{"layers":[{"draw":"point","x":"a","y":"b","tip":["a","whom"]}]}"#, Some(DataBytes { bytes: csv, name: "d.csv" }), &RenderOptions::default())
-            .unwrap_err();
-    assert_eq!(e.0[0].at.path, "layers[0].tip[1]");
+    assert_eq!(d["tooltip"]["who"], "Cy");
+    // A tooltip column that is not there is located.
+    let e = render(
+        r#"{"layers":[{"draw":"point","x":"a","y":"b","tooltip":["a","whom"]}]}"#,
+        Some(DataBytes { bytes: csv, name: "d.csv" }),
+        &RenderOptions::default(),
+    )
+    .unwrap_err();
+    assert_eq!(e.0[0].at.path, "layers[0].tooltip[1]");
 }
 
 #[test]

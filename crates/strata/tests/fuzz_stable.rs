@@ -260,9 +260,9 @@ fn specs_never_panic() {
 #[test]
 fn rendering_never_panics() {
     let mut r = Rng(0x0dd_ba11);
-    let geometries = ["point", "line", "step", "area", "bar", "ribbon", "rule", "label", "tile", "box", "range"];
+    let geometries = ["point", "line", "step", "area", "bar", "band", "segment", "label", "cell", "box", "range"];
     let stats = [
-        "\"identity\"",
+        "\"none\"",
         "\"count\"",
         "\"box\"",
         "{\"bin\":{\"rule\":\"fd\"}}",
@@ -278,13 +278,13 @@ fn rendering_never_panics() {
         "{\"window\":{\"rows\":2,\"summary\":\"running_total\"}}",
     ];
     let arranges = ["none", "stack", "beside", "proportion", "jitter"];
-    let coords = ["\"cartesian\"", "\"flip\"", "{\"kind\":\"polar\",\"angle\":\"x\",\"inner\":0.3}", "{\"kind\":\"polar\",\"angle\":\"y\",\"start\":90}"];
+    let coords = ["\"cartesian\"", "{\"kind\":\"polar\",\"angle\":\"x\",\"inner\":0.3}", "{\"kind\":\"polar\",\"angle\":\"y\",\"start\":90}"];
     let panels = [
         "",
         ",\"panels\":{\"by\":\"g\",\"columns\":2}",
         ",\"panels\":{\"rows\":\"g\",\"cols\":\"h\"}",
-        ",\"panels\":{\"cols\":\"g\",\"free\":\"both\"}",
-        ",\"panels\":{\"by\":\"h\",\"free\":\"y\"}",
+        ",\"panels\":{\"cols\":\"g\",\"independent\":\"both\"}",
+        ",\"panels\":{\"by\":\"h\",\"independent\":\"y\"}",
     ];
     let notes = [
         "",
@@ -412,7 +412,7 @@ fn whole_specs_with_expressions_never_panic() {
         let layer = match r.below(4) {
             0 => serde_json::json!({"draw": "point", "x": "i", "y": y, "color": "c0"}),
             1 => serde_json::json!({"draw": "bar", "x": "c0", "y": "x"}),
-            2 => serde_json::json!({"draw": "line", "x": "d", "y": y, "tip": ["c0", "s"]}),
+            2 => serde_json::json!({"draw": "line", "x": "d", "y": y, "tooltip": ["c0", "s"]}),
             _ => serde_json::json!({"draw": "label", "x": "i", "y": "x", "text": "c0"}),
         };
         let mut spec = serde_json::json!({"derive": derive, "layers": [layer]});

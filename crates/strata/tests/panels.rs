@@ -1,5 +1,5 @@
-//! Panel grids (`panels.rows` / `panels.cols`) and free panel scales
-//! (`panels.free`), checked on the scene: where each panel goes, what
+//! Panel grids (`panels.rows` / `panels.cols`) and independent panel scales
+//! (`panels.independent`), checked on the scene: where each panel goes, what
 //! names it, which axes it draws, what its statistics count, and the
 //! domain of its scales. The expected numbers are worked out by hand from
 //! the small tables written here.
@@ -131,26 +131,32 @@ fn rows_by_cols_grid_places_and_names_every_panel() {
             }
         }
     }
-    // Column values in strips along the top (over the top row only), row
-    // values in strips turned to read down the right side (beside the last
-    // column only).
+    // No turned text: column values read across above the top row, row
+    // values across at the left of each row (left of the axis labels).
+    assert!(f.iter().all(|p| p.strips.iter().all(|s| s.1 == 0.0)), "{f:?}");
+    let cols = ["west", "mid", "east"];
+    let rows = ["north", "south"];
     for col in 0..3 {
         let s = &at(0, col).strips;
-        let top_strip: Vec<_> = s.iter().filter(|s| s.1 == 0.0).collect();
-        assert_eq!(top_strip.len(), 1, "{s:?}");
-        assert_eq!(top_strip[0].0, ["west", "mid", "east"][col]);
-        assert!(top_strip[0].3 < at(0, col).frame.1, "the column strip is above the panel");
-        let (l, r) = (at(0, col).frame.0, at(0, col).frame.2);
-        assert!(top_strip[0].2 > l && top_strip[0].2 < r, "the column strip is over its column");
-        assert!(at(1, col).strips.iter().all(|s| s.1 != 0.0), "no column strip in the second row");
+        let heads: Vec<_> = s.iter().filter(|s| cols.contains(&s.0.as_str())).collect();
+        assert_eq!(heads.len(), 1, "{s:?}");
+        assert_eq!(heads[0].0, cols[col]);
+        assert!(heads[0].3 < at(0, col).frame.1, "the column name is above the panel");
+        assert!(close(heads[0].2, at(0, col).frame.0), "the column name starts over its column");
+        assert!(at(1, col).strips.iter().all(|s| !cols.contains(&s.0.as_str())), "no column name in the second row");
     }
     for row in 0..2 {
-        let side: Vec<_> = at(row, 2).strips.iter().filter(|s| s.1 == 90.0).collect();
-        assert_eq!(side.len(), 1);
-        assert_eq!(side[0].0, ["north", "south"][row]);
-        assert!(side[0].2 > at(row, 2).frame.2, "the row strip is right of the last column");
-        assert!(side[0].3 > at(row, 2).frame.1 && side[0].3 < at(row, 2).frame.3, "the row strip is beside its row");
-        assert!(at(row, 0).strips.iter().chain(&at(row, 1).strips).all(|s| s.1 != 90.0));
+        let side: Vec<_> = at(row, 0).strips.iter().filter(|s| rows.contains(&s.0.as_str())).collect();
+        assert_eq!(side.len(), 1, "{:?}", at(row, 0).strips);
+        assert_eq!(side[0].0, rows[row]);
+        // Its right end clears the widest tick label (12 px, right-aligned 6 px left of the frame).
+        let labels: Vec<&String> = at(row, 0).axes.iter().filter(|(a, _)| a == "strata-axis-left").flat_map(|(_, t)| t.iter()).collect();
+        assert!(!labels.is_empty());
+        let widest = labels.iter().map(|l| strata::text::width(l, 12.0, false)).fold(0.0, f64::max);
+        let name_end = side[0].2 + strata::text::width(&side[0].0, 12.0, true);
+        assert!(name_end <= at(row, 0).frame.0 - 6.0 - widest, "the row name ({name_end}) is left of its row's axis labels");
+        assert!(side[0].3 > at(row, 0).frame.1 && side[0].3 < at(row, 0).frame.3, "the row name is beside its row");
+        assert!(at(row, 1).strips.iter().chain(&at(row, 2).strips).all(|s| !rows.contains(&s.0.as_str())));
     }
     // Shared axes: x under the bottom row only, y left of the left column only.
     for (i, p) in f.iter().enumerate() {
@@ -270,13 +276,13 @@ fn y_per_unit(f: &[Facet]) -> Vec<f64> {
 }
 
 // One panel of small numbers, one of large ones.
-const FREE_CSV: &[u8] = b"g,h,x,y\nsmall,one,1,2\nsmall,one,2,4\nsmall,one,3,9\nlarge,one,10,200\nlarge,one,20,500\nlarge,one,30,900\n";
+const INDEPENDENT_CSV: &[u8] = b"g,h,x,y\nsmall,one,1,2\nsmall,one,2,4\nsmall,one,3,9\nlarge,one,10,200\nlarge,one,20,500\nlarge,one,30,900\n";
 
 #[test]
-fn free_y_fits_each_panel_shared_y_does_not() {
-    let shared = scene(r#"{"layers":[{"draw":"point","x":"x","y":"y"}],"panels":{"cols":"g"}}"#, FREE_CSV);
-    let free = scene(r#"{"layers":[{"draw":"point","x":"x","y":"y"}],"panels":{"cols":"g","free":"y"}}"#, FREE_CSV);
-    let (fs, ff) = (facets(&shared.scene), facets(&free.scene));
+fn independent_y_fits_each_panel_shared_y_does_not() {
+    let shared = scene(r#"{"layers":[{"draw":"point","x":"x","y":"y"}],"panels":{"cols":"g"}}"#, INDEPENDENT_CSV);
+    let independent = scene(r#"{"layers":[{"draw":"point","x":"x","y":"y"}],"panels":{"cols":"g","independent":"y"}}"#, INDEPENDENT_CSV);
+    let (fs, ff) = (facets(&shared.scene), facets(&independent.scene));
     assert_eq!((fs.len(), ff.len()), (2, 2));
     // Shared: one y scale, so a unit of y is as tall in both panels.
     let s = y_per_unit(&fs);
@@ -286,7 +292,7 @@ fn free_y_fits_each_panel_shared_y_does_not() {
     let v = y_per_unit(&ff);
     assert!(v[0] > 10.0 * v[1], "{v:?}");
     assert!(v[0] > 10.0 * s[0], "{v:?} vs {s:?}");
-    // Each free panel draws its own y axis with its own ticks; the shared
+    // Each independent panel draws its own y axis with its own ticks; the shared
     // grid draws one y axis, on the left panel.
     assert!(ff.iter().all(|p| p.has("strata-axis-left")));
     assert_eq!(fs.iter().map(|p| p.has("strata-axis-left")).collect::<Vec<_>>(), vec![true, false]);
@@ -301,9 +307,9 @@ fn free_y_fits_each_panel_shared_y_does_not() {
 }
 
 #[test]
-fn free_x_draws_an_x_axis_in_every_panel() {
-    let spec = r#"{"layers":[{"draw":"point","x":"x","y":"y"}],"panels":{"rows":"g","free":"x"}}"#;
-    let r = scene(spec, FREE_CSV);
+fn independent_x_draws_an_x_axis_in_every_panel() {
+    let spec = r#"{"layers":[{"draw":"point","x":"x","y":"y"}],"panels":{"rows":"g","independent":"x"}}"#;
+    let r = scene(spec, INDEPENDENT_CSV);
     let f = facets(&r.scene);
     assert!(f.iter().all(|p| p.has("strata-axis-bottom")), "{f:#?}");
     // The first row's x ticks stop near 3, the second's reach 30.
@@ -312,23 +318,23 @@ fn free_x_draws_an_x_axis_in_every_panel() {
 }
 
 #[test]
-fn free_y_with_by_fits_each_wrapped_panel() {
-    let shared = facets(&scene(r#"{"layers":[{"draw":"point","x":"x","y":"y"}],"panels":{"by":"g"}}"#, FREE_CSV).scene).len();
+fn independent_y_with_by_fits_each_wrapped_panel() {
+    let shared = facets(&scene(r#"{"layers":[{"draw":"point","x":"x","y":"y"}],"panels":{"by":"g"}}"#, INDEPENDENT_CSV).scene).len();
     assert_eq!(shared, 2);
-    let r = scene(r#"{"layers":[{"draw":"point","x":"x","y":"y"}],"panels":{"by":"g","free":"both"}}"#, FREE_CSV);
+    let r = scene(r#"{"layers":[{"draw":"point","x":"x","y":"y"}],"panels":{"by":"g","independent":"both"}}"#, INDEPENDENT_CSV);
     let v = y_per_unit(&facets(&r.scene));
     assert!(v[0] > 10.0 * v[1], "{v:?}");
     assert!(r.warnings.is_empty(), "{:?}", r.warnings);
 }
 
 #[test]
-fn an_empty_panel_keeps_the_shared_scale_when_free() {
-    // The (south, east) cell is empty: with free y it has no rows to fit,
+fn an_empty_panel_keeps_the_shared_scale_when_independent() {
+    // The (south, east) cell is empty: with independent y it has no rows to fit,
     // so its y axis shows the domain every panel shares (as the shared
     // grid's left panels do), while a panel with rows shows its own.
-    let free = r#"{"layers":[{"draw":"point","x":"a","y":"b"}],"panels":{"rows":"side","cols":"zone","free":"y"}}"#;
+    let independent = r#"{"layers":[{"draw":"point","x":"a","y":"b"}],"panels":{"rows":"side","cols":"zone","independent":"y"}}"#;
     let shared = r#"{"layers":[{"draw":"point","x":"a","y":"b"}],"panels":{"rows":"side","cols":"zone"}}"#;
-    let (rf, rs) = (scene(free, GRID_CSV), scene(shared, GRID_CSV));
+    let (rf, rs) = (scene(independent, GRID_CSV), scene(shared, GRID_CSV));
     let (f, s) = (facets(&rf.scene), facets(&rs.scene));
     let shared_ticks = s[3].ticks("strata-axis-left");
     assert!(shared_ticks.len() >= 2 && shared_ticks.iter().any(|t| *t >= 70.0), "{shared_ticks:?}");

@@ -10,10 +10,10 @@ use strata::{render, RenderOptions};
 fn options() -> usvg::Options<'static> {
     let mut opt = usvg::Options::default();
     let db = opt.fontdb_mut();
-    db.load_font_data(include_bytes!("../../../fonts/OpenSans-Regular.ttf").to_vec());
-    db.load_font_data(include_bytes!("../../../fonts/OpenSans-Bold.ttf").to_vec());
-    db.set_sans_serif_family("Open Sans");
-    opt.font_family = "Open Sans".into();
+    db.load_font_data(include_bytes!("../../../fonts/AtkinsonHyperlegibleNext-Regular.ttf").to_vec());
+    db.load_font_data(include_bytes!("../../../fonts/AtkinsonHyperlegibleNext-Bold.ttf").to_vec());
+    db.set_sans_serif_family("Atkinson Hyperlegible Next");
+    opt.font_family = "Atkinson Hyperlegible Next".into();
     opt
 }
 
@@ -106,52 +106,36 @@ fn blobs_of(p: &Picture, c: [f64; 3], w: u32, h: u32) -> Vec<(f64, f64)> {
     blobs
 }
 
-/// Darkness-weighted centres of non-white runs along row y.
-fn line_cols(p: &Picture, y: u32, w: u32) -> Vec<f64> {
-    let mut out = Vec::new();
-    let mut run: Vec<(u32, f64)> = Vec::new();
-    for x in 0..w {
-        let d = 255.0 - p.rgb(x, y).iter().cloned().fold(255.0, f64::min);
-        if d > 4.0 {
-            run.push((x, d));
-        } else if !run.is_empty() {
-            let s: f64 = run.iter().map(|r| r.1).sum();
-            out.push(run.iter().map(|r| (r.0 as f64 + 0.5) * r.1).sum::<f64>() / s);
-            run.clear();
-        }
-    }
-    out
-}
-
 #[test]
 fn dates_land_on_calendar_grid_lines() {
-    // Points on the first day of each quarter; the time axis ticks quarters,
-    // so each point must sit on a vertical grid line.
+    // Points on the first day of each quarter; the time axis (y, the value
+    // axis, which carries the grid) ticks quarters, so each point must sit
+    // on a horizontal grid line.
     let spec = r#"{
-      "data": { "rows": [ {"d": "2024-01-01", "y": 1}, {"d": "2024-04-01", "y": 2}, {"d": "2024-07-01", "y": 3},
-                          {"d": "2024-10-01", "y": 4}, {"d": "2025-01-01", "y": 5} ], "types": { "d": "date" } },
-      "layers": [ { "draw": "point", "x": "d", "y": "y", "style": { "radius": 4 } } ],
-      "scales": { "x": { "ticks": 5 }, "y": { "domain": [0, 6] } },
-      "size": { "width": 600, "height": 400 },
+      "data": { "rows": [ {"d": "2024-01-01", "x": 1}, {"d": "2024-04-01", "x": 2}, {"d": "2024-07-01", "x": 3},
+                          {"d": "2024-10-01", "x": 4}, {"d": "2025-01-01", "x": 5} ], "types": { "d": "date" } },
+      "layers": [ { "draw": "point", "x": "x", "y": "d", "style": { "radius": 4 } } ],
+      "scales": { "y": { "ticks": 5 }, "x": { "domain": [0, 6] } },
+      "size": { "width": 600, "height": 500 },
       "theme": "light"
     }"#;
     let r = render(spec, None, &RenderOptions::default()).unwrap();
     let p = Picture::new(&r.svg);
-    let mut blobs = blobs_of(&p, hex(strata::color::HARBOUR[0]), 600, 400);
-    blobs.sort_by(|a, b| a.0.total_cmp(&b.0));
+    let mut blobs = blobs_of(&p, hex(strata::color::HARBOUR[0]), 600, 500);
+    blobs.sort_by(|a, b| b.1.total_cmp(&a.1));
     assert_eq!(blobs.len(), 5, "{blobs:?}");
-    // A row between the first two points' heights, clear of horizontal lines.
-    let mut row = ((blobs[0].1 + blobs[1].1) / 2.0).round() as u32;
-    while line_cols(&p, row, 600).len() < 3 || line_cols(&p, row, 600).len() > 20 {
-        row += 1;
+    // A column between the first two points, clear of any vertical line.
+    let mut col = ((blobs[0].0 + blobs[1].0) / 2.0).round() as u32;
+    while line_rows(&p, col, 0, 500).len() < 3 || line_rows(&p, col, 0, 500).len() > 20 {
+        col += 1;
     }
-    let lines = line_cols(&p, row, 600);
+    let lines = line_rows(&p, col, 0, 500);
     for b in &blobs {
-        assert!(lines.iter().any(|l| (l - b.0).abs() <= 1.0), "point at x {} is off the grid {lines:?}", b.0);
+        assert!(lines.iter().any(|l| (l - b.1).abs() <= 1.0), "point at y {} is off the grid {lines:?}", b.1);
     }
     // Quarters differ in length (91, 91, 92, 92 days): spacing follows the calendar.
-    let gaps: Vec<f64> = blobs.windows(2).map(|w| w[1].0 - w[0].0).collect();
-    let per_day = (blobs[4].0 - blobs[0].0) / 366.0;
+    let gaps: Vec<f64> = blobs.windows(2).map(|w| w[0].1 - w[1].1).collect();
+    let per_day = (blobs[0].1 - blobs[4].1) / 366.0;
     for (g, days) in gaps.iter().zip([91.0, 91.0, 92.0, 92.0]) {
         assert!((g - days * per_day).abs() <= 1.0, "{gaps:?}");
     }
@@ -217,11 +201,12 @@ fn bars_land_on_their_values() {
 
 #[test]
 fn points_on_a_log_axis_land_on_their_values() {
-    // 1, 10, 100 on a log x axis: 10 sits midway; y linear 0..10.
+    // 1, 10, 100 on a log y axis (the value axis, with the grid): 10 sits
+    // midway; x linear 0..10.
     let spec = r#"{
-      "data": { "rows": [ {"x": 1, "y": 2}, {"x": 10, "y": 5}, {"x": 100, "y": 8} ] },
+      "data": { "rows": [ {"y": 1, "x": 2}, {"y": 10, "x": 5}, {"y": 100, "x": 8} ] },
       "layers": [ { "draw": "point", "x": "x", "y": "y", "style": { "radius": 4 } } ],
-      "scales": { "x": { "kind": "log", "domain": [1, 100] }, "y": { "domain": [0, 10] } },
+      "scales": { "y": { "kind": "log", "domain": [1, 100] }, "x": { "domain": [0, 10] } },
       "size": { "width": 500, "height": 400 },
       "theme": "light"
     }"#;
@@ -229,35 +214,20 @@ fn points_on_a_log_axis_land_on_their_values() {
     let p = Picture::new(&r.svg);
     let c = hex(strata::color::HARBOUR[0]);
     let mut blobs = blobs_of(&p, c, 500, 400);
-    blobs.sort_by(|a, b| a.0.total_cmp(&b.0));
+    blobs.sort_by(|a, b| b.1.total_cmp(&a.1));
     assert_eq!(blobs.len(), 3, "{blobs:?}");
-    // x: log spacing, so the middle point is halfway between the others.
-    let mid = (blobs[0].0 + blobs[2].0) / 2.0;
-    assert!((blobs[1].0 - mid).abs() <= 1.0, "{blobs:?}");
-    // y: linear, 2, 5, 8 equally spaced; 5 halfway.
-    let ymid = (blobs[0].1 + blobs[2].1) / 2.0;
-    assert!((blobs[1].1 - ymid).abs() <= 1.0, "{blobs:?}");
-    // Against the grid: vertical grid lines at 1, 10, 100 pass through the
-    // points' x. Read a row between two points, clear of horizontal lines.
-    let mut grid_row = ((blobs[0].1 + blobs[1].1) / 2.0).round() as u32;
-    let ink = |x: u32, y: u32| 255.0 - p.rgb(x, y).iter().cloned().fold(255.0, f64::min) > 4.0;
-    while (0..500).filter(|x| ink(*x, grid_row)).count() > 100 {
-        grid_row += 1;
-    }
-    let mut lines: Vec<f64> = Vec::new();
-    let mut run: Vec<(u32, f64)> = Vec::new();
-    for x in 0..500u32 {
-        let d = 255.0 - p.rgb(x, grid_row).iter().cloned().fold(255.0, f64::min);
-        if d > 4.0 {
-            run.push((x, d));
-        } else if !run.is_empty() {
-            let w: f64 = run.iter().map(|r| r.1).sum();
-            lines.push(run.iter().map(|r| (r.0 as f64 + 0.5) * r.1).sum::<f64>() / w);
-            run.clear();
-        }
-    }
+    // y: log spacing, so the middle point is halfway between the others.
+    let mid = (blobs[0].1 + blobs[2].1) / 2.0;
+    assert!((blobs[1].1 - mid).abs() <= 1.0, "{blobs:?}");
+    // x: linear, 2, 5, 8 equally spaced; 5 halfway.
+    let xmid = (blobs[0].0 + blobs[2].0) / 2.0;
+    assert!((blobs[1].0 - xmid).abs() <= 1.0, "{blobs:?}");
+    // Against the grid: horizontal grid lines at 1, 10, 100 pass through the
+    // points' y. Read a column between two points.
+    let col = ((blobs[0].0 + blobs[1].0) / 2.0).round() as u32;
+    let lines = line_rows(&p, col, 0, 400);
     for b in &blobs {
-        assert!(lines.iter().any(|l| (l - b.0).abs() <= 1.0), "point at x {} has no grid line; lines at {lines:?}", b.0);
+        assert!(lines.iter().any(|l| (l - b.1).abs() <= 1.0), "point at y {} has no grid line; lines at {lines:?}", b.1);
     }
 }
 

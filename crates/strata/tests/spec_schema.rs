@@ -162,7 +162,7 @@ fn every_word_is_documented() {
         ("kind", SCALE_KINDS),
         ("axis/legend", PLACEMENTS),
         ("coords", COORD_WORDS),
-        ("free", FREE),
+        ("independent", INDEPENDENT),
         ("theme", THEME_WORDS),
         ("data_table", DATA_TABLE),
         ("style.shape", POINT_SHAPES),

@@ -1,11 +1,13 @@
 """Design and check Strata's categorical palette; write colour fixtures.
 
 Run with /work/venv/bin/python from the repository root:
-    python tests/reference/gen/palette.py [--design]
+    python tests/reference/gen/palette.py [--design-lead | --design]
 
 Generated with numpy 2.4.6 and colour-science 0.4.7 (Python 3.11).
 
---design searches hue angles for the categorical palette "harbour": eight
+--design-lead designs the categorical palette "harbour" as it is now:
+deep teal, copper and slate blue-grey lead, five more hues searched (see
+design_lead). --design was the first version's search: eight
 colours in two matched OKLCH lightness tiers (0.54 and 0.65, alternating
 round the hue circle; a single lightness reached only 0.028 below),
 chroma as high as sRGB allows up to 0.16, hues at least 28 degrees apart,
@@ -199,8 +201,60 @@ def fixtures():
         json.dump({"meta": meta, "matrices": mats, "simulated": sims}, f, indent=0)
 
 
+def design_lead(seed=11, starts=4000):
+    """The palette "harbour" as it is now: three lead hues fixed by intent,
+    the other five searched. 1 deep teal (hue 185-215, lower tier 0.54),
+    2 copper (hue 40-65, upper tier 0.65), 3 slate blue-grey (hue 235-275,
+    upper tier, chroma at most 0.05), then five hues anywhere (tiers
+    0.54, 0.65, 0.54, 0.54, 0.65, so four colours in each tier), chroma at the
+    sRGB limit up to 0.16, each keeping 3:1 against white. Maximise the smallest pairwise OKLab distance
+    over normal vision and full protanopia, deuteranopia and tritanopia
+    (Machado et al. 2009, severity 1.0). color/mod.rs then orders the five
+    searched colours so neighbouring colours differ in tier."""
+    Ls = np.array([0.54, 0.65, 0.65, 0.54, 0.65, 0.54, 0.54, 0.65])
+    caps = np.array([0.16, 0.16, 0.05, 0.16, 0.16, 0.16, 0.16, 0.16])
+
+    def lin_of(x):
+        return tier_lin(Ls, np.minimum(tier_max_chroma(Ls, x, 0.16), caps), x)
+
+    def score(x):
+        # WCAG 2.1 3:1 against white needs relative luminance at most 0.30.
+        rgb = lin_of(x)
+        bright = float(np.max(np.clip(rgb, 0, 1) @ np.array([0.2126, 0.7152, 0.0722])))
+        return fast_min_dist(rgb) - (0 if bright <= 0.295 else 1)
+
+    lo = np.array([185, 40, 235] + [-1e9] * 5)
+    hi = np.array([215, 65, 275] + [1e9] * 5)
+    rng = np.random.default_rng(seed)
+    best = None
+    for _ in range(starts):
+        x = np.concatenate([[rng.uniform(185, 215), rng.uniform(40, 65), rng.uniform(235, 275)], rng.uniform(0, 360, 5)])
+        d = score(x)
+        if best is None or d > best[0]:
+            best = (d, x)
+    d, x = best
+    for step in [8, 4, 2, 1]:
+        improved = True
+        while improved:
+            improved = False
+            for i in range(8):
+                for s in (-step, step):
+                    x2 = x.copy()
+                    x2[i] += s
+                    if lo[i] <= x2[i] <= hi[i]:
+                        d2 = score(x2)
+                        if d2 > d:
+                            d, x, improved = d2, x2, True
+    cols = [srgb_to_hex(enc(c)) for c in lin_of(x)]
+    print("min distance", d, "checked with colour-science:", min_dist([lin(hex_to_srgb(c)) for c in cols]))
+    for h, L, c in zip(x, Ls, cols):
+        print(round(float(h) % 360, 1), L, c)
+
+
 if __name__ == "__main__":
-    if "--design" in sys.argv:
+    if "--design-lead" in sys.argv:
+        design_lead()
+    elif "--design" in sys.argv:
         design()
     else:
         fixtures()

@@ -3,7 +3,7 @@
 //! once here so that the scene reads only the plan.
 
 use crate::color::Palette;
-use crate::spec::{Coords, FreeAxes, Note, Size, Spec, Theme, ThemeBase};
+use crate::spec::{Coords, IndependentAxes, Note, Size, Spec, Theme, ThemeBase};
 
 /// The chart-wide options of a plan.
 #[derive(Debug, Clone, PartialEq)]
@@ -23,6 +23,10 @@ pub struct Chart {
     /// (4 to 72 px); the scene sizes every other text in proportion.
     pub font_size: Option<f64>,
     pub coords: Coords,
+    /// The x scale runs down the page and y across (horizontal bars). No
+    /// spec sets it yet: `coords: "flip"` is retired, and orientation that
+    /// follows the data (categories on y) is still to be planned here.
+    pub transposed: bool,
     pub notes: Vec<Note>,
     pub panels: PanelLayout,
 }
@@ -36,7 +40,7 @@ pub struct PanelLayout {
     pub rows_name: String,
     pub cols_name: String,
     /// Which position scales each panel trains on its own rows: (x, y).
-    pub free: (bool, bool),
+    pub independent: (bool, bool),
 }
 
 impl Chart {
@@ -55,12 +59,13 @@ impl Chart {
                 _ => None,
             },
             coords: spec.coords.clone(),
+            transposed: false,
             notes: spec.notes.clone(),
             panels: PanelLayout {
                 columns: spec.panels.as_ref().and_then(|p| p.columns),
                 rows_name: spec.panels.as_ref().and_then(|p| p.rows.clone()).unwrap_or_default(),
                 cols_name: spec.panels.as_ref().and_then(|p| p.cols.clone()).unwrap_or_default(),
-                free: free_axes(spec),
+                independent: independent_axes(spec),
             },
         }
     }
@@ -79,6 +84,7 @@ impl Default for Chart {
             theme_classes: String::new(),
             font_size: None,
             coords: Coords::default(),
+            transposed: false,
             notes: Vec::new(),
             panels: PanelLayout::default(),
         }
@@ -121,11 +127,11 @@ pub fn palette(theme: &Theme) -> (Palette, String) {
 }
 
 /// Which position scales each panel trains on its own rows: (x, y).
-pub fn free_axes(spec: &Spec) -> (bool, bool) {
-    match spec.panels.as_ref().and_then(|p| p.free) {
-        Some(FreeAxes::X) => (true, false),
-        Some(FreeAxes::Y) => (false, true),
-        Some(FreeAxes::Both) => (true, true),
+pub fn independent_axes(spec: &Spec) -> (bool, bool) {
+    match spec.panels.as_ref().and_then(|p| p.independent) {
+        Some(IndependentAxes::X) => (true, false),
+        Some(IndependentAxes::Y) => (false, true),
+        Some(IndependentAxes::Both) => (true, true),
         None => (false, false),
     }
 }

@@ -20,10 +20,10 @@ pub fn extract(index: usize, layer: &Layer, table: &Table) -> Result<LayerData, 
         out.channels.insert(ch, values);
         out.names.insert(ch, channel.column.clone());
     }
-    for (j, col) in layer.tip.iter().enumerate() {
+    for (j, col) in layer.tooltip.iter().enumerate() {
         match names.iter().position(|n| n == col) {
-            Some(pos) => out.tips.push((col.clone(), to_values(table.column(pos), None))),
-            None => errors.push(unknown_column(col, &names, format!("layers[{index}].tip[{j}]"))),
+            Some(pos) => out.tooltips.push((col.clone(), to_values(table.column(pos), None))),
+            None => errors.push(unknown_column(col, &names, format!("layers[{index}].tooltip[{j}]"))),
         }
     }
     if errors.is_empty() {

@@ -14,7 +14,7 @@ mod stat;
 pub mod summary;
 mod values;
 
-pub use chart::{free_axes, Chart, PanelLayout};
+pub use chart::{independent_axes, Chart, PanelLayout};
 pub use panels::{split as split_panels, PanelPlans, MAX_PANELS};
 pub use scales::{ColorScale, Scales};
 pub use values::{Nums, Values};
@@ -40,9 +40,9 @@ pub struct LayerData {
     pub channels: IndexMap<Channel, Values>,
     /// The column name behind each channel, for axis titles and legends.
     pub names: IndexMap<Channel, String>,
-    /// The layer's `tip` columns, row for row (kept by statistics that keep
+    /// The layer's `tooltip` columns, row for row (kept by statistics that keep
     /// rows; aggregating ones show their own values instead).
-    pub tips: Vec<(String, Values)>,
+    pub tooltips: Vec<(String, Values)>,
 }
 
 impl LayerData {

@@ -10,11 +10,11 @@
 //! Each panel keeps, in every layer, the rows of its panel (a layer
 //! without panel channels is drawn whole in every panel). Scales stay the
 //! ones trained over every panel, so panels compare at a glance; with
-//! `panels.free` the x and/or y scale of each panel is trained again on its
+//! `panels.independent` the x and/or y scale of each panel is trained again on its
 //! own rows. A panel with no rows, or whose rows alone cannot make a scale
 //! (a log axis with nothing above zero), keeps the shared scale.
 
-use super::chart::free_axes;
+use super::chart::independent_axes;
 use super::scales::retrain_positions;
 use super::{LayerData, Plan, PlannedLayer};
 use crate::channel::Channel;
@@ -83,12 +83,12 @@ pub fn check_count(spec: &Spec, layers: &[PlannedLayer]) -> Result<(), Errors> {
 /// has a panel value (the chart is then one plot).
 pub fn split(spec: &Spec, plan: &Plan) -> Option<PanelPlans> {
     let (by, rows, cols) = panel_values(spec, &plan.layers)?;
-    let free = free_axes(spec);
+    let independent = independent_axes(spec);
     if let Some(keys) = by {
         if keys.is_empty() {
             return None;
         }
-        let cells = cut(plan, &[(Channel::Panel, &keys)], free);
+        let cells = cut(plan, &[(Channel::Panel, &keys)], independent);
         return Some(PanelPlans::Wrap { names: keys.into_iter().collect(), cells });
     }
     let (n_rows, n_cols) = (rows.as_ref().map_or(1, IndexSet::len), cols.as_ref().map_or(1, IndexSet::len));
@@ -102,14 +102,14 @@ pub fn split(spec: &Spec, plan: &Plan) -> Option<PanelPlans> {
     if let Some(c) = &cols {
         by_channel.push((Channel::PanelCol, c));
     }
-    let cells = cut(plan, &by_channel, free);
+    let cells = cut(plan, &by_channel, independent);
     let list = |s: Option<IndexSet<String>>| s.map(|s| s.into_iter().collect());
     Some(PanelPlans::Grid { rows: list(rows), cols: list(cols), cells })
 }
 
 /// One plan per cell of the grid the channels span (the first channel's
 /// values vary slowest). Each row goes to its cell in one pass.
-fn cut(plan: &Plan, channels: &[(Channel, &IndexSet<String>)], free: (bool, bool)) -> Vec<Plan> {
+fn cut(plan: &Plan, channels: &[(Channel, &IndexSet<String>)], independent: (bool, bool)) -> Vec<Plan> {
     let n: usize = channels.iter().map(|(_, v)| v.len()).product();
     let mut layers: Vec<Vec<PlannedLayer>> = (0..n).map(|_| Vec::with_capacity(plan.layers.len())).collect();
     for l in &plan.layers {
@@ -139,9 +139,9 @@ fn cut(plan: &Plan, channels: &[(Channel, &IndexSet<String>)], free: (bool, bool
         .into_iter()
         .map(|layers| {
             let mut scales = plan.scales.clone();
-            if (free.0 || free.1) && layers.iter().any(|l| l.data.len > 0) {
+            if (independent.0 || independent.1) && layers.iter().any(|l| l.data.len > 0) {
                 let mut own = scales.clone();
-                if retrain_positions(&layers, &mut own, free.0, free.1).is_ok() {
+                if retrain_positions(&layers, &mut own, independent.0, independent.1).is_ok() {
                     scales = own;
                 }
             }
@@ -156,6 +156,6 @@ fn take_rows(data: &LayerData, rows: &[usize]) -> LayerData {
         len: rows.len(),
         channels: data.channels.iter().map(|(c, vals)| (*c, vals.take(rows))).collect(),
         names: data.names.clone(),
-        tips: data.tips.iter().map(|(c, vals)| (c.clone(), vals.take(rows))).collect(),
+        tooltips: data.tooltips.iter().map(|(c, vals)| (c.clone(), vals.take(rows))).collect(),
     }
 }

@@ -8,6 +8,7 @@ use crate::error::{Diagnostic, Errors};
 use crate::format::{self, Locale};
 use crate::scale::{PositionScale, SizeScale, Transform};
 use crate::spec::{Geometry, ScaleKind, ScaleSpec, Spec};
+use crate::text;
 use std::collections::{HashMap, HashSet};
 
 #[derive(Debug, Clone, PartialEq)]
@@ -118,7 +119,7 @@ const X_CHANNELS: &[Channel] = &[Channel::X, Channel::XEnd];
 const Y_CHANNELS: &[Channel] = &[Channel::Y, Channel::YEnd, Channel::YBase, Channel::YLow, Channel::YHigh];
 
 /// Train the x and/or y scale of `scales` again on `layers` alone (one
-/// panel's rows, for `panels.free`), as [`train`] trains them on every row.
+/// panel's rows, for `panels.independent`), as [`train`] trains them on every row.
 pub fn retrain_positions(layers: &[PlannedLayer], scales: &mut Scales, x: bool, y: bool) -> Result<(), Errors> {
     if x {
         (scales.x, scales.x_nice) = train_position(X_CHANNELS, "x", &scales.x_spec, layers)?;
@@ -135,6 +136,10 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
     let (x, x_nice) = train_position(X_CHANNELS, "x", &x_spec, layers)?;
     let (y, y_nice) = train_position(Y_CHANNELS, "y", &y_spec, layers)?;
     let title = |ch: Channel, s: &ScaleSpec| s.title.clone().unwrap_or_else(|| layers.iter().find_map(|l| l.data.names.get(&ch).cloned()).unwrap_or_default());
+    // Legends: the scale's title, else the column's name made readable.
+    let legend_title = |ch: Channel, s: &ScaleSpec| {
+        s.title.clone().unwrap_or_else(|| layers.iter().find_map(|l| l.data.names.get(&ch).map(|n| text::readable_name(n))).unwrap_or_default())
+    };
     let locale = format::locale(spec.locale.map_or("en", |l| l.word()));
 
     // Colour.
@@ -204,9 +209,9 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
     Ok(Scales {
         x_title: title(Channel::X, &x_spec),
         y_title: title(Channel::Y, &y_spec),
-        color_title: title(Channel::Color, &color_spec),
-        size_title: title(Channel::Size, &size_spec),
-        shape_title: title(Channel::Shape, &shape_spec),
+        color_title: legend_title(Channel::Color, &color_spec),
+        size_title: legend_title(Channel::Size, &size_spec),
+        shape_title: legend_title(Channel::Shape, &shape_spec),
         x,
         y,
         x_nice,

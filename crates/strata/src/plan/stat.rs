@@ -7,7 +7,7 @@
 //!
 //! Output channels (see [`super`] for the list): histograms give `x`/`x_end`
 //! bin edges, `y` and `count`; intervals give `y_low`/`y_high` (and, on
-//! `range`/`rule`/`ribbon` layers, `y`/`y_end` as the bounds with the value
+//! `range`/`segment`/`band` layers, `y`/`y_end` as the bounds with the value
 //! in `estimate`); box plots give one row per box (`part` = `box`) with
 //! `y`/`y_end` the whiskers and `q1`, `median`, `q3`, plus one row per
 //! outlier (`part` = `outlier`).
@@ -49,12 +49,12 @@ pub fn apply(index: usize, layer: &Layer, data: LayerData) -> Result<Stated, Err
     let mut geometry = layer.draw;
     let mut warnings = Vec::new();
     let data = match &layer.stat {
-        Stat::Identity => {
+        Stat::None => {
             if layer.draw == Geometry::Point && layer.style.every_point != Some(true) {
                 let n = count_xy(&data);
                 if n > SCATTER_BIN_THRESHOLD {
                     if let Some(binned) = scatter_tiles(&data) {
-                        geometry = Geometry::Tile;
+                        geometry = Geometry::Cell;
                         warnings.push(
                             Diagnostic::warning(
                                 "stat.scatter_binned",
@@ -258,7 +258,7 @@ fn summarise(index: usize, layer: &Layer, o: &StatObject, word: SummaryWord, dat
     let y = need_numeric(index, &data, Channel::Y, &format!("a `{name}` summary"))?;
     let keys = x_and_group_keys(&data);
     let groups = group_rows(&data, &keys);
-    let bounds_in_y = matches!(layer.draw, Geometry::Range | Geometry::Rule | Geometry::Ribbon) && interval.is_some();
+    let bounds_in_y = matches!(layer.draw, Geometry::Range | Geometry::Segment | Geometry::Band) && interval.is_some();
     let mut out = Out::new();
     for (key, rows) in &groups {
         if data.get(Channel::X).is_some() && key[0].is_none() {
@@ -312,7 +312,7 @@ fn binned(index: usize, layer: &Layer, b: &BinSpec, data: LayerData) -> Result<L
     let groups = group_rows(&data, &keys);
     let weights = data.get(Channel::Y).filter(|v| !v.is_discrete());
     let as_density = b.density == Some(true);
-    let edge_channels = matches!(layer.draw, Geometry::Bar | Geometry::Tile);
+    let edge_channels = matches!(layer.draw, Geometry::Bar | Geometry::Cell);
     let mut out = Out::new();
     for rows in groups.values() {
         let gx: Vec<f64> = rows.iter().filter_map(|i| x.num(*i)).collect();
@@ -484,7 +484,7 @@ fn fitted(index: usize, layer: &Layer, o: &StatObject, kind: FitWord, data: Laye
     };
     let keys = group_keys(&data);
     let groups = group_rows(&data, &keys);
-    let bounds_in_y = layer.draw == Geometry::Ribbon;
+    let bounds_in_y = layer.draw == Geometry::Band;
     let with_band = level > 0.0 && loess_opts.is_none();
     let mut out = Out::new();
     for rows in groups.values() {
@@ -740,7 +740,7 @@ pub const MAX_ELEMENTS: usize = 200_000;
 /// by one, one per series for lines and areas.
 pub fn element_count(geometry: Geometry, data: &LayerData) -> usize {
     match geometry {
-        Geometry::Line | Geometry::Step | Geometry::Area | Geometry::Ribbon => 1,
+        Geometry::Line | Geometry::Step | Geometry::Area | Geometry::Band => 1,
         Geometry::Box => 6 * data.len,
         Geometry::Range => 3 * data.len,
         _ => data.len,
@@ -753,7 +753,7 @@ pub fn too_many_elements(index: usize, geometry: Geometry, n: usize) -> Diagnost
         format!("layer {} would draw about {n} {} marks, more than the {MAX_ELEMENTS} an SVG chart can hold", index + 1, geometry.word()),
     )
     .at_path(format!("layers[{index}].stat"))
-    .with_hint("summarise first: a `{\"bin\": {}}` histogram, `\"count\"`, a `{\"summary\": \"mean\"}`, `{\"density\": {}}`, or leave `every_point` off so a crowded scatter is binned into tiles")
+    .with_hint("summarise first: a `{\"bin\": {}}` histogram, `\"count\"`, a `{\"summary\": \"mean\"}`, `{\"density\": {}}`, or leave `every_point` off so a crowded scatter is binned into cells")
 }
 
 #[cfg(test)]

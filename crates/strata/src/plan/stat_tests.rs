@@ -425,13 +425,13 @@ fn unknown_options_name_their_path() {
 fn geometries_draw() {
     let csv = b"x,y,y2,c,t\n1,2,4,p,one\n2,3,5,p,two\n3,1,6,q,three\n";
     for (geom, extra) in [
-        ("ribbon", r#","y_end":"y2""#),
-        ("rule", r#","y_end":"y2""#),
+        ("band", r#","y_end":"y2""#),
+        ("segment", r#","y_end":"y2""#),
         ("range", r#","y_end":"y2""#),
         ("area", ""),
         ("step", ""),
         ("label", r#","text":"t""#),
-        ("tile", ""),
+        ("cell", ""),
     ] {
         let spec = format!(r#"{{"layers":[{{"draw":"{geom}","x":"x","y":"y"{extra}}}]}}"#);
         let r = run(&spec, csv);
@@ -532,13 +532,13 @@ fn statistics_draw_in_every_coordinate_system() {
         r#"{"draw":"bar","x":"eruptions","stat":{"bin":{"rule":"scott"}}}"#,
         r#"{"draw":"area","x":"eruptions","stat":{"density":{}}}"#,
         r#"{"draw":"line","x":"eruptions","y":"waiting","stat":{"fit":"linear"}}"#,
-        r#"{"draw":"ribbon","x":"eruptions","y":"waiting","stat":{"fit":"linear","band":0.9}}"#,
+        r#"{"draw":"band","x":"eruptions","y":"waiting","stat":{"fit":"linear","band":0.9}}"#,
         r#"{"draw":"line","x":"eruptions","y":"waiting","stat":{"fit":"loess","robust":2}}"#,
         r#"{"draw":"box","x":{"column":"waiting","as":"text"},"y":"eruptions","stat":"box"}"#,
         r#"{"draw":"line","x":"eruptions","y":"waiting","stat":{"window":{"rows":9}}}"#,
         r#"{"draw":"point","x":"eruptions","y":"waiting","arrange":"jitter"}"#,
     ];
-    for coords in [r#""cartesian""#, r#""flip""#, r#"{"kind":"polar"}"#] {
+    for coords in [r#""cartesian""#, r#"{"kind":"polar"}"#] {
         for s in stats {
             let spec = format!(r#"{{"coords":{coords},"layers":[{s}]}}"#);
             let r = run(&spec, FAITHFUL);

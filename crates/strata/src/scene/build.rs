@@ -109,7 +109,7 @@ pub fn build(plan: &Plan, opts: &SceneOptions) -> Scene {
 
     // Legends: a column on the right when wide and the column takes at most
     // a quarter of the width; otherwise rows on top.
-    let legends: Vec<Legend> = guides::legends(scales, &pal.mark, ts);
+    let legends: Vec<Legend> = guides::legends(scales, guides::SwatchMark::of(&plan.layers), ts);
     let mut right = width - pad;
     let mut left = pad;
     let mut legend_nodes = Vec::new();
@@ -201,9 +201,9 @@ fn strip(ts: f64) -> f64 {
     ts * text::LINE_HEIGHT + 2.0
 }
 
-/// The words naming a panel, in its strip.
-fn strip_text(x: f64, y: f64, words: String, anchor: Anchor, angle: f64, pal: &Palette, size: f64) -> Node {
-    Node::Text { x, y, text: words, size, anchor, bold: true, angle, fill: pal.text.clone(), class: "strata-panel-title".into() }
+/// The words naming a panel, row or column: bold, across, no background.
+fn strip_text(x: f64, y: f64, words: String, anchor: Anchor, pal: &Palette, size: f64) -> Node {
+    Node::Text { x, y, text: words, size, anchor, bold: true, angle: 0.0, fill: pal.text.clone(), class: "strata-panel-title".into() }
 }
 
 /// Small multiples by `panels.by`: one panel per value, `panels.columns`
@@ -234,8 +234,8 @@ enum GridNames<'a> {
 /// the right side (read top to bottom), clear of the vertical axes on the
 /// left. All frames are the same size. A shared axis is drawn once per row
 /// or column, along the grid's edge (x under the bottom row, y left of the
-/// left column, or the sides `scales.*.axis` asks for); a free axis
-/// (`panels.free`) in every panel. Axis titles are drawn once, centred on
+/// left column, or the sides `scales.*.axis` asks for); an independent axis
+/// (`panels.independent`) in every panel. Axis titles are drawn once, centred on
 /// the whole grid.
 ///
 /// Wrapped panels (`by`) use the same layout with a strip over every
@@ -253,23 +253,31 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, names: GridNames, cells: &[Plan], ri
     };
     // Whether row r, column c holds a panel (a cross grid is full).
     let exists = |r: usize, c: usize| r * nc + c < cells.len();
-    let flip = matches!(chart.coords, Coords::Flip);
-    let (free_x, free_y) = chart.panels.free;
-    let (free_h, free_v) = if flip { (free_y, free_x) } else { (free_x, free_y) };
-    let (h_spec, v_spec) = if flip { (&plan.scales.y_spec, &plan.scales.x_spec) } else { (&plan.scales.x_spec, &plan.scales.y_spec) };
+    let transposed = chart.transposed;
+    let (independent_x, independent_y) = chart.panels.independent;
+    let (independent_h, independent_v) = if transposed { (independent_y, independent_x) } else { (independent_x, independent_y) };
+    let (h_spec, v_spec) = if transposed { (&plan.scales.y_spec, &plan.scales.x_spec) } else { (&plan.scales.x_spec, &plan.scales.y_spec) };
     let (h_top, v_right) = (h_spec.axis == Some(Placement::Top), v_spec.axis == Some(Placement::Right));
     let (h_title, v_title, _, _) = axis_titles(chart, &plan.scales);
     let (gap_x, gap_y) = panel_gaps(inp.narrow);
     let band = guides::title_band(inp.ts);
-    let row_strip = if rows.is_some() { strip(inp.ts) + 4.0 } else { 0.0 };
+    // Row names read across at the left of each row (bold, up to a fifth of the width).
+    let row_names_w = match rows {
+        Some(rows) => (rows.iter().map(|r| text::width(r, inp.ts, true)).fold(0.0, f64::max) + 10.0).min(inp.width * 0.2),
+        None => 0.0,
+    };
     let col_strip = if cols.is_some() { strip(inp.ts) } else { 0.0 };
     // Wrapped panels: a strip over every panel, so over every row.
     let each_strip = if wrap.is_some() { strip(inp.ts) } else { 0.0 };
 
+    // The vertical title once, across, above the grid where it fits (else turned).
+    let v_above = !v_title.is_empty() && text::width(v_title, inp.ts, false) <= right - inp.left;
+    let v_band = if v_title.is_empty() || v_above { 0.0 } else { band };
     // The room for panels, inside the axis titles and the strips.
-    let x_start = inp.left + if !v_title.is_empty() && !v_right { band } else { 0.0 };
-    let x_end = right - row_strip - if !v_title.is_empty() && v_right { band } else { 0.0 };
-    let strip_top = top + if !h_title.is_empty() && h_top { band } else { 0.0 };
+    let names_left = inp.left + if !v_right { v_band } else { 0.0 };
+    let x_start = names_left + row_names_w;
+    let x_end = right - if v_right { v_band } else { 0.0 };
+    let strip_top = top + if !h_title.is_empty() && h_top { band } else { 0.0 } + if v_above { guides::title_above_height(inp.ts) } else { 0.0 };
     let y_start = strip_top + col_strip;
     let y_end = bottom - if !h_title.is_empty() && !h_top { band } else { 0.0 };
 
@@ -282,8 +290,8 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, names: GridNames, cells: &[Plan], ri
     // column (or over the top row), y beside the first (or last) panel of each row.
     let last_row = |c: usize| (0..nr).rev().find(|r| exists(*r, c)).unwrap_or(0);
     let last_col = |r: usize| (0..nc).rev().find(|c| exists(r, *c)).unwrap_or(0);
-    let draw_h = |r: usize, c: usize| free_h || r == if h_top { 0 } else { last_row(c) };
-    let draw_v = |r: usize, c: usize| free_v || c == if v_right { last_col(r) } else { 0 };
+    let draw_h = |r: usize, c: usize| independent_h || r == if h_top { 0 } else { last_row(c) };
+    let draw_v = |r: usize, c: usize| independent_v || c == if v_right { last_col(r) } else { 0 };
     // Room beside the frame of the panel in row r, column c: left, right,
     // top, bottom. At the grid's outer ends the horizontal labels reach as
     // in a single plot; between columns they share the gap, and take more
@@ -337,22 +345,22 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, names: GridNames, cells: &[Plan], ri
                 // The panel's own strip, at the top of its row's band (over
                 // any top axis).
                 let words = text::fit(&names[i], inp.ts, true, pw);
-                kids.push(strip_text(frame.left, tops[r] - row_top[r] + inp.ts * text::ASCENT, words, Anchor::Start, 0.0, inp.pal, inp.ts));
+                kids.push(strip_text(frame.left, tops[r] - row_top[r] + inp.ts * text::ASCENT, words, Anchor::Start, inp.pal, inp.ts));
                 says.push(names[i].clone());
             }
             if let Some(rows) = rows {
                 says.push(format!("{row_name}: {}", rows[r]));
-                if c == nc - 1 {
-                    let x = x_end + 4.0 + inp.ts * (text::LINE_HEIGHT - text::ASCENT);
-                    let words = text::fit(&rows[r], inp.ts, true, ph);
-                    kids.push(strip_text(x, frame.top + ph / 2.0, words, Anchor::Middle, 90.0, inp.pal, inp.ts));
+                if c == 0 {
+                    // Across, at the left of the row, level with its top.
+                    let words = text::fit(&rows[r], inp.ts, true, row_names_w - 10.0);
+                    kids.push(strip_text(names_left, frame.top + inp.ts * text::ASCENT, words, Anchor::Start, inp.pal, inp.ts));
                 }
             }
             if let Some(cols) = cols {
                 says.push(format!("{col_name}: {}", cols[c]));
                 if r == 0 {
                     let words = text::fit(&cols[c], inp.ts, true, pw);
-                    kids.push(strip_text(frame.left + pw / 2.0, strip_top + inp.ts * text::ASCENT, words, Anchor::Middle, 0.0, inp.pal, inp.ts));
+                    kids.push(strip_text(frame.left, strip_top + inp.ts * text::ASCENT, words, Anchor::Start, inp.pal, inp.ts));
                 }
             }
             kids.extend(plot_draw(inp, &cells[i], &lays[i], frame, draw_h(r, c), draw_v(r, c)));
@@ -373,7 +381,21 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, names: GridNames, cells: &[Plan], ri
         let y = if h_top { top + inp.ts * text::ASCENT } else { y_end + band - inp.ts * text::LINE_HEIGHT + inp.ts * text::ASCENT };
         titles.push(guides::axis_title((span_left + span_right) / 2.0, y, h_title, span_right - span_left, 0.0, inp.pal, inp.ts));
     }
-    if !v_title.is_empty() {
+    if v_above {
+        let y = strip_top - guides::title_above_height(inp.ts) + inp.ts * text::ASCENT;
+        let (x, anchor) = if v_right { (right, Anchor::End) } else { (inp.left, Anchor::Start) };
+        titles.push(Node::Text {
+            x,
+            y,
+            text: v_title.to_string(),
+            size: inp.ts,
+            anchor,
+            bold: false,
+            angle: 0.0,
+            fill: inp.pal.text.clone(),
+            class: "strata-axis-title".into(),
+        });
+    } else if !v_title.is_empty() {
         let (x, angle) = if v_right { (right - inp.ts * text::ASCENT, 90.0) } else { (inp.left + inp.ts * text::ASCENT, -90.0) };
         titles.push(guides::axis_title(x, (span_top + span_bottom) / 2.0, v_title, span_bottom - span_top, angle, inp.pal, inp.ts));
     }
@@ -419,10 +441,10 @@ fn plot_area(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, botto
 
 /// Axis titles and whether each axis shows, horizontal then vertical.
 fn axis_titles<'a>(chart: &Chart, scales: &'a crate::plan::Scales) -> (&'a str, &'a str, bool, bool) {
-    // Axes: the x scale is horizontal unless the coordinates flip it.
-    let flip = matches!(chart.coords, Coords::Flip);
+    // Axes: the x scale is horizontal unless the coordinates are transposed.
+    let transposed = chart.transposed;
     let polar = matches!(chart.coords, Coords::Polar(_));
-    let (h_title, v_title, h_spec, v_spec) = if flip {
+    let (h_title, v_title, h_spec, v_spec) = if transposed {
         (&scales.y_title, &scales.x_title, &scales.y_spec, &scales.x_spec)
     } else {
         (&scales.x_title, &scales.y_title, &scales.x_spec, &scales.y_spec)
@@ -447,6 +469,8 @@ struct PlotLayout {
     v_title: String,
     h_shown: bool,
     v_shown: bool,
+    /// The vertical axis's title goes above it, across (it fits there).
+    v_title_above: bool,
     h_top: bool,
     v_right: bool,
     /// Width of the vertical axis (labels and title) beside the frame.
@@ -465,8 +489,8 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
     let PlotInputs { chart, loc, narrow, pad, width, legend_on_right, .. } = *inp;
     let scales = &plan.scales;
     let mut nice_scales = plan.scales.clone();
-    let flip = matches!(chart.coords, Coords::Flip);
-    let (h_spec, v_spec) = if flip { (&scales.y_spec, &scales.x_spec) } else { (&scales.x_spec, &scales.y_spec) };
+    let transposed = chart.transposed;
+    let (h_spec, v_spec) = if transposed { (&scales.y_spec, &scales.x_spec) } else { (&scales.x_spec, &scales.y_spec) };
     let (h_title, v_title, h_shown, v_shown) = axis_titles(chart, scales);
     let (h_title, v_title) = if titles { (h_title, v_title) } else { ("", "") };
     let wanted = |s: &crate::plan::ScaleSpec, length: f64, per: f64| {
@@ -478,12 +502,12 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
     let max_left = width * if narrow { 0.3 } else { 0.25 };
     // Nice ends for the counts that fit (x along the width, y along the height).
     let (h_len_guess, v_len) = ((right - x0 - 60.0).max(20.0), guess_h);
-    let (x_len, y_len) = if flip { (v_len, h_len_guess) } else { (h_len_guess, v_len) };
+    let (x_len, y_len) = if transposed { (v_len, h_len_guess) } else { (h_len_guess, v_len) };
     if scales.x_nice {
         nice_scales.x = scales.x.nice(wanted(
             &scales.x_spec,
             x_len,
-            if flip {
+            if transposed {
                 50.0
             } else if narrow {
                 70.0
@@ -496,7 +520,7 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
         nice_scales.y = scales.y.nice(wanted(
             &scales.y_spec,
             y_len,
-            if flip {
+            if transposed {
                 if narrow {
                     70.0
                 } else {
@@ -508,14 +532,18 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
         ));
     }
     let scales = &nice_scales;
-    let (h_scale, v_scale) = if flip { (&scales.y, &scales.x) } else { (&scales.x, &scales.y) };
+    let (h_scale, v_scale) = if transposed { (&scales.y, &scales.x) } else { (&scales.x, &scales.y) };
     let v_ticks0 =
         if v_shown { guides::left_ticks(v_scale, guess_h, wanted(v_spec, guess_h, 45.0), v_spec.format.as_deref(), loc, max_left, inp.ts) } else { vec![] };
     let v_label_w = guides::widest_label(&v_ticks0, inp.ts);
     // Placement: the vertical axis left (or right), the horizontal one at the bottom (or top).
     let v_right = v_spec.axis == Some(Placement::Right);
     let h_top = h_spec.axis == Some(Placement::Top);
-    let v_axis_w = if v_shown { guides::left_axis_width(v_label_w, !v_title.is_empty(), inp.ts) } else { 0.0 };
+    // House style: the vertical axis's title once, across, above the axis,
+    // where it fits in the width; else turned along the axis.
+    let v_title_above = v_shown && !v_title.is_empty() && text::width(v_title, inp.ts, false) <= right - x0;
+    let top = if v_title_above { top + guides::title_above_height(inp.ts) } else { top };
+    let v_axis_w = if v_shown { guides::left_axis_width(v_label_w, !v_title.is_empty() && !v_title_above, inp.ts) } else { 0.0 };
     let left = x0 + if v_right { 0.0 } else { v_axis_w };
     let right = if v_right { right - v_axis_w } else { right };
     let frame_w = (right - left).max(20.0);
@@ -578,8 +606,8 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
     } else {
         vec![]
     };
-    // Vertical categories in flipped coordinates run top to bottom.
-    let v_ticks = if flip {
+    // Vertical categories in transposed coordinates run top to bottom.
+    let v_ticks = if transposed {
         v_ticks
             .into_iter()
             .map(|mut t| {
@@ -602,6 +630,7 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
         v_title: v_title.to_string(),
         h_shown,
         v_shown,
+        v_title_above,
         h_top,
         v_right,
         v_axis_w,
@@ -620,9 +649,9 @@ fn plot_draw(inp: &PlotInputs, plan: &Plan, lay: &PlotLayout, frame: Frame, draw
     let pal = pal.clone();
     let mut children = Vec::new();
     let scales = &lay.scales;
-    let flip = matches!(chart.coords, Coords::Flip);
+    let transposed = chart.transposed;
     let polar = matches!(chart.coords, Coords::Polar(_));
-    let (h_scale, v_scale) = if flip { (&scales.y, &scales.x) } else { (&scales.x, &scales.y) };
+    let (h_scale, v_scale) = if transposed { (&scales.y, &scales.x) } else { (&scales.x, &scales.y) };
     let loc = inp.loc;
     // Polar charts: the angle's labels go around the circle, so inset the frame for them.
     let (frame, polar_ticks) = match &chart.coords {
@@ -643,18 +672,21 @@ fn plot_draw(inp: &PlotInputs, plan: &Plan, lay: &PlotLayout, frame: Frame, draw
         }
         _ => (frame, None),
     };
-    let coord = Coord::new(&chart.coords, frame);
+    let coord = Coord::new(&chart.coords, chart.transposed, frame);
     let h_side = if lay.h_top { Side::Top } else { Side::Bottom };
     let v_side = if lay.v_right { Side::Right } else { Side::Left };
-    let h_axis = AxisGuide { side: h_side, scale: h_scale, ticks: lay.h_ticks.clone(), title: &lay.h_title, angle: lay.h_angle, size: inp.ts };
-    let v_axis = AxisGuide { side: v_side, scale: v_scale, ticks: lay.v_ticks.clone(), title: &lay.v_title, angle: 0.0, size: inp.ts };
+    let h_axis =
+        AxisGuide { side: h_side, scale: h_scale, ticks: lay.h_ticks.clone(), title: &lay.h_title, angle: lay.h_angle, size: inp.ts, title_above: false };
+    let v_axis =
+        AxisGuide { side: v_side, scale: v_scale, ticks: lay.v_ticks.clone(), title: &lay.v_title, angle: 0.0, size: inp.ts, title_above: lay.v_title_above };
+    // The value axis: y, across the page unless transposed. Only it gets grid lines.
+    let value_axis = if chart.transposed { &h_axis } else { &v_axis };
 
     if let Some((angle_is_x, a_ticks, r_ticks)) = &polar_ticks {
         children.extend(guides::polar(&coord, *angle_is_x, a_ticks, r_ticks, &pal, inp.ts));
     }
     if !polar {
-        let mut grid = guides::grid(&v_axis, &coord, &pal);
-        grid.extend(guides::grid(&h_axis, &coord, &pal));
+        let grid = guides::grid(value_axis, &coord, &pal);
         children.push(Node::Group { class: "strata-grid".into(), role: None, label: None, children: grid });
     }
     let ctx = Ctx { scales, coord, default_color: &pal.mark, text_size: inp.ts };
@@ -678,6 +710,14 @@ fn plot_draw(inp: &PlotInputs, plan: &Plan, lay: &PlotLayout, frame: Frame, draw
     // Notes go over the marks, inside the plot.
     layers.extend(super::notes::draw(&chart.notes, scales, &coord, &pal, inp.ts));
     children.push(Node::Group { class: "strata-panel".into(), role: Some("graphics-object".into()), label: Some(panel_label(plan)), children: layers });
+    // Polar: the radius's labels over the wedges, on a halo.
+    if let Some((angle_is_x, _, r_ticks)) = &polar_ticks {
+        children.extend(guides::polar_radius_labels(&coord, *angle_is_x, r_ticks, &pal, inp.ts));
+    }
+    // The baseline at zero, over the marks and the axis line it may lie on.
+    if !polar {
+        children.extend(guides::zero_line(value_axis, &coord, &pal));
+    }
     children
 }
 
@@ -886,6 +926,133 @@ mod tests {
         assert!(ticks_left(&left) > ticks_left(&right) + 50.0);
     }
 
+    fn lines_in<'a>(n: &'a Node, class: &str, inside: bool, out: &mut Vec<(f64, f64, f64, f64)>) {
+        match n {
+            Node::Group { children, class: c, .. } => children.iter().for_each(|k| lines_in(k, class, inside || c.split(' ').any(|w| w == class), out)),
+            Node::Line { x1, y1, x2, y2, .. } if inside => out.push((*x1, *y1, *x2, *y2)),
+            _ => {}
+        }
+    }
+
+    fn lines_in_scene(s: &Scene, class: &str, inside: bool, out: &mut Vec<(f64, f64, f64, f64)>) {
+        s.children.iter().for_each(|c| lines_in(c, class, inside, out));
+    }
+
+    #[test]
+    fn house_style_grid_baseline_and_category_ticks() {
+        let bars = r#"{ "data": { "rows": [ {"k": "a", "v": 3}, {"k": "b", "v": 7}, {"k": "c", "v": 5} ] },
+            "layers": [ { "draw": "bar", "x": "k", "y": "v" } ], "scales": { "y": { "title": "Catch (kg)" } } }"#;
+        let s = render(bars, None, &RenderOptions { scene: SceneOptions { width: 640.0 } }).unwrap().scene;
+        let mut grid = Vec::new();
+        lines_in_scene(&s, "strata-grid", false, &mut grid);
+        // Grid along the value axis only: horizontal lines, none for the categories.
+        assert!(grid.len() >= 3 && grid.iter().all(|l| l.1 == l.3), "{grid:?}");
+        // A baseline at zero (bars start there): one line across the frame, at the bottom.
+        let mut zero = Vec::new();
+        lines_in_scene(&s, "strata-zero", false, &mut zero);
+        assert_eq!(zero.len(), 1);
+        let bottom = grid.iter().map(|l| l.1).fold(f64::NEG_INFINITY, f64::max);
+        assert!((zero[0].1 - bottom).abs() < 1e-9 && zero[0].1 == zero[0].3, "{zero:?} {bottom}");
+        // Short tick marks on the category axis: one per category, vertical, 4 px.
+        let mut axis = Vec::new();
+        lines_in_scene(&s, "strata-axis-bottom", false, &mut axis);
+        let marks: Vec<_> = axis.iter().filter(|l| l.0 == l.2).collect();
+        assert_eq!(marks.len(), 3, "{axis:?}");
+        assert!(marks.iter().all(|l| (l.3 - l.1 - guides::TICK_MARK).abs() < 1e-9));
+        // The value axis has no tick marks and its title reads across, above it.
+        let mut left = Vec::new();
+        lines_in_scene(&s, "strata-axis-left", false, &mut left);
+        assert!(left.is_empty(), "{left:?}");
+        let title = all(&s, "strata-axis-title").into_iter().find(|t| t.2 == "Catch (kg)").unwrap();
+        let top_tick = all(&s, "strata-tick").iter().map(|t| t.1).fold(f64::INFINITY, f64::min);
+        assert!(title.1 < top_tick, "{title:?}");
+        assert!(!svg_has_turned_text(&s));
+        // A value domain clear of zero gets no baseline.
+        let pts = r#"{ "data": { "rows": [ {"x": 1, "y": 30}, {"x": 2, "y": 40} ] }, "layers": [ { "draw": "point", "x": "x", "y": "y" } ] }"#;
+        let s = render(pts, None, &RenderOptions { scene: SceneOptions { width: 640.0 } }).unwrap().scene;
+        let mut zero = Vec::new();
+        lines_in_scene(&s, "strata-zero", false, &mut zero);
+        assert!(zero.is_empty(), "{zero:?}");
+    }
+
+    #[test]
+    fn polar_radius_labels_sit_on_a_halo_over_the_wedges() {
+        let spec = r#"{ "data": { "rows": [ {"d": "N", "h": 120}, {"d": "E", "h": 300}, {"d": "S", "h": 90}, {"d": "W", "h": 200} ] },
+            "layers": [ { "draw": "bar", "x": "d", "y": "h" } ], "coords": "polar" }"#;
+        let s = render(spec, None, &RenderOptions { scene: SceneOptions { width: 500.0 } }).unwrap().scene;
+        fn classes(n: &Node, out: &mut Vec<String>) {
+            if let Node::Group { class, children, .. } = n {
+                out.push(class.clone());
+                children.iter().for_each(|c| classes(c, out));
+            }
+        }
+        let mut order = Vec::new();
+        s.children.iter().for_each(|c| classes(c, &mut order));
+        let marks = order.iter().position(|c| c.contains("strata-bar")).expect("a bar layer");
+        let radius = order.iter().position(|c| c == "strata-axis strata-axis-radius").expect("radius labels");
+        assert!(radius > marks, "radius labels are drawn after the wedges: {order:?}");
+        // One halo under each radius label.
+        let labels = s.children.iter().find_map(|c| match c {
+            Node::Group { class, children, .. } if class == "strata-axis strata-axis-radius" => Some(children),
+            _ => None,
+        });
+        let kids = labels.unwrap();
+        let halos = kids.iter().filter(|k| matches!(k, Node::Group { class, .. } if class == "strata-halo")).count();
+        let texts = kids.iter().filter(|k| matches!(k, Node::Text { .. })).count();
+        assert!(texts >= 2 && halos == texts, "{halos} halos for {texts} labels");
+    }
+
+    #[test]
+    fn legend_swatches_take_the_layer_shape_and_a_readable_title() {
+        let rows = r#"{ "rows": [ {"m": 1, "v": 3, "harbour_kg": "a"}, {"m": 2, "v": 5, "harbour_kg": "b"} ] }"#;
+        let legend = |draw: &str, scales: &str| {
+            let spec = format!(r#"{{ "data": {rows}, "layers": [ {{ "draw": "{draw}", "x": "m", "y": "v", "color": "harbour_kg" }} ] {scales} }}"#);
+            let s = render(&spec, None, &RenderOptions { scene: SceneOptions { width: 640.0 } }).unwrap().scene;
+            fn find<'a>(n: &'a Node, out: &mut Vec<&'a Node>, inside: bool) {
+                match n {
+                    Node::Group { class, children, .. } => children.iter().for_each(|c| find(c, out, inside || class.starts_with("strata-legend"))),
+                    n if inside => out.push(n),
+                    _ => {}
+                }
+            }
+            let mut nodes = Vec::new();
+            s.children.iter().for_each(|c| find(c, &mut nodes, false));
+            let title = nodes.iter().find_map(|n| match n {
+                Node::Text { class, text, bold, .. } if class == "strata-legend-title" => Some((text.clone(), *bold)),
+                _ => None,
+            });
+            let kinds: Vec<&str> = nodes
+                .iter()
+                .filter_map(|n| match n {
+                    Node::Rect { .. } => Some("square"),
+                    Node::Line { .. } => Some("line"),
+                    Node::Circle { .. } => Some("dot"),
+                    _ => None,
+                })
+                .collect();
+            (title, kinds)
+        };
+        let (title, kinds) = legend("line", "");
+        assert_eq!(title, Some(("Harbour kg".to_string(), false)));
+        assert_eq!(kinds, ["line", "line"]);
+        assert_eq!(legend("point", "").1, ["dot", "dot"]);
+        assert_eq!(legend("bar", "").1, ["square", "square"]);
+        assert_eq!(legend("area", "").1, ["square", "square"]);
+        // A scale's own title is kept as written.
+        assert_eq!(legend("point", r#", "scales": { "color": { "title": "harbour_kg (raw)" } }"#).0.unwrap().0, "harbour_kg (raw)");
+    }
+
+    fn svg_has_turned_text(s: &Scene) -> bool {
+        fn walk(n: &Node) -> bool {
+            match n {
+                Node::Group { children, .. } => children.iter().any(walk),
+                Node::Text { angle, .. } => *angle != 0.0,
+                _ => false,
+            }
+        }
+        s.children.iter().any(walk)
+    }
+
     #[test]
     fn a_right_axis_title_stays_in_its_band() {
         let spec = r#"{ "data": { "rows": [ {"m": 1, "v": 120000}, {"m": 2, "v": 340000} ] },
@@ -894,12 +1061,14 @@ mod tests {
         let s = render(spec, None, &RenderOptions { scene: SceneOptions { width: 640.0 } }).unwrap().scene;
         let title = all(&s, "strata-axis-title").into_iter().find(|t| t.2 == "Visitors").unwrap();
         // Tick labels start at their x (anchor start) on the right axis.
-        let ticks_end = all(&s, "strata-tick").iter().filter(|t| t.0 > 320.0).map(|t| t.0 + text::width(&t.2, guides::TICK_SIZE, false)).fold(0.0, f64::max);
+        let ticks: Vec<_> = all(&s, "strata-tick").into_iter().filter(|t| t.0 > 320.0).collect();
+        let ticks_end = ticks.iter().map(|t| t.0 + text::width(&t.2, guides::TICK_SIZE, false)).fold(0.0, f64::max);
         let size = guides::TICK_SIZE;
-        // Turned +90 degrees, the title's line box runs from its baseline
-        // (LINE_HEIGHT - ASCENT) to the left, ASCENT to the right.
-        let (box_left, box_right) = (title.0 - size * (text::LINE_HEIGHT - text::ASCENT), title.0 + size * text::ASCENT);
-        assert!(box_left >= ticks_end, "title {box_left} overlaps the tick labels ending at {ticks_end}");
-        assert!(box_right <= 640.0 - 16.0 + 1e-9, "title reaches {box_right}, past the padding");
+        // House style: written across, above the axis, ending where the
+        // widest tick label ends, its line box clear of the top label's.
+        let top_label = ticks.iter().map(|t| t.1).fold(f64::INFINITY, f64::min);
+        assert!((title.0 - ticks_end).abs() <= 1.0, "title ends at {}, labels at {ticks_end}", title.0);
+        assert!(title.1 + size * (text::LINE_HEIGHT - text::ASCENT) <= top_label - size * text::CAP, "title {:?} over labels at {top_label}", title);
+        assert!(title.0 <= 640.0 - 16.0 + 1e-9, "title reaches {}, past the padding", title.0);
     }
 }

@@ -26,7 +26,7 @@ impl Frame {
 pub enum Coord {
     Cartesian(Frame),
     /// The x scale runs down the vertical axis, the y scale across.
-    Flip(Frame),
+    Transposed(Frame),
     Polar {
         frame: Frame,
         angle_is_x: bool,
@@ -42,10 +42,10 @@ pub enum Area {
 }
 
 impl Coord {
-    pub fn new(c: &Coords, frame: Frame) -> Coord {
+    pub fn new(c: &Coords, transposed: bool, frame: Frame) -> Coord {
         match c {
+            Coords::Cartesian if transposed => Coord::Transposed(frame),
             Coords::Cartesian => Coord::Cartesian(frame),
-            Coords::Flip => Coord::Flip(frame),
             Coords::Polar(p) => Coord::Polar { frame, angle_is_x: p.angle == AngleChannel::X, start: p.start, inner: p.inner.clamp(0.0, 0.95) },
         }
     }
@@ -56,7 +56,7 @@ impl Coord {
 
     pub fn frame(&self) -> Frame {
         match self {
-            Coord::Cartesian(f) | Coord::Flip(f) => *f,
+            Coord::Cartesian(f) | Coord::Transposed(f) => *f,
             Coord::Polar { frame, .. } => *frame,
         }
     }
@@ -65,7 +65,7 @@ impl Coord {
     pub fn point(&self, ux: f64, uy: f64) -> (f64, f64) {
         match *self {
             Coord::Cartesian(f) => (f.left + ux * f.width, f.bottom() - uy * f.height),
-            Coord::Flip(f) => (f.left + uy * f.width, f.top + ux * f.height),
+            Coord::Transposed(f) => (f.left + uy * f.width, f.top + ux * f.height),
             Coord::Polar { frame, angle_is_x, start, inner } => {
                 let (a, r) = if angle_is_x { (ux, uy) } else { (uy, ux) };
                 let (cx, cy, radius) = polar_centre(frame);
@@ -79,7 +79,7 @@ impl Coord {
     /// The area between unit corners (x0..x1, y0..y1).
     pub fn area(&self, x0: f64, x1: f64, y0: f64, y1: f64) -> Area {
         match self {
-            Coord::Cartesian(_) | Coord::Flip(_) => {
+            Coord::Cartesian(_) | Coord::Transposed(_) => {
                 let (ax, ay) = self.point(x0, y0);
                 let (bx, by) = self.point(x1, y1);
                 Area::Rect { x: ax.min(bx), y: ay.min(by), width: (ax - bx).abs(), height: (ay - by).abs() }

@@ -44,6 +44,80 @@ pub struct AxisGuide<'a> {
     pub angle: f64,
     /// Text size of its labels and title.
     pub size: f64,
+    /// A vertical axis's title written once, horizontally, above the axis
+    /// (the house style where it fits) rather than turned along it.
+    pub title_above: bool,
+}
+
+/// Length of the short tick marks on a category axis (px).
+pub const TICK_MARK: f64 = 4.0;
+
+/// Short tick marks on a category axis, outward from the frame.
+fn tick_marks(axis: &AxisGuide, f: Frame, pal: &Palette) -> Vec<Node> {
+    if !axis.scale.is_discrete() {
+        return vec![];
+    }
+    let paint = || Paint::stroke(&pal.axis, 1.0);
+    axis.ticks
+        .iter()
+        .map(|t| match axis.side {
+            Side::Bottom => {
+                let x = f.left + t.unit * f.width;
+                Node::Line { x1: x, y1: f.bottom(), x2: x, y2: f.bottom() + TICK_MARK, paint: paint() }
+            }
+            Side::Top => {
+                let x = f.left + t.unit * f.width;
+                Node::Line { x1: x, y1: f.top, x2: x, y2: f.top - TICK_MARK, paint: paint() }
+            }
+            Side::Left => {
+                let y = f.bottom() - t.unit * f.height;
+                Node::Line { x1: f.left, y1: y, x2: f.left - TICK_MARK, y2: y, paint: paint() }
+            }
+            Side::Right => {
+                let y = f.bottom() - t.unit * f.height;
+                Node::Line { x1: f.right(), y1: y, x2: f.right() + TICK_MARK, y2: y, paint: paint() }
+            }
+        })
+        .collect()
+}
+
+/// Room a title written above a vertical axis takes over the frame (px).
+pub fn title_above_height(ts: f64) -> f64 {
+    ts * text::LINE_HEIGHT + GAP
+}
+
+/// A vertical axis's title above it, reading across: its start over the
+/// left axis's labels (or its end over the right axis's).
+fn title_above(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node {
+    let ts = axis.size;
+    let y = f.top - GAP - ts * (text::LINE_HEIGHT - text::ASCENT);
+    let (x, anchor) = match axis.side {
+        Side::Right => (f.right() + GAP + label_width, Anchor::End),
+        _ => (f.left - GAP - label_width, Anchor::Start),
+    };
+    Node::Text { x, y, text: axis.title.to_string(), size: ts, anchor, bold: false, angle: 0.0, fill: pal.text.clone(), class: "strata-axis-title".into() }
+}
+
+/// A stronger line at zero along the value axis, when its domain spans or
+/// touches zero (drawn over the marks).
+pub fn zero_line(axis: &AxisGuide, coord: &Coord, pal: &Palette) -> Option<Node> {
+    let (lo, hi) = axis.scale.domain()?;
+    if !(lo.min(hi) <= 0.0 && hi.max(lo) >= 0.0) {
+        return None;
+    }
+    let u = axis.scale.unit_num(0.0).filter(|u| u.is_finite() && (-1e-9..=1.0 + 1e-9).contains(u))?;
+    let f = coord.frame();
+    let line = match axis.side {
+        Side::Left | Side::Right => {
+            let y = f.bottom() - u * f.height;
+            Node::Line { x1: f.left, y1: y, x2: f.right(), y2: y, paint: Paint::stroke(&pal.text, 1.0) }
+        }
+        Side::Bottom | Side::Top => {
+            let x = f.left + u * f.width;
+            Node::Line { x1: x, y1: f.top, x2: x, y2: f.bottom(), paint: Paint::stroke(&pal.text, 1.0) }
+        }
+    };
+    Some(Node::Group { class: "strata-zero".into(), role: None, label: None, children: vec![line] })
 }
 
 fn label_width(t: &Tick, ts: f64) -> f64 {
@@ -279,6 +353,7 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
     match axis.side {
         Side::Bottom => {
             kids.push(Node::Line { x1: f.left, y1: f.bottom(), x2: f.right(), y2: f.bottom(), paint: Paint::stroke(&pal.axis, 1.0) });
+            kids.extend(tick_marks(axis, f, pal));
             for t in &axis.ticks {
                 let x = f.left + t.unit * f.width;
                 if axis.angle != 0.0 {
@@ -317,17 +392,21 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
             if axis.scale.is_discrete() {
                 kids.push(Node::Line { x1: f.left, y1: f.top, x2: f.left, y2: f.bottom(), paint: Paint::stroke(&pal.axis, 1.0) });
             }
+            kids.extend(tick_marks(axis, f, pal));
             for t in &axis.ticks {
                 let y = f.bottom() - t.unit * f.height;
                 kids.push(label(f.left - GAP, y + ts * text::CAP / 2.0, &t.label, Anchor::End, &pal.muted, "strata-tick", ts));
             }
-            if !axis.title.is_empty() {
+            if !axis.title.is_empty() && axis.title_above {
+                kids.push(title_above(axis, f, pal, label_width));
+            } else if !axis.title.is_empty() {
                 let x = f.left - GAP - label_width - GAP - ts * (text::LINE_HEIGHT - text::ASCENT);
                 kids.push(axis_title(x, f.top + f.height / 2.0, axis.title, f.height, -90.0, pal, ts));
             }
         }
         Side::Top => {
             kids.push(Node::Line { x1: f.left, y1: f.top, x2: f.right(), y2: f.top, paint: Paint::stroke(&pal.axis, 1.0) });
+            kids.extend(tick_marks(axis, f, pal));
             let labels_h = bottom_labels_height(&axis.ticks, axis.angle, ts);
             for t in &axis.ticks {
                 let x = f.left + t.unit * f.width;
@@ -358,11 +437,14 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
             if axis.scale.is_discrete() {
                 kids.push(Node::Line { x1: f.right(), y1: f.top, x2: f.right(), y2: f.bottom(), paint: Paint::stroke(&pal.axis, 1.0) });
             }
+            kids.extend(tick_marks(axis, f, pal));
             for t in &axis.ticks {
                 let y = f.bottom() - t.unit * f.height;
                 kids.push(label(f.right() + GAP, y + ts * text::CAP / 2.0, &t.label, Anchor::Start, &pal.muted, "strata-tick", ts));
             }
-            if !axis.title.is_empty() {
+            if !axis.title.is_empty() && axis.title_above {
+                kids.push(title_above(axis, f, pal, label_width));
+            } else if !axis.title.is_empty() {
                 // Turned to read downward, the line's top faces right: its
                 // baseline sits the line's depth below ascent from the left.
                 let x = f.right() + GAP + label_width + GAP + ts * (text::LINE_HEIGHT - text::ASCENT);
@@ -412,11 +494,35 @@ const GRADIENT_LENGTH: f64 = 120.0;
 const GRADIENT_THICKNESS: f64 = 10.0;
 const GRADIENT_STEPS: usize = 48;
 
+/// The shape of a colour swatch: the layer's own mark in small.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum SwatchMark {
+    /// Bars, areas, bands, cells, boxes and labels.
+    Square,
+    /// Lines, steps, segments and ranges: a short line.
+    Line,
+    /// Points: a dot.
+    Dot,
+}
+
+impl SwatchMark {
+    /// The swatch of the first layer that maps `color` (a square when none does).
+    pub fn of(layers: &[crate::plan::PlannedLayer]) -> SwatchMark {
+        use crate::plan::Geometry as G;
+        match layers.iter().find(|l| l.data.names.contains_key(&Channel::Color)).map(|l| l.geometry) {
+            Some(G::Line | G::Step | G::Segment | G::Range) => SwatchMark::Line,
+            Some(G::Point) => SwatchMark::Dot,
+            _ => SwatchMark::Square,
+        }
+    }
+}
+
 /// What one legend shows.
 #[derive(Debug, Clone)]
 pub enum LegendBody {
-    /// Colour swatches for categories: (label, colour).
-    Swatches(Vec<(String, String)>),
+    /// Colour swatches for categories: (label, colour), drawn in the shape
+    /// of the marks they stand for.
+    Swatches(Vec<(String, String)>, SwatchMark),
     /// A bar of colour samples with tick labels along it.
     Gradient { colors: Vec<String>, ticks: Vec<Tick> },
     /// Circles of the size scale: (label, radius).
@@ -437,7 +543,7 @@ pub struct Legend {
 }
 
 /// The legends the scales call for, in the order colour, size, shape.
-pub fn legends(scales: &Scales, default_color: &str, size: f64) -> Vec<Legend> {
+pub fn legends(scales: &Scales, mark: SwatchMark, size: f64) -> Vec<Legend> {
     let mut out = Vec::new();
     let loc = scales.locale;
     let hidden = |s: &crate::plan::ScaleSpec| s.hide || s.legend == Some(crate::plan::Placement::None);
@@ -448,7 +554,7 @@ pub fn legends(scales: &Scales, default_color: &str, size: f64) -> Vec<Legend> {
         Some(ColorScale::Categories(cats)) if !hidden(&scales.color_spec) => {
             let vals = crate::plan::Values::Text(cats.iter().cloned().map(Some).collect());
             let items = cats.iter().enumerate().map(|(i, c)| (c.clone(), scales.color_of(&vals, i).unwrap_or_default())).collect();
-            out.push(Legend { title: scales.color_title.clone(), body: LegendBody::Swatches(items), channel: Channel::Color, size });
+            out.push(Legend { title: scales.color_title.clone(), body: LegendBody::Swatches(items, mark), channel: Channel::Color, size });
         }
         Some(ColorScale::Ramp { lo, hi }) if !hidden(&scales.color_spec) => {
             let (lo, hi) = (*lo, *hi);
@@ -482,7 +588,6 @@ pub fn legends(scales: &Scales, default_color: &str, size: f64) -> Vec<Legend> {
             }
         }
     }
-    let _ = default_color;
     out
 }
 
@@ -516,7 +621,7 @@ fn title_height(l: &Legend) -> f64 {
 /// Size of a legend laid out as a column.
 pub fn column_size(l: &Legend) -> (f64, f64) {
     let ts = l.size;
-    let tw = text::width(&l.title, ts, true);
+    let tw = text::width(&l.title, ts, false);
     match &l.body {
         LegendBody::Gradient { ticks, .. } => {
             let w = GRADIENT_THICKNESS + 6.0 + widest_label(ticks, ts);
@@ -524,7 +629,7 @@ pub fn column_size(l: &Legend) -> (f64, f64) {
         }
         body => {
             let labels: Vec<&String> = match body {
-                LegendBody::Swatches(i) => i.iter().map(|x| &x.0).collect(),
+                LegendBody::Swatches(i, _) => i.iter().map(|x| &x.0).collect(),
                 LegendBody::Sizes(i) => i.iter().map(|x| &x.0).collect(),
                 LegendBody::Shapes(i) => i.iter().map(|x| &x.0).collect(),
                 LegendBody::Gradient { .. } => vec![],
@@ -546,10 +651,10 @@ fn row_layout(l: &Legend, max_width: f64) -> (Vec<(f64, usize)>, f64, f64) {
     let ts = l.size;
     let body = &l.body;
     if let LegendBody::Gradient { .. } = body {
-        return (vec![], title_height(l) + GRADIENT_THICKNESS + 4.0 + ts * text::LINE_HEIGHT, GRADIENT_LENGTH.max(text::width(&l.title, ts, true)));
+        return (vec![], title_height(l) + GRADIENT_THICKNESS + 4.0 + ts * text::LINE_HEIGHT, GRADIENT_LENGTH.max(text::width(&l.title, ts, false)));
     }
     let labels: Vec<&String> = match body {
-        LegendBody::Swatches(i) => i.iter().map(|x| &x.0).collect(),
+        LegendBody::Swatches(i, _) => i.iter().map(|x| &x.0).collect(),
         LegendBody::Sizes(i) => i.iter().map(|x| &x.0).collect(),
         LegendBody::Shapes(i) => i.iter().map(|x| &x.0).collect(),
         LegendBody::Gradient { .. } => vec![],
@@ -567,7 +672,7 @@ fn row_layout(l: &Legend, max_width: f64) -> (Vec<(f64, usize)>, f64, f64) {
         widest = widest.max(x - 14.0);
     }
     let rows = if pos.is_empty() { 0 } else { row + 1 };
-    (pos, title_height(l) + row_height(body, ts) * rows as f64, widest.max(text::width(&l.title, ts, true)))
+    (pos, title_height(l) + row_height(body, ts) * rows as f64, widest.max(text::width(&l.title, ts, false)))
 }
 
 fn legend_title(l: &Legend, x: f64, y: f64, pal: &Palette) -> Option<Node> {
@@ -578,7 +683,7 @@ fn legend_title(l: &Legend, x: f64, y: f64, pal: &Palette) -> Option<Node> {
         text: l.title.clone(),
         size: ts,
         anchor: Anchor::Start,
-        bold: true,
+        bold: false,
         angle: 0.0,
         fill: pal.text.clone(),
         class: "strata-legend-title".into(),
@@ -587,9 +692,13 @@ fn legend_title(l: &Legend, x: f64, y: f64, pal: &Palette) -> Option<Node> {
 
 fn symbol(body: &LegendBody, i: usize, cx: f64, cy: f64, pal: &Palette, default_color: &str) -> Node {
     match body {
-        LegendBody::Swatches(items) => {
+        LegendBody::Swatches(items, SwatchMark::Square) => {
             Node::Rect { x: cx - SWATCH / 2.0, y: cy - SWATCH / 2.0, width: SWATCH, height: SWATCH, paint: Paint::fill(&items[i].1), datum: None }
         }
+        LegendBody::Swatches(items, SwatchMark::Line) => {
+            Node::Line { x1: cx - SWATCH / 2.0 - 2.0, y1: cy, x2: cx + SWATCH / 2.0 + 2.0, y2: cy, paint: Paint::stroke(&items[i].1, 2.5) }
+        }
+        LegendBody::Swatches(items, SwatchMark::Dot) => Node::Circle { cx, cy, r: SWATCH / 2.0 - 0.5, paint: Paint::fill(&items[i].1), datum: None },
         LegendBody::Sizes(items) => {
             let mut p = Paint::fill(default_color);
             p.opacity = Some(0.6);
@@ -605,7 +714,7 @@ fn symbol(body: &LegendBody, i: usize, cx: f64, cy: f64, pal: &Palette, default_
 
 fn labels_of(body: &LegendBody) -> Vec<String> {
     match body {
-        LegendBody::Swatches(i) => i.iter().map(|x| x.0.clone()).collect(),
+        LegendBody::Swatches(i, _) => i.iter().map(|x| x.0.clone()).collect(),
         LegendBody::Sizes(i) => i.iter().map(|x| x.0.clone()).collect(),
         LegendBody::Shapes(i) => i.iter().map(|x| x.0.clone()).collect(),
         LegendBody::Gradient { .. } => vec![],
@@ -793,15 +902,35 @@ pub fn polar(coord: &Coord, angle_is_x: bool, angle_ticks: &[Tick], radius_ticks
         let baseline = ly + ts * (0.35 + 0.45 * uy);
         labels.push(label(lx, baseline, &t.label, anchor, &pal.muted, "strata-tick", ts));
     }
+    vec![
+        Node::Group { class: "strata-grid".into(), role: None, label: None, children: grid },
+        Node::Group { class: "strata-axis strata-axis-polar".into(), role: None, label: Some("polar axes".into()), children: labels },
+    ]
+}
+
+/// The radius's tick labels along the starting spoke, drawn over the marks
+/// on a halo of the background colour so that wedges never hide them.
+pub fn polar_radius_labels(coord: &Coord, angle_is_x: bool, radius_ticks: &[Tick], pal: &Palette, ts: f64) -> Option<Node> {
+    let at = |angle: f64, radius: f64| if angle_is_x { coord.point(angle, radius) } else { coord.point(radius, angle) };
+    let mut kids = Vec::new();
     for t in radius_ticks {
         if !(0.0..=1.0 + 1e-9).contains(&t.unit) || t.unit <= 1e-9 {
             continue;
         }
         let (x, y) = at(0.0, t.unit);
-        labels.push(label(x + 3.0, y - 3.0, &t.label, Anchor::Start, &pal.muted, "strata-tick", ts));
+        let (lx, ly) = (x + 3.0, y - 3.0);
+        let w = label_width(t, ts);
+        // The halo: the label's line box and 2 px around it.
+        let (top, h) = (ly - ts * text::ASCENT - 2.0, ts * text::LINE_HEIGHT + 4.0);
+        let mut paint = Paint::fill(&pal.background);
+        paint.opacity = Some(0.85);
+        kids.push(Node::Group {
+            class: "strata-halo".into(),
+            role: None,
+            label: None,
+            children: vec![Node::Rect { x: lx - 2.0, y: top, width: w + 4.0, height: h, paint, datum: None }],
+        });
+        kids.push(label(lx, ly, &t.label, Anchor::Start, &pal.muted, "strata-tick", ts));
     }
-    vec![
-        Node::Group { class: "strata-grid".into(), role: None, label: None, children: grid },
-        Node::Group { class: "strata-axis strata-axis-polar".into(), role: None, label: Some("polar axes".into()), children: labels },
-    ]
+    (!kids.is_empty()).then(|| Node::Group { class: "strata-axis strata-axis-radius".into(), role: None, label: Some("radius axis".into()), children: kids })
 }

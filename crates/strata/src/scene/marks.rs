@@ -23,11 +23,11 @@ pub struct Ctx<'a> {
 
 fn datum(layer: &PlannedLayer, i: usize) -> Datum {
     let mut d: Datum = layer.data.channels.iter().filter(|(k, _)| !k.is_drawing_aid()).map(|(k, v)| (k.name().to_string(), v.json(i))).collect();
-    // `tip` columns ride along under one key; the SVG writer turns them into
+    // `tooltip` columns ride along under one key; the SVG writer turns them into
     // a hover title and makes the mark keyboard-focusable.
-    if !layer.data.tips.is_empty() && layer.data.tips.iter().all(|(_, v)| v.len() == layer.data.len) {
-        let tips: serde_json::Map<String, serde_json::Value> = layer.data.tips.iter().map(|(c, v)| (c.clone(), v.json(i))).collect();
-        d.insert("tip".into(), serde_json::Value::Object(tips));
+    if !layer.data.tooltips.is_empty() && layer.data.tooltips.iter().all(|(_, v)| v.len() == layer.data.len) {
+        let tips: serde_json::Map<String, serde_json::Value> = layer.data.tooltips.iter().map(|(c, v)| (c.clone(), v.json(i))).collect();
+        d.insert("tooltip".into(), serde_json::Value::Object(tips));
     }
     d
 }
@@ -57,11 +57,11 @@ pub fn layer_marks(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         Geometry::Line | Geometry::Step => lines(ctx, layer),
         Geometry::Bar => bars(ctx, layer),
         Geometry::Area => bands(ctx, layer, Channel::Y, Band::Base),
-        Geometry::Ribbon => bands(ctx, layer, Channel::Y, Band::End),
-        Geometry::Rule => rules(ctx, layer),
+        Geometry::Band => bands(ctx, layer, Channel::Y, Band::End),
+        Geometry::Segment => segments(ctx, layer),
         Geometry::Range => ranges(ctx, layer),
         Geometry::Box => boxes(ctx, layer),
-        Geometry::Tile => tiles(ctx, layer),
+        Geometry::Cell => cells(ctx, layer),
         Geometry::Label => labels(ctx, layer),
     }
 }
@@ -147,8 +147,8 @@ fn mark_shape(s: PointShape) -> MarkShape {
 fn error_bar(ctx: &Ctx, ux: f64, a: f64, b: f64, cap: f64, c: &str, datum: Option<Datum>) -> Node {
     let p0 = ctx.coord.point(ux, a);
     let p1 = ctx.coord.point(ux, b);
-    let flip = matches!(ctx.coord, Coord::Flip(_));
-    let capped = |p: (f64, f64)| if flip { ((p.0, p.1 - cap), (p.0, p.1 + cap)) } else { ((p.0 - cap, p.1), (p.0 + cap, p.1)) };
+    let transposed = matches!(ctx.coord, Coord::Transposed(_));
+    let capped = |p: (f64, f64)| if transposed { ((p.0, p.1 - cap), (p.0, p.1 + cap)) } else { ((p.0 - cap, p.1), (p.0 + cap, p.1)) };
     let (c0, c1) = capped(p0);
     let (d0, d1) = capped(p1);
     let d = vec![Seg::Move(p0.0, p0.1), Seg::Line(p1.0, p1.1), Seg::Move(c0.0, c0.1), Seg::Line(c1.0, c1.1), Seg::Move(d0.0, d0.1), Seg::Line(d1.0, d1.1)];
@@ -157,13 +157,15 @@ fn error_bar(ctx: &Ctx, ux: f64, a: f64, b: f64, cap: f64, c: &str, datum: Optio
 
 // ------------------------------------------------------------ lines
 
-/// The pixel column coordinate of a unit x (horizontal pixels; vertical when flipped).
+/// The pixel column coordinate of a unit x (horizontal pixels; vertical when transposed).
 fn columns(ctx: &Ctx, units: &[(f64, f64)]) -> Option<(Vec<f64>, Vec<f64>, f64)> {
     match ctx.coord {
         Coord::Cartesian(f) => {
             Some((units.iter().map(|u| f.left + u.0 * f.width).collect(), units.iter().map(|u| f.bottom() - u.1 * f.height).collect(), f.width))
         }
-        Coord::Flip(f) => Some((units.iter().map(|u| f.top + u.0 * f.height).collect(), units.iter().map(|u| f.left + u.1 * f.width).collect(), f.height)),
+        Coord::Transposed(f) => {
+            Some((units.iter().map(|u| f.top + u.0 * f.height).collect(), units.iter().map(|u| f.left + u.1 * f.width).collect(), f.height))
+        }
         Coord::Polar { .. } => None,
     }
 }
@@ -228,7 +230,7 @@ fn line_series(layer: &PlannedLayer) -> Vec<RowSet> {
 fn column_of(ctx: &Ctx) -> Option<(f64, f64)> {
     match ctx.coord {
         Coord::Cartesian(f) => Some((f.left, f.width)),
-        Coord::Flip(f) => Some((f.top, f.height)),
+        Coord::Transposed(f) => Some((f.top, f.height)),
         Coord::Polar { .. } => None,
     }
 }
@@ -386,7 +388,7 @@ fn lines(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     out
 }
 
-// ------------------------------------------------------------ areas and ribbons
+// ------------------------------------------------------------ areas and bands
 
 enum Band {
     /// From `y_base` (or zero) up to `y`.
@@ -512,7 +514,7 @@ fn rect_node(ctx: &Ctx, x0: f64, x1: f64, y0: f64, y1: f64, paint: Paint, datum:
 fn bars(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     let Some(yv) = layer.data.get(Channel::Y) else { return vec![] };
     let base = layer.data.get(Channel::YBase);
-    let fraction = layer.style.band.unwrap_or(0.8).clamp(0.05, 1.0);
+    let fraction = layer.style.share.unwrap_or(0.8).clamp(0.05, 1.0);
     let beside = beside_keys(ctx, layer);
     let (lo, hi) = (layer.data.get(Channel::YLow), layer.data.get(Channel::YHigh));
     let mut out = Vec::with_capacity(layer.data.len);
@@ -535,7 +537,7 @@ fn bars(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
 
 // ------------------------------------------------------------ rules and ranges
 
-fn rules(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
+fn segments(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     let width = layer.style.width.unwrap_or(1.5);
     let (xv, yv) = (layer.data.get(Channel::X), layer.data.get(Channel::Y));
     let (xe, ye) = (layer.data.get(Channel::XEnd), layer.data.get(Channel::YEnd));
@@ -564,7 +566,7 @@ fn rules(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
 
 fn ranges(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     let (Some(xv), Some(yv), Some(ye)) = (layer.data.get(Channel::X), layer.data.get(Channel::Y), layer.data.get(Channel::YEnd)) else {
-        return rules(ctx, layer);
+        return segments(ctx, layer);
     };
     let beside = beside_keys(ctx, layer);
     let mut out = Vec::new();
@@ -593,7 +595,7 @@ fn boxes(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     let d = &layer.data;
     let (Some(yv), Some(ye)) = (d.get(Channel::Y), d.get(Channel::YEnd)) else { return vec![] };
     let part = d.get(Channel::Part);
-    let fraction = layer.style.band.unwrap_or(0.6).clamp(0.05, 1.0);
+    let fraction = layer.style.share.unwrap_or(0.6).clamp(0.05, 1.0);
     let beside = beside_keys(ctx, layer);
     let unit = |ch: Channel, i: usize| d.get(ch).and_then(|v| v.num(i)).and_then(|v| ctx.scales.y.unit_num(v));
     let mut out = Vec::new();
@@ -635,7 +637,7 @@ fn boxes(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
 
 // ------------------------------------------------------------ tiles and labels
 
-fn tiles(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
+fn cells(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     let d = &layer.data;
     let (Some(xv), Some(yv)) = (d.get(Channel::X), d.get(Channel::Y)) else { return vec![] };
     let counts = d.get(Channel::Count);

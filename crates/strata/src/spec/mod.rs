@@ -156,7 +156,7 @@ pub struct Layer {
     pub group: Option<Mapping>,
     /// Columns shown on hover or focus.
     #[serde(default, skip_serializing_if = "Vec::is_empty")]
-    pub tip: Vec<String>,
+    pub tooltip: Vec<String>,
     #[serde(default)]
     pub style: Style,
     #[serde(default)]
@@ -191,9 +191,9 @@ pub struct Style {
     /// Dash pattern in pixels, such as `[4, 2]`.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub dash: Option<Vec<f64>>,
-    /// Fraction of a band a bar fills (0..1).
+    /// Share of its slot a bar or box fills (0..1).
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub band: Option<f64>,
+    pub share: Option<f64>,
     /// Shape of points: `circle`, `square`, `triangle`, `diamond`, `plus`, `cross`.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub shape: Option<PointShape>,
@@ -201,7 +201,7 @@ pub struct Style {
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub font_size: Option<f64>,
     /// Draw every point even when a scatter is crowded enough to be binned
-    /// into tiles.
+    /// into cells.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub every_point: Option<bool>,
 }
@@ -210,8 +210,9 @@ pub struct Style {
 #[derive(Debug, Clone, Default, PartialEq, Serialize)]
 #[serde(untagged)]
 pub enum Stat {
+    /// Rows as they are.
     #[default]
-    Identity,
+    None,
     Count,
     Box,
     Object(StatObject),
@@ -355,7 +356,6 @@ pub struct ScaleSpec {
 pub enum Coords {
     #[default]
     Cartesian,
-    Flip,
     Polar(Polar),
 }
 
@@ -390,7 +390,7 @@ pub struct Panels {
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub cols: Option<String>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub free: Option<FreeAxes>,
+    pub independent: Option<IndependentAxes>,
 }
 
 /// An annotation at data positions: text, a shaded span, or a reference line.

@@ -98,6 +98,39 @@ mod tests {
     }
 
     #[test]
+    fn retired_words_are_refused_with_a_hint_naming_the_new_word() {
+        // (spec, path, new word): each old word fails, and the hint names
+        // its replacement even where edit distance would not find it.
+        let cases = [
+            (r#"{"layers":[{"draw":"point","stat":"identity"}]}"#, "layers[0].stat", "none"),
+            (r#"{"layers":[{"draw":"ribbon"}]}"#, "layers[0].draw", "band"),
+            (r#"{"layers":[{"draw":"bar","style":{"band":0.5}}]}"#, "layers[0].style.band", "share"),
+            (r#"{"layers":[{"draw":"tile"}]}"#, "layers[0].draw", "cell"),
+            (r#"{"layers":[{"draw":"rule"}]}"#, "layers[0].draw", "segment"),
+            (r#"{"layers":[{"draw":"point"}],"panels":{"by":"g","free":"y"}}"#, "panels.free", "independent"),
+            (r#"{"layers":[{"draw":"point","tip":["a"]}]}"#, "layers[0].tip", "tooltip"),
+        ];
+        for (spec, path, new) in cases {
+            let e = errs(spec);
+            assert_eq!(e.len(), 1, "{spec}: {e:?}");
+            assert_eq!(e[0].at.path, path, "{spec}");
+            let hint = e[0].hint.as_deref().unwrap_or_default();
+            assert!(hint.contains(&format!("`{new}`")), "{spec}: {hint}");
+        }
+        // `coords: "flip"` is gone: orientation is to follow the data.
+        let e = errs(r#"{"layers":[{"draw":"bar"}],"coords":"flip"}"#);
+        assert_eq!(e[0].at.path, "coords");
+        assert!(e[0].hint.as_deref().unwrap().contains("orientation is to follow the data"), "{:?}", e[0].hint);
+        // `band` stays a fit's key, so it gets no hint there.
+        assert!(parse_spec(r#"{"layers":[{"draw":"band","stat":{"fit":"linear","band":0.9}}]}"#).is_ok());
+        // The new words read.
+        assert!(parse_spec(
+            r#"{"layers":[{"draw":"cell","stat":"none","tooltip":["a"],"style":{"share":0.5}},{"draw":"segment"}],"panels":{"by":"g","independent":"both"}}"#
+        )
+        .is_ok());
+    }
+
+    #[test]
     fn several_errors_at_once_with_expected_and_found() {
         let e = errs(
             r#"{"titel":"x","size":{"width":"wide"},"layers":[{"draw":"line","colour":"a","style":{"opacity":2}}],

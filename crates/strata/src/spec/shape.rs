@@ -103,13 +103,30 @@ pub const ARRANGES: &[&str] = Arrange::WORDS;
 pub const SCALE_KINDS: &[&str] = ScaleKind::WORDS;
 pub const PLACEMENTS: &[&str] = Placement::WORDS;
 pub const COORD_WORDS: &[&str] = CoordWord::WORDS;
-pub const FREE: &[&str] = FreeAxes::WORDS;
+pub const INDEPENDENT: &[&str] = IndependentAxes::WORDS;
 pub const THEME_WORDS: &[&str] = ThemeWord::WORDS;
 pub const DATA_TABLE: &[&str] = DataTable::WORDS;
 pub const POINT_SHAPES: &[&str] = PointShape::WORDS;
 /// Lint codes that `quiet` may silence: the spec names them, the lint
 /// stage (which reads the spec) raises them.
 pub const LINT_CODES: &[&str] = &["lint.axis_without_zero", "lint.log_bars", "lint.too_many_colors", "lint.polar_angle_not_cyclic", "lint.low_contrast"];
+
+/// Words and keys the spec once used, with the word that replaced each:
+/// an old word gets a hint naming the new one even when edit distance
+/// would not find it. A hint is given only where the new word is one of
+/// the words accepted at that place (`band` is still a statistic's key).
+pub const RETIRED: &[(&str, &str)] =
+    &[("identity", "none"), ("ribbon", "band"), ("band", "share"), ("tile", "cell"), ("rule", "segment"), ("free", "independent"), ("tip", "tooltip")];
+
+/// The hint for an unknown `word` where `accepted` are the words allowed.
+fn retired_hint(word: &str, accepted: &[&str]) -> Option<String> {
+    if word == "flip" && accepted.contains(&"cartesian") {
+        return Some(
+            "`flip` is retired: orientation is to follow the data (categories on y for horizontal bars), which is not drawn yet; write `cartesian` or leave `coords` out".into(),
+        );
+    }
+    RETIRED.iter().find(|(old, new)| *old == word && accepted.contains(new)).map(|(old, new)| format!("`{old}` is now called `{new}`: did you mean `{new}`?"))
+}
 
 /// Named shapes, written once under `$defs` in the schema.
 pub fn defs() -> Vec<(&'static str, Shape, &'static str)> {
@@ -206,19 +223,19 @@ pub fn spec_shape() -> Shape {
         f("width", num(Some(0.0), None), "Stroke width in pixels for lines and outlines."),
         f("radius", num(Some(0.0), None), "Point radius in pixels."),
         f("dash", list(num(Some(0.0), None)), "Dash pattern in pixels, such as [4, 2]."),
-        f("band", num(Some(0.0), Some(1.0)), "Fraction of a band a bar fills, 0 to 1."),
+        f("share", num(Some(0.0), Some(1.0)), "Share of its slot a bar or box fills, 0 to 1."),
         f("shape", Shape::Word(POINT_SHAPES), "Shape of points: circle, square, triangle, diamond, plus, cross."),
         f("font_size", num(Some(0.0), None), "Text size of labels in pixels."),
-        f("every_point", Shape::Bool, "Draw every point even when a scatter is crowded enough to be binned into tiles."),
+        f("every_point", Shape::Bool, "Draw every point even when a scatter is crowded enough to be binned into cells."),
     ]);
     let mut layer_fields = vec![req("draw", Shape::Word(GEOMETRIES), "The geometry.")];
     for ch in CHANNELS {
         layer_fields.push(f(ch, channel(), "A channel: the column mapped to it."));
     }
     layer_fields.extend([
-        f("tip", list(Shape::Text("a column name")), "Columns shown on hover and keyboard focus."),
+        f("tooltip", list(Shape::Text("a column name")), "Columns shown on hover and keyboard focus."),
         f("style", style, "Constant styling of the marks; never data-driven."),
-        f("stat", stat, "The statistic: identity (default), count, box, or an object."),
+        f("stat", stat, "The statistic: none (default), count, box, or an object."),
         f("arrange", Shape::Word(ARRANGES), "Position adjustment: none (default), stack, beside, proportion, jitter."),
     ]);
     let layer = obj(layer_fields);
@@ -251,7 +268,7 @@ pub fn spec_shape() -> Shape {
         f("columns", count(1), "With by: panels per row."),
         f("rows", Shape::Text("a column name"), "One row of panels per value of this column."),
         f("cols", Shape::Text("a column name"), "One column of panels per value of this column."),
-        f("free", Shape::Word(FREE), "Let each panel's scale fit its own data: x, y or both."),
+        f("independent", Shape::Word(INDEPENDENT), "Which position scales each panel fits to its own data: x, y or both."),
     ]);
     let note = obj(vec![
         f("x", position(), "Data position along x: alone, a vertical reference line."),
@@ -293,7 +310,7 @@ pub fn spec_shape() -> Shape {
         f("where", Shape::Text("an expression"), "A SQL-subset condition; rows where it is TRUE are kept."),
         req("layers", list(layer), "The layers, drawn in order, later on top."),
         f("scales", Shape::Map { keys: Some(CHANNELS), value: Box::new(scale) }, "Scales keyed by channel."),
-        f("coords", coords, "Coordinate system: cartesian (default), flip, or polar."),
+        f("coords", coords, "Coordinate system: cartesian (default) or polar."),
         f("panels", panels, "Small multiples."),
         f("notes", list(note), "Annotations: text, shaded spans, reference lines."),
         f("size", size, "The chart's size."),
@@ -391,7 +408,9 @@ pub fn check(v: &Value, shape: &Shape, path: &str, out: &mut Vec<Diagnostic>) {
             let s = v.as_str().unwrap_or_default();
             if !words.contains(&s) {
                 let mut d = Diagnostic::error("spec.unknown_word", format!("`{s}` is not one of {}", join_words(words))).at_path(path);
-                if let Some(near) = closest(s, words.iter().copied()) {
+                if let Some(hint) = retired_hint(s, words) {
+                    d = d.with_hint(hint);
+                } else if let Some(near) = closest(s, words.iter().copied()) {
                     d = d.with_hint(format!("did you mean `{near}`?"));
                 } else if let Some(near) = words.iter().find(|w| w.eq_ignore_ascii_case(s)) {
                     d = d.with_hint(format!("words are lower case: `{near}`"));
@@ -471,9 +490,10 @@ fn wrong_type(shape: &Shape, v: &Value, path: &str) -> Diagnostic {
 fn unknown_key(k: &str, names: &[&str], path: &str) -> Diagnostic {
     let visible: Vec<&str> = names.iter().copied().filter(|n| !n.starts_with('$')).collect();
     let mut d = Diagnostic::error("spec.unknown_key", format!("unknown key `{k}`")).at_path(path);
-    d = match closest(k, names.iter().copied()) {
-        Some(near) => d.with_hint(format!("did you mean `{near}`?")),
-        None => d.with_hint(format!("the keys here are {}", join_words(&visible))),
+    d = match (retired_hint(k, names), closest(k, names.iter().copied())) {
+        (Some(hint), _) => d.with_hint(hint),
+        (None, Some(near)) => d.with_hint(format!("did you mean `{near}`?")),
+        (None, None) => d.with_hint(format!("the keys here are {}", join_words(&visible))),
     };
     d
 }

@@ -56,10 +56,10 @@ words! {
         Step = "step",
         Area = "area",
         Bar = "bar",
-        Ribbon = "ribbon",
-        Rule = "rule",
+        Band = "band",
+        Segment = "segment",
         Label = "label",
-        Tile = "tile",
+        Cell = "cell",
         Box = "box",
         Range = "range",
     }
@@ -87,7 +87,8 @@ words! {
 words! {
     /// The statistics named by a bare word.
     pub enum StatWord {
-        Identity = "identity",
+        /// Rows as they are (the default).
+        None = "none",
         Count = "count",
         Box = "box",
     }
@@ -224,7 +225,6 @@ words! {
     /// Coordinates named by a bare word.
     pub enum CoordWord {
         Cartesian = "cartesian",
-        Flip = "flip",
         Polar = "polar",
     }
 }
@@ -245,7 +245,7 @@ words! {
 
 words! {
     /// Which position scales each panel trains on its own rows.
-    pub enum FreeAxes {
+    pub enum IndependentAxes {
         X = "x",
         Y = "y",
         Both = "both",

@@ -81,10 +81,10 @@ impl FromWord for Mapping {
 word_or_object!(Mapping);
 
 impl FromWord for Stat {
-    const EXPECTED: &'static str = "`identity`, `count`, `box`, or an object with one of `bin`, `summary`, `fit`, `density`, `window`";
+    const EXPECTED: &'static str = "`none`, `count`, `box`, or an object with one of `bin`, `summary`, `fit`, `density`, `window`";
     fn from_word(word: &str) -> Result<Self, String> {
         match StatWord::from_word(word) {
-            Some(StatWord::Identity) => Ok(Stat::Identity),
+            Some(StatWord::None) => Ok(Stat::None),
             Some(StatWord::Count) => Ok(Stat::Count),
             Some(StatWord::Box) => Ok(Stat::Box),
             None => Err(format!(
@@ -105,11 +105,10 @@ impl FromWord for Stat {
 word_or_object!(Stat);
 
 impl FromWord for Coords {
-    const EXPECTED: &'static str = "`cartesian`, `flip`, or an object {\"kind\": \"polar\", ...}";
+    const EXPECTED: &'static str = "`cartesian`, `polar`, or an object {\"kind\": \"polar\", ...}";
     fn from_word(word: &str) -> Result<Self, String> {
         match CoordWord::from_word(word) {
             Some(CoordWord::Cartesian) => Ok(Coords::Cartesian),
-            Some(CoordWord::Flip) => Ok(Coords::Flip),
             Some(CoordWord::Polar) => Ok(Coords::Polar(Polar { kind: PolarKind::Polar, angle: AngleChannel::X, start: 0.0, inner: 0.0 })),
             None => Err(format!("unknown variant `{word}`, expected one of {}", quoted(CoordWord::WORDS))),
         }

@@ -119,10 +119,10 @@ fn value_words(v: &serde_json::Value) -> String {
     }
 }
 
-/// "x: Jan, y: 82, age: 12": a mark's values, then its `tip` columns.
+/// "x: Jan, y: 82, age: 12": a mark's values, then its `tooltip` columns.
 fn datum_words(d: &crate::scene::Datum) -> String {
-    let mut parts: Vec<String> = d.iter().filter(|(k, _)| k.as_str() != "tip").map(|(k, v)| format!("{k}: {}", value_words(v))).collect();
-    if let Some(serde_json::Value::Object(tips)) = d.get("tip") {
+    let mut parts: Vec<String> = d.iter().filter(|(k, _)| k.as_str() != "tooltip").map(|(k, v)| format!("{k}: {}", value_words(v))).collect();
+    if let Some(serde_json::Value::Object(tips)) = d.get("tooltip") {
         parts.extend(tips.iter().map(|(k, v)| format!("{k}: {}", value_words(v))));
     }
     parts.join(", ")
@@ -131,23 +131,23 @@ fn datum_words(d: &crate::scene::Datum) -> String {
 const FOCUSABLE: &str = " tabindex=\"0\"";
 
 /// `role` and `aria-label` of a data mark (its values, "x: Jan, y: 82");
-/// marks with `tip` columns are also focusable with the keyboard.
+/// marks with `tooltip` columns are also focusable with the keyboard.
 fn mark_label(out: &mut String, datum: &Option<crate::scene::Datum>, labelled: bool) {
     let Some(d) = datum else { return };
     if !labelled {
         return;
     }
     let _ = write!(out, " role=\"graphics-symbol\" aria-label=\"{}\"", escape(&datum_words(d)));
-    if d.contains_key("tip") {
+    if d.contains_key("tooltip") {
         out.push_str(FOCUSABLE);
     }
 }
 
-/// Close a mark: with `tip` columns, a `<title>` child that browsers show on
+/// Close a mark: with `tooltip` columns, a `<title>` child that browsers show on
 /// hover (no script needed, so baked pages have it too).
 fn close_mark(out: &mut String, name: &str, datum: &Option<crate::scene::Datum>) {
     match datum {
-        Some(d) if d.contains_key("tip") => {
+        Some(d) if d.contains_key("tooltip") => {
             let _ = writeln!(out, "><title>{}</title></{name}>", escape(&datum_words(d)));
         }
         _ => out.push_str("/>\n"),
@@ -247,7 +247,7 @@ pub fn write(scene: &Scene) -> String {
     let mut out = String::with_capacity(body.len() + 512);
     let _ = write!(
         out,
-        "<svg xmlns=\"http://www.w3.org/2000/svg\" class=\"{c}\" width=\"{w}\" height=\"{h}\" viewBox=\"0 0 {w} {h}\" role=\"graphics-document document\" aria-roledescription=\"chart\" aria-labelledby=\"{id}-title\" aria-describedby=\"{id}-desc\" font-family=\"{f}\">\n",
+        "<svg xmlns=\"http://www.w3.org/2000/svg\" class=\"{c}\" width=\"{w}\" height=\"{h}\" viewBox=\"0 0 {w} {h}\" role=\"graphics-document document\" aria-roledescription=\"chart\" aria-labelledby=\"{id}-title\" aria-describedby=\"{id}-desc\" font-family=\"{f}\" font-kerning=\"none\">\n",
         w = num(scene.width),
         h = num(scene.height),
         f = escape(&scene.font_family),
@@ -336,7 +336,7 @@ mod document_tests {
         assert!(a.contains("aria-label=\"x: Jan, y: 3.25, color: North &lt;pier&gt;\""));
         // Title and the automatic description.
         assert!(a.contains("<title id=\"") && a.contains("<desc id=\""));
-        assert!(a.contains("Bar chart of v against m, in 2 groups by g"));
+        assert!(a.contains("Bar chart of v against m, in 2 groups by G"));
     }
 
     #[test]

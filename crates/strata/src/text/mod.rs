@@ -1,6 +1,6 @@
 //! Text measurement, the same on every platform so that the CLI and the
 //! browser lay a chart out alike: the advance widths of the bundled font,
-//! Open Sans 1.10 (fonts/, Apache-2.0), generated into `widths.rs` by
+//! Atkinson Hyperlegible Next 2.001 (fonts/, SIL OFL 1.1), generated into `widths.rs` by
 //! `tests/reference/gen/font_metrics.py`. Kerning is not applied; Chromium's
 //! measurements of the same strings agree to a tenth of a pixel (test below).
 
@@ -9,10 +9,10 @@ pub mod widths;
 use widths::{ADVANCES, CAP_HEIGHT, UNITS_PER_EM};
 
 /// The font stack the SVG names: the bundled font first.
-pub const FONT_FAMILY: &str = "Open Sans, Segoe UI, Helvetica Neue, Arial, sans-serif";
+pub const FONT_FAMILY: &str = "Atkinson Hyperlegible Next, Segoe UI, Helvetica Neue, Arial, sans-serif";
 
 /// The family name of the bundled font.
-pub const BUNDLED_FAMILY: &str = "Open Sans";
+pub const BUNDLED_FAMILY: &str = "Atkinson Hyperlegible Next";
 
 /// Line height as a multiple of the font size.
 pub const LINE_HEIGHT: f64 = 1.25;
@@ -42,6 +42,19 @@ pub fn advance(c: char, bold: bool) -> f64 {
         '\u{1100}'..='\u{115f}' | '\u{2e80}'..='\u{a4cf}' | '\u{ac00}'..='\u{d7a3}' | '\u{f900}'..='\u{faff}' | '\u{ff00}'..='\u{ff60}' => 1.0,
         // Anything else: the width of a lower-case 'o'.
         _ => lookup('o').map(pick).unwrap_or(0.55),
+    }
+}
+
+/// A column name as a reader would write it, for a legend's title: `_` as
+/// spaces, the first letter capitalised (`harbour_kg` -> `Harbour kg`).
+pub fn readable_name(name: &str) -> String {
+    let spaced = name.replace('_', " ");
+    let words: Vec<&str> = spaced.split_whitespace().collect();
+    let joined = words.join(" ");
+    let mut chars = joined.chars();
+    match chars.next() {
+        Some(c) => c.to_uppercase().chain(chars).collect(),
+        None => String::new(),
     }
 }
 
@@ -149,10 +162,10 @@ mod tests {
         cases: Vec<BrowserCase>,
     }
 
-    /// Debian Chromium 156's canvas measureText with the bundled font loaded
-    /// (tests/reference/gen/browser_widths.sh). For these samples the
-    /// browser's widths equal the sums of advances (no kerning showed), so
-    /// the tolerance is a tenth of a pixel.
+    /// Debian Chromium's canvas measureText with the bundled font loaded
+    /// and kerning off, as the SVG (`font-kerning="none"`) and the theme
+    /// sheet ask (tests/reference/gen/browser_widths.sh): the tolerance is a
+    /// tenth of a pixel.
     #[test]
     fn widths_match_a_browser() {
         let f: BrowserFixture = serde_json::from_str(include_str!("../../../../tests/reference/fixtures/format/browser_widths.json")).unwrap();
@@ -162,6 +175,15 @@ mod tests {
             let ours = width(&c.text, c.size, c.weight == "bold");
             assert!((ours - c.width).abs() <= 0.1, "{:?} {} {}px: ours {ours}, browser {}", c.text, c.weight, c.size, c.width);
         }
+    }
+
+    #[test]
+    fn readable_names() {
+        assert_eq!(readable_name("harbour_kg"), "Harbour kg");
+        assert_eq!(readable_name("speed"), "Speed");
+        assert_eq!(readable_name("__a__b"), "A b");
+        assert_eq!(readable_name("été_moyen"), "Été moyen");
+        assert_eq!(readable_name(""), "");
     }
 
     #[test]
