@@ -28,6 +28,7 @@ pub mod datatable;
 pub mod error;
 pub mod expr;
 pub mod format;
+pub mod geo;
 pub mod lint;
 pub mod math;
 pub mod plan;
