@@ -7,6 +7,7 @@
 //! - [`simplify`]: Visvalingam-Whyatt at the output's pixel scale;
 //! - [`classify`]: class breaks for colour in steps (Fisher-Jenks, quantile, equal).
 
+pub mod geojson;
 pub mod project;
 pub mod sphere;
 
