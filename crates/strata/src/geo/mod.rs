@@ -7,8 +7,11 @@
 //! - [`simplify`]: Visvalingam-Whyatt at the output's pixel scale;
 //! - [`classify`]: class breaks for colour in steps (Fisher-Jenks, quantile, equal).
 
+pub mod classify;
+pub mod clip;
 pub mod geojson;
 pub mod project;
+pub mod simplify;
 pub mod sphere;
 
 pub use project::Projection;

@@ -97,9 +97,15 @@ impl Projection {
     /// azimuthal map, a pole under Mercator) come back clamped to the nearest
     /// drawable place, never NaN for finite input.
     pub fn forward(&self, lon: f64, lat: f64) -> (f64, f64) {
+        self.forward_rel(wrap(lon - self.lon0()), lat)
+    }
+
+    /// Project a point given by its longitude relative to the central
+    /// meridian, `l` (not wrapped: the seam cutter hands both edges, -pi and
+    /// +pi), and its latitude.
+    pub fn forward_rel(&self, l: f64, lat: f64) -> (f64, f64) {
         match *self {
-            Projection::EqualEarth { lon0 } => {
-                let l = wrap(lon - lon0);
+            Projection::EqualEarth { .. } => {
                 let m = sqrt(3.0) / 2.0;
                 let t = asin(m * sin(lat));
                 let t2 = t * t;
@@ -108,19 +114,19 @@ impl Projection {
                 let y = t * (A1 + A2 * t2 + t6 * (A3 + A4 * t2));
                 (x, y)
             }
-            Projection::Mercator { lon0 } => {
+            Projection::Mercator { .. } => {
                 let p = lat.clamp(-MERCATOR_LIMIT, MERCATOR_LIMIT);
-                (wrap(lon - lon0), log(tan(FRAC_PI_4 + p / 2.0)))
+                (l, log(tan(FRAC_PI_4 + p / 2.0)))
             }
-            Projection::Equirectangular { lon0 } => (wrap(lon - lon0), lat),
-            Projection::Albers { lon0, lat0, lat1, lat2 } => {
+            Projection::Equirectangular { .. } => (l, lat),
+            Projection::Albers { lat0, lat1, lat2, .. } => {
                 let (n, c) = albers_constants(lat1, lat2);
                 let rho = |p: f64| sqrt((c - 2.0 * n * sin(p)).max(0.0)) / n;
-                let th = n * wrap(lon - lon0);
+                let th = n * l;
                 let r = rho(lat);
                 (r * sin(th), rho(lat0) - r * cos(th))
             }
-            Projection::LambertConformal { lon0, lat0, lat1, lat2 } => {
+            Projection::LambertConformal { lat0, lat1, lat2, .. } => {
                 let (n, f) = lcc_constants(lat1, lat2);
                 // The pole opposite the cone's apex lies at infinity: keep a hair inside.
                 let lim = FRAC_PI_2 - 1e-6;
@@ -128,12 +134,11 @@ impl Projection {
                     let p = if n > 0.0 { p.max(-lim) } else { p.min(lim) };
                     f / pow(tan(FRAC_PI_4 + p / 2.0), n)
                 };
-                let th = n * wrap(lon - lon0);
+                let th = n * l;
                 let r = rho(lat);
                 (r * sin(th), rho(lat0) - r * cos(th))
             }
-            Projection::LambertEqualArea { lon0, lat0 } => {
-                let l = lon - lon0;
+            Projection::LambertEqualArea { lat0, .. } => {
                 let cc = 1.0 + sin(lat0) * sin(lat) + cos(lat0) * cos(lat) * cos(l);
                 if cc <= 1e-12 {
                     // The antipode maps to the whole rim; take its top.
@@ -142,12 +147,8 @@ impl Projection {
                 let k = sqrt(2.0 / cc);
                 (k * cos(lat) * sin(l), k * (cos(lat0) * sin(lat) - sin(lat0) * cos(lat) * cos(l)))
             }
-            Projection::Orthographic { lon0, lat0 } => {
-                let l = lon - lon0;
-                (cos(lat) * sin(l), cos(lat0) * sin(lat) - sin(lat0) * cos(lat) * cos(l))
-            }
-            Projection::TransverseMercator { lon0, lat0 } => {
-                let l = lon - lon0;
+            Projection::Orthographic { lat0, .. } => (cos(lat) * sin(l), cos(lat0) * sin(lat) - sin(lat0) * cos(lat) * cos(l)),
+            Projection::TransverseMercator { lat0, .. } => {
                 let b = (cos(lat) * sin(l)).clamp(-1.0 + 1e-12, 1.0 - 1e-12);
                 let x = 0.5 * log((1.0 + b) / (1.0 - b));
                 let y = atan2(sin(lat), cos(lat) * cos(l)) - lat0;
