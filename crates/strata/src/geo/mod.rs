@@ -4,11 +4,13 @@
 //! - [`sphere`]: great-circle densification, rotations, spherical areas;
 //! - [`project`]: the projections on the unit sphere;
 //! - [`clip`]: seam cutting opposite the centre meridian, pole closure, horizon clipping;
+//! - [`fit`]: a projection fitted to a pixel box, outlines in pixels;
 //! - [`simplify`]: Visvalingam-Whyatt at the output's pixel scale;
 //! - [`classify`]: class breaks for colour in steps (Fisher-Jenks, quantile, equal).
 
 pub mod classify;
 pub mod clip;
+pub mod fit;
 pub mod geojson;
 pub mod project;
 pub mod simplify;
