@@ -98,7 +98,18 @@ fn render_one(page: &Path, chart: &Found, width: f64) -> Result<String, String> 
     };
     let name = data_path.as_ref().map(|p| p.display().to_string()).unwrap_or_default();
     let data = bytes.as_deref().map(|b| DataBytes { bytes: b, name: &name });
-    let r = strata::render_spec(&spec, data, &RenderOptions { scene: SceneOptions { width } }).map_err(|e| e.to_string())?;
+    // `shapes.url` is read by the same rules as `data.url`.
+    let shapes_path = match spec.shapes.as_ref().and_then(|s| s.url.clone()) {
+        Some(url) => Some(local(&spec_dir, &url)?),
+        None => None,
+    };
+    let shapes_bytes = match &shapes_path {
+        Some(p) => Some(std::fs::read(p).map_err(|e| format!("cannot read shapes {}: {e}", p.display()))?),
+        None => None,
+    };
+    let shapes_name = shapes_path.as_ref().map(|p| p.display().to_string()).unwrap_or_default();
+    let shapes = shapes_bytes.as_deref().map(|b| DataBytes { bytes: b, name: &shapes_name });
+    let r = strata::render_spec_with_shapes(&spec, data, shapes, &RenderOptions { scene: SceneOptions { width } }).map_err(|e| e.to_string())?;
     // The chart, then its data table, as the element places them.
     Ok(format!("{}{}", r.svg.trim_end(), r.table))
 }

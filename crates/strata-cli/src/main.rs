@@ -116,6 +116,14 @@ fn load(spec_path: &Path, data: Option<&Path>) -> Result<(String, strata::spec::
     Ok((text, spec, bytes))
 }
 
+/// Read the spec's `shapes.url` (relative to the spec's folder), like its data.
+fn load_shapes(spec_path: &Path, spec: &strata::spec::Spec) -> Result<Option<(Vec<u8>, String)>, String> {
+    let Some(u) = spec.shapes.as_ref().and_then(|s| s.url.clone()) else { return Ok(None) };
+    let p = spec_path.parent().unwrap_or(Path::new(".")).join(u);
+    let b = std::fs::read(&p).map_err(|e| format!("strata: {}: error at shapes.url: cannot read {}: {e}", spec_path.display(), p.display()))?;
+    Ok(Some((b, p.display().to_string())))
+}
+
 fn report(spec_path: &Path, e: &Errors) -> String {
     e.0.iter().map(|d| format!("strata: {}: {d}", spec_path.display())).collect::<Vec<_>>().join("\n")
 }
@@ -126,7 +134,9 @@ fn run(cmd: Command) -> Result<(), String> {
             let (_, parsed, bytes) = load(&spec, data.as_deref())?;
             let opts = RenderOptions { scene: SceneOptions { width } };
             let data = bytes.as_ref().map(|(b, n)| DataBytes { bytes: b, name: n });
-            let r = strata::render_spec(&parsed, data, &opts).map_err(|e| report(&spec, &e))?;
+            let shapes = load_shapes(&spec, &parsed)?;
+            let shapes = shapes.as_ref().map(|(b, n)| DataBytes { bytes: b, name: n });
+            let r = strata::render_spec_with_shapes(&parsed, data, shapes, &opts).map_err(|e| report(&spec, &e))?;
             for w in &r.warnings {
                 eprintln!("strata: {}: {w}", spec.display());
             }

@@ -101,11 +101,46 @@ pub fn load_table(spec: &Spec, data: Option<DataBytes>) -> Result<data::Table, E
         .into())
 }
 
+/// Read the shapes a spec asks for: inline `shapes.features`, or the given
+/// bytes (`shapes.url`, fetched by the host), checked against `shapes.sha256`.
+pub fn load_shapes(spec: &Spec, bytes: Option<DataBytes>) -> Result<Option<Vec<geo::geojson::Feature>>, Errors> {
+    let Some(s) = &spec.shapes else { return Ok(None) };
+    let key = s.key.as_deref();
+    if let Some(features) = &s.features {
+        return geo::geojson::read(&serde_json::Value::Array(features.clone()), key, "shapes.features").map(Some).map_err(Errors);
+    }
+    let Some(b) = bytes else {
+        return Err(Diagnostic::error("shapes.missing", "the shapes were not read")
+            .at_path("shapes")
+            .with_hint("give `shapes.url` (read by the host, like `data.url`) or inline `shapes.features`")
+            .into());
+    };
+    if let Some(want) = &s.sha256 {
+        let got = data::sha256_hex(b.bytes);
+        if got != want.trim().to_ascii_lowercase() {
+            return Err(Diagnostic::error(
+                "shapes.sha256_mismatch",
+                format!("the shapes' SHA-256 digest is {got}, but `shapes.sha256` expects {want}; the shapes were refused"),
+            )
+            .at_path("shapes.sha256")
+            .into());
+        }
+    }
+    geo::geojson::read_bytes(b.bytes, key, "shapes").map(Some).map_err(Errors)
+}
+
 /// The whole pipeline for a parsed spec.
 pub fn render_spec(spec: &Spec, data: Option<DataBytes>, opts: &RenderOptions) -> Result<Rendered, Errors> {
-    let table = load_table(spec, data)?;
+    render_spec_with_shapes(spec, data, None, opts)
+}
+
+/// [`render_spec`] with the bytes of `shapes.url`, when the spec names one.
+pub fn render_spec_with_shapes(spec: &Spec, data: Option<DataBytes>, shapes: Option<DataBytes>, opts: &RenderOptions) -> Result<Rendered, Errors> {
+    let shapes = load_shapes(spec, shapes)?;
+    // A base map needs no table.
+    let table = if spec.data.is_none() && shapes.is_some() { data::from_rows(&[], &Default::default())? } else { load_table(spec, data)? };
     let table = expr::apply(table, &spec.derive, spec.where_.as_deref())?;
-    let plan = plan::build(spec, &table)?;
+    let plan = plan::build_with_shapes(spec, &table, shapes)?;
     let scene = scene::build(&plan, &opts.scene);
     let svg = svg::write(&scene);
     let html_table = datatable::write(spec, &plan);

@@ -146,7 +146,7 @@ fn cut(plan: &Plan, channels: &[(Channel, &IndexSet<String>)], free: (bool, bool
                 }
             }
             // A panel's plan: its rows and scales; the chart-wide options stay on the whole plan.
-            Plan { layers, scales, warnings: plan.warnings.clone(), chart: Default::default(), panels: None }
+            Plan { layers, scales, warnings: plan.warnings.clone(), chart: Default::default(), panels: None, map: plan.map.clone() }
         })
         .collect()
 }

@@ -172,6 +172,7 @@ pub fn build(plan: &Plan, opts: &SceneOptions) -> Scene {
 
     let inputs = PlotInputs { chart, pal: &pal, loc, narrow, pad, left, width, legend_on_right, ts };
     match &plan.panels {
+        None if plan.map.is_some() => children.extend(super::map::draw(plan, &pal, left, top, right, bottom)),
         None => children.extend(plot_area(&inputs, plan, left, right, top, bottom)),
         Some(PanelPlans::Wrap { names, cells }) => children.extend(panel_grid(&inputs, plan, names, cells, right, top, bottom)),
         Some(PanelPlans::Grid { rows, cols, cells }) => {

@@ -84,9 +84,9 @@ fn list(s: Shape) -> Shape {
 // Each word list is its enum's (see `vocab.rs`): serde, this check, the
 // schema and the plan share one definition.
 pub const GEOMETRIES: &[&str] = Geometry::WORDS;
-/// The channels a layer maps (the keys of `scales`): the first ten of
+/// The channels a layer maps (the keys of `scales`): the first eleven of
 /// [`crate::channel::Channel`] (a test holds the two equal).
-pub const CHANNELS: &[&str] = &["x", "y", "x_end", "y_end", "color", "size", "shape", "opacity", "text", "group"];
+pub const CHANNELS: &[&str] = &["x", "y", "x_end", "y_end", "color", "size", "shape", "opacity", "text", "group", "key"];
 pub const COLUMN_TYPES: &[&str] = ColumnType::WORDS;
 pub const DATA_FORMATS: &[&str] = DataFormat::WORDS;
 pub const STAT_WORDS: &[&str] = StatWord::WORDS;
@@ -245,6 +245,30 @@ pub fn spec_shape() -> Shape {
             f("start", num(None, None), "Start angle in degrees clockwise from 12 o'clock (default 0)."),
             f("inner", num(Some(0.0), Some(1.0)), "Inner radius as a fraction of the outer one (default 0)."),
         ]),
+        obj(vec![
+            req("kind", Shape::Word(MapKind::WORDS), "map: x is longitude and y latitude (WGS 84 degrees)."),
+            f("projection", Shape::Word(ProjectionWord::WORDS), "The projection (default equal_earth)."),
+            f("center", list(num(Some(-180.0), Some(180.0))), "[longitude, latitude] of the map's centre (default: the middle of the shapes)."),
+            f("rotate", num(Some(-360.0), Some(360.0)), "Degrees the map turns about its centre, counter-clockwise (default 0)."),
+            f(
+                "parallels",
+                list(num(Some(-90.0), Some(90.0))),
+                "The two standard parallels of albers and lambert_conformal (default: a sixth in from each end of the shapes' latitudes).",
+            ),
+            f("fit", Shape::Word(MapFit::WORDS), "Fit the map to the shapes (default) or to the rows drawn (data)."),
+            f(
+                "graticule",
+                Shape::Either(vec![num(Some(1.0), Some(90.0)), Shape::Bool]),
+                "Lines of longitude and latitude every so many degrees, or false (default).",
+            ),
+            f("outline", Shape::Bool, "Draw the outline of the sphere (default true)."),
+        ]),
+    ]);
+    let shapes = obj(vec![
+        f("url", Shape::Text("a URL"), "Where the GeoJSON (RFC 7946) file is; the host reads it like data.url."),
+        f("features", list(Shape::Any), "Inline GeoJSON features."),
+        f("key", Shape::Text("a property name"), "The feature property that names each shape; a region layer's key column matches it."),
+        f("sha256", Shape::Text("64 hexadecimal digits"), "SHA-256 of the shapes' bytes; a mismatch refuses them."),
     ]);
     let panels = obj(vec![
         f("by", Shape::Text("a column name"), "One panel per value of this column, wrapped into rows."),
@@ -289,11 +313,12 @@ pub fn spec_shape() -> Shape {
         f("source", text(), "Source line under the chart."),
         f("description", text(), "Author-written text alternative; replaces the automatic summary for screen readers."),
         f("data", data, "The table: a URL, or an object."),
+        f("shapes", shapes, "GeoJSON shapes for region layers: a url or inline features, with the key property."),
         f("derive", Shape::Map { keys: None, value: Box::new(Shape::Text("an expression")) }, "New columns from SQL-subset expressions, evaluated in order."),
         f("where", Shape::Text("an expression"), "A SQL-subset condition; rows where it is TRUE are kept."),
         req("layers", list(layer), "The layers, drawn in order, later on top."),
         f("scales", Shape::Map { keys: Some(CHANNELS), value: Box::new(scale) }, "Scales keyed by channel."),
-        f("coords", coords, "Coordinate system: cartesian (default), flip, or polar."),
+        f("coords", coords, "Coordinate system: cartesian (default), flip, polar, or map."),
         f("panels", panels, "Small multiples."),
         f("notes", list(note), "Annotations: text, shaded spans, reference lines."),
         f("size", size, "The chart's size."),
@@ -376,12 +401,23 @@ fn key_path(path: &str, key: &str) -> String {
     }
 }
 
+/// Does an object alternative's `kind` word list hold the value's `kind`?
+fn kind_matches(a: &Shape, v: &Value) -> bool {
+    let Shape::Object(o) = a else { return true };
+    match (o.fields.iter().find(|f| f.name == "kind"), v.get("kind").and_then(Value::as_str)) {
+        (Some(Field { shape: Shape::Word(ws), .. }), Some(k)) => ws.contains(&k),
+        _ => true,
+    }
+}
+
 /// Check `v` against `shape`, pushing every problem found.
 pub fn check(v: &Value, shape: &Shape, path: &str, out: &mut Vec<Diagnostic>) {
     match shape {
         Shape::Any => {}
         Shape::Def(name) => check(v, &def_shape(name), path, out),
-        Shape::Either(alts) => match alts.iter().find(|a| a.accepts_type(v)) {
+        // Objects of one type are told apart by their `kind` word (coords:
+        // polar or map); the first fitting alternative otherwise.
+        Shape::Either(alts) => match alts.iter().find(|a| a.accepts_type(v) && kind_matches(a, v)).or_else(|| alts.iter().find(|a| a.accepts_type(v))) {
             Some(a) => check(v, a, path, out),
             None => out.push(wrong_type(shape, v, path)),
         },

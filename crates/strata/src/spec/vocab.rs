@@ -62,6 +62,7 @@ words! {
         Tile = "tile",
         Box = "box",
         Range = "range",
+        Region = "region",
     }
 }
 
@@ -226,6 +227,36 @@ words! {
         Cartesian = "cartesian",
         Flip = "flip",
         Polar = "polar",
+        Map = "map",
+    }
+}
+
+words! {
+    /// The kind of a map coordinate object.
+    pub enum MapKind {
+        Map = "map",
+    }
+}
+
+words! {
+    /// Map projections, by their published names (`geo::project`).
+    pub enum ProjectionWord {
+        EqualEarth = "equal_earth",
+        Mercator = "mercator",
+        Equirectangular = "equirectangular",
+        Albers = "albers",
+        LambertConformal = "lambert_conformal",
+        LambertEqualArea = "lambert_equal_area",
+        Orthographic = "orthographic",
+        TransverseMercator = "transverse_mercator",
+    }
+}
+
+words! {
+    /// What a map is fitted to.
+    pub enum MapFit {
+        Shapes = "shapes",
+        Data = "data",
     }
 }
 
