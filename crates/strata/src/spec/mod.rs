@@ -369,6 +369,23 @@ pub struct ScaleSpec {
     /// Base of a log scale (default 10).
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub base: Option<f64>,
+    /// Class breaks of a `steps` colour scale: a method or the numbers.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub breaks: Option<Breaks>,
+    /// Number of classes of a `steps` colour scale (default 5).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub count: Option<u32>,
+    /// Where a diverging colour palette turns (data units).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub middle: Option<f64>,
+}
+
+/// `breaks`: `natural`, `quantile`, `equal`, or a list of numbers.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(untagged)]
+pub enum Breaks {
+    Method(BreakMethod),
+    List(Vec<f64>),
 }
 
 // ---------------------------------------------------------------- coords, panels, notes, size, theme

@@ -223,7 +223,7 @@ pub fn spec_shape() -> Shape {
     ]);
     let layer = obj(layer_fields);
     let scale = obj(vec![
-        f("kind", Shape::Word(SCALE_KINDS), "linear, log, sqrt, symlog, time or category. Default: from the data."),
+        f("kind", Shape::Word(SCALE_KINDS), "linear, log, sqrt, symlog, time, category, or steps (colour in classes). Default: from the data."),
         f("domain", list(Shape::Either(vec![num(None, None), text(), Shape::Bool])), "The values the scale covers: [low, high], or the categories in order."),
         f("zero", Shape::Bool, "Include zero in the domain. Default: true for bars and areas, false otherwise."),
         f("nice", Shape::Bool, "Round the domain out to tick values. Default: true, except for time."),
@@ -236,6 +236,13 @@ pub fn spec_shape() -> Shape {
         f("legend", Shape::Word(PLACEMENTS), "Where the legend goes: top, bottom, left, right, none."),
         f("hide", Shape::Bool, "Hide the axis or legend."),
         f("base", num(Some(0.0), None), "Base of a log scale (default 10)."),
+        f(
+            "breaks",
+            Shape::Either(vec![Shape::Word(BreakMethod::WORDS), list(num(None, None))]),
+            "Class breaks of a steps colour scale: natural (default), quantile, equal, or a list of numbers.",
+        ),
+        f("count", Shape::Integer { min: 2, max: 12 }, "Number of classes of a steps colour scale (default 5)."),
+        f("middle", num(None, None), "Where a diverging colour palette turns, in data units."),
     ]);
     let coords = Shape::Either(vec![
         Shape::Word(COORD_WORDS),

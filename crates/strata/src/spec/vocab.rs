@@ -208,6 +208,16 @@ words! {
         Symlog = "symlog",
         Time = "time",
         Category = "category",
+        Steps = "steps",
+    }
+}
+
+words! {
+    /// How a `steps` colour scale finds its class breaks (`geo::classify`).
+    pub enum BreakMethod {
+        Natural = "natural",
+        Quantile = "quantile",
+        Equal = "equal",
     }
 }
 
