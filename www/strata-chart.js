@@ -108,7 +108,7 @@ const fail = (code, message, extra = {}) => new ChartError([{ severity: 'error',
 
 export class StrataChart extends HTMLElement {
   static get observedAttributes() {
-    return ['src', 'spec-src', 'theme'];
+    return ['src', 'spec-src', 'shapes-src', 'theme'];
   }
 
   #spec = null; // object set from JavaScript
@@ -245,16 +245,17 @@ export class StrataChart extends HTMLElement {
     return { text: script.textContent, base: document.baseURI };
   }
 
-  async #fetchData(url) {
+  async #fetchData(url, path = 'data.url') {
+    const what = path === 'data.url' ? 'data' : 'shapes';
     let res;
     try {
       res = await fetch(url);
     } catch (e) {
-      throw fail('data.fetch', `could not load the data from ${url}: ${e.message}`, { path: 'data.url' });
+      throw fail(`${what}.fetch`, `could not load the ${what} from ${url}: ${e.message}`, { path });
     }
     if (!res.ok) {
-      throw fail('data.fetch', `could not load the data from ${url}: HTTP ${res.status} ${res.statusText}`.trim(), {
-        path: 'data.url',
+      throw fail(`${what}.fetch`, `could not load the ${what} from ${url}: HTTP ${res.status} ${res.statusText}`.trim(), {
+        path,
       });
     }
     return new Uint8Array(await res.arrayBuffer());
@@ -318,10 +319,16 @@ export class StrataChart extends HTMLElement {
           }
         }
       }
+      // GeoJSON shapes of a map: the `shapes-src` attribute, or `shapes.url`.
+      let shapes;
+      const shapesDeclared = spec && typeof spec === 'object' && spec.shapes && typeof spec.shapes === 'object' ? spec.shapes.url : null;
+      const shapesSrc = this.getAttribute('shapes-src');
+      const shapesUrl = shapesSrc ? new URL(shapesSrc, document.baseURI) : typeof shapesDeclared === 'string' ? new URL(shapesDeclared, source.base) : null;
+      if (shapesUrl) shapes = await this.#fetchData(shapesUrl, 'shapes.url');
       const width = this.#width(spec);
       const engine = await loadEngine(bytes && isArrow(bytes, name, spec) ? 'arrow' : 'core');
       if (generation !== this.#generation) return;
-      const answer = JSON.parse(engine.render(text, bytes, name, width));
+      const answer = JSON.parse(shapes ? engine.render_with_shapes(text, bytes, name, shapes, width) : engine.render(text, bytes, name, width));
       if (generation !== this.#generation) return;
       if (!answer.ok) throw new ChartError(answer.errors);
       this.#lastWidth = width;

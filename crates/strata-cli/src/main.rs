@@ -30,6 +30,9 @@ enum Command {
         /// Data file; overrides the spec's `data.url`.
         #[arg(long)]
         data: Option<PathBuf>,
+        /// GeoJSON file; overrides the spec's `shapes.url`.
+        #[arg(long)]
+        shapes: Option<PathBuf>,
         /// Output file; standard output when absent.
         #[arg(short = 'o', long)]
         output: Option<PathBuf>,
@@ -130,11 +133,14 @@ fn report(spec_path: &Path, e: &Errors) -> String {
 
 fn run(cmd: Command) -> Result<(), String> {
     match cmd {
-        Command::Render { spec, data, output, scene, table, width } => {
+        Command::Render { spec, data, shapes, output, scene, table, width } => {
             let (_, parsed, bytes) = load(&spec, data.as_deref())?;
             let opts = RenderOptions { scene: SceneOptions { width } };
             let data = bytes.as_ref().map(|(b, n)| DataBytes { bytes: b, name: n });
-            let shapes = load_shapes(&spec, &parsed)?;
+            let shapes = match shapes {
+                Some(p) => Some((std::fs::read(&p).map_err(|e| format!("strata: cannot read {}: {e}", p.display()))?, p.display().to_string())),
+                None => load_shapes(&spec, &parsed)?,
+            };
             let shapes = shapes.as_ref().map(|(b, n)| DataBytes { bytes: b, name: n });
             let r = strata::render_spec_with_shapes(&parsed, data, shapes, &opts).map_err(|e| report(&spec, &e))?;
             for w in &r.warnings {

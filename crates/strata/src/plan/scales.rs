@@ -209,7 +209,9 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
             )
         })?,
         None => match color {
-            Some(ColorScale::Ramp { lo, hi }) if lo < 0.0 && hi > 0.0 => Scheme::Ramp(color::CROSSING),
+            Some(ColorScale::Ramp { lo, hi }) if lo < 0.0 && hi > 0.0 => Scheme::Ramp(color::ESTUARY),
+            // A `middle` inside the domain asks for a diverging ramp.
+            Some(ColorScale::Ramp { lo, hi }) if color_spec.middle.is_some_and(|m| m > lo && m < hi) => Scheme::Ramp(color::ESTUARY),
             Some(ColorScale::Ramp { .. }) | Some(ColorScale::Steps { .. }) => Scheme::Ramp(color::LAGOON),
             _ => Scheme::Categorical("harbour", &color::HARBOUR),
         },
@@ -528,7 +530,7 @@ mod tests {
         // Numbers spanning zero default to the diverging ramp, centred on zero.
         l.data.channels.insert(Channel::Color, Values::Num(vec![-10.0, 0.0, 30.0].into()));
         let s = train(&spec("{}"), std::slice::from_ref(&l)).unwrap();
-        assert_eq!(s.color_of(l.data.get(Channel::Color).unwrap(), 1), Some(color::CROSSING.at(0.5)));
+        assert_eq!(s.color_of(l.data.get(Channel::Color).unwrap(), 1), Some(color::ESTUARY.at(0.5)));
         // Categories take the default palette in order of first appearance.
         l.data.channels.insert(Channel::Color, Values::Text(vec![Some("b".into()), Some("a".into()), Some("b".into())]));
         let s = train(&spec("{}"), std::slice::from_ref(&l)).unwrap();
