@@ -76,6 +76,33 @@ fn projection(m: &MapCoords, features: &[Feature]) -> Projection {
     }
 }
 
+impl MapPlan {
+    /// The same map for a panel's rows: each region layer's rows matched
+    /// to the shapes again (a panel keeps only its own rows).
+    pub fn for_layers(&self, layers: &[PlannedLayer]) -> MapPlan {
+        let mut by_key: std::collections::HashMap<&str, usize> = std::collections::HashMap::with_capacity(self.features.len());
+        for (fi, f) in self.features.iter().enumerate() {
+            if let Some(k) = &f.key {
+                by_key.entry(k.as_str()).or_insert(fi);
+            }
+        }
+        let rows = layers
+            .iter()
+            .map(|l| {
+                let keys = l.data.get(Channel::Key).filter(|_| l.geometry == Geometry::Region)?;
+                let mut of_feature = vec![None; self.features.len()];
+                for i in 0..l.data.len {
+                    if let Some(&fi) = keys.key(i).as_deref().and_then(|k| by_key.get(k)) {
+                        of_feature[fi].get_or_insert(i);
+                    }
+                }
+                Some(of_feature)
+            })
+            .collect();
+        MapPlan { rows, ..self.clone() }
+    }
+}
+
 /// Resolve the map. `features` are the shapes read by the caller.
 pub fn resolve(spec: &Spec, m: &MapCoords, features: Option<Vec<Feature>>, layers: &[PlannedLayer], warnings: &mut Vec<Diagnostic>) -> Result<MapPlan, Errors> {
     let needs_shapes = layers.iter().any(|l| l.geometry == Geometry::Region);

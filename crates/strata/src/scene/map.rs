@@ -97,7 +97,17 @@ fn clip_to_box(l: &[(f64, f64)], b: (f64, f64, f64, f64)) -> Vec<Vec<(f64, f64)>
     out
 }
 
-pub fn draw(plan: &Plan, pal: &Palette, left: f64, top: f64, right: f64, bottom: f64) -> Vec<Node> {
+/// Whether any region of the plan lacks a data row (it then gets the "no data" fill and legend entry).
+pub fn has_no_data(plan: &Plan) -> bool {
+    let Some(m) = &plan.map else { return false };
+    plan.layers.iter().enumerate().any(|(li, l)| {
+        l.geometry == Geometry::Region && l.style.color.is_none() && m.rows.get(li).and_then(|r| r.as_ref()).is_some_and(|r| r.iter().any(Option::is_none))
+    })
+}
+
+/// Draw the plan's map in the box. `reserve`: keep room for the "no data"
+/// entry under the map (panels keep it alike so every map has one scale).
+pub fn draw(plan: &Plan, pal: &Palette, left: f64, top: f64, right: f64, bottom: f64, reserve: bool) -> Vec<Node> {
     let Some(m) = &plan.map else { return Vec::new() };
     let p = m.projection;
     let mut shapes: Vec<Pieces> = m.features.iter().map(|f| fit::project(&p, f)).collect();
@@ -109,10 +119,8 @@ pub fn draw(plan: &Plan, pal: &Palette, left: f64, top: f64, right: f64, bottom:
         points.push(pc);
     }
     // Shapes with no row get the "no data" fill and a legend entry under the map.
-    let no_data = plan.layers.iter().enumerate().any(|(li, l)| {
-        l.geometry == Geometry::Region && l.style.color.is_none() && m.rows.get(li).and_then(|r| r.as_ref()).is_some_and(|r| r.iter().any(Option::is_none))
-    });
-    let bottom = if no_data { bottom - 22.0 } else { bottom };
+    let no_data = has_no_data(plan);
+    let bottom = if no_data || reserve { bottom - 22.0 } else { bottom };
     // Fitting the rows drawn when there are none shows the whole sphere.
     let bounds = if m.fit_data { fit::bounds(points.iter()) } else { fit::bounds(shapes.iter()).or_else(|| fit::bounds(points.iter())) };
     let fitted = fit::fit(p, bounds, (left, top, (right - left).max(1.0), (bottom - top).max(1.0)));
