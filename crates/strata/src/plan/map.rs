@@ -119,6 +119,13 @@ pub fn resolve(spec: &Spec, m: &MapCoords, features: Option<Vec<Feature>>, layer
     };
     let mut rows = Vec::with_capacity(layers.len());
     for l in layers {
+        if !matches!(l.geometry, Geometry::Region | Geometry::Point | Geometry::Line | Geometry::Step | Geometry::Label) {
+            warnings.push(
+                Diagnostic::warning("map.geometry", format!("`{}` layers are not drawn on a map", l.geometry.word()))
+                    .at_path(format!("layers[{}].draw", l.index))
+                    .with_hint("on a map, draw `region`, `point`, `line` or `label`"),
+            );
+        }
         if l.geometry != Geometry::Region {
             rows.push(None);
             continue;

@@ -123,7 +123,9 @@ pub fn draw(plan: &Plan, pal: &Palette, left: f64, top: f64, right: f64, bottom:
     let bottom = if no_data || reserve { bottom - 22.0 } else { bottom };
     // Fitting the rows drawn when there are none shows the whole sphere.
     let bounds = if m.fit_data { fit::bounds(points.iter()) } else { fit::bounds(shapes.iter()).or_else(|| fit::bounds(points.iter())) };
-    let fitted = fit::fit(p, bounds, (left, top, (right - left).max(1.0), (bottom - top).max(1.0)));
+    // Fitting rows: keep room round them for circles and labels.
+    let inset = if m.fit_data && bounds.is_some() { (0.08 * (right - left).min(bottom - top)).min(32.0) } else { 0.0 };
+    let fitted = fit::fit(p, bounds, (left + inset, top + inset, (right - left - 2.0 * inset).max(1.0), (bottom - top - 2.0 * inset).max(1.0)));
     let to_px = |pc: Pieces| fitted.to_pixels(&pc);
     let mut out = Vec::new();
 
@@ -202,8 +204,74 @@ pub fn draw(plan: &Plan, pal: &Palette, left: f64, top: f64, right: f64, bottom:
                     marks.push(Node::Path { d: ring_segs(&px), paint, datum: Some(d) });
                 }
             }
-            _ => {
-                // Points (and any other layer) at longitude and latitude:
+            Geometry::Line | Geometry::Step => {
+                // A line a series (by colour, then group), joining its rows
+                // in order along great circles, cut at the seam.
+                let (Some(x), Some(y)) = (layer.data.get(Channel::X), layer.data.get(Channel::Y)) else { continue };
+                let series_of = |i: usize| {
+                    [Channel::Color, Channel::Group]
+                        .iter()
+                        .filter_map(|c| layer.data.get(*c))
+                        .map(|v| v.key(i).unwrap_or_default())
+                        .collect::<Vec<_>>()
+                        .join("\u{1f}")
+                };
+                let mut order: Vec<String> = Vec::new();
+                let mut series: std::collections::HashMap<String, (usize, Vec<(f64, f64)>)> = std::collections::HashMap::new();
+                for i in 0..layer.data.len {
+                    let (Some(lon), Some(lat)) = (x.num(i), y.num(i)) else { continue };
+                    if lat.abs() > 90.0 || !lon.is_finite() {
+                        continue;
+                    }
+                    let k = series_of(i);
+                    let e = series.entry(k.clone()).or_insert_with(|| {
+                        order.push(k);
+                        (i, Vec::new())
+                    });
+                    e.1.push((lon, lat));
+                }
+                for k in &order {
+                    let (first, path) = &series[k];
+                    if path.len() < 2 {
+                        continue;
+                    }
+                    let mut pc = Pieces { lines: clip::line(&p, path), ..Default::default() };
+                    rotate(&mut pc, m.rotate);
+                    let d = ring_segs(&to_px(pc));
+                    let c = layer
+                        .data
+                        .get(Channel::Color)
+                        .and_then(|v| plan.scales.color_of(v, *first))
+                        .or_else(|| layer.style.color.clone())
+                        .unwrap_or_else(|| pal.mark.clone());
+                    let mut paint = Paint::stroke(&c, layer.style.width.unwrap_or(2.0));
+                    paint.dash = layer.style.dash.clone();
+                    marks.push(Node::Path { d, paint, datum: Some(datum(layer, *first)) });
+                }
+            }
+            Geometry::Label => {
+                let Some(t) = layer.data.get(Channel::Text) else { continue };
+                for (i, q) in layer_points(&p, layer).iter().enumerate() {
+                    let (Some(q), Some(text)) = (q, t.key(i)) else { continue };
+                    let mut pc = Pieces { points: vec![*q], ..Default::default() };
+                    rotate(&mut pc, m.rotate);
+                    let (x, y) = fitted.px(pc.points[0]);
+                    let size = layer.style.font_size.unwrap_or(12.0);
+                    marks.push(Node::Text {
+                        x,
+                        y: y - 6.0,
+                        text,
+                        size,
+                        anchor: super::Anchor::Middle,
+                        bold: false,
+                        angle: 0.0,
+                        fill: layer.style.color.clone().unwrap_or_else(|| pal.text.clone()),
+                        class: "strata-label".into(),
+                    });
+                }
+            }
+            Geometry::Point => {
+                // Points at longitude and latitude:
                 // big circles under small ones.
                 let pts = layer_points(&p, layer);
                 let mut order: Vec<(usize, (f64, f64), f64)> = Vec::new();
@@ -233,6 +301,8 @@ pub fn draw(plan: &Plan, pal: &Palette, left: f64, top: f64, right: f64, bottom:
                     marks.push(Node::Circle { cx, cy, r, paint, datum: Some(datum(layer, i)) });
                 }
             }
+            // Other geometries have no place on a map (the plan warned).
+            _ => {}
         }
         out.push(Node::Group { class: format!("strata-layer strata-{}", layer.geometry.word()), role: Some("list".into()), label: None, children: marks });
     }
