@@ -306,5 +306,102 @@ pub fn draw(plan: &Plan, pal: &Palette, left: f64, top: f64, right: f64, bottom:
         }
         out.push(Node::Group { class: format!("strata-layer strata-{}", layer.geometry.word()), role: Some("list".into()), label: None, children: marks });
     }
+    let notes = map_notes(plan, &p, m.rotate, &fitted, pal, bx);
+    if !notes.is_empty() {
+        out.push(Node::Group { class: "strata-notes".into(), role: None, label: None, children: notes });
+    }
+    out
+}
+
+/// Notes at longitude (`x`) and latitude (`y`): a point with its text, a
+/// meridian (`x` alone), a parallel (`y` alone), or a shaded box of
+/// longitudes and latitudes (with `x_end`/`y_end`).
+fn map_notes(plan: &Plan, p: &Projection, rot: f64, fitted: &fit::Fitted, pal: &Palette, bx: (f64, f64, f64, f64)) -> Vec<Node> {
+    let mut out = Vec::new();
+    let num = |v: &Option<serde_json::Value>| v.as_ref().and_then(serde_json::Value::as_f64).filter(|x| x.is_finite());
+    let text = |x: f64, y: f64, t: &str| Node::Text {
+        x,
+        y,
+        text: t.to_string(),
+        size: 12.0,
+        anchor: super::Anchor::Start,
+        bold: false,
+        angle: 0.0,
+        fill: pal.text.clone(),
+        class: "strata-note".into(),
+    };
+    let draw_lines = |lines: Vec<Vec<(f64, f64)>>| {
+        let mut pc = Pieces { lines, ..Default::default() };
+        rotate(&mut pc, rot);
+        let lines = fitted.to_pixels(&pc).lines.iter().flat_map(|l| clip_to_box(l, bx)).collect();
+        Pieces { lines, ..Default::default() }
+    };
+    for n in &plan.chart.notes {
+        let (x, y, x2, y2) = (num(&n.x), num(&n.y).map(|v| v.clamp(-90.0, 90.0)), num(&n.x_end), num(&n.y_end).map(|v| v.clamp(-90.0, 90.0)));
+        let label = n.text.clone().unwrap_or_default();
+        match (x, y, x2, y2) {
+            (Some(lon), Some(lat), None, None) => {
+                let Some(q) = clip::point(p, (lon, lat)) else { continue };
+                let mut pc = Pieces { points: vec![q], ..Default::default() };
+                rotate(&mut pc, rot);
+                let (cx, cy) = fitted.px(pc.points[0]);
+                out.push(Node::Circle { cx, cy, r: 2.5, paint: Paint::fill(&pal.text), datum: None });
+                if !label.is_empty() {
+                    out.push(text(cx + 6.0, cy - 6.0, &label));
+                }
+            }
+            (Some(a), None, b, None) => {
+                let lons = [Some(a), b];
+                for lon in lons.into_iter().flatten() {
+                    let m: Vec<(f64, f64)> = (0..=170).map(|j| (lon, -85.0 + j as f64)).collect();
+                    let px = draw_lines(clip::line(p, &m));
+                    let mut paint = Paint::stroke(&pal.axis, 1.0);
+                    paint.dash = Some(vec![4.0, 3.0]);
+                    if let Some(top) = px.lines.iter().flatten().copied().min_by(|u, v| u.1.total_cmp(&v.1)) {
+                        if !label.is_empty() && lon == a {
+                            out.push(text(top.0 + 4.0, top.1 + 12.0, &label));
+                        }
+                    }
+                    out.push(Node::Path { d: ring_segs(&px), paint, datum: None });
+                }
+            }
+            (None, Some(a), None, b) => {
+                for lat in [Some(a), b].into_iter().flatten() {
+                    let par: Vec<(f64, f64)> = (0..=360).map(|j| (-180.0 + j as f64, lat)).collect();
+                    let px = draw_lines(clip::line(p, &par));
+                    let mut paint = Paint::stroke(&pal.axis, 1.0);
+                    paint.dash = Some(vec![4.0, 3.0]);
+                    if let Some(left) = px.lines.iter().flatten().copied().min_by(|u, v| u.0.total_cmp(&v.0)) {
+                        if !label.is_empty() && lat == a {
+                            out.push(text(left.0 + 4.0, left.1 - 4.0, &label));
+                        }
+                    }
+                    out.push(Node::Path { d: ring_segs(&px), paint, datum: None });
+                }
+            }
+            (Some(x0), Some(y0), Some(x1), Some(y1)) => {
+                // A box of longitudes and latitudes, its sides a degree at a time.
+                let (w, e, s_, n_) = (x0.min(x1), x0.max(x1), y0.min(y1), y0.max(y1));
+                let steps = |a: f64, b: f64| ((b - a).abs().ceil() as usize).clamp(1, 360);
+                let mut ring: Vec<(f64, f64)> = Vec::new();
+                let k = steps(w, e);
+                ring.extend((0..=k).map(|j| (w + (e - w) * j as f64 / k as f64, s_)));
+                ring.extend((0..=k).map(|j| (e - (e - w) * j as f64 / k as f64, n_)));
+                ring.push(ring[0]);
+                let mut pc = Pieces { rings: clip::polygon(p, &[ring]), ..Default::default() };
+                rotate(&mut pc, rot);
+                let px = fitted.to_pixels(&pc);
+                if px.rings.is_empty() {
+                    continue;
+                }
+                let paint = Paint { fill: Some(pal.muted.clone()), opacity: Some(0.15), even_odd: true, ..Default::default() };
+                if let (Some(b), false) = (fit::bounds([&px]), label.is_empty()) {
+                    out.push(text(b.0 + 4.0, b.1 + 14.0, &label));
+                }
+                out.insert(0, Node::Path { d: ring_segs(&px), paint, datum: None });
+            }
+            _ => {}
+        }
+    }
     out
 }
