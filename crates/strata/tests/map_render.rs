@@ -59,3 +59,21 @@ fn points_draw_big_under_small() {
     assert!((radii[0] / radii[1] - 10f64.sqrt()).abs() < 1e-9, "{radii:?}");
     assert!((radii[1] / radii[2] - 10f64.sqrt()).abs() < 1e-9, "{radii:?}");
 }
+
+// `shapes.sha256` (FIPS 180-4, as for data): the right digest passes, a
+// wrong one refuses the shapes; a url with no bytes says so.
+#[test]
+fn shapes_sha256_and_missing_bytes() {
+    let geo = br#"{"type":"FeatureCollection","features":[{"type":"Feature","properties":{"n":"a"},"geometry":{"type":"Point","coordinates":[1,2]}}]}"#;
+    let digest = strata::data::sha256_hex(geo);
+    let spec = |sha: &str| {
+        strata::parse_spec(&format!(r#"{{ "shapes": {{ "url": "s.geojson", "key": "n", "sha256": "{sha}" }}, "layers": [ {{ "draw": "region" }} ] }}"#))
+            .unwrap()
+    };
+    let bytes = Some(strata::DataBytes { bytes: geo, name: "s.geojson" });
+    assert!(strata::load_shapes(&spec(&digest), bytes).unwrap().is_some());
+    let e = strata::load_shapes(&spec(&"0".repeat(64)), bytes).unwrap_err();
+    assert_eq!(e.0[0].code, "shapes.sha256_mismatch");
+    let e = strata::load_shapes(&spec(&digest), None).unwrap_err();
+    assert_eq!(e.0[0].code, "shapes.missing");
+}
