@@ -50,7 +50,8 @@ export type StrataErrorEvent = CustomEvent<StrataErrorDetail>;
  * the `spec-src` attribute, or the `spec` property) with the data named by the
  * `src` attribute or the spec's `data.url`.
  *
- * Attributes: `src` (data URL), `spec-src` (spec URL), `theme` (`light`,
+ * Attributes: `src` (data URL), `spec-src` (spec URL), `shapes-src` (GeoJSON
+ * URL of a map, overriding the spec's `shapes.url`), `theme` (`light`,
  * `dark` or `auto`, overriding the spec's). Each change redraws.
  */
 export declare class StrataChart extends HTMLElement {

@@ -133,7 +133,7 @@ const fail = (code, message, extra = {}) => new ChartError([{ severity: 'error',
 
 export class StrataChart extends HTMLElement {
   static get observedAttributes() {
-    return ['src', 'spec-src', 'theme', 'timeout'];
+    return ['src', 'spec-src', 'shapes-src', 'theme', 'timeout'];
   }
 
   #spec = null; // object set from JavaScript
@@ -327,8 +327,8 @@ export class StrataChart extends HTMLElement {
     return { text: script.textContent, base: document.baseURI };
   }
 
-  #fetchData(url) {
-    return this.#fetchBytes(url, 'data.fetch', 'data', 'data.url');
+  #fetchData(url, path = 'data.url') {
+    return path === 'data.url' ? this.#fetchBytes(url, 'data.fetch', 'data', path) : this.#fetchBytes(url, 'shapes.fetch', 'shapes', path);
   }
 
   #width(spec) {
@@ -389,6 +389,12 @@ export class StrataChart extends HTMLElement {
           }
         }
       }
+      // GeoJSON shapes of a map: the `shapes-src` attribute, or `shapes.url`.
+      let shapes;
+      const shapesDeclared = spec && typeof spec === 'object' && spec.shapes && typeof spec.shapes === 'object' ? spec.shapes.url : null;
+      const shapesSrc = this.getAttribute('shapes-src');
+      const shapesUrl = shapesSrc ? new URL(shapesSrc, document.baseURI) : typeof shapesDeclared === 'string' ? new URL(shapesDeclared, source.base) : null;
+      if (shapesUrl) shapes = await this.#fetchData(shapesUrl, 'shapes.url');
       const width = this.#width(spec);
       const arrow = !!bytes && isArrow(bytes, name, spec);
       let raw;
@@ -400,7 +406,11 @@ export class StrataChart extends HTMLElement {
         const current = loaded.core === engine && (!arrow || loaded.arrow === addon);
         if (!current && attempt < 2) continue;
         try {
-          raw = arrow ? engine.render_columns(text, addon.decode(bytes), width) : engine.render(text, bytes, name, width);
+          raw = arrow
+            ? engine.render_columns(text, addon.decode(bytes), width)
+            : shapes
+              ? engine.render_with_shapes(text, bytes, name, shapes, width)
+              : engine.render(text, bytes, name, width);
           break;
         } catch (e) {
           // The engine trapped (a panic, a stack overflow, out of memory):

@@ -103,7 +103,20 @@ fn render_one(page: &Path, chart: &Found, width: f64, site: &Site) -> Result<Str
     };
     let name = reference.as_ref().map(|(_, r)| r.clone()).unwrap_or_default();
     let data = bytes.as_deref().map(|b| DataBytes { bytes: b, name: &name });
-    let r = strata::render_spec(&spec, data, &RenderOptions { scene: SceneOptions { width } }).map_err(|e| e.to_string())?;
+    // `shapes.url` is read by the same rules as `data.url`.
+    let shapes_ref = match spec.shapes.as_ref().and_then(|s| s.url.clone()) {
+        Some(url) => Some((site.resolve(&spec_base, &url).map_err(|e| format!("shapes.url: {e}"))?, url)),
+        None => None,
+    };
+    let shapes_bytes = match &shapes_ref {
+        Some((p, r)) => {
+            Some(read_capped(p, MAX_DATA_BYTES, "shapes").map_err(|_| format!("cannot read `{r}`, or it is larger than {} MB", MAX_DATA_BYTES >> 20))?)
+        }
+        None => None,
+    };
+    let shapes_name = shapes_ref.as_ref().map(|(_, r)| r.clone()).unwrap_or_default();
+    let shapes = shapes_bytes.as_deref().map(|b| DataBytes { bytes: b, name: &shapes_name });
+    let r = strata::render_spec_with_shapes(&spec, data, shapes, &RenderOptions { scene: SceneOptions { width } }).map_err(|e| e.to_string())?;
     // The chart, then its data table, as the element places them.
     Ok(format!("{}{}", r.svg.trim_end(), r.table))
 }

@@ -154,7 +154,15 @@ pub(crate) fn check_text(src: &Source, theme: Option<&str>, data: DataFrom, root
     let name = path.as_ref().map(|p| p.display().to_string()).unwrap_or_default();
     let diagnostics = if bytes.is_some() || spec.data.as_ref().is_some_and(|d| d.object().rows.is_some()) {
         let data = bytes.as_deref().map(|b| DataBytes { bytes: b, name: &name });
-        match strata::render_spec(&spec, data, &RenderOptions::default()) {
+        // `shapes.url`, relative to the spec's file.
+        let shapes_bytes = match (src.file.parent(), spec.shapes.as_ref().and_then(|s| s.url.clone())) {
+            (Some(dir), Some(url)) => {
+                crate::files::local(dir, &url, root).ok().and_then(|p| crate::files::read_capped(&p, crate::files::MAX_DATA_BYTES, "shapes").ok())
+            }
+            _ => None,
+        };
+        let shapes = shapes_bytes.as_deref().map(|b| DataBytes { bytes: b, name: "shapes" });
+        match strata::render_spec_with_shapes(&spec, data, shapes, &RenderOptions::default()) {
             Ok(r) => r.warnings,
             Err(e) => e.0,
         }

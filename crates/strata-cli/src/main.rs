@@ -32,6 +32,9 @@ enum Command {
         /// Data file; overrides the spec's `data.url`.
         #[arg(long)]
         data: Option<PathBuf>,
+        /// GeoJSON file; overrides the spec's `shapes.url`.
+        #[arg(long)]
+        shapes: Option<PathBuf>,
         /// Output file; standard output when absent.
         #[arg(short = 'o', long)]
         output: Option<PathBuf>,
@@ -162,6 +165,17 @@ fn load(spec_path: &Path, data: Option<&Path>, root: Option<&Path>) -> Result<(S
 const MAX_REPORTED: usize = 50;
 const MAX_MESSAGE_CHARS: usize = 2000;
 
+/// Read the spec's `shapes.url` as its data is read: a regular file under
+/// the site root (the spec's folder unless given), through the byte cap.
+fn load_shapes(spec_path: &Path, spec: &strata::spec::Spec, root: Option<&Path>) -> Result<Option<(Vec<u8>, String)>, String> {
+    let Some(u) = spec.shapes.as_ref().and_then(|s| s.url.clone()) else { return Ok(None) };
+    let fail = |e: String| format!("strata: {}: error at shapes.url: {e}", spec_path.display());
+    let spec_dir = spec_path.parent().filter(|p| !p.as_os_str().is_empty()).unwrap_or(Path::new("."));
+    let p = files::local(spec_dir, &u, root).map_err(fail)?;
+    let b = files::read_capped(&p, files::MAX_DATA_BYTES, "shapes").map_err(fail)?;
+    Ok(Some((b, u)))
+}
+
 fn report(spec_path: &Path, e: &Errors) -> String {
     let mut lines: Vec<String> = e.0.iter().take(MAX_REPORTED).map(|d| cap_chars(&format!("strata: {}: {d}", spec_path.display()))).collect();
     if e.0.len() > MAX_REPORTED {
@@ -180,11 +194,17 @@ fn cap_chars(s: &str) -> String {
 
 fn run(cmd: Command) -> Result<(), String> {
     match cmd {
-        Command::Render { spec, data, output, scene, table, width, root } => {
+        Command::Render { spec, data, shapes, output, scene, table, width, root } => {
             let (_, parsed, bytes) = load(&spec, data.as_deref(), root.as_deref())?;
             let opts = RenderOptions { scene: SceneOptions { width } };
             let data = bytes.as_ref().map(|(b, n)| DataBytes { bytes: b, name: n });
-            let r = strata::render_spec(&parsed, data, &opts).map_err(|e| report(&spec, &e))?;
+            let shapes = match shapes {
+                // A file named on the command line is the caller's choice: read through the cap only.
+                Some(p) => Some((files::read_capped(&p, files::MAX_DATA_BYTES, "shapes").map_err(|e| format!("strata: {e}"))?, p.display().to_string())),
+                None => load_shapes(&spec, &parsed, root.as_deref())?,
+            };
+            let shapes = shapes.as_ref().map(|(b, n)| DataBytes { bytes: b, name: n });
+            let r = strata::render_spec_with_shapes(&parsed, data, shapes, &opts).map_err(|e| report(&spec, &e))?;
             for w in r.warnings.iter().take(MAX_REPORTED) {
                 err_line(&cap_chars(&format!("strata: {}: {w}", spec.display())));
             }

@@ -32,9 +32,16 @@ struct Answer<'a> {
 /// (a URL or file name; its extension hints the format). `width` is the
 /// container's width in CSS pixels, used when the spec sets none.
 pub fn render_json(spec: &str, data: Option<&[u8]>, data_name: &str, width: f64) -> String {
+    render_json_with_shapes(spec, data, data_name, None, width)
+}
+
+/// [`render_json`] with the bytes of the spec's `shapes.url` (GeoJSON).
+pub fn render_json_with_shapes(spec: &str, data: Option<&[u8]>, data_name: &str, shapes: Option<&[u8]>, width: f64) -> String {
     let opts = render_options(width);
     let data = data.map(|bytes| DataBytes { bytes, name: data_name });
-    answer_json(strata::render(spec, data, &opts))
+    let shapes = shapes.map(|bytes| DataBytes { bytes, name: "shapes" });
+    let spec = spec.strip_prefix('\u{feff}').unwrap_or(spec);
+    answer_json(strata::parse_spec(spec).map_err(strata::budget::cap_messages).and_then(|s| strata::render_spec_with_shapes(&s, data, shapes, &opts)))
 }
 
 fn render_options(width: f64) -> RenderOptions {
@@ -74,6 +81,12 @@ pub fn render_columns(spec: &str, columns: &[u8], width: f64) -> String {
 #[wasm_bindgen]
 pub fn render(spec: &str, data: Option<Vec<u8>>, data_name: &str, width: f64) -> String {
     render_json(spec, data.as_deref(), data_name, width)
+}
+
+/// [`render`] with the bytes of `shapes.url` (the element fetches them).
+#[wasm_bindgen]
+pub fn render_with_shapes(spec: &str, data: Option<Vec<u8>>, data_name: &str, shapes: Option<Vec<u8>>, width: f64) -> String {
+    render_json_with_shapes(spec, data.as_deref(), data_name, shapes.as_deref(), width)
 }
 
 /// Read data bytes into a table and report its shape as JSON

@@ -28,6 +28,8 @@ pub enum Channel {
     Text,
     /// Series and groups without a colour.
     Group,
+    /// The value that names a row's shape (a `region` layer's link to `shapes.key`).
+    Key,
     /// Where a bar's or area's extent starts (0, or the top of the mark below it when stacked).
     YBase,
     /// Jitter or dodge within a band, as a fraction of the band (discrete x only).
@@ -78,6 +80,7 @@ impl Channel {
         ("opacity", Channel::Opacity),
         ("text", Channel::Text),
         ("group", Channel::Group),
+        ("key", Channel::Key),
         ("y_base", Channel::YBase),
         ("x_offset", Channel::XOffset),
         ("y_low", Channel::YLow),
@@ -98,8 +101,19 @@ impl Channel {
     ];
 
     /// The channels a spec layer maps to columns, in the spec's order.
-    pub const MAPPED: [Channel; 10] =
-        [Channel::X, Channel::Y, Channel::XEnd, Channel::YEnd, Channel::Color, Channel::Size, Channel::Shape, Channel::Opacity, Channel::Text, Channel::Group];
+    pub const MAPPED: [Channel; 11] = [
+        Channel::X,
+        Channel::Y,
+        Channel::XEnd,
+        Channel::YEnd,
+        Channel::Color,
+        Channel::Size,
+        Channel::Shape,
+        Channel::Opacity,
+        Channel::Text,
+        Channel::Group,
+        Channel::Key,
+    ];
 
     /// The internal channels that place a row in a panel: stacks, series and
     /// statistics never cross them.
@@ -118,6 +132,7 @@ impl Channel {
             Channel::Opacity => "opacity",
             Channel::Text => "text",
             Channel::Group => "group",
+            Channel::Key => "key",
             Channel::YBase => "y_base",
             Channel::XOffset => "x_offset",
             Channel::YLow => "y_low",

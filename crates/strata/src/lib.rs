@@ -29,6 +29,7 @@ pub mod datatable;
 pub mod error;
 pub mod expr;
 pub mod format;
+pub mod geo;
 pub mod guard;
 pub mod lint;
 pub mod math;
@@ -102,15 +103,59 @@ pub fn load_table(spec: &Spec, data: Option<DataBytes>) -> Result<data::Table, E
         .into())
 }
 
+/// Read the shapes a spec asks for: inline `shapes.features`, or the given
+/// bytes (`shapes.url`, fetched by the host), checked against `shapes.sha256`.
+pub fn load_shapes(spec: &Spec, bytes: Option<DataBytes>) -> Result<Option<Vec<geo::geojson::Feature>>, Errors> {
+    let Some(s) = &spec.shapes else { return Ok(None) };
+    let key = s.key.as_deref();
+    if let Some(features) = &s.features {
+        return geo::geojson::read(&serde_json::Value::Array(features.clone()), key, "shapes.features").map(Some).map_err(Errors);
+    }
+    let Some(b) = bytes else {
+        return Err(Diagnostic::error("shapes.missing", "the shapes were not read")
+            .at_path("shapes")
+            .with_hint("give `shapes.url` (read by the host, like `data.url`) or inline `shapes.features`")
+            .into());
+    };
+    if let Some(want) = &s.sha256 {
+        let got = data::sha256_hex(b.bytes);
+        if got != want.trim().to_ascii_lowercase() {
+            return Err(Diagnostic::error(
+                "shapes.sha256_mismatch",
+                format!("the shapes' SHA-256 digest is {got}, but `shapes.sha256` expects {want}; the shapes were refused"),
+            )
+            .at_path("shapes.sha256")
+            .into());
+        }
+    }
+    geo::geojson::read_bytes(b.bytes, key, "shapes").map(Some).map_err(Errors)
+}
+
 /// The whole pipeline for a parsed spec; error messages are capped in length.
 pub fn render_spec(spec: &Spec, data: Option<DataBytes>, opts: &RenderOptions) -> Result<Rendered, Errors> {
+    render_spec_with_shapes(spec, data, None, opts)
+}
+
+/// [`render_spec`] with the bytes of `shapes.url`, when the spec names one.
+pub fn render_spec_with_shapes(spec: &Spec, data: Option<DataBytes>, shapes: Option<DataBytes>, opts: &RenderOptions) -> Result<Rendered, Errors> {
     let has_bytes = data.is_some();
-    check_width(opts).and_then(|()| load_table(spec, data)).and_then(|table| render_stages(spec, table, has_bytes, opts)).map_err(budget::cap_messages)
+    let run = || {
+        check_width(opts)?;
+        let shapes = load_shapes(spec, shapes)?;
+        // A base map needs no table.
+        let table = if spec.data.is_none() && shapes.is_some() { data::from_rows(&[], &Default::default())? } else { load_table(spec, data)? };
+        render_stages(spec, table, shapes, has_bytes, opts)
+    };
+    run().map_err(budget::cap_messages)
 }
 
 /// The pipeline from stage 2b on, for a table already read.
 pub fn render_table(spec: &Spec, table: data::Table, opts: &RenderOptions) -> Result<Rendered, Errors> {
-    check_width(opts).and_then(|()| render_stages(spec, table, true, opts)).map_err(budget::cap_messages)
+    let run = || {
+        check_width(opts)?;
+        render_stages(spec, table, None, true, opts)
+    };
+    run().map_err(budget::cap_messages)
 }
 
 fn check_width(opts: &RenderOptions) -> Result<(), Errors> {
@@ -126,11 +171,17 @@ fn check_width(opts: &RenderOptions) -> Result<(), Errors> {
     Ok(())
 }
 
-fn render_stages(spec: &Spec, table: data::Table, has_bytes: bool, opts: &RenderOptions) -> Result<Rendered, Errors> {
+fn render_stages(
+    spec: &Spec,
+    table: data::Table,
+    shapes: Option<Vec<geo::geojson::Feature>>,
+    has_bytes: bool,
+    opts: &RenderOptions,
+) -> Result<Rendered, Errors> {
     // Budgets at each stage boundary (budget.rs): the table after reading
     // and after each derive, marks and categories after planning, the SVG.
     let table = budget::apply_derives(table, spec)?;
-    let plan = plan::build(spec, &table)?;
+    let plan = plan::build_with_shapes(spec, &table, shapes)?;
     budget::check_plan(&plan)?;
     let scene = scene::build(&plan, &opts.scene);
     let svg = svg::write(&scene);

@@ -278,7 +278,14 @@ fn rendering_never_panics() {
         "{\"window\":{\"rows\":2,\"summary\":\"running_total\"}}",
     ];
     let arranges = ["none", "stack", "beside", "proportion", "jitter"];
-    let coords = ["\"cartesian\"", "{\"kind\":\"polar\",\"angle\":\"x\",\"inner\":0.3}", "{\"kind\":\"polar\",\"angle\":\"y\",\"start\":90}"];
+    let coords = [
+        "\"cartesian\"",
+        "{\"kind\":\"polar\",\"angle\":\"x\",\"inner\":0.3}",
+        "{\"kind\":\"polar\",\"angle\":\"y\",\"start\":90}",
+        "\"map\"",
+        "{\"kind\":\"map\",\"projection\":\"orthographic\",\"graticule\":30,\"fit\":\"data\"}",
+        "{\"kind\":\"map\",\"projection\":\"albers\",\"rotate\":30,\"center\":[170,-40]}",
+    ];
     let panels = [
         "",
         ",\"panels\":{\"by\":\"g\",\"columns\":2}",
@@ -297,6 +304,8 @@ fn rendering_never_panics() {
         ",\"scales\":{\"x\":{\"kind\":\"category\"},\"y\":{\"zero\":true,\"format\":\"#,##0.0\"}}",
         ",\"scales\":{\"y\":{\"kind\":\"symlog\",\"axis\":\"right\"},\"color\":{\"legend\":\"left\"}}",
         ",\"scales\":{\"x\":{\"domain\":[5,1]}}",
+        ",\"scales\":{\"color\":{\"kind\":\"steps\",\"breaks\":\"natural\",\"count\":4}}",
+        ",\"scales\":{\"color\":{\"kind\":\"steps\",\"breaks\":[0,1]}}",
     ];
     let xs = ["n", "m", "g", "d", "e"];
     let ys = ["n", "m", "v", "e"];

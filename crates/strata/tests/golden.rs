@@ -29,7 +29,10 @@ fn outputs(spec_path: &Path) -> Vec<(&'static str, String)> {
         (std::fs::read(&p).unwrap_or_else(|e| panic!("{}: {e}", p.display())), u)
     });
     let data = bytes.as_ref().map(|(b, n)| DataBytes { bytes: b, name: n });
-    match strata::render_spec(&spec, data, &RenderOptions::default()) {
+    let shapes_url = spec.shapes.as_ref().and_then(|s| s.url.clone());
+    let shapes_bytes = shapes_url.as_ref().map(|u| std::fs::read(spec_path.parent().unwrap().join(u)).unwrap());
+    let shapes = shapes_bytes.as_deref().map(|b| DataBytes { bytes: b, name: "shapes" });
+    match strata::render_spec_with_shapes(&spec, data, shapes, &RenderOptions::default()) {
         Ok(r) => {
             // No NaN or infinity anywhere in the scene (the SVG writer would
             // otherwise have to write something for it).

@@ -8,6 +8,7 @@
 mod arrange;
 mod chart;
 mod layer;
+pub mod map;
 mod panels;
 mod scales;
 mod stat;
@@ -70,10 +71,17 @@ pub struct Plan {
     /// Small multiples: one plan per panel, each with its own rows and, for
     /// free axes, its own position scales; `None` without panels.
     pub panels: Option<PanelPlans>,
+    /// The map, under `coords.kind = "map"` or with a `region` layer.
+    pub map: Option<map::MapPlan>,
 }
 
 /// Resolve the spec against the table.
 pub fn build(spec: &Spec, table: &Table) -> Result<Plan, Errors> {
+    build_with_shapes(spec, table, None)
+}
+
+/// [`build`] with the chart's shapes (read from `shapes` by the caller).
+pub fn build_with_shapes(spec: &Spec, table: &Table, shapes: Option<Vec<crate::geo::geojson::Feature>>) -> Result<Plan, Errors> {
     let mut errors = Vec::new();
     let mut warnings = Vec::new();
     let mut layers = Vec::new();
@@ -100,7 +108,12 @@ pub fn build(spec: &Spec, table: &Table) -> Result<Plan, Errors> {
     }
     panels::check_count(spec, &layers)?;
     let scales = scales::train(spec, &layers)?;
-    let mut plan = Plan { layers, scales, warnings, chart: Chart::of(spec), panels: None };
+    let mut warnings = warnings;
+    let map = match map::coords(spec) {
+        Some(m) => Some(map::resolve(spec, &m, shapes, &layers, &mut warnings)?),
+        None => None,
+    };
+    let mut plan = Plan { layers, scales, warnings, chart: Chart::of(spec), panels: None, map };
     plan.panels = panels::split(spec, &plan);
     if plan.chart.description.is_none() {
         plan.chart.description = Some(summary::describe(&plan));

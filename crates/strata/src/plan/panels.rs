@@ -146,7 +146,8 @@ fn cut(plan: &Plan, channels: &[(Channel, &IndexSet<String>)], independent: (boo
                 }
             }
             // A panel's plan: its rows and scales; the chart-wide options stay on the whole plan.
-            Plan { layers, scales, warnings: plan.warnings.clone(), chart: Default::default(), panels: None }
+            let map = plan.map.as_ref().map(|m| m.for_layers(&layers));
+            Plan { layers, scales, warnings: plan.warnings.clone(), chart: Default::default(), panels: None, map }
         })
         .collect()
 }

@@ -17,6 +17,10 @@ pub enum ColorScale {
     Categories(Vec<String>),
     /// Numbers between lo and hi on a ramp.
     Ramp { lo: f64, hi: f64 },
+    /// Numbers in classes (`kind: steps`): ascending upper bounds, the
+    /// last the largest value, and the smallest value; class i takes the
+    /// ramp's colour at (i + 1/2) / classes.
+    Steps { lo: f64, bounds: Vec<f64> },
 }
 
 #[derive(Debug, Clone)]
@@ -68,7 +72,20 @@ impl Scales {
                 let v = vals.num(i)?;
                 Some(self.ramp_color(v, *lo, *hi, scheme))
             }
+            (ColorScale::Steps { bounds, .. }, scheme) => {
+                let c = crate::geo::classify::class_of(bounds, vals.num(i)?)?;
+                Some(self.step_color(c, bounds.len(), scheme))
+            }
         }
+    }
+
+    /// Colour of class `c` of `n` on a `steps` scale.
+    pub fn step_color(&self, c: usize, n: usize, scheme: Scheme) -> String {
+        let ramp = match scheme {
+            Scheme::Ramp(r) => r,
+            Scheme::Categorical(..) => color::LAGOON,
+        };
+        ramp.at((c as f64 + 0.5) / n.max(1) as f64)
     }
 
     /// Colour of a number on the continuous colour scale.
@@ -106,6 +123,35 @@ impl Scales {
         let k = vals.key(i)?;
         self.shape.as_ref()?.iter().position(|c| *c == k)
     }
+}
+
+/// A `steps` colour scale: class breaks by `breaks` over every layer's
+/// colour values (`geo::classify`), `count` classes (default 5).
+fn steps(spec: &ScaleSpec, layers: &[PlannedLayer], lo: f64, hi: f64) -> Result<ColorScale, Errors> {
+    use crate::geo::classify;
+    use crate::spec::{BreakMethod, Breaks};
+    let k = spec.count.unwrap_or(5).clamp(2, 12) as usize;
+    let mut xs = Vec::new();
+    for l in layers {
+        if let Some(v) = l.data.get(Channel::Color) {
+            xs.extend((0..v.len()).filter_map(|i| v.num(i)));
+        }
+    }
+    let bounds = match &spec.breaks {
+        Some(Breaks::List(b)) => {
+            let mut b: Vec<f64> = b.iter().copied().filter(|x| x.is_finite()).collect();
+            if b.windows(2).any(|w| w[0] >= w[1]) {
+                return Err(Diagnostic::error("spec.bad_breaks", "the breaks must be numbers in increasing order").at_path("scales.color.breaks").into());
+            }
+            // Listed breaks are the upper bounds of all but the last class.
+            b.push(hi.max(b.last().copied().unwrap_or(hi)));
+            b
+        }
+        Some(Breaks::Method(BreakMethod::Quantile)) => classify::quantile(&xs, k),
+        Some(Breaks::Method(BreakMethod::Equal)) => classify::equal(&xs, k),
+        Some(Breaks::Method(BreakMethod::Natural)) | None => classify::natural(&xs, k),
+    };
+    Ok(ColorScale::Steps { lo, bounds })
 }
 
 fn domain_error(axis: &str) -> Errors {
@@ -151,6 +197,8 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
             None => num_as_text(layers, Channel::Color),
         };
         (!cats.is_empty()).then_some(ColorScale::Categories(cats))
+    } else if let (Some((lo, hi)), Some(ScaleKind::Steps)) = (num, color_spec.kind) {
+        Some(steps(&color_spec, layers, lo, hi)?)
     } else if let Some((lo, hi)) = num {
         let (lo, hi) = explicit_domain(&color_spec, "color")?.unwrap_or((lo, hi));
         Some(ColorScale::Ramp { lo, hi })
@@ -166,12 +214,15 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
             )
         })?,
         None => match color {
-            Some(ColorScale::Ramp { lo, hi }) if lo < 0.0 && hi > 0.0 => Scheme::Ramp(color::CROSSING),
-            Some(ColorScale::Ramp { .. }) => Scheme::Ramp(color::LAGOON),
+            Some(ColorScale::Ramp { lo, hi }) if lo < 0.0 && hi > 0.0 => Scheme::Ramp(color::ESTUARY),
+            // A `middle` inside the domain asks for a diverging ramp.
+            Some(ColorScale::Ramp { lo, hi }) if color_spec.middle.is_some_and(|m| m > lo && m < hi) => Scheme::Ramp(color::ESTUARY),
+            Some(ColorScale::Ramp { .. }) | Some(ColorScale::Steps { .. }) => Scheme::Ramp(color::LAGOON),
             _ => Scheme::Categorical("harbour", &color::HARBOUR),
         },
     };
     let color_mid = match color {
+        _ if color_spec.middle.is_some() => color_spec.middle,
         Some(ColorScale::Ramp { lo, hi }) if lo < 0.0 && hi > 0.0 => Some(0.0),
         Some(ColorScale::Ramp { lo, hi }) => Some((lo + hi) / 2.0),
         _ => None,
@@ -484,7 +535,7 @@ mod tests {
         // Numbers spanning zero default to the diverging ramp, centred on zero.
         l.data.channels.insert(Channel::Color, Values::Num(vec![-10.0, 0.0, 30.0].into()));
         let s = train(&spec("{}"), std::slice::from_ref(&l)).unwrap();
-        assert_eq!(s.color_of(l.data.get(Channel::Color).unwrap(), 1), Some(color::CROSSING.at(0.5)));
+        assert_eq!(s.color_of(l.data.get(Channel::Color).unwrap(), 1), Some(color::ESTUARY.at(0.5)));
         // Categories take the default palette in order of first appearance.
         l.data.channels.insert(Channel::Color, Values::Text(vec![Some("b".into()), Some("a".into()), Some("b".into())]));
         let s = train(&spec("{}"), std::slice::from_ref(&l)).unwrap();

@@ -172,6 +172,7 @@ pub fn build(plan: &Plan, opts: &SceneOptions) -> Scene {
 
     let inputs = PlotInputs { chart, pal: &pal, loc, narrow, pad, left, width, legend_on_right, ts };
     match &plan.panels {
+        None if plan.map.is_some() => children.extend(super::map::draw(plan, &pal, left, top, right, bottom, false)),
         None => children.extend(plot_area(&inputs, plan, left, right, top, bottom)),
         Some(PanelPlans::Wrap { names, cells }) => children.extend(panel_grid(&inputs, plan, names, cells, right, top, bottom)),
         Some(PanelPlans::Grid { rows, cols, cells }) => {
@@ -258,7 +259,14 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, names: GridNames, cells: &[Plan], ri
     let (independent_h, independent_v) = if transposed { (independent_y, independent_x) } else { (independent_x, independent_y) };
     let (h_spec, v_spec) = if transposed { (&plan.scales.y_spec, &plan.scales.x_spec) } else { (&plan.scales.x_spec, &plan.scales.y_spec) };
     let (h_top, v_right) = (h_spec.axis == Some(Placement::Top), v_spec.axis == Some(Placement::Right));
-    let (h_title, v_title, _, _) = axis_titles(chart, &plan.scales);
+    // Maps in panels draw no axes.
+    let is_map = plan.map.is_some();
+    let (h_title, v_title) = if is_map {
+        ("", "")
+    } else {
+        let t = axis_titles(chart, &plan.scales);
+        (t.0, t.1)
+    };
     let (gap_x, gap_y) = panel_gaps(inp.narrow);
     let band = guides::title_band(inp.ts);
     // Row names read across at the left of each row (bold, up to a fifth of the width).
@@ -290,8 +298,8 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, names: GridNames, cells: &[Plan], ri
     // column (or over the top row), y beside the first (or last) panel of each row.
     let last_row = |c: usize| (0..nr).rev().find(|r| exists(*r, c)).unwrap_or(0);
     let last_col = |r: usize| (0..nc).rev().find(|c| exists(r, *c)).unwrap_or(0);
-    let draw_h = |r: usize, c: usize| independent_h || r == if h_top { 0 } else { last_row(c) };
-    let draw_v = |r: usize, c: usize| independent_v || c == if v_right { last_col(r) } else { 0 };
+    let draw_h = |r: usize, c: usize| !is_map && (independent_h || r == if h_top { 0 } else { last_row(c) });
+    let draw_v = |r: usize, c: usize| !is_map && (independent_v || c == if v_right { last_col(r) } else { 0 });
     // Room beside the frame of the panel in row r, column c: left, right,
     // top, bottom. At the grid's outer ends the horizontal labels reach as
     // in a single plot; between columns they share the gap, and take more
@@ -331,6 +339,7 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, names: GridNames, cells: &[Plan], ri
     }
 
     let (row_name, col_name) = (chart.panels.rows_name.clone(), chart.panels.cols_name.clone());
+    let reserve = is_map && cells.iter().any(super::map::has_no_data);
     let mut out = Vec::with_capacity(cells.len() + 1);
     for r in 0..nr {
         for c in 0..nc {
@@ -363,7 +372,11 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, names: GridNames, cells: &[Plan], ri
                     kids.push(strip_text(frame.left, strip_top + inp.ts * text::ASCENT, words, Anchor::Start, inp.pal, inp.ts));
                 }
             }
-            kids.extend(plot_draw(inp, &cells[i], &lays[i], frame, draw_h(r, c), draw_v(r, c)));
+            if cells[i].map.is_some() {
+                kids.extend(super::map::draw(&cells[i], inp.pal, frame.left, frame.top, frame.left + pw, frame.top + ph, reserve));
+            } else {
+                kids.extend(plot_draw(inp, &cells[i], &lays[i], frame, draw_h(r, c), draw_v(r, c)));
+            }
             out.push(Node::Group {
                 class: "strata-facet".into(),
                 role: Some("graphics-object".into()),

@@ -45,7 +45,8 @@ impl Coord {
     pub fn new(c: &Coords, transposed: bool, frame: Frame) -> Coord {
         match c {
             Coords::Cartesian if transposed => Coord::Transposed(frame),
-            Coords::Cartesian => Coord::Cartesian(frame),
+            // A map draws in `scene::map`; marks there never ask this.
+            Coords::Cartesian | Coords::Map(_) => Coord::Cartesian(frame),
             Coords::Polar(p) => Coord::Polar { frame, angle_is_x: p.angle == AngleChannel::X, start: p.start, inner: p.inner.clamp(0.0, 0.95) },
         }
     }

@@ -565,6 +565,19 @@ pub fn legends(scales: &Scales, mark: SwatchMark, size: f64) -> Vec<Legend> {
             let ticks = scale.ticks_with(&TickOptions { wanted: 3, pattern: scales.color_spec.format.as_deref(), locale: loc, short: false });
             out.push(Legend { title: scales.color_title.clone(), body: LegendBody::Gradient { colors, ticks }, channel: Channel::Color, size });
         }
+        Some(ColorScale::Steps { lo, bounds }) if !hidden(&scales.color_spec) => {
+            // A stepped legend: one swatch a class, labelled with its break values.
+            let all: Vec<f64> = std::iter::once(*lo).chain(bounds.iter().copied()).collect();
+            let step = all.windows(2).map(|w| w[1] - w[0]).filter(|d| *d > 0.0).fold(f64::INFINITY, f64::min);
+            let pattern = scales.color_spec.format.clone().unwrap_or_else(|| crate::format::default_pattern(if step.is_finite() { step } else { 1.0 }));
+            let f = |v: f64| crate::format::number(v, &pattern, loc);
+            let items = bounds
+                .iter()
+                .enumerate()
+                .map(|(i, b)| (format!("{} – {}", f(all[i]), f(*b)), scales.step_color(i, bounds.len(), scales.color_scheme)))
+                .collect();
+            out.push(Legend { title: scales.color_title.clone(), body: LegendBody::Swatches(items, SwatchMark::Square), channel: Channel::Color, size });
+        }
         _ => {}
     }
     if let Some(s) = &scales.size {

@@ -21,7 +21,7 @@ pub struct Ctx<'a> {
     pub text_size: f64,
 }
 
-fn datum(layer: &PlannedLayer, i: usize) -> Datum {
+pub(super) fn datum(layer: &PlannedLayer, i: usize) -> Datum {
     let mut d: Datum = layer.data.channels.iter().filter(|(k, _)| !k.is_drawing_aid()).map(|(k, v)| (k.name().to_string(), v.json(i))).collect();
     // `tooltip` columns ride along under one key; the SVG writer turns them into
     // a hover title and makes the mark keyboard-focusable.
@@ -63,6 +63,8 @@ pub fn layer_marks(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         Geometry::Box => boxes(ctx, layer),
         Geometry::Cell => cells(ctx, layer),
         Geometry::Label => labels(ctx, layer),
+        // Regions are shapes: `scene::map` draws them.
+        Geometry::Region => Vec::new(),
     }
 }
 

@@ -7,6 +7,7 @@
 mod build;
 mod coord;
 mod guides;
+mod map;
 mod marks;
 mod notes;
 mod shapes;
@@ -50,6 +51,9 @@ pub struct Paint {
     pub opacity: Option<f64>,
     #[serde(skip_serializing_if = "Option::is_none")]
     pub dash: Option<Vec<f64>>,
+    /// Fill by the even-odd rule (a map region's pieces and holes).
+    #[serde(skip_serializing_if = "std::ops::Not::not")]
+    pub even_odd: bool,
 }
 
 impl Paint {

@@ -46,6 +46,9 @@ pub struct Spec {
     pub description: Option<String>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub data: Option<DataRef>,
+    /// GeoJSON shapes for `region` layers and maps.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub shapes: Option<Shapes>,
     /// New columns from SQL-subset expressions, evaluated in order.
     #[serde(default, skip_serializing_if = "IndexMap::is_empty")]
     pub derive: IndexMap<String, String>,
@@ -128,6 +131,23 @@ impl DataRef {
     }
 }
 
+/// `shapes`: a GeoJSON (RFC 7946) source, by `url` or inline `features`.
+#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Shapes {
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub url: Option<String>,
+    /// Inline GeoJSON features.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub features: Option<Vec<serde_json::Value>>,
+    /// The feature property that names each shape.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub key: Option<String>,
+    /// Hex SHA-256 of the shapes' bytes; a mismatch refuses them.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub sha256: Option<String>,
+}
+
 // ---------------------------------------------------------------- layers
 
 #[derive(Debug, Clone, Serialize, Deserialize)]
@@ -154,6 +174,9 @@ pub struct Layer {
     pub text: Option<Mapping>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub group: Option<Mapping>,
+    /// A `region` layer's column matching `shapes.key`.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub key: Option<Mapping>,
     /// Columns shown on hover or focus.
     #[serde(default, skip_serializing_if = "Vec::is_empty")]
     pub tooltip: Vec<String>,
@@ -347,6 +370,23 @@ pub struct ScaleSpec {
     /// Base of a log scale (default 10).
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub base: Option<f64>,
+    /// Class breaks of a `steps` colour scale: a method or the numbers.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub breaks: Option<Breaks>,
+    /// Number of classes of a `steps` colour scale (default 5).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub count: Option<u32>,
+    /// Where a diverging colour palette turns (data units).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub middle: Option<f64>,
+}
+
+/// `breaks`: `natural`, `quantile`, `equal`, or a list of numbers.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(untagged)]
+pub enum Breaks {
+    Method(BreakMethod),
+    List(Vec<f64>),
 }
 
 // ---------------------------------------------------------------- coords, panels, notes, size, theme
@@ -357,6 +397,68 @@ pub enum Coords {
     #[default]
     Cartesian,
     Polar(Polar),
+    Map(MapCoords),
+}
+
+/// `coords: {"kind": "map", ...}`: x is longitude and y latitude (WGS 84 degrees).
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct MapCoords {
+    pub kind: MapKind,
+    #[serde(default = "default_projection")]
+    pub projection: ProjectionWord,
+    /// [longitude, latitude] of the map's centre.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub center: Option<[f64; 2]>,
+    /// Degrees the map turns about its centre, counter-clockwise.
+    #[serde(default)]
+    pub rotate: f64,
+    /// Standard parallels of the conic projections.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub parallels: Option<[f64; 2]>,
+    #[serde(default = "default_fit")]
+    pub fit: MapFit,
+    /// Graticule step in degrees, or `false`.
+    #[serde(default = "default_graticule")]
+    pub graticule: serde_json::Value,
+    /// Draw the outline of the sphere.
+    #[serde(default = "default_true")]
+    pub outline: bool,
+}
+
+impl Default for MapCoords {
+    fn default() -> Self {
+        MapCoords {
+            kind: MapKind::Map,
+            projection: default_projection(),
+            center: None,
+            rotate: 0.0,
+            parallels: None,
+            fit: default_fit(),
+            graticule: default_graticule(),
+            outline: true,
+        }
+    }
+}
+
+impl MapCoords {
+    /// The graticule step in degrees, `None` for `false`.
+    pub fn graticule_step(&self) -> Option<f64> {
+        self.graticule.as_f64()
+    }
+}
+
+fn default_projection() -> ProjectionWord {
+    ProjectionWord::EqualEarth
+}
+fn default_fit() -> MapFit {
+    MapFit::Shapes
+}
+fn default_graticule() -> serde_json::Value {
+    serde_json::Value::Bool(false)
+}
+fn default_true() -> bool {
+    true
 }
 
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
@@ -456,7 +558,7 @@ pub struct ThemeOverrides {
 impl Layer {
     /// The layer's channels that are set, by name, in a fixed order.
     pub fn channels(&self) -> Vec<(Channel, &Mapping)> {
-        let all: [(Channel, &Option<Mapping>); 10] = [
+        let all: [(Channel, &Option<Mapping>); 11] = [
             (Channel::X, &self.x),
             (Channel::Y, &self.y),
             (Channel::XEnd, &self.x_end),
@@ -467,6 +569,7 @@ impl Layer {
             (Channel::Opacity, &self.opacity),
             (Channel::Text, &self.text),
             (Channel::Group, &self.group),
+            (Channel::Key, &self.key),
         ];
         all.into_iter().filter_map(|(n, c)| c.as_ref().map(|c| (n, c))).collect()
     }

@@ -30,6 +30,8 @@ pub enum Shape {
     },
     Bool,
     List(Box<Shape>),
+    /// A list of exactly two items of one shape (`[longitude, latitude]`).
+    Pair(Box<Shape>),
     /// An object with free keys (or keys from `keys`), each value of one shape.
     Map {
         keys: Option<&'static [&'static str]>,
@@ -84,9 +86,9 @@ fn list(s: Shape) -> Shape {
 // Each word list is its enum's (see `vocab.rs`): serde, this check, the
 // schema and the plan share one definition.
 pub const GEOMETRIES: &[&str] = Geometry::WORDS;
-/// The channels a layer maps (the keys of `scales`): the first ten of
+/// The channels a layer maps (the keys of `scales`): the first eleven of
 /// [`crate::channel::Channel`] (a test holds the two equal).
-pub const CHANNELS: &[&str] = &["x", "y", "x_end", "y_end", "color", "size", "shape", "opacity", "text", "group"];
+pub const CHANNELS: &[&str] = &["x", "y", "x_end", "y_end", "color", "size", "shape", "opacity", "text", "group", "key"];
 pub const COLUMN_TYPES: &[&str] = ColumnType::WORDS;
 pub const DATA_FORMATS: &[&str] = DataFormat::WORDS;
 pub const STAT_WORDS: &[&str] = StatWord::WORDS;
@@ -240,7 +242,7 @@ pub fn spec_shape() -> Shape {
     ]);
     let layer = obj(layer_fields);
     let scale = obj(vec![
-        f("kind", Shape::Word(SCALE_KINDS), "linear, log, sqrt, symlog, time or category. Default: from the data."),
+        f("kind", Shape::Word(SCALE_KINDS), "linear, log, sqrt, symlog, time, category, or steps (colour in classes). Default: from the data."),
         f("domain", list(Shape::Either(vec![num(None, None), text(), Shape::Bool])), "The values the scale covers: [low, high], or the categories in order."),
         f("zero", Shape::Bool, "Include zero in the domain. Default: true for bars and areas, false otherwise."),
         f("nice", Shape::Bool, "Round the domain out to tick values. Default: true, except for time."),
@@ -253,6 +255,13 @@ pub fn spec_shape() -> Shape {
         f("legend", Shape::Word(PLACEMENTS), "Where the legend goes: top, bottom, left, right, none."),
         f("hide", Shape::Bool, "Hide the axis or legend."),
         f("base", num(Some(0.0), None), "Base of a log scale (default 10)."),
+        f(
+            "breaks",
+            Shape::Either(vec![Shape::Word(BreakMethod::WORDS), list(num(None, None))]),
+            "Class breaks of a steps colour scale: natural (default), quantile, equal, or a list of numbers.",
+        ),
+        f("count", Shape::Integer { min: 2, max: 12 }, "Number of classes of a steps colour scale (default 5)."),
+        f("middle", num(None, None), "Where a diverging colour palette turns, in data units."),
     ]);
     let coords = Shape::Either(vec![
         Shape::Word(COORD_WORDS),
@@ -262,6 +271,34 @@ pub fn spec_shape() -> Shape {
             f("start", num(None, None), "Start angle in degrees clockwise from 12 o'clock (default 0)."),
             f("inner", num(Some(0.0), Some(1.0)), "Inner radius as a fraction of the outer one (default 0)."),
         ]),
+        obj(vec![
+            req("kind", Shape::Word(MapKind::WORDS), "map: x is longitude and y latitude (WGS 84 degrees)."),
+            f("projection", Shape::Word(ProjectionWord::WORDS), "The projection (default equal_earth)."),
+            f(
+                "center",
+                Shape::Pair(Box::new(num(Some(-180.0), Some(180.0)))),
+                "[longitude, latitude] of the map's centre (default: the middle of the shapes).",
+            ),
+            f("rotate", num(Some(-360.0), Some(360.0)), "Degrees the map turns about its centre, counter-clockwise (default 0)."),
+            f(
+                "parallels",
+                Shape::Pair(Box::new(num(Some(-90.0), Some(90.0)))),
+                "The two standard parallels of albers and lambert_conformal (default: a sixth in from each end of the shapes' latitudes).",
+            ),
+            f("fit", Shape::Word(MapFit::WORDS), "Fit the map to the shapes (default) or to the rows drawn (data)."),
+            f(
+                "graticule",
+                Shape::Either(vec![num(Some(1.0), Some(90.0)), Shape::Bool]),
+                "Lines of longitude and latitude every so many degrees, or false (default).",
+            ),
+            f("outline", Shape::Bool, "Draw the outline of the sphere (default true)."),
+        ]),
+    ]);
+    let shapes = obj(vec![
+        f("url", Shape::Text("a URL"), "Where the GeoJSON (RFC 7946) file is; the host reads it like data.url."),
+        f("features", list(Shape::Any), "Inline GeoJSON features."),
+        f("key", Shape::Text("a property name"), "The feature property that names each shape; a region layer's key column matches it."),
+        f("sha256", Shape::Text("64 hexadecimal digits"), "SHA-256 of the shapes' bytes; a mismatch refuses them."),
     ]);
     let panels = obj(vec![
         f("by", Shape::Text("a column name"), "One panel per value of this column, wrapped into rows."),
@@ -306,11 +343,12 @@ pub fn spec_shape() -> Shape {
         f("source", text(), "Source line under the chart."),
         f("description", text(), "Author-written text alternative; replaces the automatic summary for screen readers."),
         f("data", data, "The table: a URL, or an object."),
+        f("shapes", shapes, "GeoJSON shapes for region layers: a url or inline features, with the key property."),
         f("derive", Shape::Map { keys: None, value: Box::new(Shape::Text("an expression")) }, "New columns from SQL-subset expressions, evaluated in order."),
         f("where", Shape::Text("an expression"), "A SQL-subset condition; rows where it is TRUE are kept."),
         req("layers", list(layer), "The layers, drawn in order, later on top."),
         f("scales", Shape::Map { keys: Some(CHANNELS), value: Box::new(scale) }, "Scales keyed by channel."),
-        f("coords", coords, "Coordinate system: cartesian (default) or polar."),
+        f("coords", coords, "Coordinate system: cartesian (default), polar, or map."),
         f("panels", panels, "Small multiples."),
         f("notes", list(note), "Annotations: text, shaded spans, reference lines."),
         f("size", size, "The chart's size."),
@@ -363,6 +401,7 @@ impl Shape {
             Shape::Integer { .. } => "a whole number".into(),
             Shape::Bool => "true or false".into(),
             Shape::List(_) => "a list".into(),
+            Shape::Pair(item) => format!("a list of two items, each {}", item.expected()),
             Shape::Map { .. } | Shape::Object(_) => "an object".into(),
             Shape::Either(alts) => alts.iter().map(|a| a.expected()).collect::<Vec<_>>().join(", or "),
             Shape::Def(name) => def_shape(name).expected(),
@@ -375,7 +414,7 @@ impl Shape {
             Shape::Text(_) | Shape::Word(_) => v.is_string(),
             Shape::Number { .. } | Shape::Integer { .. } => v.is_number(),
             Shape::Bool => v.is_boolean(),
-            Shape::List(_) => v.is_array(),
+            Shape::List(_) | Shape::Pair(_) => v.is_array(),
             Shape::Map { .. } | Shape::Object(_) => v.is_object(),
             Shape::Either(alts) => alts.iter().any(|a| a.accepts_type(v)),
             Shape::Def(name) => def_shape(name).accepts_type(v),
@@ -393,12 +432,23 @@ fn key_path(path: &str, key: &str) -> String {
     }
 }
 
+/// Does an object alternative's `kind` word list hold the value's `kind`?
+fn kind_matches(a: &Shape, v: &Value) -> bool {
+    let Shape::Object(o) = a else { return true };
+    match (o.fields.iter().find(|f| f.name == "kind"), v.get("kind").and_then(Value::as_str)) {
+        (Some(Field { shape: Shape::Word(ws), .. }), Some(k)) => ws.contains(&k),
+        _ => true,
+    }
+}
+
 /// Check `v` against `shape`, pushing every problem found.
 pub fn check(v: &Value, shape: &Shape, path: &str, out: &mut Vec<Diagnostic>) {
     match shape {
         Shape::Any => {}
         Shape::Def(name) => check(v, &def_shape(name), path, out),
-        Shape::Either(alts) => match alts.iter().find(|a| a.accepts_type(v)) {
+        // Objects of one type are told apart by their `kind` word (coords:
+        // polar or map); the first fitting alternative otherwise.
+        Shape::Either(alts) => match alts.iter().find(|a| a.accepts_type(v) && kind_matches(a, v)).or_else(|| alts.iter().find(|a| a.accepts_type(v))) {
             Some(a) => check(v, a, path, out),
             None => out.push(wrong_type(shape, v, path)),
         },
@@ -435,6 +485,15 @@ pub fn check(v: &Value, shape: &Shape, path: &str, out: &mut Vec<Diagnostic>) {
         },
         Shape::List(item) => {
             for (i, x) in v.as_array().into_iter().flatten().enumerate() {
+                check(x, item, &format!("{path}[{i}]"), out);
+            }
+        }
+        Shape::Pair(item) => {
+            let items = v.as_array().map_or(&[][..], Vec::as_slice);
+            if items.len() != 2 {
+                out.push(Diagnostic::error("spec.wrong_type", format!("expected {}, found a list of {}", shape.expected(), items.len())).at_path(path));
+            }
+            for (i, x) in items.iter().enumerate() {
                 check(x, item, &format!("{path}[{i}]"), out);
             }
         }
@@ -518,6 +577,7 @@ fn schema_of(shape: &Shape, doc: Option<&str>) -> Value {
         Shape::Integer { min, max } => json!({"type": "integer", "minimum": min, "maximum": max}),
         Shape::Bool => json!({"type": "boolean"}),
         Shape::List(item) => json!({"type": "array", "items": schema_of(item, None)}),
+        Shape::Pair(item) => json!({"type": "array", "items": schema_of(item, None), "minItems": 2, "maxItems": 2}),
         Shape::Map { keys, value } => {
             let mut s = json!({"type": "object", "additionalProperties": schema_of(value, None)});
             if let Some(keys) = keys {
@@ -582,7 +642,7 @@ pub fn key_paths() -> Vec<String> {
                     walk(&f.shape, &p, out);
                 }
             }
-            Shape::List(item) => walk(item, &format!("{path}[]"), out),
+            Shape::List(item) | Shape::Pair(item) => walk(item, &format!("{path}[]"), out),
             Shape::Map { value, keys, .. } => walk(value, &format!("{path}.{}", if keys.is_some() { "CHANNEL" } else { "NAME" }), out),
             Shape::Either(alts) => alts.iter().for_each(|a| walk(a, path, out)),
             Shape::Def(name) => walk(&def_shape(name), path, out),

@@ -62,6 +62,7 @@ words! {
         Cell = "cell",
         Box = "box",
         Range = "range",
+        Region = "region",
     }
 }
 
@@ -208,6 +209,16 @@ words! {
         Symlog = "symlog",
         Time = "time",
         Category = "category",
+        Steps = "steps",
+    }
+}
+
+words! {
+    /// How a `steps` colour scale finds its class breaks (`geo::classify`).
+    pub enum BreakMethod {
+        Natural = "natural",
+        Quantile = "quantile",
+        Equal = "equal",
     }
 }
 
@@ -226,6 +237,36 @@ words! {
     pub enum CoordWord {
         Cartesian = "cartesian",
         Polar = "polar",
+        Map = "map",
+    }
+}
+
+words! {
+    /// The kind of a map coordinate object.
+    pub enum MapKind {
+        Map = "map",
+    }
+}
+
+words! {
+    /// Map projections, by their published names (`geo::project`).
+    pub enum ProjectionWord {
+        EqualEarth = "equal_earth",
+        Mercator = "mercator",
+        Equirectangular = "equirectangular",
+        Albers = "albers",
+        LambertConformal = "lambert_conformal",
+        LambertEqualArea = "lambert_equal_area",
+        Orthographic = "orthographic",
+        TransverseMercator = "transverse_mercator",
+    }
+}
+
+words! {
+    /// What a map is fitted to.
+    pub enum MapFit {
+        Shapes = "shapes",
+        Data = "data",
     }
 }
 

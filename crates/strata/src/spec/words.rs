@@ -105,16 +105,23 @@ impl FromWord for Stat {
 word_or_object!(Stat);
 
 impl FromWord for Coords {
-    const EXPECTED: &'static str = "`cartesian`, `polar`, or an object {\"kind\": \"polar\", ...}";
+    const EXPECTED: &'static str = "`cartesian`, `map`, or an object {\"kind\": \"polar\", ...} or {\"kind\": \"map\", ...}";
     fn from_word(word: &str) -> Result<Self, String> {
         match CoordWord::from_word(word) {
             Some(CoordWord::Cartesian) => Ok(Coords::Cartesian),
             Some(CoordWord::Polar) => Ok(Coords::Polar(Polar { kind: PolarKind::Polar, angle: AngleChannel::X, start: 0.0, inner: 0.0 })),
+            Some(CoordWord::Map) => Ok(Coords::Map(MapCoords::default())),
             None => Err(format!("unknown variant `{word}`, expected one of {}", quoted(CoordWord::WORDS))),
         }
     }
     fn from_object<'de, A: MapAccess<'de>>(map: A) -> Result<Self, A::Error> {
-        object(map).map(Coords::Polar)
+        let o: serde_json::Map<String, serde_json::Value> = object(map)?;
+        let v = serde_json::Value::Object(o);
+        if v.get("kind").and_then(serde_json::Value::as_str) == Some("map") {
+            serde_json::from_value(v).map(Coords::Map).map_err(de::Error::custom)
+        } else {
+            serde_json::from_value(v).map(Coords::Polar).map_err(de::Error::custom)
+        }
     }
 }
 word_or_object!(Coords);

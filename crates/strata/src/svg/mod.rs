@@ -107,6 +107,9 @@ fn paint(out: &mut String, p: &Paint) {
         let parts: Vec<String> = d.iter().map(|v| num(*v)).collect();
         let _ = write!(out, " stroke-dasharray=\"{}\"", parts.join(" "));
     }
+    if p.even_odd {
+        out.push_str(" fill-rule=\"evenodd\"");
+    }
 }
 
 /// A datum value as words.
