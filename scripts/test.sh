@@ -6,8 +6,9 @@ cd "$(dirname "$0")/.."
 scripts/setup.sh --test
 step() { printf '\n== %s\n' "$*"; }
 
-step "house habits: rustfmt"
+step "house habits: rustfmt and clippy"
 cargo fmt --all --check
+cargo clippy --quiet --workspace --all-targets -- -D warnings
 
 step "native tests"
 cargo test --workspace

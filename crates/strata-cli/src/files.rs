@@ -260,6 +260,15 @@ pub fn decode_entities(s: &str) -> String {
     out
 }
 
+/// A reference (`src`, `spec-src`, `data.url`) made in `dir`, resolved under
+/// the site root (`root`, or `dir` itself) by the rules of [`Site::resolve`].
+pub fn local(dir: &Path, reference: &str, root: Option<&Path>) -> Result<PathBuf, String> {
+    let dir = if dir.as_os_str().is_empty() { Path::new(".") } else { dir };
+    let site = Site::new(root.unwrap_or(dir))?;
+    let base = site.segments_of(dir)?;
+    site.resolve(&base, &decode_entities(reference))
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -297,13 +306,4 @@ mod tests {
         assert_eq!(decode_entities("&unknown;&"), "&unknown;&");
         assert_eq!(decode_entities("&#0;&#99999999999;&#x000000002e"), "\u{fffd}\u{fffd}.");
     }
-}
-
-/// A reference (`src`, `spec-src`, `data.url`) made in `dir`, resolved under
-/// the site root (`root`, or `dir` itself) by the rules of [`Site::resolve`].
-pub fn local(dir: &Path, reference: &str, root: Option<&Path>) -> Result<PathBuf, String> {
-    let dir = if dir.as_os_str().is_empty() { Path::new(".") } else { dir };
-    let site = Site::new(root.unwrap_or(dir))?;
-    let base = site.segments_of(dir)?;
-    site.resolve(&base, &decode_entities(reference))
 }

@@ -233,6 +233,13 @@ pub fn charts(html: &str) -> Result<Vec<PageChart>, String> {
     Ok(v)
 }
 
+/// The site root a file found under a folder argument defaults to: that
+/// folder (the first one given that holds the file). A file named outright
+/// has none, so its own folder is its root.
+pub fn folder_root(paths: &[PathBuf], file: &Path) -> Option<PathBuf> {
+    paths.iter().find(|p| p.is_dir() && file.starts_with(p)).cloned()
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -258,11 +265,4 @@ mod tests {
     fn character_references() {
         assert_eq!(decode_text("&lt;&gt;&amp;&quot;&#39;&#x41;&unknown; & x"), "<>&\"'A&unknown; & x");
     }
-}
-
-/// The site root a file found under a folder argument defaults to: that
-/// folder (the first one given that holds the file). A file named outright
-/// has none, so its own folder is its root.
-pub fn folder_root(paths: &[PathBuf], file: &Path) -> Option<PathBuf> {
-    paths.iter().find(|p| p.is_dir() && file.starts_with(p)).cloned()
 }

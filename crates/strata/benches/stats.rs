@@ -110,7 +110,7 @@ fn line_svg(c: &mut Criterion) {
     let opts = strata::scene::SceneOptions::default();
     let render = || {
         let plan = strata::plan::build(&spec, &table).unwrap();
-        let scene = strata::scene::build(&spec, &plan, &opts);
+        let scene = strata::scene::build(&plan, &opts);
         strata::svg::write(&scene)
     };
     let svg = render();

@@ -214,7 +214,7 @@ fn check_message(meta: &[u8], body_len: usize, schema: &Schema) -> Result<(), Er
                 return false;
             }
         }
-        widths.len() <= buffers.len() && widths.iter().zip(&buffers).all(|(w, (_, len))| *len as usize % w == 0)
+        widths.len() <= buffers.len() && widths.iter().zip(&buffers).all(|(w, (_, len))| (*len as usize).is_multiple_of(*w))
     });
     if !fits {
         return Err(invalid("a message's buffers do not match the schema"));
@@ -232,8 +232,7 @@ fn schema_of(meta: &[u8]) -> Result<Schema, Errors> {
 fn check_stream(b: &[u8]) -> Result<Schema, Errors> {
     let mut pos = 0;
     let mut schema: Option<Schema> = None;
-    loop {
-        let Some(mut len) = read_u32(b, pos) else { break };
+    while let Some(mut len) = read_u32(b, pos) {
         pos += 4;
         if len == 0xFFFF_FFFF {
             let Some(l) = read_u32(b, pos) else { break };

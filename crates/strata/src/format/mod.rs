@@ -630,7 +630,7 @@ pub fn date(ms: f64, pattern: &str, loc: &Locale) -> String {
             'E' => out.push_str(if n >= 4 { loc.days_wide[c.weekday as usize] } else { loc.days_short[c.weekday as usize] }),
             'H' => out.push_str(&pad(c.hour as i64, n.min(2))),
             'h' => {
-                let h = if c.hour % 12 == 0 { 12 } else { c.hour % 12 };
+                let h = if c.hour.is_multiple_of(12) { 12 } else { c.hour % 12 };
                 out.push_str(&pad(h as i64, n.min(2)));
             }
             'm' => out.push_str(&pad(c.minute as i64, n.min(2))),

@@ -49,8 +49,8 @@ impl Frame {
         }
     }
     /// Frame longitude and latitude of a geographic point (radians).
-    fn to_frame(&self, lon: f64, lat: f64) -> (f64, f64) {
-        match *self {
+    fn to_frame(self, lon: f64, lat: f64) -> (f64, f64) {
+        match self {
             Frame::Seam { lon0 } => (super::project::wrap(lon - lon0), lat),
             Frame::Horizon { lon0, lat0 } => sphere::rotate_to_center(lon, lat, lon0, lat0),
         }
@@ -266,7 +266,7 @@ pub fn outline(p: &Projection) -> Vec<(f64, f64)> {
 /// last `step` short of each pole, parallels all round), projected.
 pub fn graticule(p: &Projection, step: f64) -> Vec<Vec<(f64, f64)>> {
     let mut out = Vec::new();
-    if !(step >= 1.0 && step <= 90.0) {
+    if !(1.0..=90.0).contains(&step) {
         return out;
     }
     let n = (360.0 / step).round() as i32;

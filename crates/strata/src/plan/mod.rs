@@ -108,7 +108,6 @@ pub fn build_with_shapes(spec: &Spec, table: &Table, shapes: Option<Vec<crate::g
     }
     panels::check_count(spec, &layers)?;
     let scales = scales::train(spec, &layers)?;
-    let mut warnings = warnings;
     let map = match map::coords(spec) {
         Some(m) => Some(map::resolve(spec, &m, shapes, &layers, &mut warnings)?),
         None => None,

@@ -329,7 +329,7 @@ fn num_as_text(layers: &[PlannedLayer], ch: Channel) -> Vec<String> {
     }
     v.sort_by(f64::total_cmp);
     v.dedup();
-    v.into_iter().map(|x| l_key(x)).collect()
+    v.into_iter().map(l_key).collect()
 }
 
 fn l_key(x: f64) -> String {

@@ -271,7 +271,7 @@ impl PositionScale {
                     }
                     // Prefer a k that keeps both ends labelled.
                     if k > 1 {
-                        if let Some(d) = (k..=n.min(3 * k)).find(|d| n % d == 0) {
+                        if let Some(d) = (k..=n.min(3 * k)).find(|d| n.is_multiple_of(*d)) {
                             k = d;
                         }
                     }

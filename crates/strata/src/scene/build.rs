@@ -939,7 +939,7 @@ mod tests {
         assert!(ticks_left(&left) > ticks_left(&right) + 50.0);
     }
 
-    fn lines_in<'a>(n: &'a Node, class: &str, inside: bool, out: &mut Vec<(f64, f64, f64, f64)>) {
+    fn lines_in(n: &Node, class: &str, inside: bool, out: &mut Vec<(f64, f64, f64, f64)>) {
         match n {
             Node::Group { children, class: c, .. } => children.iter().for_each(|k| lines_in(k, class, inside || c.split(' ').any(|w| w == class), out)),
             Node::Line { x1, y1, x2, y2, .. } if inside => out.push((*x1, *y1, *x2, *y2)),

@@ -821,52 +821,6 @@ fn wrap_legend(l: &Legend, kids: Vec<Node>) -> Node {
     Node::Group { class: format!("strata-legend strata-legend-{}", l.channel), role: Some("group".into()), label: Some(label), children: kids }
 }
 
-#[cfg(test)]
-mod tests {
-    use super::*;
-    use crate::format;
-
-    #[test]
-    fn crowded_categories_thin_then_rotate_then_shorten() {
-        let cats: Vec<String> = (0..12).map(|i| format!("Orchard block number {i}")).collect();
-        let s = PositionScale::category(cats, 0.1);
-        let en = format::english();
-        // Wide: every label fits as is.
-        let (t, a) = bottom_ticks(&s, 4000.0, 6, None, en, 80.0, TICK_SIZE);
-        assert_eq!((t.len(), a), (12, 0.0));
-        // Narrower: every other label.
-        let (t, a) = bottom_ticks(&s, 1500.0, 6, None, en, 80.0, TICK_SIZE);
-        assert_eq!((t.len(), a), (6, 0.0));
-        // Narrow: rotated, and cut to fit the height allowance.
-        let (t, a) = bottom_ticks(&s, 400.0, 6, None, en, 60.0, TICK_SIZE);
-        assert_eq!(a, ROTATION);
-        assert_eq!(t.len(), 12);
-        let max_w = 60.0 / crate::math::sin((-ROTATION).to_radians());
-        assert!(t.iter().all(|t| text::width(&t.label, TICK_SIZE, false) <= max_w + 1e-9 && t.label.contains('\u{2026}')));
-        // Cut at the end they would all read "Orchard bl…"; the shared words go instead.
-        assert_eq!(t[3].label, "\u{2026}3");
-    }
-
-    #[test]
-    fn shortened_labels_stay_apart() {
-        let labels: Vec<String> = (1..=3).map(|i| format!("Category number {i} with a long name")).collect();
-        let s = shorten_all(&labels, 70.0, TICK_SIZE);
-        assert_eq!(s, ["\u{2026}1\u{2026}", "\u{2026}2\u{2026}", "\u{2026}3\u{2026}"]);
-        let plain = shorten_all(&["Bramley".to_string(), "Discovery".to_string()], 40.0, TICK_SIZE);
-        assert!(plain[0].starts_with("Bra") && plain[1].starts_with("Dis"));
-    }
-
-    #[test]
-    fn crowded_numbers_get_fewer_ticks() {
-        let s = PositionScale::linear(0.0, 1_000_000.0);
-        let en = format::english();
-        let (wide, _) = bottom_ticks(&s, 800.0, 10, None, en, 80.0, TICK_SIZE);
-        let (narrow, a) = bottom_ticks(&s, 150.0, 10, None, en, 80.0, TICK_SIZE);
-        assert!(narrow.len() < wide.len() && a == 0.0);
-        assert!(fits_across(&narrow, 150.0, TICK_SIZE));
-    }
-}
-
 // ---------------------------------------------------------------- polar
 
 /// Room polar labels need around the circle: (horizontal, vertical) in px.
@@ -946,4 +900,50 @@ pub fn polar_radius_labels(coord: &Coord, angle_is_x: bool, radius_ticks: &[Tick
         kids.push(label(lx, ly, &t.label, Anchor::Start, &pal.muted, "strata-tick", ts));
     }
     (!kids.is_empty()).then(|| Node::Group { class: "strata-axis strata-axis-radius".into(), role: None, label: Some("radius axis".into()), children: kids })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::format;
+
+    #[test]
+    fn crowded_categories_thin_then_rotate_then_shorten() {
+        let cats: Vec<String> = (0..12).map(|i| format!("Orchard block number {i}")).collect();
+        let s = PositionScale::category(cats, 0.1);
+        let en = format::english();
+        // Wide: every label fits as is.
+        let (t, a) = bottom_ticks(&s, 4000.0, 6, None, en, 80.0, TICK_SIZE);
+        assert_eq!((t.len(), a), (12, 0.0));
+        // Narrower: every other label.
+        let (t, a) = bottom_ticks(&s, 1500.0, 6, None, en, 80.0, TICK_SIZE);
+        assert_eq!((t.len(), a), (6, 0.0));
+        // Narrow: rotated, and cut to fit the height allowance.
+        let (t, a) = bottom_ticks(&s, 400.0, 6, None, en, 60.0, TICK_SIZE);
+        assert_eq!(a, ROTATION);
+        assert_eq!(t.len(), 12);
+        let max_w = 60.0 / crate::math::sin((-ROTATION).to_radians());
+        assert!(t.iter().all(|t| text::width(&t.label, TICK_SIZE, false) <= max_w + 1e-9 && t.label.contains('\u{2026}')));
+        // Cut at the end they would all read "Orchard bl…"; the shared words go instead.
+        assert_eq!(t[3].label, "\u{2026}3");
+    }
+
+    #[test]
+    fn shortened_labels_stay_apart() {
+        let labels: Vec<String> = (1..=3).map(|i| format!("Category number {i} with a long name")).collect();
+        let s = shorten_all(&labels, 70.0, TICK_SIZE);
+        assert_eq!(s, ["\u{2026}1\u{2026}", "\u{2026}2\u{2026}", "\u{2026}3\u{2026}"]);
+        let plain = shorten_all(&["Bramley".to_string(), "Discovery".to_string()], 40.0, TICK_SIZE);
+        assert!(plain[0].starts_with("Bra") && plain[1].starts_with("Dis"));
+    }
+
+    #[test]
+    fn crowded_numbers_get_fewer_ticks() {
+        let s = PositionScale::linear(0.0, 1_000_000.0);
+        let en = format::english();
+        let (wide, _) = bottom_ticks(&s, 800.0, 10, None, en, 80.0, TICK_SIZE);
+        let (narrow, a) = bottom_ticks(&s, 150.0, 10, None, en, 80.0, TICK_SIZE);
+        assert!(narrow.len() < wide.len() && a == 0.0);
+        assert!(fits_across(&narrow, 150.0, TICK_SIZE));
+    }
 }

@@ -216,7 +216,7 @@ fn node(out: &mut String, n: &Node, depth: usize, labelled: bool) {
             if *angle != 0.0 {
                 let _ = write!(out, " transform=\"rotate({} {} {})\"", num(*angle), num(*x), num(*y));
             }
-            let _ = write!(out, " fill=\"{}\">{}</text>\n", escape(fill), escape(text));
+            let _ = writeln!(out, " fill=\"{}\">{}</text>", escape(fill), escape(text));
         }
     }
 }
@@ -248,9 +248,9 @@ pub fn write(scene: &Scene) -> String {
     }
     let id = format!("strata-{:08x}", fnv1a(format!("{}\u{0}{}\u{0}{}", scene.label, scene.description, body).as_bytes()) as u32);
     let mut out = String::with_capacity(body.len() + 512);
-    let _ = write!(
+    let _ = writeln!(
         out,
-        "<svg xmlns=\"http://www.w3.org/2000/svg\" class=\"{c}\" width=\"{w}\" height=\"{h}\" viewBox=\"0 0 {w} {h}\" role=\"graphics-document document\" aria-roledescription=\"chart\" aria-labelledby=\"{id}-title\" aria-describedby=\"{id}-desc\" font-family=\"{f}\" font-kerning=\"none\">\n",
+        "<svg xmlns=\"http://www.w3.org/2000/svg\" class=\"{c}\" width=\"{w}\" height=\"{h}\" viewBox=\"0 0 {w} {h}\" role=\"graphics-document document\" aria-roledescription=\"chart\" aria-labelledby=\"{id}-title\" aria-describedby=\"{id}-desc\" font-family=\"{f}\" font-kerning=\"none\">",
         w = num(scene.width),
         h = num(scene.height),
         f = escape(&scene.font_family),
