@@ -1,7 +1,7 @@
 #!/usr/bin/env bash
 # Install what building and testing Strata needs, skipping what is there.
-#   scripts/setup.sh          Rust wasm target and the wasm-bindgen CLI
-#   scripts/setup.sh --test   also Chromium, ChromeDriver and the npm test packages
+#   scripts/setup.sh          Rust wasm target, the wasm-bindgen CLI and the npm packages (wasm-opt)
+#   scripts/setup.sh --test   also Chromium and ChromeDriver
 # Everything comes from the package registries (crates.io, Debian, npm);
 # nothing downloads a prebuilt binary from elsewhere.
 set -euo pipefail
@@ -33,9 +33,12 @@ if [ "$want_test" = 1 ]; then
     apt-get update -qq
     apt-get install -y -qq chromium chromium-driver >/dev/null
   fi
-  if [ ! -d tests/browser/node_modules/playwright-core ] ||
-     [ tests/browser/package-lock.json -nt tests/browser/node_modules/.package-lock.json ]; then
-    say "installing npm test packages from the lock file"
-    (cd tests/browser && npm ci --no-audit --no-fund --loglevel=error)
-  fi
+fi
+
+# npm packages from the lock file: wasm-opt (npm's binaryen; Debian's is too
+# old), which every wasm build needs, and the browser tests' packages.
+if [ ! -d tests/browser/node_modules/playwright-core ] ||
+   [ tests/browser/package-lock.json -nt tests/browser/node_modules/.package-lock.json ]; then
+  say "installing npm packages (wasm-opt and the browser tests') from the lock file"
+  (cd tests/browser && npm ci --no-audit --no-fund --loglevel=error)
 fi
