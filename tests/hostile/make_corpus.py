@@ -101,7 +101,7 @@ case("pattern", "percent pattern draws", point(scales={"y": {"format": "0.0%"}})
 case("budget", "100,000 layers", {"data": {"rows": ROWS}, "layers": "@layers(100000)@"}, ("budget.layers", "layers"))
 case("budget", "201 layers", {"data": {"rows": ROWS}, "layers": "@layers(201)@"}, ("budget.layers", "layers"))
 case("budget", "200 layers draw", {"data": {"rows": ROWS}, "layers": "@layers(200)@"})
-case("budget", "600 derived columns", point(derive={f"d{i}": "a + 1" for i in range(600)}), ("budget.derive", "derive"))
+case("budget", "600 derived columns", point(derive={f"extra_{i}": "a + 1" for i in range(600)}), ("budget.derive", "derive"))
 # One repeated text is stored once (the table codes text by dictionary), so
 # doubling it meets the cell budget; distinct texts meet the table budget.
 case("budget", "derives doubling one repeated text 24 times", {"data": {"rows": [{"a": i, "b": i, "k": "@repeat(1000,x)@"} for i in range(300)]}, "derive": {f"k{i + 1}": f"k{i} || k{i}" if i else "k || k" for i in range(24)}, "layers": [{"draw": "point", "x": "a", "y": "b"}]}, ("budget.cell", "derive.k"))
