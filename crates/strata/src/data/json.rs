@@ -38,7 +38,8 @@ fn too_many_rows(cap: usize) -> Errors {
         .into()
 }
 
-fn kind(v: &Value) -> &'static str {
+/// A JSON value's kind in words, for messages (the GeoJSON reader shares it).
+pub fn kind(v: &Value) -> &'static str {
     match v {
         Value::Null => "null",
         Value::Bool(_) => "a boolean",

@@ -10,6 +10,7 @@
 //! smaller side of each ring either way (see `clip`). `bbox`, `id` and
 //! foreign members are ignored.
 
+use crate::data::json::kind;
 use crate::error::Diagnostic;
 use serde_json::{Map, Value};
 
@@ -243,17 +244,6 @@ pub fn key_text(v: &Value) -> Option<String> {
         }),
         Value::Bool(b) => Some(b.to_string()),
         _ => None,
-    }
-}
-
-fn kind(v: &Value) -> &'static str {
-    match v {
-        Value::Null => "null",
-        Value::Bool(_) => "a boolean",
-        Value::Number(_) => "a number",
-        Value::String(_) => "a string",
-        Value::Array(_) => "an array",
-        Value::Object(_) => "an object",
     }
 }
 
