@@ -49,3 +49,18 @@ fn a_format_the_spec_sets_still_wins() {
     );
     assert!(r.svg.contains(">2,000<"), "{}", r.svg);
 }
+
+/// `{"column": "year", "as": "date"}` is not ignored: whole years become
+/// 1 January of the year on a time axis; other numbers are a located error.
+#[test]
+fn years_as_dates() {
+    let r = draw(
+        r#"{ "data": { "rows": [ {"year": 1960, "v": 1}, {"year": 2020, "v": 2} ] }, "layers": [ { "draw": "line", "x": {"column": "year", "as": "date"}, "y": "v" } ] }"#,
+    );
+    assert!(r.svg.contains(">1960<") && !r.svg.contains("1,960"), "{}", r.svg);
+    assert!(r.table.contains("1960-01-01"), "{}", r.table);
+    let spec = r#"{ "data": { "rows": [ {"year": 1960.5, "v": 1}, {"year": 2020, "v": 2} ] }, "layers": [ { "draw": "line", "x": {"column": "year", "as": "date"}, "y": "v" } ] }"#;
+    let Err(e) = render(spec, None, &RenderOptions::default()) else { panic!("a number that is not a year cannot be a date") };
+    let text = format!("{e:?}");
+    assert!(text.contains("spec.not_a_date") && text.contains("layers[0].x.as"), "{text}");
+}
