@@ -35,9 +35,13 @@ enum Command {
         /// GeoJSON file; overrides the spec's `shapes.url`.
         #[arg(long)]
         shapes: Option<PathBuf>,
-        /// Output file; standard output when absent.
+        /// Output file: `.svg` or `.png` (`.json` with --scene, `.html` with --table);
+        /// standard output when absent.
         #[arg(short = 'o', long)]
         output: Option<PathBuf>,
+        /// Pixels per SVG unit in PNG output, from 0.5 to 8 (default 2).
+        #[arg(long, value_parser = parse_scale)]
+        scale: Option<f32>,
         /// Print the scene (marks in pixels with their data) as JSON instead of SVG.
         #[arg(long)]
         scene: bool,
@@ -79,7 +83,7 @@ enum Command {
         /// Exit 1 when there are warnings (and no errors).
         #[arg(long)]
         strict: bool,
-        /// `text` (one line a diagnostic) or `json` (one document, for CI annotations).
+        /// How diagnostics are printed.
         #[arg(long, value_enum, default_value_t = Format::Text)]
         format: Format,
         /// The folder `data.url` must stay inside (default: the spec's folder).
@@ -92,7 +96,9 @@ enum Command {
 
 #[derive(Clone, Copy, PartialEq, Eq, clap::ValueEnum)]
 enum Format {
+    /// One line a diagnostic, with its file, line and column.
     Text,
+    /// One JSON document with every diagnostic, for CI annotations.
     Json,
 }
 
@@ -105,6 +111,57 @@ fn parse_width(s: &str) -> Result<f64, String> {
         return Err(format!("the width must be a number of pixels above 0 and at most {MAX_WIDTH}, not `{s}`"));
     }
     Ok(w)
+}
+
+/// The smallest and largest PNG scale `--scale` accepts.
+const SCALE_RANGE: (f32, f32) = (0.5, 8.0);
+
+/// The PNG scale when `--scale` is absent.
+const DEFAULT_SCALE: f32 = 2.0;
+
+fn parse_scale(s: &str) -> Result<f32, String> {
+    let k: f32 = s.trim().parse().map_err(|_| format!("`{s}` is not a number"))?;
+    let (lo, hi) = SCALE_RANGE;
+    if !k.is_finite() || !(lo..=hi).contains(&k) {
+        return Err(format!("the scale must be a number from {lo} to {hi}, not `{s}`"));
+    }
+    Ok(k)
+}
+
+/// What `render -o` writes, chosen by the file's extension; anything else is
+/// refused, so a `.pdf` or `.jpg` never silently holds SVG text.
+#[derive(Clone, Copy, PartialEq, Eq, Debug)]
+enum OutKind {
+    Svg,
+    Png,
+    Text,
+}
+
+fn out_kind(path: &Path, scene: bool, table: bool) -> Result<OutKind, String> {
+    let ext = path.extension().and_then(|e| e.to_str()).unwrap_or("").to_ascii_lowercase();
+    let (kind, accepted) = if scene {
+        (matches!(ext.as_str(), "json").then_some(OutKind::Text), "`.json`")
+    } else if table {
+        (matches!(ext.as_str(), "html" | "htm").then_some(OutKind::Text), "`.html` or `.htm`")
+    } else {
+        let k = match ext.as_str() {
+            "svg" => Some(OutKind::Svg),
+            "png" => Some(OutKind::Png),
+            _ => None,
+        };
+        (k, "`.svg` or `.png`")
+    };
+    let what = if scene {
+        "a scene"
+    } else if table {
+        "a data table"
+    } else {
+        "a chart"
+    };
+    kind.ok_or_else(|| {
+        let got = if ext.is_empty() { "no extension".to_string() } else { format!("`.{ext}`") };
+        format!("strata: cannot write {what} to {}: the file name ends in {got}; render writes {accepted} files, or standard output without -o", path.display())
+    })
 }
 
 fn main() -> ExitCode {
@@ -194,7 +251,12 @@ fn cap_chars(s: &str) -> String {
 
 fn run(cmd: Command) -> Result<(), String> {
     match cmd {
-        Command::Render { spec, data, shapes, output, scene, table, width, root } => {
+        Command::Render { spec, data, shapes, output, scale, scene, table, width, root } => {
+            // The output's name is checked before any work, so a mistake costs nothing.
+            let kind = output.as_deref().map(|p| out_kind(p, scene, table)).transpose()?;
+            if scale.is_some() && kind != Some(OutKind::Png) {
+                return Err("strata: --scale applies to PNG output only (-o FILE.png)".into());
+            }
             let (_, parsed, bytes) = load(&spec, data.as_deref(), root.as_deref())?;
             let opts = RenderOptions { scene: SceneOptions { width } };
             let data = bytes.as_ref().map(|(b, n)| DataBytes { bytes: b, name: n });
@@ -215,10 +277,9 @@ fn run(cmd: Command) -> Result<(), String> {
             } else {
                 r.svg
             };
-            let is_png = output.as_ref().is_some_and(|p| p.extension().is_some_and(|e| e.eq_ignore_ascii_case("png")));
             match output {
-                Some(p) if is_png && !scene && !table => {
-                    let bytes = png::encode(&out, 2.0)?;
+                Some(p) if kind == Some(OutKind::Png) => {
+                    let bytes = png::encode(&out, scale.unwrap_or(DEFAULT_SCALE))?;
                     std::fs::write(&p, bytes).map_err(|e| format!("strata: cannot write {}: {e}", p.display()))?
                 }
                 Some(p) => std::fs::write(&p, out).map_err(|e| format!("strata: cannot write {}: {e}", p.display()))?,

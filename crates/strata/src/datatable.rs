@@ -93,16 +93,18 @@ fn layer_table(spec: &Spec, plan: &Plan, l: &PlannedLayer, out: &mut String) {
         Channel::Y | Channel::YEnd | Channel::YLow | Channel::YHigh => spec.scales.get(&Channel::Y).and_then(|s| s.format.as_deref()),
         _ => None,
     };
+    // Whole-number years print without grouping (see `plan::is_year_column`).
+    let col_years: Vec<bool> = cols.iter().map(|(_, ch, v)| d.names.get(ch).is_some_and(|n| crate::plan::is_year_column(n, v))).collect();
     for i in 0..shown {
         out.push_str("<tr>");
-        for (_, ch, v) in &cols {
-            let (text, num) = cell(v, i, pattern(*ch), loc);
+        for ((_, ch, v), year) in cols.iter().zip(&col_years) {
+            let (text, num) = cell(v, i, pattern(*ch).or(year.then_some(crate::plan::YEAR_PATTERN)), loc);
             out.push_str(if num { "<td class=\"strata-num\">" } else { "<td>" });
             out.push_str(&escape(&text));
             out.push_str("</td>");
         }
-        for (_, v) in &tips {
-            let (text, num) = cell(v, i, None, loc);
+        for (c, v) in &tips {
+            let (text, num) = cell(v, i, crate::plan::is_year_column(c, v).then_some(crate::plan::YEAR_PATTERN), loc);
             out.push_str(if num { "<td class=\"strata-num\">" } else { "<td>" });
             out.push_str(&escape(&text));
             out.push_str("</td>");

@@ -59,9 +59,15 @@ def locale_block(code):
     out.append(f"        am_pm: [{rs(periods['am'])}, {rs(periods['pm'])}],")
     out.append("        compact: &[" + ", ".join(f"({e}, {rs(p)})" for e, p in compact) + "],")
     out.append(f"        day_month: {rs(DAY_MONTH[code])},")
+    out.append(f"        min_grouping: {MIN_GROUPING[code]},")
     out.append("    },")
     return "\n".join(out)
 
+
+# CLDR numbers.xml `minimumGroupingDigits` (babel 2.19 neither ships nor applies it):
+# es writes 1234 but 12.345. Checked against ICU through node's Intl by
+# tests/reference/gen/min_grouping.mjs (fixture format/min_grouping.json).
+MIN_GROUPING = {"en": 1, "de": 1, "fr": 1, "es": 2}
 
 # Skeleton "MMMd" from CLDR availableFormats, read through babel below.
 DAY_MONTH = {c: str(Locale.parse(c).datetime_skeletons["MMMd"].pattern) for c in LOCALES}

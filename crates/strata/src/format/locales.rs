@@ -37,6 +37,7 @@ pub const LOCALES: [Locale; 4] = [
             (14, "000T"),
         ],
         day_month: "MMM d",
+        min_grouping: 1,
     },
     Locale {
         code: "de",
@@ -69,6 +70,7 @@ pub const LOCALES: [Locale; 4] = [
             (14, "000 Bio'.'"),
         ],
         day_month: "d. MMM",
+        min_grouping: 1,
     },
     Locale {
         code: "fr",
@@ -101,6 +103,7 @@ pub const LOCALES: [Locale; 4] = [
             (14, "000 Bn"),
         ],
         day_month: "d MMM",
+        min_grouping: 1,
     },
     Locale {
         code: "es",
@@ -133,5 +136,6 @@ pub const LOCALES: [Locale; 4] = [
             (14, "000 B"),
         ],
         day_month: "d MMM",
+        min_grouping: 2,
     },
 ];

@@ -17,6 +17,16 @@ pub fn extract(index: usize, layer: &Layer, table: &Table) -> Result<LayerData, 
             continue;
         };
         let values = to_values(table.column(pos), channel.as_type);
+        // `as: date` on numbers: whole years become 1 January of that year;
+        // other numbers have no calendar reading, so they are refused, not ignored.
+        if channel.as_type == Some(ColumnType::Date) && matches!(values, Values::Num(_)) {
+            errors.push(
+                Diagnostic::error("spec.not_a_date", format!("column `{}` holds numbers that are not years, so it cannot be read as a date", channel.column))
+                    .at_path(format!("layers[{index}].{ch}.as"))
+                    .with_hint("only whole numbers from 1000 to 2999 read as years; write dates as text (`2024-03-31`) or drop `as`"),
+            );
+            continue;
+        }
         out.channels.insert(ch, values);
         out.names.insert(ch, channel.column.clone());
     }
@@ -108,6 +118,10 @@ pub fn to_values(col: &Column, as_type: Option<ColumnType>) -> Values {
                     })
                     .collect(),
             )
+        }
+        // Whole years read as dates: 1 January of the year, UTC.
+        (Some(ColumnType::Date), Values::Num(v)) if v.iter().flatten().all(|y| y.fract() == 0.0 && (1000.0..=2999.0).contains(&y)) => {
+            Values::Time(v.iter().map(|y| y.map(|y| crate::calendar::days_from_civil(y as i64, 1, 1) as f64 * 86_400_000.0)).collect())
         }
         (_, v) => v,
     }

@@ -18,7 +18,7 @@ mod values;
 pub use chart::{independent_axes, Chart, PanelLayout};
 pub use panels::{split as split_panels, PanelPlans, MAX_PANELS};
 pub use scales::{ColorScale, Scales};
-pub use values::{Nums, Values};
+pub use values::{is_year_column, Nums, Values, YEAR_PATTERN};
 
 pub use crate::channel::Channel;
 /// The spec's typed words and options the plan hands on as they are, so the

@@ -178,7 +178,15 @@ pub fn retrain_positions(layers: &[PlannedLayer], scales: &mut Scales, x: bool, 
 
 pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
     let get = |k: Channel| spec.scales.get(&k).cloned().unwrap_or_default();
-    let (x_spec, y_spec, color_spec, size_spec, shape_spec) = (get(Channel::X), get(Channel::Y), get(Channel::Color), get(Channel::Size), get(Channel::Shape));
+    let (mut x_spec, mut y_spec, color_spec, size_spec, shape_spec) =
+        (get(Channel::X), get(Channel::Y), get(Channel::Color), get(Channel::Size), get(Channel::Shape));
+    // Whole-number years read as years: no grouping unless the spec sets a format.
+    for (ch, s) in [(Channel::X, &mut x_spec), (Channel::Y, &mut y_spec)] {
+        let mut cols = layers.iter().filter_map(|l| Some((l.data.names.get(&ch)?, l.data.get(ch)?))).peekable();
+        if s.format.is_none() && cols.peek().is_some() && cols.all(|(n, v)| super::is_year_column(n, v)) {
+            s.format = Some(super::YEAR_PATTERN.to_string());
+        }
+    }
     let (x, x_nice) = train_position(X_CHANNELS, "x", &x_spec, layers)?;
     let (y, y_nice) = train_position(Y_CHANNELS, "y", &y_spec, layers)?;
     let title = |ch: Channel, s: &ScaleSpec| s.title.clone().unwrap_or_else(|| layers.iter().find_map(|l| l.data.names.get(&ch).cloned()).unwrap_or_default());

@@ -7,9 +7,18 @@ use super::{ColorScale, Plan, Values};
 use crate::channel::Channel;
 use crate::format::{self, Locale};
 
-fn value_text(v: &Values, i: usize, loc: &Locale) -> String {
+/// A number as the description writes it: years (see [`super::is_year_column`]) without grouping.
+fn num_text(x: f64, year: bool, loc: &Locale) -> String {
+    if year {
+        format::number(x, super::YEAR_PATTERN, loc)
+    } else {
+        format::value_label_in(x, loc)
+    }
+}
+
+fn value_text(v: &Values, i: usize, year: bool, loc: &Locale) -> String {
     match v {
-        Values::Num(x) => x.get(i).map(|x| format::value_label_in(x, loc)).unwrap_or_default(),
+        Values::Num(x) => x.get(i).map(|x| num_text(x, year, loc)).unwrap_or_default(),
         Values::Time(x) => x.get(i).map(|ms| format::date(ms, "yyyy-MM-dd", loc)).unwrap_or_default(),
         Values::Text(x) => x[i].clone().unwrap_or_default(),
     }
@@ -124,9 +133,11 @@ pub fn describe(plan: &Plan) -> String {
         };
         let Some(e) = extremes(ys.raw(), xs) else { continue };
         let (lo, il, hi, ih) = (e.lo, e.lo_row, e.hi, e.hi_row);
-        let at = |i: usize| xv.map(|x| format!(" at {}", value_text(x, i, loc))).unwrap_or_default();
+        let x_year = xv.is_some_and(|x| l.data.names.get(&Channel::X).is_some_and(|n| super::is_year_column(n, x)));
+        let y_year = l.data.get(Channel::Y).is_some_and(|y| l.data.names.get(&Channel::Y).is_some_and(|n| super::is_year_column(n, y)));
+        let at = |i: usize| xv.map(|x| format!(" at {}", value_text(x, i, x_year, loc))).unwrap_or_default();
         let name = l.data.names.get(&Channel::Y).cloned().unwrap_or_else(|| "y".into());
-        parts.push(format!("{name} ranges from {}{} to {}{}", format::value_label_in(lo, loc), at(il), format::value_label_in(hi, loc), at(ih)));
+        parts.push(format!("{name} ranges from {}{} to {}{}", num_text(lo, y_year, loc), at(il), num_text(hi, y_year, loc), at(ih)));
         if let Some(x @ (Values::Num(_) | Values::Time(_))) = xv {
             // The trend word is a coarse reading of the least-squares slope:
             // past 100,000 rows an evenly spaced, deterministic sample of
@@ -138,7 +149,7 @@ pub fn describe(plan: &Plan) -> String {
                 let (first, last) = e.x_span;
                 let span = match x {
                     Values::Time(_) => format!("{} to {}", format::date(first, "yyyy-MM-dd", loc), format::date(last, "yyyy-MM-dd", loc)),
-                    _ => format!("{} to {}", format::value_label_in(first, loc), format::value_label_in(last, loc)),
+                    _ => format!("{} to {}", num_text(first, x_year, loc), num_text(last, x_year, loc)),
                 };
                 let xname = l.data.names.get(&Channel::X).cloned().unwrap_or_else(|| "x".into());
                 parts.push(format!("over {xname} from {span} it {w}"));

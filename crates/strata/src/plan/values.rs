@@ -63,3 +63,34 @@ impl Values {
 fn json_num(x: f64) -> serde_json::Value {
     serde_json::Number::from_f64(x).map(serde_json::Value::Number).unwrap_or(serde_json::Value::Null)
 }
+
+/// The LDML pattern for whole-number years: no grouping (`1960`, not `1,960`).
+pub const YEAR_PATTERN: &str = "0";
+
+/// A column of years, printed without grouping: its name is a year's or a
+/// decade's (`year`, `yr`, `decade`, or ending in `_year`, `_yr`, `_decade`;
+/// any case) and every value present is a whole number from 1000 to 2999.
+pub fn is_year_column(name: &str, v: &Values) -> bool {
+    let n = name.trim().to_ascii_lowercase();
+    let named = ["year", "yr", "decade"].iter().any(|w| n == *w || n.ends_with(&format!("_{w}")));
+    let Values::Num(x) = v else { return false };
+    named && x.iter().flatten().next().is_some() && x.iter().flatten().all(|y| y.fract() == 0.0 && (1000.0..=2999.0).contains(&y))
+}
+
+#[cfg(test)]
+mod year_tests {
+    use super::*;
+
+    #[test]
+    fn years_by_name_and_value() {
+        let v = |xs: &[f64]| Values::Num(Nums::from(xs.to_vec()));
+        assert!(is_year_column("year", &v(&[1960.0, f64::NAN, 2020.0])));
+        assert!(is_year_column("Birth_Year", &v(&[1999.0])));
+        assert!(is_year_column("DECADE", &v(&[1950.0, 1960.0])));
+        assert!(!is_year_column("yearly_total", &v(&[1960.0])));
+        assert!(!is_year_column("year", &v(&[1960.5])));
+        assert!(!is_year_column("year", &v(&[12000.0])));
+        assert!(!is_year_column("population", &v(&[1960.0])));
+        assert!(!is_year_column("year", &v(&[f64::NAN])));
+    }
+}

@@ -194,7 +194,7 @@ impl PositionScale {
                 _ => {
                     // The best labelling that covers the data ("loose"); its
                     // ends become the domain and its step the axis's step.
-                    let t = ticks::extended(a, b, wanted, true);
+                    let t = ticks::extended_axis(a, b, wanted, true);
                     if t.len() < 2 {
                         return self.clone();
                     }
@@ -236,7 +236,7 @@ impl PositionScale {
             Transform::Symlog { constant } if b - a > 0.0 => {
                 let span = transform.apply(b).unwrap_or(0.0) - transform.apply(a).unwrap_or(0.0);
                 if span < 3.0 {
-                    let t: Vec<f64> = ticks::extended(a, b, wanted, false).into_iter().filter(inside).collect();
+                    let t: Vec<f64> = ticks::extended_axis(a, b, wanted, false).into_iter().filter(inside).collect();
                     let step = if t.len() > 1 { t[1] - t[0] } else { 1.0 };
                     return (t, TickStep::Even(step));
                 }
@@ -269,16 +269,24 @@ impl PositionScale {
                     while (n / k) + 1 > wanted.max(2) + wanted.max(2) / 2 {
                         k += 1;
                     }
-                    // Prefer a k that keeps both ends labelled.
+                    // A domain across zero labels zero: `z` is zero's index among the multiples.
+                    let zf = -a / s;
+                    let z = (a < 0.0 && b > 0.0 && (zf - zf.round()).abs() < 1e-9).then(|| zf.round() as usize);
+                    // Prefer a k that keeps both ends labelled, and zero.
                     if k > 1 {
-                        if let Some(d) = (k..=n.min(3 * k)).find(|d| n.is_multiple_of(*d)) {
+                        let zero_ok = |d: usize| z.is_none_or(|z| z.is_multiple_of(d));
+                        if let Some(d) = (k..=n.min(3 * k))
+                            .find(|d| n.is_multiple_of(*d) && zero_ok(*d))
+                            .or_else(|| (k..=n.min(3 * k)).find(|d| n.is_multiple_of(*d) && z.is_none()))
+                        {
                             k = d;
                         }
                     }
-                    let t: Vec<f64> = (0..=n).step_by(k).map(|i| ticks::clean(a + i as f64 * s, s)).collect();
+                    let start = z.map_or(0, |z| z % k);
+                    let t: Vec<f64> = (start..=n).step_by(k).map(|i| ticks::clean(a + i as f64 * s, s)).collect();
                     return (t, TickStep::Even(s * k as f64));
                 }
-                let t: Vec<f64> = ticks::extended(a, b, wanted, false).into_iter().filter(inside).collect();
+                let t: Vec<f64> = ticks::extended_axis(a, b, wanted, false).into_iter().filter(inside).collect();
                 let step = if t.len() > 1 { t[1] - t[0] } else { (b - a).abs().max(1.0) };
                 (t, TickStep::Even(step))
             }

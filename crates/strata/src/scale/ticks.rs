@@ -124,6 +124,12 @@ fn density_max(k: f64, m: f64) -> f64 {
 /// The best labelling `(lmin, lmax, step)` of `dmin..dmax` with about `m`
 /// labels; `only_loose` keeps labellings that cover the data.
 pub fn extended_params(dmin: f64, dmax: f64, m: usize, only_loose: bool) -> Option<(f64, f64, f64)> {
+    search(dmin, dmax, m, only_loose, false)
+}
+
+/// The search of [`extended_params`]; `with_zero` keeps only labellings
+/// that have a label at zero.
+fn search(dmin: f64, dmax: f64, m: usize, only_loose: bool, with_zero: bool) -> Option<(f64, f64, f64)> {
     if !(dmin.is_finite() && dmax.is_finite() && (dmax - dmin).is_finite()) || dmax - dmin < EPS {
         return None;
     }
@@ -174,7 +180,9 @@ pub fn extended_params(dmin: f64, dmax: f64, m: usize, only_loose: bool) -> Opti
                         let c = coverage(dmin, dmax, lmin, lmax);
                         let g = density(k, m, dmin, dmax, lmin, lmax);
                         let score = w[0] * s + w[1] * c + w[2] * g + w[3];
-                        if score > best_score && (!only_loose || (lmin <= dmin && lmax >= dmax)) {
+                        // `start` counts steps of `step / j`; zero is a label when it is a whole number of steps from lmin.
+                        let zero_ok = !with_zero || (lmin <= 0.0 && lmax >= 0.0 && start.rem_euclid(j) == 0.0);
+                        if score > best_score && zero_ok && (!only_loose || (lmin <= dmin && lmax >= dmax)) {
                             best_score = score;
                             best = Some((lmin, lmax, step));
                         }
@@ -197,6 +205,18 @@ pub fn extended(dmin: f64, dmax: f64, m: usize, only_loose: bool) -> Vec<f64> {
         return vec![dmin];
     }
     let Some((lmin, lmax, step)) = extended_params(dmin, dmax, m, only_loose) else { return vec![] };
+    let n = ((lmax - lmin) / step).round() as i64;
+    (0..=n).map(|i| clean(lmin + i as f64 * step, step)).collect()
+}
+
+/// [`extended`] for a value axis: when the data span zero (below and above
+/// it), only labellings with a label at zero are considered, so a diverging
+/// axis always names its zero (-15, -5, 5, 15 becomes -10, 0, 10).
+pub fn extended_axis(dmin: f64, dmax: f64, m: usize, only_loose: bool) -> Vec<f64> {
+    if !(dmin < 0.0 && dmax > 0.0) {
+        return extended(dmin, dmax, m, only_loose);
+    }
+    let Some((lmin, lmax, step)) = search(dmin, dmax, m, only_loose, true) else { return extended(dmin, dmax, m, only_loose) };
     let n = ((lmax - lmin) / step).round() as i64;
     (0..=n).map(|i| clean(lmin + i as f64 * step, step)).collect()
 }
@@ -501,6 +521,25 @@ mod tests {
             let loose = extended(a, b, m, true);
             assert!(loose[0] <= a && *loose.last().unwrap() >= b);
         }
+    }
+
+    /// A domain across zero always gets a zero label; the published search
+    /// alone sometimes skips it (-15, -5, 5, 15).
+    #[test]
+    fn an_axis_across_zero_labels_zero() {
+        let mut skipped = 0;
+        for (lo, hi) in [(-12.5, 15.0), (-15.0, 15.0), (-3.0, 97.0), (-0.4, 0.7), (-1234.0, 55.0), (-7.0, 7.0)] {
+            for m in 2..=10 {
+                for loose in [false, true] {
+                    skipped += usize::from(!extended(lo, hi, m, loose).contains(&0.0));
+                    let t = extended_axis(lo, hi, m, loose);
+                    assert!(t.contains(&0.0), "{lo}..{hi} ({m}): {t:?}");
+                    assert!(t.len() >= 2 && t.windows(2).all(|w| w[0] < w[1]));
+                }
+            }
+        }
+        assert!(skipped > 0, "the published search always labelled zero here: the test proves nothing");
+        assert_eq!(extended_axis(3.0, 97.0, 5, false), extended(3.0, 97.0, 5, false));
     }
 
     #[test]
