@@ -3,7 +3,7 @@
 //! Cells live in a [`TextColumn`]: one byte buffer and one offset per cell;
 //! a text column becomes a dictionary-coded [`Text`].
 
-use super::table::{Column, Ints, Text, TextBuilder, ValidBuilder, MISSING};
+use super::table::{Column, Ints, Kind, Text, TextBuilder, ValidBuilder, MISSING};
 use crate::calendar::{parse_date_bytes, parse_datetime_bytes};
 use crate::spec::ColumnType;
 
@@ -77,17 +77,6 @@ impl Default for CellRules {
     fn default() -> Self {
         CellRules::new(&NULL_TOKENS, false)
     }
-}
-
-/// The type inferred for a column.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub enum Inferred {
-    Int,
-    Float,
-    Bool,
-    Date,
-    DateTime,
-    Text,
 }
 
 #[inline]
@@ -250,27 +239,27 @@ pub(crate) fn parse_datetime(b: &[u8]) -> Option<i64> {
 }
 
 /// The family the first non-null cell belongs to.
-fn first_kind(col: &TextColumn, rules: &CellRules) -> Inferred {
+fn first_kind(col: &TextColumn, rules: &CellRules) -> Kind {
     for i in 0..col.len() {
         let c = col.cell(i);
         if rules.is_null(c) || is_not_finite(c, rules.decimal_comma) {
             continue;
         }
         return if parse_int(c).is_some() {
-            Inferred::Int
+            Kind::Int
         } else if parse_float(c, rules.decimal_comma).is_some() {
-            Inferred::Float
+            Kind::Float
         } else if parse_bool(c).is_some() {
-            Inferred::Bool
+            Kind::Bool
         } else if parse_date(c).is_some() {
-            Inferred::Date
+            Kind::Date
         } else if parse_datetime(c).is_some() {
-            Inferred::DateTime
+            Kind::DateTime
         } else {
-            Inferred::Text
+            Kind::Text
         };
     }
-    Inferred::Text
+    Kind::Text
 }
 
 /// Cells of a number column that were not finite numbers: the first row and how many.
@@ -364,10 +353,10 @@ pub fn build_noting(col: TextColumn, forced: Option<ColumnType>, rules: &CellRul
     let dc = rules.decimal_comma;
     let kind = match forced {
         None => first_kind(&col, rules),
-        Some(ColumnType::Number) => Inferred::Float,
-        Some(ColumnType::Text) => Inferred::Text,
-        Some(ColumnType::Bool) => Inferred::Bool,
-        Some(ColumnType::Date) => Inferred::Date,
+        Some(ColumnType::Number) => Kind::Float,
+        Some(ColumnType::Text) => Kind::Text,
+        Some(ColumnType::Bool) => Kind::Bool,
+        Some(ColumnType::Date) => Kind::Date,
     };
     let strict = forced.is_some();
     let fallback = |col: TextColumn, row: usize, expected| {
@@ -379,21 +368,21 @@ pub fn build_noting(col: TextColumn, forced: Option<ColumnType>, rules: &CellRul
     };
     let plain = |r: Result<Column, CellError>| r.map(|c| (c, None));
     match kind {
-        Inferred::Int => match scan(&col, rules, true, parse_int) {
+        Kind::Int => match scan(&col, rules, true, parse_int) {
             Ok((values, valid, odd)) => Ok((Column::Int(Ints { values, valid }), odd)),
             Err(_) => float(col, rules, dc, strict),
         },
-        Inferred::Float => float(col, rules, dc, strict),
-        Inferred::Bool => plain(match scan(&col, rules, false, parse_bool) {
+        Kind::Float => float(col, rules, dc, strict),
+        Kind::Bool => plain(match scan(&col, rules, false, parse_bool) {
             Ok((v, n, _)) => Ok(Column::Bool(v.into_iter().enumerate().map(|(i, b)| n.as_ref().is_none_or(|m| m[i]).then_some(b)).collect())),
             Err(row) => fallback(col, row, EXPECT_BOOL),
         }),
-        Inferred::Date => plain(match scan(&col, rules, false, parse_date) {
+        Kind::Date => plain(match scan(&col, rules, false, parse_date) {
             Ok((v, n, _)) => Ok(Column::Date(with_nan(v.into_iter().map(|d| d as f64).collect(), n))),
             Err(_) => datetime(col, rules, strict),
         }),
-        Inferred::DateTime => plain(datetime(col, rules, strict)),
-        Inferred::Text => plain(text(col, rules)),
+        Kind::DateTime => plain(datetime(col, rules, strict)),
+        Kind::Text => plain(text(col, rules)),
     }
 }
 
@@ -525,7 +514,6 @@ pub fn unique_names(raw: Vec<String>) -> (Vec<String>, Vec<String>) {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::data::table::Kind;
 
     fn col(cells: &[&str]) -> TextColumn {
         let mut c = TextColumn::default();
