@@ -112,3 +112,23 @@ fn every_chart_renders_to_its_golden_bytes() {
     }
     assert!(failures.is_empty(), "{} of {checked} golden outputs differ:\n{}", failures.len(), failures.join("\n"));
 }
+
+/// The automatic description is read aloud as sentences: the engine's own
+/// words open each sentence with a capital ("Over year from ...", found in a
+/// user trial as "... at 2020. over year ..."). Column names keep their case.
+#[test]
+fn description_sentences_open_with_a_capital() {
+    for (name, path) in specs() {
+        for (suffix, text) in outputs(&path) {
+            if suffix != "svg" {
+                continue;
+            }
+            let Some(desc) = text.split("<desc").nth(1).and_then(|d| d.split_once('>')).map(|(_, d)| d.split("</desc>").next().unwrap_or("")) else {
+                continue;
+            };
+            for word in ["over", "in", "the", "it"] {
+                assert!(!desc.contains(&format!(". {word} ")), "{name}: a sentence opens with lowercase '{word}': {desc}");
+            }
+        }
+    }
+}

@@ -5,7 +5,7 @@
 // Writes tests/reference/fixtures/format/min_grouping.json.
 import fs from 'node:fs';
 
-const LOCALES = ['en', 'de', 'fr', 'es'];
+const LOCALES = ['en', 'de', 'fr', 'es', 'pl'];
 const VALUES = [999, 1234, -1234, 2014, 9999, 12345, 1234567];
 const cases = [];
 for (const locale of LOCALES) {

@@ -1,5 +1,5 @@
 //! Labels for numbers and dates: Unicode LDML (UTS #35) number and date
-//! patterns with CLDR locale data for en, de, fr and es.
+//! patterns with CLDR locale data for en, de, fr, es and pl.
 //!
 //! * Number patterns: `#,##0.0`, `0%`, `¤#,##0.00`, `#,##0;(#,##0)`,
 //!   quoted literals (`#,##0 'kg'`), and the word `compact` for short
@@ -415,7 +415,7 @@ impl NumberPattern {
     }
 }
 
-/// The locale's plain decimal pattern (CLDR `#,##0.###` for en, de, fr, es).
+/// The locale's plain decimal pattern (CLDR `#,##0.###` for en, de, fr, es, pl).
 const DECIMAL: &str = "#,##0.###";
 
 /// Short compact form (CLDR "short" decimal formats), with up to

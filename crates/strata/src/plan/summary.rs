@@ -152,7 +152,7 @@ pub fn describe(plan: &Plan) -> String {
                     _ => format!("{} to {}", num_text(first, x_year, loc), num_text(last, x_year, loc)),
                 };
                 let xname = l.data.names.get(&Channel::X).cloned().unwrap_or_else(|| "x".into());
-                parts.push(format!("over {xname} from {span} it {w}"));
+                parts.push(format!("Over {xname} from {span} it {w}"));
             }
         }
     }

@@ -72,7 +72,7 @@ pub struct Spec {
     /// Lint warnings silenced on purpose, by code (`lint.log_bars`, ...).
     #[serde(default, skip_serializing_if = "Vec::is_empty")]
     pub quiet: Vec<String>,
-    /// BCP 47 language tag for number and date labels (`en`, `de`, `fr`, `es`).
+    /// BCP 47 language tag for number and date labels (`en`, `de`, `fr`, `es`, `pl`).
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub locale: Option<LocaleWord>,
     /// The data table under the chart (see `crate::datatable`).

@@ -170,6 +170,7 @@ words! {
         De = "de",
         Fr = "fr",
         Es = "es",
+        Pl = "pl",
     }
 }
 
