@@ -352,7 +352,13 @@ fn number_labels(vals: &[f64], step: TickStep, o: &TickOptions) -> Vec<String> {
         }
     }
     let pattern = match step {
-        TickStep::Even(s) => format::default_pattern(s),
+        TickStep::Even(s) => {
+            // As many decimals as the step needs, and more if a labelling is
+            // offset from it (2.5, 7.5, 12.5 are 5 apart: without this they
+            // printed "2", "8", "12", found in a user trial).
+            let d = vals.iter().map(|v| format::step_decimals(v.abs())).chain([format::step_decimals(s)]).max().unwrap_or(0);
+            format::default_pattern(math::powi(10.0, -(d as i32)))
+        }
         _ => {
             // Uneven steps (log, symlog): each label as many decimals as it needs.
             let d = vals.iter().map(|v| format::step_decimals(v.abs())).max().unwrap_or(0);
@@ -489,6 +495,25 @@ mod tests {
         let s = Transform::Symlog { constant: 1.0 };
         assert_eq!(s.apply(-5.0), s.apply(5.0).map(|v| -v));
         assert!((s.apply(1e-6).unwrap() - 1e-6).abs() < 1e-11);
+    }
+
+    /// Every default number label reads back as its tick's value: the label
+    /// never rounds a tick to a different number (common practice: a tick
+    /// label names the position it marks).
+    #[test]
+    fn number_labels_read_back_as_their_values() {
+        let mut checked = 0;
+        for (lo, hi) in [(3.2, 12.4), (0.13, 0.87), (-7.3, 41.9), (1.05, 1.95), (12.0, 97.0), (2.2, 2.9), (-0.04, 0.031), (1500.0, 9250.0)] {
+            let s = PositionScale::linear(lo, hi);
+            for wanted in 2..=9 {
+                for t in s.ticks(wanted, None) {
+                    let back: f64 = t.label.replace(',', "").replace('\u{2212}', "-").parse().unwrap();
+                    assert!((back - t.value).abs() <= 1e-9 * t.value.abs().max(1.0), "{lo}..{hi} wanted {wanted}: {} labelled {}", t.value, t.label);
+                    checked += 1;
+                }
+            }
+        }
+        assert!(checked > 100);
     }
 
     #[test]
