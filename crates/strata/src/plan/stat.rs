@@ -517,11 +517,25 @@ fn fitted(index: usize, layer: &Layer, o: &StatObject, kind: FitWord, data: Laye
                     opts.delta = 0.01 * (xs[xs.len() - 1] - xs[0]);
                 }
                 let robust = if opts.iterations > 0 { fit::loess_fit(&xs, &ys, &opts).1 } else { vec![1.0; xs.len()] };
-                let fitted = fit::loess_at(&xs, &ys, &robust, &opts, &at);
-                for (a, f) in at.iter().zip(fitted) {
-                    let f = f.is_finite().then_some(f);
+                // The band of the local regression (stat/fit.rs, checked
+                // against netlib's loess); none below three points.
+                let band = if level > 0.0 { fit::loess_band(&xs, &ys, &robust, &opts, &at, level) } else { None };
+                let fitted = match &band {
+                    Some(b) => b.fit.clone(),
+                    None => fit::loess_at(&xs, &ys, &robust, &opts, &at),
+                };
+                let ok = |v: f64| v.is_finite().then_some(v);
+                for (j, (a, f)) in at.iter().zip(fitted).enumerate() {
+                    let f = ok(f);
+                    let (lo, hi) = match &band {
+                        Some(b) => (ok(b.low[j]), ok(b.high[j])),
+                        None => (None, None),
+                    };
                     if bounds_in_y {
-                        out.row(rows[0], &[(Channel::X, Some(*a)), (Channel::Y, f), (Channel::YEnd, f), (Channel::Fitted, f)]);
+                        let (lo, hi) = if band.is_some() { (lo, hi) } else { (f, f) };
+                        out.row(rows[0], &[(Channel::X, Some(*a)), (Channel::Y, lo), (Channel::YEnd, hi), (Channel::Fitted, f)]);
+                    } else if band.is_some() {
+                        out.row(rows[0], &[(Channel::X, Some(*a)), (Channel::Y, f), (Channel::YLow, lo), (Channel::YHigh, hi)]);
                     } else {
                         out.row(rows[0], &[(Channel::X, Some(*a)), (Channel::Y, f)]);
                     }

@@ -588,3 +588,45 @@ fn too_many_bins_is_refused_where_asked_not_truncated() {
         .sum();
     assert_eq!(total, 3.0);
 }
+
+#[test]
+fn loess_band_is_drawn_and_matches_netlib() {
+    // Issue 12 item 7: `"band": 0.95` on a LOESS fit was ignored. The chart's
+    // band equals netlib loess's (scikit-misc 0.5.3, family gaussian, surface
+    // direct, statistics exact; tests/reference/gen/loess_band_fixtures.py),
+    // at the chart's own grid of 80 points from min x to max x.
+    let fx: Value = serde_json::from_str(include_str!("../../../../tests/reference/fixtures/stats/loess_band.json")).unwrap();
+    let case = &fx["cases"][0];
+    let xs: Vec<f64> = case["x"].as_array().unwrap().iter().map(f).collect();
+    let ys: Vec<f64> = case["y"].as_array().unwrap().iter().map(f).collect();
+    let mut csv = String::from("x,y\n");
+    for (a, b) in xs.iter().zip(&ys) {
+        csv.push_str(&format!("{a},{b}\n"));
+    }
+    let spec = r#"{"layers":[{"draw":"point","x":"x","y":"y"},{"draw":"line","x":"x","y":"y","stat":{"fit":"loess","span":0.75,"band":0.95}}]}"#;
+    let r = run(spec, csv.as_bytes());
+    let paths: Vec<&Node> = marks_of(&r).into_iter().filter(|n| matches!(n, Node::Path { .. })).collect();
+    assert_eq!(paths.len(), 2, "band then line");
+    assert!(matches!(paths[0], Node::Path { paint, .. } if paint.fill.as_deref() != Some("none")));
+    let table = crate::data::read(
+        csv.as_bytes(),
+        &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() },
+    )
+    .unwrap();
+    let plan = crate::plan::build(&crate::parse_spec(spec).unwrap(), &table).unwrap();
+    let d = &plan.layers[1].data;
+    assert_eq!(d.len, 80);
+    // The fixture's grid is 25 points over the same range: compare where
+    // the grids meet (both start at min x and end at max x).
+    let want_lo = case["bands"][0]["lower"].as_array().unwrap();
+    let want_hi = case["bands"][0]["upper"].as_array().unwrap();
+    for (i, j) in [(0, 0), (79, 24)] {
+        let lo = d.get(Channel::YLow).unwrap().num(i).unwrap();
+        let hi = d.get(Channel::YHigh).unwrap().num(i).unwrap();
+        assert!((lo - f(&want_lo[j])).abs() < 1e-6, "lower at {i}: {lo} vs {}", want_lo[j]);
+        assert!((hi - f(&want_hi[j])).abs() < 1e-6, "upper at {i}: {hi} vs {}", want_hi[j]);
+    }
+    // `"band": 0` asks for no band.
+    let none = crate::plan::build(&crate::parse_spec(&spec.replace("0.95", "0")).unwrap(), &table).unwrap();
+    assert!(none.layers[1].data.get(Channel::YLow).is_none());
+}
