@@ -369,7 +369,7 @@ pub fn loess_band(xs: &[f64], ys: &[f64], robust: &[f64], opts: &LoessOptions, a
     let rss: f64 = (0..n).map(|j| (ys[j] - fitted[j]) * (ys[j] - fitted[j]) * robust[j]).sum();
     // δ₁ = Σ_i ‖e_i - l_i‖² = Σ_i (1 - 2 L_ii + ‖l_i‖²).
     let one_delta: f64 = (0..n).map(|j| 1.0 - 2.0 * lev[j] + norm2[j]).sum();
-    if one_delta <= 0.0 || !rss.is_finite() {
+    if one_delta <= 1e-9 * n as f64 || !rss.is_finite() {
         return None;
     }
     let two_delta = exact2.then(|| {
@@ -454,4 +454,42 @@ pub fn bisquare_weights(ys: &[f64], fitted: &[f64]) -> Vec<f64> {
             c * c
         })
         .collect()
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn band_survives_ties_wider_than_the_window_and_tiny_inputs() {
+        // 25 of 30 points share one x, more than the 15 a span of 0.5 takes:
+        // the window holds only tied points there. No panic; where a local
+        // fit exists (at x = 3 every weighted neighbour but one sits on the
+        // window's edge, so none does: NaN, a gap in the line) the band
+        // holds the fit.
+        let mut xs: Vec<f64> = vec![5.0; 25];
+        xs.extend([1.0, 2.0, 8.0, 9.0, 10.0]);
+        xs.sort_by(f64::total_cmp);
+        let ys: Vec<f64> = (0..30).map(|i| (i % 7) as f64).collect();
+        let opts = LoessOptions { span: 0.5, degree: 2, iterations: 0, delta: 0.0 };
+        let at = [1.0, 3.0, 5.0, 7.5, 10.0];
+        let b = loess_band(&xs, &ys, &vec![1.0; 30], &opts, &at, 0.95).expect("a band");
+        assert!(b.one_delta > 0.0 && b.df > 0.0 && b.two_delta.is_some());
+        assert_eq!(b.fit.iter().filter(|f| f.is_finite()).count(), 4, "{b:?}");
+        for j in (0..at.len()).filter(|j| b.fit[*j].is_finite()) {
+            assert!(b.low[j] <= b.fit[j] && b.fit[j] <= b.high[j], "{b:?}");
+        }
+        // Three points: the furthest of each window weighs nothing, so each
+        // local line passes through two points, residuals are zero and so is
+        // δ₁: no band (as in netlib). Five points leave some; two none.
+        let o = LoessOptions { span: 1.0, ..Default::default() };
+        assert!(loess_band(&[0.0, 1.0, 2.0], &[0.0, 1.0, 0.0], &[1.0; 3], &o, &[1.0], 0.9).is_none());
+        assert!(loess_band(&[0.0, 1.0, 2.0, 3.0, 4.0], &[0.0, 1.0, 0.0, 2.0, 1.0], &[1.0; 5], &o, &[1.0], 0.9).is_some());
+        assert!(loess_band(&[0.0, 1.0], &[0.0, 1.0], &[1.0; 2], &o, &[0.5], 0.9).is_none());
+        // An exact fit (a straight line): zero residual scale, the band closes on the line.
+        let xs: Vec<f64> = (0..20).map(f64::from).collect();
+        let ys: Vec<f64> = xs.iter().map(|x| 3.0 - 0.5 * x).collect();
+        let b = loess_band(&xs, &ys, &[1.0; 20], &LoessOptions::default(), &[4.5], 0.95).unwrap();
+        assert!((b.fit[0] - 0.75).abs() < 1e-9 && (b.high[0] - b.low[0]).abs() < 1e-9, "{b:?}");
+    }
 }
