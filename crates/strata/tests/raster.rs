@@ -252,3 +252,83 @@ fn text_is_drawn_in_the_bundled_font_at_its_measured_width() {
     // Starts at the left padding (16 px at this width).
     assert!((cols[0] as f64 - 16.0).abs() <= 2.0, "title starts at {}", cols[0]);
 }
+
+/// A donut (`angle: "y"`) drawn by resvg: the ring's centre and radii are
+/// read off the picture; along the middle of the ring every pixel all the
+/// way round is wedge colour (no gap between wedges), the ring's edges are
+/// round to within 1.5 px at every degree (arcs, not straight chords), and
+/// each answer's wedge spans its share of the turn, clockwise from the top.
+/// (The legend is off: its swatches share the wedges' colours.)
+fn check_donut(spec: &str, what: &str) {
+    let r = render(spec, None, &RenderOptions::default()).unwrap();
+    let mut fills: Vec<(String, [f64; 3])> = Vec::new();
+    for m in r.scene.marks() {
+        if let strata::scene::Node::Path { paint, datum: Some(d), .. } = m {
+            let answer = d.get("color").and_then(|v| v.as_str()).unwrap_or_default().to_string();
+            fills.push((answer, hex(paint.fill.as_deref().unwrap())));
+        }
+    }
+    assert_eq!(fills.len(), 3, "{what}: one wedge per answer, got {fills:?}");
+    let p = Picture::new(&r.svg);
+    let (w, h) = (p.pix.width(), p.pix.height());
+    let wedge = |x: u32, y: u32| fills.iter().any(|(_, c)| p.coverage(x, y, *c) >= 0.5 && p.near(x, y, *c, 60.0));
+    let (mut x0, mut x1, mut y0, mut y1) = (u32::MAX, 0, u32::MAX, 0);
+    for y in 0..h {
+        for x in 0..w {
+            if wedge(x, y) {
+                (x0, x1, y0, y1) = (x0.min(x), x1.max(x), y0.min(y), y1.max(y));
+            }
+        }
+    }
+    let (cx, cy) = ((x0 + x1 + 1) as f64 / 2.0, (y0 + y1 + 1) as f64 / 2.0);
+    let outer = (x1 + 1 - x0) as f64 / 2.0;
+    assert!(((y1 + 1 - y0) as f64 / 2.0 - outer).abs() <= 1.0, "{what}: not round: {x0}..{x1} x {y0}..{y1}");
+    let inner = (0..outer as u32).find(|d| wedge((cx + *d as f64) as u32, cy as u32)).unwrap() as f64;
+    assert!(inner > 10.0 && inner < outer - 10.0, "{what}: a ring, inner {inner} outer {outer}");
+    let at = |turn: f64, rad: f64| {
+        let t = turn * std::f64::consts::TAU;
+        ((cx + rad * t.sin()).floor() as u32, (cy - rad * t.cos()).floor() as u32)
+    };
+    let white = |x: u32, y: u32| p.rgb(x, y).iter().all(|c| *c > 235.0);
+    let mid = (inner + outer) / 2.0;
+    for k in 0..1440 {
+        let turn = k as f64 / 1440.0;
+        let (x, y) = at(turn, mid);
+        assert!(!white(x, y), "{what}: a gap at {:.2} deg", turn * 360.0);
+        // Inside the ring: ink (a seam between two wedges blends their colours).
+        let (x, y) = at(turn, outer - 1.5);
+        assert!(!white(x, y), "{what}: outer edge falls short at {:.2} deg", turn * 360.0);
+        let (x, y) = at(turn, outer + 1.5);
+        assert!(!wedge(x, y), "{what}: outer edge overshoots at {:.2} deg", turn * 360.0);
+        let (x, y) = at(turn, inner + 1.5);
+        assert!(!white(x, y), "{what}: inner edge falls short at {:.2} deg", turn * 360.0);
+        let (x, y) = at(turn, inner - 1.5);
+        assert!(!wedge(x, y), "{what}: inner edge overshoots at {:.2} deg", turn * 360.0);
+    }
+    // Shares 48, 31, 21 of 100: wedges [0, 0.48), [0.48, 0.79), [0.79, 1)
+    // (clear of the radius labels' halo along the starting spoke).
+    for (answer, turns) in [("Yes", [0.06, 0.24, 0.47]), ("No", [0.49, 0.635, 0.78]), ("Unsure", [0.80, 0.895, 0.99])] {
+        let c = fills.iter().find(|f| f.0 == answer).unwrap().1;
+        for t in turns {
+            let (x, y) = at(t, mid);
+            assert!(p.near(x, y, c, 30.0), "{what}: {answer} at {t} turn is {:?}", p.rgb(x, y));
+        }
+    }
+}
+
+#[test]
+fn donut_wedges_are_round_and_close_the_ring() {
+    let rows = r#"[ {"q": "all", "answer": "Yes", "n": 48}, {"q": "all", "answer": "No", "n": 31}, {"q": "all", "answer": "Unsure", "n": 21} ]"#;
+    // Without an x: one ring split by y.
+    let spec = format!(
+        r#"{{ "data": {{ "rows": {rows} }}, "layers": [ {{ "draw": "bar", "y": "n", "color": "answer", "arrange": "stack" }} ],
+            "coords": {{ "kind": "polar", "angle": "y", "inner": 0.5 }}, "scales": {{ "color": {{ "legend": "none" }} }}, "size": {{ "width": 560, "height": 460 }}, "theme": "light" }}"#
+    );
+    check_donut(&spec, "no x");
+    // With one category on x: a ring in the band of that category.
+    let spec = format!(
+        r#"{{ "data": {{ "rows": {rows} }}, "layers": [ {{ "draw": "bar", "x": "q", "y": "n", "color": "answer", "arrange": "stack" }} ],
+            "coords": {{ "kind": "polar", "angle": "y", "inner": 0.5 }}, "scales": {{ "color": {{ "legend": "none" }} }}, "size": {{ "width": 560, "height": 460 }}, "theme": "light" }}"#
+    );
+    check_donut(&spec, "one x");
+}

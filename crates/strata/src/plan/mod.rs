@@ -88,8 +88,24 @@ pub fn build_with_shapes(spec: &Spec, table: &Table, shapes: Option<Vec<crate::g
     if let Err(e) = layer::check_panels(spec.panels.as_ref(), table) {
         errors.extend(e.0);
     }
+    // A density over a count histogram is scaled to its counts, so the
+    // histogram's statistic runs first (issue 12 item 11).
+    let over: Vec<Option<usize>> = (0..spec.layers.len()).map(|i| stat::count_histogram_of(&spec.layers, i)).collect();
+    let mut stated: Vec<Option<Result<stat::Stated, Errors>>> = (0..spec.layers.len()).map(|_| None).collect();
+    for pass in 0..2 {
+        for (i, l) in spec.layers.iter().enumerate() {
+            if over[i].is_some() != (pass == 1) {
+                continue;
+            }
+            let on = over[i].map(|h| match &stated[h] {
+                Some(Ok(s)) => stat::on_counts(h, &spec.layers[h], &s.data),
+                _ => stat::OnCounts::Warn(h),
+            });
+            stated[i] = Some(layer::extract(i, l, table).map(|d| layer::with_panel(d, spec.panels.as_ref(), table)).and_then(|d| stat::apply(i, l, d, on)));
+        }
+    }
     for (i, l) in spec.layers.iter().enumerate() {
-        match layer::extract(i, l, table).map(|d| layer::with_panel(d, spec.panels.as_ref(), table)).and_then(|d| stat::apply(i, l, d)) {
+        match stated[i].take().expect("every layer ran its statistic") {
             Ok(s) => {
                 let n = stat::element_count(s.geometry, &s.data);
                 if n > stat::MAX_ELEMENTS {

@@ -45,7 +45,71 @@ fn err(index: usize, key: &str, code: &str, msg: impl Into<String>) -> Errors {
     Diagnostic::error(code, msg).at_path(format!("layers[{index}].{key}")).into()
 }
 
-pub fn apply(index: usize, layer: &Layer, data: LayerData) -> Result<Stated, Errors> {
+/// How a `density` layer meets a count histogram of the same `x` in its
+/// chart (issue 12 item 11: the density drew flat along the count axis).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum OnCounts {
+    /// Scale the density to counts: density x n x `width`, n the rows of
+    /// the density's group, `width` the histogram's bin width.
+    Scale(f64),
+    /// The histogram's bins differ in width, or it sums a `y` rather than
+    /// counting: no single factor fits, so warn (layer index of the histogram).
+    Warn(usize),
+}
+
+/// The other layer, if any, that a `density` layer `index` draws over: a
+/// `bin` histogram of counts (not `"density": true`) on the same `x`.
+pub fn count_histogram_of(layers: &[Layer], index: usize) -> Option<usize> {
+    let l = &layers[index];
+    let Stat::Object(o) = &l.stat else { return None };
+    o.density.as_ref()?;
+    let x = l.x.as_ref()?;
+    layers.iter().enumerate().position(|(j, h)| {
+        j != index && h.x.as_ref() == Some(x) && matches!(&h.stat, Stat::Object(ho) if ho.bin.as_ref().is_some_and(|b| b.density != Some(true)))
+    })
+}
+
+/// What a density over histogram `hist` (its spec and its rows after the
+/// statistic) should do.
+pub fn on_counts(hist_index: usize, hist: &Layer, stated: &LayerData) -> OnCounts {
+    if hist.y.is_some() {
+        return OnCounts::Warn(hist_index);
+    }
+    let (a, b) = if stated.get(Channel::XEnd).is_some() { (Channel::X, Channel::XEnd) } else { (Channel::BinStart, Channel::BinEnd) };
+    let (Some(a), Some(b)) = (stated.get(a), stated.get(b)) else { return OnCounts::Warn(hist_index) };
+    let widths: Vec<f64> = (0..stated.len).filter_map(|i| Some(b.num(i)? - a.num(i)?)).filter(|w| w.is_finite() && *w > 0.0).collect();
+    let (lo, hi) = widths.iter().fold((f64::INFINITY, 0.0f64), |(lo, hi), w| (lo.min(*w), hi.max(*w)));
+    if widths.is_empty() || hi - lo > 1e-9 * hi {
+        return OnCounts::Warn(hist_index);
+    }
+    OnCounts::Scale(widths[0])
+}
+
+/// Run a layer's statistic; `on_counts` says how a density meets a count
+/// histogram in its chart ([`count_histogram_of`]).
+pub fn apply(index: usize, layer: &Layer, data: LayerData, on_counts: Option<OnCounts>) -> Result<Stated, Errors> {
+    if let (Some(OnCounts::Warn(h)), Stat::Object(o)) = (on_counts, &layer.stat) {
+        if o.density.is_some() {
+            let mut s = apply(index, layer, data, None)?;
+            s.warnings.push(
+                Diagnostic::warning(
+                    "stat.density_on_counts",
+                    format!(
+                        "layer {}'s density is drawn on layer {}'s count axis, whose bins are uneven or weighted, so the curve cannot be scaled to them and lies flat",
+                        index + 1,
+                        h + 1
+                    ),
+                )
+                .at_path(format!("layers[{index}].stat.density"))
+                .with_hint(format!("give layer {}'s bin `\"density\": true`, so bars and curve share the density axis", h + 1)),
+            );
+            return Ok(s);
+        }
+    }
+    let scale = match on_counts {
+        Some(OnCounts::Scale(w)) => Some(w),
+        _ => None,
+    };
     let mut geometry = layer.draw;
     let mut warnings = Vec::new();
     let data = match &layer.stat {
@@ -76,12 +140,12 @@ pub fn apply(index: usize, layer: &Layer, data: LayerData) -> Result<Stated, Err
         }
         Stat::Count => count(data),
         Stat::Box => boxes(index, data)?,
-        Stat::Object(o) => object(index, layer, o, data)?,
+        Stat::Object(o) => object(index, layer, o, data, scale)?,
     };
     Ok(Stated { data, geometry, warnings })
 }
 
-fn object(index: usize, layer: &Layer, o: &StatObject, data: LayerData) -> Result<LayerData, Errors> {
+fn object(index: usize, layer: &Layer, o: &StatObject, data: LayerData, count_width: Option<f64>) -> Result<LayerData, Errors> {
     if let Some(b) = &o.bin {
         return binned(index, layer, b, data);
     }
@@ -92,7 +156,7 @@ fn object(index: usize, layer: &Layer, o: &StatObject, data: LayerData) -> Resul
         return fitted(index, layer, o, kind, data);
     }
     if let Some(d) = &o.density {
-        return densities(index, layer, d, data);
+        return densities(index, d, data, count_width);
     }
     if let Some(w) = &o.window {
         return windowed(index, w, data);
@@ -517,11 +581,25 @@ fn fitted(index: usize, layer: &Layer, o: &StatObject, kind: FitWord, data: Laye
                     opts.delta = 0.01 * (xs[xs.len() - 1] - xs[0]);
                 }
                 let robust = if opts.iterations > 0 { fit::loess_fit(&xs, &ys, &opts).1 } else { vec![1.0; xs.len()] };
-                let fitted = fit::loess_at(&xs, &ys, &robust, &opts, &at);
-                for (a, f) in at.iter().zip(fitted) {
-                    let f = f.is_finite().then_some(f);
+                // The band of the local regression (stat/fit.rs, checked
+                // against netlib's loess); none below three points.
+                let band = if level > 0.0 { fit::loess_band(&xs, &ys, &robust, &opts, &at, level) } else { None };
+                let fitted = match &band {
+                    Some(b) => b.fit.clone(),
+                    None => fit::loess_at(&xs, &ys, &robust, &opts, &at),
+                };
+                let ok = |v: f64| v.is_finite().then_some(v);
+                for (j, (a, f)) in at.iter().zip(fitted).enumerate() {
+                    let f = ok(f);
+                    let (lo, hi) = match &band {
+                        Some(b) => (ok(b.low[j]), ok(b.high[j])),
+                        None => (None, None),
+                    };
                     if bounds_in_y {
-                        out.row(rows[0], &[(Channel::X, Some(*a)), (Channel::Y, f), (Channel::YEnd, f), (Channel::Fitted, f)]);
+                        let (lo, hi) = if band.is_some() { (lo, hi) } else { (f, f) };
+                        out.row(rows[0], &[(Channel::X, Some(*a)), (Channel::Y, lo), (Channel::YEnd, hi), (Channel::Fitted, f)]);
+                    } else if band.is_some() {
+                        out.row(rows[0], &[(Channel::X, Some(*a)), (Channel::Y, f), (Channel::YLow, lo), (Channel::YHigh, hi)]);
                     } else {
                         out.row(rows[0], &[(Channel::X, Some(*a)), (Channel::Y, f)]);
                     }
@@ -535,7 +613,10 @@ fn fitted(index: usize, layer: &Layer, o: &StatObject, kind: FitWord, data: Laye
 
 // ------------------------------------------------------------ density
 
-fn densities(index: usize, layer: &Layer, d: &crate::spec::DensitySpec, data: LayerData) -> Result<LayerData, Errors> {
+/// A kernel density per group; with `count_width`, scaled to a count
+/// histogram's axis: density x n x width (n the group's finite x values),
+/// the expected count in a bin of that width.
+fn densities(index: usize, d: &crate::spec::DensitySpec, data: LayerData, count_width: Option<f64>) -> Result<LayerData, Errors> {
     let x = need_numeric(index, &data, Channel::X, "a density")?;
     let rule = match &d.bandwidth.unwrap_or(Bandwidth::Rule(defaults::BANDWIDTH)) {
         Bandwidth::Rule(BandwidthRule::Scott) => density::Bandwidth::Scott,
@@ -571,14 +652,15 @@ fn densities(index: usize, layer: &Layer, d: &crate::spec::DensitySpec, data: La
         for (rows, xs, h) in &per_group {
             let Some(h) = *h else { continue };
             let dens = if xs.len().saturating_mul(m) > 200_000 { density::kde_binned(xs, h, lo, hi, m) } else { density::kde_exact(xs, h, &grid) };
+            let factor = count_width.map_or(1.0, |w| xs.len() as f64 * w);
             for (g, v) in grid.iter().zip(dens) {
-                out.row(rows[0], &[(Channel::X, Some(*g)), (Channel::Y, Some(v)), (Channel::Bandwidth, Some(h))]);
+                out.row(rows[0], &[(Channel::X, Some(*g)), (Channel::Y, Some(v * factor)), (Channel::Bandwidth, Some(h))]);
             }
         }
     }
-    let _ = layer;
     let time: &[Channel] = if matches!(x, Values::Time(_)) { &[Channel::X] } else { &[] };
-    Ok(out.finish(&data, &keys, time, &[(Channel::X, name_of(&data, Channel::X)), (Channel::Y, "density".to_string())]))
+    let y_name = if count_width.is_some() { "count" } else { "density" };
+    Ok(out.finish(&data, &keys, time, &[(Channel::X, name_of(&data, Channel::X)), (Channel::Y, y_name.to_string())]))
 }
 
 // ------------------------------------------------------------ box

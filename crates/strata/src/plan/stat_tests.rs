@@ -510,7 +510,7 @@ fn statistics_group_by_panel_and_colour() {
     data.channels.insert(Channel::Color, Values::Text(colour.iter().map(|s| Some(s.to_string())).collect()));
     data.channels.insert(Channel::Panel, Values::Text(panel.iter().map(|s| Some(s.to_string())).collect()));
     let layer: crate::spec::Layer = serde_json::from_str(r#"{"draw":"bar","x":"x","color":"c","stat":{"bin":{"count":2}}}"#).unwrap();
-    let out = super::apply(0, &layer, data.clone()).unwrap().data;
+    let out = super::apply(0, &layer, data.clone(), None).unwrap().data;
     // Four groups (left/p, left/q, right/p, right/q) x two shared bins [1, 2), [2, 3].
     assert_eq!(out.len, 8);
     let counts: Vec<f64> = (0..out.len).map(|i| out.get(Channel::Count).unwrap().num(i).unwrap()).collect();
@@ -519,7 +519,7 @@ fn statistics_group_by_panel_and_colour() {
     assert_eq!(out.get(Channel::Color).unwrap().key(2).as_deref(), Some("q"));
     // Counts split the same way, and also by x.
     let layer: crate::spec::Layer = serde_json::from_str(r#"{"draw":"bar","x":"x","color":"c","stat":"count"}"#).unwrap();
-    let out = super::apply(0, &layer, data).unwrap().data;
+    let out = super::apply(0, &layer, data, None).unwrap().data;
     let n: f64 = (0..out.len).map(|i| out.get(Channel::Y).unwrap().num(i).unwrap()).sum();
     assert_eq!(n, 8.0);
     // right/p/x=3 and right/q/x=3 are separate rows.
@@ -587,4 +587,126 @@ fn too_many_bins_is_refused_where_asked_not_truncated() {
         })
         .sum();
     assert_eq!(total, 3.0);
+}
+
+#[test]
+fn loess_band_is_drawn_and_matches_netlib() {
+    // Issue 12 item 7: `"band": 0.95` on a LOESS fit was ignored. The chart's
+    // band equals netlib loess's (scikit-misc 0.5.3, family gaussian, surface
+    // direct, statistics exact; tests/reference/gen/loess_band_fixtures.py),
+    // at the chart's own grid of 80 points from min x to max x.
+    let fx: Value = serde_json::from_str(include_str!("../../../../tests/reference/fixtures/stats/loess_band.json")).unwrap();
+    let case = &fx["cases"][0];
+    let xs: Vec<f64> = case["x"].as_array().unwrap().iter().map(f).collect();
+    let ys: Vec<f64> = case["y"].as_array().unwrap().iter().map(f).collect();
+    let mut csv = String::from("x,y\n");
+    for (a, b) in xs.iter().zip(&ys) {
+        csv.push_str(&format!("{a},{b}\n"));
+    }
+    let spec = r#"{"layers":[{"draw":"point","x":"x","y":"y"},{"draw":"line","x":"x","y":"y","stat":{"fit":"loess","span":0.75,"band":0.95}}]}"#;
+    let r = run(spec, csv.as_bytes());
+    let paths: Vec<&Node> = marks_of(&r).into_iter().filter(|n| matches!(n, Node::Path { .. })).collect();
+    assert_eq!(paths.len(), 2, "band then line");
+    assert!(matches!(paths[0], Node::Path { paint, .. } if paint.fill.as_deref() != Some("none")));
+    let table = crate::data::read(
+        csv.as_bytes(),
+        &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() },
+    )
+    .unwrap();
+    let plan = crate::plan::build(&crate::parse_spec(spec).unwrap(), &table).unwrap();
+    let d = &plan.layers[1].data;
+    assert_eq!(d.len, 80);
+    // The fixture's grid is 25 points over the same range: compare where
+    // the grids meet (both start at min x and end at max x).
+    let want_lo = case["bands"][0]["lower"].as_array().unwrap();
+    let want_hi = case["bands"][0]["upper"].as_array().unwrap();
+    for (i, j) in [(0, 0), (79, 24)] {
+        let lo = d.get(Channel::YLow).unwrap().num(i).unwrap();
+        let hi = d.get(Channel::YHigh).unwrap().num(i).unwrap();
+        assert!((lo - f(&want_lo[j])).abs() < 1e-6, "lower at {i}: {lo} vs {}", want_lo[j]);
+        assert!((hi - f(&want_hi[j])).abs() < 1e-6, "upper at {i}: {hi} vs {}", want_hi[j]);
+    }
+    // `"band": 0` asks for no band.
+    let none = crate::plan::build(&crate::parse_spec(&spec.replace("0.95", "0")).unwrap(), &table).unwrap();
+    assert!(none.layers[1].data.get(Channel::YLow).is_none());
+}
+
+fn plan_of(spec: &str, csv: &str) -> crate::plan::Plan {
+    let table = crate::data::read(
+        csv.as_bytes(),
+        &crate::data::ReadOptions { format: Some(crate::spec::DataFormat::Csv), types: Default::default(), ..Default::default() },
+    )
+    .unwrap();
+    crate::plan::build(&crate::parse_spec(spec).unwrap(), &table).unwrap_or_else(|e| panic!("{e:?}"))
+}
+
+fn close_rel(a: f64, b: f64, rel: f64) -> bool {
+    (a - b).abs() <= rel * b.abs().max(1e-12)
+}
+
+#[test]
+fn density_over_a_count_histogram_is_scaled_to_its_counts() {
+    // Issue 12 item 11: a density over a count histogram drew flat along
+    // the axis. It is now density x n x bin width, the expected count per
+    // bin; checked against scipy.stats.gaussian_kde (Scott's bandwidth)
+    // times n x width (tests/reference/gen/density_counts_fixtures.py).
+    let fx: Value = serde_json::from_str(include_str!("../../../../tests/reference/fixtures/stats/density_counts.json")).unwrap();
+    let width = f(&fx["width"]);
+    assert_eq!(width, 2.0);
+    let single = &fx["single"];
+    let mut csv = String::from("v\n");
+    for v in single["values"].as_array().unwrap() {
+        csv.push_str(&format!("{}\n", f(v)));
+    }
+    for (hist, dens) in [(0, 1), (1, 0)] {
+        // The histogram may come before or after the density.
+        let layers = [r#"{"draw":"bar","x":"v","stat":{"bin":{"width":2,"boundary":0}}}"#, r#"{"draw":"line","x":"v","stat":{"density":{}}}"#];
+        let spec = format!(r#"{{"layers":[{},{}]}}"#, layers[hist], layers[dens]);
+        let plan = plan_of(&spec, &csv);
+        let d = &plan.layers[dens].data;
+        let (grid, want) = (single["grid"].as_array().unwrap(), single["counts"].as_array().unwrap());
+        assert_eq!(d.len, grid.len());
+        for i in 0..d.len {
+            assert!(close_rel(d.get(Channel::X).unwrap().num(i).unwrap(), f(&grid[i]), 1e-9), "x[{i}]");
+            let y = d.get(Channel::Y).unwrap().num(i).unwrap();
+            assert!(close_rel(y, f(&want[i]), 1e-9), "y[{i}]: {y} vs {}", want[i]);
+        }
+        assert!(plan.warnings.iter().all(|w| w.code != "stat.density_on_counts"));
+    }
+    // Groups by colour: each group's density times its own n.
+    let grouped = &fx["grouped"];
+    let mut csv = String::from("v,phase\n");
+    for (k, vs) in grouped["groups"].as_object().unwrap() {
+        for v in vs.as_array().unwrap() {
+            csv.push_str(&format!("{},{k}\n", f(v)));
+        }
+    }
+    let spec = r#"{"layers":[{"draw":"bar","x":"v","color":"phase","stat":{"bin":{"width":2,"boundary":0}}},{"draw":"line","x":"v","color":"phase","stat":{"density":{}}}]}"#;
+    let plan = plan_of(spec, &csv);
+    let d = &plan.layers[1].data;
+    let grid = grouped["grid"].as_array().unwrap();
+    for i in 0..d.len {
+        let k = d.get(Channel::Color).unwrap().key(i).unwrap();
+        let want = &grouped["counts"][k.as_str()][i % grid.len()];
+        assert!(close_rel(d.get(Channel::X).unwrap().num(i).unwrap(), f(&grid[i % grid.len()]), 1e-9));
+        assert!(close_rel(d.get(Channel::Y).unwrap().num(i).unwrap(), f(want), 1e-9), "{k} y[{i}]");
+    }
+    // A density histogram (`"density": true`) shares the density's axis:
+    // nothing is scaled.
+    let spec = r#"{"layers":[{"draw":"bar","x":"v","stat":{"bin":{"width":2,"density":true}}},{"draw":"line","x":"v","stat":{"density":{}}}]}"#;
+    let plan = plan_of(spec, "v\n1\n2\n2\n3\n5\n");
+    let ys: Vec<f64> = (0..plan.layers[1].data.len).map(|i| plan.layers[1].data.get(Channel::Y).unwrap().num(i).unwrap()).collect();
+    assert!(ys.iter().cloned().fold(0.0, f64::max) < 1.0);
+}
+
+#[test]
+fn density_over_uneven_or_weighted_bins_warns_instead() {
+    // Bins by calendar month differ in width, and a weighted histogram sums
+    // y rather than counting: no single factor puts a density on that axis,
+    // so the chart warns and suggests a density histogram.
+    let spec = r#"{"layers":[{"draw":"bar","x":"v","y":"w","stat":{"bin":{"width":2}}},{"draw":"line","x":"v","stat":{"density":{}}}]}"#;
+    let plan = plan_of(spec, "v,w\n1,3\n2,1\n2,2\n3,4\n5,1\n");
+    let w = plan.warnings.iter().find(|w| w.code == "stat.density_on_counts").expect("a warning");
+    assert_eq!(w.at.path, "layers[1].stat.density");
+    assert!(w.hint.as_deref().unwrap_or("").contains("\"density\": true"));
 }

@@ -677,7 +677,10 @@ fn plot_draw(inp: &PlotInputs, plan: &Plan, lay: &PlotLayout, frame: Frame, draw
             // A full turn: the last continuous tick would sit on the first.
             let a_ticks: Vec<crate::scale::Tick> = a_ticks.into_iter().filter(|t| a_scale.is_discrete() || t.unit < 1.0 - 1e-9).collect();
             let r_opts = crate::scale::TickOptions { wanted: 4, pattern: r_spec.format.as_deref(), locale: loc, short: false };
-            let r_ticks = if r_spec.hide { vec![] } else { r_scale.ticks_with(&r_opts) };
+            // No layer maps the radius (a donut with no x): no radius ticks.
+            let r_channel = if angle_is_x { crate::channel::Channel::Y } else { crate::channel::Channel::X };
+            let r_unmapped = plan.layers.iter().all(|l| l.data.get(r_channel).is_none());
+            let r_ticks = if r_spec.hide || r_unmapped { vec![] } else { r_scale.ticks_with(&r_opts) };
             let (mx, my) = guides::polar_margin(&a_ticks, inp.ts);
             let inset =
                 Frame { left: frame.left + mx, top: frame.top + my, width: (frame.width - 2.0 * mx).max(20.0), height: (frame.height - 2.0 * my).max(20.0) };
@@ -1013,6 +1016,89 @@ mod tests {
         let halos = kids.iter().filter(|k| matches!(k, Node::Group { class, .. } if class == "strata-halo")).count();
         let texts = kids.iter().filter(|k| matches!(k, Node::Text { .. })).count();
         assert!(texts >= 2 && halos == texts, "{halos} halos for {texts} labels");
+    }
+
+    #[test]
+    fn polar_wedges_and_rings_are_arcs_and_no_ring_is_a_point() {
+        // Issue 12 item 12: wedges and rings were 24- and 72-point
+        // polylines, and the ring at radius 0 was drawn as a point.
+        use crate::scene::Seg;
+        let spec = r#"{ "data": { "rows": [ {"d": "N", "h": 120}, {"d": "E", "h": 300}, {"d": "S", "h": 90}, {"d": "W", "h": 200} ] },
+            "layers": [ { "draw": "bar", "x": "d", "y": "h" } ], "coords": "polar" }"#;
+        let s = render(spec, None, &RenderOptions { scene: SceneOptions { width: 500.0 } }).unwrap().scene;
+        let arcs = |d: &[Seg]| d.iter().filter(|g| matches!(g, Seg::Arc { .. })).count();
+        let lines = |d: &[Seg]| d.iter().filter(|g| matches!(g, Seg::Line(..))).count();
+        let wedges: Vec<&Vec<Seg>> = s
+            .marks()
+            .into_iter()
+            .filter_map(|m| match m {
+                Node::Path { d, .. } => Some(d),
+                _ => None,
+            })
+            .collect();
+        assert_eq!(wedges.len(), 4);
+        for d in &wedges {
+            // From the centre: one line out, one arc, one line back (the close).
+            assert_eq!((arcs(d), lines(d)), (1, 1), "{d:?}");
+        }
+        let grid = s.children.iter().find_map(|c| match c {
+            Node::Group { class, children, .. } if class == "strata-grid" => Some(children),
+            _ => None,
+        });
+        let rings: Vec<&Vec<Seg>> = grid
+            .unwrap()
+            .iter()
+            .filter_map(|n| match n {
+                Node::Path { d, .. } => Some(d),
+                _ => None,
+            })
+            .collect();
+        assert!(rings.len() >= 2);
+        for d in &rings {
+            assert_eq!((arcs(d), lines(d)), (2, 0), "a ring is two half-circle arcs: {d:?}");
+            assert!(d.iter().all(|g| !matches!(g, Seg::Arc { rx, .. } if *rx < 1.0)), "a ring of zero radius: {d:?}");
+        }
+    }
+
+    #[test]
+    fn a_donut_without_x_is_one_ring_split_by_y() {
+        use crate::scene::Seg;
+        let spec = r#"{ "data": { "rows": [ {"a": "Yes", "n": 48}, {"a": "No", "n": 31}, {"a": "Unsure", "n": 21} ] },
+            "layers": [ { "draw": "bar", "y": "n", "color": "a", "arrange": "stack" } ], "coords": { "kind": "polar", "angle": "y", "inner": 0.5 } }"#;
+        let s = render(spec, None, &RenderOptions { scene: SceneOptions { width: 500.0 } }).unwrap().scene;
+        let wedges: Vec<&Vec<Seg>> = s
+            .marks()
+            .into_iter()
+            .filter_map(|m| match m {
+                Node::Path { d, .. } => Some(d),
+                _ => None,
+            })
+            .collect();
+        assert_eq!(wedges.len(), 3);
+        // Each: outer arc, a line in, inner arc back; the radii agree across wedges.
+        let radii: Vec<(f64, f64)> = wedges
+            .iter()
+            .map(|d| match (&d[1], &d[3]) {
+                (Seg::Arc { rx: a, sweep: true, .. }, Seg::Arc { rx: b, sweep: false, .. }) => (*a, *b),
+                _ => panic!("{d:?}"),
+            })
+            .collect();
+        assert!(radii.iter().all(|r| (r.0 - radii[0].0).abs() < 1e-9 && (r.1 - radii[0].1).abs() < 1e-9 && (r.1 / r.0 - 0.5).abs() < 1e-9), "{radii:?}");
+        // Each wedge starts where the last one ended, and the last ends where the first starts.
+        for k in 0..3 {
+            let end = match wedges[k][1] {
+                Seg::Arc { x, y, .. } => (x, y),
+                _ => unreachable!(),
+            };
+            let next = match wedges[(k + 1) % 3][0] {
+                Seg::Move(x, y) => (x, y),
+                _ => unreachable!(),
+            };
+            assert!((end.0 - next.0).abs() < 1e-9 && (end.1 - next.1).abs() < 1e-9, "wedge {k} ends at {end:?}, the next starts at {next:?}");
+        }
+        // The radius maps nothing: no radius labels, no rings.
+        let radius_axis = s.children.iter().any(|c| matches!(c, Node::Group { class, .. } if class.contains("strata-axis-radius")));
+        assert!(!radius_axis);
     }
 
     #[test]

@@ -1,6 +1,6 @@
 //! Coordinate systems: unit positions (0..1 along each scale) to pixels.
 
-use super::{polyline, Seg};
+use super::Seg;
 use crate::math;
 use crate::plan::{AngleChannel, Coords};
 
@@ -85,19 +85,11 @@ impl Coord {
                 let (bx, by) = self.point(x1, y1);
                 Area::Rect { x: ax.min(bx), y: ay.min(by), width: (ax - bx).abs(), height: (ay - by).abs() }
             }
-            Coord::Polar { .. } => {
-                // Trace the outline with enough steps that arcs look round.
-                let steps = 24;
-                let mut pts = Vec::with_capacity(2 * steps + 2);
-                for k in 0..=steps {
-                    let t = k as f64 / steps as f64;
-                    pts.push(self.point(x0 + (x1 - x0) * t, y1));
-                }
-                for k in (0..=steps).rev() {
-                    let t = k as f64 / steps as f64;
-                    pts.push(self.point(x0 + (x1 - x0) * t, y0));
-                }
-                Area::Path(polyline(&pts, true))
+            Coord::Polar { frame, angle_is_x, start, inner } => {
+                let (a0, a1, r0, r1) = if *angle_is_x { (x0, x1, y0, y1) } else { (y0, y1, x0, x1) };
+                let (_, _, radius) = polar_centre(*frame);
+                let px = |r: f64| radius * (inner + (1.0 - inner) * r.clamp(0.0, 1.0));
+                Area::Path(sector(polar_centre(*frame), *start, a0.min(a1), a0.max(a1), px(r0.min(r1)), px(r0.max(r1))))
             }
         }
     }
@@ -126,6 +118,82 @@ impl Coord {
             _ => units.iter().map(|(x, y)| self.point(*x, *y)).collect(),
         }
     }
+}
+
+/// Radii below this many pixels are drawn as the centre point.
+const POINT_RADIUS: f64 = 0.25;
+
+/// The point at `turn` (fraction of a full turn, clockwise from the top,
+/// after `start` degrees) and pixel radius `r` around centre (cx, cy).
+fn on_circle(cx: f64, cy: f64, start: f64, turn: f64, r: f64) -> (f64, f64) {
+    let theta = (start / 360.0 + turn) * std::f64::consts::TAU;
+    (cx + r * math::sin(theta), cy - r * math::cos(theta))
+}
+
+/// Arc segments along the circle of pixel radius `r` from turn `a0` to
+/// `a1` (a0 < a1, clockwise on screen: SVG's sweep flag 1; reversed when
+/// `back`), starting where the path already is. A whole turn is two half
+/// turns, as one SVG arc cannot end where it starts.
+fn arc_to(out: &mut Vec<Seg>, (cx, cy): (f64, f64), start: f64, a0: f64, a1: f64, r: f64, back: bool) {
+    let span = (a1 - a0).min(1.0);
+    let pieces = if span > 0.5 + 1e-9 { 2 } else { 1 };
+    for k in 1..=pieces {
+        let f = k as f64 / pieces as f64;
+        let turn = if back { a1 - span * f } else { a0 + span * f };
+        let (x, y) = on_circle(cx, cy, start, turn, r);
+        out.push(Seg::Arc { rx: r, ry: r, large: false, sweep: !back, x, y });
+    }
+}
+
+/// An annular sector in pixels: turns a0..a1 (a0 <= a1) between pixel radii
+/// r0 <= r1, outlined with SVG arcs; a wedge from the centre when r0 is
+/// (nearly) zero, a whole ring or disc when it spans a full turn.
+pub fn sector(centre: (f64, f64, f64), start: f64, a0: f64, a1: f64, r0: f64, r1: f64) -> Vec<Seg> {
+    let (cx, cy, _) = centre;
+    let c = (cx, cy);
+    let full = a1 - a0 >= 1.0 - 1e-9;
+    let a1 = if full { a0 + 1.0 } else { a1 };
+    let mut d = Vec::with_capacity(8);
+    let (x, y) = on_circle(cx, cy, start, a0, r1);
+    d.push(Seg::Move(x, y));
+    if r1 > POINT_RADIUS {
+        arc_to(&mut d, c, start, a0, a1, r1, false);
+    }
+    if full {
+        d.push(Seg::Close);
+        if r0 > POINT_RADIUS {
+            // The hole: its own closed outline, wound the other way, so the
+            // non-zero fill rule leaves it empty.
+            let (x, y) = on_circle(cx, cy, start, a1, r0);
+            d.push(Seg::Move(x, y));
+            arc_to(&mut d, c, start, a0, a1, r0, true);
+            d.push(Seg::Close);
+        }
+        return d;
+    }
+    if r0 > POINT_RADIUS {
+        let (x, y) = on_circle(cx, cy, start, a1, r0);
+        d.push(Seg::Line(x, y));
+        arc_to(&mut d, c, start, a0, a1, r0, true);
+    } else {
+        d.push(Seg::Line(cx, cy));
+    }
+    d.push(Seg::Close);
+    d
+}
+
+/// A whole circle of pixel radius `r` as two arcs; `None` below a quarter
+/// pixel (a ring of zero radius draws nothing).
+pub fn circle(centre: (f64, f64, f64), start: f64, r: f64) -> Option<Vec<Seg>> {
+    if r <= POINT_RADIUS {
+        return None;
+    }
+    let (cx, cy, _) = centre;
+    let (x, y) = on_circle(cx, cy, start, 0.0, r);
+    let mut d = vec![Seg::Move(x, y)];
+    arc_to(&mut d, (cx, cy), start, 0.0, 1.0, r, false);
+    d.push(Seg::Close);
+    Some(d)
 }
 
 pub fn polar_centre(f: Frame) -> (f64, f64, f64) {

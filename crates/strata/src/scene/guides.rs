@@ -7,7 +7,7 @@
 //! (compact numbers, shorter dates, truncated words).
 
 use super::coord::{Coord, Frame};
-use super::{polyline, shape_path, Anchor, Node, Paint};
+use super::{shape_path, Anchor, Node, Paint};
 use crate::channel::Channel;
 use crate::color::Palette;
 use crate::format::Locale;
@@ -842,9 +842,12 @@ pub fn polar(coord: &Coord, angle_is_x: bool, angle_ticks: &[Tick], radius_ticks
         if !(0.0..=1.0 + 1e-9).contains(&t.unit) {
             continue;
         }
-        let steps = 72;
-        let pts: Vec<(f64, f64)> = (0..=steps).map(|k| at(k as f64 / steps as f64, t.unit)).collect();
-        grid.push(Node::Path { d: polyline(&pts, true), paint: Paint::stroke(&pal.grid, 1.0), datum: None });
+        // A circle of two SVG arcs; a ring of zero radius draws nothing.
+        let (x, y) = at(0.0, t.unit);
+        let r = ((x - cx) * (x - cx) + (y - cy) * (y - cy)).sqrt();
+        if let Some(d) = super::coord::circle((cx, cy, r), 0.0, r) {
+            grid.push(Node::Path { d, paint: Paint::stroke(&pal.grid, 1.0), datum: None });
+        }
     }
     for t in angle_ticks {
         let (x0, y0) = at(t.unit, 0.0);

@@ -523,7 +523,10 @@ fn bars(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     let mut bars_after = Vec::new();
     for i in 0..layer.data.len {
         let Some(uy) = ctx.scales.y.unit(yv, i) else { continue };
-        let Some((x0, x1)) = x_extent(ctx, layer, i, fraction, &beside) else { continue };
+        // In polar coordinates a bar without an x spans the whole radius:
+        // a donut with no x is one ring split by y.
+        let whole = ctx.coord.is_polar() && layer.data.get(Channel::X).is_none();
+        let Some((x0, x1)) = x_extent(ctx, layer, i, fraction, &beside).or(whole.then_some((0.0, 1.0))) else { continue };
         let ub = base.and_then(|b| b.num(i)).and_then(|b| ctx.scales.y.unit_num(b)).unwrap_or(0.0);
         let c = color_of(ctx, layer, i);
         let mut paint = Paint::fill(&c);
