@@ -422,7 +422,7 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, names: GridNames, cells: &[Plan], ri
 /// ends of its frame (rotated labels hang left of their ticks only).
 fn h_label_overhang(lay: &PlotLayout, ts: f64) -> (f64, f64) {
     let fw = lay.frame.width;
-    let w = |t: &crate::scale::Tick| text::width(&t.label, ts, false);
+    let w = |t: &crate::scale::Tick| guides::label_width(t, ts);
     if lay.h_angle != 0.0 {
         let c = crate::math::cos((-lay.h_angle).to_radians());
         return (lay.h_ticks.iter().map(|t| w(t) * c - t.unit * fw).fold(0.0, f64::max), 0.0);
@@ -569,7 +569,7 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
     // Rotated labels reach left of their ticks: widen the left margin for them.
     let (left, frame_w, h_ticks, h_angle) = if h_angle != 0.0 && h_shown {
         let c = crate::math::cos((-h_angle).to_radians());
-        let reach = h_ticks.iter().map(|t| text::width(&t.label, inp.ts, false) * c - t.unit * frame_w - (left - x0)).fold(0.0, f64::max);
+        let reach = h_ticks.iter().map(|t| guides::label_width(t, inp.ts) * c - t.unit * frame_w - (left - x0)).fold(0.0, f64::max);
         if reach > 0.0 {
             let (l, w) = (left + reach, (frame_w - reach).max(20.0));
             let (t, a) =
@@ -593,7 +593,7 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
             pad
         };
         let over = |t: &[crate::scale::Tick], w: f64| {
-            t.last().map(|l| (text::width(&l.label, inp.ts, false) / 2.0 - (1.0 - l.unit) * w - room_right + 2.0).max(0.0)).unwrap_or(0.0)
+            t.last().map(|l| (guides::label_width(l, inp.ts) / 2.0 - (1.0 - l.unit) * w - room_right + 2.0).max(0.0)).unwrap_or(0.0)
         };
         let o = if h_angle == 0.0 { over(&h_ticks, frame_w) } else { 0.0 };
         if o > 0.0 && h_shown {
