@@ -702,7 +702,7 @@ fn plot_draw(inp: &PlotInputs, plan: &Plan, lay: &PlotLayout, frame: Frame, draw
         let grid = guides::grid(value_axis, &coord, &pal);
         children.push(Node::Group { class: "strata-grid".into(), role: None, label: None, children: grid });
     }
-    let ctx = Ctx { scales, coord, default_color: &pal.mark, text_size: inp.ts };
+    let ctx = Ctx { scales, coord, default_color: &pal.mark, text_size: inp.ts, palette: &pal, layers: &plan.layers };
     let mut layers = Vec::new();
     for l in &plan.layers {
         let marks = layer_marks(&ctx, l);
