@@ -721,7 +721,8 @@ fn plot_draw(inp: &PlotInputs, plan: &Plan, lay: &PlotLayout, frame: Frame, draw
         children.push(guides::axis(&v_axis, frame, &pal, lay.v_label_w));
     }
     // Notes go over the marks, inside the plot.
-    layers.extend(super::notes::draw(&chart.notes, scales, &coord, &pal, inp.ts));
+    let notes = super::notes::draw(&chart.notes, scales, &coord, &pal, inp.ts, &layers);
+    layers.extend(notes);
     children.push(Node::Group { class: "strata-panel".into(), role: Some("graphics-object".into()), label: Some(panel_label(plan)), children: layers });
     // Polar: the radius's labels over the wedges, on a halo.
     if let Some((angle_is_x, _, r_ticks)) = &polar_ticks {

@@ -690,11 +690,11 @@ fn cells(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
 // ------------------------------------------------------------ label placement
 
 /// A text's line box: left, top, right, bottom (px).
-type Box4 = (f64, f64, f64, f64);
+pub(super) type Box4 = (f64, f64, f64, f64);
 
 /// The glyph box of a text at baseline `y`: from the cap height above the
 /// baseline to a descender's depth below it, 1 px around.
-fn text_box(x: f64, y: f64, w: f64, size: f64, anchor: Anchor) -> Box4 {
+pub(super) fn text_box(x: f64, y: f64, w: f64, size: f64, anchor: Anchor) -> Box4 {
     let left = match anchor {
         Anchor::Start => x,
         Anchor::Middle => x - w / 2.0,
@@ -707,7 +707,7 @@ fn boxes_overlap(a: Box4, b: Box4) -> bool {
     a.0 < b.2 && b.0 < a.2 && a.1 < b.3 && b.1 < a.3
 }
 
-fn box_within(a: Box4, f: super::coord::Frame) -> bool {
+pub(super) fn box_within(a: Box4, f: super::coord::Frame) -> bool {
     a.0 >= f.left - 0.5 && a.2 <= f.right() + 0.5 && a.1 >= f.top - 0.5 && a.3 <= f.bottom() + 0.5
 }
 
@@ -742,7 +742,7 @@ pub(super) fn segment_hits_box(p: (f64, f64), q: (f64, f64), b: Box4) -> bool {
 /// new label is checked against its neighbours only (lookups by hash, as
 /// the house asks: thousands of labels stay near linear).
 #[derive(Default)]
-struct Grid {
+pub(super) struct Grid {
     cells: std::collections::HashMap<(i64, i64), Vec<usize>>,
     boxes: Vec<Box4>,
     segs: Vec<((f64, f64), (f64, f64))>,
@@ -758,14 +758,14 @@ impl Grid {
         (x0..=x1.min(x0 + 64)).flat_map(move |x| (y0..=y1.min(y0 + 64)).map(move |y| (x, y)))
     }
     /// Items are numbered: boxes as 2k, segments as 2k + 1.
-    fn add_box(&mut self, b: Box4) {
+    pub(super) fn add_box(&mut self, b: Box4) {
         let id = 2 * self.boxes.len();
         self.boxes.push(b);
         for c in Self::cells_of(b) {
             self.cells.entry(c).or_default().push(id);
         }
     }
-    fn add_segment(&mut self, p: (f64, f64), q: (f64, f64)) {
+    pub(super) fn add_segment(&mut self, p: (f64, f64), q: (f64, f64)) {
         let id = 2 * self.segs.len() + 1;
         self.segs.push((p, q));
         for c in Self::cells_of((p.0.min(q.0), p.1.min(q.1), p.0.max(q.0), p.1.max(q.1))) {
@@ -773,13 +773,55 @@ impl Grid {
         }
     }
     /// Is the box clear of every box and segment stored?
-    fn free(&self, b: Box4) -> bool {
+    pub(super) fn free(&self, b: Box4) -> bool {
         Self::cells_of(b).all(|c| {
             self.cells.get(&c).is_none_or(|ids| {
                 ids.iter()
                     .all(|&id| if id % 2 == 0 { !boxes_overlap(self.boxes[id / 2], b) } else { !segment_hits_box(self.segs[id / 2].0, self.segs[id / 2].1, b) })
             })
         })
+    }
+
+    /// Every data mark and label mark under `nodes` as obstacles: boxes of
+    /// bars, points and label texts, segments of lines and outlines.
+    pub(super) fn of_marks(nodes: &[Node]) -> Grid {
+        fn walk(n: &Node, g: &mut Grid) {
+            match n {
+                Node::Group { children, .. } | Node::Titled { children, .. } => children.iter().for_each(|c| walk(c, g)),
+                Node::Rect { x, y, width, height, datum: Some(_), .. } => g.add_box((*x, *y, x + width, y + height)),
+                Node::Circle { cx, cy, r, datum: Some(_), .. } => g.add_box((cx - r, cy - r, cx + r, cy + r)),
+                Node::Path { d, .. } => {
+                    let mut last: Option<(f64, f64)> = None;
+                    let mut first: Option<(f64, f64)> = None;
+                    for s in d {
+                        match *s {
+                            Seg::Move(x, y) => {
+                                last = Some((x, y));
+                                first = last;
+                            }
+                            Seg::Line(x, y) | Seg::Arc { x, y, .. } => {
+                                if let Some(p) = last {
+                                    g.add_segment(p, (x, y));
+                                }
+                                last = Some((x, y));
+                            }
+                            Seg::Close => {
+                                if let (Some(p), Some(q)) = (last, first) {
+                                    g.add_segment(p, q);
+                                }
+                            }
+                        }
+                    }
+                }
+                Node::Text { x, y, text, size, anchor, class, .. } if class == "strata-label" => {
+                    g.add_box(text_box(*x, *y, crate::text::width(text, *size, false), *size, *anchor))
+                }
+                _ => {}
+            }
+        }
+        let mut g = Grid::default();
+        nodes.iter().for_each(|n| walk(n, &mut g));
+        g
     }
 }
 
