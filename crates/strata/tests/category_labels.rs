@@ -3,7 +3,8 @@
 //! prefix that tells them apart, with the full name in a `<title>` the
 //! reader can hover. The cases are invented data written here; the last
 //! test renders every gallery chart at a phone and a desktop width and
-//! checks that every category an axis or legend stands for is named.
+//! checks that every category an axis or legend stands for is named
+//! (a series named at its line end counts, in place of its legend entry).
 
 use std::path::{Path, PathBuf};
 use strata::plan::{ColorScale, PanelPlans, Plan};
@@ -19,7 +20,7 @@ fn at_width(width: f64) -> RenderOptions {
 /// full name of a shortened label (its `<title>`).
 fn readings(n: &Node, out: &mut Vec<String>) {
     match n {
-        Node::Text { text, class, .. } if class == "strata-tick" || class == "strata-legend-label" => out.push(text.clone()),
+        Node::Text { text, class, .. } if class == "strata-tick" || class == "strata-legend-label" || class.contains("strata-end-label") => out.push(text.clone()),
         Node::Titled { title, children } => {
             out.push(title.clone());
             children.iter().for_each(|c| readings(c, out));

@@ -7,7 +7,7 @@
 
 use super::coord::{Coord, Frame};
 use super::guides::{self, AxisGuide, Legend, Side};
-use super::marks::{layer_marks, Ctx};
+use super::marks::{end_names, layer_marks, names_ends, Ctx, END_GAP};
 use super::{Anchor, Node, Scene};
 use crate::channel::Channel;
 use crate::color::Palette;
@@ -109,7 +109,12 @@ pub fn build(plan: &Plan, opts: &SceneOptions) -> Scene {
 
     // Legends: a column on the right when wide and the column takes at most
     // a quarter of the width; otherwise rows on top.
-    let legends: Vec<Legend> = guides::legends(scales, guides::SwatchMark::of(&plan.layers), ts);
+    let mut legends: Vec<Legend> = guides::legends(scales, guides::SwatchMark::of(&plan.layers), ts);
+    // Series named at their line ends need no colour legend.
+    let colour_layers: Vec<_> = plan.layers.iter().filter(|l| l.data.names.contains_key(&Channel::Color)).collect();
+    if !colour_layers.is_empty() && colour_layers.iter().all(|l| names_ends(l)) {
+        legends.retain(|l| l.channel != Channel::Color);
+    }
     let mut right = width - pad;
     let mut left = pad;
     let mut legend_nodes = Vec::new();
@@ -510,6 +515,16 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
         s.ticks.map(|t| t as usize).unwrap_or_else(|| ((length / per).floor() as usize).clamp(3, if narrow { 5 } else { 10 }))
     };
     let top = top + 4.0;
+    // Room right of the frame for series named at their line ends.
+    let ends_w = plan
+        .layers
+        .iter()
+        .flat_map(|l| {
+            let size = l.style.font_size.filter(|s| s.is_finite() && *s > 0.0).unwrap_or(inp.ts * 11.0 / 12.0);
+            end_names(l).into_iter().map(move |n| text::width(&n, size, false))
+        })
+        .fold(0.0, f64::max);
+    let right = if ends_w > 0.0 { (right - ends_w - END_GAP).max(x0 + 40.0) } else { right };
     // First guess of the plot height, for the vertical ticks (and so the left margin).
     let guess_h = (bottom - top - 2.0 * TITLE_SIZE * inp.ts / guides::TICK_SIZE * text::LINE_HEIGHT).max(20.0);
     let max_left = width * if narrow { 0.3 } else { 0.25 };

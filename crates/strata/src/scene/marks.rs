@@ -56,6 +56,14 @@ fn uy_num(s: &PositionScale, v: Option<f64>) -> Option<f64> {
 }
 
 pub fn layer_marks(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
+    let mut marks = geometry_marks(ctx, layer);
+    if names_ends(layer) {
+        marks.extend(end_labels(ctx, layer));
+    }
+    marks
+}
+
+fn geometry_marks(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     match layer.geometry {
         Geometry::Point => points(ctx, layer),
         Geometry::Line | Geometry::Step => lines(ctx, layer),
@@ -813,7 +821,7 @@ impl Grid {
                         }
                     }
                 }
-                Node::Text { x, y, text, size, anchor, class, .. } if class == "strata-label" => {
+                Node::Text { x, y, text, size, anchor, class, .. } if class.starts_with("strata-label") => {
                     g.add_box(text_box(*x, *y, crate::text::width(text, *size, false), *size, *anchor))
                 }
                 _ => {}
@@ -884,6 +892,117 @@ fn label_text(tv: Option<&Values>, i: usize) -> Option<String> {
         Some(serde_json::Value::Number(n)) => n.as_f64().map(crate::format::value_label),
         _ => None,
     }
+}
+
+// ------------------------------------------------------------ direct labels
+
+/// Does the layer name its series at their ends (`label_ends` on a line,
+/// step or area layer)?
+pub fn names_ends(layer: &PlannedLayer) -> bool {
+    layer.label_ends && matches!(layer.geometry, Geometry::Line | Geometry::Step | Geometry::Area)
+}
+
+/// The name of the series a row belongs to: its colour category, else its
+/// group, else the y column's readable name.
+fn series_name(layer: &PlannedLayer, i: usize) -> String {
+    for ch in [Channel::Color, Channel::Group] {
+        if let Some(k) = layer.data.get(ch).and_then(|v| v.key(i)) {
+            return k;
+        }
+    }
+    layer.data.names.get(&Channel::Y).map(|n| crate::text::readable_name(n)).unwrap_or_default()
+}
+
+/// Names a `label_ends` layer writes (for the room the layout keeps).
+pub fn end_names(layer: &PlannedLayer) -> Vec<String> {
+    if !names_ends(layer) {
+        return vec![];
+    }
+    let mut out: Vec<String> = series(layer).iter().filter_map(|rows| rows.first()).map(|&i| series_name(layer, i)).collect();
+    out.dedup();
+    out
+}
+
+/// Gap between a line's end and its name (px).
+pub const END_GAP: f64 = 6.0;
+
+/// `colour` with its OKLab lightness moved (darker on a light background,
+/// lighter on a dark one) by the least amount that makes it read at 4.5:1
+/// against `background` (WCAG 2.1 contrast ratio); hue and chroma kept, up
+/// to the sRGB gamut.
+pub fn readable_on(colour: &str, background: &str) -> String {
+    use crate::color::{contrast, hex_to_oklab, luminance, oklab_to_hex};
+    let ok = |c: &str| contrast(c, background).is_some_and(|r| r >= 4.5);
+    let (Some(lab), Some(bg)) = (hex_to_oklab(colour), luminance(background)) else { return colour.to_string() };
+    if ok(colour) {
+        return colour.to_string();
+    }
+    let target = if bg > 0.18 { 0.0 } else { 1.0 };
+    let at = |l: f64| oklab_to_hex([l, lab[1], lab[2]]);
+    // Bisection on lightness between the colour (fails) and black or white (passes).
+    let (mut fail, mut pass) = (lab[0], target);
+    if !ok(&at(pass)) {
+        return if target == 0.0 { "#000000".into() } else { "#ffffff".into() };
+    }
+    for _ in 0..40 {
+        let mid = 0.5 * (fail + pass);
+        if ok(&at(mid)) {
+            pass = mid;
+        } else {
+            fail = mid;
+        }
+    }
+    at(pass)
+}
+
+/// The names of a `label_ends` layer's series, just right of each series'
+/// last point, pushed apart vertically by the least squares placement of
+/// [`crate::text::place::spread`] so that none overlaps another and each
+/// stays as near its line's end as it can.
+fn end_labels(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
+    let Some(xv) = layer.data.get(Channel::X) else { return vec![] };
+    let Some(yv) = layer.data.get(Channel::Y) else { return vec![] };
+    if ctx.coord.is_polar() {
+        return vec![];
+    }
+    let base = if layer.geometry == Geometry::Area { layer.data.get(Channel::YBase) } else { None };
+    let size = layer.style.font_size.filter(|s| s.is_finite() && *s > 0.0).unwrap_or(ctx.text_size * 11.0 / 12.0);
+    let mut ends: Vec<(String, f64, f64, String)> = Vec::new();
+    for rows in series(layer) {
+        // The last point: the row furthest along x with a y.
+        let mut best: Option<(f64, f64, usize)> = None;
+        for &i in &rows {
+            let (Some(a), Some(mut b)) = (ux(ctx, layer, xv, i), ctx.scales.y.unit(yv, i)) else { continue };
+            if let Some(u0) = base.and_then(|v| v.num(i)).and_then(|v| ctx.scales.y.unit_num(v)) {
+                b = 0.5 * (b + u0);
+            }
+            if best.is_none_or(|(ba, _, _)| a > ba) {
+                best = Some((a, b, i));
+            }
+        }
+        let Some((a, b, i)) = best else { continue };
+        let (px, py) = ctx.coord.point(a, b);
+        ends.push((series_name(layer, i), px, py, color_of(ctx, layer, i)));
+    }
+    let frame = ctx.coord.frame();
+    let line = size * crate::text::LINE_HEIGHT;
+    let want: Vec<f64> = ends.iter().map(|e| e.2).collect();
+    let at = crate::text::place::spread(&want, line, frame.top + line / 2.0, frame.bottom() - line / 2.0);
+    let cap = size * crate::text::CAP;
+    ends.into_iter()
+        .zip(at)
+        .map(|((name, px, _, colour), y)| Node::Text {
+            x: px + END_GAP,
+            y: y + cap / 2.0,
+            text: name,
+            size,
+            anchor: Anchor::Start,
+            bold: false,
+            angle: 0.0,
+            fill: readable_on(&colour, &ctx.palette.background),
+            class: "strata-label strata-end-label".into(),
+        })
+        .collect()
 }
 
 /// Label marks. Where each goes, in order of preference, keeping off the
