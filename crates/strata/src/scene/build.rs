@@ -298,38 +298,50 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, names: GridNames, cells: &[Plan], ri
     // axes take; then give every column and row the room its drawn axes need.
     let cell_w = ((x_end - x_start) - gap_x * (nc - 1) as f64) / nc as f64;
     let cell_h = ((y_end - y_start) - gap_y * (nr - 1) as f64) / nr as f64;
-    let lays: Vec<PlotLayout> = cells.iter().map(|p| plot_layout(inp, p, 0.0, cell_w, 0.0, cell_h - each_strip, false)).collect();
     // Shared axes along the grid's edges: x under the lowest panel of each
     // column (or over the top row), y beside the first (or last) panel of each row.
     let last_row = |c: usize| (0..nr).rev().find(|r| exists(*r, c)).unwrap_or(0);
     let last_col = |r: usize| (0..nc).rev().find(|c| exists(r, *c)).unwrap_or(0);
     let draw_h = |r: usize, c: usize| !is_map && (independent_h || r == if h_top { 0 } else { last_row(c) });
     let draw_v = |r: usize, c: usize| !is_map && (independent_v || c == if v_right { last_col(r) } else { 0 });
-    // Room beside the frame of the panel in row r, column c: left, right,
-    // top, bottom. At the grid's outer ends the horizontal labels reach as
-    // in a single plot; between columns they share the gap, and take more
-    // room when their halves do not fit in it.
-    let margins = |r: usize, c: usize| {
-        if !exists(r, c) {
-            return (0.0, 0.0, 0.0, 0.0);
+    // A second pass when the panels came out wider than the first guess
+    // gave them (axes drawn only along the grid's edges free room), so the
+    // category labels are fitted to the width they are drawn in.
+    let mut widths = vec![cell_w; cells.len()];
+    let mut pass = 0;
+    let (lays, col_left, col_right, row_top, row_bottom, pw, ph) = loop {
+        let lays: Vec<PlotLayout> = cells.iter().zip(&widths).map(|(p, w)| plot_layout(inp, p, 0.0, *w, 0.0, cell_h - each_strip, false)).collect();
+        // Room beside the frame of the panel in row r, column c: left, right,
+        // top, bottom. At the grid's outer ends the horizontal labels reach as
+        // in a single plot; between columns they share the gap, and take more
+        // room when their halves do not fit in it.
+        let margins = |r: usize, c: usize| {
+            if !exists(r, c) {
+                return (0.0, 0.0, 0.0, 0.0);
+            }
+            let l = &lays[r * nc + c];
+            let (h, v) = (draw_h(r, c), draw_v(r, c));
+            let on = |b: bool, x: f64| if b { x } else { 0.0 };
+            let (v_left, v_right_w) = (on(v && !v_right, l.v_axis_w), on(v && v_right, l.v_axis_w));
+            let (over_left, over_right) = h_label_overhang(l, inp.ts);
+            let between = |over: f64| (over + guides::LABEL_GAP / 2.0 - gap_x / 2.0).max(0.0);
+            let h_left = if c == 0 { v_left + l.h_reach_left } else { between(over_left) };
+            let h_right = if c == nc - 1 { v_right_w + l.h_reach_right } else { between(over_right) };
+            (v_left.max(on(h, h_left)), v_right_w.max(on(h, h_right)), 4.0 + each_strip + on(h && h_top, l.h_axis_h), on(h && !h_top, l.h_axis_h))
+        };
+        let col_left: Vec<f64> = (0..nc).map(|c| (0..nr).map(|r| margins(r, c).0).fold(0.0, f64::max)).collect();
+        let col_right: Vec<f64> = (0..nc).map(|c| (0..nr).map(|r| margins(r, c).1).fold(0.0, f64::max)).collect();
+        let row_top: Vec<f64> = (0..nr).map(|r| (0..nc).map(|c| margins(r, c).2).fold(0.0, f64::max)).collect();
+        let row_bottom: Vec<f64> = (0..nr).map(|r| (0..nc).map(|c| margins(r, c).3).fold(0.0, f64::max)).collect();
+        let sum = |v: &[f64]| v.iter().sum::<f64>();
+        let pw = (((x_end - x_start) - sum(&col_left) - sum(&col_right) - gap_x * (nc - 1) as f64) / nc as f64).max(20.0);
+        let ph = (((y_end - y_start) - sum(&row_top) - sum(&row_bottom) - gap_y * (nr - 1) as f64) / nr as f64).max(20.0);
+        if pass == 1 || lays.iter().all(|l| l.frame.width + 1.0 >= pw) {
+            break (lays, col_left, col_right, row_top, row_bottom, pw, ph);
         }
-        let l = &lays[r * nc + c];
-        let (h, v) = (draw_h(r, c), draw_v(r, c));
-        let on = |b: bool, x: f64| if b { x } else { 0.0 };
-        let (v_left, v_right_w) = (on(v && !v_right, l.v_axis_w), on(v && v_right, l.v_axis_w));
-        let (over_left, over_right) = h_label_overhang(l, inp.ts);
-        let between = |over: f64| (over + guides::LABEL_GAP / 2.0 - gap_x / 2.0).max(0.0);
-        let h_left = if c == 0 { v_left + l.h_reach_left } else { between(over_left) };
-        let h_right = if c == nc - 1 { v_right_w + l.h_reach_right } else { between(over_right) };
-        (v_left.max(on(h, h_left)), v_right_w.max(on(h, h_right)), 4.0 + each_strip + on(h && h_top, l.h_axis_h), on(h && !h_top, l.h_axis_h))
+        widths = lays.iter().zip(&widths).map(|(l, w)| w + (pw - l.frame.width).max(0.0)).collect();
+        pass += 1;
     };
-    let col_left: Vec<f64> = (0..nc).map(|c| (0..nr).map(|r| margins(r, c).0).fold(0.0, f64::max)).collect();
-    let col_right: Vec<f64> = (0..nc).map(|c| (0..nr).map(|r| margins(r, c).1).fold(0.0, f64::max)).collect();
-    let row_top: Vec<f64> = (0..nr).map(|r| (0..nc).map(|c| margins(r, c).2).fold(0.0, f64::max)).collect();
-    let row_bottom: Vec<f64> = (0..nr).map(|r| (0..nc).map(|c| margins(r, c).3).fold(0.0, f64::max)).collect();
-    let sum = |v: &[f64]| v.iter().sum::<f64>();
-    let pw = (((x_end - x_start) - sum(&col_left) - sum(&col_right) - gap_x * (nc - 1) as f64) / nc as f64).max(20.0);
-    let ph = (((y_end - y_start) - sum(&row_top) - sum(&row_bottom) - gap_y * (nr - 1) as f64) / nr as f64).max(20.0);
     let mut lefts = Vec::with_capacity(nc);
     let mut x = x_start;
     for c in 0..nc {
