@@ -107,7 +107,7 @@ fn rotated_labels_are_not_thinned_when_every_one_fits() {
     let labels = bottom_labels(&r.scene);
     for i in 0..16 {
         let c = format!("Batch {:02}", i + 1);
-        assert!(labels.iter().any(|l| *l == c), "{c} is not named: {labels:?}");
+        assert!(labels.contains(&c), "{c} is not named: {labels:?}");
     }
 }
 
