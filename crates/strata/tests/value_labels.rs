@@ -34,7 +34,7 @@ fn labels(s: &Scene) -> Vec<Label> {
     s.children.iter().for_each(|c| {
         walk(c, &mut |n| {
             if let Node::Text { x, y, text: t, size, anchor, class, fill, .. } = n {
-                if class == "strata-label" {
+                if class.starts_with("strata-label") {
                     let w = text::width(t, *size, false);
                     let left = match anchor {
                         strata::scene::Anchor::Start => *x,
@@ -124,6 +124,10 @@ fn bar_labels_sit_outside_the_end_or_inside_when_there_is_no_room() {
     // A (12): just above its bar's top, on the background.
     let (a, ab) = (find("12"), bar_of(0));
     assert!(a.bbox.3 <= ab.1 && ab.1 - a.bbox.3 < 8.0, "{a:?} over {ab:?}");
+    // Orange on white falls short of 4.5:1, so it is written in the theme's
+    // text colour, with the class the theme sheet restyles in dark mode.
+    assert_eq!(a.fill, "#1d232b");
+    assert_eq!(r.svg.matches("strata-label strata-label-text").count(), 2, "the two outside labels follow the theme");
     // B (40): no room above the frame: inside, in a colour that reads on orange.
     let (b, bb) = (find("40"), bar_of(1));
     assert!(b.bbox.1 >= bb.1 && b.bbox.3 <= bb.1 + bb.3, "{b:?} in {bb:?}");

@@ -1049,14 +1049,14 @@ fn labels(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         let w = crate::text::width(&text, size, false);
         let mark = color_of(ctx, layer, i);
         // Candidates: (x, baseline, anchor, fill).
-        let mut cands: Vec<(f64, f64, Anchor, String)> = Vec::new();
+        let mut cands: Vec<(f64, f64, Anchor, String, bool)> = Vec::new();
         if let Some(u0) = base.and_then(|v| v.num(i)).and_then(|v| ctx.scales.y.unit_num(v)) {
             // Its own segment of the stack.
             let (p0, p1) = (ctx.coord.point(a, u0), ctx.coord.point(a, b));
             let (mx, my) = ((p0.0 + p1.0) / 2.0, (p0.1 + p1.1) / 2.0);
             let room = if transposed { (p1.0 - p0.0).abs() >= w + 4.0 } else { (p1.1 - p0.1).abs() >= cap + 4.0 };
             if room {
-                cands.push((mx, my + cap / 2.0, Anchor::Middle, contrasting_text(&mark, pal)));
+                cands.push((mx, my + cap / 2.0, Anchor::Middle, contrasting_text(&mark, pal), false));
             }
         } else if over_bars {
             let behind = if d.get(Channel::Color).is_some() {
@@ -1073,12 +1073,12 @@ fn labels(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
                 let y = py + cap / 2.0;
                 let (out_x, out_a, in_x, in_a) =
                     if up { (px + gap, Anchor::Start, px - gap, Anchor::End) } else { (px - gap, Anchor::End, px + gap, Anchor::Start) };
-                cands.push((out_x, y, out_a, outside_fill));
-                cands.push((in_x, y, in_a, inside_fill));
+                cands.push((out_x, y, out_a, outside_fill, true));
+                cands.push((in_x, y, in_a, inside_fill, false));
             } else {
                 let (out_y, in_y) = if up { (py - gap, py + gap + cap) } else { (py + gap + cap, py - gap) };
-                cands.push((px, out_y, Anchor::Middle, outside_fill));
-                cands.push((px, in_y, Anchor::Middle, inside_fill));
+                cands.push((px, out_y, Anchor::Middle, outside_fill, true));
+                cands.push((px, in_y, Anchor::Middle, inside_fill, false));
             }
         } else {
             // Around the point: the four sides, then the four corners,
@@ -1097,16 +1097,19 @@ fn labels(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
                     (px + g, py + g + cap, Anchor::Start),
                     (px - g, py + g + cap, Anchor::End),
                 ];
-                cands.extend(sides.into_iter().map(|(x, y, an)| (x, y, an, fill.clone())));
+                cands.extend(sides.into_iter().map(|(x, y, an)| (x, y, an, fill.clone(), true)));
             }
         }
-        let chosen = cands.into_iter().find(|(x, y, anchor, _)| {
+        let chosen = cands.into_iter().find(|(x, y, anchor, _, _)| {
             let bx = text_box(*x, *y, w, size, *anchor);
             box_within(bx, frame) && grid.free(bx)
         });
-        let Some((x, y, anchor, fill)) = chosen else { continue };
+        let Some((x, y, anchor, fill, on_background)) = chosen else { continue };
         grid.add_box(text_box(x, y, w, size, anchor));
-        out.push(Node::Text { x, y, text, size, anchor, bold: false, angle: 0.0, fill, class: "strata-label".into() });
+        // A label on the background in the theme's text colour follows the
+        // theme (dark mode restyles it); inside a mark it keeps its contrast.
+        let class = if on_background && fill == pal.text { "strata-label strata-label-text" } else { "strata-label" };
+        out.push(Node::Text { x, y, text, size, anchor, bold: false, angle: 0.0, fill, class: class.into() });
     }
     out
 }
