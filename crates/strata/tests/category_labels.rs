@@ -159,7 +159,7 @@ fn categories(plan: &Plan, out: &mut Vec<String>) {
     let s = &plan.scales;
     for (scale, spec) in [(&s.x, &s.x_spec), (&s.y, &s.y_spec)] {
         if let PositionScale::Category { values, .. } = scale {
-            if !spec.hide && spec.axis != Some(strata::plan::Placement::None) && !matches!(plan.chart.coords, strata::plan::Coords::Polar(_)) {
+            if !spec.hide && spec.axis != Some(strata::plan::Placement::None) {
                 out.extend(values.iter().cloned());
             }
         }
