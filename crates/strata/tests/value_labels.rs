@@ -194,3 +194,28 @@ fn labels_at_line_points_keep_off_the_line() {
         }
     }
 }
+
+#[test]
+fn labels_on_bars_running_across_sit_past_the_bar_end() {
+    // Bars that run across the page (transposed coordinates, as when the
+    // categories are on y): a label sits right of its bar's end, or inside
+    // when the end reaches the frame.
+    let spec = r##"{ "data": { "rows": [ {"k": "A", "v": 12}, {"k": "B", "v": 40} ] },
+        "layers": [ { "draw": "bar", "x": "k", "y": "v", "style": { "color": "#f28e2b" } }, { "draw": "label", "x": "k", "y": "v" } ],
+        "scales": { "y": { "domain": [0, 40], "nice": false } } }"##;
+    let s = strata::parse_spec(spec).unwrap();
+    let table = strata::load_table(&s, None).unwrap();
+    let mut plan = strata::plan::build(&s, &table).unwrap();
+    plan.chart.transposed = true;
+    let scene = strata::scene::build(&plan, &SceneOptions::default());
+    let ls = labels(&scene);
+    let bars = rects(&scene);
+    assert_eq!((ls.len(), bars.len()), (2, 2), "{ls:?} {bars:?}");
+    let find = |t: &str| ls.iter().find(|l| l.text == t).unwrap();
+    let (a, ab) = (find("12"), &bars[0]);
+    assert!(a.bbox.0 >= ab.0 + ab.2 && a.bbox.0 - (ab.0 + ab.2) < 8.0, "{a:?} past {ab:?}");
+    assert!(a.bbox.1 >= ab.1 && a.bbox.3 <= ab.1 + ab.3, "{a:?} level with {ab:?}");
+    let (b, bb) = (find("40"), &bars[1]);
+    assert!(b.bbox.2 <= bb.0 + bb.2 && b.bbox.0 >= bb.0, "{b:?} inside {bb:?}");
+    assert!(contrast(&b.fill, "#f28e2b").unwrap() >= 4.5);
+}
