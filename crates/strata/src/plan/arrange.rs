@@ -24,11 +24,18 @@ pub fn apply(index: usize, layer: &Layer, geometry: Geometry, mut data: LayerDat
     if layer.arrange == Arrange::Jitter {
         jitter(index, &mut data);
     }
-    let extent = matches!(geometry, Geometry::Bar | Geometry::Area);
+    let stacked = matches!(layer.arrange, Arrange::Stack | Arrange::Proportion);
+    // Labels follow a stack too (each at its own segment), so that their
+    // positions, and the scale trained on them, match the stacked bars.
+    let extent = matches!(geometry, Geometry::Bar | Geometry::Area) || (geometry == Geometry::Label && stacked);
     if !extent || data.get(Channel::YBase).is_some() {
         return data;
     }
     let Some(Values::Num(ys)) = data.get(Channel::Y).cloned() else { return data };
+    if geometry == Geometry::Label && data.get(Channel::Text).is_none() {
+        // A stacked label still reads its own value, not the running total.
+        data.channels.insert(Channel::Text, Values::Num(ys.clone()));
+    }
     let mut base = vec![Some(0.0); data.len];
     let mut top: Vec<Option<f64>> = ys.iter().collect();
     if layer.arrange == Arrange::Stack || layer.arrange == Arrange::Proportion {

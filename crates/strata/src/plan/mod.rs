@@ -59,6 +59,8 @@ pub struct PlannedLayer {
     pub arrange: Arrange,
     pub style: Style,
     pub data: LayerData,
+    /// `label_ends`: name each series at its last point.
+    pub label_ends: bool,
 }
 
 #[derive(Debug, Clone)]
@@ -114,7 +116,7 @@ pub fn build_with_shapes(spec: &Spec, table: &Table, shapes: Option<Vec<crate::g
                 }
                 warnings.extend(s.warnings);
                 let data = arrange::apply(i, l, s.geometry, s.data);
-                layers.push(PlannedLayer { index: i, geometry: s.geometry, arrange: l.arrange, style: l.style.clone(), data })
+                layers.push(PlannedLayer { index: i, geometry: s.geometry, arrange: l.arrange, style: l.style.clone(), data, label_ends: l.label_ends })
             }
             Err(e) => errors.extend(e.0),
         }

@@ -525,7 +525,7 @@ mod tests {
         let mut data = LayerData { len: xs.len(), ..Default::default() };
         data.channels.insert(Channel::X, Values::Num(xs.into()));
         data.channels.insert(Channel::Y, Values::Num(ys.into()));
-        PlannedLayer { index: 0, geometry, arrange: Arrange::None, style: Style::default(), data }
+        PlannedLayer { index: 0, geometry, arrange: Arrange::None, style: Style::default(), data, label_ends: false }
     }
 
     fn spec(scales: &str) -> Spec {

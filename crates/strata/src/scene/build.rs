@@ -7,7 +7,7 @@
 
 use super::coord::{Coord, Frame};
 use super::guides::{self, AxisGuide, Legend, Side};
-use super::marks::{layer_marks, Ctx};
+use super::marks::{end_names, layer_marks, names_ends, Ctx, END_GAP};
 use super::{Anchor, Node, Scene};
 use crate::channel::Channel;
 use crate::color::Palette;
@@ -109,7 +109,12 @@ pub fn build(plan: &Plan, opts: &SceneOptions) -> Scene {
 
     // Legends: a column on the right when wide and the column takes at most
     // a quarter of the width; otherwise rows on top.
-    let legends: Vec<Legend> = guides::legends(scales, guides::SwatchMark::of(&plan.layers), ts);
+    let mut legends: Vec<Legend> = guides::legends(scales, guides::SwatchMark::of(&plan.layers), ts);
+    // Series named at their line ends need no colour legend.
+    let colour_layers: Vec<_> = plan.layers.iter().filter(|l| l.data.names.contains_key(&Channel::Color)).collect();
+    if !colour_layers.is_empty() && colour_layers.iter().all(|l| names_ends(l)) {
+        legends.retain(|l| l.channel != Channel::Color);
+    }
     let mut right = width - pad;
     let mut left = pad;
     let mut legend_nodes = Vec::new();
@@ -293,38 +298,50 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, names: GridNames, cells: &[Plan], ri
     // axes take; then give every column and row the room its drawn axes need.
     let cell_w = ((x_end - x_start) - gap_x * (nc - 1) as f64) / nc as f64;
     let cell_h = ((y_end - y_start) - gap_y * (nr - 1) as f64) / nr as f64;
-    let lays: Vec<PlotLayout> = cells.iter().map(|p| plot_layout(inp, p, 0.0, cell_w, 0.0, cell_h - each_strip, false)).collect();
     // Shared axes along the grid's edges: x under the lowest panel of each
     // column (or over the top row), y beside the first (or last) panel of each row.
     let last_row = |c: usize| (0..nr).rev().find(|r| exists(*r, c)).unwrap_or(0);
     let last_col = |r: usize| (0..nc).rev().find(|c| exists(r, *c)).unwrap_or(0);
     let draw_h = |r: usize, c: usize| !is_map && (independent_h || r == if h_top { 0 } else { last_row(c) });
     let draw_v = |r: usize, c: usize| !is_map && (independent_v || c == if v_right { last_col(r) } else { 0 });
-    // Room beside the frame of the panel in row r, column c: left, right,
-    // top, bottom. At the grid's outer ends the horizontal labels reach as
-    // in a single plot; between columns they share the gap, and take more
-    // room when their halves do not fit in it.
-    let margins = |r: usize, c: usize| {
-        if !exists(r, c) {
-            return (0.0, 0.0, 0.0, 0.0);
+    // A second pass when the panels came out wider than the first guess
+    // gave them (axes drawn only along the grid's edges free room), so the
+    // category labels are fitted to the width they are drawn in.
+    let mut widths = vec![cell_w; cells.len()];
+    let mut pass = 0;
+    let (lays, col_left, col_right, row_top, row_bottom, pw, ph) = loop {
+        let lays: Vec<PlotLayout> = cells.iter().zip(&widths).map(|(p, w)| plot_layout(inp, p, 0.0, *w, 0.0, cell_h - each_strip, false)).collect();
+        // Room beside the frame of the panel in row r, column c: left, right,
+        // top, bottom. At the grid's outer ends the horizontal labels reach as
+        // in a single plot; between columns they share the gap, and take more
+        // room when their halves do not fit in it.
+        let margins = |r: usize, c: usize| {
+            if !exists(r, c) {
+                return (0.0, 0.0, 0.0, 0.0);
+            }
+            let l = &lays[r * nc + c];
+            let (h, v) = (draw_h(r, c), draw_v(r, c));
+            let on = |b: bool, x: f64| if b { x } else { 0.0 };
+            let (v_left, v_right_w) = (on(v && !v_right, l.v_axis_w), on(v && v_right, l.v_axis_w));
+            let (over_left, over_right) = h_label_overhang(l, inp.ts);
+            let between = |over: f64| (over + guides::LABEL_GAP / 2.0 - gap_x / 2.0).max(0.0);
+            let h_left = if c == 0 { v_left + l.h_reach_left } else { between(over_left) };
+            let h_right = if c == nc - 1 { v_right_w + l.h_reach_right } else { between(over_right) };
+            (v_left.max(on(h, h_left)), v_right_w.max(on(h, h_right)), 4.0 + each_strip + on(h && h_top, l.h_axis_h), on(h && !h_top, l.h_axis_h))
+        };
+        let col_left: Vec<f64> = (0..nc).map(|c| (0..nr).map(|r| margins(r, c).0).fold(0.0, f64::max)).collect();
+        let col_right: Vec<f64> = (0..nc).map(|c| (0..nr).map(|r| margins(r, c).1).fold(0.0, f64::max)).collect();
+        let row_top: Vec<f64> = (0..nr).map(|r| (0..nc).map(|c| margins(r, c).2).fold(0.0, f64::max)).collect();
+        let row_bottom: Vec<f64> = (0..nr).map(|r| (0..nc).map(|c| margins(r, c).3).fold(0.0, f64::max)).collect();
+        let sum = |v: &[f64]| v.iter().sum::<f64>();
+        let pw = (((x_end - x_start) - sum(&col_left) - sum(&col_right) - gap_x * (nc - 1) as f64) / nc as f64).max(20.0);
+        let ph = (((y_end - y_start) - sum(&row_top) - sum(&row_bottom) - gap_y * (nr - 1) as f64) / nr as f64).max(20.0);
+        if pass == 1 || lays.iter().all(|l| l.frame.width + 1.0 >= pw) {
+            break (lays, col_left, col_right, row_top, row_bottom, pw, ph);
         }
-        let l = &lays[r * nc + c];
-        let (h, v) = (draw_h(r, c), draw_v(r, c));
-        let on = |b: bool, x: f64| if b { x } else { 0.0 };
-        let (v_left, v_right_w) = (on(v && !v_right, l.v_axis_w), on(v && v_right, l.v_axis_w));
-        let (over_left, over_right) = h_label_overhang(l, inp.ts);
-        let between = |over: f64| (over + guides::LABEL_GAP / 2.0 - gap_x / 2.0).max(0.0);
-        let h_left = if c == 0 { v_left + l.h_reach_left } else { between(over_left) };
-        let h_right = if c == nc - 1 { v_right_w + l.h_reach_right } else { between(over_right) };
-        (v_left.max(on(h, h_left)), v_right_w.max(on(h, h_right)), 4.0 + each_strip + on(h && h_top, l.h_axis_h), on(h && !h_top, l.h_axis_h))
+        widths = lays.iter().zip(&widths).map(|(l, w)| w + (pw - l.frame.width).max(0.0)).collect();
+        pass += 1;
     };
-    let col_left: Vec<f64> = (0..nc).map(|c| (0..nr).map(|r| margins(r, c).0).fold(0.0, f64::max)).collect();
-    let col_right: Vec<f64> = (0..nc).map(|c| (0..nr).map(|r| margins(r, c).1).fold(0.0, f64::max)).collect();
-    let row_top: Vec<f64> = (0..nr).map(|r| (0..nc).map(|c| margins(r, c).2).fold(0.0, f64::max)).collect();
-    let row_bottom: Vec<f64> = (0..nr).map(|r| (0..nc).map(|c| margins(r, c).3).fold(0.0, f64::max)).collect();
-    let sum = |v: &[f64]| v.iter().sum::<f64>();
-    let pw = (((x_end - x_start) - sum(&col_left) - sum(&col_right) - gap_x * (nc - 1) as f64) / nc as f64).max(20.0);
-    let ph = (((y_end - y_start) - sum(&row_top) - sum(&row_bottom) - gap_y * (nr - 1) as f64) / nr as f64).max(20.0);
     let mut lefts = Vec::with_capacity(nc);
     let mut x = x_start;
     for c in 0..nc {
@@ -422,7 +439,7 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, names: GridNames, cells: &[Plan], ri
 /// ends of its frame (rotated labels hang left of their ticks only).
 fn h_label_overhang(lay: &PlotLayout, ts: f64) -> (f64, f64) {
     let fw = lay.frame.width;
-    let w = |t: &crate::scale::Tick| text::width(&t.label, ts, false);
+    let w = |t: &crate::scale::Tick| guides::label_width(t, ts);
     if lay.h_angle != 0.0 {
         let c = crate::math::cos((-lay.h_angle).to_radians());
         return (lay.h_ticks.iter().map(|t| w(t) * c - t.unit * fw).fold(0.0, f64::max), 0.0);
@@ -510,6 +527,16 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
         s.ticks.map(|t| t as usize).unwrap_or_else(|| ((length / per).floor() as usize).clamp(3, if narrow { 5 } else { 10 }))
     };
     let top = top + 4.0;
+    // Room right of the frame for series named at their line ends.
+    let ends_w = plan
+        .layers
+        .iter()
+        .flat_map(|l| {
+            let size = l.style.font_size.filter(|s| s.is_finite() && *s > 0.0).unwrap_or(inp.ts * 11.0 / 12.0);
+            end_names(l).into_iter().map(move |n| text::width(&n, size, false))
+        })
+        .fold(0.0, f64::max);
+    let right = if ends_w > 0.0 { (right - ends_w - END_GAP).max(x0 + 40.0) } else { right };
     // First guess of the plot height, for the vertical ticks (and so the left margin).
     let guess_h = (bottom - top - 2.0 * TITLE_SIZE * inp.ts / guides::TICK_SIZE * text::LINE_HEIGHT).max(20.0);
     let max_left = width * if narrow { 0.3 } else { 0.25 };
@@ -569,7 +596,7 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
     // Rotated labels reach left of their ticks: widen the left margin for them.
     let (left, frame_w, h_ticks, h_angle) = if h_angle != 0.0 && h_shown {
         let c = crate::math::cos((-h_angle).to_radians());
-        let reach = h_ticks.iter().map(|t| text::width(&t.label, inp.ts, false) * c - t.unit * frame_w - (left - x0)).fold(0.0, f64::max);
+        let reach = h_ticks.iter().map(|t| guides::label_width(t, inp.ts) * c - t.unit * frame_w - (left - x0)).fold(0.0, f64::max);
         if reach > 0.0 {
             let (l, w) = (left + reach, (frame_w - reach).max(20.0));
             let (t, a) =
@@ -593,7 +620,7 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
             pad
         };
         let over = |t: &[crate::scale::Tick], w: f64| {
-            t.last().map(|l| (text::width(&l.label, inp.ts, false) / 2.0 - (1.0 - l.unit) * w - room_right + 2.0).max(0.0)).unwrap_or(0.0)
+            t.last().map(|l| (guides::label_width(l, inp.ts) / 2.0 - (1.0 - l.unit) * w - room_right + 2.0).max(0.0)).unwrap_or(0.0)
         };
         let o = if h_angle == 0.0 { over(&h_ticks, frame_w) } else { 0.0 };
         if o > 0.0 && h_shown {
@@ -705,7 +732,7 @@ fn plot_draw(inp: &PlotInputs, plan: &Plan, lay: &PlotLayout, frame: Frame, draw
         let grid = guides::grid(value_axis, &coord, &pal);
         children.push(Node::Group { class: "strata-grid".into(), role: None, label: None, children: grid });
     }
-    let ctx = Ctx { scales, coord, default_color: &pal.mark, text_size: inp.ts };
+    let ctx = Ctx { scales, coord, default_color: &pal.mark, text_size: inp.ts, palette: &pal, layers: &plan.layers };
     let mut layers = Vec::new();
     for l in &plan.layers {
         let marks = layer_marks(&ctx, l);
@@ -724,7 +751,8 @@ fn plot_draw(inp: &PlotInputs, plan: &Plan, lay: &PlotLayout, frame: Frame, draw
         children.push(guides::axis(&v_axis, frame, &pal, lay.v_label_w));
     }
     // Notes go over the marks, inside the plot.
-    layers.extend(super::notes::draw(&chart.notes, scales, &coord, &pal, inp.ts));
+    let notes = super::notes::draw(&chart.notes, scales, &coord, &pal, inp.ts, &layers);
+    layers.extend(notes);
     children.push(Node::Group { class: "strata-panel".into(), role: Some("graphics-object".into()), label: Some(panel_label(plan)), children: layers });
     // Polar: the radius's labels over the wedges, on a halo.
     if let Some((angle_is_x, _, r_ticks)) = &polar_ticks {

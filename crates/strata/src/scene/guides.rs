@@ -120,8 +120,14 @@ pub fn zero_line(axis: &AxisGuide, coord: &Coord, pal: &Palette) -> Option<Node>
     Some(Node::Group { class: "strata-zero".into(), role: None, label: None, children: vec![line] })
 }
 
-fn label_width(t: &Tick, ts: f64) -> f64 {
-    text::width(&t.label, ts, false)
+/// Width of a tick label: its widest line (a wrapped label holds `\n`).
+pub fn label_width(t: &Tick, ts: f64) -> f64 {
+    t.label.split('\n').map(|l| text::width(l, ts, false)).fold(0.0, f64::max)
+}
+
+/// Lines of a tick label (a wrapped category label has two).
+fn label_lines(t: &Tick) -> usize {
+    t.label.split('\n').count()
 }
 
 /// Do neighbouring horizontal labels keep [`LABEL_GAP`] apart on an axis `length` px long?
@@ -130,12 +136,6 @@ fn fits_across(ticks: &[Tick], length: f64, ts: f64) -> bool {
         let space = (w[1].unit - w[0].unit).abs() * length;
         space >= (label_width(&w[0], ts) + label_width(&w[1], ts)) / 2.0 + LABEL_GAP
     })
-}
-
-/// Rotated labels need about a line's height between neighbours.
-fn fits_rotated(ticks: &[Tick], length: f64, ts: f64) -> bool {
-    let need = ts * text::LINE_HEIGHT / crate::math::sin((-ROTATION).to_radians());
-    ticks.windows(2).all(|w| (w[1].unit - w[0].unit).abs() * length >= need)
 }
 
 /// Where to start looking for the thinning step k that spaces evenly
@@ -167,37 +167,7 @@ pub fn bottom_ticks(
 ) -> (Vec<Tick>, f64) {
     let opts = |wanted: usize, short: bool| TickOptions { wanted, pattern, locale: loc, short };
     if let PositionScale::Category { .. } = scale {
-        let full = scale.ticks_with(&opts(wanted, false));
-        if fits_across(&full, length, ts) {
-            return (full, 0.0);
-        }
-        // Thin: every other label (the bands stay).
-        let half = every(&full, 2);
-        if full.len() <= 24 && fits_across(&half, length, ts) {
-            return (half, 0.0);
-        }
-        // Rotate, thinning only as far as rotated labels need. Bands are
-        // evenly spaced, so the search starts near the answer instead of
-        // trying every k (which is quadratic in the number of categories).
-        let need = ts * text::LINE_HEIGHT / crate::math::sin((-ROTATION).to_radians());
-        let mut k = first_k(&full, length, need);
-        while k < full.len() && !fits_rotated(&every(&full, k), length, ts) {
-            k += 1;
-        }
-        let rotated = every(&full, k);
-        // Shorten: labels whose rotated height would exceed the allowance.
-        let max_w = max_label_height / crate::math::sin((-ROTATION).to_radians());
-        let labels: Vec<String> = rotated.iter().map(|t| t.label.clone()).collect();
-        let short = shorten_all(&labels, max_w, ts);
-        let cut: Vec<Tick> = rotated
-            .into_iter()
-            .zip(short)
-            .map(|(mut t, l)| {
-                t.label = l;
-                t
-            })
-            .collect();
-        return (cut, ROTATION);
+        return category_bottom(scale.ticks_with(&opts(wanted, false)), length, max_label_height, ts);
     }
     // Continuous: thin by asking for fewer ticks, then shorten, then (dates) rotate.
     let mut w = wanted.max(2);
@@ -222,6 +192,149 @@ pub fn bottom_ticks(
         }
         w -= 1;
     }
+}
+
+/// Least room between neighbouring category ticks on an axis `length` px long.
+fn spacing(ticks: &[Tick], length: f64) -> f64 {
+    ticks.windows(2).map(|w| (w[1].unit - w[0].unit).abs() * length).fold(f64::INFINITY, f64::min)
+}
+
+fn relabel(ticks: &[Tick], labels: Vec<String>) -> Vec<Tick> {
+    ticks
+        .iter()
+        .zip(labels)
+        .map(|(t, l)| {
+            let mut t = t.clone();
+            t.label = l;
+            t
+        })
+        .collect()
+}
+
+/// Category labels along a horizontal axis. A label is never dropped while
+/// some layout keeps it; the layouts are tried in this order:
+/// 1. level, as they are;
+/// 2. level, wrapped on two lines at a space;
+/// 3. turned 45°, then 90°, each label cut to a unique prefix when it is
+///    longer than the height allows (the axis names it in full in a title);
+/// 4. level, cut to unique prefixes;
+/// 5. only when none of these fits: turned and thinned to every k-th label.
+fn category_bottom(full: Vec<Tick>, length: f64, max_label_height: f64, ts: f64) -> (Vec<Tick>, f64) {
+    if fits_across(&full, length, ts) || full.len() < 2 {
+        return (full, 0.0);
+    }
+    let room = spacing(&full, length);
+    let slot = room - LABEL_GAP;
+    let labels: Vec<String> = full.iter().map(|t| t.label.clone()).collect();
+    // 2. Two lines each.
+    if slot > 0.0 {
+        let wrapped: Option<Vec<String>> = labels.iter().map(|l| wrap_two(l, slot, ts)).collect();
+        if let Some(w) = wrapped {
+            return (relabel(&full, w), 0.0);
+        }
+    }
+    // 3. Turned: every label keeps its own tick.
+    for angle in [ROTATION, -90.0] {
+        let sin = crate::math::sin((-angle).to_radians());
+        if room >= ts * text::LINE_HEIGHT / sin {
+            let max_w = max_label_height / sin;
+            return (relabel(&full, shorten_unique(&labels, max_w, ts)), angle);
+        }
+    }
+    // 4. Level prefixes.
+    if slot > 0.0 {
+        if let Some(p) = unique_prefixes(&labels, slot, ts) {
+            return (relabel(&full, p), 0.0);
+        }
+    }
+    // 5. Thinned: no layout keeps every label at this size.
+    let need = ts * text::LINE_HEIGHT;
+    let mut k = first_k(&full, length, need).max(2);
+    while k < full.len() && !every(&full, k).windows(2).all(|w| (w[1].unit - w[0].unit).abs() * length >= need) {
+        k += 1;
+    }
+    let kept = every(&full, k);
+    let labels: Vec<String> = kept.iter().map(|t| t.label.clone()).collect();
+    (relabel(&kept, shorten_unique(&labels, max_label_height, ts)), -90.0)
+}
+
+/// `label` on one line, or on two lines split at the space that makes the
+/// longer line shortest, when that fits `max_w` px; `None` otherwise.
+pub fn wrap_two(label: &str, max_w: f64, ts: f64) -> Option<String> {
+    if text::width(label, ts, false) <= max_w {
+        return Some(label.to_string());
+    }
+    let words: Vec<&str> = label.split_whitespace().collect();
+    (1..words.len())
+        .map(|k| {
+            let (a, b) = (words[..k].join(" "), words[k..].join(" "));
+            let w = text::width(&a, ts, false).max(text::width(&b, ts, false));
+            (w, format!("{a}\n{b}"))
+        })
+        .filter(|(w, _)| *w <= max_w)
+        .min_by(|x, y| x.0.total_cmp(&y.0))
+        .map(|(_, s)| s)
+}
+
+/// Each label cut to the longest prefix that fits `max_w` px with an
+/// ellipsis, provided that prefix is long enough to tell it from every
+/// other label (no other label starts with it). Labels that fit stay whole.
+/// `None` when some label's shortest telling prefix does not fit.
+pub fn unique_prefixes(labels: &[String], max_w: f64, ts: f64) -> Option<Vec<String>> {
+    // Sorted, a label's nearest rivals are its neighbours: the telling
+    // prefix is one character longer than the longest prefix shared with either.
+    let mut order: Vec<usize> = (0..labels.len()).collect();
+    order.sort_by(|a, b| labels[*a].cmp(&labels[*b]));
+    let common = |a: &str, b: &str| a.chars().zip(b.chars()).take_while(|(x, y)| x == y).count();
+    let mut need = vec![0usize; labels.len()];
+    for (k, &i) in order.iter().enumerate() {
+        let mut n = 0;
+        if k > 0 {
+            n = n.max(common(&labels[i], &labels[order[k - 1]]));
+        }
+        if k + 1 < order.len() {
+            n = n.max(common(&labels[i], &labels[order[k + 1]]));
+        }
+        need[i] = n + 1;
+    }
+    let ell = text::width("\u{2026}", ts, false);
+    labels
+        .iter()
+        .zip(need)
+        .map(|(l, n)| {
+            if text::width(l, ts, false) <= max_w {
+                return Some(l.clone());
+            }
+            let chars: Vec<char> = l.chars().collect();
+            if n >= chars.len() {
+                return None; // the whole label is another's prefix, and too long
+            }
+            let mut w = 0.0;
+            let mut cut = 0;
+            for c in &chars {
+                let a = text::advance(*c, false) * ts;
+                if w + a + ell > max_w {
+                    break;
+                }
+                w += a;
+                cut += 1;
+            }
+            if cut < n {
+                return None;
+            }
+            let head: String = chars[..cut].iter().collect();
+            let trimmed = head.trim_end();
+            // Trimming a trailing space must not undo the telling part.
+            let head = if trimmed.chars().count() >= n { trimmed.to_string() } else { head };
+            Some(format!("{head}\u{2026}"))
+        })
+        .collect()
+}
+
+/// Labels cut to `max_w` px, telling apart: unique prefixes where they fit,
+/// else the shared words dropped ([`shorten_all`]).
+pub fn shorten_unique(labels: &[String], max_w: f64, ts: f64) -> Vec<String> {
+    unique_prefixes(labels, max_w, ts).unwrap_or_else(|| shorten_all(labels, max_w, ts))
 }
 
 /// Cut labels to `max_w` px and keep them telling apart: first cut at the
@@ -293,8 +406,20 @@ pub fn left_ticks(scale: &PositionScale, length: f64, wanted: usize, pattern: Op
                 ticks = short;
             }
         }
-        for t in ticks.iter_mut() {
-            t.label = text::fit(&t.label, ts, false, max_width);
+        if scale.is_discrete() {
+            // Two lines where the bands have room for them, else prefixes
+            // that tell the categories apart (the axis names them in full).
+            let two_lines = spacing(&ticks, length) >= 2.0 * line;
+            let labels: Vec<String> = ticks.iter().map(|t| t.label.clone()).collect();
+            let wrapped: Option<Vec<String>> = if two_lines { labels.iter().map(|l| wrap_two(l, max_width, ts)).collect() } else { None };
+            let short = wrapped.unwrap_or_else(|| shorten_unique(&labels, max_width, ts));
+            for (t, l) in ticks.iter_mut().zip(short) {
+                t.label = l;
+            }
+        } else {
+            for t in ticks.iter_mut() {
+                t.label = text::fit(&t.label, ts, false, max_width);
+            }
         }
     }
     ticks
@@ -359,7 +484,7 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
                 if axis.angle != 0.0 {
                     // Rotated about the label's end, just below the tick.
                     let y = f.bottom() + GAP + ts * text::CAP / 2.0;
-                    kids.push(Node::Text {
+                    let text = Node::Text {
                         x: x + ts * 0.3,
                         y,
                         text: t.label.clone(),
@@ -369,17 +494,11 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
                         angle: axis.angle,
                         fill: pal.muted.clone(),
                         class: "strata-tick".into(),
-                    });
+                    };
+                    kids.push(named(axis, t, text));
                 } else {
-                    kids.push(label(
-                        x,
-                        f.bottom() + GAP + baseline - ts * (text::LINE_HEIGHT - 1.0) / 2.0,
-                        &t.label,
-                        Anchor::Middle,
-                        &pal.muted,
-                        "strata-tick",
-                        ts,
-                    ));
+                    let y = f.bottom() + GAP + baseline - ts * (text::LINE_HEIGHT - 1.0) / 2.0;
+                    kids.push(named(axis, t, tick_text(x, y, t, Anchor::Middle, pal, ts)));
                 }
             }
             if !axis.title.is_empty() {
@@ -395,7 +514,8 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
             kids.extend(tick_marks(axis, f, pal));
             for t in &axis.ticks {
                 let y = f.bottom() - t.unit * f.height;
-                kids.push(label(f.left - GAP, y + ts * text::CAP / 2.0, &t.label, Anchor::End, &pal.muted, "strata-tick", ts));
+                let first = y + ts * text::CAP / 2.0 - (label_lines(t) - 1) as f64 * ts * text::LINE_HEIGHT / 2.0;
+                kids.push(named(axis, t, tick_text(f.left - GAP, first, t, Anchor::End, pal, ts)));
             }
             if !axis.title.is_empty() && axis.title_above {
                 kids.push(title_above(axis, f, pal, label_width));
@@ -412,7 +532,7 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
                 let x = f.left + t.unit * f.width;
                 if axis.angle != 0.0 {
                     // Rotated about the label's start, just above the tick, reading upward.
-                    kids.push(Node::Text {
+                    let text = Node::Text {
                         x: x - ts * 0.3,
                         y: f.top - GAP - ts * text::CAP / 2.0 + ts * text::CAP,
                         text: t.label.clone(),
@@ -422,10 +542,13 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
                         angle: axis.angle,
                         fill: pal.muted.clone(),
                         class: "strata-tick".into(),
-                    });
+                    };
+                    kids.push(named(axis, t, text));
                 } else {
-                    let y = f.top - GAP - ts * text::LINE_HEIGHT + baseline - ts * (text::LINE_HEIGHT - 1.0) / 2.0;
-                    kids.push(label(x, y, &t.label, Anchor::Middle, &pal.muted, "strata-tick", ts));
+                    // The last line sits where a one-line label would.
+                    let up = (label_lines(t) - 1) as f64 * ts * text::LINE_HEIGHT;
+                    let y = f.top - GAP - ts * text::LINE_HEIGHT + baseline - ts * (text::LINE_HEIGHT - 1.0) / 2.0 - up;
+                    kids.push(named(axis, t, tick_text(x, y, t, Anchor::Middle, pal, ts)));
                 }
             }
             if !axis.title.is_empty() {
@@ -440,7 +563,8 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
             kids.extend(tick_marks(axis, f, pal));
             for t in &axis.ticks {
                 let y = f.bottom() - t.unit * f.height;
-                kids.push(label(f.right() + GAP, y + ts * text::CAP / 2.0, &t.label, Anchor::Start, &pal.muted, "strata-tick", ts));
+                let first = y + ts * text::CAP / 2.0 - (label_lines(t) - 1) as f64 * ts * text::LINE_HEIGHT / 2.0;
+                kids.push(named(axis, t, tick_text(f.right() + GAP, first, t, Anchor::Start, pal, ts)));
             }
             if !axis.title.is_empty() && axis.title_above {
                 kids.push(title_above(axis, f, pal, label_width));
@@ -462,10 +586,31 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
     Node::Group { class: class.into(), role: None, label: Some(title), children: kids }
 }
 
+/// A tick label at (x, first baseline): one text, or a wrapped label's
+/// lines a line apart in a `strata-tick-lines` group.
+fn tick_text(x: f64, y: f64, t: &Tick, anchor: Anchor, pal: &Palette, ts: f64) -> Node {
+    if !t.label.contains('\n') {
+        return label(x, y, &t.label, anchor, &pal.muted, "strata-tick", ts);
+    }
+    let lines =
+        t.label.split('\n').enumerate().map(|(k, l)| label(x, y + k as f64 * ts * text::LINE_HEIGHT, l, anchor, &pal.muted, "strata-tick", ts)).collect();
+    Node::group("strata-tick-lines", lines)
+}
+
+/// A category label that was cut short keeps its full name in a title.
+fn named(axis: &AxisGuide, t: &Tick, n: Node) -> Node {
+    let PositionScale::Category { values, .. } = axis.scale else { return n };
+    let Some(full) = values.get(t.value as usize).filter(|_| t.value >= 0.0) else { return n };
+    if t.label.contains('\u{2026}') && *full != t.label {
+        return Node::Titled { title: full.clone(), children: vec![n] };
+    }
+    n
+}
+
 /// Height of a bottom axis's labels (rotated labels stand taller).
 pub fn bottom_labels_height(ticks: &[Tick], angle: f64, ts: f64) -> f64 {
     if angle == 0.0 {
-        ts * text::LINE_HEIGHT
+        ticks.iter().map(label_lines).max().unwrap_or(1) as f64 * ts * text::LINE_HEIGHT
     } else {
         let s = crate::math::sin((-angle).to_radians());
         widest_label(ticks, ts) * s + ts * text::LINE_HEIGHT * s
@@ -805,7 +950,9 @@ pub fn rows(l: &Legend, x: f64, y: f64, max_width: f64, pal: &Palette, default_c
             let mid = top + rh * r as f64 + rh / 2.0;
             kids.push(symbol(&l.body, i, x + ix + lead / 2.0, mid, pal, default_color));
             let shown = text::fit(s, ts, false, max_width - lead - 6.0);
-            kids.push(label(x + ix + lead + 6.0, mid + ts * text::CAP / 2.0, &shown, Anchor::Start, &pal.text, "strata-legend-label", ts));
+            let text = label(x + ix + lead + 6.0, mid + ts * text::CAP / 2.0, &shown, Anchor::Start, &pal.text, "strata-legend-label", ts);
+            // A label cut to the width keeps its full name in a title.
+            kids.push(if shown != *s { Node::Titled { title: s.clone(), children: vec![text] } } else { text });
         }
     }
     wrap_legend(l, kids)
@@ -911,16 +1058,17 @@ mod tests {
     use crate::format;
 
     #[test]
-    fn crowded_categories_thin_then_rotate_then_shorten() {
+    fn crowded_categories_wrap_then_rotate_then_shorten() {
         let cats: Vec<String> = (0..12).map(|i| format!("Orchard block number {i}")).collect();
         let s = PositionScale::category(cats, 0.1);
         let en = format::english();
         // Wide: every label fits as is.
         let (t, a) = bottom_ticks(&s, 4000.0, 6, None, en, 80.0, TICK_SIZE);
         assert_eq!((t.len(), a), (12, 0.0));
-        // Narrower: every other label.
+        // Narrower: every label, on two lines (before issue 12, every other label).
         let (t, a) = bottom_ticks(&s, 1500.0, 6, None, en, 80.0, TICK_SIZE);
-        assert_eq!((t.len(), a), (6, 0.0));
+        assert_eq!((t.len(), a), (12, 0.0));
+        assert_eq!(t[10].label, "Orchard block\nnumber 10");
         // Narrow: rotated, and cut to fit the height allowance.
         let (t, a) = bottom_ticks(&s, 400.0, 6, None, en, 60.0, TICK_SIZE);
         assert_eq!(a, ROTATION);
@@ -938,6 +1086,35 @@ mod tests {
         assert_eq!(s, ["\u{2026}1\u{2026}", "\u{2026}2\u{2026}", "\u{2026}3\u{2026}"]);
         let plain = shorten_all(&["Bramley".to_string(), "Discovery".to_string()], 40.0, TICK_SIZE);
         assert!(plain[0].starts_with("Bra") && plain[1].starts_with("Dis"));
+    }
+
+    #[test]
+    fn labels_wrap_at_the_space_that_balances_two_lines() {
+        // "Saint Ebbe's" / "Landing" is wider on its first line than
+        // "Saint" / "Ebbe's Landing"? The split whose longer line is shortest wins.
+        let w = |s: &str| text::width(s, TICK_SIZE, false);
+        let two = wrap_two("Saint Ebbe's Landing", 80.0, TICK_SIZE).unwrap();
+        let (a, b) = two.split_once('\n').unwrap();
+        let best = [("Saint", "Ebbe's Landing"), ("Saint Ebbe's", "Landing")].iter().map(|(x, y)| w(x).max(w(y))).fold(f64::INFINITY, f64::min);
+        assert_eq!(w(a).max(w(b)), best);
+        assert_eq!(wrap_two("Crossmarsh", 80.0, TICK_SIZE).as_deref(), Some("Crossmarsh"));
+        // A single word too wide is never cut between letters.
+        assert_eq!(wrap_two("Supercalifragilistic", 40.0, TICK_SIZE), None);
+    }
+
+    #[test]
+    fn unique_prefixes_tell_every_label_apart() {
+        let l: Vec<String> = ["Northgate", "Northfield", "Norton", "Ely"].iter().map(|s| s.to_string()).collect();
+        let p = unique_prefixes(&l, 45.0, TICK_SIZE).unwrap();
+        // Shortest telling prefixes: "Northg", "Northf", "Nort" + "o", "E" (sorted neighbours).
+        assert!(p[0].starts_with("Northg") && p[1].starts_with("Northf") && p[2].starts_with("Norto"), "{p:?}");
+        assert_eq!(p[3], "Ely");
+        let mut d = p.clone();
+        d.sort();
+        d.dedup();
+        assert_eq!(d.len(), 4);
+        // Too narrow for "Northg…": no prefix layout.
+        assert_eq!(unique_prefixes(&l, 25.0, TICK_SIZE), None);
     }
 
     #[test]

@@ -19,6 +19,10 @@ pub struct Ctx<'a> {
     pub default_color: &'a str,
     /// The chart's tick-label size; label marks default to 11/12 of it.
     pub text_size: f64,
+    /// The theme's colours: label text is chosen for contrast against them.
+    pub palette: &'a crate::color::Palette,
+    /// Every layer of the plot, so a label layer can see the marks it names.
+    pub layers: &'a [PlannedLayer],
 }
 
 pub(super) fn datum(layer: &PlannedLayer, i: usize) -> Datum {
@@ -52,6 +56,14 @@ fn uy_num(s: &PositionScale, v: Option<f64>) -> Option<f64> {
 }
 
 pub fn layer_marks(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
+    let mut marks = geometry_marks(ctx, layer);
+    if names_ends(layer) {
+        marks.extend(end_labels(ctx, layer));
+    }
+    marks
+}
+
+fn geometry_marks(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     match layer.geometry {
         Geometry::Point => points(ctx, layer),
         Geometry::Line | Geometry::Step => lines(ctx, layer),
@@ -686,19 +698,434 @@ fn cells(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     out
 }
 
+// ------------------------------------------------------------ label placement
+
+/// A text's line box: left, top, right, bottom (px).
+pub(super) type Box4 = (f64, f64, f64, f64);
+
+/// The glyph box of a text at baseline `y`: from the cap height above the
+/// baseline to a descender's depth below it, 1 px around.
+pub(super) fn text_box(x: f64, y: f64, w: f64, size: f64, anchor: Anchor) -> Box4 {
+    let left = match anchor {
+        Anchor::Start => x,
+        Anchor::Middle => x - w / 2.0,
+        Anchor::End => x - w,
+    };
+    (left - 1.0, y - size * crate::text::CAP - 1.0, left + w + 1.0, y + size * 0.25 + 1.0)
+}
+
+fn boxes_overlap(a: Box4, b: Box4) -> bool {
+    a.0 < b.2 && b.0 < a.2 && a.1 < b.3 && b.1 < a.3
+}
+
+pub(super) fn box_within(a: Box4, f: super::coord::Frame) -> bool {
+    a.0 >= f.left - 0.5 && a.2 <= f.right() + 0.5 && a.1 >= f.top - 0.5 && a.3 <= f.bottom() + 0.5
+}
+
+/// Does the segment p-q cross the box? Liang-Barsky line clipping
+/// (Liang and Barsky, "A new concept and method for line clipping", ACM
+/// TOG 3(1), 1984): the segment meets the box when the clipped parameter
+/// range is not empty.
+pub(super) fn segment_hits_box(p: (f64, f64), q: (f64, f64), b: Box4) -> bool {
+    let (dx, dy) = (q.0 - p.0, q.1 - p.1);
+    let (mut t0, mut t1) = (0.0f64, 1.0f64);
+    for (pk, qk) in [(-dx, p.0 - b.0), (dx, b.2 - p.0), (-dy, p.1 - b.1), (dy, b.3 - p.1)] {
+        if pk == 0.0 {
+            if qk < 0.0 {
+                return false;
+            }
+            continue;
+        }
+        let r = qk / pk;
+        if pk < 0.0 {
+            t0 = t0.max(r);
+        } else {
+            t1 = t1.min(r);
+        }
+        if t0 > t1 {
+            return false;
+        }
+    }
+    true
+}
+
+/// Boxes and segments indexed by the 32 px cells they touch, so that each
+/// new label is checked against its neighbours only (lookups by hash, as
+/// the house asks: thousands of labels stay near linear).
+#[derive(Default)]
+pub(super) struct Grid {
+    cells: std::collections::HashMap<(i64, i64), Vec<usize>>,
+    boxes: Vec<Box4>,
+    segs: Vec<((f64, f64), (f64, f64))>,
+}
+
+const CELL: f64 = 32.0;
+
+impl Grid {
+    fn cells_of(b: Box4) -> impl Iterator<Item = (i64, i64)> {
+        let c = |v: f64| (v / CELL).floor().clamp(-1e6, 1e6) as i64;
+        let (x0, x1, y0, y1) = (c(b.0), c(b.2), c(b.1), c(b.3));
+        // A box or segment spanning many cells is indexed in at most 64 along each side.
+        (x0..=x1.min(x0 + 64)).flat_map(move |x| (y0..=y1.min(y0 + 64)).map(move |y| (x, y)))
+    }
+    /// Items are numbered: boxes as 2k, segments as 2k + 1.
+    pub(super) fn add_box(&mut self, b: Box4) {
+        let id = 2 * self.boxes.len();
+        self.boxes.push(b);
+        for c in Self::cells_of(b) {
+            self.cells.entry(c).or_default().push(id);
+        }
+    }
+    pub(super) fn add_segment(&mut self, p: (f64, f64), q: (f64, f64)) {
+        let id = 2 * self.segs.len() + 1;
+        self.segs.push((p, q));
+        for c in Self::cells_of((p.0.min(q.0), p.1.min(q.1), p.0.max(q.0), p.1.max(q.1))) {
+            self.cells.entry(c).or_default().push(id);
+        }
+    }
+    /// Is the box clear of every box and segment stored?
+    pub(super) fn free(&self, b: Box4) -> bool {
+        Self::cells_of(b).all(|c| {
+            self.cells.get(&c).is_none_or(|ids| {
+                ids.iter()
+                    .all(|&id| if id % 2 == 0 { !boxes_overlap(self.boxes[id / 2], b) } else { !segment_hits_box(self.segs[id / 2].0, self.segs[id / 2].1, b) })
+            })
+        })
+    }
+
+    /// Every data mark and label mark under `nodes` as obstacles: boxes of
+    /// bars, points and label texts, segments of lines and outlines.
+    pub(super) fn of_marks(nodes: &[Node]) -> Grid {
+        fn walk(n: &Node, g: &mut Grid) {
+            match n {
+                Node::Group { children, .. } | Node::Titled { children, .. } => children.iter().for_each(|c| walk(c, g)),
+                Node::Rect { x, y, width, height, datum: Some(_), .. } => g.add_box((*x, *y, x + width, y + height)),
+                Node::Circle { cx, cy, r, datum: Some(_), .. } => g.add_box((cx - r, cy - r, cx + r, cy + r)),
+                Node::Path { d, .. } => {
+                    let mut last: Option<(f64, f64)> = None;
+                    let mut first: Option<(f64, f64)> = None;
+                    for s in d {
+                        match *s {
+                            Seg::Move(x, y) => {
+                                last = Some((x, y));
+                                first = last;
+                            }
+                            Seg::Line(x, y) | Seg::Arc { x, y, .. } => {
+                                if let Some(p) = last {
+                                    g.add_segment(p, (x, y));
+                                }
+                                last = Some((x, y));
+                            }
+                            Seg::Close => {
+                                if let (Some(p), Some(q)) = (last, first) {
+                                    g.add_segment(p, q);
+                                }
+                            }
+                        }
+                    }
+                }
+                Node::Text { x, y, text, size, anchor, class, .. } if class.starts_with("strata-label") => {
+                    g.add_box(text_box(*x, *y, crate::text::width(text, *size, false), *size, *anchor))
+                }
+                _ => {}
+            }
+        }
+        let mut g = Grid::default();
+        nodes.iter().for_each(|n| walk(n, &mut g));
+        g
+    }
+}
+
+/// Text colour for a label drawn over `behind`: the theme's text or
+/// background colour, whichever contrasts more with it by the WCAG 2.x
+/// contrast ratio (W3C WCAG 2.1, "contrast ratio", success criterion
+/// 1.4.3); black or white when neither reaches 4.5:1, the level for normal
+/// text (one of those two always does: the lowest best case is about 4.58).
+pub fn contrasting_text(behind: &str, pal: &crate::color::Palette) -> String {
+    use crate::color::contrast;
+    let best = |a: &str, b: &str| {
+        let (ca, cb) = (contrast(a, behind).unwrap_or(0.0), contrast(b, behind).unwrap_or(0.0));
+        if ca >= cb {
+            (a.to_string(), ca)
+        } else {
+            (b.to_string(), cb)
+        }
+    };
+    let (c, ratio) = best(&pal.text, &pal.background);
+    if ratio >= 4.5 {
+        return c;
+    }
+    best("#000000", "#ffffff").0
+}
+
+/// Text colour for a label on the chart's background: its mark's colour
+/// when that reads at 4.5:1, else the theme's text colour.
+fn on_background(mark: &str, pal: &crate::color::Palette) -> String {
+    match crate::color::contrast(mark, &pal.background) {
+        Some(c) if c >= 4.5 => mark.to_string(),
+        _ => pal.text.clone(),
+    }
+}
+
+/// The layer a label layer names: the first other bar, line, step or area
+/// layer drawing the same x and y columns.
+fn companion<'a>(ctx: &Ctx<'a>, layer: &PlannedLayer) -> Option<&'a PlannedLayer> {
+    let names = |l: &PlannedLayer| (l.data.names.get(&Channel::X).cloned(), l.data.names.get(&Channel::Y).cloned());
+    let mine = names(layer);
+    mine.1.as_ref()?;
+    ctx.layers
+        .iter()
+        .find(|l| l.index != layer.index && matches!(l.geometry, Geometry::Bar | Geometry::Line | Geometry::Step | Geometry::Area) && names(l) == mine)
+}
+
+/// The pixel segments of a line layer's series (to keep labels off them).
+fn line_segments(ctx: &Ctx, line: &PlannedLayer) -> Vec<((f64, f64), (f64, f64))> {
+    let mut out = Vec::new();
+    for rows in line_series(line) {
+        let (pts, _, _) = series_units(ctx, line, &rows, Channel::Y);
+        let px = ctx.coord.line(&pts);
+        out.extend(px.windows(2).map(|w| (w[0], w[1])));
+    }
+    out
+}
+
+fn label_text(tv: Option<&Values>, i: usize) -> Option<String> {
+    match tv.map(|t| t.json(i)) {
+        Some(serde_json::Value::String(s)) => Some(s),
+        Some(serde_json::Value::Number(n)) => n.as_f64().map(crate::format::value_label),
+        _ => None,
+    }
+}
+
+// ------------------------------------------------------------ direct labels
+
+/// Does the layer name its series at their ends (`label_ends` on a line,
+/// step or area layer)?
+pub fn names_ends(layer: &PlannedLayer) -> bool {
+    layer.label_ends && matches!(layer.geometry, Geometry::Line | Geometry::Step | Geometry::Area)
+}
+
+/// The name of the series a row belongs to: its colour category, else its
+/// group, else the y column's readable name.
+fn series_name(layer: &PlannedLayer, i: usize) -> String {
+    for ch in [Channel::Color, Channel::Group] {
+        if let Some(k) = layer.data.get(ch).and_then(|v| v.key(i)) {
+            return k;
+        }
+    }
+    layer.data.names.get(&Channel::Y).map(|n| crate::text::readable_name(n)).unwrap_or_default()
+}
+
+/// Names a `label_ends` layer writes (for the room the layout keeps).
+pub fn end_names(layer: &PlannedLayer) -> Vec<String> {
+    if !names_ends(layer) {
+        return vec![];
+    }
+    let mut out: Vec<String> = series(layer).iter().filter_map(|rows| rows.first()).map(|&i| series_name(layer, i)).collect();
+    out.dedup();
+    out
+}
+
+/// Gap between a line's end and its name (px).
+pub const END_GAP: f64 = 6.0;
+
+/// `colour` with its OKLab lightness moved (darker on a light background,
+/// lighter on a dark one) by the least amount that makes it read at 4.5:1
+/// against `background` (WCAG 2.1 contrast ratio); hue and chroma kept, up
+/// to the sRGB gamut.
+pub fn readable_on(colour: &str, background: &str) -> String {
+    use crate::color::{contrast, hex_to_oklab, luminance, oklab_to_hex};
+    let ok = |c: &str| contrast(c, background).is_some_and(|r| r >= 4.5);
+    let (Some(lab), Some(bg)) = (hex_to_oklab(colour), luminance(background)) else { return colour.to_string() };
+    if ok(colour) {
+        return colour.to_string();
+    }
+    let target = if bg > 0.18 { 0.0 } else { 1.0 };
+    let at = |l: f64| oklab_to_hex([l, lab[1], lab[2]]);
+    // Bisection on lightness between the colour (fails) and black or white (passes).
+    let (mut fail, mut pass) = (lab[0], target);
+    if !ok(&at(pass)) {
+        return if target == 0.0 { "#000000".into() } else { "#ffffff".into() };
+    }
+    for _ in 0..40 {
+        let mid = 0.5 * (fail + pass);
+        if ok(&at(mid)) {
+            pass = mid;
+        } else {
+            fail = mid;
+        }
+    }
+    at(pass)
+}
+
+/// The names of a `label_ends` layer's series, just right of each series'
+/// last point, pushed apart vertically by the least squares placement of
+/// [`crate::text::place::spread`] so that none overlaps another and each
+/// stays as near its line's end as it can.
+fn end_labels(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
+    let Some(xv) = layer.data.get(Channel::X) else { return vec![] };
+    let Some(yv) = layer.data.get(Channel::Y) else { return vec![] };
+    if ctx.coord.is_polar() {
+        return vec![];
+    }
+    let base = if layer.geometry == Geometry::Area { layer.data.get(Channel::YBase) } else { None };
+    let size = layer.style.font_size.filter(|s| s.is_finite() && *s > 0.0).unwrap_or(ctx.text_size * 11.0 / 12.0);
+    let mut ends: Vec<(String, f64, f64, String)> = Vec::new();
+    for rows in series(layer) {
+        // The last point: the row furthest along x with a y.
+        let mut best: Option<(f64, f64, usize)> = None;
+        for &i in &rows {
+            let (Some(a), Some(mut b)) = (ux(ctx, layer, xv, i), ctx.scales.y.unit(yv, i)) else { continue };
+            if let Some(u0) = base.and_then(|v| v.num(i)).and_then(|v| ctx.scales.y.unit_num(v)) {
+                b = 0.5 * (b + u0);
+            }
+            if best.is_none_or(|(ba, _, _)| a > ba) {
+                best = Some((a, b, i));
+            }
+        }
+        let Some((a, b, i)) = best else { continue };
+        let (px, py) = ctx.coord.point(a, b);
+        ends.push((series_name(layer, i), px, py, color_of(ctx, layer, i)));
+    }
+    let frame = ctx.coord.frame();
+    let line = size * crate::text::LINE_HEIGHT;
+    let want: Vec<f64> = ends.iter().map(|e| e.2).collect();
+    let at = crate::text::place::spread(&want, line, frame.top + line / 2.0, frame.bottom() - line / 2.0);
+    let cap = size * crate::text::CAP;
+    ends.into_iter()
+        .zip(at)
+        .map(|((name, px, _, colour), y)| Node::Text {
+            x: px + END_GAP,
+            y: y + cap / 2.0,
+            text: name,
+            size,
+            anchor: Anchor::Start,
+            bold: false,
+            angle: 0.0,
+            fill: readable_on(&colour, &ctx.palette.background),
+            class: "strata-label strata-end-label".into(),
+        })
+        .collect()
+}
+
+/// Label marks. Where each goes, in order of preference, keeping off the
+/// labels already placed and inside the frame:
+/// - stacked (`arrange: stack | proportion`): in the middle of its own
+///   segment, in the colour that contrasts with the segment;
+/// - over bars of the same x and y: just outside the bar's end, or inside
+///   it when the outside leaves the frame;
+/// - at line points: above, below, right or left of the point, whichever
+///   first keeps off the line;
+/// - elsewhere: above, right, below or left of the point.
+///
+/// A label that finds no free place is left out: labels never overlap.
 fn labels(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     let d = &layer.data;
     let (Some(xv), Some(yv)) = (d.get(Channel::X), d.get(Channel::Y)) else { return vec![] };
     let tv = d.get(Channel::Text).or(d.get(Channel::Y));
     let size = layer.style.font_size.filter(|s| s.is_finite() && *s > 0.0).unwrap_or(ctx.text_size * 11.0 / 12.0);
+    if ctx.coord.is_polar() {
+        return centred_labels(ctx, layer, size);
+    }
+    let pal = ctx.palette;
+    let frame = ctx.coord.frame();
+    let transposed = matches!(ctx.coord, Coord::Transposed(_));
+    let base = d.get(Channel::YBase);
+    let partner = companion(ctx, layer);
+    let over_bars = partner.is_some_and(|p| p.geometry == Geometry::Bar);
+    // The line a label layer names: its labels keep off it.
+    let line = match partner {
+        Some(p) if matches!(p.geometry, Geometry::Line | Geometry::Step) => line_segments(ctx, p),
+        _ => vec![],
+    };
+    let zero = ctx.scales.y.unit_num(0.0).unwrap_or(0.0);
+    let cap = size * crate::text::CAP;
+    let gap = 4.0;
+    let mut grid = Grid::default();
+    for (p, q) in line {
+        grid.add_segment(p, q);
+    }
     let mut out = Vec::new();
     for i in 0..d.len {
         let (Some(a), Some(b)) = (ux(ctx, layer, xv, i), ctx.scales.y.unit(yv, i)) else { continue };
-        let text = match tv.map(|t| t.json(i)) {
-            Some(serde_json::Value::String(s)) => s,
-            Some(serde_json::Value::Number(n)) => n.as_f64().map(crate::format::value_label).unwrap_or_default(),
-            _ => continue,
-        };
+        let Some(text) = label_text(tv, i) else { continue };
+        let w = crate::text::width(&text, size, false);
+        let mark = color_of(ctx, layer, i);
+        // Candidates: (x, baseline, anchor, fill).
+        let mut cands: Vec<(f64, f64, Anchor, String, bool)> = Vec::new();
+        if let Some(u0) = base.and_then(|v| v.num(i)).and_then(|v| ctx.scales.y.unit_num(v)) {
+            // Its own segment of the stack.
+            let (p0, p1) = (ctx.coord.point(a, u0), ctx.coord.point(a, b));
+            let (mx, my) = ((p0.0 + p1.0) / 2.0, (p0.1 + p1.1) / 2.0);
+            let room = if transposed { (p1.0 - p0.0).abs() >= w + 4.0 } else { (p1.1 - p0.1).abs() >= cap + 4.0 };
+            if room {
+                cands.push((mx, my + cap / 2.0, Anchor::Middle, contrasting_text(&mark, pal), false));
+            }
+        } else if over_bars {
+            let behind = if d.get(Channel::Color).is_some() {
+                mark.clone()
+            } else {
+                partner.and_then(|p| p.style.color.clone()).unwrap_or_else(|| ctx.default_color.to_string())
+            };
+            let (px, py) = ctx.coord.point(a, b);
+            let up = b >= zero;
+            let outside_fill = on_background(&behind, pal);
+            let inside_fill = contrasting_text(&behind, pal);
+            if transposed {
+                // Values run across: the bar's end is its right (or left) side.
+                let y = py + cap / 2.0;
+                let (out_x, out_a, in_x, in_a) =
+                    if up { (px + gap, Anchor::Start, px - gap, Anchor::End) } else { (px - gap, Anchor::End, px + gap, Anchor::Start) };
+                cands.push((out_x, y, out_a, outside_fill, true));
+                cands.push((in_x, y, in_a, inside_fill, false));
+            } else {
+                let (out_y, in_y) = if up { (py - gap, py + gap + cap) } else { (py + gap + cap, py - gap) };
+                cands.push((px, out_y, Anchor::Middle, outside_fill, true));
+                cands.push((px, in_y, Anchor::Middle, inside_fill, false));
+            }
+        } else {
+            // Around the point: the four sides, then the four corners,
+            // then the same again twice and four times as far.
+            let (px, py) = ctx.coord.point(a, b);
+            let fill = on_background(&mark, pal);
+            for k in [1.0, 2.0, 4.0] {
+                let g = (gap + 2.0) * k;
+                let sides = [
+                    (px, py - g, Anchor::Middle),
+                    (px, py + g + cap, Anchor::Middle),
+                    (px + g, py + cap / 2.0, Anchor::Start),
+                    (px - g, py + cap / 2.0, Anchor::End),
+                    (px + g, py - g, Anchor::Start),
+                    (px - g, py - g, Anchor::End),
+                    (px + g, py + g + cap, Anchor::Start),
+                    (px - g, py + g + cap, Anchor::End),
+                ];
+                cands.extend(sides.into_iter().map(|(x, y, an)| (x, y, an, fill.clone(), true)));
+            }
+        }
+        let chosen = cands.into_iter().find(|(x, y, anchor, _, _)| {
+            let bx = text_box(*x, *y, w, size, *anchor);
+            box_within(bx, frame) && grid.free(bx)
+        });
+        let Some((x, y, anchor, fill, on_background)) = chosen else { continue };
+        grid.add_box(text_box(x, y, w, size, anchor));
+        // A label on the background in the theme's text colour follows the
+        // theme (dark mode restyles it); inside a mark it keeps its contrast.
+        let class = if on_background && fill == pal.text { "strata-label strata-label-text" } else { "strata-label" };
+        out.push(Node::Text { x, y, text, size, anchor, bold: false, angle: 0.0, fill, class: class.into() });
+    }
+    out
+}
+
+/// Labels centred just above their points (polar coordinates).
+fn centred_labels(ctx: &Ctx, layer: &PlannedLayer, size: f64) -> Vec<Node> {
+    let d = &layer.data;
+    let (Some(xv), Some(yv)) = (d.get(Channel::X), d.get(Channel::Y)) else { return vec![] };
+    let tv = d.get(Channel::Text).or(d.get(Channel::Y));
+    let mut out = Vec::new();
+    for i in 0..d.len {
+        let (Some(a), Some(b)) = (ux(ctx, layer, xv, i), ctx.scales.y.unit(yv, i)) else { continue };
+        let Some(text) = label_text(tv, i) else { continue };
         let (x, y) = ctx.coord.point(a, b);
         out.push(Node::Text {
             x,
@@ -713,4 +1140,32 @@ fn labels(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         });
     }
     out
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn segments_and_boxes() {
+        let b = (10.0, 10.0, 20.0, 20.0);
+        // Through, ending inside, passing by, and along an edge's line outside.
+        assert!(segment_hits_box((0.0, 15.0), (30.0, 15.0), b));
+        assert!(segment_hits_box((0.0, 0.0), (12.0, 12.0), b));
+        assert!(!segment_hits_box((0.0, 0.0), (30.0, 5.0), b));
+        assert!(!segment_hits_box((25.0, 0.0), (25.0, 30.0), b));
+        // A diagonal that clips only the corner region outside the box.
+        assert!(!segment_hits_box((0.0, 18.0), (8.0, 30.0), b));
+    }
+
+    #[test]
+    fn label_text_contrasts_with_what_is_behind() {
+        let light = crate::color::Palette::light();
+        // On the theme's mark colours and on a mid orange, 4.5:1 or more
+        // (WCAG 2.1 contrast ratio, criterion 1.4.3).
+        for behind in ["#007e89", "#f28e2b", "#ffffff", "#1d232b", "#777777", "#7f7f7f"] {
+            let c = contrasting_text(behind, &light);
+            assert!(crate::color::contrast(&c, behind).unwrap() >= 4.5, "{c} on {behind}");
+        }
+    }
 }

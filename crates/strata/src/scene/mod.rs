@@ -209,6 +209,10 @@ pub enum Node {
         fill: String,
         class: String,
     },
+    /// Nodes that stand for a longer text, say a shortened category label:
+    /// written as a `<g>` whose `<title>` (shown on hover, read by screen
+    /// readers) holds the full wording.
+    Titled { title: String, children: Vec<Node> },
 }
 
 impl Node {
@@ -221,7 +225,7 @@ impl Node {
         let mut out = Vec::new();
         fn walk<'a>(n: &'a Node, out: &mut Vec<&'a Node>) {
             match n {
-                Node::Group { children, .. } => children.iter().for_each(|c| walk(c, out)),
+                Node::Group { children, .. } | Node::Titled { children, .. } => children.iter().for_each(|c| walk(c, out)),
                 Node::Rect { datum: Some(_), .. } | Node::Circle { datum: Some(_), .. } | Node::Path { datum: Some(_), .. } => out.push(n),
                 _ => {}
             }
@@ -244,7 +248,7 @@ impl Scene {
     pub fn non_finite(&self) -> Vec<String> {
         fn walk(n: &Node, at: String, out: &mut Vec<String>) {
             let (kind, nums): (&str, Vec<f64>) = match n {
-                Node::Group { children, .. } => {
+                Node::Group { children, .. } | Node::Titled { children, .. } => {
                     for (i, c) in children.iter().enumerate() {
                         walk(c, format!("{at}/{i}"), out);
                     }

@@ -2,6 +2,7 @@
 //! text, placed so that their texts do not overlap one another.
 
 use super::coord::{Area, Coord};
+use super::marks::{box_within, text_box, Grid};
 use super::{polyline, Anchor, Node, Paint};
 use crate::calendar::{parse_date, parse_datetime};
 use crate::color::Palette;
@@ -34,30 +35,37 @@ fn inside(u: f64) -> bool {
     (-1e-9..=1.0 + 1e-9).contains(&u)
 }
 
-/// Text boxes already placed, to keep notes from covering each other; and
-/// the notes' text size.
-struct Placed(Vec<(f64, f64, f64, f64)>, f64);
-
-impl Placed {
-    /// Move (x, baseline) down a line at a time until the box is free.
-    fn place(&mut self, x: f64, y: f64, w: f64, anchor: Anchor) -> f64 {
-        let left = match anchor {
-            Anchor::Start => x,
-            Anchor::Middle => x - w / 2.0,
-            Anchor::End => x - w,
-        };
-        let line = self.1 * text::LINE_HEIGHT;
-        let mut y = y;
-        for _ in 0..8 {
-            let (top, bottom) = (y - self.1 * text::ASCENT, y - self.1 * text::ASCENT + line);
-            if !self.0.iter().any(|(l, t, r, b)| left < *r && left + w > *l && top < *b && bottom > *t) {
-                break;
-            }
-            y += line;
+/// Where a note's text may go, best first: where it was asked, then the
+/// other places near what it marks (`alts`), then each of those a line at a
+/// time up and down (up to eight lines); a note at a point tries rings
+/// around it, once to six times 6 px away.
+fn candidates(x: f64, y: f64, anchor: Anchor, at_point: Option<(f64, f64)>, alts: &[(f64, f64, Anchor)], size: f64) -> Vec<(f64, f64, Anchor)> {
+    let line = size * text::LINE_HEIGHT;
+    let cap = size * text::CAP;
+    let mut first = vec![(x, y, anchor)];
+    if let Some((px, py)) = at_point {
+        for k in [1.0, 2.0, 3.0, 4.0, 6.0] {
+            let g = 6.0 * k;
+            first.extend([
+                (px + g, py - g, Anchor::Start),
+                (px - g, py - g, Anchor::End),
+                (px + g, py + g + cap, Anchor::Start),
+                (px - g, py + g + cap, Anchor::End),
+                (px, py - g, Anchor::Middle),
+                (px, py + g + cap, Anchor::Middle),
+            ]);
         }
-        self.0.push((left, y - self.1 * text::ASCENT, left + w, y - self.1 * text::ASCENT + line));
-        y
+        return first;
     }
+    first.extend_from_slice(alts);
+    let mut out = first.clone();
+    for k in 1..=8 {
+        for &(cx, cy, ca) in &first {
+            out.push((cx, cy + k as f64 * line, ca));
+            out.push((cx, cy - k as f64 * line, ca));
+        }
+    }
+    out
 }
 
 /// Steps per side when a polar outline or line is traced, so rings look round.
@@ -121,8 +129,9 @@ fn reference(coord: &Coord, a: (f64, f64), b: (f64, f64), pal: &Palette) -> (Nod
     (Node::Line { x1: p.0, y1: p.1, x2: q.0, y2: q.1, paint }, p, q)
 }
 
-/// The notes of a plot area, drawn over its marks.
-pub fn draw(notes: &[Note], scales: &Scales, coord: &Coord, pal: &Palette, size: f64) -> Option<Node> {
+/// The notes of a plot area, drawn over its marks (`marks`: the plot's
+/// layers, which the notes' texts keep off).
+pub fn draw(notes: &[Note], scales: &Scales, coord: &Coord, pal: &Palette, size: f64, marks: &[Node]) -> Option<Node> {
     if notes.is_empty() {
         return None;
     }
@@ -130,7 +139,8 @@ pub fn draw(notes: &[Note], scales: &Scales, coord: &Coord, pal: &Palette, size:
     let mut spans = Vec::new();
     let mut lines = Vec::new();
     let mut texts = Vec::new();
-    let mut placed = Placed(Vec::new(), size);
+    // The data and the texts already placed: a note's text keeps off both.
+    let mut taken = Grid::of_marks(marks);
     let label = |x: f64, y: f64, s: &str, anchor: Anchor| Node::Text {
         x,
         y,
@@ -149,8 +159,13 @@ pub fn draw(notes: &[Note], scales: &Scales, coord: &Coord, pal: &Palette, size:
         let uye = n.y_end.as_ref().and_then(|v| unit(&scales.y, v));
         let words = n.text.as_deref().unwrap_or("");
         let w = text::width(words, size, false);
-        // Where the text goes, in pixels, with its anchor.
+        // Where the text goes, in pixels, with its anchor; and the point a
+        // note at a point stands for.
         let mut at: Option<(f64, f64, Anchor)> = None;
+        let mut point: Option<(f64, f64)> = None;
+        // Other places near what the note marks, should the first be taken.
+        let mut alts: Vec<(f64, f64, Anchor)> = Vec::new();
+        let (cap, desc) = (size * text::CAP, size * 0.25);
         match (ux, uxe, uy, uye) {
             // Shaded spans: along x (full height, or between y and y_end), or along y.
             (Some(a), Some(b), y0, y1) => {
@@ -163,14 +178,17 @@ pub fn draw(notes: &[Note], scales: &Scales, coord: &Coord, pal: &Palette, size:
                 if x0 < x1 && y0 < y1 {
                     let mut paint = Paint::fill(&pal.muted);
                     paint.opacity = Some(0.14);
-                    if let Some((node, (x, y, _, _))) = shade(coord, x0, x1, y0, y1, paint) {
+                    if let Some((node, (x, y, width, height))) = shade(coord, x0, x1, y0, y1, paint) {
                         spans.push(node);
                         at = Some(if coord.is_polar() {
                             // Beside the sector's outer edge, at its middle.
                             let (px, py) = coord.point(0.5 * (x0 + x1), y1);
                             (px + 4.0, py - 4.0, Anchor::Start)
                         } else {
-                            (x + 4.0, y + size * text::ASCENT + 3.0, Anchor::Start)
+                            // The span's other top corner, then its bottom corners.
+                            let (top, low) = (y + size * text::ASCENT + 3.0, y + height - 4.0 - desc);
+                            alts = vec![(x + width - 4.0, top, Anchor::End), (x + 4.0, low, Anchor::Start), (x + width - 4.0, low, Anchor::End)];
+                            (x + 4.0, top, Anchor::Start)
                         });
                     }
                 }
@@ -181,13 +199,15 @@ pub fn draw(notes: &[Note], scales: &Scales, coord: &Coord, pal: &Palette, size:
                 if y0 < y1 {
                     let mut paint = Paint::fill(&pal.muted);
                     paint.opacity = Some(0.14);
-                    if let Some((node, (x, y, width, _))) = shade(coord, 0.0, 1.0, y0, y1, paint) {
+                    if let Some((node, (x, y, width, height))) = shade(coord, 0.0, 1.0, y0, y1, paint) {
                         spans.push(node);
                         at = Some(if coord.is_polar() {
                             let (px, py) = coord.point(0.0, y1);
                             (px + 4.0, py - 4.0, Anchor::Start)
                         } else {
-                            (x + width - 4.0, y + size * text::ASCENT + 3.0, Anchor::End)
+                            let (top, low) = (y + size * text::ASCENT + 3.0, y + height - 4.0 - desc);
+                            alts = vec![(x + 4.0, top, Anchor::Start), (x + width - 4.0, low, Anchor::End), (x + 4.0, low, Anchor::Start)];
+                            (x + width - 4.0, top, Anchor::End)
                         });
                     }
                 }
@@ -195,6 +215,7 @@ pub fn draw(notes: &[Note], scales: &Scales, coord: &Coord, pal: &Palette, size:
             // A point with text.
             (Some(x), None, Some(y), None) if inside(x) && inside(y) => {
                 let (px, py) = coord.point(x, y);
+                point = Some((px, py));
                 lines.push(Node::Circle { cx: px, cy: py, r: 2.5, paint: Paint::fill(&pal.text), datum: None });
                 let anchor = if px + w + 6.0 > frame.right() { Anchor::End } else { Anchor::Start };
                 let dx = if anchor == Anchor::End { -6.0 } else { 6.0 };
@@ -207,18 +228,51 @@ pub fn draw(notes: &[Note], scales: &Scales, coord: &Coord, pal: &Palette, size:
                 at = polar_text(coord, false, x).or_else(|| {
                     let (tx, ty) = (x1.max(x2), y1.min(y2));
                     let anchor = if tx + w + 4.0 > frame.right() { Anchor::End } else { Anchor::Start };
+                    // The line's other side at the top, then both sides at the bottom.
+                    let low = frame.bottom() - 4.0 - desc;
+                    alts = vec![(tx - 4.0, ty + size * text::ASCENT + 2.0, Anchor::End), (tx + 4.0, ty + size * text::ASCENT + 2.0, Anchor::Start)];
+                    alts.retain(|a| a.2 != anchor);
+                    alts.extend([(tx + 4.0, low, Anchor::Start), (tx - 4.0, low, Anchor::End)]);
                     Some((if anchor == Anchor::End { tx - 4.0 } else { tx + 4.0 }, ty + size * text::ASCENT + 2.0, anchor))
                 });
             }
             (None, None, Some(y), None) if inside(y) => {
                 let (node, (x1, y1), (x2, y2)) = reference(coord, (0.0, y), (1.0, y), pal);
                 lines.push(node);
-                at = polar_text(coord, true, y).or(Some((x1.max(x2) - 4.0, y1.min(y2) - 4.0, Anchor::End)));
+                at = polar_text(coord, true, y).or_else(|| {
+                    // The left end above, then both ends below the line.
+                    let (l, r, ly) = (x1.min(x2), x1.max(x2), y1.min(y2));
+                    alts = vec![(l + 4.0, ly - 4.0, Anchor::Start), (r - 4.0, ly + 4.0 + cap, Anchor::End), (l + 4.0, ly + 4.0 + cap, Anchor::Start)];
+                    Some((r - 4.0, ly - 4.0, Anchor::End))
+                });
             }
             _ => {}
         }
         if let (Some((x, y, anchor)), false) = (at, words.is_empty()) {
-            let y = placed.place(x, y, w, anchor);
+            // The first free place; where it was asked counts as inside the frame.
+            let cands = candidates(x, y, anchor, point, &alts, size);
+            let chosen = cands
+                .iter()
+                .enumerate()
+                .find(|(k, (cx, cy, ca))| {
+                    let b = text_box(*cx, *cy, w, size, *ca);
+                    (*k == 0 || box_within(b, frame)) && taken.free(b)
+                })
+                .map(|(k, c)| (k, *c));
+            let (k, (x, y, anchor)) = chosen.unwrap_or((0, (x, y, anchor)));
+            let b = text_box(x, y, w, size, anchor);
+            taken.add_box(b);
+            if let (true, true, Some((px, py))) = (n.pointer, k > 0, point) {
+                // A leader from the text's nearest edge to 3 px short of the dot.
+                let (qx, qy) = (px.clamp(b.0, b.2), py.clamp(b.1, b.3));
+                let len = (qx - px).hypot(qy - py);
+                if len > 4.0 {
+                    let t = 3.0 / len;
+                    let mut paint = Paint::stroke(&pal.muted, 1.0);
+                    paint.opacity = Some(0.9);
+                    lines.push(Node::Line { x1: qx, y1: qy, x2: px + (qx - px) * t, y2: py + (qy - py) * t, paint });
+                }
+            }
             texts.push(label(x, y, words, anchor));
         }
     }

@@ -186,6 +186,9 @@ pub struct Layer {
     pub stat: Stat,
     #[serde(default)]
     pub arrange: Arrange,
+    /// Line and area layers: name each series at its last point instead of in a legend.
+    #[serde(default, skip_serializing_if = "std::ops::Not::not")]
+    pub label_ends: bool,
 }
 
 /// What a channel maps to: a column name, or `{ "column": "c", "as": "date" }`.
@@ -509,6 +512,9 @@ pub struct Note {
     pub y_end: Option<serde_json::Value>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub text: Option<String>,
+    /// A leader line from the text to its point when the text had to move.
+    #[serde(default, skip_serializing_if = "std::ops::Not::not")]
+    pub pointer: bool,
 }
 
 #[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]

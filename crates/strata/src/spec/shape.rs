@@ -239,6 +239,7 @@ pub fn spec_shape() -> Shape {
         f("style", style, "Constant styling of the marks; never data-driven."),
         f("stat", stat, "The statistic: none (default), count, box, or an object."),
         f("arrange", Shape::Word(ARRANGES), "Position adjustment: none (default), stack, beside, proportion, jitter."),
+        f("label_ends", Shape::Bool, "Line and area layers: name each series at its last point instead of in a legend."),
     ]);
     let layer = obj(layer_fields);
     let scale = obj(vec![
@@ -313,6 +314,7 @@ pub fn spec_shape() -> Shape {
         f("x_end", position(), "With x: shade the span from x to x_end."),
         f("y_end", position(), "With y: shade the span from y to y_end."),
         f("text", text(), "The note's text."),
+        f("pointer", Shape::Bool, "With x and y: a leader line from the text to its point when the text had to move."),
     ]);
     let size = obj(vec![
         f("width", num(Some(0.0), None), "Width in pixels. Absent: fill the container and redraw on resize."),

@@ -203,6 +203,14 @@ fn node(out: &mut String, n: &Node, depth: usize, labelled: bool) {
             mark_label(out, datum, labelled);
             close_mark(out, "path", datum);
         }
+        Node::Titled { title, children } => {
+            let _ = writeln!(out, "<g><title>{}</title>", escape(title));
+            for c in children {
+                node(out, c, depth + 1, labelled);
+            }
+            out.push_str(&indent);
+            out.push_str("</g>\n");
+        }
         Node::Text { x, y, text, size, anchor, bold, angle, fill, class } => {
             let _ = write!(out, "<text class=\"{}\" x=\"{}\" y=\"{}\" font-size=\"{}\"", escape(class), num(*x), num(*y), num(*size));
             match anchor {

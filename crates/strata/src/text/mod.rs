@@ -4,6 +4,7 @@
 //! `tests/reference/gen/font_metrics.py`. Kerning is not applied; Chromium's
 //! measurements of the same strings agree to a tenth of a pixel (test below).
 
+pub mod place;
 pub mod widths;
 
 use widths::{ADVANCES, CAP_HEIGHT, UNITS_PER_EM};
