@@ -129,6 +129,12 @@ fn description_sentences_open_with_a_capital() {
             for word in ["over", "in", "the", "it"] {
                 assert!(!desc.contains(&format!(". {word} ")), "{name}: a sentence opens with lowercase '{word}': {desc}");
             }
+            // Two layers over the same columns (a line and its labels) say
+            // their range once, not twice.
+            let sentences: Vec<&str> = desc.split(". ").collect();
+            for (i, s) in sentences.iter().enumerate() {
+                assert!(!sentences[..i].contains(s), "{name}: the description repeats '{s}': {desc}");
+            }
         }
     }
 }

@@ -159,7 +159,15 @@ pub fn describe(plan: &Plan) -> String {
     if let Some(t) = &plan.chart.subtitle {
         parts.push(t.clone());
     }
-    let mut out = parts.join(". ");
+    // Layers over the same columns (a line and its labels) would repeat
+    // the same sentences: each is said once.
+    let mut said = Vec::with_capacity(parts.len());
+    for p in parts {
+        if !said.contains(&p) {
+            said.push(p);
+        }
+    }
+    let mut out = said.join(". ");
     out.push('.');
     let mut c = out.chars();
     match c.next() {
