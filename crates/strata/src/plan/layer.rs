@@ -5,7 +5,7 @@ use crate::channel::Channel;
 use crate::data::Column;
 use crate::data::Table;
 use crate::error::{Diagnostic, Errors};
-use crate::spec::{ColumnType, Layer, Panels};
+use crate::spec::{ColumnType, Geometry, IndependentAxes, Layer, Panels, Spec};
 
 pub fn extract(index: usize, layer: &Layer, table: &Table) -> Result<LayerData, Errors> {
     let names = table.column_names();
@@ -125,6 +125,68 @@ pub fn to_values(col: &Column, as_type: Option<ColumnType>) -> Values {
         }
         (_, v) => v,
     }
+}
+
+/// Whether the chart's bars (or boxes) have categories on y and numbers
+/// (or nothing) on x: then the orientation follows the data and the bars
+/// lie across, in reading order from top to bottom.
+pub fn categories_on_y(layers: &[Layer], data: &[Option<LayerData>]) -> bool {
+    layers.iter().zip(data).any(|(l, d)| {
+        let Some(d) = d else { return false };
+        matches!(l.draw, Geometry::Bar | Geometry::Box)
+            && matches!(d.get(Channel::Y), Some(Values::Text(_)))
+            && !matches!(d.get(Channel::X), Some(Values::Text(_)))
+    })
+}
+
+/// The position channel pairs that trade places when a chart turns.
+const TURNED: [(Channel, Channel); 2] = [(Channel::X, Channel::Y), (Channel::XEnd, Channel::YEnd)];
+
+/// Swap a layer's x and y channels (and their ends) for a turned chart.
+pub fn turn(d: &mut LayerData) {
+    for (a, b) in TURNED {
+        let (va, vb) = (d.channels.shift_remove(&a), d.channels.shift_remove(&b));
+        let (na, nb) = (d.names.shift_remove(&a), d.names.shift_remove(&b));
+        if let Some(v) = vb {
+            d.channels.insert(a, v);
+        }
+        if let Some(v) = va {
+            d.channels.insert(b, v);
+        }
+        if let Some(n) = nb {
+            d.names.insert(a, n);
+        }
+        if let Some(n) = na {
+            d.names.insert(b, n);
+        }
+    }
+    d.channels.sort_keys();
+    d.names.sort_keys();
+}
+
+/// The spec as a turned chart sees it: the x and y scales, the notes'
+/// positions and free panel axes trade places.
+pub fn turn_spec(spec: &Spec) -> Spec {
+    let mut s = spec.clone();
+    let (x, y) = (s.scales.shift_remove(&Channel::X), s.scales.shift_remove(&Channel::Y));
+    if let Some(v) = y {
+        s.scales.insert(Channel::X, v);
+    }
+    if let Some(v) = x {
+        s.scales.insert(Channel::Y, v);
+    }
+    for n in &mut s.notes {
+        std::mem::swap(&mut n.x, &mut n.y);
+        std::mem::swap(&mut n.x_end, &mut n.y_end);
+    }
+    if let Some(p) = &mut s.panels {
+        p.independent = p.independent.map(|i| match i {
+            IndependentAxes::X => IndependentAxes::Y,
+            IndependentAxes::Y => IndependentAxes::X,
+            other => other,
+        });
+    }
+    s
 }
 
 /// "There is no column `c`", at `path`, with a did-you-mean and the columns.

@@ -59,6 +59,12 @@ pub struct PlannedLayer {
     pub arrange: Arrange,
     pub style: Style,
     pub data: LayerData,
+    /// Bars on a continuous x: the data's resolution along x (smallest gap
+    /// between distinct values, data units), which sets their width.
+    pub x_step: Option<f64>,
+    /// The layer was turned for horizontal bars: its `x` holds the spec's
+    /// `y` and the other way round (output names them as the spec did).
+    pub turned: bool,
 }
 
 #[derive(Debug, Clone)]
@@ -88,8 +94,34 @@ pub fn build_with_shapes(spec: &Spec, table: &Table, shapes: Option<Vec<crate::g
     if let Err(e) = layer::check_panels(spec.panels.as_ref(), table) {
         errors.extend(e.0);
     }
+    // Every layer's channels first: the orientation follows the data of all of them.
+    let mut extracted = Vec::with_capacity(spec.layers.len());
     for (i, l) in spec.layers.iter().enumerate() {
-        match layer::extract(i, l, table).map(|d| layer::with_panel(d, spec.panels.as_ref(), table)).and_then(|d| stat::apply(i, l, d)) {
+        match layer::extract(i, l, table).map(|d| layer::with_panel(d, spec.panels.as_ref(), table)) {
+            Ok(d) => extracted.push(Some(d)),
+            Err(e) => {
+                errors.extend(e.0);
+                extracted.push(None);
+            }
+        }
+    }
+    // Categories on y with numbers on x: horizontal bars. The plan works
+    // in turned terms (categories on x, values on y) and the scene draws x
+    // down the page; the spec's x and y scales and notes turn with it.
+    let turned = layer::categories_on_y(&spec.layers, &extracted);
+    let turned_spec;
+    let spec = if turned {
+        turned_spec = layer::turn_spec(spec);
+        &turned_spec
+    } else {
+        spec
+    };
+    for ((i, l), d) in spec.layers.iter().enumerate().zip(extracted) {
+        let Some(mut d) = d else { continue };
+        if turned {
+            layer::turn(&mut d);
+        }
+        match stat::apply(i, l, d) {
             Ok(s) => {
                 let n = stat::element_count(s.geometry, &s.data);
                 if n > stat::MAX_ELEMENTS {
@@ -98,7 +130,8 @@ pub fn build_with_shapes(spec: &Spec, table: &Table, shapes: Option<Vec<crate::g
                 }
                 warnings.extend(s.warnings);
                 let data = arrange::apply(i, l, s.geometry, s.data);
-                layers.push(PlannedLayer { index: i, geometry: s.geometry, arrange: l.arrange, style: l.style.clone(), data })
+                let x_step = arrange::bar_step(s.geometry, &data);
+                layers.push(PlannedLayer { index: i, geometry: s.geometry, arrange: l.arrange, style: l.style.clone(), data, x_step, turned })
             }
             Err(e) => errors.extend(e.0),
         }
@@ -112,7 +145,9 @@ pub fn build_with_shapes(spec: &Spec, table: &Table, shapes: Option<Vec<crate::g
         Some(m) => Some(map::resolve(spec, &m, shapes, &layers, &mut warnings)?),
         None => None,
     };
-    let mut plan = Plan { layers, scales, warnings, chart: Chart::of(spec), panels: None, map };
+    let mut chart = Chart::of(spec);
+    chart.transposed = turned;
+    let mut plan = Plan { layers, scales, warnings, chart, panels: None, map };
     plan.panels = panels::split(spec, &plan);
     if plan.chart.description.is_none() {
         plan.chart.description = Some(summary::describe(&plan));

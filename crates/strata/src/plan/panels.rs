@@ -132,7 +132,15 @@ fn cut(plan: &Plan, channels: &[(Channel, &IndexSet<String>)], independent: (boo
             rows[cell].push(i);
         }
         for (cell, rows) in layers.iter_mut().zip(&rows) {
-            cell.push(PlannedLayer { index: l.index, geometry: l.geometry, arrange: l.arrange, style: l.style.clone(), data: take_rows(&l.data, rows) });
+            cell.push(PlannedLayer {
+                index: l.index,
+                geometry: l.geometry,
+                arrange: l.arrange,
+                style: l.style.clone(),
+                data: take_rows(&l.data, rows),
+                x_step: l.x_step,
+                turned: l.turned,
+            });
         }
     }
     layers

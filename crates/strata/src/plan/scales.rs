@@ -162,7 +162,7 @@ fn domain_error(axis: &str) -> Errors {
 
 /// The channels each position scale is trained on.
 const X_CHANNELS: &[Channel] = &[Channel::X, Channel::XEnd];
-const Y_CHANNELS: &[Channel] = &[Channel::Y, Channel::YEnd, Channel::YBase, Channel::YLow, Channel::YHigh];
+const Y_CHANNELS: &[Channel] = &[Channel::Y, Channel::YEnd, Channel::YBase, Channel::YTop, Channel::YLow, Channel::YHigh];
 
 /// Train the x and/or y scale of `scales` again on `layers` alone (one
 /// panel's rows, for `panels.independent`), as [`train`] trains them on every row.
@@ -380,13 +380,15 @@ fn train_position(channels: &[Channel], axis: &str, s: &ScaleSpec, layers: &[Pla
                 Some(vals @ (Values::Num(_) | Values::Time(_))) => {
                     any_num = true;
                     time |= matches!(vals, Values::Time(_));
-                    if ch == Channel::YBase || (ch == Channel::Y && matches!(l.geometry, Geometry::Bar | Geometry::Area)) {
+                    if ch == Channel::YBase || ch == Channel::YTop || (ch == Channel::Y && matches!(l.geometry, Geometry::Bar | Geometry::Area)) {
                         extent = true;
                     }
                     if let Values::Num(v) | Values::Time(v) = vals {
                         if let Some((a, b)) = v.extent() {
-                            lo = lo.min(a);
-                            hi = hi.max(b);
+                            // Bars on a continuous x: room for the whole first and last bar.
+                            let pad = if ch == Channel::X { l.x_step.map_or(0.0, |s| s / 2.0) } else { 0.0 };
+                            lo = lo.min(a - pad);
+                            hi = hi.max(b + pad);
                         }
                     }
                 }
@@ -401,6 +403,11 @@ fn train_position(channels: &[Channel], axis: &str, s: &ScaleSpec, layers: &[Pla
         } else if !any_text && any_num {
             // Numbers asked to be categories: sorted distinct values.
             cats = num_as_text_position(layers, channels);
+        }
+        // Units run bottom-up; categories on a vertical axis read top-down,
+        // in data (or domain) order, so the list is turned.
+        if axis == "y" {
+            cats.reverse();
         }
         if s.reverse {
             cats.reverse();
@@ -465,7 +472,12 @@ fn train_position(channels: &[Channel], axis: &str, s: &ScaleSpec, layers: &[Pla
         hi += pad;
     }
     // Nice ends wait for the layout, which knows how many ticks fit.
-    let nice = s.nice.unwrap_or(true);
+    // Time scales keep the data's own ends unless asked (`nice: true`):
+    // 1958-2001 is not drawn on 1950-2010.
+    // Bars on a continuous x already end half a step past the data: their
+    // axis is not rounded out further unless asked.
+    let bars = channels.contains(&Channel::X) && layers.iter().any(|l| l.x_step.is_some());
+    let nice = s.nice.unwrap_or(!time && !bars);
     if s.reverse {
         std::mem::swap(&mut lo, &mut hi);
     }
@@ -525,7 +537,7 @@ mod tests {
         let mut data = LayerData { len: xs.len(), ..Default::default() };
         data.channels.insert(Channel::X, Values::Num(xs.into()));
         data.channels.insert(Channel::Y, Values::Num(ys.into()));
-        PlannedLayer { index: 0, geometry, arrange: Arrange::None, style: Style::default(), data }
+        PlannedLayer { index: 0, geometry, arrange: Arrange::None, style: Style::default(), data, x_step: None, turned: false }
     }
 
     fn spec(scales: &str) -> Spec {

@@ -106,15 +106,17 @@ pub fn zero_line(axis: &AxisGuide, coord: &Coord, pal: &Palette) -> Option<Node>
         return None;
     }
     let u = axis.scale.unit_num(0.0).filter(|u| u.is_finite() && (-1e-9..=1.0 + 1e-9).contains(u))?;
+    // Zero inside the domain (values on both sides): a stronger line, where gains turn to losses.
+    let width = if lo.min(hi) < 0.0 && hi.max(lo) > 0.0 { 1.5 } else { 1.0 };
     let f = coord.frame();
     let line = match axis.side {
         Side::Left | Side::Right => {
             let y = f.bottom() - u * f.height;
-            Node::Line { x1: f.left, y1: y, x2: f.right(), y2: y, paint: Paint::stroke(&pal.text, 1.0) }
+            Node::Line { x1: f.left, y1: y, x2: f.right(), y2: y, paint: Paint::stroke(&pal.text, width) }
         }
         Side::Bottom | Side::Top => {
             let x = f.left + u * f.width;
-            Node::Line { x1: x, y1: f.top, x2: x, y2: f.bottom(), paint: Paint::stroke(&pal.text, 1.0) }
+            Node::Line { x1: x, y1: f.top, x2: x, y2: f.bottom(), paint: Paint::stroke(&pal.text, width) }
         }
     };
     Some(Node::Group { class: "strata-zero".into(), role: None, label: None, children: vec![line] })

@@ -124,7 +124,8 @@ pub const RETIRED: &[(&str, &str)] =
 fn retired_hint(word: &str, accepted: &[&str]) -> Option<String> {
     if word == "flip" && accepted.contains(&"cartesian") {
         return Some(
-            "`flip` is retired: orientation is to follow the data (categories on y for horizontal bars), which is not drawn yet; write `cartesian` or leave `coords` out".into(),
+            "`flip` is retired: orientation is to follow the data, and it does: categories on y give horizontal bars; write `cartesian` or leave `coords` out"
+                .into(),
         );
     }
     RETIRED.iter().find(|(old, new)| *old == word && accepted.contains(new)).map(|(old, new)| format!("`{old}` is now called `{new}`: did you mean `{new}`?"))
