@@ -88,6 +88,12 @@ pub fn check_spec_value(spec: &Value, errors: &mut Vec<Diagnostic>) {
                     ));
                 }
             }
+            // Chosen colours (`values`) are CSS colours like any other.
+            if let Some(values) = s.get("values").and_then(Value::as_object) {
+                for (cat, c) in values {
+                    color(Some(c), &format!("scales.{}.values.{}", crate::expr::path_key(name), crate::expr::path_key(cat)), errors);
+                }
+            }
             if let Some(p) = s.get("format").and_then(Value::as_str) {
                 if let Err(why) = pattern(p) {
                     errors.push(

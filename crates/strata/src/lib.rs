@@ -181,6 +181,14 @@ fn render_stages(
     // Budgets at each stage boundary (budget.rs): the table after reading
     // and after each derive, marks and categories after planning, the SVG.
     let table = budget::apply_derives(table, spec)?;
+    let table = match &spec.unpivot {
+        Some(u) => {
+            let t = data::unpivot::apply(table, u)?;
+            budget::check_table(&t, "unpivot")?;
+            t
+        }
+        None => table,
+    };
     let plan = plan::build_with_shapes(spec, &table, shapes)?;
     budget::check_plan(&plan)?;
     let scene = scene::build(&plan, &opts.scene);

@@ -189,6 +189,45 @@ pub fn turn_spec(spec: &Spec) -> Spec {
     s
 }
 
+/// The category that gathers the categories past a scale's `top`.
+pub const OTHER: &str = "Other";
+
+/// `top` on a category axis: keep the `n` categories with the largest
+/// totals of `y` over every layer (row counts where `y` holds no numbers),
+/// and relabel the rest "Other", before the statistics, so that a count or
+/// a summary of "Other" covers all of their rows. Ties keep the data's order.
+pub fn gather_top(data: &mut [Option<LayerData>], ch: Channel, n: usize) {
+    let mut totals: indexmap::IndexMap<String, f64> = indexmap::IndexMap::new();
+    for d in data.iter().flatten() {
+        let Some(Values::Text(cats)) = d.get(ch) else { continue };
+        let value_ch = if ch == Channel::X { Channel::Y } else { Channel::X };
+        let ys = d.get(value_ch).filter(|v| !v.is_discrete());
+        for (i, c) in cats.iter().enumerate() {
+            let Some(c) = c else { continue };
+            let add = match ys {
+                Some(v) => v.num(i).unwrap_or(0.0),
+                None => 1.0,
+            };
+            *totals.entry(c.clone()).or_insert(0.0) += add;
+        }
+    }
+    if totals.len() <= n {
+        return;
+    }
+    let mut ranked: Vec<(usize, &String, f64)> = totals.iter().enumerate().map(|(i, (k, v))| (i, k, *v)).collect();
+    ranked.sort_by(|a, b| b.2.total_cmp(&a.2).then(a.0.cmp(&b.0)));
+    let keep: std::collections::HashSet<String> = ranked.iter().take(n).map(|r| r.1.clone()).collect();
+    for d in data.iter_mut().flatten() {
+        if let Some(Values::Text(cats)) = d.channels.get_mut(&ch) {
+            for c in cats.iter_mut().flatten() {
+                if !keep.contains(c.as_str()) {
+                    *c = OTHER.to_string();
+                }
+            }
+        }
+    }
+}
+
 /// "There is no column `c`", at `path`, with a did-you-mean and the columns.
 fn unknown_column(col: &str, names: &[String], path: String) -> Diagnostic {
     let d = Diagnostic::error("spec.unknown_column", format!("there is no column `{col}` in the data")).at_path(path);

@@ -27,7 +27,7 @@ pub use crate::spec::{AngleChannel, Arrange, Coords, Geometry, Note, Placement, 
 
 use crate::data::Table;
 use crate::error::{Diagnostic, Errors};
-use crate::spec::Spec;
+use crate::spec::{Layer, Spec};
 use indexmap::IndexMap;
 
 /// A layer's rows after its statistic and position adjustment, keyed by
@@ -116,11 +116,32 @@ pub fn build_with_shapes(spec: &Spec, table: &Table, shapes: Option<Vec<crate::g
     } else {
         spec
     };
-    for ((i, l), d) in spec.layers.iter().enumerate().zip(extracted) {
-        let Some(mut d) = d else { continue };
-        if turned {
-            layer::turn(&mut d);
+    if turned {
+        for d in extracted.iter_mut().flatten() {
+            layer::turn(d);
         }
+    }
+    // `top` on a category axis: the rest gathered into "Other" before the
+    // statistics; bars without one sum what was gathered.
+    let mut summed = Vec::new();
+    for ch in [Channel::X, Channel::Y] {
+        if let Some(n) = spec.scales.get(&ch).and_then(|s| s.top) {
+            layer::gather_top(&mut extracted, ch, n as usize);
+            summed.push(ch);
+        }
+    }
+    for ((i, l), d) in spec.layers.iter().enumerate().zip(extracted) {
+        let Some(d) = d else { continue };
+        let gathered;
+        let l = if summed.contains(&Channel::X) && l.draw == Geometry::Bar && l.stat == crate::spec::Stat::None {
+            gathered = Layer {
+                stat: crate::spec::Stat::Object(crate::spec::StatObject { summary: Some(crate::spec::SummaryWord::Sum), ..Default::default() }),
+                ..l.clone()
+            };
+            &gathered
+        } else {
+            l
+        };
         match stat::apply(i, l, d) {
             Ok(s) => {
                 let n = stat::element_count(s.geometry, &s.data);
@@ -141,6 +162,7 @@ pub fn build_with_shapes(spec: &Spec, table: &Table, shapes: Option<Vec<crate::g
     }
     panels::check_count(spec, &layers)?;
     let scales = scales::train(spec, &layers)?;
+    warnings.extend(scales::chosen_color_warnings(&scales));
     let map = match map::coords(spec) {
         Some(m) => Some(map::resolve(spec, &m, shapes, &layers, &mut warnings)?),
         None => None,

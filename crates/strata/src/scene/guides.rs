@@ -553,9 +553,8 @@ pub fn legends(scales: &Scales, mark: SwatchMark, size: f64) -> Vec<Legend> {
     let merged = matches!((&scales.color, &scales.shape), (Some(ColorScale::Categories(c)), Some(s)) if c == s && scales.color_title == scales.shape_title);
     match &scales.color {
         Some(ColorScale::Categories(_)) if merged => {}
-        Some(ColorScale::Categories(cats)) if !hidden(&scales.color_spec) => {
-            let vals = crate::plan::Values::Text(cats.iter().cloned().map(Some).collect());
-            let items = cats.iter().enumerate().map(|(i, c)| (c.clone(), scales.color_of(&vals, i).unwrap_or_default())).collect();
+        Some(ColorScale::Categories(_)) if !hidden(&scales.color_spec) => {
+            let items = scales.category_legend();
             out.push(Legend { title: scales.color_title.clone(), body: LegendBody::Swatches(items, mark), channel: Channel::Color, size });
         }
         Some(ColorScale::Ramp { lo, hi }) if !hidden(&scales.color_spec) => {

@@ -263,6 +263,14 @@ pub fn spec_shape() -> Shape {
         ),
         f("count", Shape::Integer { min: 2, max: 12 }, "Number of classes of a steps colour scale (default 5)."),
         f("middle", num(None, None), "Where a diverging colour palette turns, in data units."),
+        f(
+            "values",
+            Shape::Map { keys: None, value: Box::new(color()) },
+            "Chosen colours of a category colour scale, by category; the key other colours every category not named.",
+        ),
+        f("order", Shape::Word(CategoryOrder::WORDS), "Sort a category axis by the value drawn: ascending or descending."),
+        f("top", count(1), "Keep this many categories (after order); gather the rest into Other."),
+        f("unit", text(), "The unit of a value axis, written once, across, above the axis."),
     ]);
     let coords = Shape::Either(vec![
         Shape::Word(COORD_WORDS),
@@ -356,6 +364,14 @@ pub fn spec_shape() -> Shape {
         f("theme", theme, "light, dark, auto (default: follows the reader's preference), or overrides."),
         f("quiet", list(Shape::Word(LINT_CODES)), "Lint warnings silenced on purpose, by code."),
         f("locale", Shape::Word(LOCALES), "Language of number and date labels: en (default), de, fr, es."),
+        f(
+            "unpivot",
+            obj(vec![
+                req("columns", list(Shape::Text("a column name")), "The wide columns to turn into rows, in the order their names take."),
+                req("into", Shape::Pair(Box::new(Shape::Text("a column name"))), "The two new columns: the names, then the values."),
+            ]),
+            "Wide columns into long rows, after derive and where.",
+        ),
         f(
             "data_table",
             Shape::Word(DATA_TABLE),
