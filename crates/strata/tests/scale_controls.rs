@@ -10,7 +10,7 @@ fn draw(spec: &str) -> strata::Rendered {
 }
 
 fn refuse(spec: &str) -> Vec<(String, String, String)> {
-    let e = render(spec, None, &RenderOptions { scene: SceneOptions { width: 640.0 } }).err().expect("refused");
+    let Err(e) = render(spec, None, &RenderOptions { scene: SceneOptions { width: 640.0 } }) else { panic!("drawn, not refused") };
     e.0.iter().map(|d| (d.code.clone(), d.at.path.clone(), d.hint.clone().unwrap_or_default())).collect()
 }
 
@@ -154,4 +154,39 @@ fn unit_is_written_once_with_the_value_axis_title() {
         r#"{{ {SHOPS}, "layers": [ {{ "draw": "bar", "x": "shop", "y": "sales" }} ], "scales": {{ "y": {{ "title": "", "unit": "£ thousand" }} }} }}"#
     ));
     assert!(texts(&r, "strata-axis-title").contains(&"£ thousand".to_string()));
+}
+
+#[test]
+fn ticks_may_be_the_values_themselves() {
+    // Numbers: exactly the chosen values inside the domain, whatever the room.
+    let rows: Vec<String> = (0..=10).map(|i| format!(r#"{{"t": {}, "v": {}}}"#, i * 10, i * 3)).collect();
+    let spec = |ticks: &str| {
+        format!(
+            r#"{{ "data": {{ "rows": [{}] }}, "layers": [ {{ "draw": "line", "x": "t", "y": "v" }} ], "scales": {{ "x": {{ "ticks": {ticks} }} }} }}"#,
+            rows.join(",")
+        )
+    };
+    let r = draw(&spec("[0, 25, 50, 100, 400]"));
+    let ticks = texts(&r, "strata-tick");
+    // The horizontal axis is written first: its labels, then the vertical axis's (0, 5, 10, ...).
+    assert_eq!(ticks[..5], ["0", "25", "50", "100", "0"], "{ticks:?}");
+    // A count still works as before.
+    assert!(render(&spec("4"), None, &RenderOptions::default()).is_ok());
+    // Categories: only the named ones are labelled.
+    let r = draw(&format!(
+        r#"{{ {SHOPS}, "layers": [ {{ "draw": "bar", "x": "shop", "y": "sales" }} ], "scales": {{ "x": {{ "ticks": ["Bakery", "Grocer"] }} }} }}"#
+    ));
+    let ticks = texts(&r, "strata-tick");
+    assert!(ticks.contains(&"Bakery".to_string()) && ticks.contains(&"Grocer".to_string()) && !ticks.contains(&"Chemist".to_string()), "{ticks:?}");
+    // Dates on a time axis, labelled by the unit they fall on.
+    let days: Vec<String> = (1..=12).map(|m| format!(r#"{{"d": "2024-{m:02}-15", "v": {m}}}"#)).collect();
+    let r = draw(&format!(
+        r#"{{ "data": {{ "rows": [{}], "types": {{"d": "date"}} }}, "layers": [ {{ "draw": "line", "x": "d", "y": "v" }} ], "scales": {{ "x": {{ "ticks": ["2024-04-01", "2024-10-01"] }} }} }}"#,
+        days.join(",")
+    ));
+    let ticks = texts(&r, "strata-tick");
+    assert!(ticks.contains(&"Apr 2024".to_string()) && ticks.contains(&"Oct".to_string()), "{ticks:?}");
+    // Not a number on a number axis: refused at the item.
+    let e = refuse(&spec(r#"[0, "lots"]"#));
+    assert_eq!((e[0].0.as_str(), e[0].1.as_str()), ("spec.bad_ticks", "scales.x.ticks[1]"), "{e:?}");
 }

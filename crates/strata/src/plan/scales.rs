@@ -446,8 +446,36 @@ fn explicit_domain(s: &ScaleSpec, axis: &str) -> Result<Option<(f64, f64)>, Erro
     Ok(Some((nums[0], nums[1])))
 }
 
-/// A trained position scale and whether its domain is still to be made nice.
+/// A trained position scale and whether its domain is still to be made
+/// nice, with the tick values the spec chose (`ticks: [...]`).
 fn train_position(channels: &[Channel], axis: &str, s: &ScaleSpec, layers: &[PlannedLayer]) -> Result<(PositionScale, bool), Errors> {
+    let (scale, nice) = train_position_bare(channels, axis, s, layers)?;
+    let Some(crate::spec::Ticks::Values(list)) = &s.ticks else { return Ok((scale, nice)) };
+    let names: Vec<String> = list.iter().map(json_word).collect();
+    let mut numbers = Vec::with_capacity(list.len());
+    for (i, v) in list.iter().enumerate() {
+        let n = if scale.is_time() {
+            v.as_str().and_then(|t| {
+                crate::calendar::parse_date(t).map(|d| d as f64 * 86_400_000.0).or_else(|| crate::calendar::parse_datetime(t).map(|ms| ms as f64))
+            })
+        } else {
+            v.as_f64()
+        };
+        match n {
+            Some(n) => numbers.push(n),
+            None if !scale.is_discrete() => {
+                let want = if scale.is_time() { "a date, such as \"2024-01-01\"" } else { "a number" };
+                return Err(Diagnostic::error("spec.bad_ticks", format!("each chosen tick on the {axis} axis must be {want}"))
+                    .at_path(format!("scales.{axis}.ticks[{i}]"))
+                    .into());
+            }
+            None => {}
+        }
+    }
+    Ok((scale.with_marks(numbers, names), nice))
+}
+
+fn train_position_bare(channels: &[Channel], axis: &str, s: &ScaleSpec, layers: &[PlannedLayer]) -> Result<(PositionScale, bool), Errors> {
     let mut cats: Vec<String> = Vec::new();
     let mut seen = HashSet::new();
     let (mut lo, mut hi) = (f64::INFINITY, f64::NEG_INFINITY);
@@ -528,7 +556,7 @@ fn train_position(channels: &[Channel], axis: &str, s: &ScaleSpec, layers: &[Pla
     };
     if let Some((a, b)) = explicit_domain(s, axis)? {
         let (a, b) = if s.reverse { (b, a) } else { (a, b) };
-        return Ok((PositionScale::Continuous { lo: a, hi: b, transform, time, step: None }, false));
+        return Ok((PositionScale::Continuous { lo: a, hi: b, transform, time, step: None, marks: None }, false));
     }
     if !lo.is_finite() {
         lo = if matches!(transform, Transform::Log { .. }) { 1.0 } else { 0.0 };
@@ -567,7 +595,7 @@ fn train_position(channels: &[Channel], axis: &str, s: &ScaleSpec, layers: &[Pla
     if s.reverse {
         std::mem::swap(&mut lo, &mut hi);
     }
-    Ok((PositionScale::Continuous { lo, hi, transform, time, step: None }, nice))
+    Ok((PositionScale::Continuous { lo, hi, transform, time, step: None, marks: None }, nice))
 }
 
 /// `order` and `top` on a category axis: categories sorted by the value

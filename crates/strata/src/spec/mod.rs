@@ -370,9 +370,9 @@ pub struct ScaleSpec {
     /// LDML number or date pattern for labels.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub format: Option<String>,
-    /// Wanted number of ticks.
+    /// Wanted number of ticks, or the tick values themselves.
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub ticks: Option<u32>,
+    pub ticks: Option<Ticks>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub palette: Option<String>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
@@ -407,6 +407,25 @@ pub struct ScaleSpec {
     /// The unit of a value axis, written once above it.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub unit: Option<String>,
+}
+
+/// `ticks`: a wanted count, or the values to mark (numbers, dates as text,
+/// or categories).
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(untagged)]
+pub enum Ticks {
+    Count(u32),
+    Values(Vec<serde_json::Value>),
+}
+
+impl Ticks {
+    /// The wanted count, `None` for chosen values.
+    pub fn count(&self) -> Option<u32> {
+        match self {
+            Ticks::Count(n) => Some(*n),
+            Ticks::Values(_) => None,
+        }
+    }
 }
 
 /// `breaks`: `natural`, `quantile`, `equal`, or a list of numbers.

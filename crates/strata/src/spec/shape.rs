@@ -250,7 +250,11 @@ pub fn spec_shape() -> Shape {
         f("reverse", Shape::Bool, "Run the scale the other way."),
         f("title", text(), "Axis or legend title. Default: the column name; \"\" hides it."),
         f("format", Shape::Text("an LDML number or date pattern"), "Label pattern: LDML number (#,##0.0) or date (yyyy-MM-dd) pattern."),
-        f("ticks", count(0), "Wanted number of ticks."),
+        f(
+            "ticks",
+            Shape::Either(vec![count(0), list(Shape::Either(vec![num(None, None), Shape::Text("a category or date")]))]),
+            "Wanted number of ticks, or the tick values: numbers, dates as text, or categories.",
+        ),
         f("palette", Shape::Text("a palette name"), "Named palette for colour scales."),
         f("axis", Shape::Word(PLACEMENTS), "Where the axis goes: top, bottom, left, right, none."),
         f("legend", Shape::Word(PLACEMENTS), "Where the legend goes: top, bottom, left, right, none."),
