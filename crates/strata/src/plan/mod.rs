@@ -108,7 +108,7 @@ pub fn build_with_shapes(spec: &Spec, table: &Table, shapes: Option<Vec<crate::g
     // Categories on y with numbers on x: horizontal bars. The plan works
     // in turned terms (categories on x, values on y) and the scene draws x
     // down the page; the spec's x and y scales and notes turn with it.
-    let turned = layer::categories_on_y(&spec.layers, &extracted);
+    let turned = spec.coords == crate::spec::Coords::Cartesian && layer::categories_on_y(&spec.layers, &extracted);
     let turned_spec;
     let spec = if turned {
         turned_spec = layer::turn_spec(spec);
