@@ -49,3 +49,24 @@ with open("orchard_wind.csv", "w", newline="") as f:
     for d, wt in zip(directions, weights):
         for band, share in [("calm to light", 0.5), ("moderate", 0.35), ("strong", 0.15)]:
             w.writerow([d, band, int(round(wt * share * 20 * (0.8 + 0.4 * rng.random())))])
+
+# Change in yield per plot against last season, percent (gains and losses):
+# a second generator, so the files above keep their numbers.
+rng2 = random.Random(20261202)
+plots = ["Top meadow", "Old wall", "Pond side", "North hedge", "Nursery row", "Lane corner", "Well field", "Bee garden"]
+with open("orchard_plots.csv", "w", newline="") as f:
+    w = csv.writer(f)
+    w.writerow(["plot", "change_pct"])
+    for p in plots:
+        w.writerow([p, f"{rng2.gauss(2, 9):.1f}"])
+
+# Monthly rain at three gauges, one column a month (a wide table).
+with open("orchard_rain_wide.csv", "w", newline="") as f:
+    w = csv.writer(f)
+    w.writerow(["gauge"] + [m.lower() for m in months])
+    for gauge, wet in [("Hilltop", 1.25), ("Orchard gate", 1.0), ("Brook", 0.85)]:
+        row = [gauge]
+        for k in range(12):
+            season = 0.5 + 0.5 * math.cos((k - 0.5) / 12 * 2 * math.pi)
+            row.append(int(round(wet * (38 + 62 * season + rng2.gauss(0, 9)))))
+        w.writerow(row)

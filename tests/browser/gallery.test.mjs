@@ -29,7 +29,7 @@ after(async () => {
   await server?.close();
 });
 
-for (const id of ['points', 'lines', 'bars', 'histogram', 'boxes', 'trend', 'weather', 'windrose', 'dark', 'panels', 'seasons', 'isles-steps', 'isles-towns', 'isles-globe']) {
+for (const id of ['points', 'lines', 'bars', 'histogram', 'boxes', 'trend', 'weather', 'windrose', 'dark', 'panels', 'seasons', 'gates', 'plots', 'rain', 'isles-steps', 'isles-towns', 'isles-globe']) {
   test(`gallery chart "${id}" is byte-identical to the CLI`, async () => {
     const got = await page.evaluate((id) => {
       const el = document.getElementById(id);

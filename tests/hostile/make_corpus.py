@@ -106,6 +106,10 @@ case("budget", "600 derived columns", point(derive={f"extra_{i}": "a + 1" for i 
 # doubling it meets the cell budget; distinct texts meet the table budget.
 case("budget", "derives doubling one repeated text 24 times", {"data": {"rows": [{"a": i, "b": i, "k": "@repeat(1000,x)@"} for i in range(300)]}, "derive": {f"k{i + 1}": f"k{i} || k{i}" if i else "k || k" for i in range(24)}, "layers": [{"draw": "point", "x": "a", "y": "b"}]}, ("budget.cell", "derive.k"))
 case("budget", "derives doubling 3,000 distinct texts 24 times", {"data": {"rows": [{"a": i, "b": i, "k": f"t{i:04}"} for i in range(3000)]}, "derive": {f"k{i + 1}": f"k{i} || k{i}" if i else "k || k" for i in range(24)}, "layers": [{"draw": "point", "x": "a", "y": "b"}]}, ("budget.table", "derive.k"))
+case("budget", "201 chosen ticks", point(scales={"x": {"ticks": list(range(201))}}), ("spec.too_large", "scales.x.ticks"))
+case("budget", "200 chosen ticks draw", point(scales={"x": {"ticks": list(range(200))}}))
+# unpivot multiplies rows: refused before the long table is built.
+case("budget", "unpivot of 100 columns beside 100 kept ones, 5,000 rows", {"data": {"url": "d.csv"}, "unpivot": {"columns": [f"v{i}" for i in range(100)], "into": ["name", "value"]}, "layers": [{"draw": "point", "x": "name", "y": "value"}]}, ("budget.table", "unpivot"), data=",".join([f"k{i}" for i in range(100)] + [f"v{i}" for i in range(100)]) + "\n@repeat(5000," + ",".join(["1"] * 200) + "\n)@")
 case("budget", "150 layers of 10,000 rows", {"data": {"url": "d.csv"}, "layers": "@layers(150)@"}, ("budget.marks", "layers"), data="a,b,k\n@repeat(10000,1,2,x\n)@")
 case("budget", "2,000 colour categories", {"data": {"url": "d.csv"}, "layers": [{"draw": "point", "x": "n", "y": "n", "color": "c"}]}, ("budget.categories", "scales.color"), data="n,c\n@pairs(2000)@")
 case("budget", "500 colour categories draw", {"data": {"url": "d.csv"}, "layers": [{"draw": "point", "x": "n", "y": "n", "color": "c"}]}, data="n,c\n@pairs(500)@")

@@ -32,6 +32,11 @@ pub enum Channel {
     Key,
     /// Where a bar's or area's extent starts (0, or the top of the mark below it when stacked).
     YBase,
+    /// Where a stacked bar's or area's extent ends (the running total);
+    /// `y` keeps the row's own value.
+    YTop,
+    /// The total of a row's stack (the sum of the values sharing its x).
+    Total,
     /// Jitter or dodge within a band, as a fraction of the band (discrete x only).
     XOffset,
     /// Lower end of an interval around `y` (a summary's `interval`, a fit's confidence band).
@@ -82,6 +87,8 @@ impl Channel {
         ("group", Channel::Group),
         ("key", Channel::Key),
         ("y_base", Channel::YBase),
+        ("y_top", Channel::YTop),
+        ("total", Channel::Total),
         ("x_offset", Channel::XOffset),
         ("y_low", Channel::YLow),
         ("y_high", Channel::YHigh),
@@ -134,6 +141,8 @@ impl Channel {
             Channel::Group => "group",
             Channel::Key => "key",
             Channel::YBase => "y_base",
+            Channel::YTop => "y_top",
+            Channel::Total => "total",
             Channel::XOffset => "x_offset",
             Channel::YLow => "y_low",
             Channel::YHigh => "y_high",
@@ -161,7 +170,7 @@ impl Channel {
     /// Internal channels that only help drawing (where an extent starts, an
     /// offset in a band): left out of a mark's datum and of the data table.
     pub fn is_drawing_aid(self) -> bool {
-        matches!(self, Channel::YBase | Channel::XOffset)
+        matches!(self, Channel::YBase | Channel::YTop | Channel::XOffset)
     }
 }
 

@@ -65,6 +65,11 @@ fn layer_table(spec: &Spec, plan: &Plan, l: &PlannedLayer, out: &mut String) {
         // A range along x (bins, tiles): "from" and "to" read better than a bare start.
         (Channel::X, true) => format!("{} from", d.names.get(&Channel::X).map(String::as_str).unwrap_or("x")),
         (Channel::XEnd, true) => format!("{} to", d.names.get(&Channel::X).map(String::as_str).unwrap_or("x")),
+        // A proportion's y is the row's share of its stack.
+        (Channel::Y, _) if l.arrange == crate::spec::Arrange::Proportion && d.get(Channel::YTop).is_some() => {
+            format!("{} (share)", d.names.get(&Channel::Y).map(String::as_str).unwrap_or("y"))
+        }
+        (Channel::Total, _) => format!("{} (total)", d.names.get(&Channel::Y).map(String::as_str).unwrap_or("y")),
         _ => d.names.get(&ch).cloned().unwrap_or_else(|| added_name(ch, d)),
     };
     let mut cols: Vec<(String, Channel, &Values)> = Vec::new();
@@ -88,9 +93,14 @@ fn layer_table(spec: &Spec, plan: &Plan, l: &PlannedLayer, out: &mut String) {
         out.push_str(&format!("<th scope=\"col\">{}</th>", escape(c)));
     }
     out.push_str("</tr></thead><tbody>");
+    // A turned layer's x is the spec's y (`PlannedLayer::turned`).
+    let (xs, ys) = if l.turned { (Channel::Y, Channel::X) } else { (Channel::X, Channel::Y) };
+    let proportion = l.arrange == crate::spec::Arrange::Proportion;
     let pattern = |ch: Channel| match ch {
-        Channel::X | Channel::XEnd => spec.scales.get(&Channel::X).and_then(|s| s.format.as_deref()),
-        Channel::Y | Channel::YEnd | Channel::YLow | Channel::YHigh => spec.scales.get(&Channel::Y).and_then(|s| s.format.as_deref()),
+        Channel::X | Channel::XEnd => spec.scales.get(&xs).and_then(|s| s.format.as_deref()),
+        // A proportion's total is in the data's units, not the axis's shares.
+        Channel::Total if proportion => None,
+        Channel::Y | Channel::YEnd | Channel::YLow | Channel::YHigh | Channel::Total => spec.scales.get(&ys).and_then(|s| s.format.as_deref()),
         _ => None,
     };
     // Whole-number years print without grouping (see `plan::is_year_column`).

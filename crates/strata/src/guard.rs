@@ -80,12 +80,24 @@ pub fn check_spec_value(spec: &Value, errors: &mut Vec<Diagnostic>) {
     if let Some(scales) = spec.get("scales").and_then(Value::as_object) {
         for (name, s) in scales {
             // The layout thins labels by asking for one tick fewer at a time.
+            if let Some(list) = s.get("ticks").and_then(Value::as_array).filter(|l| l.len() > crate::scale::MAX_TICKS) {
+                errors.push(too_large(
+                    &format!("scales.{}.ticks", crate::expr::path_key(name)),
+                    format!("{} chosen ticks is more than the {} a scale can show", list.len(), crate::scale::MAX_TICKS),
+                ));
+            }
             if let Some(t) = s.get("ticks").and_then(Value::as_f64) {
                 if t > crate::scale::MAX_TICKS as f64 {
                     errors.push(too_large(
                         &format!("scales.{}.ticks", crate::expr::path_key(name)),
                         format!("{t} ticks is more than the {} a scale can show", crate::scale::MAX_TICKS),
                     ));
+                }
+            }
+            // Chosen colours (`values`) are CSS colours like any other.
+            if let Some(values) = s.get("values").and_then(Value::as_object) {
+                for (cat, c) in values {
+                    color(Some(c), &format!("scales.{}.values.{}", crate::expr::path_key(name), crate::expr::path_key(cat)), errors);
                 }
             }
             if let Some(p) = s.get("format").and_then(Value::as_str) {

@@ -171,6 +171,20 @@ fn check_width(opts: &RenderOptions) -> Result<(), Errors> {
     Ok(())
 }
 
+/// The table the plan reads: the spec's `derive` columns (and `where`), then
+/// `unpivot`, each within its budget.
+pub fn prepare_table(table: data::Table, spec: &Spec) -> Result<data::Table, Errors> {
+    let table = budget::apply_derives(table, spec)?;
+    match &spec.unpivot {
+        Some(u) => {
+            let t = data::unpivot::apply(table, u)?;
+            budget::check_table(&t, "unpivot")?;
+            Ok(t)
+        }
+        None => Ok(table),
+    }
+}
+
 fn render_stages(
     spec: &Spec,
     table: data::Table,
@@ -180,7 +194,7 @@ fn render_stages(
 ) -> Result<Rendered, Errors> {
     // Budgets at each stage boundary (budget.rs): the table after reading
     // and after each derive, marks and categories after planning, the SVG.
-    let table = budget::apply_derives(table, spec)?;
+    let table = prepare_table(table, spec)?;
     let plan = plan::build_with_shapes(spec, &table, shapes)?;
     budget::check_plan(&plan)?;
     let scene = scene::build(&plan, &opts.scene);

@@ -29,7 +29,10 @@ pub fn check(spec: &Spec, plan: Option<&Plan>) -> Vec<Diagnostic> {
     let y_spec = spec.scales.get(&Channel::Y).cloned().unwrap_or_default();
     let x_spec = spec.scales.get(&Channel::X).cloned().unwrap_or_default();
     // The value axis of bars is y, unless the plan shows categories on y and numbers on x.
+    // A turned plan (horizontal bars) holds the spec's x in its y scale.
+    let turned = plan.is_some_and(|p| p.chart.transposed);
     let value_axis = match plan {
+        _ if turned => "x",
         Some(p) if matches!(p.scales.y, PositionScale::Category { .. }) && matches!(p.scales.x, PositionScale::Continuous { .. }) => "x",
         _ => "y",
     };
@@ -53,7 +56,7 @@ pub fn check(spec: &Spec, plan: Option<&Plan>) -> Vec<Diagnostic> {
     if !log {
         if let Some(i) = spec.layers.iter().position(|l| matches!(l.draw, Geometry::Bar | Geometry::Area)) {
             let geom = spec.layers[i].draw.word();
-            let trained = plan.and_then(|p| match if value_axis == "x" { &p.scales.x } else { &p.scales.y } {
+            let trained = plan.and_then(|p| match if value_axis == "x" && !turned { &p.scales.x } else { &p.scales.y } {
                 PositionScale::Continuous { lo, hi, .. } => Some((lo.min(*hi), lo.max(*hi))),
                 _ => None,
             });
@@ -333,6 +336,16 @@ mod tests {
             rendered(&format!(r#"{{{data},"layers":[{{"draw":"bar","x":"k","y":"v"}}],"scales":{{"y":{{"domain":[40,60]}}}}}}"#)),
             vec!["lint.axis_without_zero"]
         );
+        // Horizontal bars (categories on y): the value axis is the spec's x, and the warning says so.
+        let r = crate::render(
+            &format!(r#"{{{data},"layers":[{{"draw":"bar","x":"v","y":"k"}}],"scales":{{"x":{{"domain":[40,60]}}}}}}"#),
+            None,
+            &crate::RenderOptions::default(),
+        )
+        .unwrap();
+        let w: Vec<(&str, &str)> = r.warnings.iter().filter(|d| d.code.starts_with("lint.")).map(|d| (d.code.as_str(), d.at.path.as_str())).collect();
+        assert_eq!(w, [("lint.axis_without_zero", "scales.x.domain")]);
+        assert!(rendered(&format!(r#"{{{data},"layers":[{{"draw":"bar","x":"v","y":"k"}}]}}"#)).is_empty());
         assert_eq!(rendered(&format!(r#"{{{data},"layers":[{{"draw":"point","x":"n","y":"v"}}],"coords":"polar"}}"#)), vec!["lint.polar_angle_not_cyclic"]);
         assert!(rendered(&format!(r#"{{{data},"layers":[{{"draw":"bar","x":"k","y":"v"}}],"coords":"polar"}}"#)).is_empty());
         assert!(rendered(&format!(r#"{{{data},"layers":[{{"draw":"point","x":"n","y":"v"}}],"coords":"polar","quiet":["lint.polar_angle_not_cyclic"]}}"#))

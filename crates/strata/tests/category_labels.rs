@@ -195,7 +195,7 @@ fn every_gallery_chart_names_every_category_at_phone_and_desktop_width() {
         }
         let data = || bytes.as_deref().map(|b| DataBytes { bytes: b, name: url.as_deref().unwrap_or("d.csv") });
         let table = strata::load_table(&spec, data()).unwrap();
-        let table = strata::budget::apply_derives(table, &spec).unwrap();
+        let table = strata::prepare_table(table, &spec).unwrap();
         let plan = strata::plan::build(&spec, &table).unwrap();
         let mut cats = Vec::new();
         categories(&plan, &mut cats);

@@ -247,21 +247,22 @@ fn statistics_count_and_stack_within_each_cell() {
     let spec = r#"{"layers":[{"draw":"bar","x":"k","y":"v","color":"part","arrange":"stack"}],"panels":{"rows":"side","cols":"zone"}}"#;
     let r = scene(spec, csv);
     let f = facets(&r.scene);
-    let tops: Vec<Vec<f64>> = f
+    let tops: Vec<Vec<(f64, f64)>> = f
         .iter()
         .map(|p| {
             p.node
                 .marks()
                 .into_iter()
                 .filter_map(|m| match m {
-                    Node::Rect { datum: Some(d), .. } => d["y"].as_f64(),
+                    Node::Rect { datum: Some(d), .. } => Some((d["y"].as_f64()?, d["total"].as_f64()?)),
                     _ => None,
                 })
                 .collect()
         })
         .collect();
-    // West: 1 then 1 + 2; east: 4 then 4 + 8 (not 3 + 4 and 3 + 4 + 8).
-    assert_eq!(tops, vec![vec![1.0, 3.0], vec![4.0, 12.0]]);
+    // Each segment reports its own value and its stack's total. West: 1 and 2
+    // of 3; east: 4 and 8 of 12 (not of 15, which a carried-over stack would give).
+    assert_eq!(tops, vec![vec![(1.0, 3.0), (2.0, 3.0)], vec![(4.0, 12.0), (8.0, 12.0)]]);
 }
 
 /// Pixels per data unit along y in each panel, from the first two points.

@@ -85,14 +85,21 @@ fn stacked_labels_sit_in_their_own_segment_with_contrast() {
     let mut texts: Vec<&str> = ls.iter().map(|l| l.text.as_str()).collect();
     texts.sort();
     assert_eq!(texts, ["18", "25", "30", "35", "42", "50"]);
+    let mut px_per_unit = Vec::new();
     for l in &ls {
         // Inside exactly one segment, which it contrasts with at 4.5:1 or more
         // (WCAG 2.1 success criterion 1.4.3, contrast minimum).
         let home: Vec<_> = bars.iter().filter(|b| l.bbox.1 >= b.1 - 0.5 && l.bbox.3 <= b.1 + b.3 + 0.5 && l.bbox.0 >= b.0 && l.bbox.2 <= b.0 + b.2).collect();
         assert_eq!(home.len(), 1, "{l:?} in {bars:?}");
+        // ... and it is the label's own segment: every segment's height is
+        // its label's value at one scale (a label placed from the running
+        // total sat in the segment below it and passed the check above).
+        px_per_unit.push(home[0].3 / l.text.parse::<f64>().unwrap());
         let c = contrast(&l.fill, &home[0].4).unwrap();
         assert!(c >= 4.5, "{} on {}: {c}", l.fill, home[0].4);
     }
+    let (lo, hi) = px_per_unit.iter().fold((f64::INFINITY, 0.0f64), |(a, b), v| (a.min(*v), b.max(*v)));
+    assert!(hi / lo < 1.01, "segments are not their labels' values: {px_per_unit:?}");
 }
 
 #[test]

@@ -17,6 +17,7 @@ pub mod ipc;
 pub mod json;
 mod nums;
 pub mod table;
+pub mod unpivot;
 
 pub use nums::Nums;
 pub use table::{Column, Table};

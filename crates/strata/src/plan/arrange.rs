@@ -20,6 +20,19 @@ use std::collections::HashMap;
 /// Seed of the jitter generator; the layer index is mixed in.
 const JITTER_SEED: u64 = 0x5354_5241_5441_0001;
 
+/// The data's resolution along x for bars on a continuous x without an
+/// `x_end`: the smallest gap between distinct x values. A bar is that wide
+/// times its share (`style.share`), so neighbours never overlap.
+pub fn bar_step(geometry: Geometry, data: &LayerData) -> Option<f64> {
+    if geometry != Geometry::Bar || data.get(Channel::XEnd).is_some() {
+        return None;
+    }
+    match data.get(Channel::X)? {
+        Values::Num(v) | Values::Time(v) => Some(resolution(v)),
+        Values::Text(_) => None,
+    }
+}
+
 pub fn apply(index: usize, layer: &Layer, geometry: Geometry, mut data: LayerData) -> LayerData {
     if layer.arrange == Arrange::Jitter {
         jitter(index, &mut data);
@@ -37,7 +50,6 @@ pub fn apply(index: usize, layer: &Layer, geometry: Geometry, mut data: LayerDat
         data.channels.insert(Channel::Text, Values::Num(ys.clone()));
     }
     let mut base = vec![Some(0.0); data.len];
-    let mut top: Vec<Option<f64>> = ys.iter().collect();
     if layer.arrange == Arrange::Stack || layer.arrange == Arrange::Proportion {
         // Each stack (rows sharing x and panel) by its key, found by hash so
         // that many stacks stay linear: running totals upward and downward.
@@ -50,6 +62,7 @@ pub fn apply(index: usize, layer: &Layer, geometry: Geometry, mut data: LayerDat
             .collect();
         let mut up = vec![0.0f64; slot_of.len()];
         let mut down = vec![0.0f64; slot_of.len()];
+        let mut top: Vec<Option<f64>> = vec![None; data.len];
         for i in 0..data.len {
             let Some(y) = ys.get(i) else { continue };
             let acc = if y >= 0.0 { &mut up[slots[i]] } else { &mut down[slots[i]] };
@@ -57,17 +70,25 @@ pub fn apply(index: usize, layer: &Layer, geometry: Geometry, mut data: LayerDat
             *acc += y;
             top[i] = Some(*acc);
         }
+        // `y` keeps each row's own value (what the data table, tooltips and
+        // labels report); `y_top` is where its extent ends; `total` is its
+        // stack's sum.
+        let mut own: Vec<Option<f64>> = ys.iter().collect();
+        let total: Vec<Option<f64>> = (0..data.len).map(|i| ys.get(i).map(|_| up[slots[i]] + down[slots[i]])).collect();
         if layer.arrange == Arrange::Proportion {
             for i in 0..data.len {
-                let total = up[slots[i]].abs() + down[slots[i]].abs();
-                if total > 0.0 {
-                    base[i] = base[i].map(|b| b / total);
-                    top[i] = top[i].map(|t| t / total);
+                let whole = up[slots[i]].abs() + down[slots[i]].abs();
+                if whole > 0.0 {
+                    base[i] = base[i].map(|b| b / whole);
+                    top[i] = top[i].map(|t| t / whole);
+                    own[i] = own[i].map(|v| v / whole);
                 }
             }
+            data.channels.insert(Channel::Y, Values::Num(own.into()));
         }
+        data.channels.insert(Channel::YTop, Values::Num(top.into()));
+        data.channels.insert(Channel::Total, Values::Num(total.into()));
     }
-    data.channels.insert(Channel::Y, Values::Num(top.into()));
     data.channels.insert(Channel::YBase, Values::Num(base.into()));
     data
 }
@@ -83,7 +104,7 @@ fn stack_key(data: &LayerData, i: usize) -> Option<String> {
 }
 
 /// Smallest gap between distinct finite values (1 when there is none).
-fn resolution(v: &Nums) -> f64 {
+pub(super) fn resolution(v: &Nums) -> f64 {
     let mut s: Vec<f64> = v.present().collect();
     s.sort_by(f64::total_cmp);
     s.dedup();

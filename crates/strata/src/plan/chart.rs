@@ -23,9 +23,9 @@ pub struct Chart {
     /// (4 to 72 px); the scene sizes every other text in proportion.
     pub font_size: Option<f64>,
     pub coords: Coords,
-    /// The x scale runs down the page and y across (horizontal bars). No
-    /// spec sets it yet: `coords: "flip"` is retired, and orientation that
-    /// follows the data (categories on y) is still to be planned here.
+    /// The x scale runs down the page and y across (horizontal bars): set by
+    /// `plan::build` when bars have categories on y and numbers on x
+    /// (`coords: "flip"` is retired: the orientation follows the data).
     pub transposed: bool,
     pub notes: Vec<Note>,
     pub panels: PanelLayout,

@@ -5,7 +5,7 @@ use crate::channel::Channel;
 use crate::data::Column;
 use crate::data::Table;
 use crate::error::{Diagnostic, Errors};
-use crate::spec::{ColumnType, Layer, Panels};
+use crate::spec::{ColumnType, Geometry, IndependentAxes, Layer, Panels, Spec};
 
 pub fn extract(index: usize, layer: &Layer, table: &Table) -> Result<LayerData, Errors> {
     let names = table.column_names();
@@ -124,6 +124,107 @@ pub fn to_values(col: &Column, as_type: Option<ColumnType>) -> Values {
             Values::Time(v.iter().map(|y| y.map(|y| crate::calendar::days_from_civil(y as i64, 1, 1) as f64 * 86_400_000.0)).collect())
         }
         (_, v) => v,
+    }
+}
+
+/// Whether the chart's bars (or boxes) have categories on y and numbers
+/// (or nothing) on x: then the orientation follows the data and the bars
+/// lie across, in reading order from top to bottom.
+pub fn categories_on_y(layers: &[Layer], data: &[Option<LayerData>]) -> bool {
+    layers.iter().zip(data).any(|(l, d)| {
+        let Some(d) = d else { return false };
+        matches!(l.draw, Geometry::Bar | Geometry::Box)
+            && matches!(d.get(Channel::Y), Some(Values::Text(_)))
+            && !matches!(d.get(Channel::X), Some(Values::Text(_)))
+    })
+}
+
+/// The position channel pairs that trade places when a chart turns.
+const TURNED: [(Channel, Channel); 2] = [(Channel::X, Channel::Y), (Channel::XEnd, Channel::YEnd)];
+
+/// Swap a layer's x and y channels (and their ends) for a turned chart.
+pub fn turn(d: &mut LayerData) {
+    for (a, b) in TURNED {
+        let (va, vb) = (d.channels.shift_remove(&a), d.channels.shift_remove(&b));
+        let (na, nb) = (d.names.shift_remove(&a), d.names.shift_remove(&b));
+        if let Some(v) = vb {
+            d.channels.insert(a, v);
+        }
+        if let Some(v) = va {
+            d.channels.insert(b, v);
+        }
+        if let Some(n) = nb {
+            d.names.insert(a, n);
+        }
+        if let Some(n) = na {
+            d.names.insert(b, n);
+        }
+    }
+    d.channels.sort_keys();
+    d.names.sort_keys();
+}
+
+/// The spec as a turned chart sees it: the x and y scales, the notes'
+/// positions and free panel axes trade places.
+pub fn turn_spec(spec: &Spec) -> Spec {
+    let mut s = spec.clone();
+    let (x, y) = (s.scales.shift_remove(&Channel::X), s.scales.shift_remove(&Channel::Y));
+    if let Some(v) = y {
+        s.scales.insert(Channel::X, v);
+    }
+    if let Some(v) = x {
+        s.scales.insert(Channel::Y, v);
+    }
+    for n in &mut s.notes {
+        std::mem::swap(&mut n.x, &mut n.y);
+        std::mem::swap(&mut n.x_end, &mut n.y_end);
+    }
+    if let Some(p) = &mut s.panels {
+        p.independent = p.independent.map(|i| match i {
+            IndependentAxes::X => IndependentAxes::Y,
+            IndependentAxes::Y => IndependentAxes::X,
+            other => other,
+        });
+    }
+    s
+}
+
+/// The category that gathers the categories past a scale's `top`.
+pub const OTHER: &str = "Other";
+
+/// `top` on a category axis: keep the `n` categories with the largest
+/// totals of `y` over every layer (row counts where `y` holds no numbers),
+/// and relabel the rest "Other", before the statistics, so that a count or
+/// a summary of "Other" covers all of their rows. Ties keep the data's order.
+pub fn gather_top(data: &mut [Option<LayerData>], ch: Channel, n: usize) {
+    let mut totals: indexmap::IndexMap<String, f64> = indexmap::IndexMap::new();
+    for d in data.iter().flatten() {
+        let Some(Values::Text(cats)) = d.get(ch) else { continue };
+        let value_ch = if ch == Channel::X { Channel::Y } else { Channel::X };
+        let ys = d.get(value_ch).filter(|v| !v.is_discrete());
+        for (i, c) in cats.iter().enumerate() {
+            let Some(c) = c else { continue };
+            let add = match ys {
+                Some(v) => v.num(i).unwrap_or(0.0),
+                None => 1.0,
+            };
+            *totals.entry(c.clone()).or_insert(0.0) += add;
+        }
+    }
+    if totals.len() <= n {
+        return;
+    }
+    let mut ranked: Vec<(usize, &String, f64)> = totals.iter().enumerate().map(|(i, (k, v))| (i, k, *v)).collect();
+    ranked.sort_by(|a, b| b.2.total_cmp(&a.2).then(a.0.cmp(&b.0)));
+    let keep: std::collections::HashSet<String> = ranked.iter().take(n).map(|r| r.1.clone()).collect();
+    for d in data.iter_mut().flatten() {
+        if let Some(Values::Text(cats)) = d.channels.get_mut(&ch) {
+            for c in cats.iter_mut().flatten() {
+                if !keep.contains(c.as_str()) {
+                    *c = OTHER.to_string();
+                }
+            }
+        }
     }
 }
 

@@ -27,7 +27,7 @@ pub use crate::spec::{AngleChannel, Arrange, Coords, Geometry, Note, Placement, 
 
 use crate::data::Table;
 use crate::error::{Diagnostic, Errors};
-use crate::spec::Spec;
+use crate::spec::{Layer, Spec};
 use indexmap::IndexMap;
 
 /// A layer's rows after its statistic and position adjustment, keyed by
@@ -59,6 +59,12 @@ pub struct PlannedLayer {
     pub arrange: Arrange,
     pub style: Style,
     pub data: LayerData,
+    /// Bars on a continuous x: the data's resolution along x (smallest gap
+    /// between distinct values, data units), which sets their width.
+    pub x_step: Option<f64>,
+    /// The layer was turned for horizontal bars: its `x` holds the spec's
+    /// `y` and the other way round (output names them as the spec did).
+    pub turned: bool,
     /// `label_ends`: name each series at its last point.
     pub label_ends: bool,
 }
@@ -90,24 +96,78 @@ pub fn build_with_shapes(spec: &Spec, table: &Table, shapes: Option<Vec<crate::g
     if let Err(e) = layer::check_panels(spec.panels.as_ref(), table) {
         errors.extend(e.0);
     }
+    // Every layer's channels first: the orientation follows the data of all of them.
+    let mut extracted = Vec::with_capacity(spec.layers.len());
+    for (i, l) in spec.layers.iter().enumerate() {
+        match layer::extract(i, l, table).map(|d| layer::with_panel(d, spec.panels.as_ref(), table)) {
+            Ok(d) => extracted.push(Some(d)),
+            Err(e) => {
+                errors.extend(e.0);
+                extracted.push(None);
+            }
+        }
+    }
+    // Categories on y with numbers on x: horizontal bars. The plan works
+    // in turned terms (categories on x, values on y) and the scene draws x
+    // down the page; the spec's x and y scales and notes turn with it.
+    let turned = spec.coords == crate::spec::Coords::Cartesian && layer::categories_on_y(&spec.layers, &extracted);
+    let turned_spec;
+    let spec = if turned {
+        turned_spec = layer::turn_spec(spec);
+        &turned_spec
+    } else {
+        spec
+    };
+    if turned {
+        for d in extracted.iter_mut().flatten() {
+            layer::turn(d);
+        }
+    }
+    // `top` on a category axis: the rest gathered into "Other" before the
+    // statistics; bars without one sum what was gathered.
+    let mut summed = Vec::new();
+    for ch in [Channel::X, Channel::Y] {
+        if let Some(n) = spec.scales.get(&ch).and_then(|s| s.top) {
+            layer::gather_top(&mut extracted, ch, n as usize);
+            summed.push(ch);
+        }
+    }
+    // The layer each statistic runs as: bars under `top` without a
+    // statistic sum what was gathered.
+    let run: Vec<Layer> = spec
+        .layers
+        .iter()
+        .map(|l| {
+            if summed.contains(&Channel::X) && l.draw == Geometry::Bar && l.stat == crate::spec::Stat::None {
+                Layer {
+                    stat: crate::spec::Stat::Object(crate::spec::StatObject { summary: Some(crate::spec::SummaryWord::Sum), ..Default::default() }),
+                    ..l.clone()
+                }
+            } else {
+                l.clone()
+            }
+        })
+        .collect();
     // A density over a count histogram is scaled to its counts, so the
     // histogram's statistic runs first (issue 12 item 11).
-    let over: Vec<Option<usize>> = (0..spec.layers.len()).map(|i| stat::count_histogram_of(&spec.layers, i)).collect();
-    let mut stated: Vec<Option<Result<stat::Stated, Errors>>> = (0..spec.layers.len()).map(|_| None).collect();
+    let over: Vec<Option<usize>> = (0..run.len()).map(|i| stat::count_histogram_of(&run, i)).collect();
+    let mut stated: Vec<Option<Result<stat::Stated, Errors>>> = (0..run.len()).map(|_| None).collect();
     for pass in 0..2 {
-        for (i, l) in spec.layers.iter().enumerate() {
+        for i in 0..run.len() {
             if over[i].is_some() != (pass == 1) {
                 continue;
             }
+            let Some(d) = extracted[i].take() else { continue };
             let on = over[i].map(|h| match &stated[h] {
-                Some(Ok(s)) => stat::on_counts(h, &spec.layers[h], &s.data),
+                Some(Ok(s)) => stat::on_counts(h, &run[h], &s.data),
                 _ => stat::OnCounts::Warn(h),
             });
-            stated[i] = Some(layer::extract(i, l, table).map(|d| layer::with_panel(d, spec.panels.as_ref(), table)).and_then(|d| stat::apply(i, l, d, on)));
+            stated[i] = Some(stat::apply(i, &run[i], d, on));
         }
     }
-    for (i, l) in spec.layers.iter().enumerate() {
-        match stated[i].take().expect("every layer ran its statistic") {
+    for (i, l) in run.iter().enumerate() {
+        let Some(result) = stated[i].take() else { continue };
+        match result {
             Ok(s) => {
                 let n = stat::element_count(s.geometry, &s.data);
                 if n > stat::MAX_ELEMENTS {
@@ -116,7 +176,17 @@ pub fn build_with_shapes(spec: &Spec, table: &Table, shapes: Option<Vec<crate::g
                 }
                 warnings.extend(s.warnings);
                 let data = arrange::apply(i, l, s.geometry, s.data);
-                layers.push(PlannedLayer { index: i, geometry: s.geometry, arrange: l.arrange, style: l.style.clone(), data, label_ends: l.label_ends })
+                let x_step = arrange::bar_step(s.geometry, &data);
+                layers.push(PlannedLayer {
+                    index: i,
+                    geometry: s.geometry,
+                    arrange: l.arrange,
+                    style: l.style.clone(),
+                    data,
+                    x_step,
+                    turned,
+                    label_ends: l.label_ends,
+                })
             }
             Err(e) => errors.extend(e.0),
         }
@@ -126,11 +196,14 @@ pub fn build_with_shapes(spec: &Spec, table: &Table, shapes: Option<Vec<crate::g
     }
     panels::check_count(spec, &layers)?;
     let scales = scales::train(spec, &layers)?;
+    warnings.extend(scales::chosen_color_warnings(&scales));
     let map = match map::coords(spec) {
         Some(m) => Some(map::resolve(spec, &m, shapes, &layers, &mut warnings)?),
         None => None,
     };
-    let mut plan = Plan { layers, scales, warnings, chart: Chart::of(spec), panels: None, map };
+    let mut chart = Chart::of(spec);
+    chart.transposed = turned;
+    let mut plan = Plan { layers, scales, warnings, chart, panels: None, map };
     plan.panels = panels::split(spec, &plan);
     if plan.chart.description.is_none() {
         plan.chart.description = Some(summary::describe(&plan));

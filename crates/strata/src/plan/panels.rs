@@ -138,6 +138,8 @@ fn cut(plan: &Plan, channels: &[(Channel, &IndexSet<String>)], independent: (boo
                 arrange: l.arrange,
                 style: l.style.clone(),
                 data: take_rows(&l.data, rows),
+                x_step: l.x_step,
+                turned: l.turned,
                 label_ends: l.label_ends,
             });
         }

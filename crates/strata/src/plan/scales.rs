@@ -53,7 +53,14 @@ pub struct Scales {
     pub locale: &'static Locale,
     /// Each colour category's place in the `color` list, for lookups by hash.
     pub color_index: HashMap<String, usize>,
+    /// Chosen colours by category (`scales.color.values`), and the colour
+    /// of every other category (its key `other`).
+    pub color_values: HashMap<String, String>,
+    pub color_other: Option<String>,
 }
+
+/// The key of `scales.color.values` that colours every category not named.
+pub const OTHER_KEY: &str = "other";
 
 impl Scales {
     /// The colour of row `i` of a colour column, if the scale maps it.
@@ -62,6 +69,10 @@ impl Scales {
             (ColorScale::Categories(cats), scheme) => {
                 let k = vals.key(i)?;
                 let idx = *self.color_index.get(&k)?;
+                // Chosen colours first, then `other`, then the palette.
+                if let Some(c) = self.color_values.get(&k).or(self.color_other.as_ref()) {
+                    return Some(c.clone());
+                }
                 Some(match scheme {
                     Scheme::Categorical(_, list) => list[idx % list.len()].to_string(),
                     // A ramp for categories: evenly spaced samples.
@@ -77,6 +88,32 @@ impl Scales {
                 Some(self.step_color(c, bounds.len(), scheme))
             }
         }
+    }
+
+    /// The colour legend's items for categories: each category with its
+    /// colour, except that two or more categories that `other` colours are
+    /// gathered into one item, "Other", after the rest.
+    pub fn category_legend(&self) -> Vec<(String, String)> {
+        let Some(ColorScale::Categories(cats)) = &self.color else { return Vec::new() };
+        let vals = Values::Text(cats.iter().cloned().map(Some).collect());
+        let mut items: Vec<(String, String)> = Vec::new();
+        let mut others: Vec<&String> = Vec::new();
+        for (i, c) in cats.iter().enumerate() {
+            if self.color_other.is_some() && !self.color_values.contains_key(c) {
+                others.push(c);
+                continue;
+            }
+            items.push((c.clone(), self.color_of(&vals, i).unwrap_or_default()));
+        }
+        // One category in the `other` colour keeps its own name.
+        if let Some(o) = &self.color_other {
+            match others.as_slice() {
+                [] => {}
+                [one] => items.push(((*one).clone(), o.clone())),
+                _ => items.push(("Other".to_string(), o.clone())),
+            }
+        }
+        items
     }
 
     /// Colour of class `c` of `n` on a `steps` scale.
@@ -162,7 +199,7 @@ fn domain_error(axis: &str) -> Errors {
 
 /// The channels each position scale is trained on.
 const X_CHANNELS: &[Channel] = &[Channel::X, Channel::XEnd];
-const Y_CHANNELS: &[Channel] = &[Channel::Y, Channel::YEnd, Channel::YBase, Channel::YLow, Channel::YHigh];
+const Y_CHANNELS: &[Channel] = &[Channel::Y, Channel::YEnd, Channel::YBase, Channel::YTop, Channel::YLow, Channel::YHigh];
 
 /// Train the x and/or y scale of `scales` again on `layers` alone (one
 /// panel's rows, for `panels.independent`), as [`train`] trains them on every row.
@@ -189,7 +226,15 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
     }
     let (x, x_nice) = train_position(X_CHANNELS, "x", &x_spec, layers)?;
     let (y, y_nice) = train_position(Y_CHANNELS, "y", &y_spec, layers)?;
-    let title = |ch: Channel, s: &ScaleSpec| s.title.clone().unwrap_or_else(|| layers.iter().find_map(|l| l.data.names.get(&ch).cloned()).unwrap_or_default());
+    // A value axis's `unit` joins its title, written once above the axis: "Rain (mm)", or the unit alone.
+    let title = |ch: Channel, s: &ScaleSpec| {
+        let t = s.title.clone().unwrap_or_else(|| layers.iter().find_map(|l| l.data.names.get(&ch).cloned()).unwrap_or_default());
+        match s.unit.as_deref().filter(|u| !u.is_empty()) {
+            Some(u) if t.is_empty() => u.to_string(),
+            Some(u) => format!("{t} ({u})"),
+            None => t,
+        }
+    };
     // Legends: the scale's title, else the column's name made readable.
     let legend_title = |ch: Channel, s: &ScaleSpec| {
         s.title.clone().unwrap_or_else(|| layers.iter().find_map(|l| l.data.names.get(&ch).map(|n| text::readable_name(n))).unwrap_or_default())
@@ -265,6 +310,9 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
             color_index.entry(c.clone()).or_insert(i);
         }
     }
+    // A category literally called `other` takes the `other` colour too.
+    let color_values: HashMap<String, String> =
+        color_spec.values.iter().flatten().filter(|(k, _)| k.as_str() != OTHER_KEY || cats_has(&color, k)).map(|(k, v)| (k.clone(), v.clone())).collect();
     Ok(Scales {
         x_title: title(Channel::X, &x_spec),
         y_title: title(Channel::Y, &y_spec),
@@ -278,7 +326,6 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
         x_spec,
         y_spec,
         color,
-        color_spec,
         color_scheme,
         color_mid,
         size,
@@ -287,7 +334,43 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
         shape_spec,
         locale,
         color_index,
+        color_values,
+        color_other: color_spec.values.as_ref().and_then(|v| v.get(OTHER_KEY).cloned()),
+        color_spec,
     })
+}
+
+fn cats_has(color: &Option<ColorScale>, k: &str) -> bool {
+    matches!(color, Some(ColorScale::Categories(c)) if c.iter().any(|x| x == k))
+}
+
+/// Warnings about chosen colours: a `values` key that names no category
+/// (a typo leaves that category in the palette's colour), with a
+/// did-you-mean; chosen colours on a scale that has no categories.
+pub fn chosen_color_warnings(scales: &Scales) -> Vec<Diagnostic> {
+    let Some(values) = &scales.color_spec.values else { return Vec::new() };
+    let cats = match &scales.color {
+        Some(ColorScale::Categories(c)) => c,
+        _ => {
+            return vec![Diagnostic::warning("spec.no_effect", "`values` chooses colours for categories, but the colour scale has none")
+                .at_path("scales.color.values")
+                .with_hint("map `color` to a column of categories (text), or use `palette` for numbers")]
+        }
+    };
+    let known: HashSet<&str> = cats.iter().map(String::as_str).collect();
+    let mut out = Vec::new();
+    for k in values.keys() {
+        if k == OTHER_KEY || known.contains(k.as_str()) {
+            continue;
+        }
+        let d = Diagnostic::warning("spec.unknown_category", format!("`{k}` is not a category of the colour column, so its colour is not used"))
+            .at_path(format!("scales.color.values.{}", crate::expr::path_key(k)));
+        out.push(match crate::spec::closest(k, cats.iter().map(String::as_str)) {
+            Some(s) => d.with_hint(format!("did you mean `{s}`?")),
+            None => d.with_hint(format!("the categories are: {}", cats.iter().take(12).cloned().collect::<Vec<_>>().join(", "))),
+        });
+    }
+    out
 }
 
 /// Append the values of `v` not seen yet, in order of first appearance
@@ -363,8 +446,36 @@ fn explicit_domain(s: &ScaleSpec, axis: &str) -> Result<Option<(f64, f64)>, Erro
     Ok(Some((nums[0], nums[1])))
 }
 
-/// A trained position scale and whether its domain is still to be made nice.
+/// A trained position scale and whether its domain is still to be made
+/// nice, with the tick values the spec chose (`ticks: [...]`).
 fn train_position(channels: &[Channel], axis: &str, s: &ScaleSpec, layers: &[PlannedLayer]) -> Result<(PositionScale, bool), Errors> {
+    let (scale, nice) = train_position_bare(channels, axis, s, layers)?;
+    let Some(crate::spec::Ticks::Values(list)) = &s.ticks else { return Ok((scale, nice)) };
+    let names: Vec<String> = list.iter().map(json_word).collect();
+    let mut numbers = Vec::with_capacity(list.len());
+    for (i, v) in list.iter().enumerate() {
+        let n = if scale.is_time() {
+            v.as_str().and_then(|t| {
+                crate::calendar::parse_date(t).map(|d| d as f64 * 86_400_000.0).or_else(|| crate::calendar::parse_datetime(t).map(|ms| ms as f64))
+            })
+        } else {
+            v.as_f64()
+        };
+        match n {
+            Some(n) => numbers.push(n),
+            None if !scale.is_discrete() => {
+                let want = if scale.is_time() { "a date, such as \"2024-01-01\"" } else { "a number" };
+                return Err(Diagnostic::error("spec.bad_ticks", format!("each chosen tick on the {axis} axis must be {want}"))
+                    .at_path(format!("scales.{axis}.ticks[{i}]"))
+                    .into());
+            }
+            None => {}
+        }
+    }
+    Ok((scale.with_marks(numbers, names), nice))
+}
+
+fn train_position_bare(channels: &[Channel], axis: &str, s: &ScaleSpec, layers: &[PlannedLayer]) -> Result<(PositionScale, bool), Errors> {
     let mut cats: Vec<String> = Vec::new();
     let mut seen = HashSet::new();
     let (mut lo, mut hi) = (f64::INFINITY, f64::NEG_INFINITY);
@@ -380,13 +491,15 @@ fn train_position(channels: &[Channel], axis: &str, s: &ScaleSpec, layers: &[Pla
                 Some(vals @ (Values::Num(_) | Values::Time(_))) => {
                     any_num = true;
                     time |= matches!(vals, Values::Time(_));
-                    if ch == Channel::YBase || (ch == Channel::Y && matches!(l.geometry, Geometry::Bar | Geometry::Area)) {
+                    if ch == Channel::YBase || ch == Channel::YTop || (ch == Channel::Y && matches!(l.geometry, Geometry::Bar | Geometry::Area)) {
                         extent = true;
                     }
                     if let Values::Num(v) | Values::Time(v) = vals {
                         if let Some((a, b)) = v.extent() {
-                            lo = lo.min(a);
-                            hi = hi.max(b);
+                            // Bars on a continuous x: room for the whole first and last bar.
+                            let pad = if ch == Channel::X { l.x_step.map_or(0.0, |s| s / 2.0) } else { 0.0 };
+                            lo = lo.min(a - pad);
+                            hi = hi.max(b + pad);
                         }
                     }
                 }
@@ -401,6 +514,14 @@ fn train_position(channels: &[Channel], axis: &str, s: &ScaleSpec, layers: &[Pla
         } else if !any_text && any_num {
             // Numbers asked to be categories: sorted distinct values.
             cats = num_as_text_position(layers, channels);
+        }
+        if s.order.is_some() || s.top.is_some() {
+            order_categories(&mut cats, s, channels, layers);
+        }
+        // Units run bottom-up; categories on a vertical axis read top-down,
+        // in data (or domain) order, so the list is turned.
+        if axis == "y" {
+            cats.reverse();
         }
         if s.reverse {
             cats.reverse();
@@ -435,7 +556,7 @@ fn train_position(channels: &[Channel], axis: &str, s: &ScaleSpec, layers: &[Pla
     };
     if let Some((a, b)) = explicit_domain(s, axis)? {
         let (a, b) = if s.reverse { (b, a) } else { (a, b) };
-        return Ok((PositionScale::Continuous { lo: a, hi: b, transform, time, step: None }, false));
+        return Ok((PositionScale::Continuous { lo: a, hi: b, transform, time, step: None, marks: None }, false));
     }
     if !lo.is_finite() {
         lo = if matches!(transform, Transform::Log { .. }) { 1.0 } else { 0.0 };
@@ -465,11 +586,53 @@ fn train_position(channels: &[Channel], axis: &str, s: &ScaleSpec, layers: &[Pla
         hi += pad;
     }
     // Nice ends wait for the layout, which knows how many ticks fit.
-    let nice = s.nice.unwrap_or(true);
+    // Time scales keep the data's own ends unless asked (`nice: true`):
+    // 1958-2001 is not drawn on 1950-2010.
+    // Bars on a continuous x already end half a step past the data: their
+    // axis is not rounded out further unless asked.
+    let bars = channels.contains(&Channel::X) && layers.iter().any(|l| l.x_step.is_some());
+    let nice = s.nice.unwrap_or(!time && !bars);
     if s.reverse {
         std::mem::swap(&mut lo, &mut hi);
     }
-    Ok((PositionScale::Continuous { lo, hi, transform, time, step: None }, nice))
+    Ok((PositionScale::Continuous { lo, hi, transform, time, step: None, marks: None }, nice))
+}
+
+/// `order` and `top` on a category axis: categories sorted by the value
+/// drawn for them (a stack's total, else the sum of the layer's values at
+/// the category, the largest over layers; ties keep the data's order), and
+/// "Other" (see `top`) last.
+fn order_categories(cats: &mut Vec<String>, s: &ScaleSpec, channels: &[Channel], layers: &[PlannedLayer]) {
+    use crate::spec::CategoryOrder;
+    if let Some(order) = s.order {
+        let value_ch = if channels.contains(&Channel::X) { Channel::Y } else { Channel::X };
+        let mut drawn: HashMap<String, f64> = HashMap::new();
+        for l in layers {
+            let (Some(Values::Text(keys)), Some(v)) = (l.data.get(channels[0]), l.data.get(Channel::Total).or(l.data.get(value_ch))) else { continue };
+            let stacked = l.data.get(Channel::Total).is_some();
+            let mut mine: HashMap<&str, f64> = HashMap::new();
+            for (i, k) in keys.iter().enumerate() {
+                let (Some(k), Some(x)) = (k, v.num(i)) else { continue };
+                let e = mine.entry(k.as_str()).or_insert(0.0);
+                *e = if stacked { x } else { *e + x };
+            }
+            for (k, x) in mine {
+                let e = drawn.entry(k.to_string()).or_insert(f64::NEG_INFINITY);
+                *e = e.max(x);
+            }
+        }
+        let at = |c: &String| drawn.get(c).copied().unwrap_or(f64::NEG_INFINITY);
+        match order {
+            CategoryOrder::Ascending => cats.sort_by(|a, b| at(a).total_cmp(&at(b))),
+            CategoryOrder::Descending => cats.sort_by(|a, b| at(b).total_cmp(&at(a))),
+        }
+    }
+    if s.top.is_some() {
+        if let Some(p) = cats.iter().position(|c| c == super::layer::OTHER) {
+            let other = cats.remove(p);
+            cats.push(other);
+        }
+    }
 }
 
 fn positive_min(layers: &[PlannedLayer], channels: &[Channel]) -> Option<f64> {
@@ -525,7 +688,7 @@ mod tests {
         let mut data = LayerData { len: xs.len(), ..Default::default() };
         data.channels.insert(Channel::X, Values::Num(xs.into()));
         data.channels.insert(Channel::Y, Values::Num(ys.into()));
-        PlannedLayer { index: 0, geometry, arrange: Arrange::None, style: Style::default(), data, label_ends: false }
+        PlannedLayer { index: 0, geometry, arrange: Arrange::None, style: Style::default(), data, x_step: None, turned: false, label_ends: false }
     }
 
     fn spec(scales: &str) -> Spec {

@@ -155,14 +155,18 @@ fn stack_puts_negatives_below_zero_on_their_own() {
     let d = &plan.layers[0].data;
     let col = |c: Channel| (0..d.len).map(|i| d.get(c).unwrap().num(i).unwrap()).collect::<Vec<_>>();
     assert_eq!(col(Channel::YBase), vec![0.0, 0.0, 3.0, -2.0, 0.0, 1.0]);
-    assert_eq!(col(Channel::Y), vec![3.0, -2.0, 7.0, -3.0, 1.0, 2.0]);
+    // Tops are running totals; y keeps each row's own value, total the stack's sum (3 - 2 + 4 - 1 = 4).
+    assert_eq!(col(Channel::YTop), vec![3.0, -2.0, 7.0, -3.0, 1.0, 2.0]);
+    assert_eq!(col(Channel::Y), vec![3.0, -2.0, 4.0, -1.0, 1.0, 1.0]);
+    assert_eq!(col(Channel::Total), vec![4.0, 4.0, 4.0, 4.0, 2.0, 2.0]);
 
     let spec = crate::parse_spec(r#"{"layers":[{"draw":"bar","x":"x","y":"v","color":"s","arrange":"proportion"}]}"#).unwrap();
     let plan = crate::plan::build(&spec, &table).unwrap();
     let d = &plan.layers[0].data;
     let col = |c: Channel| (0..d.len).map(|i| d.get(c).unwrap().num(i).unwrap()).collect::<Vec<_>>();
     // x = a: |3| + |-2| + |4| + |-1| = 10.
-    assert_eq!(col(Channel::Y), vec![0.3, -0.2, 0.7, -0.3, 0.5, 1.0]);
+    assert_eq!(col(Channel::YTop), vec![0.3, -0.2, 0.7, -0.3, 0.5, 1.0]);
+    assert_eq!(col(Channel::Y), vec![0.3, -0.2, 0.4, -0.1, 0.5, 0.5]);
 }
 
 #[test]

@@ -75,13 +75,18 @@ pub enum PositionScale {
     /// Numbers (or times in ms when `time`) from `lo` to `hi` (`lo > hi`
     /// when reversed), bent by `transform`; `step` is the tick step fixed
     /// by [`PositionScale::nice`], so the axis labels the domain's ends.
-    Continuous { lo: f64, hi: f64, transform: Transform, time: bool, step: Option<f64> },
+    /// `marks`: tick values chosen in the spec (`ticks: [...]`), shown as they are.
+    Continuous { lo: f64, hi: f64, transform: Transform, time: bool, step: Option<f64>, marks: Option<Marks> },
     /// Discrete values, each a band of equal width; `padding` is the share
     /// of a band left empty around a bar (bands) — points sit at band centres.
     /// `index` finds a value's band by hash (made by [`PositionScale::category`]),
     /// so placing n rows on k categories is O(n), not O(n k).
-    Category { values: Vec<String>, padding: f64, index: std::collections::HashMap<String, usize> },
+    /// `marks`: the categories the spec asks to label (`ticks: [...]`); the others keep their band, unlabelled.
+    Category { values: Vec<String>, padding: f64, index: std::collections::HashMap<String, usize>, marks: Option<std::sync::Arc<[String]>> },
 }
+
+/// Tick values chosen in the spec, in data units (ms for time).
+pub type Marks = std::sync::Arc<[f64]>;
 
 /// One tick: where it goes (unit position) and its label.
 #[derive(Debug, Clone, PartialEq)]
@@ -105,7 +110,7 @@ pub struct TickOptions<'a> {
 
 impl PositionScale {
     pub fn linear(lo: f64, hi: f64) -> Self {
-        PositionScale::Continuous { lo, hi, transform: Transform::Linear, time: false, step: None }
+        PositionScale::Continuous { lo, hi, transform: Transform::Linear, time: false, step: None, marks: None }
     }
 
     /// Unit position of a number (continuous scales).
@@ -129,7 +134,17 @@ impl PositionScale {
         for (i, v) in values.iter().enumerate() {
             index.entry(v.clone()).or_insert(i);
         }
-        PositionScale::Category { values, padding, index }
+        PositionScale::Category { values, padding, index, marks: None }
+    }
+
+    /// The scale with tick values chosen in the spec: numbers (ms for time)
+    /// on a continuous scale, category names on a category scale.
+    pub fn with_marks(mut self, numbers: Vec<f64>, names: Vec<String>) -> PositionScale {
+        match &mut self {
+            PositionScale::Continuous { marks, .. } => *marks = Some(numbers.into()),
+            PositionScale::Category { marks, .. } => *marks = Some(names.into()),
+        }
+        self
     }
 
     /// Unit position of the centre of a category's band.
@@ -173,7 +188,7 @@ impl PositionScale {
     /// calendar boundaries for time. Reversed domains stay reversed.
     pub fn nice(&self, wanted: usize) -> PositionScale {
         let wanted = wanted.min(MAX_TICKS);
-        let PositionScale::Continuous { lo, hi, transform, time, .. } = self else { return self.clone() };
+        let PositionScale::Continuous { lo, hi, transform, time, marks, .. } = self else { return self.clone() };
         let rev = lo > hi;
         let (a, b) = if rev { (*hi, *lo) } else { (*lo, *hi) };
         if !(b > a) {
@@ -204,7 +219,7 @@ impl PositionScale {
             }
         };
         let (lo, hi) = if rev { (nb, na) } else { (na, nb) };
-        PositionScale::Continuous { lo, hi, transform: *transform, time: *time, step: fixed }
+        PositionScale::Continuous { lo, hi, transform: *transform, time: *time, step: fixed, marks: marks.clone() }
     }
 
     /// Ticks with English labels; `wanted` is the rough count the layout can fit.
@@ -224,8 +239,21 @@ impl PositionScale {
     }
 
     fn tick_values_unbounded(&self, wanted: usize) -> (Vec<f64>, TickStep) {
-        let PositionScale::Continuous { lo, hi, transform, time, step: fixed } = self else { return (vec![], TickStep::None) };
+        let PositionScale::Continuous { lo, hi, transform, time, step: fixed, marks } = self else { return (vec![], TickStep::None) };
         let (a, b) = if lo <= hi { (*lo, *hi) } else { (*hi, *lo) };
+        if let Some(m) = marks {
+            // Chosen ticks: those inside the domain, whatever the room (`wanted` is not asked).
+            let tol = 1e-9 * (b - a).abs();
+            let mut t: Vec<f64> = m.iter().copied().filter(|v| v.is_finite() && *v >= a - tol && *v <= b + tol).collect();
+            t.sort_by(f64::total_cmp);
+            t.dedup();
+            if *time {
+                return (t, TickStep::Chosen);
+            }
+            let gaps: Vec<f64> = t.windows(2).map(|w| w[1] - w[0]).collect();
+            let even = gaps.first().is_some_and(|g| gaps.iter().all(|h| (h - g).abs() <= 1e-9 * g.abs()));
+            return (t, if even { TickStep::Even(gaps[0]) } else { TickStep::Varied });
+        }
         if *time {
             let (t, unit, n) = ticks::time_ticks(a, b, wanted);
             return (t, TickStep::Time(unit, n));
@@ -302,6 +330,7 @@ impl PositionScale {
                     let pattern = match (o.pattern, step) {
                         (Some(p), _) => p.to_string(),
                         (None, TickStep::Time(u, _)) => default_time_pattern(u, &vals, o.locale, o.short),
+                        (None, TickStep::Chosen) => default_time_pattern(chosen_unit(&vals), &vals, o.locale, o.short),
                         _ => "yyyy-MM-dd".to_string(),
                     };
                     let mut labels: Vec<String> = vals.iter().map(|v| format::date(*v, &pattern, o.locale)).collect();
@@ -319,9 +348,10 @@ impl PositionScale {
                 };
                 vals.iter().zip(labels).map(|(v, label)| Tick { unit: self.unit_num(*v).unwrap_or(0.0), value: *v, label }).collect()
             }
-            PositionScale::Category { values, .. } => values
+            PositionScale::Category { values, marks, .. } => values
                 .iter()
                 .enumerate()
+                .filter(|(_, v)| marks.as_ref().is_none_or(|m| m.contains(*v)))
                 .map(|(i, v)| Tick { unit: (i as f64 + 0.5) / values.len() as f64, value: i as f64, label: if o.short { shorten(v, 10) } else { v.clone() } })
                 .collect(),
         }
@@ -334,6 +364,23 @@ enum TickStep {
     Even(f64),
     Varied,
     Time(TimeUnit, i64),
+    /// Dates chosen in the spec.
+    Chosen,
+}
+
+/// The calendar unit chosen dates fall on: years when each is 1 January,
+/// months when each is the 1st, else days (for the default label pattern).
+fn chosen_unit(vals: &[f64]) -> TimeUnit {
+    let days: Vec<format::Civil> = vals.iter().map(|v| format::civil(*v)).collect();
+    if days.iter().all(|c| c.month == 1 && c.day == 1 && c.hour == 0 && c.minute == 0) {
+        TimeUnit::Year
+    } else if days.iter().all(|c| c.day == 1 && c.hour == 0 && c.minute == 0) {
+        TimeUnit::Month
+    } else if days.iter().all(|c| c.hour == 0 && c.minute == 0) {
+        TimeUnit::Day
+    } else {
+        TimeUnit::Minute
+    }
 }
 
 fn number_labels(vals: &[f64], step: TickStep, o: &TickOptions) -> Vec<String> {
@@ -518,7 +565,7 @@ mod tests {
 
     #[test]
     fn log_scale_positions() {
-        let s = PositionScale::Continuous { lo: 1.0, hi: 1000.0, transform: Transform::Log { base: 10.0 }, time: false, step: None };
+        let s = PositionScale::Continuous { lo: 1.0, hi: 1000.0, transform: Transform::Log { base: 10.0 }, time: false, step: None, marks: None };
         assert!((s.unit_num(10.0).unwrap() - 1.0 / 3.0).abs() < 1e-12);
         assert!((s.unit_num(100.0).unwrap() - 2.0 / 3.0).abs() < 1e-12);
         assert_eq!(s.unit_num(-1.0), None);
@@ -540,13 +587,13 @@ mod tests {
         assert_eq!(s.ticks(6, None).last().map(|t| t.value), Some(700.0));
         // Reversed stays reversed; log goes to powers.
         assert_eq!(PositionScale::linear(97.0, 3.0).nice(5).domain(), Some((100.0, 0.0)));
-        let l = PositionScale::Continuous { lo: 3.0, hi: 420.0, transform: Transform::Log { base: 10.0 }, time: false, step: None }.nice(5);
+        let l = PositionScale::Continuous { lo: 3.0, hi: 420.0, transform: Transform::Log { base: 10.0 }, time: false, step: None, marks: None }.nice(5);
         assert_eq!(l.domain(), Some((1.0, 1000.0)));
     }
 
     #[test]
     fn symlog_ticks_are_signed_powers() {
-        let s = PositionScale::Continuous { lo: -1000.0, hi: 1000.0, transform: Transform::Symlog { constant: 1.0 }, time: false, step: None };
+        let s = PositionScale::Continuous { lo: -1000.0, hi: 1000.0, transform: Transform::Symlog { constant: 1.0 }, time: false, step: None, marks: None };
         let v: Vec<f64> = s.ticks(9, None).into_iter().map(|t| t.value).collect();
         assert_eq!(v, [-1000.0, -100.0, -10.0, -1.0, 0.0, 1.0, 10.0, 100.0, 1000.0]);
         // Symmetric about zero, zero in the middle.
@@ -559,7 +606,7 @@ mod tests {
         let r = PositionScale::linear(10.0, 0.0);
         assert_eq!(r.unit_num(10.0), Some(0.0));
         assert_eq!(r.unit_num(2.5), Some(0.75));
-        let s = PositionScale::Continuous { lo: 0.0, hi: 100.0, transform: Transform::Sqrt, time: false, step: None };
+        let s = PositionScale::Continuous { lo: 0.0, hi: 100.0, transform: Transform::Sqrt, time: false, step: None, marks: None };
         assert_eq!(s.unit_num(25.0), Some(0.5));
     }
 
@@ -580,11 +627,11 @@ mod tests {
     #[test]
     fn time_labels_by_unit() {
         let day = |y, m, d| crate::calendar::days_from_civil(y, m, d) as f64 * 86_400_000.0;
-        let s = PositionScale::Continuous { lo: day(2024, 1, 1), hi: day(2024, 12, 31), transform: Transform::Linear, time: true, step: None };
+        let s = PositionScale::Continuous { lo: day(2024, 1, 1), hi: day(2024, 12, 31), transform: Transform::Linear, time: true, step: None, marks: None };
         let t = s.ticks_with(&TickOptions { wanted: 6, pattern: None, locale: format::locale("de"), short: false });
         assert_eq!(t[0].label, "Jan. 2024");
         assert_eq!(t[1].label, "Apr.");
-        let s = PositionScale::Continuous { lo: day(1990, 1, 1), hi: day(2020, 1, 1), transform: Transform::Linear, time: true, step: None };
+        let s = PositionScale::Continuous { lo: day(1990, 1, 1), hi: day(2020, 1, 1), transform: Transform::Linear, time: true, step: None, marks: None };
         let t = s.ticks(4, None);
         assert_eq!(t.iter().map(|t| t.label.as_str()).collect::<Vec<_>>(), ["1990", "2000", "2010", "2020"]);
         let t = s.ticks(6, None);
@@ -624,11 +671,11 @@ mod tests {
         assert!(!t.is_empty() && t.len() <= 10, "{}", t.len());
         // However many ticks a spec wants, a scale gives at most MAX_TICKS.
         for transform in [Transform::Linear, Transform::Log { base: 1.01 }, Transform::Sqrt, Transform::Symlog { constant: 1.0 }] {
-            let s = PositionScale::Continuous { lo: 1e-3, hi: 1e12, transform, time: false, step: None };
+            let s = PositionScale::Continuous { lo: 1e-3, hi: 1e12, transform, time: false, step: None, marks: None };
             let n = s.nice(u32::MAX as usize).ticks(u32::MAX as usize, None).len();
             assert!(n <= MAX_TICKS, "{transform:?}: {n}");
         }
-        let s = PositionScale::Continuous { lo: 0.0, hi: 3e12, transform: Transform::Linear, time: true, step: None };
+        let s = PositionScale::Continuous { lo: 0.0, hi: 3e12, transform: Transform::Linear, time: true, step: None, marks: None };
         assert!(s.ticks(u32::MAX as usize, None).len() <= MAX_TICKS);
     }
 }

@@ -524,7 +524,7 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
     let (h_title, v_title, h_shown, v_shown) = axis_titles(chart, scales);
     let (h_title, v_title) = if titles { (h_title, v_title) } else { ("", "") };
     let wanted = |s: &crate::plan::ScaleSpec, length: f64, per: f64| {
-        s.ticks.map(|t| t as usize).unwrap_or_else(|| ((length / per).floor() as usize).clamp(3, if narrow { 5 } else { 10 }))
+        s.ticks.as_ref().and_then(|t| t.count()).map(|t| t as usize).unwrap_or_else(|| ((length / per).floor() as usize).clamp(3, if narrow { 5 } else { 10 }))
     };
     let top = top + 4.0;
     // Room right of the frame for series named at their line ends.

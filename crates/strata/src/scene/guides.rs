@@ -106,15 +106,17 @@ pub fn zero_line(axis: &AxisGuide, coord: &Coord, pal: &Palette) -> Option<Node>
         return None;
     }
     let u = axis.scale.unit_num(0.0).filter(|u| u.is_finite() && (-1e-9..=1.0 + 1e-9).contains(u))?;
+    // Zero inside the domain (values on both sides): a stronger line, where gains turn to losses.
+    let width = if lo.min(hi) < 0.0 && hi.max(lo) > 0.0 { 1.5 } else { 1.0 };
     let f = coord.frame();
     let line = match axis.side {
         Side::Left | Side::Right => {
             let y = f.bottom() - u * f.height;
-            Node::Line { x1: f.left, y1: y, x2: f.right(), y2: y, paint: Paint::stroke(&pal.text, 1.0) }
+            Node::Line { x1: f.left, y1: y, x2: f.right(), y2: y, paint: Paint::stroke(&pal.text, width) }
         }
         Side::Bottom | Side::Top => {
             let x = f.left + u * f.width;
-            Node::Line { x1: x, y1: f.top, x2: x, y2: f.bottom(), paint: Paint::stroke(&pal.text, 1.0) }
+            Node::Line { x1: x, y1: f.top, x2: x, y2: f.bottom(), paint: Paint::stroke(&pal.text, width) }
         }
     };
     Some(Node::Group { class: "strata-zero".into(), role: None, label: None, children: vec![line] })
@@ -696,9 +698,8 @@ pub fn legends(scales: &Scales, mark: SwatchMark, size: f64) -> Vec<Legend> {
     let merged = matches!((&scales.color, &scales.shape), (Some(ColorScale::Categories(c)), Some(s)) if c == s && scales.color_title == scales.shape_title);
     match &scales.color {
         Some(ColorScale::Categories(_)) if merged => {}
-        Some(ColorScale::Categories(cats)) if !hidden(&scales.color_spec) => {
-            let vals = crate::plan::Values::Text(cats.iter().cloned().map(Some).collect());
-            let items = cats.iter().enumerate().map(|(i, c)| (c.clone(), scales.color_of(&vals, i).unwrap_or_default())).collect();
+        Some(ColorScale::Categories(_)) if !hidden(&scales.color_spec) => {
+            let items = scales.category_legend();
             out.push(Legend { title: scales.color_title.clone(), body: LegendBody::Swatches(items, mark), channel: Channel::Color, size });
         }
         Some(ColorScale::Ramp { lo, hi }) if !hidden(&scales.color_spec) => {

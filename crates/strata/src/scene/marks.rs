@@ -25,8 +25,34 @@ pub struct Ctx<'a> {
     pub layers: &'a [PlannedLayer],
 }
 
+/// The name output gives a channel: a turned layer's x holds the spec's y
+/// (see `PlannedLayer::turned`), so it is named as the spec named it.
+fn channel_name(layer: &PlannedLayer, k: Channel) -> &'static str {
+    match (layer.turned, k) {
+        (true, Channel::X) => "y",
+        (true, Channel::Y) => "x",
+        (true, Channel::XEnd) => "y_end",
+        (true, Channel::YEnd) => "x_end",
+        (true, Channel::YLow) => "x_low",
+        (true, Channel::YHigh) => "x_high",
+        _ => k.name(),
+    }
+}
+
 pub(super) fn datum(layer: &PlannedLayer, i: usize) -> Datum {
-    let mut d: Datum = layer.data.channels.iter().filter(|(k, _)| !k.is_drawing_aid()).map(|(k, v)| (k.name().to_string(), v.json(i))).collect();
+    let mut chans: Vec<(&Channel, &Values)> = layer.data.channels.iter().filter(|(k, _)| !k.is_drawing_aid()).collect();
+    if layer.turned {
+        // In the spec's order: its x (the plan's y) first.
+        let spec_channel = |k: &Channel| match *k {
+            Channel::X => Channel::Y,
+            Channel::Y => Channel::X,
+            Channel::XEnd => Channel::YEnd,
+            Channel::YEnd => Channel::XEnd,
+            other => other,
+        };
+        chans.sort_by_key(|(k, _)| spec_channel(k));
+    }
+    let mut d: Datum = chans.into_iter().map(|(k, v)| (channel_name(layer, *k).to_string(), v.json(i))).collect();
     // `tooltip` columns ride along under one key; the SVG writer turns them into
     // a hover title and makes the mark keyboard-focusable.
     if !layer.data.tooltips.is_empty() && layer.data.tooltips.iter().all(|(_, v)| v.len() == layer.data.len) {
@@ -421,7 +447,8 @@ fn bands(ctx: &Ctx, layer: &PlannedLayer, _y: Channel, kind: Band) -> Vec<Node> 
             Band::End => 0.3,
         });
         let (lo, hi) = match kind {
-            Band::Base => (Channel::YBase, Channel::Y),
+            // A stacked area's extent ends at its running total.
+            Band::Base => (Channel::YBase, if layer.data.get(Channel::YTop).is_some() { Channel::YTop } else { Channel::Y }),
             Band::End => (Channel::Y, Channel::YEnd),
         };
         out.extend(band_path(ctx, layer, &rows, lo, hi, &c, opacity));
@@ -493,7 +520,17 @@ fn x_extent(ctx: &Ctx, layer: &PlannedLayer, i: usize, fraction: f64, beside: &[
     let xv = layer.data.get(Channel::X)?;
     let cx = ux(ctx, layer, xv, i)?;
     let band = ctx.scales.x.band();
-    let (mut x0, mut x1) = if band > 0.0 { (cx - band * fraction / 2.0, cx + band * fraction / 2.0) } else { (cx - 0.005, cx + 0.005) };
+    // Bars on a continuous x: the data's resolution times the share, in data units.
+    let step = layer.x_step.and_then(|st| {
+        let x = xv.num(i)?;
+        let (a, b) = (ctx.scales.x.unit_num(x - st * fraction / 2.0)?, ctx.scales.x.unit_num(x + st * fraction / 2.0)?);
+        Some((a.min(b), a.max(b)))
+    });
+    let (mut x0, mut x1) = match step {
+        _ if band > 0.0 => (cx - band * fraction / 2.0, cx + band * fraction / 2.0),
+        Some(e) => e,
+        None => (cx - 0.005, cx + 0.005),
+    };
     if let Some(xe) = layer.data.get(Channel::XEnd).and_then(|v| ctx.scales.x.unit(v, i)) {
         x0 = cx.min(xe);
         x1 = cx.max(xe);
@@ -526,7 +563,8 @@ fn rect_node(ctx: &Ctx, x0: f64, x1: f64, y0: f64, y1: f64, paint: Paint, datum:
 }
 
 fn bars(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
-    let Some(yv) = layer.data.get(Channel::Y) else { return vec![] };
+    // A stacked bar ends at its running total (`y` is its own value).
+    let Some(yv) = layer.data.get(Channel::YTop).or(layer.data.get(Channel::Y)) else { return vec![] };
     let base = layer.data.get(Channel::YBase);
     let fraction = layer.style.share.unwrap_or(0.8).clamp(0.05, 1.0);
     let beside = beside_keys(ctx, layer);
@@ -1031,6 +1069,8 @@ fn labels(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     let frame = ctx.coord.frame();
     let transposed = matches!(ctx.coord, Coord::Transposed(_));
     let base = d.get(Channel::YBase);
+    // A stacked label's segment ends at its running top (`y` is its own value).
+    let yv = d.get(Channel::YTop).unwrap_or(yv);
     let partner = companion(ctx, layer);
     let over_bars = partner.is_some_and(|p| p.geometry == Geometry::Bar);
     // The line a label layer names: its labels keep off it.

@@ -78,6 +78,20 @@ pub struct Spec {
     /// The data table under the chart (see `crate::datatable`).
     #[serde(default, skip_serializing_if = "is_closed")]
     pub data_table: DataTable,
+    /// Wide columns into long rows, after `derive` and `where`.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub unpivot: Option<Unpivot>,
+}
+
+/// `unpivot`: each listed column becomes a row per input row, its name in
+/// the first `into` column and its value in the second; other columns are
+/// repeated. The names column keeps the listed order as its category order.
+#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Unpivot {
+    pub columns: Vec<String>,
+    /// The names column and the values column.
+    pub into: Vec<String>,
 }
 
 fn is_closed(t: &DataTable) -> bool {
@@ -359,9 +373,9 @@ pub struct ScaleSpec {
     /// LDML number or date pattern for labels.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub format: Option<String>,
-    /// Wanted number of ticks.
+    /// Wanted number of ticks, or the tick values themselves.
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub ticks: Option<u32>,
+    pub ticks: Option<Ticks>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub palette: Option<String>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
@@ -382,6 +396,39 @@ pub struct ScaleSpec {
     /// Where a diverging colour palette turns (data units).
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub middle: Option<f64>,
+    /// Chosen colours of a category colour scale, by category; `other`
+    /// colours every category not named.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub values: Option<IndexMap<String, String>>,
+    /// Categories sorted by the value drawn for them.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub order: Option<CategoryOrder>,
+    /// Keep the first `top` categories (after `order`); the rest are
+    /// gathered into one category, "Other".
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub top: Option<u32>,
+    /// The unit of a value axis, written once above it.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub unit: Option<String>,
+}
+
+/// `ticks`: a wanted count, or the values to mark (numbers, dates as text,
+/// or categories).
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(untagged)]
+pub enum Ticks {
+    Count(u32),
+    Values(Vec<serde_json::Value>),
+}
+
+impl Ticks {
+    /// The wanted count, `None` for chosen values.
+    pub fn count(&self) -> Option<u32> {
+        match self {
+            Ticks::Count(n) => Some(*n),
+            Ticks::Values(_) => None,
+        }
+    }
 }
 
 /// `breaks`: `natural`, `quantile`, `equal`, or a list of numbers.

@@ -124,7 +124,8 @@ pub const RETIRED: &[(&str, &str)] =
 fn retired_hint(word: &str, accepted: &[&str]) -> Option<String> {
     if word == "flip" && accepted.contains(&"cartesian") {
         return Some(
-            "`flip` is retired: orientation is to follow the data (categories on y for horizontal bars), which is not drawn yet; write `cartesian` or leave `coords` out".into(),
+            "`flip` is retired: orientation is to follow the data, and it does: categories on y give horizontal bars; write `cartesian` or leave `coords` out"
+                .into(),
         );
     }
     RETIRED.iter().find(|(old, new)| *old == word && accepted.contains(new)).map(|(old, new)| format!("`{old}` is now called `{new}`: did you mean `{new}`?"))
@@ -250,7 +251,11 @@ pub fn spec_shape() -> Shape {
         f("reverse", Shape::Bool, "Run the scale the other way."),
         f("title", text(), "Axis or legend title. Default: the column name; \"\" hides it."),
         f("format", Shape::Text("an LDML number or date pattern"), "Label pattern: LDML number (#,##0.0) or date (yyyy-MM-dd) pattern."),
-        f("ticks", count(0), "Wanted number of ticks."),
+        f(
+            "ticks",
+            Shape::Either(vec![count(0), list(Shape::Either(vec![num(None, None), Shape::Text("a category or date")]))]),
+            "Wanted number of ticks, or the tick values: numbers, dates as text, or categories.",
+        ),
         f("palette", Shape::Text("a palette name"), "Named palette for colour scales."),
         f("axis", Shape::Word(PLACEMENTS), "Where the axis goes: top, bottom, left, right, none."),
         f("legend", Shape::Word(PLACEMENTS), "Where the legend goes: top, bottom, left, right, none."),
@@ -263,6 +268,14 @@ pub fn spec_shape() -> Shape {
         ),
         f("count", Shape::Integer { min: 2, max: 12 }, "Number of classes of a steps colour scale (default 5)."),
         f("middle", num(None, None), "Where a diverging colour palette turns, in data units."),
+        f(
+            "values",
+            Shape::Map { keys: None, value: Box::new(color()) },
+            "Chosen colours of a category colour scale, by category; the key other colours every category not named.",
+        ),
+        f("order", Shape::Word(CategoryOrder::WORDS), "Sort a category axis by the value drawn: ascending or descending."),
+        f("top", count(1), "Keep this many categories (after order); gather the rest into Other."),
+        f("unit", text(), "The unit of a value axis, written once, across, above the axis."),
     ]);
     let coords = Shape::Either(vec![
         Shape::Word(COORD_WORDS),
@@ -357,6 +370,14 @@ pub fn spec_shape() -> Shape {
         f("theme", theme, "light, dark, auto (default: follows the reader's preference), or overrides."),
         f("quiet", list(Shape::Word(LINT_CODES)), "Lint warnings silenced on purpose, by code."),
         f("locale", Shape::Word(LOCALES), "Language of number and date labels: en (default), de, fr, es."),
+        f(
+            "unpivot",
+            obj(vec![
+                req("columns", list(Shape::Text("a column name")), "The wide columns to turn into rows, in the order their names take."),
+                req("into", Shape::Pair(Box::new(Shape::Text("a column name"))), "The two new columns: the names, then the values."),
+            ]),
+            "Wide columns into long rows, after derive and where.",
+        ),
         f(
             "data_table",
             Shape::Word(DATA_TABLE),

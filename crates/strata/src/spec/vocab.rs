@@ -224,6 +224,14 @@ words! {
 }
 
 words! {
+    /// `order` on a category scale: by the value drawn, smallest or largest first.
+    pub enum CategoryOrder {
+        Ascending = "ascending",
+        Descending = "descending",
+    }
+}
+
+words! {
     pub enum Placement {
         Top = "top",
         Bottom = "bottom",
