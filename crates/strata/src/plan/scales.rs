@@ -42,6 +42,10 @@ pub struct Scales {
     pub color_scheme: Scheme,
     /// Where a diverging ramp turns (data units).
     pub color_mid: Option<f64>,
+    /// The part of a sequential ramp in use (0..1 of the ramp). All of it
+    /// for filled marks; for thin marks (points, lines, labels) only the
+    /// part that stands out from the background ([`thin_mark_span`]).
+    pub color_span: (f64, f64),
     pub size: Option<SizeScale>,
     pub size_title: String,
     pub size_spec: ScaleSpec,
@@ -140,11 +144,8 @@ impl Scales {
                 }
             }
             _ => {
-                if hi > lo {
-                    (v - lo) / (hi - lo)
-                } else {
-                    0.5
-                }
+                let t = if hi > lo { (v - lo) / (hi - lo) } else { 0.5 };
+                self.color_span.0 + (self.color_span.1 - self.color_span.0) * t
             }
         };
         ramp.at(t)
@@ -274,6 +275,14 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
             _ => Scheme::Categorical("harbour", &color::HARBOUR),
         },
     };
+    let thin = layers
+        .iter()
+        .filter(|l| l.data.get(Channel::Color).is_some())
+        .all(|l| matches!(l.geometry, Geometry::Point | Geometry::Line | Geometry::Step | Geometry::Label | Geometry::Segment | Geometry::Range));
+    let color_span = match (color_scheme, &color) {
+        (Scheme::Ramp(r), Some(ColorScale::Ramp { .. })) if !r.diverging && thin => thin_mark_span(r, &super::chart::palette(&spec.theme).0.background),
+        _ => (0.0, 1.0),
+    };
     let color_mid = match color {
         _ if color_spec.middle.is_some() => color_spec.middle,
         Some(ColorScale::Ramp { lo, hi }) if lo < 0.0 && hi > 0.0 => Some(0.0),
@@ -328,6 +337,7 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
         color,
         color_scheme,
         color_mid,
+        color_span,
         size,
         size_spec,
         shape,
@@ -338,6 +348,30 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
         color_other: color_spec.values.as_ref().and_then(|v| v.get(OTHER_KEY).cloned()),
         color_spec,
     })
+}
+
+/// WCAG 2.1 success criterion 1.4.11 (non-text contrast) asks 3:1 of the
+/// graphics needed to read a chart against what is next to them.
+const THIN_MARK_CONTRAST: f64 = 3.0;
+
+/// The part of a sequential ramp that thin marks use: the samples with at
+/// least [`THIN_MARK_CONTRAST`] against the background, kept at least half
+/// the ramp long (from the end far from the background) so the colours still
+/// spread. A ramp's palest end is made for filled areas; on points it all
+/// but vanished on white (found in a user trial).
+pub fn thin_mark_span(ramp: color::Ramp, background: &str) -> (f64, f64) {
+    let ok: Vec<f64> =
+        (0..=100).map(|k| k as f64 / 100.0).filter(|t| color::contrast(&ramp.at(*t), background).is_some_and(|c| c >= THIN_MARK_CONTRAST)).collect();
+    let (Some(&lo), Some(&hi)) = (ok.first(), ok.last()) else { return (0.0, 1.0) };
+    if hi - lo >= 0.5 {
+        return (lo, hi);
+    }
+    // Too little of the ramp passes: keep half of it, at the passing end.
+    if hi >= 1.0 {
+        (0.5, 1.0)
+    } else {
+        (0.0, 0.5)
+    }
 }
 
 fn cats_has(color: &Option<ColorScale>, k: &str) -> bool {
@@ -697,7 +731,7 @@ mod tests {
 
     #[test]
     fn palettes_by_name() {
-        let mut l = layer(Geometry::Point, vec![1.0, 2.0, 3.0], vec![1.0, 2.0, 3.0]);
+        let mut l = layer(Geometry::Cell, vec![1.0, 2.0, 3.0], vec![1.0, 2.0, 3.0]);
         l.data.channels.insert(Channel::Color, Values::Num(vec![10.0, 20.0, 30.0].into()));
         let s = train(&spec(r#"{ "color": { "palette": "loam" } }"#), std::slice::from_ref(&l)).unwrap();
         let c = l.data.get(Channel::Color).unwrap();
@@ -713,6 +747,29 @@ mod tests {
         let c = l.data.get(Channel::Color).unwrap();
         assert_eq!(s.color_of(c, 0).as_deref(), Some(color::HARBOUR[0]));
         assert_eq!(s.color_of(c, 1).as_deref(), Some(color::HARBOUR[1]));
+    }
+
+    /// Thin marks on a sequential ramp keep 3:1 against the background
+    /// (WCAG 2.1 SC 1.4.11, non-text contrast) in both themes; filled
+    /// marks use the whole ramp.
+    #[test]
+    fn thin_marks_stand_out_from_the_background() {
+        for (theme, bg) in [("light", "#ffffff"), ("dark", "#16191d")] {
+            let sp = crate::parse_spec(&format!(r#"{{ "layers": [ {{ "draw": "point" }} ], "theme": "{theme}" }}"#)).unwrap();
+            let mut l = layer(Geometry::Point, vec![1.0, 2.0, 3.0], vec![1.0, 2.0, 3.0]);
+            l.data.channels.insert(Channel::Color, Values::Num(vec![0.0, 20.0, 39.0].into()));
+            let s = train(&sp, std::slice::from_ref(&l)).unwrap();
+            let c = l.data.get(Channel::Color).unwrap();
+            for i in 0..3 {
+                let k = color::contrast(&s.color_of(c, i).unwrap(), bg).unwrap();
+                assert!(k >= 3.0, "{theme}: row {i} has contrast {k}");
+            }
+            assert_ne!(s.color_of(c, 0), s.color_of(c, 2));
+            // The same colours filling cells run the whole ramp.
+            l.geometry = Geometry::Cell;
+            let s = train(&sp, std::slice::from_ref(&l)).unwrap();
+            assert_eq!((s.color_of(c, 0), s.color_of(c, 2)), (Some(color::LAGOON.at(0.0)), Some(color::LAGOON.at(1.0))));
+        }
     }
 
     #[test]
