@@ -83,6 +83,16 @@ fn empty_stream_keeps_columns() {
 }
 
 #[test]
+fn dictionary_deltas_extend_the_dictionary() {
+    // pyarrow's emit_dictionary_deltas: the second batch sends two more values.
+    let expected: Value = serde_json::from_slice(&fixture("types.json")).unwrap();
+    let t = data::read(&fixture("delta.arrows"), &ReadOptions::default()).unwrap();
+    let Some(Column::Text(place)) = t.by_name("place") else { panic!("place is not text") };
+    let want: Vec<Option<&str>> = expected["delta"]["place"].as_array().unwrap().iter().map(Value::as_str).collect();
+    assert_eq!(place.iter().collect::<Vec<_>>(), want);
+}
+
+#[test]
 fn compressed_ipc_is_a_clean_error() {
     // Issue 16: reported as compression, not as damage.
     let e = data::read(&fixture("compressed_lz4.arrow"), &ReadOptions::default()).unwrap_err();
