@@ -5,7 +5,7 @@
 //! `render_columns`. Errors and warnings travel inside the interchange, so
 //! this module never builds JSON.
 
-use strata::data::{interchange, sha256_bytes, wire, ReadOptions};
+use strata::data::{interchange, ipc, sha256_bytes, ReadOptions};
 use wasm_bindgen::prelude::*;
 
 /// Arrow IPC bytes to the column interchange. Never fails: a reading error
@@ -22,7 +22,7 @@ pub fn decode_bytes(bytes: &[u8]) -> Vec<u8> {
         )
         .into())
     } else {
-        wire::read(bytes, &opts)
+        ipc::read(bytes, &opts)
     };
     interchange::write(&result, &sha256_bytes(bytes))
 }

@@ -12,13 +12,11 @@ pub mod arrow;
 pub mod columns;
 pub mod csv;
 pub mod interchange;
-#[cfg(all(feature = "ipc", feature = "arrow"))]
+#[cfg(feature = "ipc")]
 pub mod ipc;
 pub mod json;
 mod nums;
 pub mod table;
-#[cfg(feature = "ipc")]
-pub mod wire;
 
 pub use nums::Nums;
 pub use table::{Column, Table};
@@ -110,7 +108,7 @@ pub fn read(bytes: &[u8], opts: &ReadOptions) -> Result<Table, Errors> {
         }
         DataFormat::Json => json::read(bytes, opts),
         #[cfg(feature = "ipc")]
-        DataFormat::Arrow => wire::read(bytes, opts),
+        DataFormat::Arrow => ipc::read(bytes, opts),
         #[cfg(not(feature = "ipc"))]
         DataFormat::Arrow => {
             Err(Diagnostic::error("data.format_unsupported", "Arrow IPC data is not supported by this build (built without the `ipc` feature)")
