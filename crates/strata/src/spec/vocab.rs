@@ -43,6 +43,9 @@ macro_rules! words {
             fn read(v: &serde_json::Value) -> Result<Self, String> {
                 crate::spec::read::word(v, Self::ALL)
             }
+            fn fallback() -> Self {
+                Self::ALL[0].1
+            }
         }
     };
 }
