@@ -57,10 +57,15 @@ impl<'a> Obj<'a> {
         Some(v)
     }
 
+    /// Keep the first error (one function for every type: it is large).
     #[cold]
     #[inline(never)]
-    fn fail<T: Read>(&self, key: &str, e: String) -> T {
+    fn note(&self, key: &str, e: &str) {
         self.error.borrow_mut().get_or_insert_with(|| format!("{key}: {e}"));
+    }
+
+    fn fail<T: Read>(&self, key: &str, e: &str) -> T {
+        self.note(key, e);
         T::fallback()
     }
 
@@ -70,10 +75,10 @@ impl<'a> Obj<'a> {
     pub fn get<T: Read>(&self, key: &str) -> T {
         match self.value(key).map(T::read) {
             Some(Ok(t)) => t,
-            Some(Err(e)) => self.fail(key, e),
+            Some(Err(e)) => self.fail(key, &e),
             None => match T::absent() {
                 Some(t) => t,
-                None => self.fail(key, "missing field".to_string()),
+                None => self.fail(key, "missing field"),
             },
         }
     }
@@ -89,7 +94,7 @@ impl<'a> Obj<'a> {
     pub fn or<T: Read>(&self, key: &str, default: T) -> T {
         match self.value(key).map(T::read) {
             Some(Ok(t)) => t,
-            Some(Err(e)) => self.fail(key, e),
+            Some(Err(e)) => self.fail(key, &e),
             None => default,
         }
     }
