@@ -148,6 +148,8 @@ struct Batch<'a> {
     buffers: Vec<(i64, i64)>,
     variadic: Vec<i64>,
     v5: bool,
+    /// The batch's length: no column it holds is longer.
+    rows: usize,
     node: usize,
     buffer: usize,
     view: usize,
@@ -179,7 +181,7 @@ impl<'a> Batch<'a> {
             }
         }
         let variadic = rb.variadicBufferCounts().map(|v| v.iter().collect()).unwrap_or_default();
-        Ok(Batch { body, nodes, buffers, variadic, v5, node: 0, buffer: 0, view: 0 })
+        Ok(Batch { body, nodes, buffers, variadic, v5, rows: rb.length() as usize, node: 0, buffer: 0, view: 0 })
     }
 
     fn next_node(&mut self) -> Result<(usize, usize), Errors> {
@@ -233,6 +235,11 @@ impl<'a> Batch<'a> {
     /// The next field's values as a column of one of the table's types.
     fn column(&mut self, v: Val, name: &str) -> Result<Column, Errors> {
         let (len, nulls) = self.next_node()?;
+        // (Checked before anything is allocated for the column; the batch's
+        // length is under the row cap.)
+        if len > self.rows {
+            return Err(invalid(format!("column `{name}` is longer than its record batch")));
+        }
         if v == Val::Null {
             return Ok(Column::Text(std::iter::repeat_n(None::<&str>, len).collect()));
         }
@@ -320,6 +327,9 @@ impl<'a> Batch<'a> {
                 let offsets: Vec<i64> = self.next_buffer()?.chunks_exact(offset).take(len + 1).map(|c| int(c, true)).collect();
                 let data = self.next_buffer()?;
                 // `len + 1` offsets; an empty column may have none.
+                if len > 0 && offsets.len() < len + 1 {
+                    return Err(short());
+                }
                 let mut b = TextBuilder::with_capacity(len);
                 for i in 0..len {
                     if !ok(i) {
@@ -330,10 +340,7 @@ impl<'a> Batch<'a> {
                     if s < 0 || e < s || e as u64 > data.len() as u64 {
                         return Err(invalid(format!("an offset of column `{name}` lies outside its data")));
                     }
-                    b.push(Some(&data[s as usize..e as usize]));
-                }
-                if len > 0 && offsets.len() < len + 1 {
-                    return Err(short());
+                    b.push(Some(text(&data[s as usize..e as usize], name)?));
                 }
                 Column::Text(utf8(b, name)?)
             }
@@ -344,8 +351,9 @@ impl<'a> Batch<'a> {
                 for _ in 0..n {
                     data.push(self.next_buffer()?);
                 }
+                let views = fixed(views, 16)?;
                 let mut b = TextBuilder::with_capacity(len);
-                for (i, v) in fixed(views, 16)?.enumerate() {
+                for (i, v) in views.enumerate() {
                     if !ok(i) {
                         b.push(None);
                         continue;
@@ -361,11 +369,20 @@ impl<'a> Batch<'a> {
                         })
                     };
                     let s = s.ok_or_else(|| invalid(format!("a view of column `{name}` lies outside its data")))?;
-                    b.push(Some(s));
+                    b.push(Some(text(s, name)?));
                 }
                 Column::Text(utf8(b, name)?)
             }
         })
+    }
+}
+
+/// One value's bytes, checked as UTF-8 on its own (the column's text
+/// together may be valid where a value alone splits a character).
+fn text<'b>(b: &'b [u8], name: &str) -> Result<&'b [u8], Errors> {
+    match std::str::from_utf8(b) {
+        Ok(_) => Ok(b),
+        Err(_) => Err(invalid(format!("column `{name}` has text that is not UTF-8"))),
     }
 }
 
@@ -521,7 +538,17 @@ pub fn read(bytes: &[u8], opts: &ReadOptions) -> Result<Table, Errors> {
     let keep: Vec<Option<Val>> = fields.iter().map(val_of).collect();
     let mut dicts: HashMap<i64, Column> = HashMap::new();
     let mut parts: Vec<Vec<Column>> = vec![Vec::new(); fields.len()];
-    let mut rows = 0usize;
+    // The row cap before any column is decoded (a batch's length bounds
+    // what its columns allocate; a dictionary's is under the cap too).
+    let lengths = messages.iter().filter_map(|m| m.msg.header_as_record_batch().map(|rb| rb.length()));
+    let rows = lengths.fold(0usize, |n, l| n.saturating_add(usize::try_from(l).unwrap_or(usize::MAX)));
+    let too_long =
+        messages.iter().filter_map(|m| m.msg.header_as_dictionary_batch()?.data()).any(|rb| !usize::try_from(rb.length()).is_ok_and(|l| l <= opts.max_rows));
+    if rows > opts.max_rows || too_long {
+        return Err(Diagnostic::error("data.too_many_rows", format!("the data has {rows} rows, more than the row cap of {}", opts.max_rows))
+            .with_hint("raise the row cap (`ReadOptions::max_rows`) where the data is loaded, or filter the data before charting it")
+            .into());
+    }
     for m in &messages {
         if let Some(d) = m.msg.header_as_dictionary_batch() {
             let Some(rb) = d.data() else { continue };
@@ -578,13 +605,7 @@ pub fn read(bytes: &[u8], opts: &ReadOptions) -> Result<Table, Errors> {
                 }
                 parts[i].push(col);
             }
-            rows = rows.saturating_add(len);
         }
-    }
-    if rows > opts.max_rows {
-        return Err(Diagnostic::error("data.too_many_rows", format!("the data has {rows} rows, more than the row cap of {}", opts.max_rows))
-            .with_hint("raise the row cap (`ReadOptions::max_rows`) where the data is loaded, or filter the data before charting it")
-            .into());
     }
     let raw: Vec<String> = fields.iter().zip(&keep).filter(|(_, k)| k.is_some()).map(|(f, _)| f.name().unwrap_or("").to_string()).collect();
     let (names, notes) = unique_names(raw);
@@ -643,6 +664,15 @@ mod tests {
         assert_eq!(half(0x0001), 2f64.powi(-24));
         assert_eq!(half(0x7c00), f64::INFINITY);
         assert!(half(0x7e00).is_nan());
+    }
+
+    #[test]
+    fn each_value_is_checked_as_utf8_alone() {
+        // "ab\xF0" then "\x9F\x98\x80": the two together are valid UTF-8
+        // (U+1F600), each alone is not.
+        assert!(text(b"ab\xF0", "c").is_err());
+        assert!(text(b"\x9F\x98\x80", "c").is_err());
+        assert!(text("ab\u{1F600}".as_bytes(), "c").is_ok());
     }
 
     #[test]
