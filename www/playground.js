@@ -8,7 +8,8 @@
 // columns and their inferred types, for the starter spec); for Arrow files the
 // add-on's `decode` and the core's `render_columns` / `columns_of_interchange`.
 
-import initCore, * as core from './pkg/strata_wasm.js';
+// The maps engine (the core with maps): the playground's examples include maps.
+import initCore, * as core from './pkg/strata_wasm_maps.js';
 
 const $ = (id) => document.getElementById(id);
 const ui = {

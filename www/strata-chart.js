@@ -17,6 +17,9 @@ const ENGINE_URLS = {
   // The Arrow add-on: decodes Arrow IPC into columns the core engine reads
   // (render_columns). Loaded only for Arrow data.
   arrow: new URL('./pkg/strata_wasm_arrow.js', import.meta.url),
+  // The core engine with maps, loaded instead of the core for specs with
+  // `shapes` or `coords.kind: map` (the core refuses those).
+  maps: new URL('./pkg/strata_wasm_maps.js', import.meta.url),
 };
 const SVG_NS = 'http://www.w3.org/2000/svg';
 
@@ -400,10 +403,11 @@ export class StrataChart extends HTMLElement {
       let raw;
       for (let attempt = 0; ; attempt += 1) {
         // Arrow data: the add-on decodes it into the column interchange the core reads.
-        const [engine, addon] = await Promise.all([loadEngine('core'), arrow ? loadEngine('arrow') : null]);
+        const kind = spec && typeof spec === 'object' && (spec.shapes || (spec.coords && spec.coords.kind === 'map')) ? 'maps' : 'core';
+        const [engine, addon] = await Promise.all([loadEngine(kind), arrow ? loadEngine('arrow') : null]);
         if (generation !== this.#generation) return;
         // Another chart's trap retired an instance while we waited: take a fresh one.
-        const current = loaded.core === engine && (!arrow || loaded.arrow === addon);
+        const current = loaded[kind] === engine && (!arrow || loaded.arrow === addon);
         if (!current && attempt < 2) continue;
         try {
           raw = arrow
@@ -417,7 +421,7 @@ export class StrataChart extends HTMLElement {
           // its memory can no longer be trusted, so no later chart uses this
           // instance; the next one starts a fresh engine. When the instance
           // was already retired by another chart's trap, try once more.
-          dropEngine('core', engine);
+          dropEngine(kind, engine);
           if (arrow) dropEngine('arrow', addon);
           if (current || attempt >= 2) {
             throw fail('engine.trap', `the chart engine stopped on this chart (${e && e.message ? e.message : e}); other charts are not affected`, {

@@ -11,10 +11,12 @@ use wasm_bindgen::prelude::*;
 /// Arrow IPC bytes to the column interchange. Never fails: a reading error
 /// is written into the interchange, where the core engine reports it.
 pub fn decode_bytes(bytes: &[u8]) -> Vec<u8> {
-    // Row and byte caps, `data.types` and `data.sha256` are applied by the
-    // core engine when it reads the interchange (the digest written here is
-    // of the Arrow bytes themselves).
-    let opts = ReadOptions { max_rows: usize::MAX, ..Default::default() };
+    // `data.types` and `data.sha256` are applied by the core engine when it
+    // reads the interchange (the digest written here is of the Arrow bytes
+    // themselves), and so are the caps; the default row cap, which the core
+    // applies to the interchange too, also bounds what the decoder
+    // allocates for a damaged or hostile batch length.
+    let opts = ReadOptions::default();
     let result = if bytes.len() > strata::data::DEFAULT_MAX_BYTES {
         Err(strata::Diagnostic::error(
             "data.too_large",

@@ -177,6 +177,20 @@ mod tests {
     }
 
     #[test]
+    fn a_map_needs_the_maps_engine() {
+        // Alone (`cargo test -p strata-wasm`) this is the core engine, with no
+        // maps; in the workspace the CLI's `maps` feature reaches it.
+        let out =
+            render_json(r#"{"data":{"rows":[{"lon":1,"lat":2}]},"coords":{"kind":"map"},"layers":[{"draw":"point","x":"lon","y":"lat"}]}"#, None, "", 300.0);
+        let v: serde_json::Value = serde_json::from_str(&out).unwrap();
+        if strata::HAS_MAPS {
+            assert_eq!(v["ok"], true, "{out}");
+        } else {
+            assert_eq!((v["errors"][0]["code"].as_str(), v["errors"][0]["path"].as_str()), (Some("spec.maps_unsupported"), Some("coords")), "{out}");
+        }
+    }
+
+    #[test]
     fn located_error_is_json() {
         let out = render_json(r#"{"layers":[{"draw":"point","x":"nope"}],"data":{"rows":[{"a":1}]}}"#, None, "", 300.0);
         let v: serde_json::Value = serde_json::from_str(&out).unwrap();

@@ -45,3 +45,22 @@ fn errors_come_back_as_data_not_exceptions() {
     let v: serde_json::Value = serde_json::from_str(&out).unwrap();
     assert_eq!(v["ok"], false);
 }
+
+#[wasm_bindgen_test]
+fn maps_come_only_with_the_maps_engine() {
+    // The core engine (no `maps` feature) refuses a map clearly, at the
+    // word that asks for it; the maps engine draws the committed golden bytes.
+    let spec = include_str!("../../../tests/golden/specs/map-mercator-points.json");
+    let out = strata_wasm::render(spec, None, "", 640.0);
+    let v: serde_json::Value = serde_json::from_str(&out).unwrap();
+    if strata::HAS_MAPS {
+        assert_eq!(v["svg"].as_str(), Some(include_str!("../../../tests/golden/out/edge-map-mercator-points.svg")), "{out}");
+    } else {
+        assert_eq!(v["ok"], false, "{out}");
+        assert_eq!(v["errors"][0]["code"], "spec.maps_unsupported");
+        assert_eq!(v["errors"][0]["path"], "coords");
+        let shapes = r#"{"shapes":{"features":[]},"layers":[{"draw":"region"}]}"#;
+        let v: serde_json::Value = serde_json::from_str(&strata_wasm::render(shapes, None, "", 640.0)).unwrap();
+        assert_eq!((v["errors"][0]["code"].as_str(), v["errors"][0]["path"].as_str()), (Some("spec.maps_unsupported"), Some("shapes")), "{v}");
+    }
+}

@@ -107,6 +107,9 @@ pub fn load_table(spec: &Spec, data: Option<DataBytes>) -> Result<data::Table, E
 /// bytes (`shapes.url`, fetched by the host), checked against `shapes.sha256`.
 pub fn load_shapes(spec: &Spec, bytes: Option<DataBytes>) -> Result<Option<Vec<geo::geojson::Feature>>, Errors> {
     let Some(s) = &spec.shapes else { return Ok(None) };
+    if !cfg!(feature = "maps") {
+        return Err(no_maps("shapes").into());
+    }
     let key = s.key.as_deref();
     if let Some(features) = &s.features {
         return geo::geojson::read(&serde_json::Value::Array(features.clone()), key, "shapes.features").map(Some).map_err(Errors);
@@ -129,6 +132,17 @@ pub fn load_shapes(spec: &Spec, bytes: Option<DataBytes>) -> Result<Option<Vec<g
         }
     }
     geo::geojson::read_bytes(b.bytes, key, "shapes").map(Some).map_err(Errors)
+}
+
+/// Whether this build draws maps (the `maps` feature).
+pub const HAS_MAPS: bool = cfg!(feature = "maps");
+
+/// The error of an engine built without the `maps` feature (the page's
+/// core engine) given a map: never a chart drawn without its map.
+pub(crate) fn no_maps(path: &str) -> Diagnostic {
+    Diagnostic::error("spec.maps_unsupported", "this engine draws no maps (it was built without the `maps` feature)")
+        .at_path(path)
+        .with_hint("load the maps engine (pkg/strata_wasm_maps.js); <strata-chart> picks it for specs with `shapes` or `coords.kind: map`")
 }
 
 /// The whole pipeline for a parsed spec; error messages are capped in length.

@@ -1,13 +1,16 @@
 #!/usr/bin/env python3
 """Arrow IPC fixtures written by pyarrow, with the values Strata should read.
 
-Run with: Python 3.11.7, pyarrow 26.0.1 (zoneinfo from the system tz database).
+Run with: Python 3.11.7, pyarrow 26.0.1, numpy 2.4.6 (for float16; zoneinfo
+from the system tz database).
     /work/venv/bin/python tests/reference/gen/arrow_fixtures.py
 
 Writes to tests/reference/fixtures/arrow/:
   types.arrow          IPC file format, 7 rows in 3 record batches
   types.arrows         the same table, IPC stream format
   empty.arrows         stream with a schema and no batches
+  delta.arrows         stream whose dictionary grows by delta batches
+                       (expected values under "delta" in types.json)
   compressed_lz4.arrow file format with LZ4 body compression (Strata's
                        reader is built without codecs: a clean error expected)
   types.json           per column: the Arrow type pyarrow wrote, the type
@@ -25,6 +28,7 @@ import os
 import platform
 from zoneinfo import ZoneInfo
 
+import numpy as np
 import pyarrow as pa
 import pyarrow.ipc as ipc
 
@@ -32,6 +36,7 @@ OUT = os.path.join(os.path.dirname(__file__), "..", "fixtures", "arrow")
 UTC = dt.timezone.utc
 NY = ZoneInfo("America/New_York")
 EPOCH = dt.date(1970, 1, 1)
+KEYS, DICT = [1, 0, None, 1, 1, 0, 1], [2.5, -1.0]
 
 
 def ms(t):
@@ -85,6 +90,25 @@ def main():
         "price": pa.array([decimal.Decimal("12.34"), decimal.Decimal("-0.01"), None, decimal.Decimal("99999999.99"), decimal.Decimal("0"), decimal.Decimal("1.5"), decimal.Decimal("-7")], pa.decimal128(10, 2)),
         "blob": pa.array([b"\x00", b"x", None, b"", b"yz", b"1", b"2"], pa.binary()),
         "nothing": pa.nulls(7),
+        # Narrow integers widen; float16 widens exactly.
+        "i8": pa.array([-128, 127, None, 0, 1, -1, 5], pa.int8()),
+        "i16": pa.array([-32768, 32767, None, 0, 1, -1, 5], pa.int16()),
+        "u16": pa.array([0, 65535, None, 1, 2, 3, 4], pa.uint16()),
+        "u32": pa.array([0, 4_294_967_295, None, 1, 2, 3, 4], pa.uint32()),
+        "u64_small": pa.array([0, 9_223_372_036_854_775_807, None, 1, 2, 3, 4], pa.uint64()),
+        "f16": pa.array(np.array([1.5, -2.0, 0, 65504.0, 0.000061035156, 2.0**-24, 0.1], dtype=np.float16), pa.float16(),
+                        mask=np.array([False, False, True, False, False, False, False])),
+        "dict_u8_numbers": pa.DictionaryArray.from_arrays(pa.array(KEYS, pa.uint8()), pa.array(DICT)),
+        # Types left out, of every buffer layout, between columns that are
+        # read (each one must be stepped over exactly).
+        "clock": pa.array([1, 2, None, 4, 5, 6, 7], pa.time32("s")),
+        "list": pa.array([[1], None, [], [2, 3], [4], [5, 6, 7], []], pa.list_(pa.int32())),
+        "wait": pa.array([1, 2, None, 4, 5, 6, 7], pa.duration("ms")),
+        "big_decimal": pa.array([decimal.Decimal("1.5")] * 7, pa.decimal256(40, 1)),
+        "large_blob": pa.array([b"a", None, b"", b"b", b"c", b"d", b"e"], pa.large_binary()),
+        "view_blob": pa.array([b"short", None, b"a value longer than twelve bytes", b"", b"x", b"y", b"z"], pa.binary_view()),
+        "pair": pa.array([{"a": 1, "b": "x"}, None, {"a": 2, "b": None}, {"a": 3, "b": "y"}, {"a": 4, "b": "z"}, {"a": 5, "b": ""}, {"a": 6, "b": "w"}]),
+        "after_skips": pa.array(["a value longer than twelve bytes", "b", None, "short", "", "long enough to sit in a data buffer", "z"], pa.string_view()),
     }
     table = pa.table(cols)
 
@@ -118,6 +142,21 @@ def main():
             "price": {"type": "float64", "values": [None if v is None else float(v) for v in cols["price"].to_pylist()]},
             "blob": {"type": "dropped"},
             "nothing": {"type": "utf8", "values": [None] * 7},
+            "i8": {"type": "int64", "values": cols["i8"].to_pylist()},
+            "i16": {"type": "int64", "values": cols["i16"].to_pylist()},
+            "u16": {"type": "int64", "values": cols["u16"].to_pylist()},
+            "u32": {"type": "int64", "values": cols["u32"].to_pylist()},
+            "u64_small": {"type": "int64", "values": cols["u64_small"].to_pylist()},
+            "f16": {"type": "float64", "values": [None if v is None else float(v) for v in cols["f16"].to_pylist()]},
+            "dict_u8_numbers": {"type": "float64", "values": [None if k is None else DICT[k] for k in KEYS]},
+            "clock": {"type": "dropped"},
+            "list": {"type": "dropped"},
+            "wait": {"type": "dropped"},
+            "big_decimal": {"type": "dropped"},
+            "large_blob": {"type": "dropped"},
+            "view_blob": {"type": "dropped"},
+            "pair": {"type": "dropped"},
+            "after_skips": {"type": "utf8", "values": cols["after_skips"].to_pylist()},
         },
     }
 
@@ -132,6 +171,17 @@ def main():
             w.write_batch(b)
     with ipc.new_stream(os.path.join(OUT, "empty.arrows"), pa.schema([("x", pa.float64()), ("label", pa.string())])) as w:
         pass
+    # A dictionary sent in parts: the second batch's dictionary adds values
+    # as a delta (pyarrow's emit_dictionary_deltas).
+    first = pa.array(["north", "south", None]).dictionary_encode()
+    second = pa.DictionaryArray.from_arrays(pa.array([2, 0, None, 3], pa.int32()), pa.array(["north", "south", "east", "west"]))
+    dschema = pa.schema([("place", first.type)])
+    with ipc.new_stream(os.path.join(OUT, "delta.arrows"), dschema, options=ipc.IpcWriteOptions(emit_dictionary_deltas=True)) as w:
+        w.write_batch(pa.record_batch([first], schema=dschema))
+        w.write_batch(pa.record_batch([second], schema=dschema))
+    back = ipc.open_stream(os.path.join(OUT, "delta.arrows")).read_all()
+    expected["delta"] = {"place": back.column("place").to_pylist()}
+    assert expected["delta"]["place"] == ["north", "south", None, "east", "north", None, "west"], expected["delta"]
     small = pa.table({"x": pa.array([1.0, 2.0, 3.0])})
     with ipc.new_file(os.path.join(OUT, "compressed_lz4.arrow"), small.schema, options=ipc.IpcWriteOptions(compression="lz4")) as w:
         w.write_table(small)

@@ -3,8 +3,7 @@
 //! `Float64` column is shared, not copied (see [`Nums::shared`]).
 //!
 //! The batch's columns must already be of the six hand-off types (Float64,
-//! Int64, Boolean, Utf8, Date32, Timestamp in ms); the IPC reader
-//! ([`super::ipc`]) normalises any other type to one of them first.
+//! Int64, Boolean, Utf8, Date32, Timestamp in ms).
 
 use super::table::{Column, Ints, Table};
 use super::Nums;

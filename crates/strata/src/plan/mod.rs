@@ -198,6 +198,15 @@ pub fn build_with_shapes(spec: &Spec, table: &Table, shapes: Option<Vec<crate::g
     let scales = scales::train(spec, &layers)?;
     warnings.extend(scales::chosen_color_warnings(&scales));
     let map = match map::coords(spec) {
+        // (Without the `maps` feature nothing of maps is reachable.)
+        Some(_) if !cfg!(feature = "maps") => {
+            let region = spec.layers.iter().position(|l| l.draw == Geometry::Region);
+            let path = match (&spec.coords, region) {
+                (Coords::Map(_), _) | (_, None) => "coords".to_string(),
+                (_, Some(i)) => format!("layers[{i}].draw"),
+            };
+            return Err(crate::no_maps(&path).into());
+        }
         Some(m) => Some(map::resolve(spec, &m, shapes, &layers, &mut warnings)?),
         None => None,
     };

@@ -513,7 +513,7 @@ fn statistics_group_by_panel_and_colour() {
     data.channels.insert(Channel::X, Values::Num(xs.iter().map(|x| Some(*x)).collect()));
     data.channels.insert(Channel::Color, Values::Text(colour.iter().map(|s| Some(s.to_string())).collect()));
     data.channels.insert(Channel::Panel, Values::Text(panel.iter().map(|s| Some(s.to_string())).collect()));
-    let layer: crate::spec::Layer = serde_json::from_str(r#"{"draw":"bar","x":"x","color":"c","stat":{"bin":{"count":2}}}"#).unwrap();
+    let layer: crate::spec::Layer = crate::spec::from_json(r#"{"draw":"bar","x":"x","color":"c","stat":{"bin":{"count":2}}}"#).unwrap();
     let out = super::apply(0, &layer, data.clone(), None).unwrap().data;
     // Four groups (left/p, left/q, right/p, right/q) x two shared bins [1, 2), [2, 3].
     assert_eq!(out.len, 8);
@@ -522,7 +522,7 @@ fn statistics_group_by_panel_and_colour() {
     assert_eq!(out.get(Channel::Panel).unwrap().key(2).as_deref(), Some("left"));
     assert_eq!(out.get(Channel::Color).unwrap().key(2).as_deref(), Some("q"));
     // Counts split the same way, and also by x.
-    let layer: crate::spec::Layer = serde_json::from_str(r#"{"draw":"bar","x":"x","color":"c","stat":"count"}"#).unwrap();
+    let layer: crate::spec::Layer = crate::spec::from_json(r#"{"draw":"bar","x":"x","color":"c","stat":"count"}"#).unwrap();
     let out = super::apply(0, &layer, data, None).unwrap().data;
     let n: f64 = (0..out.len).map(|i| out.get(Channel::Y).unwrap().num(i).unwrap()).sum();
     assert_eq!(n, 8.0);

@@ -108,7 +108,8 @@ pub fn has_no_data(plan: &Plan) -> bool {
 /// Draw the plan's map in the box. `reserve`: keep room for the "no data"
 /// entry under the map (panels keep it alike so every map has one scale).
 pub fn draw(plan: &Plan, pal: &Palette, left: f64, top: f64, right: f64, bottom: f64, reserve: bool) -> Vec<Node> {
-    let Some(m) = &plan.map else { return Vec::new() };
+    // (Without the `maps` feature no plan has a map: plan::build refuses it.)
+    let Some(m) = plan.map.as_ref().filter(|_| cfg!(feature = "maps")) else { return Vec::new() };
     let p = m.projection;
     let mut shapes: Vec<Pieces> = m.features.iter().map(|f| fit::project(&p, f)).collect();
     shapes.iter_mut().for_each(|s| rotate(s, m.rotate));

@@ -1,4 +1,4 @@
-//! Stage 1 — the spec: serde types for the chart vocabulary
+//! Stage 1 — the spec: typed values of the chart vocabulary
 //! (`shared/design/spec-language.md`) and parsing with located errors.
 //!
 //! Hand-off: [`Spec`], a typed, validated description of the chart. Nothing in
@@ -8,11 +8,17 @@
 mod vocab;
 pub mod defaults;
 mod parse;
+mod read;
 pub mod shape;
 mod suggest;
-mod words;
 
 pub use parse::{parse_spec_with, spec_from_value_with, ExtraCheck};
+
+/// A part of a spec (a layer, a scale...) from JSON text, unchecked: for tests.
+#[cfg(test)]
+pub(crate) fn from_json<T: read::Read>(text: &str) -> Result<T, String> {
+    T::read(&serde_json::from_str(text).map_err(|e| e.to_string())?)
+}
 pub use suggest::{closest, edit_distance, levenshtein};
 
 /// The JSON Schema of a spec as pretty-printed text (what `strata schema`
@@ -21,14 +27,13 @@ pub fn schema_text() -> String {
     serde_json::to_string_pretty(&shape::json_schema()).expect("schema serialises")
 }
 pub use vocab::*;
-pub use words::FromWord;
 
 use crate::channel::Channel;
 use indexmap::IndexMap;
-use serde::{Deserialize, Serialize};
+use serde::Serialize;
 
 /// A whole chart spec.
-#[derive(Debug, Clone, Default, Serialize, Deserialize)]
+#[derive(Debug, Clone, Default, Serialize)]
 #[serde(deny_unknown_fields)]
 pub struct Spec {
     /// The JSON Schema this spec follows, for editors; not used in drawing.
@@ -86,7 +91,7 @@ pub struct Spec {
 /// `unpivot`: each listed column becomes a row per input row, its name in
 /// the first `into` column and its value in the second; other columns are
 /// repeated. The names column keeps the listed order as its category order.
-#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[derive(Debug, Clone, Default, PartialEq, Serialize)]
 #[serde(deny_unknown_fields)]
 pub struct Unpivot {
     pub columns: Vec<String>,
@@ -108,7 +113,7 @@ pub enum DataRef {
     Object(DataObject),
 }
 
-#[derive(Debug, Clone, Default, Serialize, Deserialize)]
+#[derive(Debug, Clone, Default, Serialize)]
 #[serde(deny_unknown_fields)]
 pub struct DataObject {
     #[serde(default, skip_serializing_if = "Option::is_none")]
@@ -146,7 +151,7 @@ impl DataRef {
 }
 
 /// `shapes`: a GeoJSON (RFC 7946) source, by `url` or inline `features`.
-#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[derive(Debug, Clone, Default, PartialEq, Serialize)]
 #[serde(deny_unknown_fields)]
 pub struct Shapes {
     #[serde(default, skip_serializing_if = "Option::is_none")]
@@ -164,7 +169,7 @@ pub struct Shapes {
 
 // ---------------------------------------------------------------- layers
 
-#[derive(Debug, Clone, Serialize, Deserialize)]
+#[derive(Debug, Clone, Serialize)]
 #[serde(deny_unknown_fields)]
 pub struct Layer {
     pub draw: Geometry,
@@ -214,7 +219,7 @@ pub struct Mapping {
 }
 
 /// Constant styling of a layer; never data-driven.
-#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[derive(Debug, Clone, Default, PartialEq, Serialize)]
 #[serde(deny_unknown_fields)]
 pub struct Style {
     /// CSS colour for marks.
@@ -260,7 +265,7 @@ pub enum Stat {
 
 /// Object form of a statistic: exactly one of `bin`, `summary`, `fit`,
 /// `density`, `window`, with its options beside it.
-#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[derive(Debug, Clone, Default, PartialEq, Serialize)]
 #[serde(deny_unknown_fields)]
 pub struct StatObject {
     #[serde(default, skip_serializing_if = "Option::is_none")]
@@ -294,7 +299,7 @@ pub struct StatObject {
 
 /// `density` options: `bandwidth` is `"scott"` (default), `"silverman"` or a
 /// number in data units; `grid` is the number of points evaluated.
-#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[derive(Debug, Clone, Default, PartialEq, Serialize)]
 #[serde(deny_unknown_fields)]
 pub struct DensitySpec {
     #[serde(default, skip_serializing_if = "Option::is_none")]
@@ -305,7 +310,7 @@ pub struct DensitySpec {
 
 /// LOESS robustness: `true` (the default number of iterations), `false`, or
 /// a number of iterations.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
 #[serde(untagged)]
 pub enum Robust {
     Flag(bool),
@@ -313,7 +318,7 @@ pub enum Robust {
 }
 
 /// A density's bandwidth: a rule, or a width in data units.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
 #[serde(untagged)]
 pub enum Bandwidth {
     Rule(BandwidthRule),
@@ -323,7 +328,7 @@ pub enum Bandwidth {
 /// `window` options: `summary` is `"mean"` (default), `"sum"` or
 /// `"running_total"`; `rows` the window length; `align` `"center"` (default)
 /// or `"trailing"`.
-#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[derive(Debug, Clone, Default, PartialEq, Serialize)]
 #[serde(deny_unknown_fields)]
 pub struct WindowSpec {
     #[serde(default, skip_serializing_if = "Option::is_none")]
@@ -334,7 +339,7 @@ pub struct WindowSpec {
     pub align: Option<WindowAlign>,
 }
 
-#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[derive(Debug, Clone, Default, PartialEq, Serialize)]
 #[serde(deny_unknown_fields)]
 pub struct BinSpec {
     #[serde(default, skip_serializing_if = "Option::is_none")]
@@ -355,7 +360,7 @@ pub struct BinSpec {
 
 // ---------------------------------------------------------------- scales
 
-#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[derive(Debug, Clone, Default, PartialEq, Serialize)]
 #[serde(deny_unknown_fields)]
 pub struct ScaleSpec {
     #[serde(default, skip_serializing_if = "Option::is_none")]
@@ -414,7 +419,7 @@ pub struct ScaleSpec {
 
 /// `ticks`: a wanted count, or the values to mark (numbers, dates as text,
 /// or categories).
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[derive(Debug, Clone, PartialEq, Serialize)]
 #[serde(untagged)]
 pub enum Ticks {
     Count(u32),
@@ -432,7 +437,7 @@ impl Ticks {
 }
 
 /// `breaks`: `natural`, `quantile`, `equal`, or a list of numbers.
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[derive(Debug, Clone, PartialEq, Serialize)]
 #[serde(untagged)]
 pub enum Breaks {
     Method(BreakMethod),
@@ -451,7 +456,7 @@ pub enum Coords {
 }
 
 /// `coords: {"kind": "map", ...}`: x is longitude and y latitude (WGS 84 degrees).
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[derive(Debug, Clone, PartialEq, Serialize)]
 #[serde(deny_unknown_fields)]
 pub struct MapCoords {
     pub kind: MapKind,
@@ -511,7 +516,7 @@ fn default_true() -> bool {
     true
 }
 
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[derive(Debug, Clone, PartialEq, Serialize)]
 #[serde(deny_unknown_fields)]
 pub struct Polar {
     pub kind: PolarKind,
@@ -530,7 +535,7 @@ fn default_angle() -> AngleChannel {
     AngleChannel::X
 }
 
-#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[derive(Debug, Clone, Default, PartialEq, Serialize)]
 #[serde(deny_unknown_fields)]
 pub struct Panels {
     #[serde(default, skip_serializing_if = "Option::is_none")]
@@ -546,7 +551,7 @@ pub struct Panels {
 }
 
 /// An annotation at data positions: text, a shaded span, or a reference line.
-#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[derive(Debug, Clone, Default, PartialEq, Serialize)]
 #[serde(deny_unknown_fields)]
 pub struct Note {
     #[serde(default, skip_serializing_if = "Option::is_none")]
@@ -564,7 +569,7 @@ pub struct Note {
     pub pointer: bool,
 }
 
-#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[derive(Debug, Clone, Default, PartialEq, Serialize)]
 #[serde(deny_unknown_fields)]
 pub struct Size {
     #[serde(default, skip_serializing_if = "Option::is_none")]
@@ -587,7 +592,7 @@ pub enum Theme {
 }
 
 /// Theme overrides: any CSS colour; absent keys keep the base theme's value.
-#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[derive(Debug, Clone, Default, PartialEq, Serialize)]
 #[serde(deny_unknown_fields)]
 pub struct ThemeOverrides {
     #[serde(default, skip_serializing_if = "Option::is_none")]

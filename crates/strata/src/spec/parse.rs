@@ -5,12 +5,12 @@
 //! types saying what was expected and found, ranges); and checks that later
 //! stages pass in (the crate's `parse_spec` passes the syntax check of
 //! `derive` and `where` expressions, so the spec stage needs no expression
-//! parser). Only then does serde read the value.
+//! parser). Only then is the value read into the typed spec (`read.rs`).
 
+use super::read::Read;
 use super::shape::{check, spec_shape};
 use super::Spec;
 use crate::error::{Diagnostic, Errors};
-use serde::Deserialize;
 use serde_json::Value;
 
 /// A check of the raw spec value that a later stage owns, run beside the
@@ -49,10 +49,9 @@ pub fn spec_from_value_with(value: &Value, extra: ExtraCheck) -> Result<Spec, Er
         return Err(Errors(errors));
     }
     // The shape check has already reported every problem with its path; a
-    // value it accepts reads with serde (tests/spec_schema.rs holds this on
-    // thousands of mutations), so a failure here has no better path to give.
-    // Plain serde_json keeps the download small (no path-tracking wrapper).
-    Spec::deserialize(value).map_err(|e| Diagnostic::error("spec.invalid", strip_position(&e.to_string())).into())
+    // value it accepts reads (tests/spec_schema.rs holds this on thousands
+    // of mutations), so a failure here has no better path to give.
+    Spec::read(value).map_err(|e| Diagnostic::error("spec.invalid", e).into())
 }
 
 /// serde_json appends " at line L column C"; the path says more.

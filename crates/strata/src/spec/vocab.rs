@@ -1,7 +1,7 @@
 //! The spec's words, each list defined once. Every word enum comes from
 //! [`words!`], which gives it `ALL` (word and value, in the order the
 //! schema and messages list them), `WORDS`, `word()`, `from_word()` and
-//! serde in both directions through the same table. The shape check
+//! reading (`read.rs`) and serde writing through the same table. The shape check
 //! (`shape.rs`), the JSON Schema, serde and the plan all use these, so no
 //! later stage matches spec words as strings.
 
@@ -39,10 +39,12 @@ macro_rules! words {
             }
         }
 
-        impl<'de> serde::Deserialize<'de> for $name {
-            fn deserialize<D: serde::Deserializer<'de>>(d: D) -> Result<Self, D::Error> {
-                let w = <std::borrow::Cow<'de, str>>::deserialize(d)?;
-                $name::from_word(&w).ok_or_else(|| serde::de::Error::unknown_variant(&w, Self::WORDS))
+        impl crate::spec::read::Read for $name {
+            fn read(v: &serde_json::Value) -> Result<Self, String> {
+                crate::spec::read::word(v, Self::ALL)
+            }
+            fn fallback() -> Self {
+                Self::ALL[0].1
             }
         }
     };
@@ -352,10 +354,10 @@ mod tests {
         for (w, g) in Geometry::ALL {
             assert_eq!(g.word(), *w);
             assert_eq!(serde_json::to_value(g).unwrap(), serde_json::json!(w));
-            assert_eq!(serde_json::from_value::<Geometry>(serde_json::json!(w)).unwrap(), *g);
+            assert_eq!(<Geometry as crate::spec::read::Read>::read(&serde_json::json!(w)).unwrap(), *g);
         }
         assert_eq!(Geometry::WORDS.len(), Geometry::ALL.len());
-        let e = serde_json::from_value::<Geometry>(serde_json::json!("pie")).unwrap_err().to_string();
+        let e = <Geometry as crate::spec::read::Read>::read(&serde_json::json!("pie")).unwrap_err();
         assert!(e.contains("unknown variant `pie`"), "{e}");
         assert_eq!(Arrange::default(), Arrange::None);
         assert_eq!(DataTable::default().word(), "closed");
