@@ -5,13 +5,27 @@
 //   </strata-chart>
 //   <script type="module" src="strata/strata-chart.js"></script>
 //
-// The WebAssembly engine loads once per page, on first use. Any failure (bad
-// spec, unreachable data, a parse error) shows a message in the chart's
-// place and fires `strata-error`; nothing is thrown into the page, and a
-// pre-rendered <svg> already inside the element is kept until a new drawing
-// replaces it. Nothing from the spec or the data is ever run as script or
-// parsed as HTML: the engine escapes all text, and messages are set as text.
+// One engine serves every chart of the page. Its download and compilation
+// start when this module is evaluated, alongside the charts' data requests,
+// unless every chart on the page already shows a baked SVG that fits
+// (`strata bake`): then no engine loads until a chart needs one (a resize
+// past its baked widths, a theme or attribute change, `el.spec` set).
+//
+// Responsive: the spec's `size.width` is the widest the chart draws; in a
+// narrower container the chart is drawn at the container's width (the
+// engine's narrow layout below 400 px), so text is never scaled down.
+// Charts far below the fold wait until they come near the viewport.
+//
+// Any failure (bad spec, unreachable data, a parse error) shows a message in
+// the chart's place and fires `strata-error`; nothing is thrown into the
+// page, and a pre-rendered <svg> already inside the element is kept until a
+// new drawing replaces it. Nothing from the spec or the data is ever run as
+// script or parsed as HTML: the engine escapes all text, and messages are
+// set as text. The element writes no inline script or style attribute
+// beyond the tooltip's position, so a strict CSP holds.
 
+// Engine modules by name: the wasm-bindgen glue's URL; the compiled module
+// sits beside it as `<name>_bg.wasm`.
 const ENGINE_URLS = {
   core: new URL('./pkg/strata_wasm.js', import.meta.url),
   // The Arrow add-on: decodes Arrow IPC into columns the core engine reads
@@ -22,20 +36,50 @@ const SVG_NS = 'http://www.w3.org/2000/svg';
 
 const engines = {};
 const loaded = {};
+const compiled = {};
 let instances = 0;
 
+/** The engine's `.wasm` beside its glue. */
+function wasmUrl(kind) {
+  const url = new URL(ENGINE_URLS[kind]);
+  url.pathname = url.pathname.replace(/\.js$/, '_bg.wasm');
+  return url;
+}
+
 /**
- * Load an engine module once for the whole page. After a trap, `dropEngine`
- * forgets it and the next chart loads a fresh instance: a new module URL
- * (the `instance` query) gives a new module record and so new WebAssembly
- * memory, since the old instance's state cannot be trusted.
+ * Fetch and compile an engine's WebAssembly once for the page
+ * (`WebAssembly.compileStreaming`: compiled while it downloads). The
+ * compiled module outlives a trapped instance: a fresh instance reuses it.
+ */
+function compileEngine(kind) {
+  if (!compiled[kind]) {
+    const p = (async () => {
+      const res = await fetch(wasmUrl(kind), { credentials: 'same-origin' });
+      if (!res.ok) throw new Error(`could not load the chart engine: HTTP ${res.status}`);
+      const streaming = typeof WebAssembly.compileStreaming === 'function' && /^application\/wasm\b/.test(res.headers.get('content-type') || '');
+      return streaming ? WebAssembly.compileStreaming(res) : WebAssembly.compile(await res.arrayBuffer());
+    })();
+    compiled[kind] = p;
+    p.catch(() => {
+      if (compiled[kind] === p) delete compiled[kind];
+    });
+  }
+  return compiled[kind];
+}
+
+/**
+ * Load an engine module once for the whole page: its glue and its compiled
+ * WebAssembly, in parallel. After a trap, `dropEngine` forgets the instance
+ * and the next chart loads a fresh one: a new glue URL (the `instance`
+ * query) gives a new module record and so new WebAssembly memory, since the
+ * old instance's state cannot be trusted.
  */
 function loadEngine(kind = 'core') {
   if (!engines[kind]) {
     const url = new URL(ENGINE_URLS[kind]);
     if (instances > 0) url.searchParams.set('instance', String(instances));
-    const loading = import(url.href).then(async (m) => {
-      await m.default();
+    const loading = Promise.all([import(url.href), compileEngine(kind)]).then(async ([m, module]) => {
+      await m.default({ module_or_path: module });
       loaded[kind] = m;
       return m;
     });
@@ -55,7 +99,6 @@ function dropEngine(kind, module) {
   delete engines[kind];
   instances += 1;
 }
-
 /** How long a spec or data fetch may take, in seconds, when the `timeout` attribute does not say. */
 const DEFAULT_TIMEOUT_S = 30;
 
@@ -84,6 +127,8 @@ function adoptStyles() {
       'color:var(--strata-tooltip-text,#fff);background:var(--strata-tooltip-background,#1d232b)}' +
       'strata-chart>.strata-tooltip[hidden]{display:none}' +
       'strata-chart>svg.strata{display:block;max-width:100%;height:auto}' +
+      'strata-chart>.strata-downloads{display:flex;flex-wrap:wrap;gap:.4em;margin:.35em 0 0;font:13px/1.4 system-ui,sans-serif}' +
+      'strata-chart>.strata-downloads>button{font:inherit;padding:.2em .7em;cursor:pointer}' +
       'strata-chart>details.strata-data{font:13px/1.4 system-ui,sans-serif;margin:.25em 0 0}' +
       'strata-chart>details.strata-data>summary{cursor:pointer}' +
       'strata-chart>details.strata-data>table{display:block;max-height:24em;overflow:auto;border-collapse:collapse;margin:.4em 0}' +
@@ -131,9 +176,90 @@ class ChartError extends Error {
 
 const fail = (code, message, extra = {}) => new ChartError([{ severity: 'error', code, message, ...extra }]);
 
+/** Width changes smaller than this (CSS px) never redraw, so a scrollbar's coming and going cannot loop. */
+const MIN_CHANGE = 8;
+/** How long (ms) the container's width must hold still before a redraw. */
+const SETTLE_MS = 150;
+/** A redraw wider than a width the chart shrank from this recently (ms) is a flip-flop and is skipped. */
+const FLIP_FLOP_MS = 2000;
+/** Charts within this many viewport heights of the viewport draw; the rest wait. */
+const NEAR = 1.5;
+
+/** The width of an element's content box in CSS px (0 when it is not laid out). */
+function contentWidth(el) {
+  const r = el.getBoundingClientRect();
+  if (!r.width) return 0;
+  const cs = getComputedStyle(el);
+  const edges = ['paddingLeft', 'paddingRight', 'borderLeftWidth', 'borderRightWidth'].reduce((s, k) => s + (parseFloat(cs[k]) || 0), 0);
+  return Math.max(0, r.width - edges);
+}
+
+/** The `strata bake` SVGs inside an element. */
+const bakedSvgs = (el) => [...el.querySelectorAll(':scope > svg.strata-baked')];
+const shown = (node) => getComputedStyle(node).display !== 'none';
+
+/**
+ * The baked SVG the theme sheet shows, when exactly one shows and it fits
+ * the container without being scaled down (a container not laid out, width
+ * 0, keeps it too: nothing is read there).
+ */
+function bakedFit(el, cw) {
+  const visible = bakedSvgs(el).filter(shown);
+  if (visible.length !== 1) return null;
+  const w = Number(visible[0].getAttribute('width'));
+  if (!(w > 0)) return null;
+  return cw === 0 || w <= cw + 0.5 ? visible[0] : null;
+}
+
+/** One field of RFC 4180 CSV. */
+const csvField = (s) => (/[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s);
+
+/** A data table (`<table>` of the engine's `<details>`) as RFC 4180 CSV: the header, then the rows as shown. */
+export function tableCsv(table) {
+  const lines = [];
+  const head = [...table.querySelectorAll(':scope > thead > tr > th')].map((c) => c.textContent);
+  if (head.length) lines.push(head);
+  for (const tr of table.querySelectorAll(':scope > tbody > tr')) lines.push([...tr.children].map((c) => c.textContent));
+  return lines.map((cells) => cells.map(csvField).join(',') + '\r\n').join('');
+}
+
+/** The SVG element as a standalone file's text. */
+function svgFileText(svg) {
+  return '<?xml version="1.0" encoding="UTF-8"?>\n' + new XMLSerializer().serializeToString(svg);
+}
+
+/** Draw the SVG in the page onto a canvas (twice its size, or the screen's pixel ratio when higher) and encode a PNG. */
+async function pngOf(svg) {
+  const box = svg.getBoundingClientRect();
+  const w = Number(svg.getAttribute('width')) || box.width;
+  const h = Number(svg.getAttribute('height')) || box.height;
+  const img = new Image();
+  img.src = 'data:image/svg+xml;charset=utf-8,' + encodeURIComponent(new XMLSerializer().serializeToString(svg));
+  await img.decode();
+  const scale = Math.max(2, Math.ceil(window.devicePixelRatio || 1));
+  const canvas = document.createElement('canvas');
+  canvas.width = Math.round(w * scale);
+  canvas.height = Math.round(h * scale);
+  canvas.getContext('2d').drawImage(img, 0, 0, canvas.width, canvas.height);
+  return new Promise((resolve, reject) => canvas.toBlob((b) => (b ? resolve(b) : reject(new Error('the browser could not encode the PNG'))), 'image/png'));
+}
+
+/** Hand a file to the browser's downloads (an <a download> with a blob: URL: no inline script, no navigation). */
+function save(blob, filename) {
+  const url = URL.createObjectURL(blob);
+  const a = document.createElement('a');
+  a.href = url;
+  a.download = filename;
+  a.hidden = true;
+  document.body.append(a);
+  a.click();
+  a.remove();
+  setTimeout(() => URL.revokeObjectURL(url), 60000);
+}
+
 export class StrataChart extends HTMLElement {
   static get observedAttributes() {
-    return ['src', 'spec-src', 'shapes-src', 'theme', 'timeout'];
+    return ['src', 'spec-src', 'shapes-src', 'theme', 'timeout', 'downloads', 'loading'];
   }
 
   #spec = null; // object set from JavaScript
@@ -143,16 +269,84 @@ export class StrataChart extends HTMLElement {
   #tableHtml = '';
   #generation = 0;
   #scheduled = false;
-  #resize = null;
-  #lastWidth = 0;
   #drawing = Promise.resolve();
+  #status = 'idle';
+  #connected = false;
+  #ready = false; // connected once: attribute changes from then on redraw
+  #force = false; // something changed since the bake: the chart must be drawn live
+  #ctl = null; // aborts the current drawing's fetches
+  #resize = null;
+  #near = null;
+  #settle = 0;
+  #specWidth = 0; // the spec's size.width (0: none), as last read
+  #drawnWidth = 0;
+  #lastShrink = null; // { from, at }: the last redraw narrower than the one before
+
+  constructor() {
+    super();
+    // Properties set on the element before it was defined sit on the
+    // instance and hide the accessors: move them through the setters.
+    for (const p of ['spec', 'rows', 'table']) {
+      if (Object.prototype.hasOwnProperty.call(this, p)) {
+        const v = this[p];
+        delete this[p];
+        this[p] = v;
+      }
+    }
+  }
 
   connectedCallback() {
     adoptStyles();
     this.addEventListener('focusin', this.#showTip);
     this.addEventListener('focusout', this.#hideTip);
     this.addEventListener('keydown', this.#moveFocus);
-    this.#schedule();
+    this.#connected = true;
+    this.#ready = true;
+    this.#watchSize();
+    if (this.#status === 'drawn' && !this.#force) {
+      // Moved within the page: the drawing stays; the size watch redraws if the new place is narrower.
+      this.#updateDownloads();
+      return;
+    }
+    if (!this.#force && bakedFit(this, contentWidth(this))) {
+      // A baked chart that fits: no engine, no drawing.
+      this.#status = 'baked';
+      this.#updateDownloads();
+      return;
+    }
+    // Start the engine now, in parallel with this chart's data.
+    loadEngine('core').catch(() => {});
+    this.#request();
+  }
+
+  disconnectedCallback() {
+    this.#connected = false;
+    this.#generation += 1; // a drawing under way now finishes silently
+    this.#ctl?.abort();
+    this.#ctl = null;
+    this.#resize?.disconnect();
+    this.#resize = null;
+    this.#unwatchNear();
+    clearTimeout(this.#settle);
+    if (this.#status === 'drawing' || this.#status === 'waiting') this.#status = 'idle';
+  }
+
+  attributeChangedCallback(name, old, value) {
+    // On upgrade every attribute reports once before connectedCallback: not a change.
+    if (!this.#ready || old === value) return;
+    if (name === 'downloads') {
+      this.#updateDownloads();
+      return;
+    }
+    if (name === 'loading') {
+      if (this.#status === 'waiting' && value === 'eager') this.#request();
+      return;
+    }
+    this.#force = true;
+    if (this.#connected) {
+      loadEngine('core').catch(() => {});
+      this.#request();
+    }
   }
 
   /** A mark with `tooltip` columns took keyboard focus: show its words beside it. */
@@ -201,34 +395,25 @@ export class StrataChart extends HTMLElement {
     if (tooltip) tooltip.hidden = true;
   };
 
-  disconnectedCallback() {
-    this.#resize?.disconnect();
-    this.#resize = null;
-  }
-
-  attributeChangedCallback() {
-    if (this.isConnected) this.#schedule();
-  }
-
   /** The spec as an object; setting it redraws. */
   get spec() {
     return this.#spec;
   }
   set spec(value) {
     this.#spec = value;
-    this.#schedule();
+    this.#changed();
   }
   /** Records to draw instead of fetched data. */
   set rows(value) {
     this.#rows = value;
-    this.#schedule();
+    this.#changed();
   }
   /** Arrow IPC bytes to draw instead of fetched data. */
   set table(value) {
     this.#table = value;
-    this.#schedule();
+    this.#changed();
   }
-  /** The SVG text of the last drawing, exactly as the engine wrote it. */
+  /** The SVG text of the last drawing, exactly as the engine wrote it ('' while a baked chart is kept). */
   get svgText() {
     return this.#svgText;
   }
@@ -236,11 +421,28 @@ export class StrataChart extends HTMLElement {
   get tableHtml() {
     return this.#tableHtml;
   }
+  /**
+   * Where the element is: 'idle' (not drawn yet), 'waiting' (far below the
+   * fold), 'drawing', 'drawn', 'baked' (showing a baked SVG that fits, with
+   * no engine) or 'error'.
+   */
+  get status() {
+    return this.#status;
+  }
+
+  #changed() {
+    this.#force = true;
+    if (this.#connected) {
+      loadEngine('core').catch(() => {});
+      this.#request();
+    }
+  }
 
   /**
-   * Redraw now; resolves when the element shows its current spec (errors are
-   * shown, not thrown). A spec, data or attribute set while this drawing is
-   * under way starts a newer one, and the promise waits for that too.
+   * Redraw now, near the viewport or not, baked or not; resolves when the
+   * element shows its current spec (errors are shown, not thrown). A spec,
+   * data or attribute set while this drawing is under way starts a newer
+   * one, and the promise waits for that too.
    */
   async render() {
     this.#draw();
@@ -252,17 +454,98 @@ export class StrataChart extends HTMLElement {
     }
   }
 
+  /** A drawing is needed: now when the chart is near the viewport (or `loading="eager"`), else when it comes near. */
+  #request() {
+    if (!this.#connected) return;
+    if (this.getAttribute('loading') === 'eager' || this.#isNear() || typeof IntersectionObserver === 'undefined') {
+      this.#unwatchNear();
+      this.#schedule();
+      return;
+    }
+    this.#status = 'waiting';
+    if (this.#near) return;
+    const io = new IntersectionObserver(
+      (entries) => {
+        if (this.#near !== io || !entries.some((e) => e.isIntersecting)) return;
+        this.#unwatchNear();
+        this.#schedule();
+      },
+      { rootMargin: `${NEAR * 100}% 0px` }
+    );
+    io.observe(this);
+    this.#near = io;
+  }
+
+  #isNear() {
+    const r = this.getBoundingClientRect();
+    if (!r.width && !r.height) return true; // not laid out (hidden): draw, as a page showing it later expects
+    const h = window.innerHeight || document.documentElement.clientHeight || 0;
+    return r.bottom >= -NEAR * h && r.top <= h + NEAR * h;
+  }
+
+  #unwatchNear() {
+    this.#near?.disconnect();
+    this.#near = null;
+  }
+
+  #watchSize() {
+    if (this.#resize || typeof ResizeObserver === 'undefined') return;
+    const ro = new ResizeObserver((entries) => {
+      if (this.#resize !== ro) return;
+      const w = entries[entries.length - 1].contentRect.width;
+      // Wait until the width has settled.
+      clearTimeout(this.#settle);
+      this.#settle = setTimeout(() => {
+        if (this.#resize === ro) this.#widthChanged(w);
+      }, SETTLE_MS);
+    });
+    ro.observe(this);
+    this.#resize = ro;
+  }
+
+  /** The width to draw at in a container `cw` px wide: the container's, up to the spec's `size.width`. */
+  #targetWidth(cw) {
+    if (!(cw > 0)) return this.#specWidth || 640;
+    const w = Math.max(1, Math.floor(cw + 0.01));
+    return this.#specWidth ? Math.min(this.#specWidth, w) : w;
+  }
+
+  #widthChanged(cw) {
+    if (!this.#connected) return;
+    if (this.#status === 'baked') {
+      // The sheet shows the baked SVG that fits; draw only when none does.
+      if (!bakedFit(this, cw)) {
+        loadEngine('core').catch(() => {});
+        this.#request();
+      }
+      return;
+    }
+    // Waiting and drawing charts read the width when they draw; errors do not depend on it.
+    if (this.#status !== 'drawn') return;
+    const target = this.#targetWidth(cw);
+    if (Math.abs(target - this.#drawnWidth) < MIN_CHANGE) return;
+    // Wider again, to about the width just left: a scrollbar came and went
+    // because the drawing's height changed. The narrower drawing fits both.
+    const s = this.#lastShrink;
+    if (target > this.#drawnWidth && s && Math.abs(target - s.from) < MIN_CHANGE && performance.now() - s.at < FLIP_FLOP_MS) return;
+    this.#request();
+  }
+
   #schedule() {
     if (this.#scheduled) return;
     this.#scheduled = true;
     queueMicrotask(() => {
       this.#scheduled = false;
-      this.#draw();
+      if (this.#connected) this.#draw();
     });
   }
 
   #draw() {
-    const p = this.#drawOnce();
+    this.#unwatchNear();
+    this.#ctl?.abort(); // an outdated drawing's fetches stop
+    const ctl = new AbortController();
+    this.#ctl = ctl;
+    const p = this.#drawOnce(ctl.signal);
     this.#drawing = p;
     return p;
   }
@@ -275,11 +558,16 @@ export class StrataChart extends HTMLElement {
 
   /**
    * Fetch with the element's time limit; the limit covers the whole body, so
-   * a response that starts and never finishes is also stopped.
+   * a response that starts and never finishes is also stopped. `signal`
+   * (the drawing's) aborts it when the drawing is outdated or the element
+   * leaves the page.
    */
-  async #fetchBytes(url, code, what, path) {
+  async #fetchBytes(url, code, what, path, signal) {
     const seconds = this.#timeoutSeconds();
     const ctl = new AbortController();
+    const stop = () => ctl.abort();
+    if (signal.aborted) ctl.abort();
+    else signal.addEventListener('abort', stop, { once: true });
     let timedOut = false;
     const timer = setTimeout(() => {
       timedOut = true;
@@ -307,15 +595,16 @@ export class StrataChart extends HTMLElement {
       }
     } finally {
       clearTimeout(timer);
+      signal.removeEventListener('abort', stop);
     }
   }
 
-  async #specSource() {
+  async #specSource(signal) {
     if (this.#spec) return { text: JSON.stringify(this.#spec), base: document.baseURI };
     const specSrc = this.getAttribute('spec-src');
     if (specSrc) {
       const url = new URL(specSrc, document.baseURI);
-      const bytes = await this.#fetchBytes(url, 'spec.fetch', 'spec', null);
+      const bytes = await this.#fetchBytes(url, 'spec.fetch', 'spec', null, signal);
       return { text: new TextDecoder().decode(bytes), base: url.href };
     }
     const script = this.querySelector(':scope > script[type="application/json"]');
@@ -327,33 +616,17 @@ export class StrataChart extends HTMLElement {
     return { text: script.textContent, base: document.baseURI };
   }
 
-  #fetchData(url, path = 'data.url') {
-    return path === 'data.url' ? this.#fetchBytes(url, 'data.fetch', 'data', path) : this.#fetchBytes(url, 'shapes.fetch', 'shapes', path);
+  #fetchData(url, path, signal) {
+    return path === 'data.url'
+      ? this.#fetchBytes(url, 'data.fetch', 'data', path, signal)
+      : this.#fetchBytes(url, 'shapes.fetch', 'shapes', path, signal);
   }
 
-  #width(spec) {
-    const fixed = spec && spec.size && typeof spec.size.width === 'number';
-    if (fixed) {
-      this.#resize?.disconnect();
-      this.#resize = null;
-      return spec.size.width;
-    }
-    // No width in the spec: fill the container and redraw when it resizes.
-    if (!this.#resize && typeof ResizeObserver !== 'undefined') {
-      this.#resize = new ResizeObserver((entries) => {
-        const w = Math.round(entries[entries.length - 1].contentRect.width);
-        if (w > 0 && Math.abs(w - this.#lastWidth) >= 1) this.#schedule();
-      });
-      this.#resize.observe(this);
-    }
-    const w = Math.round(this.clientWidth || this.getBoundingClientRect().width || 0);
-    return w > 0 ? w : 640;
-  }
-
-  async #drawOnce() {
+  async #drawOnce(signal) {
     const generation = ++this.#generation;
+    this.#status = 'drawing';
     try {
-      const source = await this.#specSource();
+      const source = await this.#specSource(signal);
       let text = source.text;
       let spec = null;
       try {
@@ -361,10 +634,12 @@ export class StrataChart extends HTMLElement {
       } catch {
         // Leave it to the engine, which names the line and column.
       }
-      let bytes;
       let name = '';
-      if (spec && typeof spec === 'object' && !Array.isArray(spec)) {
-        let changed = false;
+      let dataUrl = null;
+      let table = null;
+      let changed = false;
+      const isObject = spec && typeof spec === 'object' && !Array.isArray(spec);
+      if (isObject) {
         const theme = this.getAttribute('theme');
         if (theme) {
           spec.theme = theme;
@@ -375,27 +650,36 @@ export class StrataChart extends HTMLElement {
           delete spec.data.url;
           changed = true;
         }
-        if (changed) text = JSON.stringify(spec);
         if (this.#table) {
-          bytes = this.#table instanceof Uint8Array ? this.#table : new Uint8Array(this.#table);
+          table = this.#table instanceof Uint8Array ? this.#table : new Uint8Array(this.#table);
           name = 'table.arrow';
         } else if (!this.#rows) {
           const declared = typeof spec.data === 'string' ? spec.data : spec.data && spec.data.url;
           const src = this.getAttribute('src');
-          const url = src ? new URL(src, document.baseURI) : declared ? new URL(declared, source.base) : null;
-          if (url) {
-            bytes = await this.#fetchData(url);
-            name = url.pathname;
-          }
+          dataUrl = src ? new URL(src, document.baseURI) : declared ? new URL(declared, source.base) : null;
+          if (dataUrl) name = dataUrl.pathname;
         }
       }
       // GeoJSON shapes of a map: the `shapes-src` attribute, or `shapes.url`.
-      let shapes;
-      const shapesDeclared = spec && typeof spec === 'object' && spec.shapes && typeof spec.shapes === 'object' ? spec.shapes.url : null;
+      const shapesDeclared = isObject && spec.shapes && typeof spec.shapes === 'object' ? spec.shapes.url : null;
       const shapesSrc = this.getAttribute('shapes-src');
       const shapesUrl = shapesSrc ? new URL(shapesSrc, document.baseURI) : typeof shapesDeclared === 'string' ? new URL(shapesDeclared, source.base) : null;
-      if (shapesUrl) shapes = await this.#fetchData(shapesUrl, 'shapes.url');
-      const width = this.#width(spec);
+      // Data and shapes arrive together (the engine is already on its way).
+      const [fetched, shapes] = await Promise.all([
+        dataUrl ? this.#fetchData(dataUrl, 'data.url', signal) : null,
+        shapesUrl ? this.#fetchData(shapesUrl, 'shapes.url', signal) : undefined,
+      ]);
+      const bytes = table || fetched || undefined;
+      if (generation !== this.#generation) return;
+      // Responsive: `size.width` is the widest the chart draws.
+      const declaredWidth = isObject && spec.size && typeof spec.size === 'object' ? spec.size.width : undefined;
+      this.#specWidth = typeof declaredWidth === 'number' && declaredWidth > 0 ? declaredWidth : 0;
+      const width = this.#targetWidth(contentWidth(this));
+      if (this.#specWidth && width < this.#specWidth) {
+        spec.size = { ...spec.size, width };
+        changed = true;
+      }
+      if (changed) text = JSON.stringify(spec);
       const arrow = !!bytes && isArrow(bytes, name, spec);
       let raw;
       for (let attempt = 0; ; attempt += 1) {
@@ -429,17 +713,24 @@ export class StrataChart extends HTMLElement {
       const answer = JSON.parse(raw);
       if (generation !== this.#generation) return;
       if (!answer.ok) throw new ChartError(answer.errors);
-      this.#lastWidth = width;
       this.#show(answer.svg, answer.table || '');
+      if (width < this.#drawnWidth) this.#lastShrink = { from: this.#drawnWidth, at: performance.now() };
+      this.#drawnWidth = width;
+      this.#status = 'drawn';
+      this.#force = false;
+      this.#updateDownloads();
       this.dispatchEvent(
         new CustomEvent('strata-render', {
           bubbles: true,
           detail: { width: answer.width, height: answer.height, warnings: answer.warnings || [] },
         })
       );
+      // The container may have changed while this drawing was under way.
+      if (this.#connected && generation === this.#generation) this.#widthChanged(contentWidth(this));
     } catch (e) {
       if (generation !== this.#generation) return;
       const errors = e instanceof ChartError ? e.errors : [{ severity: 'error', code: 'internal', message: String(e && e.message ? e.message : e) }];
+      this.#status = 'error';
       this.#showError(errors);
       this.dispatchEvent(new CustomEvent('strata-error', { bubbles: true, detail: { errors } }));
     }
@@ -463,9 +754,11 @@ export class StrataChart extends HTMLElement {
       table = document.importNode(t, true);
     }
     const svg = document.importNode(root, true);
+    // The first SVG (pre-rendered or baked) makes way; the other baked widths go.
     const old = this.querySelector(':scope > svg');
     if (old) old.replaceWith(svg);
     else this.append(svg);
+    for (const b of bakedSvgs(this)) b.remove();
     const oldTable = this.querySelector(':scope > details.strata-data');
     if (table) {
       // A redraw (a resize, say) keeps the table open if the reader opened it.
@@ -493,6 +786,69 @@ export class StrataChart extends HTMLElement {
     }
     box.textContent = errors.map(describeError).join('\n');
   }
+
+  /** The chart the reader sees: the drawn SVG, or the baked one the theme sheet shows. */
+  #shownSvg() {
+    return [...this.querySelectorAll(':scope > svg')].find(shown) || null;
+  }
+
+  /** The `downloads` attribute: buttons for the SVG, a PNG and the CSV of each data table. */
+  #updateDownloads() {
+    let bar = this.querySelector(':scope > .strata-downloads');
+    const svg = this.hasAttribute('downloads') ? this.#shownSvg() : null;
+    if (!svg) {
+      bar?.remove();
+      return;
+    }
+    if (!bar) {
+      bar = document.createElement('div');
+      bar.className = 'strata-downloads';
+      bar.setAttribute('role', 'group');
+      bar.setAttribute('aria-label', 'Download this chart');
+      bar.addEventListener('click', this.#download);
+      this.append(bar);
+    }
+    const tables = [...this.querySelectorAll(':scope > details.strata-data > table')];
+    const buttons = [
+      ['svg', 'Download SVG'],
+      ['png', 'Download PNG'],
+      ...tables.map((t, i) => [`csv-${i}`, tables.length > 1 ? `Download CSV (layer ${(t.caption?.textContent.match(/^Layer (\d+)/) || [, i + 1])[1]})` : 'Download CSV']),
+    ];
+    bar.replaceChildren(
+      ...buttons.map(([kind, label]) => {
+        const b = document.createElement('button');
+        b.type = 'button';
+        b.dataset.strataDownload = kind;
+        b.textContent = label;
+        return b;
+      })
+    );
+  }
+
+  #download = async (event) => {
+    const button = event.target instanceof Element ? event.target.closest('button[data-strata-download]') : null;
+    if (!button) return;
+    const kind = button.dataset.strataDownload;
+    const base = (this.id || 'chart').replace(/[^\w.-]+/g, '_');
+    const svg = this.#shownSvg();
+    if (!svg) return;
+    try {
+      if (kind === 'svg') {
+        save(new Blob([svgFileText(svg)], { type: 'image/svg+xml' }), `${base}.svg`);
+      } else if (kind === 'png') {
+        save(await pngOf(svg), `${base}.png`);
+      } else if (kind.startsWith('csv-')) {
+        const tables = [...this.querySelectorAll(':scope > details.strata-data > table')];
+        const i = Number(kind.slice(4));
+        const table = tables[i];
+        if (!table) return;
+        save(new Blob([tableCsv(table)], { type: 'text/csv;charset=utf-8' }), tables.length > 1 ? `${base}-layer-${i + 1}.csv` : `${base}.csv`);
+      }
+    } catch (e) {
+      const errors = [{ severity: 'error', code: 'download', message: `could not make the ${kind.replace(/-\d+$/, '').toUpperCase()} file: ${e && e.message ? e.message : e}` }];
+      this.dispatchEvent(new CustomEvent('strata-error', { bubbles: true, detail: { errors } }));
+    }
+  };
 }
 
 if (!customElements.get('strata-chart')) customElements.define('strata-chart', StrataChart);
