@@ -316,7 +316,30 @@ export class StrataChart extends HTMLElement {
     }
     // Start the engine now, in parallel with this chart's data.
     loadEngine('core').catch(() => {});
+    this.#reserve();
     this.#request();
+  }
+
+  /**
+   * Before the first drawing, hold the height the chart will take (from an
+   * inline spec's size, as the engine sizes it), so the page does not jump
+   * when it arrives and charts below the fold are known to be there.
+   */
+  #reserve() {
+    if (this.querySelector(':scope > svg')) return;
+    let size = null;
+    try {
+      const spec = this.#spec || JSON.parse(this.querySelector(':scope > script[type="application/json"]')?.textContent || 'null');
+      size = spec && typeof spec.size === 'object' && spec.size ? spec.size : {};
+    } catch {
+      return;
+    }
+    if (!size) return;
+    const num = (v) => (typeof v === 'number' && Number.isFinite(v) && v > 0 ? v : 0);
+    const cw = contentWidth(this);
+    const width = Math.min(4000, Math.max(120, num(size.width) ? Math.min(num(size.width), cw || num(size.width)) : cw || 640));
+    const height = num(size.height) || width / (num(size.aspect) || (width <= 400 ? 1.1 : 1.6));
+    this.style.minHeight = `${Math.round(Math.min(4000, Math.max(80, height)))}px`;
   }
 
   disconnectedCallback() {
@@ -512,9 +535,12 @@ export class StrataChart extends HTMLElement {
 
   #widthChanged(cw) {
     if (!this.#connected) return;
-    if (this.#status === 'baked') {
+    if (this.#status === 'baked' || (this.#status === 'waiting' && !this.#force && bakedSvgs(this).length)) {
       // The sheet shows the baked SVG that fits; draw only when none does.
-      if (!bakedFit(this, cw)) {
+      if (bakedFit(this, cw)) {
+        this.#unwatchNear();
+        this.#status = 'baked';
+      } else if (this.#status === 'baked') {
         loadEngine('core').catch(() => {});
         this.#request();
       }
@@ -769,6 +795,7 @@ export class StrataChart extends HTMLElement {
       oldTable?.remove();
     }
     this.querySelector(':scope > .strata-error')?.remove();
+    this.style.removeProperty('min-height');
     this.#svgText = svgText;
     this.#tableHtml = tableHtml;
   }
@@ -785,6 +812,7 @@ export class StrataChart extends HTMLElement {
       else this.append(box);
     }
     box.textContent = errors.map(describeError).join('\n');
+    this.style.removeProperty('min-height');
   }
 
   /** The chart the reader sees: the drawn SVG, or the baked one the theme sheet shows. */
