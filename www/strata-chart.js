@@ -92,6 +92,23 @@ function loadEngine(kind = 'core') {
   return engines[kind];
 }
 
+const warmed = new WeakSet();
+/**
+ * Draw a tiny chart once on a fresh engine while the page's data is still
+ * on its way: the browser compiles WebAssembly functions on their first
+ * call, so the reader, planner and SVG writer are compiled by the time the
+ * data arrives instead of after.
+ */
+function warmUp(engine) {
+  if (warmed.has(engine)) return;
+  warmed.add(engine);
+  try {
+    engine.render('{"layers":[{"draw":"line","x":"a","y":"b"},{"draw":"point","x":"a","y":"b"}],"title":"w"}', new TextEncoder().encode('a,b\n1,2\n2,3\n3,1\n'), 'warm.csv', 320);
+  } catch {
+    /* a warm-up is a nicety; the real drawing reports its own errors */
+  }
+}
+
 /** Forget an engine that trapped (a panic, a stack overflow, out of memory). */
 function dropEngine(kind, module) {
   if (loaded[kind] !== module) return; // already replaced by a fresh one
@@ -691,10 +708,24 @@ export class StrataChart extends HTMLElement {
       const shapesSrc = this.getAttribute('shapes-src');
       const shapesUrl = shapesSrc ? new URL(shapesSrc, document.baseURI) : typeof shapesDeclared === 'string' ? new URL(shapesDeclared, source.base) : null;
       // Data and shapes arrive together (the engine is already on its way).
-      const [fetched, shapes] = await Promise.all([
+      const arriving = Promise.all([
         dataUrl ? this.#fetchData(dataUrl, 'data.url', signal) : null,
         shapesUrl ? this.#fetchData(shapesUrl, 'shapes.url', signal) : undefined,
       ]);
+      if (dataUrl || shapesUrl) {
+        let arrived = false;
+        arriving.then(
+          () => (arrived = true),
+          () => (arrived = true)
+        );
+        loadEngine('core').then(
+          (engine) => {
+            if (!arrived && generation === this.#generation) warmUp(engine);
+          },
+          () => {}
+        );
+      }
+      const [fetched, shapes] = await arriving;
       const bytes = table || fetched || undefined;
       if (generation !== this.#generation) return;
       // Responsive: `size.width` is the widest the chart draws.

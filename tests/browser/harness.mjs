@@ -101,3 +101,6 @@ export async function settled(page, timeout = 15000) {
     { timeout, polling: 50 }
   );
 }
+
+/** playwright-core's Chromium driver, for the benches under bench/browser (which have no node_modules of their own). */
+export { chromium };
