@@ -114,8 +114,6 @@ export interface StrataChartEventMap extends HTMLElementEventMap {
 /** One diagnostic as a line of text, as the element shows it. */
 export declare function describeError(d: StrataDiagnostic): string;
 
-/** A data table's `<table>` (in the element's `details.strata-data`) as RFC 4180 CSV: the header row, then the rows, CRLF line ends. */
-export declare function tableCsv(table: HTMLTableElement): string;
 
 declare global {
   interface HTMLElementTagNameMap {

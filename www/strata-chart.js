@@ -1,28 +1,16 @@
-// <strata-chart>: draws a Strata chart spec as SVG in the page.
+// <strata-chart>: draws a Strata chart spec as SVG in the page; see docs/element.md.
 //
 //   <strata-chart src="data.csv">
 //     <script type="application/json">{ "layers": [ ... ] }</script>
 //   </strata-chart>
 //   <script type="module" src="strata/strata-chart.js"></script>
 //
-// One engine serves every chart of the page. Its download and compilation
-// start when this module is evaluated, alongside the charts' data requests,
-// unless every chart on the page already shows a baked SVG that fits
-// (`strata bake`): then no engine loads until a chart needs one (a resize
-// past its baked widths, a theme or attribute change, `el.spec` set).
-//
-// Responsive: the spec's `size.width` is the widest the chart draws; in a
-// narrower container the chart is drawn at the container's width (the
-// engine's narrow layout below 400 px), so text is never scaled down.
-// Charts far below the fold wait until they come near the viewport.
-//
-// Any failure (bad spec, unreachable data, a parse error) shows a message in
-// the chart's place and fires `strata-error`; nothing is thrown into the
-// page, and a pre-rendered <svg> already inside the element is kept until a
-// new drawing replaces it. Nothing from the spec or the data is ever run as
-// script or parsed as HTML: the engine escapes all text, and messages are
-// set as text. The element writes no inline script or style attribute
-// beyond the tooltip's position, so a strict CSP holds.
+// One engine for the page, fetched and compiled as this module runs unless
+// every chart keeps a baked SVG that fits. Charts draw at their container's
+// width up to `size.width`, and far below the fold they wait. Failures show
+// a message in the chart's place and fire `strata-error`; nothing is thrown.
+// Nothing from the spec or data runs as script or is parsed as HTML; styles
+// go through CSSOM and a constructed sheet, so a strict CSP holds.
 
 // Engine modules by name: the wasm-bindgen glue's URL; the compiled module
 // sits beside it as `<name>_bg.wasm`.
@@ -46,11 +34,7 @@ function wasmUrl(kind) {
   return url;
 }
 
-/**
- * Fetch and compile an engine's WebAssembly once for the page
- * (`WebAssembly.compileStreaming`: compiled while it downloads). The
- * compiled module outlives a trapped instance: a fresh instance reuses it.
- */
+/** Fetch and compile (while downloading) an engine's WebAssembly once; a fresh instance after a trap reuses it. */
 function compileEngine(kind) {
   if (!compiled[kind]) {
     const p = (async () => {
@@ -68,11 +52,9 @@ function compileEngine(kind) {
 }
 
 /**
- * Load an engine module once for the whole page: its glue and its compiled
- * WebAssembly, in parallel. After a trap, `dropEngine` forgets the instance
- * and the next chart loads a fresh one: a new glue URL (the `instance`
- * query) gives a new module record and so new WebAssembly memory, since the
- * old instance's state cannot be trusted.
+ * Load an engine once for the page: glue and WebAssembly in parallel. After
+ * a trap the next chart loads a fresh instance: a new glue URL (`instance`
+ * query) gives a new module record and so new memory.
  */
 function loadEngine(kind = 'core') {
   if (!engines[kind]) {
@@ -93,12 +75,7 @@ function loadEngine(kind = 'core') {
 }
 
 const warmed = new WeakSet();
-/**
- * Draw a tiny chart once on a fresh engine while the page's data is still
- * on its way: the browser compiles WebAssembly functions on their first
- * call, so the reader, planner and SVG writer are compiled by the time the
- * data arrives instead of after.
- */
+/** Draw a tiny chart while the data is on its way: WebAssembly functions compile on their first call. */
 function warmUp(engine) {
   if (warmed.has(engine)) return;
   warmed.add(engine);
@@ -215,63 +192,13 @@ function contentWidth(el) {
 const bakedSvgs = (el) => [...el.querySelectorAll(':scope > svg.strata-baked')];
 const shown = (node) => getComputedStyle(node).display !== 'none';
 
-/**
- * The baked SVG the theme sheet shows, when exactly one shows and it fits
- * the container without being scaled down (a container not laid out, width
- * 0, keeps it too: nothing is read there).
- */
+/** The one baked SVG the theme sheet shows, if it fits unscaled (or the container is not laid out). */
 function bakedFit(el, cw) {
   const visible = bakedSvgs(el).filter(shown);
   if (visible.length !== 1) return null;
   const w = Number(visible[0].getAttribute('width'));
   if (!(w > 0)) return null;
   return cw === 0 || w <= cw + 0.5 ? visible[0] : null;
-}
-
-/** One field of RFC 4180 CSV. */
-const csvField = (s) => (/[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s);
-
-/** A data table (`<table>` of the engine's `<details>`) as RFC 4180 CSV: the header, then the rows as shown. */
-export function tableCsv(table) {
-  const lines = [];
-  const head = [...table.querySelectorAll(':scope > thead > tr > th')].map((c) => c.textContent);
-  if (head.length) lines.push(head);
-  for (const tr of table.querySelectorAll(':scope > tbody > tr')) lines.push([...tr.children].map((c) => c.textContent));
-  return lines.map((cells) => cells.map(csvField).join(',') + '\r\n').join('');
-}
-
-/** The SVG element as a standalone file's text. */
-function svgFileText(svg) {
-  return '<?xml version="1.0" encoding="UTF-8"?>\n' + new XMLSerializer().serializeToString(svg);
-}
-
-/** Draw the SVG in the page onto a canvas (twice its size, or the screen's pixel ratio when higher) and encode a PNG. */
-async function pngOf(svg) {
-  const box = svg.getBoundingClientRect();
-  const w = Number(svg.getAttribute('width')) || box.width;
-  const h = Number(svg.getAttribute('height')) || box.height;
-  const img = new Image();
-  img.src = 'data:image/svg+xml;charset=utf-8,' + encodeURIComponent(new XMLSerializer().serializeToString(svg));
-  await img.decode();
-  const scale = Math.max(2, Math.ceil(window.devicePixelRatio || 1));
-  const canvas = document.createElement('canvas');
-  canvas.width = Math.round(w * scale);
-  canvas.height = Math.round(h * scale);
-  canvas.getContext('2d').drawImage(img, 0, 0, canvas.width, canvas.height);
-  return new Promise((resolve, reject) => canvas.toBlob((b) => (b ? resolve(b) : reject(new Error('the browser could not encode the PNG'))), 'image/png'));
-}
-
-/** Hand a file to the browser's downloads (an <a download> with a blob: URL: no inline script, no navigation). */
-function save(blob, filename) {
-  const url = URL.createObjectURL(blob);
-  const a = document.createElement('a');
-  a.href = url;
-  a.download = filename;
-  a.hidden = true;
-  document.body.append(a);
-  a.click();
-  a.remove();
-  setTimeout(() => URL.revokeObjectURL(url), 60000);
 }
 
 export class StrataChart extends HTMLElement {
@@ -337,11 +264,7 @@ export class StrataChart extends HTMLElement {
     this.#request();
   }
 
-  /**
-   * Before the first drawing, hold the height the chart will take (from an
-   * inline spec's size, as the engine sizes it), so the page does not jump
-   * when it arrives and charts below the fold are known to be there.
-   */
+  /** Hold the height the first drawing will take (an inline spec's size), so nothing jumps and far charts stay far. */
   #reserve() {
     if (this.querySelector(':scope > svg')) return;
     let size = null;
@@ -408,11 +331,7 @@ export class StrataChart extends HTMLElement {
     tooltip.hidden = false;
   };
 
-  /**
-   * The chart is one tab stop (the engine gives the first mark with tips
-   * tabindex 0 and the rest -1); the arrow keys, Home and End move the stop
-   * from mark to mark in drawing order (WAI-ARIA's roving tabindex).
-   */
+  /** One tab stop per chart; arrows, Home and End move it from mark to mark (WAI-ARIA roving tabindex). */
   #moveFocus = (event) => {
     const mark = event.target;
     if (!(mark instanceof SVGElement) || !mark.hasAttribute('tabindex')) return;
@@ -461,11 +380,7 @@ export class StrataChart extends HTMLElement {
   get tableHtml() {
     return this.#tableHtml;
   }
-  /**
-   * Where the element is: 'idle' (not drawn yet), 'waiting' (far below the
-   * fold), 'drawing', 'drawn', 'baked' (showing a baked SVG that fits, with
-   * no engine) or 'error'.
-   */
+  /** 'idle', 'waiting' (far below the fold), 'drawing', 'drawn', 'baked' (a baked SVG that fits, no engine) or 'error'. */
   get status() {
     return this.#status;
   }
@@ -478,12 +393,7 @@ export class StrataChart extends HTMLElement {
     }
   }
 
-  /**
-   * Redraw now, near the viewport or not, baked or not; resolves when the
-   * element shows its current spec (errors are shown, not thrown). A spec,
-   * data or attribute set while this drawing is under way starts a newer
-   * one, and the promise waits for that too.
-   */
+  /** Draw now (near or not, baked or not); resolves when the current spec shows, waiting for newer drawings too. */
   async render() {
     this.#draw();
     for (;;) {
@@ -599,12 +509,7 @@ export class StrataChart extends HTMLElement {
     return Number.isFinite(t) && t > 0 ? t : DEFAULT_TIMEOUT_S;
   }
 
-  /**
-   * Fetch with the element's time limit; the limit covers the whole body, so
-   * a response that starts and never finishes is also stopped. `signal`
-   * (the drawing's) aborts it when the drawing is outdated or the element
-   * leaves the page.
-   */
+  /** Fetch within the time limit (body included); `signal` aborts it when the drawing is outdated or the element leaves. */
   async #fetchBytes(url, code, what, path, signal) {
     const seconds = this.#timeoutSeconds();
     const ctl = new AbortController();
@@ -754,10 +659,8 @@ export class StrataChart extends HTMLElement {
               : engine.render(text, bytes, name, width);
           break;
         } catch (e) {
-          // The engine trapped (a panic, a stack overflow, out of memory):
-          // its memory can no longer be trusted, so no later chart uses this
-          // instance; the next one starts a fresh engine. When the instance
-          // was already retired by another chart's trap, try once more.
+          // The engine trapped: no later chart uses this instance. When another
+          // chart's trap already retired it, try once more.
           dropEngine('core', engine);
           if (arrow) dropEngine('arrow', addon);
           if (current || attempt >= 2) {
@@ -799,9 +702,7 @@ export class StrataChart extends HTMLElement {
     if (!root || root.namespaceURI !== SVG_NS || root.localName !== 'svg') {
       throw fail('internal', 'the engine returned SVG the browser could not parse');
     }
-    // The data table: the engine's HTML, every text in it escaped. Parsed
-    // inertly (DOMParser runs no script and loads nothing) and checked to be
-    // the one <details> the engine writes before it enters the page.
+    // The data table: the engine's escaped HTML, parsed inertly and checked to be its one <details>.
     let table = null;
     if (tableHtml) {
       const t = new DOMParser().parseFromString(trusted(tableHtml), 'text/html').body.firstElementChild;
@@ -886,23 +787,13 @@ export class StrataChart extends HTMLElement {
 
   #download = async (event) => {
     const button = event.target instanceof Element ? event.target.closest('button[data-strata-download]') : null;
-    if (!button) return;
-    const kind = button.dataset.strataDownload;
-    const base = (this.id || 'chart').replace(/[^\w.-]+/g, '_');
-    const svg = this.#shownSvg();
+    const svg = button && this.#shownSvg();
     if (!svg) return;
+    const kind = button.dataset.strataDownload;
     try {
-      if (kind === 'svg') {
-        save(new Blob([svgFileText(svg)], { type: 'image/svg+xml' }), `${base}.svg`);
-      } else if (kind === 'png') {
-        save(await pngOf(svg), `${base}.png`);
-      } else if (kind.startsWith('csv-')) {
-        const tables = [...this.querySelectorAll(':scope > details.strata-data > table')];
-        const i = Number(kind.slice(4));
-        const table = tables[i];
-        if (!table) return;
-        save(new Blob([tableCsv(table)], { type: 'text/csv;charset=utf-8' }), tables.length > 1 ? `${base}-layer-${i + 1}.csv` : `${base}.csv`);
-      }
+      // The file makers load on first use (strata-downloads.js), not with every chart.
+      const { download } = await import('./strata-downloads.js');
+      await download(kind, svg, [...this.querySelectorAll(':scope > details.strata-data > table')], (this.id || 'chart').replace(/[^\w.-]+/g, '_'));
     } catch (e) {
       const errors = [{ severity: 'error', code: 'download', message: `could not make the ${kind.replace(/-\d+$/, '').toUpperCase()} file: ${e && e.message ? e.message : e}` }];
       this.dispatchEvent(new CustomEvent('strata-error', { bubbles: true, detail: { errors } }));

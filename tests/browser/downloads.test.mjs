@@ -121,12 +121,25 @@ test('the CSV download matches the data table, cell for cell', async () => {
 
 test('a field with a comma, a quote or a line break is quoted (RFC 4180, section 2)', async () => {
   const csv = await page.evaluate(async () => {
-    const { tableCsv } = await import('/www/strata-chart.js');
+    const { tableCsv } = await import('/www/strata-downloads.js');
     const t = document.createElement('table');
     t.innerHTML = '<thead><tr><th>a, b</th><th>say "hi"</th></tr></thead><tbody><tr><td>line\none</td><td>plain</td></tr></tbody>';
     return tableCsv(t);
   });
   assert.equal(csv, '"a, b","say ""hi"""\r\n"line\none",plain\r\n');
+});
+
+test('the file makers load on the first download only', async () => {
+  const fresh = await browser.context.newPage();
+  const loaded = [];
+  fresh.on('request', (r) => loaded.push(new URL(r.url()).pathname));
+  await fresh.goto(`${server.url}/tests/browser/pages/downloads.html`);
+  await settled(fresh);
+  assert.ok(!loaded.some((p) => p.endsWith('strata-downloads.js')));
+  await fresh.focus('#harvest [data-strata-download="svg"]');
+  await Promise.all([fresh.waitForEvent('download'), fresh.keyboard.press('Enter')]);
+  assert.ok(loaded.some((p) => p.endsWith('/www/strata-downloads.js')));
+  await fresh.close();
 });
 
 test('downloads run under the strict CSP', async () => {

@@ -41,6 +41,7 @@ test('npm pack gives a tarball with the element, its types, the theme, the fonts
     'package/package.json',
     'package/strata-chart.js',
     'package/strata-chart.d.ts',
+    'package/strata-downloads.js',
     'package/strata-theme.css',
     'package/fonts/AtkinsonHyperlegibleNext-Regular.ttf',
     'package/fonts/AtkinsonHyperlegibleNext-Bold.ttf',
@@ -81,7 +82,7 @@ test('the type declarations describe the properties, methods and events', () => 
       return String(e.stdout) + String(e.stderr);
     }
   };
-  const good = `import { StrataChart, describeError, tableCsv, type StrataDiagnostic, type StrataStatus } from 'strata-chart';
+  const good = `import { StrataChart, describeError, type StrataDiagnostic, type StrataStatus } from 'strata-chart';
 const el = document.querySelector('strata-chart');
 if (el) {
   const chart: StrataChart = el;
@@ -90,9 +91,7 @@ if (el) {
   chart.table = new Uint8Array(0);
   const svg: string = chart.svgText + chart.tableHtml;
   const status: StrataStatus = chart.status;
-  const table = chart.querySelector('table');
-  const csv: string = table ? tableCsv(table) : '';
-  void status; void csv;
+  void status;
   const done: Promise<void> = chart.render();
   chart.addEventListener('strata-render', (e) => { const w: number = e.detail.width + e.detail.height; const n = e.detail.warnings.length; });
   chart.addEventListener('strata-error', (e) => { const d: StrataDiagnostic[] = e.detail.errors; describeError(d[0]); });
