@@ -175,11 +175,17 @@ async function once(browser, url, { live, network }) {
   return { ms, timing };
 }
 
-async function series(browser, url, o) {
-  await once(browser, url, o); // warm the server and the OS file cache, not the browser's
-  const runs = [];
-  for (let i = 0; i < RUNS; i++) runs.push(await once(browser, url, o));
-  return runs;
+/**
+ * Every variant of a case, RUNS times, interleaved (baseline, live, preload,
+ * before, then again), so a change in the machine's load falls on all alike.
+ */
+async function interleaved(browser, variants) {
+  for (const v of variants) await once(browser, v.url, v.o); // warm the server and the OS file cache, not the browser's
+  const out = variants.map(() => []);
+  for (let i = 0; i < RUNS; i++) {
+    for (const [k, v] of variants.entries()) out[k].push(await once(browser, v.url, v.o));
+  }
+  return out;
 }
 
 writeData();
@@ -198,10 +204,13 @@ try {
     ['1M-row histogram, loopback', 'hist1m', {}],
   ];
   for (const [label, name, o] of cases) {
-    const baseline = await series(browser, `${base}/${name}-static.html`, { ...o, live: false });
-    const live = await series(browser, `${base}/${name}.html`, { ...o, live: true });
-    const before = BEFORE ? await series(browser, `${base}/${name}-before.html`, { ...o, live: true }) : null;
-    const preloaded = await series(browser, `${base}/${name}-preload.html`, { ...o, live: true });
+    const variants = [
+      { url: `${base}/${name}-static.html`, o: { ...o, live: false } },
+      { url: `${base}/${name}.html`, o: { ...o, live: true } },
+      { url: `${base}/${name}-preload.html`, o: { ...o, live: true } },
+    ];
+    if (BEFORE) variants.push({ url: `${base}/${name}-before.html`, o: { ...o, live: true } });
+    const [baseline, live, preloaded, before = null] = await interleaved(browser, variants);
     // The engine's request against the data's: starts before the data has finished?
     const order = live.map(({ timing }) => {
       const wasm = timing.find((t) => t.name.endsWith('strata_wasm_bg.wasm'));

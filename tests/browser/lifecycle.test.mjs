@@ -197,6 +197,41 @@ test('properties set before the element is defined apply when it upgrades; an ou
   await page.close();
 });
 
+test('a width change under 8 px draws nothing; a larger one draws once, after the width settles', async () => {
+  const { page } = await open(1024, '/tests/browser/pages/lifecycle.html');
+  await page.evaluate(() => import('/www/strata-chart.js'));
+  const r = await page.evaluate(async () => {
+    const box = document.getElementById('box');
+    box.style.width = '500px';
+    const el = document.createElement('strata-chart');
+    el.rows = [{ k: 'a', v: 1 }, { k: 'b', v: 2 }];
+    el.spec = { layers: [{ draw: 'bar', x: 'k', y: 'v' }], size: { width: 640 } };
+    const widths = [];
+    el.addEventListener('strata-render', (e) => widths.push(e.detail.width));
+    box.append(el);
+    const wait = (ms) => new Promise((r) => setTimeout(r, ms));
+    while (!widths.length) await wait(20);
+    box.style.width = '495px'; // under 8 px
+    await wait(400);
+    const small = widths.length;
+    // A drag through several widths: one drawing, at the last.
+    for (const w of [480, 460, 440, 420]) {
+      box.style.width = `${w}px`;
+      await wait(40);
+    }
+    await wait(600);
+    // Wider than size.width: drawn at 640, and no wider.
+    box.style.width = '900px';
+    await wait(600);
+    box.style.width = '1000px';
+    await wait(600);
+    return { small, widths };
+  });
+  assert.equal(r.small, 1, 'a 5 px change did not redraw');
+  assert.deepEqual(r.widths, [500, 420, 640]);
+  await page.close();
+});
+
 test('a scrollbar that comes and goes with the chart\'s height cannot make it redraw in a loop', async () => {
   const { page } = await open(1024, '/tests/browser/pages/lifecycle.html');
   await page.evaluate(() => import('/www/strata-chart.js'));
