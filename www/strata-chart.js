@@ -270,11 +270,11 @@ export class StrataChart extends HTMLElement {
     let size = null;
     try {
       const spec = this.#spec || JSON.parse(this.querySelector(':scope > script[type="application/json"]')?.textContent || 'null');
-      size = spec && typeof spec.size === 'object' && spec.size ? spec.size : {};
+      if (!spec || typeof spec !== 'object') return; // a spec-src spec: its size is not known yet
+      size = typeof spec.size === 'object' && spec.size ? spec.size : {};
     } catch {
       return;
     }
-    if (!size) return;
     const num = (v) => (typeof v === 'number' && Number.isFinite(v) && v > 0 ? v : 0);
     const cw = contentWidth(this);
     const width = Math.min(4000, Math.max(120, num(size.width) ? Math.min(num(size.width), cw || num(size.width)) : cw || 640));
