@@ -232,6 +232,23 @@ test('a width change under 8 px draws nothing; a larger one draws once, after th
   await page.close();
 });
 
+test('in a flex row a drawn chart takes its own width (only an element holding baked SVGs is a size container)', async () => {
+  const { page } = await open(1024, '/tests/browser/pages/lifecycle.html');
+  await page.evaluate(() => import('/www/strata-chart.js'));
+  const shown = await page.evaluate(async () => {
+    const box = document.getElementById('box');
+    box.style.display = 'flex';
+    const el = document.createElement('strata-chart');
+    el.rows = [{ k: 'a', v: 1 }, { k: 'b', v: 2 }];
+    el.spec = { layers: [{ draw: 'bar', x: 'k', y: 'v' }], size: { width: 300, height: 200 } };
+    box.append(el);
+    await el.render();
+    return Math.round(el.querySelector('svg').getBoundingClientRect().width);
+  });
+  assert.equal(shown, 300);
+  await page.close();
+});
+
 test('a scrollbar that comes and goes with the chart\'s height cannot make it redraw in a loop', async () => {
   const { page } = await open(1024, '/tests/browser/pages/lifecycle.html');
   await page.evaluate(() => import('/www/strata-chart.js'));
