@@ -25,6 +25,7 @@ const SVG_NS = 'http://www.w3.org/2000/svg';
 const engines = {};
 const loaded = {};
 const compiled = {};
+const downloading = {}; // kind -> AbortController of a .wasm still arriving
 let instances = 0;
 
 /** The engine's `.wasm` beside its glue. */
@@ -37,18 +38,37 @@ function wasmUrl(kind) {
 /** Fetch and compile (while downloading) an engine's WebAssembly once; a fresh instance after a trap reuses it. */
 function compileEngine(kind) {
   if (!compiled[kind]) {
+    const ctl = new AbortController();
     const p = (async () => {
-      const res = await fetch(wasmUrl(kind), { credentials: 'same-origin' });
+      const res = await fetch(wasmUrl(kind), { credentials: 'same-origin', signal: ctl.signal });
       if (!res.ok) throw new Error(`could not load the chart engine: HTTP ${res.status}`);
       const streaming = typeof WebAssembly.compileStreaming === 'function' && /^application\/wasm\b/.test(res.headers.get('content-type') || '');
       return streaming ? WebAssembly.compileStreaming(res) : WebAssembly.compile(await res.arrayBuffer());
     })();
     compiled[kind] = p;
-    p.catch(() => {
-      if (compiled[kind] === p) delete compiled[kind];
-    });
+    downloading[kind] = ctl;
+    p.then(
+      () => {
+        if (downloading[kind] === ctl) delete downloading[kind];
+      },
+      () => {
+        if (compiled[kind] === p) delete compiled[kind];
+        if (downloading[kind] === ctl) delete downloading[kind];
+      }
+    );
   }
   return compiled[kind];
+}
+
+/** When the last chart has left the page, stop engine downloads under way (a later chart starts again). */
+function stopEngineDownloads() {
+  if (document.querySelector('strata-chart')) return;
+  for (const [kind, ctl] of Object.entries(downloading)) {
+    delete downloading[kind];
+    delete compiled[kind];
+    delete engines[kind];
+    ctl.abort();
+  }
 }
 
 /**
@@ -292,6 +312,8 @@ export class StrataChart extends HTMLElement {
     this.#unwatchNear();
     clearTimeout(this.#settle);
     if (this.#status === 'drawing' || this.#status === 'waiting') this.#status = 'idle';
+    // After a move (removed and inserted again at once) a chart is back by then.
+    queueMicrotask(stopEngineDownloads);
   }
 
   attributeChangedCallback(name, old, value) {

@@ -159,6 +159,45 @@ test('removing an element mid-load aborts its fetch, leaves no observer and fire
   await page.close();
 });
 
+test('the last chart leaving the page stops the engine download; the next chart starts it again', async () => {
+  const { page } = await open(1024, '/tests/browser/pages/lifecycle.html');
+  await page.evaluate(() => import('/www/strata-chart.js'));
+  let release;
+  const held = new Promise((r) => (release = r));
+  await page.route('**/strata_wasm_bg.wasm', async (route) => {
+    await held;
+    await route.continue().catch(() => {});
+  });
+  const failed = [];
+  const finished = [];
+  page.on('requestfailed', (r) => r.url().endsWith('.wasm') && failed.push(r.failure()?.errorText));
+  page.on('requestfinished', (r) => r.url().endsWith('.wasm') && finished.push(r.url()));
+  const add = (id) =>
+    page.evaluate((id) => {
+      const el = document.createElement('strata-chart');
+      el.id = id;
+      el.rows = [{ k: 'a', v: 1 }, { k: 'b', v: 2 }];
+      el.spec = { layers: [{ draw: 'bar', x: 'k', y: 'v' }], size: { width: 300 } };
+      document.getElementById('box').append(el);
+    }, id);
+  await add('first');
+  await page.waitForFunction(() => document.getElementById('first').status === 'drawing');
+  await page.waitForTimeout(200);
+  // Moved within the page: nothing stops.
+  await page.evaluate(() => document.body.append(document.getElementById('first')));
+  await page.waitForTimeout(100);
+  assert.deepEqual(failed, []);
+  await page.evaluate(() => document.getElementById('first').remove());
+  await page.waitForTimeout(300);
+  assert.deepEqual(failed, ['net::ERR_ABORTED']);
+  release();
+  await page.unroute('**/strata_wasm_bg.wasm');
+  await add('second');
+  await page.waitForFunction(() => document.getElementById('second').status === 'drawn', null, { timeout: 20000 });
+  assert.equal(finished.length, 1, 'downloaded again, in full');
+  await page.close();
+});
+
 test('properties set before the element is defined apply when it upgrades; an outdated drawing leaves the observers alone', async () => {
   const { page } = await open(1024, '/tests/browser/pages/lifecycle.html');
   await page.evaluate((spec) => {
