@@ -37,13 +37,16 @@ export interface StrataRenderDetail {
   warnings: StrataDiagnostic[];
 }
 
-/** `detail` of the `strata-error` event, fired when a drawing fails. */
+/** `detail` of the `strata-error` event, fired when a drawing (or a download) fails. */
 export interface StrataErrorDetail {
   errors: StrataDiagnostic[];
 }
 
 export type StrataRenderEvent = CustomEvent<StrataRenderDetail>;
 export type StrataErrorEvent = CustomEvent<StrataErrorDetail>;
+
+/** Where an element is (`StrataChart.status`). */
+export type StrataStatus = 'idle' | 'waiting' | 'drawing' | 'drawn' | 'baked' | 'error';
 
 /**
  * `<strata-chart>`: draws its spec (a child `<script type="application/json">`,
@@ -52,7 +55,13 @@ export type StrataErrorEvent = CustomEvent<StrataErrorDetail>;
  *
  * Attributes: `src` (data URL), `spec-src` (spec URL), `shapes-src` (GeoJSON
  * URL of a map, overriding the spec's `shapes.url`), `theme` (`light`,
- * `dark` or `auto`, overriding the spec's). Each change redraws.
+ * `dark` or `auto`, overriding the spec's), `timeout` (seconds). Each change
+ * redraws. `downloads` (present: SVG, PNG and CSV download buttons) and
+ * `loading="eager"` (draw at once even far below the fold) do not.
+ *
+ * The spec's `size.width` is the widest the chart draws; in a narrower
+ * container it is drawn at the container's width. A baked SVG (`strata
+ * bake`) that fits is kept, with no engine loaded. See docs/element.md.
  */
 export declare class StrataChart extends HTMLElement {
   static readonly observedAttributes: string[];
@@ -63,15 +72,21 @@ export declare class StrataChart extends HTMLElement {
   set rows(value: StrataRow[] | null);
   /** Arrow IPC bytes to draw instead of fetched data (write-only). */
   set table(value: Uint8Array | ArrayBuffer | null);
-  /** The SVG text of the last drawing, exactly as the engine wrote it ('' before the first). */
+  /** The SVG text of the last drawing, exactly as the engine wrote it ('' before the first, and while a baked SVG is kept). */
   readonly svgText: string;
   /** The data table HTML of the last drawing ('' when the spec asks for none). */
   readonly tableHtml: string;
-  /** Redraw now; resolves when done. Failures are shown in the chart's place and fire `strata-error`; nothing is thrown. */
+  /** Where the element is: not drawn yet, waiting far below the fold, drawing, drawn, keeping a baked SVG, or showing an error. */
+  readonly status: StrataStatus;
+  /**
+   * Draw now, near the viewport or not, baked or not; resolves when the element
+   * shows its current spec. Failures are shown in the chart's place and fire
+   * `strata-error`; nothing is thrown.
+   */
   render(): Promise<void>;
   connectedCallback(): void;
   disconnectedCallback(): void;
-  attributeChangedCallback(): void;
+  attributeChangedCallback(name: string, oldValue: string | null, newValue: string | null): void;
 
   addEventListener<K extends keyof StrataChartEventMap>(
     type: K,
@@ -87,7 +102,10 @@ export declare class StrataChart extends HTMLElement {
   removeEventListener(type: string, listener: EventListenerOrEventListenerObject, options?: boolean | EventListenerOptions): void;
 }
 
-/** The element's events (they bubble). */
+/**
+ * The element's events (they bubble). A drawing that finishes after the
+ * element left the page, or after a newer drawing started, fires nothing.
+ */
 export interface StrataChartEventMap extends HTMLElementEventMap {
   'strata-render': StrataRenderEvent;
   'strata-error': StrataErrorEvent;
@@ -95,6 +113,7 @@ export interface StrataChartEventMap extends HTMLElementEventMap {
 
 /** One diagnostic as a line of text, as the element shows it. */
 export declare function describeError(d: StrataDiagnostic): string;
+
 
 declare global {
   interface HTMLElementTagNameMap {

@@ -15,7 +15,7 @@ fi
 dir="$out/strata-chart"
 rm -rf "$dir"
 mkdir -p "$dir/pkg" "$dir/fonts"
-cp www/strata-chart.js www/strata-theme.css package/strata-chart.d.ts package/README.md "$dir/"
+cp www/strata-chart.js www/strata-downloads.js www/strata-theme.css package/strata-chart.d.ts package/README.md "$dir/"
 cp www/pkg/*.js www/pkg/*.wasm "$dir/pkg/"
 cp fonts/*.ttf fonts/OFL.txt "$dir/fonts/"
 # The package's version is the workspace's.

@@ -22,12 +22,18 @@ after(async () => {
   fs.rmSync(BAKED, { force: true });
 });
 
+const IDS = ['points', 'lines', 'bars', 'histogram', 'boxes', 'trend', 'weather', 'windrose', 'dark', 'panels', 'seasons', 'isles-steps', 'isles-towns', 'isles-globe'];
+/** The page's text without the classes the bake adds to each <svg>. */
+const unmarked = (html) => html.replace(/ strata-baked( strata-(from|until)-\d+)*/g, '');
+
 test('bake reports the broken chart by page and id and bakes the rest', () => {
   assert.equal(bake.status, 1, 'a chart failed, so the exit status says so');
   assert.match(bake.stderr, /index\.html: #typo: .*layers\[0\]\.y/);
-  assert.match(bake.stderr, /baked 11 charts/);
+  assert.match(bake.stderr, /baked 14 charts/);
   const html = fs.readFileSync(BAKED, 'utf8');
-  assert.equal((html.match(/<svg xmlns/g) || []).length, 11);
+  // Each chart at its own width and at 360 px.
+  assert.equal((html.match(/<svg xmlns/g) || []).length, 28);
+  assert.equal((html.match(/class="strata strata-(auto|dark) strata-baked strata-until-\d+" width="360"/g) || []).length, 14);
 });
 
 test('with scripting off the baked charts are in the page', async () => {
@@ -35,13 +41,13 @@ test('with scripting off the baked charts are in the page', async () => {
   const page = await browser.context.newPage();
   await page.route('**/*.js', (r) => r.abort());
   await page.goto(`${server.url}/www/index.baked.html`);
-  const n = await page.evaluate(() => document.querySelectorAll('strata-chart > svg.strata').length);
-  assert.equal(n, 11);
+  const n = await page.evaluate(() => [...document.querySelectorAll('strata-chart > svg.strata')].filter((s) => getComputedStyle(s).display !== 'none').length);
+  assert.equal(n, 14, 'one drawing of each chart shows');
   const box = await page.evaluate(() => document.querySelector('#bars > svg').getBoundingClientRect().height);
   assert.ok(box > 100, 'the SVG has its size without any script');
   // The data tables are there too, and open with no script.
   const tables = await page.evaluate(() => document.querySelectorAll('strata-chart > svg + details.strata-data').length);
-  assert.equal(tables, 11);
+  assert.equal(tables, 14);
   await page.click('#bars > details.strata-data > summary');
   const cells = await page.evaluate(() => {
     const d = document.querySelector('#bars > details.strata-data');
@@ -51,19 +57,31 @@ test('with scripting off the baked charts are in the page', async () => {
   await page.close();
 });
 
-test('the element redraws a baked chart byte for byte', async () => {
-  const page = await browser.context.newPage();
-  await page.goto(`${server.url}/www/index.baked.html`);
-  await settled(page);
-  const html = fs.readFileSync(BAKED, 'utf8');
-  for (const id of ['points', 'lines', 'bars', 'histogram', 'boxes', 'trend', 'weather', 'windrose', 'dark', 'panels', 'seasons']) {
-    const { svgText, tableHtml } = await page.evaluate((id) => {
-      const el = document.getElementById(id);
-      return { svgText: el.svgText, tableHtml: el.tableHtml };
-    }, id);
-    assert.ok(html.includes(svgText.trimEnd() + tableHtml), `${id}: baked bytes equal the element's`);
-    const count = await page.evaluate((id) => document.querySelectorAll(`#${id} > svg, #${id} > details`).length, id);
-    assert.equal(count, 2, `${id}: the baked SVG and table were replaced, not doubled`);
-  }
-  await page.close();
-});
+for (const width of [1280, 360]) {
+  test(`at ${width} px the element keeps the baked chart that fits, and draws the same bytes when asked`, async () => {
+    const page = await browser.context.newPage();
+    const wasm = [];
+    page.on('request', (r) => r.url().endsWith('.wasm') && wasm.push(r.url()));
+    await page.setViewportSize({ width, height: 800 });
+    await page.goto(`${server.url}/www/index.baked.html`);
+    await settled(page);
+    const kept = await page.evaluate((ids) => ids.map((id) => document.getElementById(id).status), IDS);
+    assert.deepEqual(kept, IDS.map(() => 'baked'), 'every chart keeps its baked SVG');
+    // #typo could not be baked, so the engine loads for it: once.
+    assert.equal(await page.evaluate(() => document.getElementById('typo').status), 'error');
+    const html = unmarked(fs.readFileSync(BAKED, 'utf8'));
+    for (const id of IDS) {
+      const { svgText, tableHtml, count, status } = await page.evaluate(async (id) => {
+        const el = document.getElementById(id);
+        await el.render();
+        return { svgText: el.svgText, tableHtml: el.tableHtml, status: el.status, count: el.querySelectorAll(':scope > svg, :scope > details').length };
+      }, id);
+      assert.equal(status, 'drawn');
+      assert.ok(html.includes(svgText.trimEnd()), `${id}: baked bytes equal the element's at ${width} px`);
+      if (width > 360) assert.ok(html.includes(tableHtml), `${id}: the table too`);
+      assert.equal(count, 2, `${id}: the baked SVGs and table were replaced, not doubled`);
+    }
+    assert.equal(wasm.length, 1, 'one engine for every chart');
+    await page.close();
+  });
+}

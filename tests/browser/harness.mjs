@@ -85,14 +85,22 @@ export function cli(args) {
   }
 }
 
-/** Wait until every <strata-chart> on the page has drawn or failed. */
+/**
+ * Wait until every <strata-chart> on the page has drawn, failed or kept a
+ * baked SVG. Charts far below the fold wait to be scrolled near; here they
+ * are told to draw now (`render()`), as a reader scrolling would.
+ */
 export async function settled(page, timeout = 15000) {
   await page.waitForFunction(
     () =>
-      [...document.querySelectorAll('strata-chart')].every(
-        (el) => el.svgText || el.querySelector(':scope > .strata-error')
-      ),
+      [...document.querySelectorAll('strata-chart')].every((el) => {
+        if (el.status === 'waiting') el.render();
+        return el.status === 'drawn' || el.status === 'baked' || el.querySelector(':scope > .strata-error');
+      }),
     null,
-    { timeout }
+    { timeout, polling: 50 }
   );
 }
+
+/** playwright-core's Chromium driver, for the benches under bench/browser (which have no node_modules of their own). */
+export { chromium };

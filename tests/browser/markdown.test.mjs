@@ -78,7 +78,11 @@ test('strata bake FOLDER bakes the Markdown chart; baking twice gives the same b
   fs.writeFileSync(spec, JSON.stringify({ ...JSON.parse(fs.readFileSync(path.join(SRC, 'post.md'), 'utf8').split('```strata\n')[1].split('```')[0]), data: undefined }));
   const svg = cli(['render', spec, '--data', path.join(site, 'data', 'rain.csv')]);
   assert.equal(svg.status, 0, svg.stderr);
-  assert.ok(baked.includes(`</script>${svg.stdout.trimEnd()}<details class="strata-data">`), 'baked SVG equals the CLI render');
+  // At its own width (420 px) first, then at 360 px for phones, then the table.
+  const unmarked = baked.replace(/ strata-baked( strata-(from|until)-\d+)*/g, '');
+  assert.ok(unmarked.includes(`</script>${svg.stdout.trimEnd()}<svg `), 'baked SVG equals the CLI render');
+  assert.equal((baked.match(/<svg xmlns/g) || []).length, 2);
+  assert.match(baked, /<\/svg><details class="strata-data">/);
   const again = cli(['bake', site]);
   assert.equal(again.status, 0, again.stderr);
   assert.equal(fs.readFileSync(path.join(site, 'posts', 'rain.html'), 'utf8'), baked);
@@ -115,11 +119,20 @@ test('with scripts, the element redraws the same bytes', async () => {
     const p = await browser.context.newPage();
     const errors = [];
     p.on('pageerror', (e) => errors.push(String(e)));
+    const wasm = [];
+    p.on('request', (r) => r.url().endsWith('.wasm') && wasm.push(r.url()));
     await p.goto(`${server.url}/${path.relative(ROOT, site)}/posts/rain.html`);
-    await p.waitForFunction(() => document.querySelector('strata-chart').svgText, null, { timeout: 15000 });
-    const [drawn, inPage] = await p.evaluate(() => [document.querySelector('strata-chart').svgText, document.querySelectorAll('strata-chart > svg').length]);
-    assert.ok(baked.includes(drawn.trimEnd()));
-    assert.equal(inPage, 1, 'the drawing replaced the baked SVG');
+    // The baked chart fits: the element keeps it and loads no engine.
+    await p.waitForFunction(() => document.querySelector('strata-chart').status === 'baked', null, { timeout: 15000 });
+    assert.deepEqual(wasm, []);
+    // Asked to draw, it draws the baked bytes.
+    const [drawn, inPage] = await p.evaluate(async () => {
+      const el = document.querySelector('strata-chart');
+      await el.render();
+      return [el.svgText, document.querySelectorAll('strata-chart > svg').length];
+    });
+    assert.ok(baked.replace(/ strata-baked( strata-(from|until)-\d+)*/g, '').includes(drawn.trimEnd()));
+    assert.equal(inPage, 1, 'the drawing replaced the baked SVGs');
     assert.deepEqual(errors, []);
   } finally {
     await browser.close();

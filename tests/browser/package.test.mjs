@@ -41,6 +41,7 @@ test('npm pack gives a tarball with the element, its types, the theme, the fonts
     'package/package.json',
     'package/strata-chart.js',
     'package/strata-chart.d.ts',
+    'package/strata-downloads.js',
     'package/strata-theme.css',
     'package/fonts/AtkinsonHyperlegibleNext-Regular.ttf',
     'package/fonts/AtkinsonHyperlegibleNext-Bold.ttf',
@@ -85,7 +86,7 @@ test('the type declarations describe the properties, methods and events', () => 
       return String(e.stdout) + String(e.stderr);
     }
   };
-  const good = `import { StrataChart, describeError, type StrataDiagnostic } from 'strata-chart';
+  const good = `import { StrataChart, describeError, type StrataDiagnostic, type StrataStatus } from 'strata-chart';
 const el = document.querySelector('strata-chart');
 if (el) {
   const chart: StrataChart = el;
@@ -93,6 +94,8 @@ if (el) {
   chart.rows = [{ a: 1, b: 2 }];
   chart.table = new Uint8Array(0);
   const svg: string = chart.svgText + chart.tableHtml;
+  const status: StrataStatus = chart.status;
+  void status;
   const done: Promise<void> = chart.render();
   chart.addEventListener('strata-render', (e) => { const w: number = e.detail.width + e.detail.height; const n = e.detail.warnings.length; });
   chart.addEventListener('strata-error', (e) => { const d: StrataDiagnostic[] = e.detail.errors; describeError(d[0]); });
@@ -103,6 +106,8 @@ if (el) {
   assert.equal(tsc(good), '');
   // And they are no blanket `any`: misuse is caught.
   assert.match(tsc(`import 'strata-chart';\nconst el = document.querySelector('strata-chart')!;\nel.svgText = 'x';\n`), /read-only/);
+  assert.match(tsc(`import 'strata-chart';\nconst el = document.querySelector('strata-chart')!;\nel.status = 'drawn';\n`), /read-only/);
+  assert.match(tsc(`import 'strata-chart';\nconst el = document.querySelector('strata-chart')!;\nconst s: 'drawn' | 'error' = el.status;\n`), /baked|not assignable/);
   assert.match(tsc(`import 'strata-chart';\nconst el = document.querySelector('strata-chart')!;\nel.addEventListener('strata-render', (e) => e.detail.errors);\n`), /errors/);
   assert.match(tsc(`import 'strata-chart';\nconst el = document.querySelector('strata-chart')!;\nel.spec = { title: 'no layers' };\n`), /layers/);
 });

@@ -63,6 +63,11 @@ enum Command {
         /// Width in pixels for charts whose spec sets none.
         #[arg(long, default_value_t = 640.0, value_parser = parse_width)]
         width: f64,
+        /// Widths to draw each chart at, comma-separated (e.g. 360,640), none wider than its
+        /// `size.width`; the theme sheet shows the one that fits its container
+        /// (default: the chart's own width and 360).
+        #[arg(long, value_delimiter = ',', value_parser = parse_width)]
+        widths: Option<Vec<f64>>,
         /// Write the baked page here instead of in place (one page only).
         #[arg(short = 'o', long)]
         output: Option<PathBuf>,
@@ -287,7 +292,8 @@ fn run(cmd: Command) -> Result<(), String> {
             }
             Ok(())
         }
-        Command::Bake { pages, width, output, root } => {
+        Command::Bake { pages, width, widths, output, root } => {
+            let widths = bake::Widths { fallback: width, listed: widths };
             let (folders, pages) = (pages.clone(), pages::html_files(&pages)?);
             if output.is_some() && pages.len() != 1 {
                 return Err("strata: bake -o takes exactly one page".into());
@@ -303,7 +309,7 @@ fn run(cmd: Command) -> Result<(), String> {
                 let site = files::Site::new(root.as_deref().unwrap_or(page_dir)).map_err(|e| format!("strata: {}: {e}", page.display()))?;
                 // Markdown `strata` blocks become elements, then every element is drawn.
                 let md = markdown::convert(page, &html, root.as_deref()).map_err(|e| format!("strata: {}: {e}", page.display()))?;
-                let (out, report) = bake::bake_html(page, &md.html, width, &site).map_err(|e| format!("strata: {}: {e}", page.display()))?;
+                let (out, report) = bake::bake_html(page, &md.html, &widths, &site).map_err(|e| format!("strata: {}: {e}", page.display()))?;
                 let dest = output.clone().unwrap_or_else(|| page.clone());
                 if out != html || output.is_some() {
                     std::fs::write(&dest, out).map_err(|e| format!("strata: cannot write {}: {e}", dest.display()))?;
