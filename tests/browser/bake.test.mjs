@@ -4,7 +4,7 @@ import { test, before, after } from 'node:test';
 import assert from 'node:assert/strict';
 import fs from 'node:fs';
 import path from 'node:path';
-import { ROOT, serve, launch, cli, settled } from './harness.mjs';
+import { ROOT, serve, launch, cli, settled, GALLERY_IDS, GALLERY_MAPS } from './harness.mjs';
 
 const BAKED = path.join(ROOT, 'www', 'index.baked.html');
 let server, browser, bake;
@@ -22,18 +22,18 @@ after(async () => {
   fs.rmSync(BAKED, { force: true });
 });
 
-const IDS = ['points', 'lines', 'bars', 'histogram', 'boxes', 'trend', 'weather', 'windrose', 'dark', 'panels', 'seasons', 'isles-steps', 'isles-towns', 'isles-globe'];
+const IDS = GALLERY_IDS;
 /** The page's text without the classes the bake adds to each <svg>. */
 const unmarked = (html) => html.replace(/ strata-baked( strata-(from|until)-\d+)*/g, '');
 
 test('bake reports the broken chart by page and id and bakes the rest', () => {
   assert.equal(bake.status, 1, 'a chart failed, so the exit status says so');
   assert.match(bake.stderr, /index\.html: #typo: .*layers\[0\]\.y/);
-  assert.match(bake.stderr, /baked 14 charts/);
+  assert.match(bake.stderr, new RegExp(`baked ${IDS.length} charts`));
   const html = fs.readFileSync(BAKED, 'utf8');
   // Each chart at its own width and at 360 px.
-  assert.equal((html.match(/<svg xmlns/g) || []).length, 28);
-  assert.equal((html.match(/class="strata strata-(auto|dark) strata-baked strata-until-\d+" width="360"/g) || []).length, 14);
+  assert.equal((html.match(/<svg xmlns/g) || []).length, 2 * IDS.length);
+  assert.equal((html.match(/class="strata strata-(auto|dark) strata-baked strata-until-\d+" width="360"/g) || []).length, IDS.length);
 });
 
 test('with scripting off the baked charts are in the page', async () => {
@@ -42,12 +42,12 @@ test('with scripting off the baked charts are in the page', async () => {
   await page.route('**/*.js', (r) => r.abort());
   await page.goto(`${server.url}/www/index.baked.html`);
   const n = await page.evaluate(() => [...document.querySelectorAll('strata-chart > svg.strata')].filter((s) => getComputedStyle(s).display !== 'none').length);
-  assert.equal(n, 14, 'one drawing of each chart shows');
+  assert.equal(n, IDS.length, 'one drawing of each chart shows');
   const box = await page.evaluate(() => document.querySelector('#bars > svg').getBoundingClientRect().height);
   assert.ok(box > 100, 'the SVG has its size without any script');
   // The data tables are there too, and open with no script.
   const tables = await page.evaluate(() => document.querySelectorAll('strata-chart > svg + details.strata-data').length);
-  assert.equal(tables, 14);
+  assert.equal(tables, IDS.length);
   await page.click('#bars > details.strata-data > summary');
   const cells = await page.evaluate(() => {
     const d = document.querySelector('#bars > details.strata-data');
@@ -81,7 +81,10 @@ for (const width of [1280, 360]) {
       if (width > 360) assert.ok(html.includes(tableHtml), `${id}: the table too`);
       assert.equal(count, 2, `${id}: the baked SVGs and table were replaced, not doubled`);
     }
-    assert.equal(wasm.length, 1, 'one engine for every chart');
+    // One engine for every chart: the core once, and the maps engine once
+    // for the map charts (drawn again here on request).
+    const names = wasm.map((u) => u.split('/').pop()).sort();
+    assert.deepEqual(names, GALLERY_MAPS.length ? ['strata_wasm_bg.wasm', 'strata_wasm_maps_bg.wasm'] : ['strata_wasm_bg.wasm'], 'each engine once');
     await page.close();
   });
 }

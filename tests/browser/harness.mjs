@@ -9,6 +9,13 @@ import { fileURLToPath } from 'node:url';
 import { chromium } from 'playwright-core';
 
 export const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
+
+/** The gallery's charts (www/index.html) by id, without `typo`, the chart that fails on purpose. */
+export const GALLERY_IDS = [...fs.readFileSync(path.join(ROOT, 'www', 'index.html'), 'utf8').matchAll(/<strata-chart id="([^"]+)"/g)]
+  .map((m) => m[1])
+  .filter((id) => id !== 'typo');
+/** The gallery's map charts: they draw with the maps engine. */
+export const GALLERY_MAPS = GALLERY_IDS.filter((id) => id.startsWith('isles-'));
 const TARGET = process.env.CARGO_TARGET_DIR ? path.resolve(ROOT, process.env.CARGO_TARGET_DIR) : path.join(ROOT, 'target');
 export const CLI = process.env.STRATA_CLI || path.join(TARGET, 'debug', 'strata');
 
