@@ -6,7 +6,7 @@
 use resvg::{tiny_skia, usvg};
 use strata::geo::fit::{self, Pieces};
 use strata::geo::geojson::{Feature, Geometry, Ring};
-use strata::geo::{clip, Projection};
+use strata::geo::{clip, Projection, View};
 
 const W: f64 = 800.0;
 const H: f64 = 420.0;
@@ -16,7 +16,7 @@ fn feature(rings: Vec<Ring>) -> Feature {
 }
 
 /// Rasterise `f` on a map fitted to the whole sphere; returns the filled mask.
-fn raster(p: Projection, f: &Feature) -> Vec<Vec<bool>> {
+fn raster(p: View, f: &Feature) -> Vec<Vec<bool>> {
     let sphere = Pieces { rings: vec![clip::outline(&p)], ..Default::default() };
     let fitted = fit::fit(p, fit::bounds([&sphere]), (0.0, 0.0, W, H));
     let px = fitted.to_pixels(&fit::project(&p, f));
@@ -44,7 +44,7 @@ fn count(m: &[Vec<bool>], xs: std::ops::Range<usize>, ys: std::ops::Range<usize>
 // 0° it shows at both edges and nothing in the middle (no streak).
 #[test]
 fn a_shape_across_180_leaves_the_middle_empty() {
-    let p = Projection::EqualEarth { lon0: 0.0 };
+    let p = View::from(Projection::EqualEarth { lon0: 0.0 });
     let m = raster(p, &feature(vec![vec![(170.0, -20.0), (-170.0, -20.0), (-170.0, 20.0), (170.0, 20.0), (170.0, -20.0)]]));
     let (w, h) = (W as usize, H as usize);
     assert_eq!(count(&m, 60..w - 60, 0..h), 0, "filled pixels in the middle");
@@ -56,7 +56,7 @@ fn a_shape_across_180_leaves_the_middle_empty() {
 // fills no pixel; the same shape on the near side does.
 #[test]
 fn the_far_side_of_the_globe_stays_empty() {
-    let p = Projection::Orthographic { lon0: 0.0, lat0: 0.0 };
+    let p = View::from(Projection::Orthographic { lon0: 0.0, lat0: 0.0 });
     let far = raster(p, &feature(vec![vec![(160.0, -30.0), (-160.0, -30.0), (-160.0, 30.0), (160.0, 30.0), (160.0, -30.0)]]));
     assert_eq!(count(&far, 0..W as usize, 0..H as usize), 0);
     let near = raster(p, &feature(vec![vec![(-20.0, -30.0), (20.0, -30.0), (20.0, 30.0), (-20.0, 30.0), (-20.0, -30.0)]]));
@@ -80,7 +80,7 @@ fn the_far_side_of_the_globe_stays_empty() {
 // map (round the South Pole) and leaves the rest empty.
 #[test]
 fn a_polygon_round_the_south_pole_fills_the_bottom() {
-    let p = Projection::EqualEarth { lon0: 0.0 };
+    let p = View::from(Projection::EqualEarth { lon0: 0.0 });
     for rev in [false, true] {
         let mut ring: Ring = (0..=72).map(|i| (-180.0 + 5.0 * i as f64, -70.0)).collect();
         ring[72] = ring[0];
@@ -113,7 +113,7 @@ fn a_polygon_round_the_south_pole_fills_the_bottom() {
 
 /// Outlines of the two districts in pixels, the map fitted to both.
 fn two_districts() -> (fit::Fitted, Vec<Pieces>) {
-    let p = Projection::Mercator { lon0: 0.0 };
+    let p = View::from(Projection::Mercator { lon0: 0.0 });
     let border: Vec<(f64, f64)> = (0..=400).map(|i| (0.08 * libm::sin(i as f64 * 0.3) + 0.004 * libm::sin(i as f64 * 1.7), i as f64 * 0.05)).collect();
     let mut west: Ring = vec![(-10.0, 0.0)];
     west.extend(border.iter().copied());

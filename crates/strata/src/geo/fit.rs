@@ -11,7 +11,7 @@
 
 use super::clip;
 use super::geojson::{Feature, Geometry, Pos};
-use super::project::Projection;
+use super::project::View;
 use super::simplify;
 
 /// Outline positions are rounded to this many pixels (a tenth: one decimal
@@ -39,7 +39,7 @@ fn on_grid(pts: Vec<(f64, f64)>) -> Vec<(f64, f64)> {
 /// A projection with its pixel transform.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct Fitted {
-    pub projection: Projection,
+    pub view: View,
     pub scale: f64,
     pub tx: f64,
     pub ty: f64,
@@ -56,7 +56,7 @@ pub struct Pieces {
     pub points: Vec<(f64, f64)>,
 }
 
-fn collect(p: &Projection, g: &Geometry, out: &mut Pieces) {
+fn collect(p: &View, g: &Geometry, out: &mut Pieces) {
     match g {
         Geometry::Point(q) => out.points.extend(clip::point(p, *q)),
         Geometry::MultiPoint(v) => out.points.extend(v.iter().filter_map(|q| clip::point(p, *q))),
@@ -69,7 +69,7 @@ fn collect(p: &Projection, g: &Geometry, out: &mut Pieces) {
 }
 
 /// Project one feature (no pixel transform yet).
-pub fn project(p: &Projection, f: &Feature) -> Pieces {
+pub fn project(p: &View, f: &Feature) -> Pieces {
     let mut out = Pieces::default();
     if let Some(g) = &f.geometry {
         collect(p, g, &mut out);
@@ -90,7 +90,7 @@ pub fn bounds<'a>(pieces: impl IntoIterator<Item = &'a Pieces>) -> Option<(f64, 
 
 /// Fit bounds into the pixel box (left, top, width, height), uniformly and
 /// centred. Empty or point-like bounds fall back to the whole sphere.
-pub fn fit(p: Projection, b: Option<(f64, f64, f64, f64)>, bx: (f64, f64, f64, f64)) -> Fitted {
+pub fn fit(p: View, b: Option<(f64, f64, f64, f64)>, bx: (f64, f64, f64, f64)) -> Fitted {
     let whole = || {
         let o = clip::outline(&p);
         bounds([&Pieces { rings: vec![o], ..Default::default() }]).unwrap_or((-1.0, -1.0, 1.0, 1.0))
@@ -103,7 +103,7 @@ pub fn fit(p: Projection, b: Option<(f64, f64, f64, f64)>, bx: (f64, f64, f64, f
     let scale = (bx.2 / w).min(bx.3 / h);
     let tx = bx.0 + bx.2 / 2.0 - scale * (b.0 + b.2) / 2.0;
     let ty = bx.1 + bx.3 / 2.0 + scale * (b.1 + b.3) / 2.0;
-    Fitted { projection: p, scale, tx, ty }
+    Fitted { view: p, scale, tx, ty }
 }
 
 impl Fitted {
@@ -114,7 +114,7 @@ impl Fitted {
 
     /// A geographic position in pixels, `None` when hidden.
     pub fn position(&self, pos: Pos) -> Option<(f64, f64)> {
-        clip::point(&self.projection, pos).map(|q| self.px(q))
+        clip::point(&self.view, pos).map(|q| self.px(q))
     }
 
     /// Pieces in pixels, outlines simplified at pixel scale and put on the
@@ -153,7 +153,7 @@ mod tests {
             properties: Default::default(),
             geometry: Some(Geometry::Polygon(vec![vec![(10.0, 10.0), (30.0, 10.0), (30.0, 20.0), (10.0, 20.0), (10.0, 10.0)]])),
         };
-        let p = Projection::Mercator { lon0: 0.0 };
+        let p = View::from(crate::geo::Projection::Mercator { lon0: 0.0 });
         let pc = project(&p, &f);
         let fit = fit(p, bounds([&pc]), (0.0, 0.0, 400.0, 300.0));
         let px = fit.to_pixels(&pc);
