@@ -176,6 +176,10 @@ pub fn draw(plan: &Plan, pal: &Palette, left: f64, top: f64, right: f64, bottom:
                     if row.is_none() && rows.is_some() {
                         d.insert("value".into(), serde_json::Value::String("no data".into()));
                     }
+                    // Every region has a tooltip (its name and value), even
+                    // without `tooltip` columns: a shape is not readable
+                    // from its outline alone.
+                    d.entry("tooltip".to_string()).or_insert_with(|| serde_json::Value::Object(Default::default()));
                     // Lines (a shape with no area) are stroked in the fill colour.
                     let line_only = px.rings.is_empty();
                     let paint = Paint {
