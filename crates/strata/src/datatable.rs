@@ -54,7 +54,52 @@ fn cell(v: &Values, i: usize, pattern: Option<&str>, loc: &Locale) -> (String, b
     }
 }
 
+/// A base map (a `region` layer without `key`) has no rows of its own: its
+/// table lists the shapes, by the `shapes.key` property, and by their
+/// `name` property when they have one.
+fn shape_table(spec: &Spec, plan: &Plan, l: &PlannedLayer, out: &mut String) -> bool {
+    let Some(m) = &plan.map else { return false };
+    if l.geometry != crate::spec::Geometry::Region || l.data.get(Channel::Key).is_some() {
+        return false;
+    }
+    let loc = plan.scales.locale;
+    let key = spec.shapes.as_ref().and_then(|s| s.key.clone());
+    let text = |v: &serde_json::Value| match v {
+        serde_json::Value::String(s) => s.clone(),
+        serde_json::Value::Number(n) => n.as_f64().map(|x| format::value_label_in(x, loc)).unwrap_or_default(),
+        serde_json::Value::Null => String::new(),
+        other => other.to_string(),
+    };
+    let named = key.as_deref() != Some("name") && m.features.iter().any(|f| f.properties.contains_key("name"));
+    let n = m.features.len();
+    let shown = n.min(MAX_ROWS);
+    let rows = if n == 1 { "1 shape".to_string() } else { format!("{} shapes", format::value_label_in(n as f64, loc)) };
+    let more = if n > shown { format!(", the first {} shown", format::value_label_in(shown as f64, loc)) } else { String::new() };
+    out.push_str(&format!("<table><caption>Layer {}: region, base map ({rows}{more})</caption><thead><tr>", l.index + 1));
+    out.push_str(&format!("<th scope=\"col\">{}</th>", escape(key.as_deref().unwrap_or("shape"))));
+    if named {
+        out.push_str("<th scope=\"col\">name</th>");
+    }
+    out.push_str("</tr></thead><tbody>");
+    for f in &m.features[..shown] {
+        let k = match &key {
+            Some(_) => f.key.clone().unwrap_or_default(),
+            None => format!("shape {}", f.index + 1),
+        };
+        out.push_str(&format!("<tr><td>{}</td>", escape(&k)));
+        if named {
+            out.push_str(&format!("<td>{}</td>", escape(&f.properties.get("name").map(text).unwrap_or_default())));
+        }
+        out.push_str("</tr>");
+    }
+    out.push_str("</tbody></table>");
+    true
+}
+
 fn layer_table(spec: &Spec, plan: &Plan, l: &PlannedLayer, out: &mut String) {
+    if shape_table(spec, plan, l, out) {
+        return;
+    }
     let d = &l.data;
     let loc = plan.scales.locale;
     let boxes = l.geometry == crate::spec::Geometry::Box;
@@ -133,7 +178,8 @@ pub fn write(spec: &Spec, plan: &Plan) -> String {
     let what = spec.title.as_deref().map(|t| format!(": {t}")).unwrap_or_default();
     let mut out = format!("<details class=\"strata-data\"{open}><summary>Data table{}</summary>", escape(&what));
     for (k, l) in plan.layers.iter().enumerate() {
-        if plan.layers[..k].iter().any(|e| e.data == l.data) {
+        let base_map = |e: &PlannedLayer| plan.map.is_some() && e.geometry == crate::spec::Geometry::Region && e.data.get(Channel::Key).is_none();
+        if plan.layers[..k].iter().any(|e| e.data == l.data && base_map(e) == base_map(l)) {
             continue;
         }
         layer_table(spec, plan, l, &mut out);
@@ -176,6 +222,21 @@ mod tests {
         assert!(t.contains("&lt;img src=x onerror=alert(1)&gt;"));
         assert!(t.contains("(600 rows, the first 500 shown)"), "{}", &t[..300]);
         assert_eq!(t.matches("<tr>").count(), 501);
+    }
+
+    // A base map (a region layer without `key`) lists its shapes: the
+    // `shapes.key` property and the `name` property beside it.
+    #[test]
+    fn a_base_map_lists_its_shapes() {
+        let t = table(
+            r#"{ "shapes": { "key": "code", "features": [
+                {"type": "Feature", "properties": {"code": "A1", "name": "North <End>"}, "geometry": {"type": "Point", "coordinates": [1, 2]}},
+                {"type": "Feature", "properties": {"code": 7}, "geometry": {"type": "Point", "coordinates": [3, 4]}} ] },
+              "layers": [ { "draw": "region" } ] }"#,
+        );
+        assert!(t.contains("<caption>Layer 1: region, base map (2 shapes)</caption>"), "{t}");
+        assert!(t.contains("<thead><tr><th scope=\"col\">code</th><th scope=\"col\">name</th></tr></thead>"), "{t}");
+        assert!(t.contains("<tr><td>A1</td><td>North &lt;End&gt;</td></tr><tr><td>7</td><td></td></tr>"), "{t}");
     }
 
     #[test]

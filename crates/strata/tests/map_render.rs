@@ -33,6 +33,11 @@ fn every_projection_draws_awkward_shapes_finitely() {
             assert_eq!(r.warnings.iter().filter(|w| w.code == "map.unmatched").count(), 1, "{proj} {center}");
             // Each drawn region names itself (the far side of a globe is not drawn).
             assert!(r.svg.contains("aria-label=\"shape: across") || r.svg.contains("aria-label=\"shape: holed"), "{proj} {center}: a region names itself");
+            // ... and has a tooltip (a hover title) though the layer lists no `tooltip` columns.
+            assert_eq!(r.svg.matches("role=\"graphics-symbol\" aria-label=\"shape: ").count(), r.svg.matches("><title>shape: ").count(), "{proj} {center}");
+            if r.svg.contains("aria-label=\"shape: holed") {
+                assert!(r.svg.contains("><title>shape: holed, color: 5, key: holed"), "{proj} {center}: a region's tooltip");
+            }
         }
     }
 }

@@ -2,7 +2,8 @@
 //! great-circle densification, the seam opposite the centre meridian, poles
 //! and the orthographic horizon.
 //!
-//! Every ring is read in a *frame*: longitude relative to the centre meridian
+//! Every ring is read in a *frame*: the sphere turned by the map's `rotate`
+//! ([`sphere::Rotation`]), then longitude relative to the centre meridian
 //! (for the orthographic globe, the sphere is first turned so the centre
 //! lies at 0°, 0°). In the frame the ring is unwrapped (each step takes the
 //! short way round), so a ring that crosses the seam runs on past ±180°
@@ -17,7 +18,7 @@
 //! even-odd rule (holes are rings like the others).
 
 use super::geojson::{Pos, Ring};
-use super::project::Projection;
+use super::project::{Projection, View};
 use super::sphere;
 use std::f64::consts::{FRAC_PI_2, PI};
 
@@ -29,15 +30,16 @@ pub const STEP: f64 = 1.0 * D;
 #[derive(Debug, Clone, Copy)]
 enum Frame {
     /// Longitude relative to the centre meridian; the strip is ±180°.
-    Seam { lon0: f64 },
+    Seam { rot: sphere::Rotation, lon0: f64 },
     /// The sphere turned so (lon0, lat0) is at the origin; the strip is ±90°.
-    Horizon { lon0: f64, lat0: f64 },
+    Horizon { rot: sphere::Rotation, lon0: f64, lat0: f64 },
 }
 
-fn frame(p: &Projection) -> Frame {
-    match *p {
-        Projection::Orthographic { lon0, lat0 } => Frame::Horizon { lon0, lat0 },
-        _ => Frame::Seam { lon0: p.lon0() },
+fn frame(v: &View) -> Frame {
+    let rot = v.rotation;
+    match v.projection {
+        Projection::Orthographic { lon0, lat0 } => Frame::Horizon { rot, lon0, lat0 },
+        p => Frame::Seam { rot, lon0: p.lon0() },
     }
 }
 
@@ -48,11 +50,18 @@ impl Frame {
             Frame::Horizon { .. } => FRAC_PI_2,
         }
     }
-    /// Frame longitude and latitude of a geographic point (radians).
+    /// Frame longitude and latitude of a geographic point (radians): the
+    /// map's turn first, then the projection's centre.
     fn to_frame(self, lon: f64, lat: f64) -> (f64, f64) {
         match self {
-            Frame::Seam { lon0 } => (super::project::wrap(lon - lon0), lat),
-            Frame::Horizon { lon0, lat0 } => sphere::rotate_to_center(lon, lat, lon0, lat0),
+            Frame::Seam { rot, lon0 } => {
+                let (lon, lat) = rot.apply(lon, lat);
+                (super::project::wrap(lon - lon0), lat)
+            }
+            Frame::Horizon { rot, lon0, lat0 } => {
+                let (lon, lat) = rot.apply(lon, lat);
+                sphere::rotate_to_center(lon, lat, lon0, lat0)
+            }
         }
     }
 }
@@ -185,8 +194,8 @@ fn ring_pieces(f: Frame, ring: &[Pos]) -> Vec<Vec<(f64, f64)>> {
 /// Projected rings of a polygon (outer ring and holes), each closed, ready
 /// to fill together with the even-odd rule. Coordinates on the unit sphere's
 /// plane, y north.
-pub fn polygon(p: &Projection, rings: &[Ring]) -> Vec<Vec<(f64, f64)>> {
-    let f = frame(p);
+pub fn polygon(v: &View, rings: &[Ring]) -> Vec<Vec<(f64, f64)>> {
+    let (f, p) = (frame(v), &v.projection);
     let mut out = Vec::new();
     for ring in rings {
         for piece in ring_pieces(f, ring) {
@@ -199,8 +208,8 @@ pub fn polygon(p: &Projection, rings: &[Ring]) -> Vec<Vec<(f64, f64)>> {
 }
 
 /// Projected pieces of a line: cut at the seam, clipped at the horizon.
-pub fn line(p: &Projection, path: &[Pos]) -> Vec<Vec<(f64, f64)>> {
-    let f = frame(p);
+pub fn line(v: &View, path: &[Pos]) -> Vec<Vec<(f64, f64)>> {
+    let (f, p) = (frame(v), &v.projection);
     let w = f.half_width();
     let dense = sphere::densify(&to_rad(path), STEP);
     let u = unwrap(f, &dense);
@@ -242,8 +251,8 @@ pub fn line(p: &Projection, path: &[Pos]) -> Vec<Vec<(f64, f64)>> {
 
 /// A projected point, or `None` when the projection hides it (the far side
 /// of the globe).
-pub fn point(p: &Projection, pos: Pos) -> Option<(f64, f64)> {
-    let f = frame(p);
+pub fn point(v: &View, pos: Pos) -> Option<(f64, f64)> {
+    let (f, p) = (frame(v), &v.projection);
     let (l, lat) = f.to_frame(pos.0 * D, pos.1 * D);
     if l.abs() > f.half_width() {
         return None;
@@ -252,8 +261,8 @@ pub fn point(p: &Projection, pos: Pos) -> Option<(f64, f64)> {
 }
 
 /// The outline of the whole sphere: the map's edge (closed).
-pub fn outline(p: &Projection) -> Vec<(f64, f64)> {
-    let f = frame(p);
+pub fn outline(v: &View) -> Vec<(f64, f64)> {
+    let (f, p) = (frame(v), &v.projection);
     let w = f.half_width();
     let corners = [(-w, -FRAC_PI_2), (-w, FRAC_PI_2), (w, FRAC_PI_2), (w, -FRAC_PI_2)];
     let ring = fill_edges(&corners, w, true);
@@ -264,7 +273,7 @@ pub fn outline(p: &Projection) -> Vec<(f64, f64)> {
 
 /// Graticule lines every `step` degrees (meridians from pole to pole but the
 /// last `step` short of each pole, parallels all round), projected.
-pub fn graticule(p: &Projection, step: f64) -> Vec<Vec<(f64, f64)>> {
+pub fn graticule(p: &View, step: f64) -> Vec<Vec<(f64, f64)>> {
     let mut out = Vec::new();
     if !(1.0..=90.0).contains(&step) {
         return out;
@@ -295,7 +304,7 @@ mod tests {
 
     #[test]
     fn a_shape_across_the_seam_is_cut_in_two() {
-        let p = Projection::EqualEarth { lon0: 0.0 };
+        let p = View::from(Projection::EqualEarth { lon0: 0.0 });
         let pieces = polygon(&p, &[square(170.0, -10.0, 20.0)]);
         assert_eq!(pieces.len(), 2);
         // One piece on each side, none reaching the middle.
@@ -307,7 +316,7 @@ mod tests {
 
     #[test]
     fn either_winding_gives_the_same_pieces() {
-        let p = Projection::EqualEarth { lon0: 0.0 };
+        let p = View::from(Projection::EqualEarth { lon0: 0.0 });
         let a = square(170.0, -10.0, 20.0);
         let mut b = a.clone();
         b.reverse();
@@ -321,7 +330,7 @@ mod tests {
     // whichever way it winds.
     #[test]
     fn a_ring_round_the_pole_fills_the_cap() {
-        let p = Projection::EqualEarth { lon0: 0.0 };
+        let p = View::from(Projection::EqualEarth { lon0: 0.0 });
         for rev in [false, true] {
             let mut ring: Ring = (0..=36).map(|i| (-180.0 + 10.0 * i as f64, -60.0)).collect();
             ring[36] = ring[0];
@@ -341,7 +350,7 @@ mod tests {
 
     #[test]
     fn the_far_side_is_hidden() {
-        let p = Projection::Orthographic { lon0: 0.0, lat0: 0.0 };
+        let p = View::from(Projection::Orthographic { lon0: 0.0, lat0: 0.0 });
         assert!(polygon(&p, &[square(170.0, -10.0, 20.0)]).is_empty());
         assert!(point(&p, (180.0, 0.0)).is_none());
         // A shape over the limb is closed along the horizon (the unit circle).
@@ -353,15 +362,15 @@ mod tests {
 
     #[test]
     fn oblique_frame_matches_the_oblique_formula() {
-        let p = Projection::Orthographic { lon0: -40.0 * D, lat0: 30.0 * D };
+        let p = View::from(Projection::Orthographic { lon0: -40.0 * D, lat0: 30.0 * D });
         let q = point(&p, (-20.0, 45.0)).unwrap();
-        let r = p.forward(-20.0 * D, 45.0 * D);
+        let r = p.projection.forward(-20.0 * D, 45.0 * D);
         assert!((q.0 - r.0).abs() < 1e-12 && (q.1 - r.1).abs() < 1e-12);
     }
 
     #[test]
     fn lines_are_cut_at_the_seam() {
-        let p = Projection::Equirectangular { lon0: 0.0 };
+        let p = View::from(Projection::Equirectangular { lon0: 0.0 });
         let pieces = line(&p, &[(170.0, 0.0), (-170.0, 0.0)]);
         assert_eq!(pieces.len(), 2);
         assert!(pieces.iter().any(|r| (r.last().unwrap().0 - PI).abs() < 1e-12 && r[0].0 > 2.9));

@@ -16,4 +16,5 @@ pub mod project;
 pub mod simplify;
 pub mod sphere;
 
-pub use project::Projection;
+pub use project::{Projection, View};
+pub use sphere::Rotation;

@@ -8,6 +8,7 @@
 //! units of the sphere's radius, x east and y north; transcendental calls go
 //! through the portable `libm` so native and wasm agree to the bit.
 
+use super::sphere::Rotation;
 use libm::{asin, atan2, cos, log, pow, sin, sqrt, tan};
 use std::f64::consts::{FRAC_PI_2, FRAC_PI_4, PI};
 
@@ -55,6 +56,28 @@ pub enum Projection {
         lon0: f64,
         lat0: f64,
     },
+}
+
+/// A projection of the sphere after a turn ([`Rotation`], the map's
+/// `rotate`): the turn first, then the projection with its own centre.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct View {
+    pub projection: Projection,
+    pub rotation: Rotation,
+}
+
+impl From<Projection> for View {
+    fn from(projection: Projection) -> View {
+        View { projection, rotation: Rotation::NONE }
+    }
+}
+
+impl View {
+    /// Project one point (radians): turned, then as [`Projection::forward`].
+    pub fn forward(&self, lon: f64, lat: f64) -> (f64, f64) {
+        let (l, p) = self.rotation.apply(lon, lat);
+        self.projection.forward(l, p)
+    }
 }
 
 /// Longitude wrapped to [-pi, pi).

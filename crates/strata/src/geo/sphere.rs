@@ -78,6 +78,60 @@ pub fn rotate_to_center(lon: f64, lat: f64, lon0: f64, lat0: f64) -> (f64, f64) 
     from_vec([c * v[0] + s * v[2], v[1], -s * v[0] + c * v[2]])
 }
 
+/// A turn of the sphere, `rotate: [λ, φ, γ]` in degrees: first about the
+/// polar axis by λ (longitudes grow by λ), then about the axis through
+/// 0°N 90°E by φ (a point on the prime meridian moves north by φ), then
+/// about the axis through 0°N 0°E by γ (the point at 90°E moves north by γ).
+/// The three elementary rotations of Euler's theorem, in that order; a map
+/// turned by [-λ0, -φ0] has λ0, φ0 in its centre. Checked against PROJ
+/// (`+proj=ob_tran`) in `tests/map_rotate.rs`.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Rotation {
+    /// λ, radians.
+    pub lambda: f64,
+    sp: f64,
+    cp: f64,
+    sg: f64,
+    cg: f64,
+    /// Only λ: a shift of longitude, no trigonometry.
+    about_pole: bool,
+}
+
+impl Rotation {
+    /// No turn at all.
+    pub const NONE: Rotation = Rotation { lambda: 0.0, sp: 0.0, cp: 1.0, sg: 0.0, cg: 1.0, about_pole: true };
+
+    /// The turn by λ, φ, γ (radians).
+    pub fn new(lambda: f64, phi: f64, gamma: f64) -> Rotation {
+        Rotation { lambda, sp: sin(phi), cp: cos(phi), sg: sin(gamma), cg: cos(gamma), about_pole: phi == 0.0 && gamma == 0.0 }
+    }
+
+    /// The turn given in degrees, as the spec writes it.
+    pub fn from_degrees(r: [f64; 3]) -> Rotation {
+        let d = PI / 180.0;
+        Rotation::new(r[0] * d, r[1] * d, r[2] * d)
+    }
+
+    pub fn is_none(&self) -> bool {
+        self.about_pole && self.lambda == 0.0
+    }
+
+    /// Longitude and latitude (radians) of a point after the turn.
+    pub fn apply(&self, lon: f64, lat: f64) -> (f64, f64) {
+        if self.about_pole {
+            if self.lambda == 0.0 {
+                return (lon, lat);
+            }
+            return (super::project::wrap(lon + self.lambda), lat);
+        }
+        let [x, y, z] = to_vec(lon + self.lambda, lat);
+        // About the y axis by φ, then about the x axis by γ.
+        let (x1, z1) = (x * self.cp - z * self.sp, x * self.sp + z * self.cp);
+        let (y2, z2) = (y * self.cg - z1 * self.sg, y * self.sg + z1 * self.cg);
+        (atan2(y2, x1), asin(z2.clamp(-1.0, 1.0)))
+    }
+}
+
 /// Area of a spherical polygon on the unit sphere whose edges are great
 /// circles (sum of signed triangle areas from the first vertex, by the
 /// Van Oosterom-Strackee formula). The sign follows the winding.
@@ -122,6 +176,25 @@ mod tests {
             assert!(dot(n, to_vec(w[1].0, w[1].1)).abs() < 1e-12);
         }
         assert_eq!(*pts.last().unwrap(), b);
+    }
+
+    // Euler: a rotation keeps angular distances. And by the definition, a
+    // turn by [-λ0, -φ0] takes λ0, φ0 to the origin.
+    #[test]
+    fn turns_keep_distances_and_bring_the_centre_in() {
+        let r = Rotation::from_degrees([35.0, -20.0, 70.0]);
+        let pts = [(-30.0 * D, 10.0 * D), (60.0 * D, 50.0 * D), (170.0 * D, -80.0 * D), (0.0, 90.0 * D)];
+        for a in pts {
+            for b in pts {
+                // Compared as cosines: acos is ill-conditioned at 0.
+                let (ra, rb) = (r.apply(a.0, a.1), r.apply(b.0, b.1));
+                let cos = |p: (f64, f64), q: (f64, f64)| dot(to_vec(p.0, p.1), to_vec(q.0, q.1));
+                assert!((cos(a, b) - cos(ra, rb)).abs() < 1e-12);
+            }
+        }
+        let (l, p) = Rotation::from_degrees([-30.0, -40.0, 0.0]).apply(30.0 * D, 40.0 * D);
+        assert!(l.abs() < 1e-12 && p.abs() < 1e-12, "{l} {p}");
+        assert!(Rotation::NONE.is_none() && !Rotation::from_degrees([1.0, 0.0, 0.0]).is_none());
     }
 
     #[test]

@@ -5,7 +5,7 @@ use super::PlannedLayer;
 use crate::channel::Channel;
 use crate::error::{Diagnostic, Errors};
 use crate::geo::geojson::Feature;
-use crate::geo::Projection;
+use crate::geo::{Projection, Rotation, View};
 use crate::spec::{closest, Geometry, MapCoords, MapFit, ProjectionWord, Spec};
 
 const D: f64 = std::f64::consts::PI / 180.0;
@@ -13,9 +13,8 @@ const D: f64 = std::f64::consts::PI / 180.0;
 /// What the scene needs to draw a map.
 #[derive(Debug, Clone)]
 pub struct MapPlan {
-    pub projection: Projection,
-    /// Turn of the map about its centre, radians counter-clockwise.
-    pub rotate: f64,
+    /// The projection after the sphere's turn (`rotate`).
+    pub view: View,
     /// Fit the rows drawn (points) rather than the shapes.
     pub fit_data: bool,
     pub graticule: Option<f64>,
@@ -37,23 +36,33 @@ pub fn coords(spec: &Spec) -> Option<MapCoords> {
     }
 }
 
-/// Longitude and latitude bounds of the shapes (degrees).
-fn bounds(features: &[Feature]) -> Option<(f64, f64, f64, f64)> {
+/// Longitude and latitude bounds of the shapes (degrees) on the turned sphere.
+fn bounds(features: &[Feature], rot: Rotation) -> Option<(f64, f64, f64, f64)> {
     let mut b = (f64::INFINITY, f64::INFINITY, f64::NEG_INFINITY, f64::NEG_INFINITY);
     for f in features {
         if let Some(g) = &f.geometry {
-            g.for_each_pos(&mut |(x, y)| b = (b.0.min(x), b.1.min(y), b.2.max(x), b.3.max(y)));
+            g.for_each_pos(&mut |(x, y)| {
+                let (x, y) = if rot.is_none() {
+                    (x, y)
+                } else {
+                    let (l, p) = rot.apply(x * D, y * D);
+                    (l / D, p / D)
+                };
+                b = (b.0.min(x), b.1.min(y), b.2.max(x), b.3.max(y))
+            });
         }
     }
     (b.0 <= b.2).then_some(b)
 }
 
-fn projection(m: &MapCoords, features: &[Feature]) -> Projection {
-    let b = bounds(features);
+fn projection(m: &MapCoords, features: &[Feature], rot: Rotation) -> Projection {
+    let b = bounds(features, rot);
     // Default centre: the middle of the shapes when they span less than half
-    // the world's longitudes, else 0°, 0°.
+    // the world's longitudes, else 0°, 0°; with a turn, the turn says what
+    // is in the middle (0°, 0° of the turned sphere).
     let (clon, clat) = match (m.center, b) {
         (Some(c), _) => (c[0], c[1]),
+        _ if !m.rotate.is_null() => (0.0, 0.0),
         (None, Some(b)) if b.2 - b.0 < 180.0 => ((b.0 + b.2) / 2.0, (b.1 + b.3) / 2.0),
         _ => (0.0, 0.0),
     };
@@ -105,6 +114,13 @@ impl MapPlan {
 
 /// Resolve the map. `features` are the shapes read by the caller.
 pub fn resolve(spec: &Spec, m: &MapCoords, features: Option<Vec<Feature>>, layers: &[PlannedLayer], warnings: &mut Vec<Diagnostic>) -> Result<MapPlan, Errors> {
+    let Some(turn) = m.rotation() else {
+        return Err(Diagnostic::error("map.rotate", "`rotate` takes a number or a list of one to three numbers (degrees)")
+            .at_path("coords.rotate")
+            .with_hint("for example [-30, -40]: the sphere turned so 30°E 40°N is in the middle")
+            .into());
+    };
+    let rotation = Rotation::from_degrees(turn);
     let needs_shapes = layers.iter().any(|l| l.geometry == Geometry::Region);
     let features = match features {
         Some(f) => f,
@@ -178,8 +194,7 @@ pub fn resolve(spec: &Spec, m: &MapCoords, features: Option<Vec<Feature>>, layer
         rows.push(Some(of_feature));
     }
     Ok(MapPlan {
-        projection: projection(m, &features),
-        rotate: m.rotate * D,
+        view: View { projection: projection(m, &features, rotation), rotation },
         fit_data: m.fit == MapFit::Data,
         graticule: m.graticule_step().filter(|s| *s >= 1.0 && *s <= 90.0),
         outline: m.outline,

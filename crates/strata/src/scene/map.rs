@@ -7,22 +7,11 @@ use super::{polyline, Node, Paint, Seg};
 use crate::channel::Channel;
 use crate::color::Palette;
 use crate::geo::fit::{self, Pieces};
-use crate::geo::{clip, Projection};
+use crate::geo::{clip, View};
 use crate::plan::{Geometry, Plan, PlannedLayer};
 
 /// Fill of a shape with no data row.
 pub const NO_DATA: &str = "#d9dcdf";
-
-fn rotate(p: &mut Pieces, a: f64) {
-    if a == 0.0 {
-        return;
-    }
-    let (s, c) = (libm::sin(a), libm::cos(a));
-    let r = |q: &mut (f64, f64)| *q = (c * q.0 - s * q.1, s * q.0 + c * q.1);
-    p.rings.iter_mut().flatten().for_each(r);
-    p.lines.iter_mut().flatten().for_each(r);
-    p.points.iter_mut().for_each(r);
-}
 
 fn ring_segs(px: &Pieces) -> Vec<Seg> {
     let mut d = Vec::new();
@@ -37,7 +26,7 @@ fn ring_segs(px: &Pieces) -> Vec<Seg> {
 }
 
 /// The points of a layer in plane coordinates, row by row.
-fn layer_points(p: &Projection, layer: &PlannedLayer) -> Vec<Option<(f64, f64)>> {
+fn layer_points(p: &View, layer: &PlannedLayer) -> Vec<Option<(f64, f64)>> {
     let (Some(x), Some(y)) = (layer.data.get(Channel::X), layer.data.get(Channel::Y)) else { return Vec::new() };
     (0..layer.data.len)
         .map(|i| match (x.num(i), y.num(i)) {
@@ -110,13 +99,11 @@ pub fn has_no_data(plan: &Plan) -> bool {
 pub fn draw(plan: &Plan, pal: &Palette, left: f64, top: f64, right: f64, bottom: f64, reserve: bool) -> Vec<Node> {
     // (Without the `maps` feature no plan has a map: plan::build refuses it.)
     let Some(m) = plan.map.as_ref().filter(|_| cfg!(feature = "maps")) else { return Vec::new() };
-    let p = m.projection;
-    let mut shapes: Vec<Pieces> = m.features.iter().map(|f| fit::project(&p, f)).collect();
-    shapes.iter_mut().for_each(|s| rotate(s, m.rotate));
+    let p = m.view;
+    let shapes: Vec<Pieces> = m.features.iter().map(|f| fit::project(&p, f)).collect();
     let mut points: Vec<Pieces> = Vec::new();
     for l in &plan.layers {
-        let mut pc = Pieces { points: layer_points(&p, l).into_iter().flatten().collect(), ..Default::default() };
-        rotate(&mut pc, m.rotate);
+        let pc = Pieces { points: layer_points(&p, l).into_iter().flatten().collect(), ..Default::default() };
         points.push(pc);
     }
     // Shapes with no row get the "no data" fill and a legend entry under the map.
@@ -133,16 +120,14 @@ pub fn draw(plan: &Plan, pal: &Palette, left: f64, top: f64, right: f64, bottom:
     let mut back = Vec::new();
     let bx = (left - 0.5, top - 0.5, right + 0.5, bottom + 0.5);
     if let Some(step) = m.graticule {
-        let mut g = Pieces { lines: clip::graticule(&p, step), ..Default::default() };
-        rotate(&mut g, m.rotate);
+        let g = Pieces { lines: clip::graticule(&p, step), ..Default::default() };
         let lines = to_px(g).lines.iter().flat_map(|l| clip_to_box(l, bx)).collect();
         let d = ring_segs(&Pieces { lines, ..Default::default() });
         back.push(Node::Path { d, paint: Paint::stroke(&pal.grid, 0.75), datum: None });
     }
     if m.outline {
         // The sphere's edge, when the whole of it is in view.
-        let mut o = Pieces { rings: vec![clip::outline(&p)], ..Default::default() };
-        rotate(&mut o, m.rotate);
+        let o = Pieces { rings: vec![clip::outline(&p)], ..Default::default() };
         let px = to_px(o);
         if fit::bounds([&px]).is_some_and(|b| b.0 >= bx.0 && b.1 >= bx.1 && b.2 <= bx.2 && b.3 <= bx.3) {
             back.push(Node::Path { d: ring_segs(&px), paint: Paint::stroke(&pal.axis, 1.0), datum: None });
@@ -192,6 +177,10 @@ pub fn draw(plan: &Plan, pal: &Palette, left: f64, top: f64, right: f64, bottom:
                     if row.is_none() && rows.is_some() {
                         d.insert("value".into(), serde_json::Value::String("no data".into()));
                     }
+                    // Every region has a tooltip (its name and value), even
+                    // without `tooltip` columns: a shape is not readable
+                    // from its outline alone.
+                    d.entry("tooltip".to_string()).or_insert_with(|| serde_json::Value::Object(Default::default()));
                     // Lines (a shape with no area) are stroked in the fill colour.
                     let line_only = px.rings.is_empty();
                     let paint = Paint {
@@ -236,8 +225,7 @@ pub fn draw(plan: &Plan, pal: &Palette, left: f64, top: f64, right: f64, bottom:
                     if path.len() < 2 {
                         continue;
                     }
-                    let mut pc = Pieces { lines: clip::line(&p, path), ..Default::default() };
-                    rotate(&mut pc, m.rotate);
+                    let pc = Pieces { lines: clip::line(&p, path), ..Default::default() };
                     let d = ring_segs(&to_px(pc));
                     let c = layer
                         .data
@@ -254,9 +242,7 @@ pub fn draw(plan: &Plan, pal: &Palette, left: f64, top: f64, right: f64, bottom:
                 let Some(t) = layer.data.get(Channel::Text) else { continue };
                 for (i, q) in layer_points(&p, layer).iter().enumerate() {
                     let (Some(q), Some(text)) = (q, t.key(i)) else { continue };
-                    let mut pc = Pieces { points: vec![*q], ..Default::default() };
-                    rotate(&mut pc, m.rotate);
-                    let (x, y) = fitted.px(pc.points[0]);
+                    let (x, y) = fitted.px(*q);
                     let size = layer.style.font_size.unwrap_or(12.0);
                     marks.push(Node::Text {
                         x,
@@ -278,9 +264,7 @@ pub fn draw(plan: &Plan, pal: &Palette, left: f64, top: f64, right: f64, bottom:
                 let mut order: Vec<(usize, (f64, f64), f64)> = Vec::new();
                 for (i, q) in pts.iter().enumerate() {
                     let Some(q) = q else { continue };
-                    let mut pc = Pieces { points: vec![*q], ..Default::default() };
-                    rotate(&mut pc, m.rotate);
-                    let xy = fitted.px(pc.points[0]);
+                    let xy = fitted.px(*q);
                     let r = layer.data.get(Channel::Size).and_then(|v| plan.scales.radius_of(v, i)).unwrap_or(layer.style.radius.unwrap_or(3.5));
                     order.push((i, xy, r));
                 }
@@ -307,7 +291,7 @@ pub fn draw(plan: &Plan, pal: &Palette, left: f64, top: f64, right: f64, bottom:
         }
         out.push(Node::Group { class: format!("strata-layer strata-{}", layer.geometry.word()), role: Some("list".into()), label: None, children: marks });
     }
-    let notes = map_notes(plan, &p, m.rotate, &fitted, pal, bx);
+    let notes = map_notes(plan, &p, &fitted, pal, bx);
     if !notes.is_empty() {
         out.push(Node::Group { class: "strata-notes".into(), role: None, label: None, children: notes });
     }
@@ -317,7 +301,7 @@ pub fn draw(plan: &Plan, pal: &Palette, left: f64, top: f64, right: f64, bottom:
 /// Notes at longitude (`x`) and latitude (`y`): a point with its text, a
 /// meridian (`x` alone), a parallel (`y` alone), or a shaded box of
 /// longitudes and latitudes (with `x_end`/`y_end`).
-fn map_notes(plan: &Plan, p: &Projection, rot: f64, fitted: &fit::Fitted, pal: &Palette, bx: (f64, f64, f64, f64)) -> Vec<Node> {
+fn map_notes(plan: &Plan, p: &View, fitted: &fit::Fitted, pal: &Palette, bx: (f64, f64, f64, f64)) -> Vec<Node> {
     let mut out = Vec::new();
     let num = |v: &Option<serde_json::Value>| v.as_ref().and_then(serde_json::Value::as_f64).filter(|x| x.is_finite());
     let text = |x: f64, y: f64, t: &str| Node::Text {
@@ -332,8 +316,7 @@ fn map_notes(plan: &Plan, p: &Projection, rot: f64, fitted: &fit::Fitted, pal: &
         class: "strata-note".into(),
     };
     let draw_lines = |lines: Vec<Vec<(f64, f64)>>| {
-        let mut pc = Pieces { lines, ..Default::default() };
-        rotate(&mut pc, rot);
+        let pc = Pieces { lines, ..Default::default() };
         let lines = fitted.to_pixels(&pc).lines.iter().flat_map(|l| clip_to_box(l, bx)).collect();
         Pieces { lines, ..Default::default() }
     };
@@ -343,9 +326,7 @@ fn map_notes(plan: &Plan, p: &Projection, rot: f64, fitted: &fit::Fitted, pal: &
         match (x, y, x2, y2) {
             (Some(lon), Some(lat), None, None) => {
                 let Some(q) = clip::point(p, (lon, lat)) else { continue };
-                let mut pc = Pieces { points: vec![q], ..Default::default() };
-                rotate(&mut pc, rot);
-                let (cx, cy) = fitted.px(pc.points[0]);
+                let (cx, cy) = fitted.px(q);
                 out.push(Node::Circle { cx, cy, r: 2.5, paint: Paint::fill(&pal.text), datum: None });
                 if !label.is_empty() {
                     out.push(text(cx + 6.0, cy - 6.0, &label));
@@ -389,8 +370,7 @@ fn map_notes(plan: &Plan, p: &Projection, rot: f64, fitted: &fit::Fitted, pal: &
                 ring.extend((0..=k).map(|j| (w + (e - w) * j as f64 / k as f64, s_)));
                 ring.extend((0..=k).map(|j| (e - (e - w) * j as f64 / k as f64, n_)));
                 ring.push(ring[0]);
-                let mut pc = Pieces { rings: clip::polygon(p, &[ring]), ..Default::default() };
-                rotate(&mut pc, rot);
+                let pc = Pieces { rings: clip::polygon(p, &[ring]), ..Default::default() };
                 let px = fitted.to_pixels(&pc);
                 if px.rings.is_empty() {
                     continue;

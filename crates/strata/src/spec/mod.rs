@@ -465,9 +465,10 @@ pub struct MapCoords {
     /// [longitude, latitude] of the map's centre.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub center: Option<[f64; 2]>,
-    /// Degrees the map turns about its centre, counter-clockwise.
-    #[serde(default)]
-    pub rotate: f64,
+    /// The sphere's turn before projecting, degrees: a number (λ) or a
+    /// list [λ, φ, γ] of one to three angles (`geo::Rotation`).
+    #[serde(default, skip_serializing_if = "serde_json::Value::is_null")]
+    pub rotate: serde_json::Value,
     /// Standard parallels of the conic projections.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub parallels: Option<[f64; 2]>,
@@ -487,7 +488,7 @@ impl Default for MapCoords {
             kind: MapKind::Map,
             projection: default_projection(),
             center: None,
-            rotate: 0.0,
+            rotate: serde_json::Value::Null,
             parallels: None,
             fit: default_fit(),
             graticule: default_graticule(),
@@ -500,6 +501,22 @@ impl MapCoords {
     /// The graticule step in degrees, `None` for `false`.
     pub fn graticule_step(&self) -> Option<f64> {
         self.graticule.as_f64()
+    }
+
+    /// `rotate` as [λ, φ, γ] degrees (a number is λ; missing angles are 0);
+    /// `None` for a list of no angle or more than three.
+    pub fn rotation(&self) -> Option<[f64; 3]> {
+        let mut r = [0.0; 3];
+        match &self.rotate {
+            serde_json::Value::Null => {}
+            serde_json::Value::Array(a) if (1..=3).contains(&a.len()) => {
+                for (o, v) in r.iter_mut().zip(a) {
+                    *o = v.as_f64().filter(|x| x.is_finite())?;
+                }
+            }
+            v => r[0] = v.as_f64().filter(|x| x.is_finite())?,
+        }
+        Some(r)
     }
 }
 

@@ -293,7 +293,11 @@ pub fn spec_shape() -> Shape {
                 Shape::Pair(Box::new(num(Some(-180.0), Some(180.0)))),
                 "[longitude, latitude] of the map's centre (default: the middle of the shapes).",
             ),
-            f("rotate", num(Some(-360.0), Some(360.0)), "Degrees the map turns about its centre, counter-clockwise (default 0)."),
+            f(
+                "rotate",
+                Shape::Either(vec![num(Some(-360.0), Some(360.0)), list(num(Some(-360.0), Some(360.0)))]),
+                "The sphere's turn before projecting, in degrees: λ, or [λ, φ, γ]: by λ about the polar axis, then by φ about the axis through 0°N 90°E, then by γ about the axis through 0°N 0°E; the map's centre is then 0°, 0° of the turned sphere unless `center` says (default none).",
+            ),
             f(
                 "parallels",
                 Shape::Pair(Box::new(num(Some(-90.0), Some(90.0)))),
