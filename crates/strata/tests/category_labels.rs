@@ -79,6 +79,22 @@ fn eight_city_names_at_480_px_are_all_named() {
 }
 
 #[test]
+fn a_long_list_down_the_side_is_all_named_on_a_phone() {
+    // 45 districts as horizontal bars at 360 px. Before: the chart kept its
+    // aspect and named every third district; it now grows taller.
+    let rows: Vec<String> = (0..45).map(|i| format!(r#"{{"district": "District {i:02}", "v": {}}}"#, (i * 37) % 90 + 5)).collect();
+    let spec = format!(r#"{{ "data": {{ "rows": [{}] }}, "layers": [ {{ "draw": "bar", "x": "v", "y": "district" }} ] }}"#, rows.join(","));
+    let r = render(&spec, None, &at_width(360.0)).unwrap();
+    let shown = named(&r.scene);
+    let missing: Vec<String> = (0..45).map(|i| format!("District {i:02}")).filter(|d| !shown.contains(d)).collect();
+    assert!(missing.is_empty(), "not named: {missing:?}");
+    assert!(r.scene.height > 360.0 * 1.5, "the chart grew: {}", r.scene.height);
+    // A height in the spec is kept (and then labels thin as before).
+    let fixed = spec.replacen("\"layers\"", "\"size\": { \"height\": 300 }, \"layers\"", 1);
+    assert_eq!(render(&fixed, None, &at_width(360.0)).unwrap().scene.height, 300.0);
+}
+
+#[test]
 fn three_categories_in_wrapped_panels_keep_the_middle_label() {
     let mut rows = Vec::new();
     for p in ["Ashby", "Brill", "Corran", "Dunmore"] {

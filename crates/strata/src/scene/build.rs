@@ -54,6 +54,25 @@ fn text_block(lines: &[String], x: f64, top: f64, size: f64, bold: bool, fill: &
     (out, y)
 }
 
+/// Room a chart takes besides its plot: title, axis, source (a typical
+/// chart's, measured on the gallery at 360 px; a little more is harmless).
+const CHROME: f64 = 140.0;
+
+/// A category axis down the side names every category: when the spec sets
+/// no height (nor aspect), the chart grows until its categories stand a line
+/// and a fifth apart, so 51 states on a phone are all named instead of every
+/// third (found in a user trial). Panels and maps keep their size.
+fn tall_enough(plan: &Plan, height: f64, ts: f64) -> f64 {
+    let c = &plan.chart;
+    if c.size.height.is_some() || c.size.aspect.is_some() || plan.panels.is_some() || plan.map.is_some() || matches!(c.coords, Coords::Polar(_)) {
+        return height;
+    }
+    let v = if c.transposed { &plan.scales.x } else { &plan.scales.y };
+    let crate::scale::PositionScale::Category { values, .. } = v else { return height };
+    let need = values.len() as f64 * ts * text::LINE_HEIGHT * 1.2 + CHROME;
+    height.max(need.min(4000.0))
+}
+
 /// The chart's size in pixels.
 pub fn chart_size(size: &Size, opts: &SceneOptions) -> (f64, f64) {
     let width = size.width.unwrap_or(opts.width).clamp(120.0, 4000.0);
@@ -71,6 +90,7 @@ pub fn build(plan: &Plan, opts: &SceneOptions) -> Scene {
     // Text sizes: the theme's `font_size` sets the tick-label size and every
     // other text keeps its proportion to it.
     let ts = chart.font_size.unwrap_or(guides::TICK_SIZE);
+    let height = tall_enough(plan, height, ts);
     let k = ts / guides::TICK_SIZE;
     let scales = &plan.scales;
     let loc = scales.locale;
