@@ -118,10 +118,41 @@ pub fn check(spec: &Spec, plan: Option<&Plan>) -> Vec<Diagnostic> {
             ));
         }
     }
+    // Two layers of one geometry showing different columns in one colour.
+    out.extend(look_alike(spec));
     // Text below WCAG 2.1 AA contrast against the background.
     out.extend(contrast(spec));
     out.retain(|d| !spec.quiet.contains(&d.code));
     out
+}
+
+/// Layers of one geometry (lines, points, areas, steps) that show different
+/// `y` columns with neither a `color` channel nor a `style.color` are drawn
+/// alike and get no legend (seen in a user trial: unemployment and
+/// inflation as two lines of one colour).
+fn look_alike(spec: &Spec) -> Vec<Diagnostic> {
+    let plain = |l: &crate::spec::Layer| {
+        matches!(l.draw, Geometry::Line | Geometry::Point | Geometry::Area | Geometry::Step) && l.color.is_none() && l.style.color.is_none()
+    };
+    for (j, b) in spec.layers.iter().enumerate() {
+        let Some(yb) = b.y.as_ref().filter(|_| plain(b)) else { continue };
+        let twin = spec.layers[..j].iter().position(|a| plain(a) && a.draw == b.draw && a.y.as_ref().is_some_and(|ya| ya.column != yb.column));
+        if let Some(i) = twin {
+            let ya = &spec.layers[i].y.as_ref().map(|m| m.column.as_str()).unwrap_or_default();
+            return vec![warn(
+                "lint.layers_look_alike",
+                format!("layers[{j}]"),
+                format!(
+                    "layers[{i}] and layers[{j}] draw {}s of different columns (`{ya}`, `{}`) in one colour, with no legend: readers \
+                     cannot tell which is which; turn the columns into rows with `unpivot` and map `color` to the names column, or \
+                     give each layer its own `style.color` and name it (`label_ends`)",
+                    b.draw.word(),
+                    yb.column
+                ),
+            )];
+        }
+    }
+    Vec::new()
 }
 
 fn contrast(spec: &Spec) -> Vec<Diagnostic> {
@@ -296,6 +327,11 @@ mod tests {
         assert!(codes(r#"{"layers":[{"draw":"bar"}],"scales":{"y":{"domain":[0, 100]}}}"#).is_empty());
         assert!(codes(r#"{"layers":[{"draw":"point"}],"scales":{"y":{"zero":false}}}"#).is_empty());
         assert!(codes(r#"{"layers":[{"draw":"bar"}],"scales":{"y":{"kind":"log"}},"quiet":["lint.log_bars"]}"#).is_empty());
+        // Two lines of different columns in one colour; a colour on either tells them apart.
+        assert_eq!(codes(r#"{"layers":[{"draw":"line","x":"t","y":"a"},{"draw":"line","x":"t","y":"b"}]}"#), vec!["lint.layers_look_alike"]);
+        assert!(codes(r#"{"layers":[{"draw":"line","x":"t","y":"a"},{"draw":"line","x":"t","y":"b","style":{"color":"red"}}]}"#).is_empty());
+        assert!(codes(r#"{"layers":[{"draw":"line","x":"t","y":"a"},{"draw":"point","x":"t","y":"a"}]}"#).is_empty());
+        assert!(codes(r#"{"layers":[{"draw":"line","x":"t","y":"a","color":"k"},{"draw":"line","x":"t","y":"b","color":"k"}]}"#).is_empty());
     }
 
     #[test]

@@ -111,7 +111,8 @@ pub const DATA_TABLE: &[&str] = DataTable::WORDS;
 pub const POINT_SHAPES: &[&str] = PointShape::WORDS;
 /// Lint codes that `quiet` may silence: the spec names them, the lint
 /// stage (which reads the spec) raises them.
-pub const LINT_CODES: &[&str] = &["lint.axis_without_zero", "lint.log_bars", "lint.too_many_colors", "lint.polar_angle_not_cyclic", "lint.low_contrast"];
+pub const LINT_CODES: &[&str] =
+    &["lint.axis_without_zero", "lint.log_bars", "lint.too_many_colors", "lint.polar_angle_not_cyclic", "lint.low_contrast", "lint.layers_look_alike"];
 
 /// Words and keys the spec once used, with the word that replaced each:
 /// an old word gets a hint naming the new one even when edit distance
