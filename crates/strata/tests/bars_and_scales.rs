@@ -198,3 +198,33 @@ fn time_domains_are_not_rounded_out() {
     let (_, line) = nodes(&r).into_iter().find(|(c, n)| c.contains("strata-line") && n["type"] == "path").unwrap();
     assert!(line["d"][0][1].as_f64().unwrap() > left + 1.0);
 }
+
+#[test]
+fn cells_on_numbers_tile_the_plot() {
+    // A heat map of months by year (a wide table unpivoted, years as numbers):
+    // the cells had no height on the numeric year axis and nothing was drawn
+    // (user trial on statsmodels' elnino table). Each cell now spans the
+    // data's resolution: one year tall, one category wide, with no gaps.
+    let mut rows = Vec::new();
+    for year in 2001..2011 {
+        for (k, m) in ["Jan", "Feb", "Mar", "Apr"].iter().enumerate() {
+            rows.push(format!(r#"{{"year": {year}, "month": "{m}", "t": {}}}"#, 20 + (year * 3 + k as i32) % 7));
+        }
+    }
+    let spec = format!(r#"{{ "data": {{ "rows": [{}] }}, "layers": [ {{ "draw": "cell", "x": "month", "y": "year", "color": "t" }} ] }}"#, rows.join(","));
+    let cells = rects(&draw(&spec));
+    assert_eq!(cells.len(), 40);
+    let h = cells[0].3;
+    assert!(h > 10.0, "cells have a height: {h}");
+    for c in &cells {
+        assert!((c.3 - h).abs() < 1e-6, "one year tall: {} against {h}", c.3);
+    }
+    // Rows of one month stack without gaps or overlaps: sorted by y, each
+    // starts where the one before ended.
+    let mut jan: Vec<(f64, f64)> = cells.iter().filter(|c| c.4["x"] == "Jan").map(|c| (c.1, c.3)).collect();
+    jan.sort_by(|a, b| a.0.total_cmp(&b.0));
+    assert_eq!(jan.len(), 10);
+    for w in jan.windows(2) {
+        assert!((w[0].0 + w[0].1 - w[1].0).abs() < 1e-6, "{w:?}");
+    }
+}

@@ -24,10 +24,23 @@ const JITTER_SEED: u64 = 0x5354_5241_5441_0001;
 /// `x_end`: the smallest gap between distinct x values. A bar is that wide
 /// times its share (`style.share`), so neighbours never overlap.
 pub fn bar_step(geometry: Geometry, data: &LayerData) -> Option<f64> {
-    if geometry != Geometry::Bar || data.get(Channel::XEnd).is_some() {
+    if !matches!(geometry, Geometry::Bar | Geometry::Cell) || data.get(Channel::XEnd).is_some() {
         return None;
     }
     match data.get(Channel::X)? {
+        Values::Num(v) | Values::Time(v) => Some(resolution(v)),
+        Values::Text(_) => None,
+    }
+}
+
+/// Cells on a continuous y (years down the side of a heat map): the
+/// smallest gap between distinct y values, which sets their height as
+/// [`bar_step`] sets their width.
+pub fn cell_y_step(geometry: Geometry, data: &LayerData) -> Option<f64> {
+    if geometry != Geometry::Cell || data.get(Channel::YEnd).is_some() {
+        return None;
+    }
+    match data.get(Channel::Y)? {
         Values::Num(v) | Values::Time(v) => Some(resolution(v)),
         Values::Text(_) => None,
     }

@@ -62,6 +62,8 @@ pub struct PlannedLayer {
     /// Bars on a continuous x: the data's resolution along x (smallest gap
     /// between distinct values, data units), which sets their width.
     pub x_step: Option<f64>,
+    /// Cells on a continuous y: the data's resolution along y, their height.
+    pub y_step: Option<f64>,
     /// The layer was turned for horizontal bars: its `x` holds the spec's
     /// `y` and the other way round (output names them as the spec did).
     pub turned: bool,
@@ -177,6 +179,7 @@ pub fn build_with_shapes(spec: &Spec, table: &Table, shapes: Option<Vec<crate::g
                 warnings.extend(s.warnings);
                 let data = arrange::apply(i, l, s.geometry, s.data);
                 let x_step = arrange::bar_step(s.geometry, &data);
+                let y_step = arrange::cell_y_step(s.geometry, &data);
                 layers.push(PlannedLayer {
                     index: i,
                     geometry: s.geometry,
@@ -184,6 +187,7 @@ pub fn build_with_shapes(spec: &Spec, table: &Table, shapes: Option<Vec<crate::g
                     style: l.style.clone(),
                     data,
                     x_step,
+                    y_step,
                     turned,
                     label_ends: l.label_ends,
                 })

@@ -139,6 +139,7 @@ fn cut(plan: &Plan, channels: &[(Channel, &IndexSet<String>)], independent: (boo
                 style: l.style.clone(),
                 data: take_rows(&l.data, rows),
                 x_step: l.x_step,
+                y_step: l.y_step,
                 turned: l.turned,
                 label_ends: l.label_ends,
             });

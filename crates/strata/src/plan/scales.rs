@@ -531,7 +531,11 @@ fn train_position_bare(channels: &[Channel], axis: &str, s: &ScaleSpec, layers: 
                     if let Values::Num(v) | Values::Time(v) = vals {
                         if let Some((a, b)) = v.extent() {
                             // Bars on a continuous x: room for the whole first and last bar.
-                            let pad = if ch == Channel::X { l.x_step.map_or(0.0, |s| s / 2.0) } else { 0.0 };
+                            let pad = match ch {
+                                Channel::X => l.x_step.map_or(0.0, |s| s / 2.0),
+                                Channel::Y => l.y_step.map_or(0.0, |s| s / 2.0),
+                                _ => 0.0,
+                            };
                             lo = lo.min(a - pad);
                             hi = hi.max(b + pad);
                         }
@@ -624,7 +628,8 @@ fn train_position_bare(channels: &[Channel], axis: &str, s: &ScaleSpec, layers: 
     // 1958-2001 is not drawn on 1950-2010.
     // Bars on a continuous x already end half a step past the data: their
     // axis is not rounded out further unless asked.
-    let bars = channels.contains(&Channel::X) && layers.iter().any(|l| l.x_step.is_some());
+    let bars = (channels.contains(&Channel::X) && layers.iter().any(|l| l.x_step.is_some()))
+        || (channels.contains(&Channel::Y) && layers.iter().any(|l| l.y_step.is_some()));
     let nice = s.nice.unwrap_or(!time && !bars);
     if s.reverse {
         std::mem::swap(&mut lo, &mut hi);
@@ -722,7 +727,7 @@ mod tests {
         let mut data = LayerData { len: xs.len(), ..Default::default() };
         data.channels.insert(Channel::X, Values::Num(xs.into()));
         data.channels.insert(Channel::Y, Values::Num(ys.into()));
-        PlannedLayer { index: 0, geometry, arrange: Arrange::None, style: Style::default(), data, x_step: None, turned: false, label_ends: false }
+        PlannedLayer { index: 0, geometry, arrange: Arrange::None, style: Style::default(), data, x_step: None, y_step: None, turned: false, label_ends: false }
     }
 
     fn spec(scales: &str) -> Spec {

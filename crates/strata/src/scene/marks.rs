@@ -701,13 +701,22 @@ fn cells(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     let mut out = Vec::with_capacity(d.len);
     for i in 0..d.len {
         let (Some(ux0), Some(uy0)) = (ctx.scales.x.unit(xv, i), ctx.scales.y.unit(yv, i)) else { continue };
+        // On a continuous axis a cell spans the data's resolution there
+        // (years down a heat map), in data units.
+        let span = |scale: &crate::scale::PositionScale, v: &Values, step: Option<f64>| {
+            let (c, s) = (v.num(i)?, step?);
+            let (a, b) = (scale.unit_num(c - s / 2.0)?, scale.unit_num(c + s / 2.0)?);
+            Some((a.min(b), a.max(b)))
+        };
         let (x0, x1) = match d.get(Channel::XEnd).and_then(|v| ctx.scales.x.unit(v, i)) {
             Some(e) => (ux0, e),
-            None => (ux0 - xb / 2.0, ux0 + xb / 2.0),
+            None if xb > 0.0 => (ux0 - xb / 2.0, ux0 + xb / 2.0),
+            None => span(&ctx.scales.x, xv, layer.x_step).unwrap_or((ux0, ux0)),
         };
         let (y0, y1) = match d.get(Channel::YEnd).and_then(|v| ctx.scales.y.unit(v, i)) {
             Some(e) => (uy0, e),
-            None => (uy0 - yb / 2.0, uy0 + yb / 2.0),
+            None if yb > 0.0 => (uy0 - yb / 2.0, uy0 + yb / 2.0),
+            None => span(&ctx.scales.y, yv, layer.y_step).unwrap_or((uy0, uy0)),
         };
         let mut paint = Paint::fill(&color_of(ctx, layer, i));
         // Without a colour channel, shade by count: darker is more.
