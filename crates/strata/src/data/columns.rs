@@ -80,7 +80,7 @@ impl Default for CellRules {
 }
 
 #[inline]
-fn trim(b: &[u8]) -> &[u8] {
+pub(crate) fn trim(b: &[u8]) -> &[u8] {
     let mut s = 0;
     let mut e = b.len();
     while s < e && (b[s] == b' ' || b[s] == b'\t') {
@@ -334,7 +334,7 @@ pub struct CellError {
 
 const EXPECT_NUMBER: &str = "a number";
 pub(crate) const EXPECT_BOOL: &str = "true or false";
-pub(crate) const EXPECT_DATE: &str = "a date (yyyy-MM-dd) or an ISO 8601 date-time";
+pub(crate) const EXPECT_DATE: &str = "a date (yyyy-MM-dd, or yyyyMMdd when declared) or an ISO 8601 date-time";
 
 fn cell_error(col: &TextColumn, row: usize, expected: &'static str) -> CellError {
     CellError { row, value: String::from_utf8_lossy(col.cell(row)).into_owned(), expected, invalid_utf8: None }
@@ -377,10 +377,15 @@ pub fn build_noting(col: TextColumn, forced: Option<ColumnType>, rules: &CellRul
             Ok((v, n, _)) => Ok(Column::Bool(v.into_iter().enumerate().map(|(i, b)| n.as_ref().is_none_or(|m| m[i]).then_some(b)).collect())),
             Err(row) => fallback(col, row, EXPECT_BOOL),
         }),
-        Kind::Date => plain(match scan(&col, rules, false, parse_date) {
-            Ok((v, n, _)) => Ok(Column::Date(with_nan(v.into_iter().map(|d| d as f64).collect(), n))),
-            Err(_) => datetime(col, rules, strict),
-        }),
+        // Declared a date: ISO 8601's basic form (19580329) reads too.
+        Kind::Date => plain(
+            match scan(&col, rules, false, |c| {
+                parse_date(c).or_else(|| if strict { crate::calendar::parse_basic_date_bytes(trim(c)).and_then(|d| i32::try_from(d).ok()) } else { None })
+            }) {
+                Ok((v, n, _)) => Ok(Column::Date(with_nan(v.into_iter().map(|d| d as f64).collect(), n))),
+                Err(_) => datetime(col, rules, strict),
+            },
+        ),
         Kind::DateTime => plain(datetime(col, rules, strict)),
         Kind::Text => plain(text(col, rules)),
     }
