@@ -160,8 +160,16 @@ pub fn turn(d: &mut LayerData) {
             d.names.insert(b, n);
         }
     }
-    d.channels.sort_keys();
-    d.names.sort_keys();
+    sort_keys(&mut d.channels);
+    sort_keys(&mut d.names);
+}
+
+/// `IndexMap::sort_keys` through the engine's one sort (`crate::sort`);
+/// keys are distinct, so the order is the same.
+fn sort_keys<V>(m: &mut indexmap::IndexMap<Channel, V>) {
+    let keys: Vec<Channel> = m.keys().copied().collect();
+    let idx = crate::sort::order(keys.len(), &mut |a, b| keys[a].cmp(&keys[b]));
+    crate::sort::permute(idx, &mut |i, j| m.swap_indices(i, j));
 }
 
 /// The spec as a turned chart sees it: the x and y scales, the notes'
@@ -215,7 +223,7 @@ pub fn gather_top(data: &mut [Option<LayerData>], ch: Channel, n: usize) {
         return;
     }
     let mut ranked: Vec<(usize, &String, f64)> = totals.iter().enumerate().map(|(i, (k, v))| (i, k, *v)).collect();
-    ranked.sort_by(|a, b| b.2.total_cmp(&a.2).then(a.0.cmp(&b.0)));
+    crate::sort::by(&mut ranked, |a, b| b.2.total_cmp(&a.2).then(a.0.cmp(&b.0)));
     let keep: std::collections::HashSet<String> = ranked.iter().take(n).map(|r| r.1.clone()).collect();
     for d in data.iter_mut().flatten() {
         if let Some(Values::Text(cats)) = d.channels.get_mut(&ch) {

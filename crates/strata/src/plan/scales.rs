@@ -657,8 +657,8 @@ fn order_categories(cats: &mut Vec<String>, s: &ScaleSpec, channels: &[Channel],
         }
         let at = |c: &String| drawn.get(c).copied().unwrap_or(f64::NEG_INFINITY);
         match order {
-            CategoryOrder::Ascending => cats.sort_by(|a, b| at(a).total_cmp(&at(b))),
-            CategoryOrder::Descending => cats.sort_by(|a, b| at(b).total_cmp(&at(a))),
+            CategoryOrder::Ascending => crate::sort::by(cats, |a, b| at(a).total_cmp(&at(b))),
+            CategoryOrder::Descending => crate::sort::by(cats, |a, b| at(b).total_cmp(&at(a))),
         }
     }
     if s.top.is_some() {
