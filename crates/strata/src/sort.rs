@@ -66,11 +66,11 @@ mod tests {
                 })
                 .collect();
             let mut want = v.clone();
-            want.sort_by(|a, b| a.0.cmp(&b.0));
+            want.sort_by_key(|a| a.0);
             by(&mut v, |a, b| a.0.cmp(&b.0));
             assert_eq!(v, want, "n = {n}");
             let mut down = want.clone();
-            down.sort_by(|a, b| b.0.cmp(&a.0));
+            down.sort_by_key(|b| std::cmp::Reverse(b.0));
             by(&mut v, |a, b| b.0.cmp(&a.0));
             assert_eq!(v, down, "n = {n}, descending");
         }
