@@ -330,7 +330,7 @@ fn series_units(ctx: &Ctx, layer: &PlannedLayer, rows: &RowSet, ych: Channel) ->
         true
     });
     if !pts.windows(2).all(|w| w[0].0 <= w[1].0) {
-        crate::sort::by(&mut pts, |a, b| a.0.total_cmp(&b.0));
+        crate::sort::by_x(&mut pts);
     }
     let n = pts.len();
     match m4_keep(ctx, &pts) {
@@ -479,7 +479,7 @@ fn band_path(ctx: &Ctx, layer: &PlannedLayer, rows: &[usize], lo: Channel, hi: C
         return None;
     }
     if !pts.windows(2).all(|w| w[0].0 <= w[1].0) {
-        crate::sort::by(&mut pts, |a, b| a.0.total_cmp(&b.0));
+        crate::sort::by_f64_key(&mut pts, |p| p.0);
     }
     let tops: Vec<(f64, f64)> = pts.iter().map(|p| (p.0, p.1)).collect();
     let bottoms: Vec<(f64, f64)> = pts.iter().map(|p| (p.0, p.2)).collect();
