@@ -36,6 +36,7 @@ pub mod math;
 pub mod plan;
 pub mod scale;
 pub mod scene;
+pub mod sort;
 pub mod spec;
 pub mod stat;
 pub mod svg;

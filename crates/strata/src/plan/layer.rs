@@ -145,8 +145,9 @@ const TURNED: [(Channel, Channel); 2] = [(Channel::X, Channel::Y), (Channel::XEn
 /// Swap a layer's x and y channels (and their ends) for a turned chart.
 pub fn turn(d: &mut LayerData) {
     for (a, b) in TURNED {
-        let (va, vb) = (d.channels.shift_remove(&a), d.channels.shift_remove(&b));
-        let (na, nb) = (d.names.shift_remove(&a), d.names.shift_remove(&b));
+        // `swap_remove` (smaller than `shift_remove`): the keys are sorted below.
+        let (va, vb) = (d.channels.swap_remove(&a), d.channels.swap_remove(&b));
+        let (na, nb) = (d.names.swap_remove(&a), d.names.swap_remove(&b));
         if let Some(v) = vb {
             d.channels.insert(a, v);
         }
@@ -160,8 +161,16 @@ pub fn turn(d: &mut LayerData) {
             d.names.insert(b, n);
         }
     }
-    d.channels.sort_keys();
-    d.names.sort_keys();
+    sort_keys(&mut d.channels);
+    sort_keys(&mut d.names);
+}
+
+/// `IndexMap::sort_keys` through the engine's one sort (`crate::sort`);
+/// keys are distinct, so the order is the same.
+fn sort_keys<V>(m: &mut indexmap::IndexMap<Channel, V>) {
+    let keys: Vec<Channel> = m.keys().copied().collect();
+    let idx = crate::sort::order(keys.len(), &mut |a, b| keys[a].cmp(&keys[b]));
+    crate::sort::permute(idx, &mut |i, j| m.swap_indices(i, j));
 }
 
 /// The spec as a turned chart sees it: the x and y scales, the notes'
@@ -197,7 +206,10 @@ pub const OTHER: &str = "Other";
 /// and relabel the rest "Other", before the statistics, so that a count or
 /// a summary of "Other" covers all of their rows. Ties keep the data's order.
 pub fn gather_top(data: &mut [Option<LayerData>], ch: Channel, n: usize) {
-    let mut totals: indexmap::IndexMap<String, f64> = indexmap::IndexMap::new();
+    // Totals in order of first appearance; `index` finds a category's
+    // (a `HashMap<String, usize>` like the scales' own: no map type of its own).
+    let mut index: std::collections::HashMap<String, usize> = std::collections::HashMap::new();
+    let mut totals: Vec<f64> = Vec::new();
     for d in data.iter().flatten() {
         let Some(Values::Text(cats)) = d.get(ch) else { continue };
         let value_ch = if ch == Channel::X { Channel::Y } else { Channel::X };
@@ -208,19 +220,29 @@ pub fn gather_top(data: &mut [Option<LayerData>], ch: Channel, n: usize) {
                 Some(v) => v.num(i).unwrap_or(0.0),
                 None => 1.0,
             };
-            *totals.entry(c.clone()).or_insert(0.0) += add;
+            let at = match index.get(c.as_str()) {
+                Some(&j) => j,
+                None => {
+                    index.insert(c.clone(), totals.len());
+                    totals.push(0.0);
+                    totals.len() - 1
+                }
+            };
+            totals[at] += add;
         }
     }
     if totals.len() <= n {
         return;
     }
-    let mut ranked: Vec<(usize, &String, f64)> = totals.iter().enumerate().map(|(i, (k, v))| (i, k, *v)).collect();
-    ranked.sort_by(|a, b| b.2.total_cmp(&a.2).then(a.0.cmp(&b.0)));
-    let keep: std::collections::HashSet<String> = ranked.iter().take(n).map(|r| r.1.clone()).collect();
+    let ranked = crate::sort::order(totals.len(), &mut |a, b| totals[b].total_cmp(&totals[a]).then(a.cmp(&b)));
+    let mut keep = vec![false; totals.len()];
+    for &i in ranked.iter().take(n) {
+        keep[i] = true;
+    }
     for d in data.iter_mut().flatten() {
         if let Some(Values::Text(cats)) = d.channels.get_mut(&ch) {
             for c in cats.iter_mut().flatten() {
-                if !keep.contains(c.as_str()) {
+                if !index.get(c.as_str()).is_some_and(|&j| keep[j]) {
                     *c = OTHER.to_string();
                 }
             }

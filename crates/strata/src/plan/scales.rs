@@ -391,10 +391,10 @@ pub fn chosen_color_warnings(scales: &Scales) -> Vec<Diagnostic> {
                 .with_hint("map `color` to a column of categories (text), or use `palette` for numbers")]
         }
     };
-    let known: HashSet<&str> = cats.iter().map(String::as_str).collect();
+    // `color_index` holds exactly these categories (one hash map type fewer in the page).
     let mut out = Vec::new();
     for k in values.keys() {
-        if k == OTHER_KEY || known.contains(k.as_str()) {
+        if k == OTHER_KEY || scales.color_index.contains_key(k.as_str()) {
             continue;
         }
         let d = Diagnostic::warning("spec.unknown_category", format!("`{k}` is not a category of the colour column, so its colour is not used"))
@@ -649,21 +649,27 @@ fn order_categories(cats: &mut Vec<String>, s: &ScaleSpec, channels: &[Channel],
         for l in layers {
             let (Some(Values::Text(keys)), Some(v)) = (l.data.get(channels[0]), l.data.get(Channel::Total).or(l.data.get(value_ch))) else { continue };
             let stacked = l.data.get(Channel::Total).is_some();
-            let mut mine: HashMap<&str, f64> = HashMap::new();
+            // Keyed like `drawn` (one hash map type fewer in the page).
+            let mut mine: HashMap<String, f64> = HashMap::new();
             for (i, k) in keys.iter().enumerate() {
                 let (Some(k), Some(x)) = (k, v.num(i)) else { continue };
-                let e = mine.entry(k.as_str()).or_insert(0.0);
-                *e = if stacked { x } else { *e + x };
+                match mine.get_mut(k.as_str()) {
+                    Some(e) => *e = if stacked { x } else { *e + x },
+                    None => {
+                        // 0.0 + x as before: a -0.0 sums to +0.0.
+                        mine.insert(k.clone(), if stacked { x } else { 0.0 + x });
+                    }
+                }
             }
             for (k, x) in mine {
-                let e = drawn.entry(k.to_string()).or_insert(f64::NEG_INFINITY);
+                let e = drawn.entry(k).or_insert(f64::NEG_INFINITY);
                 *e = e.max(x);
             }
         }
         let at = |c: &String| drawn.get(c).copied().unwrap_or(f64::NEG_INFINITY);
         match order {
-            CategoryOrder::Ascending => cats.sort_by(|a, b| at(a).total_cmp(&at(b))),
-            CategoryOrder::Descending => cats.sort_by(|a, b| at(b).total_cmp(&at(a))),
+            CategoryOrder::Ascending => crate::sort::by(cats, |a, b| at(a).total_cmp(&at(b))),
+            CategoryOrder::Descending => crate::sort::by(cats, |a, b| at(b).total_cmp(&at(a))),
         }
     }
     if s.top.is_some() {

@@ -553,7 +553,7 @@ fn fitted(index: usize, layer: &Layer, o: &StatObject, kind: FitWord, data: Laye
     let mut out = Out::new();
     for rows in groups.values() {
         let mut pts: Vec<(f64, f64)> = rows.iter().filter_map(|i| Some((x.num(*i)?, y.num(*i)?))).collect();
-        pts.sort_by(|a, b| a.0.total_cmp(&b.0));
+        crate::sort::by_x(&mut pts);
         let (xs, ys): (Vec<f64>, Vec<f64>) = pts.into_iter().unzip();
         if xs.len() < 2 || xs[0] == xs[xs.len() - 1] {
             continue;
@@ -713,7 +713,7 @@ fn windowed(index: usize, w: &crate::spec::WindowSpec, data: LayerData) -> Resul
         let mut rows = rows.clone();
         if let Some(x) = data.get(Channel::X) {
             if !x.is_discrete() {
-                rows.sort_by(|a, b| x.num(*a).unwrap_or(f64::INFINITY).total_cmp(&x.num(*b).unwrap_or(f64::INFINITY)));
+                crate::sort::by_f64_key(&mut rows, |&r| x.num(r).unwrap_or(f64::INFINITY));
             }
         }
         let ys: Vec<Option<f64>> = rows.iter().map(|i| y.num(*i)).collect();

@@ -286,7 +286,7 @@ pub fn unique_prefixes(labels: &[String], max_w: f64, ts: f64) -> Option<Vec<Str
     // Sorted, a label's nearest rivals are its neighbours: the telling
     // prefix is one character longer than the longest prefix shared with either.
     let mut order: Vec<usize> = (0..labels.len()).collect();
-    order.sort_by(|a, b| labels[*a].cmp(&labels[*b]));
+    crate::sort::by(&mut order, |a, b| labels[*a].cmp(&labels[*b]));
     let common = |a: &str, b: &str| a.chars().zip(b.chars()).take_while(|(x, y)| x == y).count();
     let mut need = vec![0usize; labels.len()];
     for (k, &i) in order.iter().enumerate() {
@@ -347,7 +347,7 @@ pub fn shorten_all(labels: &[String], max_w: f64, ts: f64) -> Vec<String> {
     let simple: Vec<String> = labels.iter().map(|l| fit(l)).collect();
     let distinct = |v: &[String]| {
         let mut s: Vec<&String> = v.iter().collect();
-        s.sort();
+        crate::sort::by(&mut s, |a, b| a.cmp(b));
         s.windows(2).all(|w| w[0] != w[1])
     };
     if distinct(&simple) || labels.len() < 2 {

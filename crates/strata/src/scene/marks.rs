@@ -50,7 +50,7 @@ pub(super) fn datum(layer: &PlannedLayer, i: usize) -> Datum {
             Channel::YEnd => Channel::XEnd,
             other => other,
         };
-        chans.sort_by_key(|(k, _)| spec_channel(k));
+        crate::sort::by(&mut chans, |a, b| spec_channel(a.0).cmp(&spec_channel(b.0)));
     }
     let mut d: Datum = chans.into_iter().map(|(k, v)| (channel_name(layer, *k).to_string(), v.json(i))).collect();
     // `tooltip` columns ride along under one key; the SVG writer turns them into
@@ -330,7 +330,7 @@ fn series_units(ctx: &Ctx, layer: &PlannedLayer, rows: &RowSet, ych: Channel) ->
         true
     });
     if !pts.windows(2).all(|w| w[0].0 <= w[1].0) {
-        pts.sort_by(|a, b| a.0.total_cmp(&b.0));
+        crate::sort::by_x(&mut pts);
     }
     let n = pts.len();
     match m4_keep(ctx, &pts) {
@@ -350,7 +350,7 @@ fn m4_stream(points: impl Iterator<Item = (f64, f64)>, origin: f64, extent: f64)
     let mut cur: [(usize, (f64, f64)); 4] = [(0, (0.0, 0.0)); 4];
     let flush = |cur: &[(usize, (f64, f64)); 4], out: &mut Vec<(f64, f64)>| {
         let mut four = *cur;
-        four.sort_by_key(|c| c.0);
+        crate::sort::by(&mut four, |a, b| a.0.cmp(&b.0));
         let mut last_seq = usize::MAX;
         for (seq, p) in four {
             if seq != last_seq {
@@ -479,7 +479,7 @@ fn band_path(ctx: &Ctx, layer: &PlannedLayer, rows: &[usize], lo: Channel, hi: C
         return None;
     }
     if !pts.windows(2).all(|w| w[0].0 <= w[1].0) {
-        pts.sort_by(|a, b| a.0.total_cmp(&b.0));
+        crate::sort::by_f64_key(&mut pts, |p| p.0);
     }
     let tops: Vec<(f64, f64)> = pts.iter().map(|p| (p.0, p.1)).collect();
     let bottoms: Vec<(f64, f64)> = pts.iter().map(|p| (p.0, p.2)).collect();

@@ -265,7 +265,7 @@ pub fn draw(notes: &[Note], scales: &Scales, coord: &Coord, pal: &Palette, size:
             if let (true, true, Some((px, py))) = (n.pointer, k > 0, point) {
                 // A leader from the text's nearest edge to 3 px short of the dot.
                 let (qx, qy) = (px.clamp(b.0, b.2), py.clamp(b.1, b.3));
-                let len = (qx - px).hypot(qy - py);
+                let len = crate::math::hypot(qx - px, qy - py);
                 if len > 4.0 {
                     let t = 3.0 / len;
                     let mut paint = Paint::stroke(&pal.muted, 1.0);
@@ -342,7 +342,7 @@ mod tests {
         // The spoke is straight: all its points on one line through its ends.
         let straight = paths.iter().any(|p| {
             let (a, b) = (p[0], p[p.len() - 1]);
-            p.len() > 2 && p.iter().all(|q| ((b.0 - a.0) * (q.1 - a.1) - (b.1 - a.1) * (q.0 - a.0)).abs() < 0.5 * (b.0 - a.0).hypot(b.1 - a.1))
+            p.len() > 2 && p.iter().all(|q| ((b.0 - a.0) * (q.1 - a.1) - (b.1 - a.1) * (q.0 - a.0)).abs() < 0.5 * crate::math::hypot(b.0 - a.0, b.1 - a.1))
         });
         assert!(straight, "one path is a straight spoke");
     }

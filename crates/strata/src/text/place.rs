@@ -22,7 +22,7 @@ pub fn spread(want: &[f64], gap: f64, lo: f64, hi: f64) -> Vec<f64> {
         return vec![];
     }
     let mut order: Vec<usize> = (0..n).filter(|i| want[*i].is_finite()).collect();
-    order.sort_by(|a, b| want[*a].total_cmp(&want[*b]).then(a.cmp(b)));
+    crate::sort::by(&mut order, |a, b| want[*a].total_cmp(&want[*b]).then(a.cmp(b)));
     // Blocks of pooled values: (sum, count).
     let mut blocks: Vec<(f64, usize)> = Vec::with_capacity(order.len());
     for (k, &i) in order.iter().enumerate() {
