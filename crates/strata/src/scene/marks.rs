@@ -1212,7 +1212,7 @@ mod tests {
         let light = crate::color::Palette::light();
         // On the theme's mark colours and on a mid orange, 4.5:1 or more
         // (WCAG 2.1 contrast ratio, criterion 1.4.3).
-        for behind in ["#007e89", "#f28e2b", "#ffffff", "#1d232b", "#777777", "#7f7f7f"] {
+        for behind in ["#007e89", "#e38b3a", "#ffffff", "#1d232b", "#777777", "#7f7f7f"] {
             let c = contrasting_text(behind, &light);
             assert!(crate::color::contrast(&c, behind).unwrap() >= 4.5, "{c} on {behind}");
         }
