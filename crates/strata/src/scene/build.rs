@@ -756,7 +756,8 @@ fn plot_draw(inp: &PlotInputs, plan: &Plan, lay: &PlotLayout, frame: Frame, draw
     let mut layers = Vec::new();
     for l in &plan.layers {
         let marks = layer_marks(&ctx, l);
-        let n = marks.len();
+        // A label layer's leader lines are not labels.
+        let n = if l.geometry == crate::plan::Geometry::Label { marks.iter().filter(|m| !matches!(m, Node::Line { .. })).count() } else { marks.len() };
         layers.push(Node::Group {
             class: format!("strata-layer strata-{}", l.geometry.word()),
             role: Some("graphics-object".into()),
