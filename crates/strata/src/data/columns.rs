@@ -80,7 +80,7 @@ impl Default for CellRules {
 }
 
 #[inline]
-pub(crate) fn trim(b: &[u8]) -> &[u8] {
+fn trim(b: &[u8]) -> &[u8] {
     let mut s = 0;
     let mut e = b.len();
     while s < e && (b[s] == b' ' || b[s] == b'\t') {
@@ -233,6 +233,11 @@ pub(crate) fn parse_date(b: &[u8]) -> Option<i32> {
     parse_date_bytes(trim(b)).and_then(|d| i32::try_from(d).ok())
 }
 
+/// ISO 8601's basic date (`19580329`), read only in a column declared `date`.
+pub(crate) fn parse_basic_date(b: &[u8]) -> Option<i32> {
+    crate::calendar::parse_basic_date_bytes(trim(b)).and_then(|d| i32::try_from(d).ok())
+}
+
 pub(crate) fn parse_datetime(b: &[u8]) -> Option<i64> {
     let b = trim(b);
     parse_datetime_bytes(b).or_else(|| parse_date_bytes(b).map(|d| d * 86_400_000))
@@ -378,14 +383,10 @@ pub fn build_noting(col: TextColumn, forced: Option<ColumnType>, rules: &CellRul
             Err(row) => fallback(col, row, EXPECT_BOOL),
         }),
         // Declared a date: ISO 8601's basic form (19580329) reads too.
-        Kind::Date => plain(
-            match scan(&col, rules, false, |c| {
-                parse_date(c).or_else(|| if strict { crate::calendar::parse_basic_date_bytes(trim(c)).and_then(|d| i32::try_from(d).ok()) } else { None })
-            }) {
-                Ok((v, n, _)) => Ok(Column::Date(with_nan(v.into_iter().map(|d| d as f64).collect(), n))),
-                Err(_) => datetime(col, rules, strict),
-            },
-        ),
+        Kind::Date => plain(match scan(&col, rules, false, |c| parse_date(c).or_else(|| if strict { parse_basic_date(c) } else { None })) {
+            Ok((v, n, _)) => Ok(Column::Date(with_nan(v.into_iter().map(|d| d as f64).collect(), n))),
+            Err(_) => datetime(col, rules, strict),
+        }),
         Kind::DateTime => plain(datetime(col, rules, strict)),
         Kind::Text => plain(text(col, rules)),
     }

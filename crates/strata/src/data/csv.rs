@@ -367,9 +367,7 @@ fn tokenize(bytes: &[u8], delimiter: u8, max_rows: usize, names: &[String], forc
                     } else if let Some(v) = parse_date(cell) {
                         vals.push(v);
                         push_valid(nulls);
-                    } else if let Some(v) =
-                        forced[k].and(crate::calendar::parse_basic_date_bytes(super::columns::trim(cell))).and_then(|d| i32::try_from(d).ok())
-                    {
+                    } else if let Some(v) = forced[k].and(super::columns::parse_basic_date(cell)) {
                         // Declared a date: ISO 8601's basic form too (19580329).
                         vals.push(v);
                         push_valid(nulls);

@@ -27,10 +27,7 @@ pub fn bar_step(geometry: Geometry, data: &LayerData) -> Option<f64> {
     if !matches!(geometry, Geometry::Bar | Geometry::Cell) || data.get(Channel::XEnd).is_some() {
         return None;
     }
-    match data.get(Channel::X)? {
-        Values::Num(v) | Values::Time(v) => Some(resolution(v)),
-        Values::Text(_) => None,
-    }
+    step_along(data, Channel::X)
 }
 
 /// Cells on a continuous y (years down the side of a heat map): the
@@ -40,7 +37,12 @@ pub fn cell_y_step(geometry: Geometry, data: &LayerData) -> Option<f64> {
     if geometry != Geometry::Cell || data.get(Channel::YEnd).is_some() {
         return None;
     }
-    match data.get(Channel::Y)? {
+    step_along(data, Channel::Y)
+}
+
+/// The data's resolution along a continuous channel; `None` for text.
+fn step_along(data: &LayerData, ch: Channel) -> Option<f64> {
+    match data.get(ch)? {
         Values::Num(v) | Values::Time(v) => Some(resolution(v)),
         Values::Text(_) => None,
     }

@@ -752,6 +752,21 @@ pub(super) type Box4 = (f64, f64, f64, f64);
 
 /// The glyph box of a text at baseline `y`: from the cap height above the
 /// baseline to a descender's depth below it, 1 px around.
+/// A thin leader from a moved text's box (its nearest edge) to 3 px short
+/// of the point it names; none when the text is already by the point.
+pub(super) fn leader(point: (f64, f64), b: Box4, pal: &crate::color::Palette) -> Option<Node> {
+    let (px, py) = point;
+    let (qx, qy) = (px.clamp(b.0, b.2), py.clamp(b.1, b.3));
+    let len = crate::math::hypot(qx - px, qy - py);
+    if len <= 4.0 {
+        return None;
+    }
+    let t = 3.0 / len;
+    let mut paint = Paint::stroke(&pal.muted, 1.0);
+    paint.opacity = Some(0.9);
+    Some(Node::Line { x1: qx, y1: qy, x2: px + (qx - px) * t, y2: py + (qy - py) * t, paint })
+}
+
 pub(super) fn text_box(x: f64, y: f64, w: f64, size: f64, anchor: Anchor) -> Box4 {
     let left = match anchor {
         Anchor::Start => x,
@@ -1164,18 +1179,10 @@ fn labels(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         let bx = text_box(x, y, w, size, anchor);
         grid.add_box(bx);
         // On the far ring (the third eight places, 24 px out) a label could
-        // be read as its neighbour's: a thin leader joins it to its point,
-        // from the text's nearest edge to 3 px short of the dot, as notes do
-        // (seen on 51 labelled states in a user trial).
-        if let Some((px, py)) = around.filter(|_| k >= FAR_RING) {
-            let (qx, qy) = (px.clamp(bx.0, bx.2), py.clamp(bx.1, bx.3));
-            let len = crate::math::hypot(qx - px, qy - py);
-            if len > 4.0 {
-                let t = 3.0 / len;
-                let mut paint = Paint::stroke(&pal.muted, 1.0);
-                paint.opacity = Some(0.9);
-                out.push(Node::Line { x1: qx, y1: qy, x2: px + (qx - px) * t, y2: py + (qy - py) * t, paint });
-            }
+        // be read as its neighbour's: a leader joins it to its point, as
+        // moved notes have (seen on 51 labelled states in a user trial).
+        if let Some(p) = around.filter(|_| k >= FAR_RING) {
+            out.extend(leader(p, bx, pal));
         }
         // A label on the background in the theme's text colour follows the
         // theme (dark mode restyles it); inside a mark it keeps its contrast.

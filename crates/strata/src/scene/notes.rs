@@ -2,7 +2,7 @@
 //! text, placed so that their texts do not overlap one another.
 
 use super::coord::{Area, Coord};
-use super::marks::{box_within, text_box, Grid};
+use super::marks::{box_within, leader, text_box, Grid};
 use super::{polyline, Anchor, Node, Paint};
 use crate::calendar::{parse_date, parse_datetime};
 use crate::color::Palette;
@@ -262,16 +262,8 @@ pub fn draw(notes: &[Note], scales: &Scales, coord: &Coord, pal: &Palette, size:
             let (k, (x, y, anchor)) = chosen.unwrap_or((0, (x, y, anchor)));
             let b = text_box(x, y, w, size, anchor);
             taken.add_box(b);
-            if let (true, true, Some((px, py))) = (n.pointer, k > 0, point) {
-                // A leader from the text's nearest edge to 3 px short of the dot.
-                let (qx, qy) = (px.clamp(b.0, b.2), py.clamp(b.1, b.3));
-                let len = crate::math::hypot(qx - px, qy - py);
-                if len > 4.0 {
-                    let t = 3.0 / len;
-                    let mut paint = Paint::stroke(&pal.muted, 1.0);
-                    paint.opacity = Some(0.9);
-                    lines.push(Node::Line { x1: qx, y1: qy, x2: px + (qx - px) * t, y2: py + (qy - py) * t, paint });
-                }
+            if let (true, true, Some(p)) = (n.pointer, k > 0, point) {
+                lines.extend(leader(p, b, pal));
             }
             texts.push(label(x, y, words, anchor));
         }

@@ -171,15 +171,21 @@ fn fit_all(xs: &[f64], ys: &[f64], robust: &[f64], k: usize, opts: &LoessOptions
         if end == n - 1 {
             break;
         }
-        // Next: the furthest point within delta of this one, at least one on.
-        let mut j = end + 1;
-        if opts.delta > 0.0 {
-            while j + 1 < n && xs[j + 1] <= xs[i] + opts.delta {
-                j += 1;
-            }
-        }
-        i = j;
+        i = next_fit(xs, i, end, opts.delta);
     }
+}
+
+/// The next point LOWESS fits after point `i` (its ties end at `end`): the
+/// furthest within `delta` of it, at least one on; the points between are
+/// interpolated.
+fn next_fit(xs: &[f64], i: usize, end: usize, delta: f64) -> usize {
+    let mut j = end + 1;
+    if delta > 0.0 {
+        while j + 1 < xs.len() && xs[j + 1] <= xs[i] + delta {
+            j += 1;
+        }
+    }
+    j
 }
 
 /// Weighted local polynomial at x0 over xs[a..b]; `None` when fewer than two
@@ -358,13 +364,7 @@ pub fn loess_band(xs: &[f64], ys: &[f64], robust: &[f64], opts: &LoessOptions, a
         if end == n - 1 {
             break;
         }
-        let mut j = end + 1;
-        if opts.delta > 0.0 {
-            while j + 1 < n && xs[j + 1] <= xs[i] + opts.delta {
-                j += 1;
-            }
-        }
-        i = j;
+        i = next_fit(xs, i, end, opts.delta);
     }
     let rss: f64 = (0..n).map(|j| (ys[j] - fitted[j]) * (ys[j] - fitted[j]) * robust[j]).sum();
     // δ₁ = Σ_i ‖e_i - l_i‖² = Σ_i (1 - 2 L_ii + ‖l_i‖²).
