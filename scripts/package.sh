@@ -8,7 +8,7 @@
 set -euo pipefail
 cd "$(dirname "$0")/.."
 out="${1:-target/package}"
-if [ ! -f www/pkg/strata_wasm.js ] || [ ! -f www/pkg/strata_wasm_maps.js ] || [ ! -f www/pkg/strata_wasm_arrow.js ]; then
+if [ ! -f www/pkg/strata_wasm.js ] || [ ! -f www/pkg/strata_wasm_full.js ] || [ ! -f www/pkg/strata_wasm_arrow.js ]; then
   echo "package.sh: www/pkg is missing; run scripts/build-wasm.sh first" >&2
   exit 1
 fi

@@ -8,8 +8,8 @@
 // columns and their inferred types, for the starter spec); for Arrow files the
 // add-on's `decode` and the core's `render_columns` / `columns_of_interchange`.
 
-// The maps engine (the core with maps): the playground's examples include maps.
-import initCore, * as core from './pkg/strata_wasm_maps.js';
+// The full engine (the core with maps, expressions, fitted statistics...): the playground's examples include them.
+import initCore, * as core from './pkg/strata_wasm_full.js';
 
 const $ = (id) => document.getElementById(id);
 const ui = {

@@ -19,17 +19,22 @@ const ENGINE_URLS = {
   // The Arrow add-on: decodes Arrow IPC into columns the core engine reads
   // (render_columns). Loaded only for Arrow data.
   arrow: new URL('./pkg/strata_wasm_arrow.js', import.meta.url),
-  // The core engine with maps, loaded instead of the core for specs with
-  // `shapes` or `coords.kind: map` (the core refuses those).
-  maps: new URL('./pkg/strata_wasm_maps.js', import.meta.url),
+  // The full engine (the core + maps, expressions, unpivot, fitted
+  // statistics and box plots), loaded instead of the core
+  // for specs that need it (the core refuses those).
+  full: new URL('./pkg/strata_wasm_full.js', import.meta.url),
 };
 
-/** The engine a chart needs: the maps engine for a map (shapes or map coordinates), else the core. */
-function kindOf(el, spec) {
-  if (spec && typeof spec === 'object') return spec.shapes || (spec.coords && spec.coords.kind === 'map') ? 'maps' : 'core';
-  if (el.hasAttribute('shapes-src')) return 'maps';
-  const s = el.querySelector(':scope > script[type="application/json"]');
-  return s && /"shapes"\s*:|"kind"\s*:\s*"map"/.test(s.textContent || '') ? 'maps' : 'core';
+// A spec that needs the full engine, by its words (spec::needs_full in
+// crates/strata/src/spec/full.rs; tests/full_engine.rs keeps the two in
+// step). A word this misses costs a second drawing, never a wrong chart.
+const FULL_WORDS = /"(shapes|derive|where|unpivot|fit|window|interval)"\s*:|"density"\s*:\s*\{|:\s*"(map|region|box)"/;
+/** Charts the core engine turned away: they draw with the full engine. */
+const needsFull = new WeakSet();
+
+/** The engine a chart needs, from its spec's text (default: the inline spec): 'full' or 'core'. */
+function kindOf(el, text = el.querySelector(':scope > script[type="application/json"]')?.textContent) {
+  return needsFull.has(el) || el.hasAttribute('shapes-src') || FULL_WORDS.test(text || '') ? 'full' : 'core';
 }
 const SVG_NS = 'http://www.w3.org/2000/svg';
 
@@ -656,7 +661,7 @@ export class StrataChart extends HTMLElement {
           () => (arrived = true),
           () => (arrived = true)
         );
-        loadEngine(kindOf(this, spec)).then(
+        loadEngine(kindOf(this, text)).then(
           (engine) => {
             if (!arrived && generation === this.#generation) warmUp(engine);
           },
@@ -677,9 +682,9 @@ export class StrataChart extends HTMLElement {
       if (changed) text = JSON.stringify(spec);
       const arrow = !!bytes && isArrow(bytes, name, spec);
       let raw;
+      let kind = kindOf(this, text);
       for (let attempt = 0; ; attempt += 1) {
-        // Arrow data: the add-on decodes it into the column interchange the core reads.
-        const kind = kindOf(this, spec);
+        // Arrow data: the add-on decodes it into the column interchange the engine reads.
         const [engine, addon] = await Promise.all([loadEngine(kind), arrow ? loadEngine('arrow') : null]);
         if (generation !== this.#generation) return;
         // Another chart's trap retired an instance while we waited: take a fresh one.
@@ -691,7 +696,6 @@ export class StrataChart extends HTMLElement {
             : shapes
               ? engine.render_with_shapes(text, bytes, name, shapes, width)
               : engine.render(text, bytes, name, width);
-          break;
         } catch (e) {
           // The engine trapped: no later chart uses this instance. When another
           // chart's trap already retired it, try once more.
@@ -702,7 +706,15 @@ export class StrataChart extends HTMLElement {
               hint: 'this is a bug in Strata or a spec beyond its limits: simplify the spec, and please report it',
             });
           }
+          continue;
         }
+        // The core leaves out what this chart asks for (a word FULL_WORDS missed): draw it with the full engine.
+        if (kind === 'core' && raw.includes('"code":"spec.needs_full_engine"')) {
+          needsFull.add(this);
+          kind = 'full';
+          continue;
+        }
+        break;
       }
       const answer = JSON.parse(raw);
       if (generation !== this.#generation) return;

@@ -4,7 +4,7 @@ import { test, before, after } from 'node:test';
 import assert from 'node:assert/strict';
 import fs from 'node:fs';
 import path from 'node:path';
-import { ROOT, serve, launch, cli, settled, GALLERY_IDS, GALLERY_MAPS } from './harness.mjs';
+import { ROOT, serve, launch, cli, settled, GALLERY_IDS, GALLERY_FULL } from './harness.mjs';
 
 const BAKED = path.join(ROOT, 'www', 'index.baked.html');
 let server, browser, bake;
@@ -81,10 +81,10 @@ for (const width of [1280, 360]) {
       if (width > 360) assert.ok(html.includes(tableHtml), `${id}: the table too`);
       assert.equal(count, 2, `${id}: the baked SVGs and table were replaced, not doubled`);
     }
-    // One engine for every chart: the core once, and the maps engine once
-    // for the map charts (drawn again here on request).
+    // Each engine once: the core, and the full engine for the charts that
+    // need it (drawn again here on request).
     const names = wasm.map((u) => u.split('/').pop()).sort();
-    assert.deepEqual(names, GALLERY_MAPS.length ? ['strata_wasm_bg.wasm', 'strata_wasm_maps_bg.wasm'] : ['strata_wasm_bg.wasm'], 'each engine once');
+    assert.deepEqual(names, GALLERY_FULL.length ? ['strata_wasm_bg.wasm', 'strata_wasm_full_bg.wasm'] : ['strata_wasm_bg.wasm'], 'each engine once');
     await page.close();
   });
 }

@@ -14,8 +14,12 @@ export const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '
 export const GALLERY_IDS = [...fs.readFileSync(path.join(ROOT, 'www', 'index.html'), 'utf8').matchAll(/<strata-chart id="([^"]+)"/g)]
   .map((m) => m[1])
   .filter((id) => id !== 'typo');
-/** The gallery's map charts: they draw with the maps engine. */
-export const GALLERY_MAPS = GALLERY_IDS.filter((id) => id.startsWith('isles-'));
+/** The element's guess of the charts that need the full engine (FULL_WORDS in www/strata-chart.js). */
+export const FULL_WORDS = new RegExp(fs.readFileSync(path.join(ROOT, 'www', 'strata-chart.js'), 'utf8').match(/const FULL_WORDS = \/(.+)\/;\n/)[1]);
+/** The gallery's charts that draw with the full engine (maps, expressions, fitted statistics...). */
+export const GALLERY_FULL = [...fs.readFileSync(path.join(ROOT, 'www', 'index.html'), 'utf8').matchAll(/<strata-chart id="([^"]+)"([^>]*)>([^]*?)<\/strata-chart>/g)]
+  .filter((m) => GALLERY_IDS.includes(m[1]) && (m[2].includes('shapes-src') || FULL_WORDS.test(m[3])))
+  .map((m) => m[1]);
 const TARGET = process.env.CARGO_TARGET_DIR ? path.resolve(ROOT, process.env.CARGO_TARGET_DIR) : path.join(ROOT, 'target');
 export const CLI = process.env.STRATA_CLI || path.join(TARGET, 'debug', 'strata');
 

@@ -47,8 +47,8 @@ test('npm pack gives a tarball with the element, its types, the theme, the fonts
     'package/fonts/AtkinsonHyperlegibleNext-Bold.ttf',
     'package/pkg/strata_wasm.js',
     'package/pkg/strata_wasm_bg.wasm',
-    'package/pkg/strata_wasm_maps.js',
-    'package/pkg/strata_wasm_maps_bg.wasm',
+    'package/pkg/strata_wasm_full.js',
+    'package/pkg/strata_wasm_full_bg.wasm',
     'package/pkg/strata_wasm_arrow.js',
     'package/pkg/strata_wasm_arrow_bg.wasm',
   ]) {

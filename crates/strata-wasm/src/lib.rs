@@ -177,16 +177,29 @@ mod tests {
     }
 
     #[test]
-    fn a_map_needs_the_maps_engine() {
+    fn a_map_needs_the_full_engine() {
         // Alone (`cargo test -p strata-wasm`) this is the core engine, with no
-        // maps; in the workspace the CLI's `maps` feature reaches it.
+        // maps; in the workspace the CLI's `full` feature reaches it.
         let out =
             render_json(r#"{"data":{"rows":[{"lon":1,"lat":2}]},"coords":{"kind":"map"},"layers":[{"draw":"point","x":"lon","y":"lat"}]}"#, None, "", 300.0);
         let v: serde_json::Value = serde_json::from_str(&out).unwrap();
-        if strata::HAS_MAPS {
+        if strata::HAS_FULL {
             assert_eq!(v["ok"], true, "{out}");
         } else {
-            assert_eq!((v["errors"][0]["code"].as_str(), v["errors"][0]["path"].as_str()), (Some("spec.maps_unsupported"), Some("coords")), "{out}");
+            assert_eq!((v["errors"][0]["code"].as_str(), v["errors"][0]["path"].as_str()), (Some("spec.needs_full_engine"), Some("coords")), "{out}");
+        }
+    }
+
+    #[test]
+    fn a_derive_needs_the_full_engine() {
+        let out = render_json(r#"{"data":{"rows":[{"a":1,"b":2}]},"derive":{"c":"a + b"},"layers":[{"draw":"point","x":"a","y":"c"}]}"#, None, "", 300.0);
+        let v: serde_json::Value = serde_json::from_str(&out).unwrap();
+        if strata::HAS_FULL {
+            assert_eq!(v["ok"], true, "{out}");
+        } else {
+            assert_eq!((v["errors"][0]["code"].as_str(), v["errors"][0]["path"].as_str()), (Some("spec.needs_full_engine"), Some("derive")), "{out}");
+            // The element looks for exactly these bytes in the answer.
+            assert!(out.contains(r#""code":"spec.needs_full_engine""#), "{out}");
         }
     }
 

@@ -89,6 +89,13 @@ pub fn table_bytes(table: &Table) -> usize {
 /// [`crate::expr::apply`].
 pub fn apply_derives(mut table: Table, spec: &Spec) -> Result<Table, Errors> {
     check_table(&table, "data")?;
+    if !cfg!(feature = "expressions") {
+        // The core engine: no expressions (refused earlier by spec::needs_full).
+        return match crate::spec::needs_full(spec) {
+            Some((path, word)) if path == "derive" || path == "where" => Err(crate::needs_full_engine(&path, word).into()),
+            _ => Ok(table),
+        };
+    }
     for (name, text) in &spec.derive {
         let one: IndexMap<String, String> = [(name.clone(), text.clone())].into_iter().collect();
         table = crate::expr::apply(table, &one, None)?;

@@ -109,7 +109,7 @@ pub fn load_table(spec: &Spec, data: Option<DataBytes>) -> Result<data::Table, E
 pub fn load_shapes(spec: &Spec, bytes: Option<DataBytes>) -> Result<Option<Vec<geo::geojson::Feature>>, Errors> {
     let Some(s) = &spec.shapes else { return Ok(None) };
     if !cfg!(feature = "maps") {
-        return Err(no_maps("shapes").into());
+        return Err(needs_full_engine("shapes", "shapes").into());
     }
     let key = s.key.as_deref();
     if let Some(features) = &s.features {
@@ -135,15 +135,32 @@ pub fn load_shapes(spec: &Spec, bytes: Option<DataBytes>) -> Result<Option<Vec<g
     geo::geojson::read_bytes(b.bytes, key, "shapes").map(Some).map_err(Errors)
 }
 
-/// Whether this build draws maps (the `maps` feature).
+/// Whether this build draws maps (the `maps` feature, part of `full`).
 pub const HAS_MAPS: bool = cfg!(feature = "maps");
 
-/// The error of an engine built without the `maps` feature (the page's
-/// core engine) given a map: never a chart drawn without its map.
-pub(crate) fn no_maps(path: &str) -> Diagnostic {
-    Diagnostic::error("spec.maps_unsupported", "this engine draws no maps (it was built without the `maps` feature)")
+/// Whether this build is the full engine (the `full` feature: maps,
+/// expressions, `unpivot`, fitted statistics and box plots).
+/// The page's core engine is not: it refuses what [`spec::needs_full`]
+/// names. The native CLI and the tests build with everything.
+pub const HAS_FULL: bool = cfg!(feature = "full");
+
+/// The error of the page's core engine (built without `full`) given a spec
+/// that needs the full engine: never a chart drawn without the part it
+/// asks for. `<strata-chart>` draws the chart again with the full engine
+/// on this code.
+pub(crate) fn needs_full_engine(path: &str, word: &str) -> Diagnostic {
+    Diagnostic::error("spec.needs_full_engine", format!("this engine leaves out `{word}`: it is the page's core engine, built without the `full` feature"))
         .at_path(path)
-        .with_hint("load the maps engine (pkg/strata_wasm_maps.js); <strata-chart> picks it for specs with `shapes` or `coords.kind: map`")
+        .with_hint("load the full engine (pkg/strata_wasm_full.js); <strata-chart> switches to it by itself")
+}
+
+/// The core engine refuses a spec that needs the full engine, before
+/// reading any data.
+fn core_refuses(spec: &Spec) -> Result<(), Errors> {
+    match spec::needs_full(spec) {
+        Some((path, word)) if !HAS_FULL => Err(needs_full_engine(&path, word).into()),
+        _ => Ok(()),
+    }
 }
 
 /// The whole pipeline for a parsed spec; error messages are capped in length.
@@ -156,6 +173,7 @@ pub fn render_spec_with_shapes(spec: &Spec, data: Option<DataBytes>, shapes: Opt
     let has_bytes = data.is_some();
     let run = || {
         check_width(opts)?;
+        core_refuses(spec)?;
         let shapes = load_shapes(spec, shapes)?;
         // A base map needs no table.
         let table = if spec.data.is_none() && shapes.is_some() { data::from_rows(&[], &Default::default())? } else { load_table(spec, data)? };
@@ -168,6 +186,7 @@ pub fn render_spec_with_shapes(spec: &Spec, data: Option<DataBytes>, shapes: Opt
 pub fn render_table(spec: &Spec, table: data::Table, opts: &RenderOptions) -> Result<Rendered, Errors> {
     let run = || {
         check_width(opts)?;
+        core_refuses(spec)?;
         render_stages(spec, table, None, true, opts)
     };
     run().map_err(budget::cap_messages)
@@ -191,6 +210,7 @@ fn check_width(opts: &RenderOptions) -> Result<(), Errors> {
 pub fn prepare_table(table: data::Table, spec: &Spec) -> Result<data::Table, Errors> {
     let table = budget::apply_derives(table, spec)?;
     match &spec.unpivot {
+        Some(_) if !cfg!(feature = "unpivot") => Err(needs_full_engine("unpivot", "unpivot").into()),
         Some(u) => {
             let t = data::unpivot::apply(table, u)?;
             budget::check_table(&t, "unpivot")?;
@@ -264,6 +284,11 @@ pub fn spec_from_value(value: &serde_json::Value) -> Result<Spec, Errors> {
 fn expression_errors(value: &serde_json::Value) -> Vec<Diagnostic> {
     let mut errors = Vec::new();
     guard::check_spec_value(value, &mut errors);
+    // The core engine has no expressions: it refuses `derive` and `where`
+    // (spec::needs_full), and the full engine checks their syntax.
+    if !cfg!(feature = "expressions") {
+        return errors;
+    }
     if let Some(derive) = value.get("derive").and_then(serde_json::Value::as_object) {
         for (name, text) in derive {
             if let Some(text) = text.as_str() {

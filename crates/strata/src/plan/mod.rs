@@ -205,11 +205,11 @@ pub fn build_with_shapes(spec: &Spec, table: &Table, shapes: Option<Vec<crate::g
         // (Without the `maps` feature nothing of maps is reachable.)
         Some(_) if !cfg!(feature = "maps") => {
             let region = spec.layers.iter().position(|l| l.draw == Geometry::Region);
-            let path = match (&spec.coords, region) {
-                (Coords::Map(_), _) | (_, None) => "coords".to_string(),
-                (_, Some(i)) => format!("layers[{i}].draw"),
+            let (path, word) = match (&spec.coords, region) {
+                (Coords::Map(_), _) | (_, None) => ("coords".to_string(), "map"),
+                (_, Some(i)) => (format!("layers[{i}].draw"), "region"),
             };
-            return Err(crate::no_maps(&path).into());
+            return Err(crate::needs_full_engine(&path, word).into());
         }
         Some(m) => Some(map::resolve(spec, &m, shapes, &layers, &mut warnings)?),
         None => None,

@@ -139,27 +139,43 @@ pub fn apply(index: usize, layer: &Layer, data: LayerData, on_counts: Option<OnC
             data
         }
         Stat::Count => count(data),
+        Stat::Box if !FITTED => return Err(full_only(index, "stat", "box")),
         Stat::Box => boxes(index, data)?,
         Stat::Object(o) => object(index, layer, o, data, scale)?,
     };
     Ok(Stated { data, geometry, warnings })
 }
 
+/// Whether this build has the full engine's statistics (the
+/// `fitted_stats` feature, part of `full`): `fit`, `density`, `window`,
+/// `interval` and box plots. The page's core engine has counts, bins and
+/// summaries only; it refuses the rest (spec::needs_full) and, without
+/// these, leaves their code out of its WebAssembly.
+const FITTED: bool = cfg!(feature = "fitted_stats");
+
+/// The core engine's error for a statistic only the full engine has.
+fn full_only(index: usize, key: &str, word: &str) -> Errors {
+    crate::needs_full_engine(&format!("layers[{index}].{key}"), word).into()
+}
+
 fn object(index: usize, layer: &Layer, o: &StatObject, data: LayerData, count_width: Option<f64>) -> Result<LayerData, Errors> {
     if let Some(b) = &o.bin {
         return binned(index, layer, b, data);
+    }
+    if o.interval.is_some() && !FITTED {
+        return Err(full_only(index, "stat.interval", "interval"));
     }
     if let Some(word) = o.summary {
         return summarise(index, layer, o, word, data);
     }
     if let Some(kind) = o.fit {
-        return fitted(index, layer, o, kind, data);
+        return if FITTED { fitted(index, layer, o, kind, data) } else { Err(full_only(index, "stat.fit", "fit")) };
     }
     if let Some(d) = &o.density {
-        return densities(index, d, data, count_width);
+        return if FITTED { densities(index, d, data, count_width) } else { Err(full_only(index, "stat.density", "density")) };
     }
     if let Some(w) = &o.window {
-        return windowed(index, w, data);
+        return if FITTED { windowed(index, w, data) } else { Err(full_only(index, "stat.window", "window")) };
     }
     Err(err(index, "stat", "spec.unsupported", "this statistic is not supported"))
 }
@@ -316,7 +332,7 @@ fn summarise(index: usize, layer: &Layer, o: &StatObject, word: SummaryWord, dat
             return Err(err(index, "stat.p", "stat.bad_option", "`p` must be between 0 and 1"));
         }
     }
-    let interval = o.interval.map(interval_of);
+    let interval = o.interval.filter(|_| FITTED).map(interval_of);
     let mut data = data;
     booleans_as_numbers(&mut data, Channel::Y);
     let y = need_numeric(index, &data, Channel::Y, &format!("a `{name}` summary"))?;

@@ -98,11 +98,12 @@ fn geometry_marks(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         Geometry::Band => bands(ctx, layer, Channel::Y, Band::End),
         Geometry::Segment => segments(ctx, layer),
         Geometry::Range => ranges(ctx, layer),
-        Geometry::Box => boxes(ctx, layer),
+        // Box plots are the full engine's (the core refuses them: spec::needs_full).
+        Geometry::Box if cfg!(feature = "fitted_stats") => boxes(ctx, layer),
         Geometry::Cell => cells(ctx, layer),
         Geometry::Label => labels(ctx, layer),
         // Regions are shapes: `scene::map` draws them.
-        Geometry::Region => Vec::new(),
+        Geometry::Region | Geometry::Box => Vec::new(),
     }
 }
 

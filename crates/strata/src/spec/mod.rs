@@ -7,11 +7,13 @@
 #[macro_use]
 mod vocab;
 pub mod defaults;
+mod full;
 mod parse;
 mod read;
 pub mod shape;
 mod suggest;
 
+pub use full::needs_full;
 pub use parse::{parse_spec_with, spec_from_value_with, ExtraCheck};
 
 /// A part of a spec (a layer, a scale...) from JSON text, unchecked: for tests.

@@ -1,0 +1,65 @@
+//! Which specs need the page's full engine.
+//!
+//! The page loads a light core engine, built without the `full` feature
+//! (crates/strata/Cargo.toml): no maps, no `derive`/`where` expressions, no
+//! `unpivot`, no fitted or smoothed statistics (`fit`, `density`, `window`,
+//! `interval`, box plots). A spec that asks for one of those takes the full
+//! engine instead. [`needs_full`] says so in every build (the core refuses
+//! such a spec with `spec.needs_full_engine` at the path it returns, before
+//! reading any data); `<strata-chart>` guesses the same from the spec's text
+//! with a short word list (`FULL_WORDS` in www/strata-chart.js; the test
+//! `full_engine_words` in tests/full_engine.rs holds the two together) and
+//! falls back to the full engine on that error.
+
+use super::{Coords, Geometry, Spec, Stat};
+
+/// The first part of `spec` that only the full engine draws: its JSON path
+/// and the word that asks for it; `None` for a spec the core draws.
+pub fn needs_full(spec: &Spec) -> Option<(String, &'static str)> {
+    let at = |path: &str, word| Some((path.to_string(), word));
+    if spec.shapes.is_some() {
+        return at("shapes", "shapes");
+    }
+    if let Coords::Map(_) = spec.coords {
+        return at("coords", "map");
+    }
+    for (i, l) in spec.layers.iter().enumerate() {
+        if l.draw == Geometry::Region {
+            return Some((format!("layers[{i}].draw"), "region"));
+        }
+    }
+    if !spec.derive.is_empty() {
+        return at("derive", "derive");
+    }
+    if spec.where_.is_some() {
+        return at("where", "where");
+    }
+    if spec.unpivot.is_some() {
+        return at("unpivot", "unpivot");
+    }
+    for (i, l) in spec.layers.iter().enumerate() {
+        let path = |key: &str| format!("layers[{i}].{key}");
+        if l.draw == Geometry::Box {
+            return Some((path("draw"), "box"));
+        }
+        match &l.stat {
+            Stat::Box => return Some((path("stat"), "box")),
+            Stat::Object(o) => {
+                let word = if o.fit.is_some() {
+                    "fit"
+                } else if o.density.is_some() {
+                    "density"
+                } else if o.window.is_some() {
+                    "window"
+                } else if o.interval.is_some() {
+                    "interval"
+                } else {
+                    continue;
+                };
+                return Some((path(&format!("stat.{word}")), word));
+            }
+            _ => {}
+        }
+    }
+    None
+}

@@ -1,0 +1,83 @@
+//! The page's two engines: `spec::needs_full` (which specs the light core
+//! engine refuses) and the element's guess from the spec's text
+//! (`FULL_WORDS` in www/strata-chart.js) agree on every gallery and golden
+//! spec, so no chart of ours pays a second drawing; and the paths and words
+//! the core names.
+
+use std::path::{Path, PathBuf};
+
+fn root() -> PathBuf {
+    Path::new(env!("CARGO_MANIFEST_DIR")).join("../..")
+}
+
+/// The element's word list, read from the element itself.
+fn full_words() -> regex::Regex {
+    let js = std::fs::read_to_string(root().join("www/strata-chart.js")).unwrap();
+    let start = js.find("const FULL_WORDS = /").expect("FULL_WORDS in www/strata-chart.js") + "const FULL_WORDS = /".len();
+    let end = start + js[start..].find("/;\n").unwrap();
+    regex::Regex::new(&js[start..end]).unwrap()
+}
+
+#[test]
+fn full_engine_words() {
+    let words = full_words();
+    let mut checked = 0;
+    for dir in ["examples", "tests/golden/specs"] {
+        let mut files: Vec<PathBuf> =
+            std::fs::read_dir(root().join(dir)).unwrap().map(|e| e.unwrap().path()).filter(|p| p.extension().is_some_and(|e| e == "json")).collect();
+        files.sort();
+        for f in files {
+            let text = std::fs::read_to_string(&f).unwrap();
+            // Specs with errors (bad words, retired words) draw in neither engine.
+            let Ok(spec) = strata::parse_spec(&text) else { continue };
+            let rust = strata::spec::needs_full(&spec);
+            assert_eq!(words.is_match(&text), rust.is_some(), "{}: needs_full says {rust:?}", f.display());
+            checked += 1;
+        }
+    }
+    assert!(checked > 40, "{checked} specs checked");
+}
+
+/// The gallery charts that take the full engine (docs/element.md lists them).
+#[test]
+fn gallery_charts_on_the_full_engine() {
+    let html = std::fs::read_to_string(root().join("www/index.html")).unwrap();
+    let words = full_words();
+    let mut full = Vec::new();
+    for part in html.split("<strata-chart id=\"").skip(1) {
+        let id = &part[..part.find('"').unwrap()];
+        let tag_end = part.find('>').unwrap();
+        let body = &part[..part.find("</strata-chart>").unwrap()];
+        if part[..tag_end].contains("shapes-src") || words.is_match(body) {
+            full.push(id);
+        }
+    }
+    assert_eq!(full, ["boxes", "trend", "weather", "seasons", "plots", "rain", "isles-steps", "isles-towns", "isles-globe"]);
+}
+
+#[test]
+fn needs_full_names_the_path_and_word() {
+    let cases = [
+        (r#"{"layers":[{"draw":"line","x":"a","y":"b"}]}"#, None),
+        (r#"{"layers":[{"draw":"bar","x":"a","y":"b","stat":{"summary":"median"}}],"panels":{"by":"c"},"theme":"dark"}"#, None),
+        (r#"{"layers":[{"draw":"bar","x":"a","stat":{"bin":{"density":true}}}]}"#, None),
+        (r#"{"derive":{"c":"a + b"},"layers":[{"draw":"point","x":"a","y":"c"}]}"#, Some(("derive", "derive"))),
+        (r#"{"where":"a > 1","layers":[{"draw":"point","x":"a","y":"b"}]}"#, Some(("where", "where"))),
+        (r#"{"unpivot":{"columns":["a","b"],"into":["k","v"]},"layers":[{"draw":"line","x":"k","y":"v"}]}"#, Some(("unpivot", "unpivot"))),
+        (r#"{"coords":{"kind":"polar"},"layers":[{"draw":"bar","x":"a","y":"b"}]}"#, None),
+        (r#"{"coords":{"kind":"map"},"layers":[{"draw":"point","x":"a","y":"b"}]}"#, Some(("coords", "map"))),
+        (r#"{"shapes":{"features":[]},"layers":[{"draw":"region"}]}"#, Some(("shapes", "shapes"))),
+        (r#"{"layers":[{"draw":"point","x":"a","y":"b"},{"draw":"line","x":"a","y":"b","stat":{"fit":"loess"}}]}"#, Some(("layers[1].stat.fit", "fit"))),
+        (r#"{"layers":[{"draw":"area","x":"a","stat":{"density":{}}}]}"#, Some(("layers[0].stat.density", "density"))),
+        (r#"{"layers":[{"draw":"line","x":"a","y":"b","stat":{"window":{"rows":3}}}]}"#, Some(("layers[0].stat.window", "window"))),
+        (r#"{"layers":[{"draw":"point","x":"a","y":"b","stat":{"summary":"mean","interval":"ci95"}}]}"#, Some(("layers[0].stat.interval", "interval"))),
+        (r#"{"layers":[{"draw":"box","x":"a","y":"b","stat":"box"}]}"#, Some(("layers[0].draw", "box"))),
+    ];
+    let words = full_words();
+    for (text, want) in cases {
+        let spec = strata::parse_spec(text).unwrap_or_else(|e| panic!("{text}: {e}"));
+        let got = strata::spec::needs_full(&spec);
+        assert_eq!(got.as_ref().map(|(p, w)| (p.as_str(), *w)), want, "{text}");
+        assert_eq!(words.is_match(text), want.is_some(), "the element's words on {text}");
+    }
+}
