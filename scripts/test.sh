@@ -18,9 +18,12 @@ cargo build --quiet -p strata-cli
 scripts/build-wasm.sh
 
 step "wasm tests in headless Chromium"
-CHROMEDRIVER=/usr/bin/chromedriver \
-CARGO_TARGET_WASM32_UNKNOWN_UNKNOWN_RUNNER=wasm-bindgen-test-runner \
-  cargo test -p strata-wasm --target wasm32-unknown-unknown
+# The core engine, then the full engine (the `full` feature).
+for features in "" full; do
+  CHROMEDRIVER=/usr/bin/chromedriver \
+  CARGO_TARGET_WASM32_UNKNOWN_UNKNOWN_RUNNER=wasm-bindgen-test-runner \
+    cargo test -p strata-wasm --target wasm32-unknown-unknown ${features:+--features "$features"}
+done
 
 step "the <strata-chart> element in Chromium"
 (cd tests/browser && node --test --test-concurrency=1 ./*.test.mjs)
