@@ -104,7 +104,9 @@ pub fn table_shape(data: &[u8], data_name: &str) -> String {
 /// The columns of data bytes with the type the reader inferred for each, as
 /// JSON: `{"ok":true,"rows":N,"columns":[{"name":"day","type":"date"},...]}`
 /// (types in the spec's words: `number`, `text`, `date`, `bool`) or located
-/// errors. The playground builds its starter spec from this.
+/// errors. The playground (which loads the full engine) builds its starter
+/// spec from this; the core engine, which only draws, leaves it out.
+#[cfg(feature = "full")]
 #[wasm_bindgen]
 pub fn columns(data: &[u8], data_name: &str) -> String {
     columns_json(data, data_name)
@@ -116,6 +118,7 @@ pub fn columns_json(data: &[u8], data_name: &str) -> String {
 }
 
 /// [`columns`] for data the Arrow add-on decoded into the column interchange.
+#[cfg(feature = "full")]
 #[wasm_bindgen]
 pub fn columns_of_interchange(columns: &[u8]) -> String {
     columns_answer(strata::data::interchange::read(columns, &strata::data::ReadOptions::default()))
