@@ -61,6 +61,8 @@ fn needs_full_names_the_path_and_word() {
         (r#"{"layers":[{"draw":"line","x":"a","y":"b"}]}"#, None),
         (r#"{"layers":[{"draw":"bar","x":"a","y":"b","stat":{"summary":"median"}}],"panels":{"by":"c"},"theme":"dark"}"#, None),
         (r#"{"layers":[{"draw":"bar","x":"a","stat":{"bin":{"density":true}}}]}"#, None),
+        // Columns named like the words are not the words.
+        (r#"{"layers":[{"draw":"bar","x":"region","y":"box","color":"map","text":"fit"}]}"#, None),
         (r#"{"derive":{"c":"a + b"},"layers":[{"draw":"point","x":"a","y":"c"}]}"#, Some(("derive", "derive"))),
         (r#"{"where":"a > 1","layers":[{"draw":"point","x":"a","y":"b"}]}"#, Some(("where", "where"))),
         (r#"{"unpivot":{"columns":["a","b"],"into":["k","v"]},"layers":[{"draw":"line","x":"k","y":"v"}]}"#, Some(("unpivot", "unpivot"))),
