@@ -18,6 +18,20 @@ before(async () => {
   page = await browser.context.newPage();
   wasm = [];
   page.on('request', (r) => r.url().endsWith('.wasm') && wasm.push(new URL(r.url()).pathname.split('/').pop()));
+  // The core engine's glue, wrapped to count the charts it turns away.
+  await page.route(/\/www\/pkg\/strata_wasm\.js$/, (route) =>
+    route.fulfill({
+      contentType: 'text/javascript',
+      body: `import * as real from './strata_wasm.js?real';
+        export * from './strata_wasm.js?real';
+        export default real.default;
+        export function render(...args) {
+          const answer = real.render(...args);
+          if (answer.includes('"code":"spec.needs_full_engine"')) globalThis.refusedByCore = (globalThis.refusedByCore || 0) + 1;
+          return answer;
+        }`,
+    })
+  );
   await page.goto(`${server.url}/tests/browser/pages/engines.html`);
   await settled(page);
 });
@@ -50,6 +64,8 @@ function addChart(id, spec, src = '../../../examples/data/orchard_harvest.csv') 
   );
 }
 
+const refused = () => page.evaluate(() => globalThis.refusedByCore || 0);
+
 function cliSvg(spec, data = path.join(ROOT, 'examples', 'data', 'orchard_harvest.csv')) {
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'strata-engines-'));
   const specFile = path.join(dir, 'spec.json');
@@ -66,6 +82,7 @@ test('a page of charts the core draws (a polar one too) loads the core engine al
   const status = await page.evaluate(() => [...document.querySelectorAll('strata-chart')].map((el) => el.status));
   assert.deepEqual(status, ['drawn', 'drawn']);
   assert.deepEqual(wasm, ['strata_wasm_bg.wasm']);
+  assert.equal(await refused(), 0);
 });
 
 test('a chart whose words ask for the full engine draws with it', async () => {
@@ -76,6 +93,7 @@ test('a chart whose words ask for the full engine draws with it', async () => {
   assert.equal(got.flashed, false);
   assert.equal(got.svgText, cliSvg(spec), 'the page draws the CLI bytes');
   assert.deepEqual(wasm, ['strata_wasm_bg.wasm', 'strata_wasm_full_bg.wasm']);
+  assert.equal(await refused(), 0, 'the word list sent it to the full engine at once');
 });
 
 test('a chart the word list misses is turned away by the core and drawn by the full engine, no error shown', async () => {
@@ -86,6 +104,7 @@ test('a chart the word list misses is turned away by the core and drawn by the f
   assert.equal(got.error, undefined, got.error);
   assert.equal(got.status, 'drawn');
   assert.equal(got.flashed, false, 'no error box on the way');
+  assert.equal(await refused(), 1, 'the core turned it away once');
   assert.equal(got.svgText, cliSvg(spec), 'the page draws the CLI bytes');
   // Each engine still downloaded once.
   assert.deepEqual(wasm, ['strata_wasm_bg.wasm', 'strata_wasm_full_bg.wasm']);
