@@ -16,7 +16,7 @@
 // sits beside it as `<name>_bg.wasm`.
 const ENGINE_URLS = {
   core: new URL('./pkg/strata_wasm.js', import.meta.url),
-  // The Arrow add-on: decodes Arrow IPC into columns the core engine reads
+  // The Arrow add-on: decodes Arrow IPC into columns either engine reads
   // (render_columns). Loaded only for Arrow data.
   arrow: new URL('./pkg/strata_wasm_arrow.js', import.meta.url),
   // The full engine (the core + maps, expressions, unpivot, fitted
