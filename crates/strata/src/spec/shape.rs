@@ -550,8 +550,11 @@ pub fn check(v: &Value, shape: &Shape, path: &str, out: &mut Vec<Diagnostic>) {
             for field in o.fields.iter().filter(|f| f.required) {
                 if !m.contains_key(field.name) {
                     out.push(
-                        Diagnostic::error("spec.missing_key", format!("`{}` is required here: {}", field.name, field.doc.trim_end_matches('.').to_lowercase()))
-                            .at_path(path),
+                        Diagnostic::error(
+                            "spec.missing_key",
+                            format!("`{}` is required here: {}", field.name, crate::text::case::lower(field.doc.trim_end_matches('.'))),
+                        )
+                        .at_path(path),
                     );
                 }
             }
