@@ -73,7 +73,7 @@ fn map(c: char, runs: &[(u16, u8, u8, i16)]) -> char {
     }
     let (first, count, step, delta) = runs[i - 1];
     let off = cp - u32::from(first);
-    if off % u32::from(step) != 0 || off / u32::from(step) >= u32::from(count) {
+    if !off.is_multiple_of(u32::from(step)) || off / u32::from(step) >= u32::from(count) {
         return c;
     }
     char::from_u32(cp.wrapping_add_signed(i32::from(delta))).unwrap_or(c)
