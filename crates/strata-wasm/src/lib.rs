@@ -225,6 +225,16 @@ mod tests {
     }
 
     #[test]
+    fn a_missing_key_reads_the_same_without_the_schema_descriptions() {
+        // The core engine is built without `schema` (no descriptions of
+        // optional keys); a required key's description stays for this message.
+        let out = render_json(r#"{"data":{"rows":[{"a":1}]},"layers":[{"x":"a"}]}"#, None, "", 300.0);
+        let v: serde_json::Value = serde_json::from_str(&out).unwrap();
+        assert_eq!(v["errors"][0]["message"], "`draw` is required here: the geometry", "{out}");
+        assert_eq!(v["errors"][0]["path"], "layers[0]");
+    }
+
+    #[test]
     fn located_error_is_json() {
         let out = render_json(r#"{"layers":[{"draw":"point","x":"nope"}],"data":{"rows":[{"a":1}]}}"#, None, "", 300.0);
         let v: serde_json::Value = serde_json::from_str(&out).unwrap();
