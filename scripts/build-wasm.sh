@@ -20,7 +20,7 @@ target="${CARGO_TARGET_DIR:-target}"
 # bench/README.md has the figures.
 budget=200000
 ceiling=${STRATA_CORE_CEILING:-367900}
-maps_ceiling=${STRATA_MAPS_CEILING:-403200}
+maps_ceiling=${STRATA_MAPS_CEILING:-399900}
 arrow_ceiling=$budget
 opt=tests/browser/node_modules/.bin/wasm-opt
 if [ ! -x "$opt" ]; then
