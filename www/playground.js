@@ -335,9 +335,12 @@ async function draw() {
   }
   if (gen !== generation) return;
   const bytes = state.bytes || undefined;
+  // `data.sha256`: the core engine checks it against SubtleCrypto's digest, as in <strata-chart>.
+  const digest = bytes && /"sha256"/.test(text) && globalThis.crypto?.subtle ? new Uint8Array(await crypto.subtle.digest('SHA-256', bytes)) : undefined;
+  if (gen !== generation) return;
   const name = state.name;
   const width = Math.max(200, Math.round(ui.light.clientWidth || 640));
-  const run = (t, w) => JSON.parse(state.interchange ? eng.render_columns(t, state.interchange, w) : eng.render(t, bytes, name, w));
+  const run = (t, w) => JSON.parse(state.interchange ? eng.render_columns(t, state.interchange, w) : eng.render(t, bytes, name, w, digest));
   const answer = run(text, width);
   state.answer = answer;
   state.width = width;

@@ -681,6 +681,9 @@ export class StrataChart extends HTMLElement {
       }
       if (changed) text = JSON.stringify(spec);
       const arrow = !!bytes && isArrow(bytes, name, spec);
+      // `data.sha256`: the engine checks it against SubtleCrypto's digest (none on plain http: the engine says so).
+      const digest = !arrow && bytes && isObject && spec.data?.sha256 && globalThis.crypto?.subtle ? new Uint8Array(await crypto.subtle.digest('SHA-256', bytes)) : undefined;
+      if (generation !== this.#generation) return;
       let raw;
       let kind = kindOf(this, text);
       for (let attempt = 0; ; attempt += 1) {
@@ -695,7 +698,7 @@ export class StrataChart extends HTMLElement {
             ? engine.render_columns(text, addon.decode(bytes), width)
             : shapes
               ? engine.render_with_shapes(text, bytes, name, shapes, width)
-              : engine.render(text, bytes, name, width);
+              : engine.render(text, bytes, name, width, digest);
         } catch (e) {
           // The engine trapped: no later chart uses this instance. When another
           // chart's trap already retired it, try once more.

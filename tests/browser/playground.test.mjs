@@ -4,6 +4,7 @@
 // bytes in a fresh page (under the gallery's strict CSP, with the element).
 import { test, before, after } from 'node:test';
 import assert from 'node:assert/strict';
+import crypto from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 import { serve, launch, settled, ROOT } from './harness.mjs';
@@ -187,6 +188,18 @@ ${snippet}
   const drawn = await fresh.evaluate(() => document.querySelector('strata-chart').svgText);
   assert.equal(drawn, svgDownloaded, 'the element draws the bytes the playground drew');
   await fresh.close();
+});
+
+test('data.sha256 is checked against SubtleCrypto\'s digest of the opened file', async () => {
+  // The right digest from node's own SHA-256 (OpenSSL), not from Strata.
+  const right = crypto.createHash('sha256').update(CSV).digest('hex');
+  const spec = (sha256) => JSON.stringify({ data: { sha256 }, layers: [{ draw: 'point', x: 'age_years', y: 'yield_kg' }] });
+  await page.fill('#spec', spec('0'.repeat(64)));
+  await page.locator('#problems li', { hasText: 'data.sha256' }).first().waitFor();
+  assert.match(await page.textContent('#problems'), new RegExp(`digest is ${right}, but`));
+  await page.fill('#spec', spec(right));
+  await page.waitForFunction(() => document.getElementById('status').textContent.startsWith('Drawn'));
+  assert.equal(await page.locator('#problems li', { hasText: 'No problems' }).count(), 1);
 });
 
 test('a TSV dropped on the page is read too', async () => {

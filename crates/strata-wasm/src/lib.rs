@@ -37,11 +37,19 @@ pub fn render_json(spec: &str, data: Option<&[u8]>, data_name: &str, width: f64)
 
 /// [`render_json`] with the bytes of the spec's `shapes.url` (GeoJSON).
 pub fn render_json_with_shapes(spec: &str, data: Option<&[u8]>, data_name: &str, shapes: Option<&[u8]>, width: f64) -> String {
+    render_json_with_digest(spec, data, data_name, None, shapes, width)
+}
+
+/// [`render_json_with_shapes`] with the data's SHA-256 as the page computed
+/// it (32 bytes), which `data.sha256` is checked against: the core engine
+/// has no SHA-256 of its own.
+pub fn render_json_with_digest(spec: &str, data: Option<&[u8]>, data_name: &str, digest: Option<&[u8]>, shapes: Option<&[u8]>, width: f64) -> String {
     let opts = render_options(width);
     let data = data.map(|bytes| DataBytes { bytes, name: data_name });
     let shapes = shapes.map(|bytes| DataBytes { bytes, name: "shapes" });
+    let digest = digest.and_then(|d| <[u8; 32]>::try_from(d).ok());
     let spec = spec.strip_prefix('\u{feff}').unwrap_or(spec);
-    answer_json(strata::parse_spec(spec).map_err(strata::budget::cap_messages).and_then(|s| strata::render_spec_with_shapes(&s, data, shapes, &opts)))
+    answer_json(strata::parse_spec(spec).map_err(strata::budget::cap_messages).and_then(|s| strata::render_spec_with_digest(&s, data, digest, shapes, &opts)))
 }
 
 fn render_options(width: f64) -> RenderOptions {
@@ -77,10 +85,12 @@ pub fn render_columns(spec: &str, columns: &[u8], width: f64) -> String {
     render_columns_json(spec, columns, width)
 }
 
-/// JavaScript entry point; `data` may be `undefined` for specs with inline rows.
+/// JavaScript entry point; `data` may be `undefined` for specs with inline
+/// rows. `digest`: the data's SHA-256 (32 bytes, the element's SubtleCrypto
+/// digest when the spec has `data.sha256`; without it that check fails).
 #[wasm_bindgen]
-pub fn render(spec: &str, data: Option<Vec<u8>>, data_name: &str, width: f64) -> String {
-    render_json(spec, data.as_deref(), data_name, width)
+pub fn render(spec: &str, data: Option<Vec<u8>>, data_name: &str, width: f64, digest: Option<Vec<u8>>) -> String {
+    render_json_with_digest(spec, data.as_deref(), data_name, digest.as_deref(), None, width)
 }
 
 /// [`render`] with the bytes of `shapes.url` (the element fetches them).
@@ -204,6 +214,40 @@ mod tests {
             // The element looks for exactly these bytes in the answer.
             assert!(out.contains(r#""code":"spec.needs_full_engine""#), "{out}");
         }
+    }
+
+    #[test]
+    fn data_sha256_is_checked_against_the_pages_digest() {
+        // The digest of these bytes is from GNU coreutils' sha256sum.
+        let (csv, hex) = (b"a,b\n1,2\n2,3\n", "fa73cad33d325fdb9aaa6e1f55002c44b198a003931893b07fd25ae36315963f");
+        let digest: Vec<u8> = (0..32).map(|i| u8::from_str_radix(&hex[2 * i..2 * i + 2], 16).unwrap()).collect();
+        let spec = |want: &str| format!(r#"{{"data":{{"sha256":"{want}"}},"layers":[{{"draw":"point","x":"a","y":"b"}}]}}"#);
+        let run = |want: &str, digest: Option<&[u8]>| -> serde_json::Value {
+            serde_json::from_str(&render_json_with_digest(&spec(want), Some(csv), "t.csv", digest, None, 300.0)).unwrap()
+        };
+        assert_eq!(run(hex, Some(&digest))["ok"], true);
+        let v = run(&"0".repeat(64), Some(&digest));
+        assert_eq!((v["errors"][0]["code"].as_str(), v["errors"][0]["path"].as_str()), (Some("data.sha256_mismatch"), Some("data.sha256")), "{v}");
+        let message = format!("the data's SHA-256 digest is {hex}, but `data.sha256` expects {}; the data was refused", "0".repeat(64));
+        assert_eq!(v["errors"][0]["message"].as_str(), Some(message.as_str()));
+        // Without the page's digest: the engine's own (the CLI's build), or,
+        // in the page's core engine, a refusal that says why.
+        let v = run(hex, None);
+        if strata::data::HAS_SHA256 {
+            assert_eq!(v["ok"], true, "{v}");
+        } else {
+            assert_eq!((v["errors"][0]["code"].as_str(), v["errors"][0]["path"].as_str()), (Some("data.sha256_unchecked"), Some("data.sha256")), "{v}");
+        }
+    }
+
+    #[test]
+    fn a_missing_key_reads_the_same_without_the_schema_descriptions() {
+        // The core engine is built without `schema` (no descriptions of
+        // optional keys); a required key's description stays for this message.
+        let out = render_json(r#"{"data":{"rows":[{"a":1}]},"layers":[{"x":"a"}]}"#, None, "", 300.0);
+        let v: serde_json::Value = serde_json::from_str(&out).unwrap();
+        assert_eq!(v["errors"][0]["message"], "`draw` is required here: the geometry", "{out}");
+        assert_eq!(v["errors"][0]["path"], "layers[0]");
     }
 
     #[test]

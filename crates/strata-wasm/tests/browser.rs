@@ -9,7 +9,7 @@ const SPEC: &str = r#"{"size":{"width":320,"height":200},"layers":[{"draw":"poin
 
 #[wasm_bindgen_test]
 fn renders_csv_bytes_to_svg() {
-    let out = strata_wasm::render(SPEC, Some(b"a,b\n1,2\n2,4\n3,1\n".to_vec()), "t.csv", 640.0);
+    let out = strata_wasm::render(SPEC, Some(b"a,b\n1,2\n2,4\n3,1\n".to_vec()), "t.csv", 640.0, None);
     let v: serde_json::Value = serde_json::from_str(&out).unwrap();
     assert_eq!(v["ok"], true, "{out}");
     let svg = v["svg"].as_str().unwrap();
@@ -33,7 +33,7 @@ fn wasm_draws_the_committed_golden_bytes() {
     .into_iter()
     .chain(full.into_iter().filter(|_| strata::HAS_FULL))
     {
-        let out = strata_wasm::render(spec, None, "", 640.0);
+        let out = strata_wasm::render(spec, None, "", 640.0, None);
         let v: serde_json::Value = serde_json::from_str(&out).unwrap();
         assert_eq!(v["svg"].as_str(), Some(golden), "{out}");
     }
@@ -45,7 +45,7 @@ fn the_core_refuses_full_engine_specs_at_their_word() {
     // out; the element then draws the chart with the full engine, which
     // writes the golden bytes.
     let boxes = include_str!("../../../tests/golden/specs/box-summary.json");
-    let v: serde_json::Value = serde_json::from_str(&strata_wasm::render(boxes, None, "", 640.0)).unwrap();
+    let v: serde_json::Value = serde_json::from_str(&strata_wasm::render(boxes, None, "", 640.0, None)).unwrap();
     if strata::HAS_FULL {
         assert_eq!(v["svg"].as_str(), Some(include_str!("../../../tests/golden/out/edge-box-summary.svg")), "{v}");
         return;
@@ -58,18 +58,18 @@ fn the_core_refuses_full_engine_specs_at_their_word() {
         (r#"{"data":{"rows":[{"a":1,"b":2}]},"layers":[{"draw":"line","x":"a","y":"b","stat":{"fit":"linear"}}]}"#, "layers[0].stat.fit"),
         (r#"{"data":{"rows":[{"a":1,"b":2}]},"layers":[{"draw":"line","x":"a","stat":{"density":{}}}]}"#, "layers[0].stat.density"),
     ] {
-        let v: serde_json::Value = serde_json::from_str(&strata_wasm::render(spec, None, "", 640.0)).unwrap();
+        let v: serde_json::Value = serde_json::from_str(&strata_wasm::render(spec, None, "", 640.0, None)).unwrap();
         assert_eq!((v["errors"][0]["code"].as_str(), v["errors"][0]["path"].as_str()), (Some("spec.needs_full_engine"), Some(path)), "{v}");
     }
 }
 
 #[wasm_bindgen_test]
 fn errors_come_back_as_data_not_exceptions() {
-    let out = strata_wasm::render(r#"{"layers":[{"draw":"dot"}]}"#, None, "", 640.0);
+    let out = strata_wasm::render(r#"{"layers":[{"draw":"dot"}]}"#, None, "", 640.0, None);
     let v: serde_json::Value = serde_json::from_str(&out).unwrap();
     assert_eq!(v["ok"], false);
     assert_eq!(v["errors"][0]["path"], "layers[0].draw");
-    let out = strata_wasm::render(SPEC, Some(vec![0xff, 0xfe, 0x00]), "t.csv", 640.0);
+    let out = strata_wasm::render(SPEC, Some(vec![0xff, 0xfe, 0x00]), "t.csv", 640.0, None);
     let v: serde_json::Value = serde_json::from_str(&out).unwrap();
     assert_eq!(v["ok"], false);
 }
@@ -79,7 +79,7 @@ fn maps_come_only_with_the_full_engine() {
     // The core engine (no `full` feature) refuses a map clearly, at the
     // word that asks for it; the full engine draws the committed golden bytes.
     let spec = include_str!("../../../tests/golden/specs/map-mercator-points.json");
-    let out = strata_wasm::render(spec, None, "", 640.0);
+    let out = strata_wasm::render(spec, None, "", 640.0, None);
     let v: serde_json::Value = serde_json::from_str(&out).unwrap();
     if strata::HAS_FULL {
         assert_eq!(v["svg"].as_str(), Some(include_str!("../../../tests/golden/out/edge-map-mercator-points.svg")), "{out}");
@@ -88,7 +88,26 @@ fn maps_come_only_with_the_full_engine() {
         assert_eq!(v["errors"][0]["code"], "spec.needs_full_engine");
         assert_eq!(v["errors"][0]["path"], "coords");
         let shapes = r#"{"shapes":{"features":[]},"layers":[{"draw":"region"}]}"#;
-        let v: serde_json::Value = serde_json::from_str(&strata_wasm::render(shapes, None, "", 640.0)).unwrap();
+        let v: serde_json::Value = serde_json::from_str(&strata_wasm::render(shapes, None, "", 640.0, None)).unwrap();
         assert_eq!((v["errors"][0]["code"].as_str(), v["errors"][0]["path"].as_str()), (Some("spec.needs_full_engine"), Some("shapes")), "{v}");
     }
+}
+
+#[wasm_bindgen_test]
+fn the_core_checks_data_sha256_against_the_pages_digest() {
+    // The core engine has no SHA-256 of its own: the element hands in the
+    // digest SubtleCrypto computed. The digest of these bytes is from GNU
+    // coreutils' sha256sum.
+    let csv = b"a,b\n1,2\n2,3\n";
+    let digest: Vec<u8> =
+        (0..32).map(|i| u8::from_str_radix(&"fa73cad33d325fdb9aaa6e1f55002c44b198a003931893b07fd25ae36315963f"[2 * i..2 * i + 2], 16).unwrap()).collect();
+    let spec = |want: &str| format!(r#"{{"data":{{"sha256":"{want}"}},"layers":[{{"draw":"point","x":"a","y":"b"}}]}}"#);
+    let good = spec("fa73cad33d325fdb9aaa6e1f55002c44b198a003931893b07fd25ae36315963f");
+    let v: serde_json::Value = serde_json::from_str(&strata_wasm::render(&good, Some(csv.to_vec()), "t.csv", 640.0, Some(digest.clone()))).unwrap();
+    assert_eq!(v["ok"], true, "{v}");
+    let v: serde_json::Value = serde_json::from_str(&strata_wasm::render(&spec(&"0".repeat(64)), Some(csv.to_vec()), "t.csv", 640.0, Some(digest))).unwrap();
+    assert_eq!((v["errors"][0]["code"].as_str(), v["errors"][0]["path"].as_str()), (Some("data.sha256_mismatch"), Some("data.sha256")), "{v}");
+    // No digest (a page without SubtleCrypto): refused, never unchecked.
+    let v: serde_json::Value = serde_json::from_str(&strata_wasm::render(&good, Some(csv.to_vec()), "t.csv", 640.0, None)).unwrap();
+    assert_eq!((v["errors"][0]["code"].as_str(), v["errors"][0]["path"].as_str()), (Some("data.sha256_unchecked"), Some("data.sha256")), "{v}");
 }

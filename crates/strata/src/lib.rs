@@ -83,6 +83,12 @@ fn read_options(spec: &Spec, format: Option<spec::DataFormat>, delimiter: Option
 
 /// Read the table a spec asks for: inline `rows`, or the given bytes.
 pub fn load_table(spec: &Spec, data: Option<DataBytes>) -> Result<data::Table, Errors> {
+    load_table_with_digest(spec, data, None)
+}
+
+/// [`load_table`] with the host's SHA-256 of the bytes, which `data.sha256`
+/// is checked against ([`data::ReadOptions::digest`]).
+pub fn load_table_with_digest(spec: &Spec, data: Option<DataBytes>, digest: Option<[u8; 32]>) -> Result<data::Table, Errors> {
     let obj = spec.data.as_ref().map(|d| d.object()).unwrap_or_default();
     if let Some(d) = data {
         let format = obj.format.or_else(|| data::format_from_name(d.name));
@@ -93,7 +99,7 @@ pub fn load_table(spec: &Spec, data: Option<DataBytes>) -> Result<data::Table, E
             None if obj.format.is_none() && format == Some(spec::DataFormat::Csv) => Some(data::csv::sniff_delimiter(d.bytes)),
             None => None,
         };
-        return data::read(d.bytes, &read_options(spec, format, delimiter));
+        return data::read(d.bytes, &data::ReadOptions { digest, ..read_options(spec, format, delimiter) });
     }
     if let Some(rows) = &obj.rows {
         return data::from_rows(rows, &obj.types);
@@ -121,6 +127,7 @@ pub fn load_shapes(spec: &Spec, bytes: Option<DataBytes>) -> Result<Option<Vec<g
             .with_hint("give `shapes.url` (read by the host, like `data.url`) or inline `shapes.features`")
             .into());
     };
+    #[cfg(feature = "maps")]
     if let Some(want) = &s.sha256 {
         let got = data::sha256_hex(b.bytes);
         if got != want.trim().to_ascii_lowercase() {
@@ -170,13 +177,26 @@ pub fn render_spec(spec: &Spec, data: Option<DataBytes>, opts: &RenderOptions) -
 
 /// [`render_spec`] with the bytes of `shapes.url`, when the spec names one.
 pub fn render_spec_with_shapes(spec: &Spec, data: Option<DataBytes>, shapes: Option<DataBytes>, opts: &RenderOptions) -> Result<Rendered, Errors> {
+    render_spec_with_digest(spec, data, None, shapes, opts)
+}
+
+/// [`render_spec_with_shapes`] with the host's SHA-256 of the data bytes
+/// (the page's core engine, built without the `sha` feature, is handed it).
+pub fn render_spec_with_digest(
+    spec: &Spec,
+    data: Option<DataBytes>,
+    digest: Option<[u8; 32]>,
+    shapes: Option<DataBytes>,
+    opts: &RenderOptions,
+) -> Result<Rendered, Errors> {
     let has_bytes = data.is_some();
     let run = || {
         check_width(opts)?;
         core_refuses(spec)?;
         let shapes = load_shapes(spec, shapes)?;
         // A base map needs no table.
-        let table = if spec.data.is_none() && shapes.is_some() { data::from_rows(&[], &Default::default())? } else { load_table(spec, data)? };
+        let table =
+            if spec.data.is_none() && shapes.is_some() { data::from_rows(&[], &Default::default())? } else { load_table_with_digest(spec, data, digest)? };
         render_stages(spec, table, shapes, has_bytes, opts)
     };
     run().map_err(budget::cap_messages)

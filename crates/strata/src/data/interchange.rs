@@ -230,8 +230,7 @@ fn decode(b: &[u8]) -> Option<([u8; 32], Result<Table, Errors>)> {
 pub fn read(bytes: &[u8], opts: &ReadOptions) -> Result<Table, Errors> {
     let (sha, table) = decode(bytes).ok_or_else(damaged)?;
     if let Some(expected) = &opts.sha256 {
-        let hex: String = sha.iter().map(|b| format!("{b:02x}")).collect();
-        super::check_digest(&hex, expected)?;
+        super::check_digest(Some(&super::hex(&sha)), expected)?;
     }
     let table = table?;
     let max_rows = if opts.max_rows == 0 { DEFAULT_MAX_ROWS } else { opts.max_rows };

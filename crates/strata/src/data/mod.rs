@@ -42,6 +42,11 @@ pub struct ReadOptions {
     /// Expected hex SHA-256 of the bytes (`data.sha256`); checked before
     /// parsing.
     pub sha256: Option<String>,
+    /// The bytes' SHA-256 as the host computed it (the page, with the
+    /// browser's SubtleCrypto), which `sha256` is checked against; `None`:
+    /// computed here (the `sha` feature; without it the check fails with
+    /// `data.sha256_unchecked`, never skipped).
+    pub digest: Option<[u8; 32]>,
     /// Field delimiter for delimited text; `None`: comma for CSV, tab for
     /// TSV, sniffed when the format is not given.
     pub delimiter: Option<u8>,
@@ -62,6 +67,7 @@ impl Default for ReadOptions {
             format: None,
             types: IndexMap::new(),
             sha256: None,
+            digest: None,
             delimiter: None,
             null_tokens: columns::NULL_TOKENS.iter().map(|s| s.to_string()).collect(),
             decimal_comma: false,
@@ -95,7 +101,7 @@ pub fn read(bytes: &[u8], opts: &ReadOptions) -> Result<Table, Errors> {
             .into());
     }
     if let Some(expected) = &opts.sha256 {
-        check_sha256(bytes, expected)?;
+        check_sha256(bytes, expected, opts.digest)?;
     }
     let format = opts.format.unwrap_or_else(|| sniff(bytes));
     match format {
@@ -119,15 +125,25 @@ pub fn read(bytes: &[u8], opts: &ReadOptions) -> Result<Table, Errors> {
     }
 }
 
-/// SHA-256 of the bytes.
+/// Whether this build computes SHA-256 digests itself (the `sha` feature).
+pub const HAS_SHA256: bool = cfg!(feature = "sha");
+
+/// SHA-256 of the bytes (the `sha` feature; the page's core engine is
+/// handed the digest instead, [`ReadOptions::digest`]).
+#[cfg(feature = "sha")]
 pub fn sha256_bytes(bytes: &[u8]) -> [u8; 32] {
     use sha2::{Digest, Sha256};
     Sha256::digest(bytes).into()
 }
 
 /// Lower-case hex SHA-256 of the bytes.
+#[cfg(feature = "sha")]
 pub fn sha256_hex(bytes: &[u8]) -> String {
-    let digest = sha256_bytes(bytes);
+    hex(&sha256_bytes(bytes))
+}
+
+/// A digest in lower-case hex.
+pub(crate) fn hex(digest: &[u8; 32]) -> String {
     let mut s = String::with_capacity(64);
     for b in digest.iter() {
         s.push(char::from(b"0123456789abcdef"[(b >> 4) as usize]));
@@ -136,18 +152,34 @@ pub fn sha256_hex(bytes: &[u8]) -> String {
     s
 }
 
-fn check_sha256(bytes: &[u8], expected: &str) -> Result<(), Errors> {
-    check_digest(&sha256_hex(bytes), expected)
+/// Check `data.sha256` against the host's digest of the bytes, else ours.
+fn check_sha256(bytes: &[u8], expected: &str, host: Option<[u8; 32]>) -> Result<(), Errors> {
+    #[cfg(feature = "sha")]
+    let host = host.or_else(|| Some(sha256_bytes(bytes)));
+    #[cfg(not(feature = "sha"))]
+    let _ = bytes;
+    check_digest(host.map(|d| hex(&d)).as_deref(), expected)
 }
 
-/// Compare a lower-case hex digest with `data.sha256`.
-pub(crate) fn check_digest(got: &str, expected: &str) -> Result<(), Errors> {
+/// Compare a lower-case hex digest with `data.sha256`; `None`: the digest
+/// could not be computed (an engine without the `sha` feature whose page
+/// has no SubtleCrypto).
+pub(crate) fn check_digest(got: Option<&str>, expected: &str) -> Result<(), Errors> {
     let want = expected.trim().to_ascii_lowercase();
     if want.len() != 64 || !want.bytes().all(|b| b.is_ascii_hexdigit()) {
         return Err(Diagnostic::error("data.sha256_invalid", format!("`{expected}` is not a SHA-256 digest: expected 64 hexadecimal digits"))
             .at_path("data.sha256")
             .into());
     }
+    let Some(got) = got else {
+        return Err(Diagnostic::error(
+            "data.sha256_unchecked",
+            "this page cannot check the data's SHA-256 digest (`data.sha256`): the browser gives SubtleCrypto only to pages served over https or from localhost",
+        )
+        .at_path("data.sha256")
+        .with_hint("serve the page over https, or remove `data.sha256`")
+        .into());
+    };
     if got != want {
         return Err(Diagnostic::error(
             "data.sha256_mismatch",
@@ -214,12 +246,31 @@ mod tests {
     use super::*;
 
     #[test]
+    #[cfg(feature = "sha")]
     fn sha256_of_abc() {
         // FIPS 180-2 (2002), appendix B.1: SHA-256("abc").
         assert_eq!(sha256_hex(b"abc"), "ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad");
     }
 
     #[test]
+    fn the_hosts_digest_is_what_is_compared() {
+        // The page hands in SubtleCrypto's digest; the engine compares that,
+        // with the same messages as for its own.
+        let o = ReadOptions { sha256: Some("ab".repeat(32)), digest: Some([0xab; 32]), ..Default::default() };
+        assert!(read(b"a\n1\n", &o).is_ok());
+        let o = ReadOptions { digest: Some([0xcd; 32]), ..o };
+        let d = &read(b"a\n1\n", &o).unwrap_err().0[0];
+        assert_eq!((d.code.as_str(), d.at.path.as_str()), ("data.sha256_mismatch", "data.sha256"));
+        assert_eq!(d.message, format!("the data's SHA-256 digest is {}, but `data.sha256` expects {}; the data was refused", "cd".repeat(32), "ab".repeat(32)));
+        // No digest and none of our own: refused with its reason, never skipped.
+        let d = &check_digest(None, &"ab".repeat(32)).unwrap_err().0[0];
+        assert_eq!((d.code.as_str(), d.at.path.as_str()), ("data.sha256_unchecked", "data.sha256"));
+        assert!(d.message.contains("SubtleCrypto") && d.message.contains("https"), "{}", d.message);
+        assert_eq!(check_digest(None, "xyz").unwrap_err().0[0].code, "data.sha256_invalid");
+    }
+
+    #[test]
+    #[cfg(feature = "sha")]
     fn sha256_mismatch_shows_both_digests() {
         let o = ReadOptions { sha256: Some("0".repeat(64)), ..Default::default() };
         let e = read(b"a\n1\n", &o).unwrap_err();

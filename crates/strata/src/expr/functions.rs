@@ -163,8 +163,8 @@ pub fn call(name: &str, args: &[Expr], span: Span, env: &Env) -> Result<Col, Exp
             match c {
                 Col::Null => Ok(Col::Null),
                 // Full Unicode case mapping (Unicode default case conversion).
-                Col::Text(d) if name == "lower" => Ok(Col::Text(map_col(&d, n, |s| Some(s.to_lowercase())))),
-                Col::Text(d) if name == "upper" => Ok(Col::Text(map_col(&d, n, |s| Some(s.to_uppercase())))),
+                Col::Text(d) if name == "lower" => Ok(Col::Text(map_col(&d, n, |s| Some(crate::text::case::lower(s))))),
+                Col::Text(d) if name == "upper" => Ok(Col::Text(map_col(&d, n, |s| Some(crate::text::case::upper(s))))),
                 // Length in characters (Unicode scalar values), not bytes.
                 Col::Text(d) => Ok(Col::Int(map_col(&d, n, |s| Some(s.chars().count() as i64)))),
                 c => Err(type_err(&format!("{name}()"), "text", &c, args[0].span())),

@@ -169,11 +169,7 @@ pub fn describe(plan: &Plan) -> String {
     }
     let mut out = said.join(". ");
     out.push('.');
-    let mut c = out.chars();
-    match c.next() {
-        Some(f) => f.to_uppercase().collect::<String>() + c.as_str(),
-        None => out,
-    }
+    crate::text::case::capitalise_first(&out)
 }
 
 #[cfg(test)]

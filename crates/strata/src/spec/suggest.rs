@@ -5,10 +5,10 @@
 /// if it is close enough to be a likely typo: at most a third of the longer
 /// word's length, and at least 1.
 pub fn closest<'a>(word: &str, candidates: impl IntoIterator<Item = &'a str>) -> Option<&'a str> {
-    let w = word.to_lowercase();
+    let w = crate::text::case::lower(word);
     let mut best: Option<(usize, &'a str)> = None;
     for c in candidates {
-        let d = edit_distance(&w, &c.to_lowercase());
+        let d = edit_distance(&w, &crate::text::case::lower(c));
         let limit = (c.chars().count().max(word.chars().count()) / 3).max(1);
         if d <= limit && best.is_none_or(|(bd, _)| d < bd) {
             best = Some((d, c));

@@ -4,6 +4,8 @@
 //! `tests/reference/gen/font_metrics.py`. Kerning is not applied; Chromium's
 //! measurements of the same strings agree to a tenth of a pixel (test below).
 
+pub mod case;
+mod case_table;
 pub mod place;
 pub mod widths;
 
@@ -52,11 +54,7 @@ pub fn readable_name(name: &str) -> String {
     let spaced = name.replace('_', " ");
     let words: Vec<&str> = spaced.split_whitespace().collect();
     let joined = words.join(" ");
-    let mut chars = joined.chars();
-    match chars.next() {
-        Some(c) => c.to_uppercase().chain(chars).collect(),
-        None => String::new(),
-    }
+    case::capitalise_first(&joined)
 }
 
 /// Width in pixels of `text` at `size` px.
