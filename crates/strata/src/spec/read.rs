@@ -203,12 +203,31 @@ impl<T: Read> Read for Option<T> {
 impl<T: Read> Read for Vec<T> {
     fn read(v: &Value) -> Result<Self, String> {
         let a = v.as_array().ok_or_else(|| wrong(v, "a sequence"))?;
-        a.iter().enumerate().map(|(i, x)| T::read(x).map_err(|e| format!("[{i}]: {e}"))).collect()
+        // A plain loop: a `collect` into `Result` is a few generic
+        // functions per element type.
+        let mut out = Vec::with_capacity(a.len());
+        for (i, x) in a.iter().enumerate() {
+            match T::read(x) {
+                Ok(t) => out.push(t),
+                Err(e) => return Err(at_index(i, &e)),
+            }
+        }
+        Ok(out)
     }
     fn absent() -> Option<Self> {
         Some(Vec::new())
     }
     fallback_default!();
+}
+
+#[inline(never)]
+fn at_index(i: usize, e: &str) -> String {
+    format!("[{i}]: {e}")
+}
+
+#[inline(never)]
+fn at_key(k: &str, e: &str) -> String {
+    format!("{k}: {e}")
 }
 
 /// A map key: a column name, or a channel (the keys of `scales`).
@@ -231,7 +250,17 @@ impl ReadKey for Channel {
 impl<K: ReadKey, T: Read> Read for IndexMap<K, T> {
     fn read(v: &Value) -> Result<Self, String> {
         let o = v.as_object().ok_or_else(|| wrong(v, "a map"))?;
-        o.iter().map(|(k, x)| Ok((K::read_key(k)?, T::read(x).map_err(|e| format!("{k}: {e}"))?))).collect()
+        let mut out = IndexMap::with_capacity(o.len());
+        for (k, x) in o {
+            let key = K::read_key(k)?;
+            match T::read(x) {
+                Ok(t) => {
+                    out.insert(key, t);
+                }
+                Err(e) => return Err(at_key(k, &e)),
+            }
+        }
+        Ok(out)
     }
     fn absent() -> Option<Self> {
         Some(IndexMap::new())
