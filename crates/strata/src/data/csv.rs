@@ -7,8 +7,8 @@
 //! finds its line afterwards from the record's byte offset.
 
 use super::columns::{
-    build_noting, is_not_finite, note, parse_bool, parse_date, parse_datetime, parse_float, parse_int, type_word, unique_names, with_nan, CellError, CellRules,
-    NotFinite, TextColumn, EXPECT_BOOL, EXPECT_DATE,
+    build_noting, days_as_f64, ints_as_f64, is_not_finite, note, parse_bool, parse_date, parse_datetime, parse_float, parse_int, type_word, unique_names,
+    with_missing, with_nan, CellError, CellRules, NotFinite, TextColumn, EXPECT_BOOL, EXPECT_DATE,
 };
 use super::table::{Column, Ints};
 use super::{ReadOptions, Table};
@@ -305,10 +305,7 @@ fn tokenize(bytes: &[u8], delimiter: u8, max_rows: usize, names: &[String], forc
                     } else if let Some(f) = parse_float(cell, dc) {
                         // Integers convert to f64 exactly rounded, as their
                         // text would parse; only `-0` needs its sign back.
-                        let mut fv = vec![0.0; vals.len()];
-                        for (x, v) in fv.iter_mut().zip(vals.iter()) {
-                            *x = *v as f64;
-                        }
+                        let mut fv = ints_as_f64(vals);
                         for &i in neg_zero.iter() {
                             fv[i] = -0.0;
                         }
@@ -576,27 +573,9 @@ pub fn read(bytes: &[u8], delimiter: u8, opts: &ReadOptions) -> Result<Table, Er
         let col = match sink {
             Sink::Int { vals, nulls, .. } => Column::Int(Ints { values: vals, valid: nulls }),
             Sink::Float { vals, nulls } => Column::Float(with_nan(vals, nulls)),
-            Sink::Bool { vals, nulls } => {
-                let mut out = vec![None; vals.len()];
-                for (i, (o, b)) in out.iter_mut().zip(&vals).enumerate() {
-                    *o = nulls.as_ref().is_none_or(|m| m[i]).then_some(*b);
-                }
-                Column::Bool(out)
-            }
-            Sink::Date { vals, nulls } => {
-                let mut out = vec![0.0; vals.len()];
-                for (o, d) in out.iter_mut().zip(&vals) {
-                    *o = *d as f64;
-                }
-                Column::Date(with_nan(out, nulls))
-            }
-            Sink::DateTime { vals, nulls } => {
-                let mut out = vec![0.0; vals.len()];
-                for (o, x) in out.iter_mut().zip(&vals) {
-                    *o = *x as f64;
-                }
-                Column::DateTime(with_nan(out, nulls))
-            }
+            Sink::Bool { vals, nulls } => Column::Bool(with_missing(&vals, nulls.as_deref())),
+            Sink::Date { vals, nulls } => Column::Date(with_nan(days_as_f64(&vals), nulls)),
+            Sink::DateTime { vals, nulls } => Column::DateTime(with_nan(ints_as_f64(&vals), nulls)),
             Sink::Text(col) => {
                 let (col, o) = build_noting(col, forced[c], &rules).map_err(|e| cell_error(bytes, delimiter, name, c, forced[c], e))?;
                 odd = o;

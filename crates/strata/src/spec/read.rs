@@ -188,6 +188,7 @@ impl Read for [f64; 2] {
 }
 
 impl<T: Read> Read for Option<T> {
+    #[inline]
     fn read(v: &Value) -> Result<Self, String> {
         if v.is_null() {
             return Ok(None);
