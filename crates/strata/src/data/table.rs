@@ -210,13 +210,18 @@ impl Column {
     /// The parts one after another; `None` when their kinds differ (integers
     /// and numbers together become numbers).
     pub fn concat(parts: Vec<Column>) -> Option<Column> {
-        let kinds: Vec<Kind> = parts.iter().map(Column::kind).collect();
-        let first = *kinds.first()?;
-        let numbers = kinds.iter().all(|k| matches!(k, Kind::Int | Kind::Float));
+        let first = parts.first()?.kind();
+        let (mut numbers, mut same, mut any_float) = (true, true, false);
+        for p in &parts {
+            let k = p.kind();
+            numbers &= matches!(k, Kind::Int | Kind::Float);
+            same &= k == first;
+            any_float |= k == Kind::Float;
+        }
         if parts.len() == 1 {
             return parts.into_iter().next();
         }
-        if !kinds.iter().all(|k| *k == first) && !numbers {
+        if !same && !numbers {
             return None;
         }
         let nums = |parts: Vec<Column>| -> Nums {
@@ -224,14 +229,18 @@ impl Column {
             for p in parts {
                 match p {
                     Column::Float(v) | Column::Date(v) | Column::DateTime(v) => out.extend_from_slice(v.raw()),
-                    Column::Int(v) => out.extend(v.iter().map(|x| x.map(|x| x as f64).unwrap_or(f64::NAN))),
+                    Column::Int(v) => {
+                        for i in 0..v.len() {
+                            out.push(v.get(i).map_or(f64::NAN, |x| x as f64));
+                        }
+                    }
                     _ => {}
                 }
             }
             out.into()
         };
         Some(match first {
-            _ if numbers && kinds.contains(&Kind::Float) => Column::Float(nums(parts)),
+            _ if numbers && any_float => Column::Float(nums(parts)),
             Kind::Float => Column::Float(nums(parts)),
             Kind::Date => Column::Date(nums(parts)),
             Kind::DateTime => Column::DateTime(nums(parts)),

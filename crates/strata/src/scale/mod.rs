@@ -488,8 +488,8 @@ pub fn shorten(s: &str, max: usize) -> String {
     if s.chars().count() <= max {
         return s.to_string();
     }
-    let mut out: String = s.chars().take(max.saturating_sub(1)).collect();
-    out = out.trim_end().to_string();
+    let end = s.char_indices().nth(max.saturating_sub(1)).map_or(s.len(), |(i, _)| i);
+    let mut out = s[..end].trim_end().to_string();
     out.push('\u{2026}');
     out
 }

@@ -280,7 +280,13 @@ pub fn log_ticks(lo: f64, hi: f64, base: f64, wanted: usize) -> Vec<f64> {
     }
     // Multiples of each power: at most 19 of them, whatever the base (a
     // base of a million once asked for a million multiples a power).
-    let mults: Vec<f64> = if base == 10.0 { vec![1.0, 2.0, 5.0] } else { (1..base.min(20.0).ceil() as i64).map(|m| m as f64).collect::<Vec<f64>>() };
+    let mut mults = vec![1.0, 2.0, 5.0];
+    if base != 10.0 {
+        mults.clear();
+        for m in 1..base.min(20.0).ceil() as i64 {
+            mults.push(m as f64);
+        }
+    }
     let mut out = Vec::new();
     for e in e0..=e1 {
         let p = math::powi(base, e);
