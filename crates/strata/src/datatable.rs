@@ -58,7 +58,8 @@ fn cell(v: &Values, i: usize, pattern: Option<&str>, loc: &Locale) -> (String, b
 /// table lists the shapes, by the `shapes.key` property, and by their
 /// `name` property when they have one.
 fn shape_table(spec: &Spec, plan: &Plan, l: &PlannedLayer, out: &mut String) -> bool {
-    let Some(m) = &plan.map else { return false };
+    // (Without the `maps` feature a plan has no map: this is left out.)
+    let Some(m) = plan.map.as_ref().filter(|_| cfg!(feature = "maps")) else { return false };
     if l.geometry != crate::spec::Geometry::Region || l.data.get(Channel::Key).is_some() {
         return false;
     }
@@ -187,7 +188,9 @@ pub fn write(spec: &Spec, plan: &Plan) -> String {
     let what = spec.title.as_deref().map(|t| format!(": {t}")).unwrap_or_default();
     let mut out = format!("<details class=\"strata-data\"{open}><summary>Data table{}</summary>", escape(&what));
     for (k, l) in plan.layers.iter().enumerate() {
-        let base_map = |e: &PlannedLayer| plan.map.is_some() && e.geometry == crate::spec::Geometry::Region && e.data.get(Channel::Key).is_none();
+        let base_map = |e: &PlannedLayer| {
+            cfg!(feature = "maps") && plan.map.is_some() && e.geometry == crate::spec::Geometry::Region && e.data.get(Channel::Key).is_none()
+        };
         if plan.layers[..k].iter().any(|e| e.data == l.data && base_map(e) == base_map(l)) {
             continue;
         }
