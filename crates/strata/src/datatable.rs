@@ -58,7 +58,8 @@ fn cell(v: &Values, i: usize, pattern: Option<&str>, loc: &Locale) -> (String, b
 /// table lists the shapes, by the `shapes.key` property, and by their
 /// `name` property when they have one.
 fn shape_table(spec: &Spec, plan: &Plan, l: &PlannedLayer, out: &mut String) -> bool {
-    let Some(m) = &plan.map else { return false };
+    // (Without the `maps` feature a plan has no map: this is left out.)
+    let Some(m) = plan.map.as_ref().filter(|_| cfg!(feature = "maps")) else { return false };
     if l.geometry != crate::spec::Geometry::Region || l.data.get(Channel::Key).is_some() {
         return false;
     }
@@ -126,7 +127,12 @@ fn layer_table(spec: &Spec, plan: &Plan, l: &PlannedLayer, out: &mut String) {
         }
         cols.push((name, k, v));
     }
-    let tips: Vec<&(String, Values)> = d.tooltips.iter().filter(|(c, v)| v.len() == d.len && !d.names.values().any(|n| n == c)).collect();
+    let mut tips: Vec<&(String, Values)> = Vec::new();
+    for t in &d.tooltips {
+        if t.1.len() == d.len && !d.names.values().any(|n| *n == t.0) {
+            tips.push(t);
+        }
+    }
     let shown = d.len.min(MAX_ROWS);
     let rows = if d.len == 1 { "1 row".to_string() } else { format!("{} rows", format::value_label_in(d.len as f64, loc)) };
     let more = if d.len > shown { format!(", the first {} shown", format::value_label_in(shown as f64, loc)) } else { String::new() };
@@ -149,11 +155,15 @@ fn layer_table(spec: &Spec, plan: &Plan, l: &PlannedLayer, out: &mut String) {
         _ => None,
     };
     // Whole-number years print without grouping (see `plan::is_year_column`).
-    let col_years: Vec<bool> = cols.iter().map(|(_, ch, v)| d.names.get(ch).is_some_and(|n| crate::plan::is_year_column(n, v))).collect();
+    let mut patterns: Vec<Option<&str>> = Vec::with_capacity(cols.len());
+    for (_, ch, v) in &cols {
+        let year = d.names.get(ch).is_some_and(|n| crate::plan::is_year_column(n, v));
+        patterns.push(pattern(*ch).or(year.then_some(crate::plan::YEAR_PATTERN)));
+    }
     for i in 0..shown {
         out.push_str("<tr>");
-        for ((_, ch, v), year) in cols.iter().zip(&col_years) {
-            let (text, num) = cell(v, i, pattern(*ch).or(year.then_some(crate::plan::YEAR_PATTERN)), loc);
+        for ((_, _, v), p) in cols.iter().zip(&patterns) {
+            let (text, num) = cell(v, i, *p, loc);
             out.push_str(if num { "<td class=\"strata-num\">" } else { "<td>" });
             out.push_str(&escape(&text));
             out.push_str("</td>");
@@ -178,7 +188,9 @@ pub fn write(spec: &Spec, plan: &Plan) -> String {
     let what = spec.title.as_deref().map(|t| format!(": {t}")).unwrap_or_default();
     let mut out = format!("<details class=\"strata-data\"{open}><summary>Data table{}</summary>", escape(&what));
     for (k, l) in plan.layers.iter().enumerate() {
-        let base_map = |e: &PlannedLayer| plan.map.is_some() && e.geometry == crate::spec::Geometry::Region && e.data.get(Channel::Key).is_none();
+        let base_map = |e: &PlannedLayer| {
+            cfg!(feature = "maps") && plan.map.is_some() && e.geometry == crate::spec::Geometry::Region && e.data.get(Channel::Key).is_none()
+        };
         if plan.layers[..k].iter().any(|e| e.data == l.data && base_map(e) == base_map(l)) {
             continue;
         }

@@ -286,12 +286,13 @@ fn function(name: &str, inner: &str) -> Result<(), &'static str> {
         if !matches!(name, "rgb" | "rgba" | "hsl" | "hsla") {
             return Err(bad);
         }
-        let parts: Vec<&str> = inner.split(',').map(str::trim).collect();
-        if !(3..=4).contains(&parts.len()) {
+        let mut kinds = Vec::with_capacity(4);
+        for p in inner.split(',') {
+            kinds.push(token(p.trim()).ok_or(bad)?);
+        }
+        if !(3..=4).contains(&kinds.len()) {
             return Err(bad);
         }
-        let kinds: Option<Vec<Kind>> = parts.iter().map(|p| token(p)).collect();
-        let kinds = kinds.ok_or(bad)?;
         let ok_channels = if hue_at.is_some() {
             matches!(kinds[0], Number | Angle) && kinds[1] == Percent && kinds[2] == Percent
         } else {
@@ -305,11 +306,10 @@ fn function(name: &str, inner: &str) -> Result<(), &'static str> {
         Some((c, a)) => (c, Some(a.trim())),
         None => (inner, None),
     };
-    let parts: Vec<&str> = channels.split_whitespace().collect();
-    if parts.len() != 3 {
+    if channels.split_whitespace().count() != 3 {
         return Err(bad);
     }
-    for (i, p) in parts.iter().enumerate() {
+    for (i, p) in channels.split_whitespace().enumerate() {
         let k = token(p).ok_or(bad)?;
         let ok = if Some(i) == hue_at { matches!(k, Number | Angle | Missing) } else { matches!(k, Number | Percent | Missing) };
         if !ok {

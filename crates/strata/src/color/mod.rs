@@ -37,12 +37,16 @@ pub fn linear_to_srgb(c: f64) -> f64 {
 
 /// `#rrggbb` (or `#rgb`) to encoded sRGB 0..1.
 pub fn parse_hex(s: &str) -> Option<[f64; 3]> {
-    let h = s.strip_prefix('#')?;
-    let v: Vec<u8> = match h.len() {
-        6 => (0..3).map(|i| u8::from_str_radix(&h[2 * i..2 * i + 2], 16).ok()).collect::<Option<Vec<u8>>>()?,
-        3 => h.chars().map(|c| c.to_digit(16).map(|d| (d * 17) as u8)).collect::<Option<Vec<u8>>>()?,
-        _ => return None,
-    };
+    let h = s.strip_prefix('#')?.as_bytes();
+    let digit = |i: usize| (h[i] as char).to_digit(16);
+    let mut v = [0u32; 3];
+    for (i, x) in v.iter_mut().enumerate() {
+        *x = match h.len() {
+            6 => digit(2 * i)? * 16 + digit(2 * i + 1)?,
+            3 => digit(i)? * 17,
+            _ => return None,
+        };
+    }
     Some([v[0] as f64 / 255.0, v[1] as f64 / 255.0, v[2] as f64 / 255.0])
 }
 
@@ -159,10 +163,19 @@ pub fn simulate(rgb: [f64; 3], d: Deficiency) -> [f64; 3] {
 /// Smallest pairwise ΔE_OK among `colours` with normal vision and under
 /// each full deficiency.
 pub fn min_separation(colours: &[&str]) -> f64 {
-    let lin: Vec<[f64; 3]> = colours.iter().filter_map(|c| hex_to_linear(c)).collect();
+    let mut lin: Vec<[f64; 3]> = Vec::with_capacity(colours.len());
+    for c in colours {
+        if let Some(l) = hex_to_linear(c) {
+            lin.push(l);
+        }
+    }
     let mut worst = f64::INFINITY;
+    let mut labs: Vec<[f64; 3]> = Vec::with_capacity(lin.len());
     for d in [None, Some(Deficiency::Protan), Some(Deficiency::Deutan), Some(Deficiency::Tritan)] {
-        let labs: Vec<[f64; 3]> = lin.iter().map(|c| linear_to_oklab(d.map(|d| simulate(*c, d)).unwrap_or(*c))).collect();
+        labs.clear();
+        for c in &lin {
+            labs.push(linear_to_oklab(d.map(|d| simulate(*c, d)).unwrap_or(*c)));
+        }
         for i in 0..labs.len() {
             for j in i + 1..labs.len() {
                 worst = worst.min(delta_e_ok(labs[i], labs[j]));

@@ -7,8 +7,8 @@
 //! finds its line afterwards from the record's byte offset.
 
 use super::columns::{
-    build_noting, is_not_finite, note, parse_bool, parse_date, parse_datetime, parse_float, parse_int, type_word, unique_names, with_nan, CellError, CellRules,
-    NotFinite, TextColumn, EXPECT_BOOL, EXPECT_DATE,
+    build_noting, days_as_f64, ints_as_f64, is_not_finite, note, parse_bool, parse_date, parse_datetime, parse_float, parse_int, type_word, unique_names,
+    with_missing, with_nan, CellError, CellRules, NotFinite, TextColumn, EXPECT_BOOL, EXPECT_DATE,
 };
 use super::table::{Column, Ints};
 use super::{ReadOptions, Table};
@@ -218,15 +218,12 @@ fn header_record(bytes: &[u8], delimiter: u8) -> Option<Vec<Vec<u8>>> {
     let mut header = None;
     for_each_record(bytes, delimiter, |_, buf, ends| {
         let mut s = 0;
-        header = Some(
-            ends.iter()
-                .map(|&e| {
-                    let c = buf[s..e].to_vec();
-                    s = e;
-                    c
-                })
-                .collect(),
-        );
+        let mut cells = Vec::with_capacity(ends.len());
+        for &e in ends {
+            cells.push(buf[s..e].to_vec());
+            s = e;
+        }
+        header = Some(cells);
         false
     });
     header
@@ -275,15 +272,11 @@ fn tokenize(bytes: &[u8], delimiter: u8, max_rows: usize, names: &[String], forc
         }
         if sinks.is_empty() {
             let mut s = 0;
-            sinks = ends
-                .iter()
-                .enumerate()
-                .map(|(k, &e)| {
-                    let sink = first_sink(&buf[s..e], forced[k], rules, share);
-                    s = e;
-                    sink
-                })
-                .collect();
+            sinks = Vec::with_capacity(ends.len());
+            for (k, &e) in ends.iter().enumerate() {
+                sinks.push(first_sink(&buf[s..e], forced[k], rules, share));
+                s = e;
+            }
         }
         let mut s = 0;
         for (k, (sink, &e)) in sinks.iter_mut().zip(ends).enumerate() {
@@ -312,7 +305,7 @@ fn tokenize(bytes: &[u8], delimiter: u8, max_rows: usize, names: &[String], forc
                     } else if let Some(f) = parse_float(cell, dc) {
                         // Integers convert to f64 exactly rounded, as their
                         // text would parse; only `-0` needs its sign back.
-                        let mut fv: Vec<f64> = vals.iter().map(|v| *v as f64).collect();
+                        let mut fv = ints_as_f64(vals);
                         for &i in neg_zero.iter() {
                             fv[i] = -0.0;
                         }
@@ -374,7 +367,10 @@ fn tokenize(bytes: &[u8], delimiter: u8, max_rows: usize, names: &[String], forc
                     } else if let Some(t) = parse_datetime(cell) {
                         // Dates widen to date-times at midnight UTC, as
                         // columns::build does.
-                        let mut tv: Vec<i64> = vals.iter().map(|d| *d as i64 * 86_400_000).collect();
+                        let mut tv = vec![0i64; vals.len()];
+                        for (x, d) in tv.iter_mut().zip(vals.iter()) {
+                            *x = *d as i64 * 86_400_000;
+                        }
                         tv.push(t);
                         let mut n = nulls.take();
                         push_valid(&mut n);
@@ -424,12 +420,21 @@ fn tokenize(bytes: &[u8], delimiter: u8, max_rows: usize, names: &[String], forc
         return Err(Errors(errors));
     }
     if sinks.is_empty() {
-        sinks = (0..ncols).map(|_| Sink::Text(TextColumn::default())).collect();
+        sinks = Vec::with_capacity(ncols);
+        for _ in 0..ncols {
+            sinks.push(Sink::Text(TextColumn::default()));
+        }
     }
     // Second pass for columns whose guess failed: gather their text.
-    let redo: Vec<usize> = (0..ncols).filter(|k| matches!(sinks[*k], Sink::Redo)).collect();
+    let mut redo: Vec<usize> = Vec::new();
+    let mut cols: Vec<TextColumn> = Vec::new();
+    for (k, sink) in sinks.iter().enumerate() {
+        if matches!(sink, Sink::Redo) {
+            redo.push(k);
+            cols.push(TextColumn::default());
+        }
+    }
     if !redo.is_empty() {
-        let mut cols: Vec<TextColumn> = redo.iter().map(|_| TextColumn::default()).collect();
         let mut first = true;
         let mut too_large = false;
         for_each_record(bytes, delimiter, |_, buf, ends| {
@@ -548,23 +553,29 @@ pub fn read(bytes: &[u8], delimiter: u8, opts: &ReadOptions) -> Result<Table, Er
         }
     }
     let (names, notes) = unique_names(raw_names.clone());
-    let mut warnings: Vec<Diagnostic> = notes
-        .into_iter()
-        .zip(raw_names.iter().zip(&names).enumerate().filter(|(_, (r, n))| r != n).map(|(i, _)| i))
-        .map(|(n, i)| Diagnostic::warning("data.renamed_header", n).at_data(line_at(bytes, 0), Some(i as u64 + 1)))
-        .collect();
+    let mut warnings: Vec<Diagnostic> = Vec::with_capacity(notes.len());
+    let mut notes = notes.into_iter();
+    for (i, (r, n)) in raw_names.iter().zip(&names).enumerate() {
+        if r != n {
+            let Some(note) = notes.next() else { break };
+            warnings.push(Diagnostic::warning("data.renamed_header", note).at_data(line_at(bytes, 0), Some(i as u64 + 1)));
+        }
+    }
     warnings.extend(super::unknown_type_keys(&opts.types, &names));
     let rules = CellRules::new(&opts.null_tokens, opts.decimal_comma);
-    let forced: Vec<Option<ColumnType>> = names.iter().map(|n| opts.types.get(n).copied()).collect();
+    let mut forced: Vec<Option<ColumnType>> = Vec::with_capacity(names.len());
+    for n in &names {
+        forced.push(opts.types.get(n).copied());
+    }
     let Parsed { sinks, odd } = tokenize(bytes, delimiter, opts.max_rows, &names, &forced, &rules)?;
     let mut columns = Vec::with_capacity(names.len());
     for (c, ((sink, name), mut odd)) in sinks.into_iter().zip(&names).zip(odd).enumerate() {
         let col = match sink {
             Sink::Int { vals, nulls, .. } => Column::Int(Ints { values: vals, valid: nulls }),
             Sink::Float { vals, nulls } => Column::Float(with_nan(vals, nulls)),
-            Sink::Bool { vals, nulls } => Column::Bool(vals.into_iter().enumerate().map(|(i, b)| nulls.as_ref().is_none_or(|m| m[i]).then_some(b)).collect()),
-            Sink::Date { vals, nulls } => Column::Date(with_nan(vals.into_iter().map(|d| d as f64).collect(), nulls)),
-            Sink::DateTime { vals, nulls } => Column::DateTime(with_nan(vals.into_iter().map(|x| x as f64).collect(), nulls)),
+            Sink::Bool { vals, nulls } => Column::Bool(with_missing(&vals, nulls.as_deref())),
+            Sink::Date { vals, nulls } => Column::Date(with_nan(days_as_f64(&vals), nulls)),
+            Sink::DateTime { vals, nulls } => Column::DateTime(with_nan(ints_as_f64(&vals), nulls)),
             Sink::Text(col) => {
                 let (col, o) = build_noting(col, forced[c], &rules).map_err(|e| cell_error(bytes, delimiter, name, c, forced[c], e))?;
                 odd = o;

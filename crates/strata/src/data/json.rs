@@ -1,12 +1,12 @@
 //! JSON arrays of records (and the spec's inline `rows`) into table columns.
 
 use super::columns::{build_noting, type_word, unique_names, CellRules, TextColumn};
-use super::table::Column;
+use super::table::{Column, Ints, ValidBuilder};
 use super::{ReadOptions, Table};
 use crate::error::{Diagnostic, Errors};
 use crate::spec::ColumnType;
-use indexmap::IndexSet;
 use serde_json::{Map, Value};
+use std::collections::HashMap;
 
 pub fn read(bytes: &[u8], opts: &ReadOptions) -> Result<Table, Errors> {
     let bytes = bytes.strip_prefix(b"\xEF\xBB\xBF").unwrap_or(bytes);
@@ -61,29 +61,60 @@ pub fn from_records(rows: &[Map<String, Value>], opts: &ReadOptions) -> Result<T
     if rows.len() > opts.max_rows {
         return Err(too_many_rows(opts.max_rows));
     }
-    let mut names: IndexSet<&String> = IndexSet::new();
+    // The names in order of first appearance (a map of the same type as
+    // the category scale's index, so no hash table code of its own).
+    let mut names: Vec<String> = Vec::new();
+    let mut seen: HashMap<String, usize> = HashMap::new();
     for r in rows {
-        names.extend(r.keys());
+        for k in r.keys() {
+            if !seen.contains_key(k.as_str()) {
+                seen.insert(k.clone(), names.len());
+                names.push(k.clone());
+            }
+        }
     }
-    let names: Vec<String> = names.into_iter().cloned().collect();
     let (unique, notes) = unique_names(names.clone());
-    let mut warnings: Vec<Diagnostic> = notes.into_iter().map(|n| Diagnostic::warning("data.renamed_header", n)).collect();
+    let mut warnings = Vec::with_capacity(notes.len());
+    for n in notes {
+        warnings.push(Diagnostic::warning("data.renamed_header", n));
+    }
     warnings.extend(super::unknown_type_keys(&opts.types, &names));
     // JSON null (and the empty string) is missing; text keeps "NA" and the like.
     let rules = CellRules::new(&[""], false);
     let mut columns: Vec<Column> = Vec::new();
     for name in &names {
-        let vals: Vec<&Value> = rows.iter().map(|r| r.get(name).unwrap_or(&Value::Null)).collect();
+        let mut vals: Vec<&Value> = Vec::with_capacity(rows.len());
+        for r in rows {
+            vals.push(r.get(name).unwrap_or(&Value::Null));
+        }
         let forced = opts.types.get(name).copied();
         let any = vals.iter().any(|v| !v.is_null());
         let numbers = any && vals.iter().all(|v| v.is_number() || v.is_null());
         let bools = any && vals.iter().all(|v| v.is_boolean() || v.is_null());
         let col = if numbers && forced.is_none() && vals.iter().all(|v| v.is_null() || v.as_i64().is_some()) {
-            Column::Int(vals.iter().map(|v| v.as_i64()).collect())
+            let mut b = ValidBuilder::default();
+            let mut values = Vec::with_capacity(vals.len());
+            for v in &vals {
+                let x = v.as_i64();
+                match x {
+                    Some(_) => b.valid(),
+                    None => b.missing(values.len()),
+                }
+                values.push(x.unwrap_or(0));
+            }
+            Column::Int(Ints { values, valid: b.finish() })
         } else if numbers && matches!(forced, None | Some(ColumnType::Number)) {
-            Column::Float(vals.iter().map(|v| v.as_f64()).collect())
+            let mut out = Vec::with_capacity(vals.len());
+            for v in &vals {
+                out.push(v.as_f64().unwrap_or(f64::NAN));
+            }
+            Column::Float(out.into())
         } else if bools && matches!(forced, None | Some(ColumnType::Bool)) {
-            Column::Bool(vals.iter().map(|v| v.as_bool()).collect())
+            let mut out = Vec::with_capacity(vals.len());
+            for v in &vals {
+                out.push(v.as_bool());
+            }
+            Column::Bool(out)
         } else {
             let mut col = TextColumn::default();
             for v in &vals {

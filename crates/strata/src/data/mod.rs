@@ -206,14 +206,16 @@ fn sniff(bytes: &[u8]) -> DataFormat {
 
 /// Warnings for `data.types` keys that name no column.
 pub(crate) fn unknown_type_keys(types: &IndexMap<String, ColumnType>, names: &[String]) -> Vec<Diagnostic> {
-    types
-        .keys()
-        .filter(|k| !names.iter().any(|n| n == *k))
-        .map(|k| {
-            Diagnostic::warning("data.unknown_type_column", format!("`data.types` names column `{k}`, which the data does not have"))
-                .at_path(format!("data.types.{k}"))
-        })
-        .collect()
+    let mut out = Vec::new();
+    for k in types.keys() {
+        if !names.contains(k) {
+            out.push(
+                Diagnostic::warning("data.unknown_type_column", format!("`data.types` names column `{k}`, which the data does not have"))
+                    .at_path(format!("data.types.{k}")),
+            );
+        }
+    }
+    out
 }
 
 /// Apply the `data.types` overrides to a table read from typed data

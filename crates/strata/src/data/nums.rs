@@ -65,11 +65,21 @@ impl Nums {
         (lo <= hi).then_some((lo, hi))
     }
     pub fn map(&self, f: impl Fn(f64) -> f64) -> Nums {
-        self.iter().map(|x| x.map(&f)).collect()
+        let mut v = Vec::with_capacity(self.len());
+        for &x in self.raw() {
+            v.push(if x.is_finite() { f(x) } else { f64::NAN });
+        }
+        v.into()
     }
     /// The rows where `keep` is true.
     pub fn filter(&self, keep: &[bool]) -> Nums {
-        self.raw().iter().zip(keep).filter(|(_, k)| **k).map(|(x, _)| *x).collect::<Vec<f64>>().into()
+        let mut v = Vec::new();
+        for (x, k) in self.raw().iter().zip(keep) {
+            if *k {
+                v.push(*x);
+            }
+        }
+        v.into()
     }
 }
 
@@ -82,13 +92,19 @@ impl std::fmt::Debug for Nums {
 /// Equal when the same rows are missing and the present values are equal.
 impl PartialEq for Nums {
     fn eq(&self, other: &Nums) -> bool {
-        self.len() == other.len() && self.iter().eq(other.iter())
+        self.len() == other.len() && self.raw().iter().zip(other.raw()).all(|(x, y)| if x.is_finite() { x == y } else { !y.is_finite() })
     }
 }
 
 impl FromIterator<Option<f64>> for Nums {
     fn from_iter<I: IntoIterator<Item = Option<f64>>>(it: I) -> Nums {
-        it.into_iter().map(|x| x.unwrap_or(f64::NAN)).collect::<Vec<f64>>().into()
+        // A plain loop: one function per iterator type (a `collect` is four).
+        let it = it.into_iter();
+        let mut v = Vec::with_capacity(it.size_hint().0);
+        for x in it {
+            v.push(x.unwrap_or(f64::NAN));
+        }
+        v.into()
     }
 }
 

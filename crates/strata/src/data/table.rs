@@ -136,8 +136,14 @@ impl Column {
     }
     /// The rows where `keep` is true.
     pub fn filter(&self, keep: &[bool]) -> Column {
-        fn pick<T: Clone>(v: &[T], keep: &[bool]) -> Vec<T> {
-            v.iter().zip(keep).filter(|(_, k)| **k).map(|(x, _)| x.clone()).collect()
+        fn pick<T: Copy>(v: &[T], keep: &[bool]) -> Vec<T> {
+            let mut out = Vec::new();
+            for (x, k) in v.iter().zip(keep) {
+                if *k {
+                    out.push(*x);
+                }
+            }
+            out
         }
         match self {
             Column::Int(v) => Column::Int(Ints { values: pick(&v.values, keep), valid: v.valid.as_ref().map(|m| pick(m, keep)) }),
@@ -156,26 +162,66 @@ impl Column {
     pub fn take(&self, idx: &[Option<usize>]) -> Column {
         let n = self.len();
         let at = |i: &Option<usize>| i.filter(|i| *i < n);
+        let nums = |v: &Nums| {
+            let mut out = Vec::with_capacity(idx.len());
+            for i in idx {
+                out.push(at(i).and_then(|i| v.get(i)).unwrap_or(f64::NAN));
+            }
+            Nums::from(out)
+        };
         match self {
-            Column::Int(v) => Column::Int(idx.iter().map(|i| at(i).and_then(|i| v.get(i))).collect()),
-            Column::Float(v) => Column::Float(idx.iter().map(|i| at(i).and_then(|i| v.get(i))).collect()),
-            Column::Date(v) => Column::Date(idx.iter().map(|i| at(i).and_then(|i| v.get(i))).collect()),
-            Column::DateTime(v) => Column::DateTime(idx.iter().map(|i| at(i).and_then(|i| v.get(i))).collect()),
-            Column::Bool(v) => Column::Bool(idx.iter().map(|i| at(i).and_then(|i| v[i])).collect()),
-            Column::Text(v) => Column::Text(idx.iter().map(|i| at(i).and_then(|i| v.get(i))).collect()),
+            Column::Int(v) => {
+                let mut b = ValidBuilder::default();
+                let mut values = Vec::with_capacity(idx.len());
+                for i in idx {
+                    match at(i).and_then(|i| v.get(i)) {
+                        Some(x) => {
+                            values.push(x);
+                            b.valid();
+                        }
+                        None => {
+                            b.missing(values.len());
+                            values.push(0);
+                        }
+                    }
+                }
+                Column::Int(Ints { values, valid: b.finish() })
+            }
+            Column::Float(v) => Column::Float(nums(v)),
+            Column::Date(v) => Column::Date(nums(v)),
+            Column::DateTime(v) => Column::DateTime(nums(v)),
+            Column::Bool(v) => {
+                let mut out = Vec::with_capacity(idx.len());
+                for i in idx {
+                    out.push(at(i).and_then(|i| v[i]));
+                }
+                Column::Bool(out)
+            }
+            Column::Text(v) => {
+                let mut b = TextBuilder::default();
+                for i in idx {
+                    b.push(at(i).and_then(|i| v.get(i)).map(str::as_bytes));
+                }
+                Column::Text(b.finish())
+            }
         }
     }
 
     /// The parts one after another; `None` when their kinds differ (integers
     /// and numbers together become numbers).
     pub fn concat(parts: Vec<Column>) -> Option<Column> {
-        let kinds: Vec<Kind> = parts.iter().map(Column::kind).collect();
-        let first = *kinds.first()?;
-        let numbers = kinds.iter().all(|k| matches!(k, Kind::Int | Kind::Float));
+        let first = parts.first()?.kind();
+        let (mut numbers, mut same, mut any_float) = (true, true, false);
+        for p in &parts {
+            let k = p.kind();
+            numbers &= matches!(k, Kind::Int | Kind::Float);
+            same &= k == first;
+            any_float |= k == Kind::Float;
+        }
         if parts.len() == 1 {
             return parts.into_iter().next();
         }
-        if !kinds.iter().all(|k| *k == first) && !numbers {
+        if !same && !numbers {
             return None;
         }
         let nums = |parts: Vec<Column>| -> Nums {
@@ -183,19 +229,52 @@ impl Column {
             for p in parts {
                 match p {
                     Column::Float(v) | Column::Date(v) | Column::DateTime(v) => out.extend_from_slice(v.raw()),
-                    Column::Int(v) => out.extend(v.iter().map(|x| x.map(|x| x as f64).unwrap_or(f64::NAN))),
+                    Column::Int(v) => {
+                        for i in 0..v.len() {
+                            out.push(v.get(i).map_or(f64::NAN, |x| x as f64));
+                        }
+                    }
                     _ => {}
                 }
             }
             out.into()
         };
         Some(match first {
-            _ if numbers && kinds.contains(&Kind::Float) => Column::Float(nums(parts)),
+            _ if numbers && any_float => Column::Float(nums(parts)),
             Kind::Float => Column::Float(nums(parts)),
             Kind::Date => Column::Date(nums(parts)),
             Kind::DateTime => Column::DateTime(nums(parts)),
-            Kind::Int => Column::Int(parts.iter().flat_map(|p| if let Column::Int(v) = p { v.iter().collect::<Vec<_>>() } else { vec![] }).collect()),
-            Kind::Bool => Column::Bool(parts.into_iter().flat_map(|p| if let Column::Bool(v) = p { v } else { vec![] }).collect()),
+            Kind::Int => {
+                let mut out = Ints::default();
+                let mut b = ValidBuilder::default();
+                for p in &parts {
+                    if let Column::Int(v) = p {
+                        for i in 0..v.len() {
+                            match v.get(i) {
+                                Some(x) => {
+                                    b.valid();
+                                    out.values.push(x);
+                                }
+                                None => {
+                                    b.missing(out.values.len());
+                                    out.values.push(0);
+                                }
+                            }
+                        }
+                    }
+                }
+                out.valid = b.finish();
+                Column::Int(out)
+            }
+            Kind::Bool => {
+                let mut out = Vec::new();
+                for p in parts {
+                    if let Column::Bool(v) = p {
+                        out.extend_from_slice(&v);
+                    }
+                }
+                Column::Bool(out)
+            }
             Kind::Text => {
                 let mut b = TextBuilder::default();
                 for p in &parts {

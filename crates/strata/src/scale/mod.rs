@@ -235,7 +235,7 @@ impl PositionScale {
             return (t, step);
         }
         let k = t.len().div_ceil(MAX_TICKS);
-        (t.into_iter().step_by(k).collect(), TickStep::Varied)
+        (ticks::every_kth(t, k), TickStep::Varied)
     }
 
     fn tick_values_unbounded(&self, wanted: usize) -> (Vec<f64>, TickStep) {
@@ -244,27 +244,27 @@ impl PositionScale {
         if let Some(m) = marks {
             // Chosen ticks: those inside the domain, whatever the room (`wanted` is not asked).
             let tol = 1e-9 * (b - a).abs();
-            let mut t: Vec<f64> = m.iter().copied().filter(|v| v.is_finite() && *v >= a - tol && *v <= b + tol).collect();
+            let mut t = ticks::kept(m.to_vec(), &|v| v.is_finite() && v >= a - tol && v <= b + tol);
             t.sort_by(f64::total_cmp);
             t.dedup();
             if *time {
                 return (t, TickStep::Chosen);
             }
-            let gaps: Vec<f64> = t.windows(2).map(|w| w[1] - w[0]).collect();
-            let even = gaps.first().is_some_and(|g| gaps.iter().all(|h| (h - g).abs() <= 1e-9 * g.abs()));
-            return (t, if even { TickStep::Even(gaps[0]) } else { TickStep::Varied });
+            let even = t.len() > 1 && t.windows(2).all(|w| ((w[1] - w[0]) - (t[1] - t[0])).abs() <= 1e-9 * (t[1] - t[0]).abs());
+            let step = if even { TickStep::Even(t[1] - t[0]) } else { TickStep::Varied };
+            return (t, step);
         }
         if *time {
             let (t, unit, n) = ticks::time_ticks(a, b, wanted);
             return (t, TickStep::Time(unit, n));
         }
-        let inside = |v: &f64| *v >= a - 1e-9 * (b - a).abs() && *v <= b + 1e-9 * (b - a).abs();
+        let inside = |v: f64| v >= a - 1e-9 * (b - a).abs() && v <= b + 1e-9 * (b - a).abs();
         match transform {
             Transform::Log { base } => (ticks::log_ticks(a, b, *base, wanted), TickStep::Varied),
             Transform::Symlog { constant } if b - a > 0.0 => {
                 let span = transform.apply(b).unwrap_or(0.0) - transform.apply(a).unwrap_or(0.0);
                 if span < 3.0 {
-                    let t: Vec<f64> = ticks::extended_axis(a, b, wanted, false).into_iter().filter(inside).collect();
+                    let t = ticks::kept(ticks::extended_axis(a, b, wanted, false), &inside);
                     let step = if t.len() > 1 { t[1] - t[0] } else { 1.0 };
                     return (t, TickStep::Even(step));
                 }
@@ -276,17 +276,17 @@ impl PositionScale {
                         continue;
                     }
                     for v in [-p, p] {
-                        if inside(&v) {
+                        if inside(v) {
                             t.push(v);
                         }
                     }
                 }
-                if inside(&0.0) {
+                if inside(0.0) {
                     t.push(0.0);
                 }
                 t.sort_by(f64::total_cmp);
                 let k = t.len().div_ceil(wanted.max(2)).max(1);
-                (t.into_iter().enumerate().filter(|(i, _)| i % k == 0).map(|(_, v)| v).collect(), TickStep::Varied)
+                (ticks::every_kth(t, k), TickStep::Varied)
             }
             _ => {
                 if let Some(s) = fixed.filter(|s| *s > 0.0) {
@@ -311,10 +311,13 @@ impl PositionScale {
                         }
                     }
                     let start = z.map_or(0, |z| z % k);
-                    let t: Vec<f64> = (start..=n).step_by(k).map(|i| ticks::clean(a + i as f64 * s, s)).collect();
+                    let mut t = Vec::new();
+                    for i in (start..=n).step_by(k) {
+                        t.push(ticks::clean(a + i as f64 * s, s));
+                    }
                     return (t, TickStep::Even(s * k as f64));
                 }
-                let t: Vec<f64> = ticks::extended_axis(a, b, wanted, false).into_iter().filter(inside).collect();
+                let t = ticks::kept(ticks::extended_axis(a, b, wanted, false), &inside);
                 let step = if t.len() > 1 { t[1] - t[0] } else { (b - a).abs().max(1.0) };
                 (t, TickStep::Even(step))
             }
@@ -333,7 +336,7 @@ impl PositionScale {
                         (None, TickStep::Chosen) => default_time_pattern(chosen_unit(&vals), &vals, o.locale, o.short),
                         _ => "yyyy-MM-dd".to_string(),
                     };
-                    let mut labels: Vec<String> = vals.iter().map(|v| format::date(*v, &pattern, o.locale)).collect();
+                    let mut labels = labels_of(&vals, &|v| format::date(v, &pattern, o.locale));
                     // Month ticks: the first label and each January also name the year.
                     if o.pattern.is_none() && pattern == "MMM" {
                         for (k, (l, v)) in labels.iter_mut().zip(&vals).enumerate() {
@@ -346,14 +349,25 @@ impl PositionScale {
                 } else {
                     number_labels(&vals, step, o)
                 };
-                vals.iter().zip(labels).map(|(v, label)| Tick { unit: self.unit_num(*v).unwrap_or(0.0), value: *v, label }).collect()
+                let mut out = Vec::with_capacity(vals.len());
+                for (v, label) in vals.iter().zip(labels) {
+                    out.push(Tick { unit: self.unit_num(*v).unwrap_or(0.0), value: *v, label });
+                }
+                out
             }
-            PositionScale::Category { values, marks, .. } => values
-                .iter()
-                .enumerate()
-                .filter(|(_, v)| marks.as_ref().is_none_or(|m| m.contains(*v)))
-                .map(|(i, v)| Tick { unit: (i as f64 + 0.5) / values.len() as f64, value: i as f64, label: if o.short { shorten(v, 10) } else { v.clone() } })
-                .collect(),
+            PositionScale::Category { values, marks, .. } => {
+                let mut out = Vec::new();
+                for (i, v) in values.iter().enumerate() {
+                    if marks.as_ref().is_none_or(|m| m.contains(v)) {
+                        out.push(Tick {
+                            unit: (i as f64 + 0.5) / values.len() as f64,
+                            value: i as f64,
+                            label: if o.short { shorten(v, 10) } else { v.clone() },
+                        });
+                    }
+                }
+                out
+            }
         }
     }
 }
@@ -371,12 +385,19 @@ enum TickStep {
 /// The calendar unit chosen dates fall on: years when each is 1 January,
 /// months when each is the 1st, else days (for the default label pattern).
 fn chosen_unit(vals: &[f64]) -> TimeUnit {
-    let days: Vec<format::Civil> = vals.iter().map(|v| format::civil(*v)).collect();
-    if days.iter().all(|c| c.month == 1 && c.day == 1 && c.hour == 0 && c.minute == 0) {
+    let (mut years, mut months, mut days) = (true, true, true);
+    for v in vals {
+        let c = format::civil(*v);
+        let midnight = c.hour == 0 && c.minute == 0;
+        days &= midnight;
+        months &= midnight && c.day == 1;
+        years &= midnight && c.day == 1 && c.month == 1;
+    }
+    if years {
         TimeUnit::Year
-    } else if days.iter().all(|c| c.day == 1 && c.hour == 0 && c.minute == 0) {
+    } else if months {
         TimeUnit::Month
-    } else if days.iter().all(|c| c.hour == 0 && c.minute == 0) {
+    } else if days {
         TimeUnit::Day
     } else {
         TimeUnit::Minute
@@ -385,13 +406,13 @@ fn chosen_unit(vals: &[f64]) -> TimeUnit {
 
 fn number_labels(vals: &[f64], step: TickStep, o: &TickOptions) -> Vec<String> {
     if let Some(p) = o.pattern {
-        return vals.iter().map(|v| format::number(*v, p, o.locale)).collect();
+        return labels_of(vals, &|v| format::number(v, p, o.locale));
     }
     let biggest = vals.iter().fold(0.0f64, |m, v| m.max(v.abs()));
     if o.short || biggest >= 1e6 {
         // Compact forms with the fewest decimals that keep labels apart.
         for fd in 0..=3 {
-            let l: Vec<String> = vals.iter().map(|v| format::compact(*v, fd, o.locale)).collect();
+            let l = labels_of(vals, &|v| format::compact(v, fd, o.locale));
             let distinct = l.windows(2).all(|w| w[0] != w[1]);
             if distinct {
                 return l;
@@ -403,30 +424,41 @@ fn number_labels(vals: &[f64], step: TickStep, o: &TickOptions) -> Vec<String> {
             // As many decimals as the step needs, and more if a labelling is
             // offset from it (2.5, 7.5, 12.5 are 5 apart: without this they
             // printed "2", "8", "12", found in a user trial).
-            let d = vals.iter().map(|v| format::step_decimals(v.abs())).chain([format::step_decimals(s)]).max().unwrap_or(0);
+            let d = max_decimals(vals).max(format::step_decimals(s));
             format::default_pattern(math::powi(10.0, -(d as i32)))
         }
         _ => {
             // Uneven steps (log, symlog): each label as many decimals as it needs.
-            let d = vals.iter().map(|v| format::step_decimals(v.abs())).max().unwrap_or(0);
+            let d = max_decimals(vals);
             format::default_pattern(math::powi(10.0, -(d as i32)))
         }
     };
-    vals.iter().map(|v| format::number(*v, &pattern, o.locale)).collect()
+    labels_of(vals, &|v| format::number(v, &pattern, o.locale))
+}
+
+/// One label per value (one function for every labelling).
+fn labels_of(vals: &[f64], label: &dyn Fn(f64) -> String) -> Vec<String> {
+    let mut out = Vec::with_capacity(vals.len());
+    for v in vals {
+        out.push(label(*v));
+    }
+    out
+}
+
+/// The most decimals a value of `vals` needs (0 for none).
+fn max_decimals(vals: &[f64]) -> usize {
+    let mut d = 0;
+    for v in vals {
+        d = d.max(format::step_decimals(v.abs()));
+    }
+    d
 }
 
 /// Default date pattern for ticks of a calendar unit.
 fn default_time_pattern(unit: TimeUnit, vals: &[f64], loc: &Locale, short: bool) -> String {
-    let years: Vec<i64> = vals.iter().map(|v| format::civil(*v).year).collect();
-    let many_years = years.first() != years.last();
-    let days: Vec<(i64, u32, u32)> = vals
-        .iter()
-        .map(|v| {
-            let c = format::civil(*v);
-            (c.year, c.month, c.day)
-        })
-        .collect();
-    let many_days = days.first() != days.last();
+    let ends = vals.first().zip(vals.last()).map(|(a, b)| (format::civil(*a), format::civil(*b)));
+    let many_years = ends.is_some_and(|(a, b)| a.year != b.year);
+    let many_days = ends.is_some_and(|(a, b)| (a.year, a.month, a.day) != (b.year, b.month, b.day));
     match unit {
         TimeUnit::Year => {
             if short {
@@ -456,8 +488,8 @@ pub fn shorten(s: &str, max: usize) -> String {
     if s.chars().count() <= max {
         return s.to_string();
     }
-    let mut out: String = s.chars().take(max.saturating_sub(1)).collect();
-    out = out.trim_end().to_string();
+    let end = s.char_indices().nth(max.saturating_sub(1)).map_or(s.len(), |(i, _)| i);
+    let mut out = s[..end].trim_end().to_string();
     out.push('\u{2026}');
     out
 }
@@ -486,7 +518,7 @@ impl SizeScale {
     /// spread from small to the largest.
     pub fn legend_values(&self) -> Vec<f64> {
         let t = ticks::extended(self.lo, self.hi, 5, false);
-        let v: Vec<f64> = t.into_iter().filter(|x| *x > self.lo && *x <= self.hi * (1.0 + 1e-9)).collect();
+        let v = ticks::kept(t, &|x| x > self.lo && x <= self.hi * (1.0 + 1e-9));
         if v.len() <= 3 {
             return v;
         }

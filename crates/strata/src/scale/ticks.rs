@@ -57,10 +57,41 @@ pub fn nice_ticks(lo: f64, hi: f64, wanted: usize) -> Vec<f64> {
     let start = (lo / step).floor();
     let end = (hi / step).ceil();
     let n = (end - start) as i64;
-    (0..=n).map(|k| clean((start + k as f64) * step, step)).collect()
+    let mut t = Vec::with_capacity(n.max(0) as usize + 1);
+    for k in 0..=n {
+        t.push(clean((start + k as f64) * step, step));
+    }
+    t
 }
 
 /// Round away binary noise such as 0.30000000000000004.
+/// `lmin + i * step` for i in 0..=n, each [`clean`]ed.
+fn steps(lmin: f64, step: f64, n: i64) -> Vec<f64> {
+    let mut t = Vec::with_capacity(n.max(0) as usize + 1);
+    for i in 0..=n {
+        t.push(clean(lmin + i as f64 * step, step));
+    }
+    t
+}
+
+/// `v` without the values `keep` refuses (one function for every filter
+/// of tick values).
+pub(crate) fn kept(mut v: Vec<f64>, keep: &dyn Fn(f64) -> bool) -> Vec<f64> {
+    v.retain(|x| keep(*x));
+    v
+}
+
+/// Every k-th value of `v`, from the first.
+pub(crate) fn every_kth(v: Vec<f64>, k: usize) -> Vec<f64> {
+    let mut out = Vec::with_capacity(v.len() / k.max(1) + 1);
+    for (i, x) in v.into_iter().enumerate() {
+        if i % k == 0 {
+            out.push(x);
+        }
+    }
+    out
+}
+
 pub fn clean(v: f64, step: f64) -> f64 {
     let digits = (-math::log10(step).floor()).max(0.0) as i32 + 2;
     let p = math::powi(10.0, digits.min(15));
@@ -206,7 +237,7 @@ pub fn extended(dmin: f64, dmax: f64, m: usize, only_loose: bool) -> Vec<f64> {
     }
     let Some((lmin, lmax, step)) = extended_params(dmin, dmax, m, only_loose) else { return vec![] };
     let n = ((lmax - lmin) / step).round() as i64;
-    (0..=n).map(|i| clean(lmin + i as f64 * step, step)).collect()
+    steps(lmin, step, n)
 }
 
 /// [`extended`] for a value axis: when the data span zero (below and above
@@ -218,7 +249,7 @@ pub fn extended_axis(dmin: f64, dmax: f64, m: usize, only_loose: bool) -> Vec<f6
     }
     let Some((lmin, lmax, step)) = search(dmin, dmax, m, only_loose, true) else { return extended(dmin, dmax, m, only_loose) };
     let n = ((lmax - lmin) / step).round() as i64;
-    (0..=n).map(|i| clean(lmin + i as f64 * step, step)).collect()
+    steps(lmin, step, n)
 }
 
 // ---------------------------------------------------------------- log
@@ -235,15 +266,27 @@ pub fn log_ticks(lo: f64, hi: f64, base: f64, wanted: usize) -> Vec<f64> {
     let e0 = (math::ln(lo) / lb - 1e-9).floor() as i32;
     let e1 = (math::ln(hi) / lb + 1e-9).ceil() as i32;
     let inside = |v: f64| v >= lo * (1.0 - 1e-9) && v <= hi * (1.0 + 1e-9);
-    let powers: Vec<f64> = (e0..=e1).map(|e| math::powi(base, e)).filter(|v| inside(*v)).collect();
+    let mut powers = Vec::new();
+    for e in e0..=e1 {
+        let v = math::powi(base, e);
+        if inside(v) {
+            powers.push(v);
+        }
+    }
     let wanted = wanted.max(2);
     if powers.len() >= 3 {
         let k = powers.len().div_ceil(wanted).max(1);
-        return powers.into_iter().enumerate().filter(|(i, _)| i % k == 0).map(|(_, v)| v).collect();
+        return every_kth(powers, k);
     }
     // Multiples of each power: at most 19 of them, whatever the base (a
     // base of a million once asked for a million multiples a power).
-    let mults: Vec<f64> = if base == 10.0 { vec![1.0, 2.0, 5.0] } else { (1..base.min(20.0).ceil() as i64).map(|m| m as f64).collect() };
+    let mut mults = vec![1.0, 2.0, 5.0];
+    if base != 10.0 {
+        mults.clear();
+        for m in 1..base.min(20.0).ceil() as i64 {
+            mults.push(m as f64);
+        }
+    }
     let mut out = Vec::new();
     for e in e0..=e1 {
         let p = math::powi(base, e);
@@ -256,7 +299,7 @@ pub fn log_ticks(lo: f64, hi: f64, base: f64, wanted: usize) -> Vec<f64> {
     }
     if out.len() < 2 {
         // A range within one power of the base: fall back to linear ticks.
-        return extended(lo, hi, wanted, false).into_iter().filter(|v| inside(*v)).collect();
+        return kept(extended(lo, hi, wanted, false), &inside);
     }
     out
 }

@@ -60,27 +60,31 @@ impl<'a> Obj<'a> {
     /// Keep the first error (one function for every type: it is large).
     #[cold]
     #[inline(never)]
-    fn note(&self, key: &str, e: &str) {
+    fn note(&self, key: &str, e: String) {
         self.error.borrow_mut().get_or_insert_with(|| format!("{key}: {e}"));
     }
 
-    fn fail<T: Read>(&self, key: &str, e: &str) -> T {
-        self.note(key, e);
-        T::fallback()
+    /// The value read, or the type's stand-in after noting the error (one
+    /// error path a type, so each `get` instance stays small).
+    fn fail<T: Read>(&self, key: &str, r: Result<T, String>) -> T {
+        match r {
+            Ok(t) => t,
+            Err(e) => {
+                self.note(key, e);
+                T::fallback()
+            }
+        }
     }
 
     /// A key whose type says what its absence means (`Option`, `Vec`, maps:
     /// empty); any other type is required.
     #[inline(never)]
     pub fn get<T: Read>(&self, key: &str) -> T {
-        match self.value(key).map(T::read) {
-            Some(Ok(t)) => t,
-            Some(Err(e)) => self.fail(key, &e),
-            None => match T::absent() {
-                Some(t) => t,
-                None => self.fail(key, "missing field"),
-            },
-        }
+        let r = match self.value(key) {
+            Some(v) => T::read(v),
+            None => T::absent().ok_or_else(missing),
+        };
+        self.fail(key, r)
     }
 
     /// A key whose absence means the type's default.
@@ -92,9 +96,8 @@ impl<'a> Obj<'a> {
     /// A key whose absence means `default`.
     #[inline(never)]
     pub fn or<T: Read>(&self, key: &str, default: T) -> T {
-        match self.value(key).map(T::read) {
-            Some(Ok(t)) => t,
-            Some(Err(e)) => self.fail(key, &e),
+        match self.value(key) {
+            Some(v) => self.fail(key, T::read(v)),
             None => default,
         }
     }
@@ -111,6 +114,12 @@ impl<'a> Obj<'a> {
             Some(k) => Err(format!("unknown field `{k}`")),
         }
     }
+}
+
+#[cold]
+#[inline(never)]
+fn missing() -> String {
+    "missing field".to_string()
 }
 
 fn kind(v: &Value) -> &'static str {
@@ -188,6 +197,7 @@ impl Read for [f64; 2] {
 }
 
 impl<T: Read> Read for Option<T> {
+    #[inline]
     fn read(v: &Value) -> Result<Self, String> {
         if v.is_null() {
             return Ok(None);
@@ -203,12 +213,31 @@ impl<T: Read> Read for Option<T> {
 impl<T: Read> Read for Vec<T> {
     fn read(v: &Value) -> Result<Self, String> {
         let a = v.as_array().ok_or_else(|| wrong(v, "a sequence"))?;
-        a.iter().enumerate().map(|(i, x)| T::read(x).map_err(|e| format!("[{i}]: {e}"))).collect()
+        // A plain loop: a `collect` into `Result` is a few generic
+        // functions per element type.
+        let mut out = Vec::with_capacity(a.len());
+        for (i, x) in a.iter().enumerate() {
+            match T::read(x) {
+                Ok(t) => out.push(t),
+                Err(e) => return Err(at_index(i, &e)),
+            }
+        }
+        Ok(out)
     }
     fn absent() -> Option<Self> {
         Some(Vec::new())
     }
     fallback_default!();
+}
+
+#[inline(never)]
+fn at_index(i: usize, e: &str) -> String {
+    format!("[{i}]: {e}")
+}
+
+#[inline(never)]
+fn at_key(k: &str, e: &str) -> String {
+    format!("{k}: {e}")
 }
 
 /// A map key: a column name, or a channel (the keys of `scales`).
@@ -231,7 +260,17 @@ impl ReadKey for Channel {
 impl<K: ReadKey, T: Read> Read for IndexMap<K, T> {
     fn read(v: &Value) -> Result<Self, String> {
         let o = v.as_object().ok_or_else(|| wrong(v, "a map"))?;
-        o.iter().map(|(k, x)| Ok((K::read_key(k)?, T::read(x).map_err(|e| format!("{k}: {e}"))?))).collect()
+        let mut out = IndexMap::with_capacity(o.len());
+        for (k, x) in o {
+            let key = K::read_key(k)?;
+            match T::read(x) {
+                Ok(t) => {
+                    out.insert(key, t);
+                }
+                Err(e) => return Err(at_key(k, &e)),
+            }
+        }
+        Ok(out)
     }
     fn absent() -> Option<Self> {
         Some(IndexMap::new())
@@ -242,12 +281,26 @@ impl<K: ReadKey, T: Read> Read for IndexMap<K, T> {
 }
 
 /// A spec word of the `words!` enums.
-pub(crate) fn word<T: Copy>(v: &Value, all: &[(&str, T)]) -> Result<T, String> {
+pub(crate) fn word<T: Copy>(v: &Value, all: &[(&'static str, T)]) -> Result<T, String> {
+    word_index(v, all.len(), &|i| all[i].0).map(|i| all[i].1)
+}
+
+/// The index of the word `v` among `n` words (one function for every word list).
+fn word_index(v: &Value, n: usize, word_at: &dyn Fn(usize) -> &'static str) -> Result<usize, String> {
     let w = v.as_str().ok_or_else(|| wrong(v, "a word"))?;
-    all.iter().find(|(x, _)| *x == w).map(|(_, t)| *t).ok_or_else(|| {
-        let words: Vec<String> = all.iter().map(|(x, _)| format!("`{x}`")).collect();
-        format!("unknown variant `{w}`, expected one of {}", words.join(", "))
-    })
+    if let Some(i) = (0..n).find(|i| word_at(*i) == w) {
+        return Ok(i);
+    }
+    let mut e = format!("unknown variant `{w}`, expected one of ");
+    for i in 0..n {
+        if i > 0 {
+            e.push_str(", ");
+        }
+        e.push('`');
+        e.push_str(word_at(i));
+        e.push('`');
+    }
+    Err(e)
 }
 
 // ---------------------------------------------------------------- keys that take a word or an object

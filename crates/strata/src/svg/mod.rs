@@ -104,8 +104,14 @@ fn paint(out: &mut String, p: &Paint) {
         let _ = write!(out, " opacity=\"{}\"", num(o.clamp(0.0, 1.0)));
     }
     if let Some(d) = &p.dash {
-        let parts: Vec<String> = d.iter().map(|v| num(*v)).collect();
-        let _ = write!(out, " stroke-dasharray=\"{}\"", parts.join(" "));
+        out.push_str(" stroke-dasharray=\"");
+        for (i, v) in d.iter().enumerate() {
+            if i > 0 {
+                out.push(' ');
+            }
+            out.push_str(&num(*v));
+        }
+        out.push('"');
     }
     if p.even_odd {
         out.push_str(" fill-rule=\"evenodd\"");
@@ -124,11 +130,26 @@ fn value_words(v: &serde_json::Value) -> String {
 
 /// "x: Jan, y: 82, age: 12": a mark's values, then its `tooltip` columns.
 fn datum_words(d: &crate::scene::Datum) -> String {
-    let mut parts: Vec<String> = d.iter().filter(|(k, _)| k.as_str() != "tooltip").map(|(k, v)| format!("{k}: {}", value_words(v))).collect();
-    if let Some(serde_json::Value::Object(tips)) = d.get("tooltip") {
-        parts.extend(tips.iter().map(|(k, v)| format!("{k}: {}", value_words(v))));
+    let mut out = String::new();
+    let mut add = |k: &str, v: &serde_json::Value| {
+        if !out.is_empty() {
+            out.push_str(", ");
+        }
+        out.push_str(k);
+        out.push_str(": ");
+        out.push_str(&value_words(v));
+    };
+    for (k, v) in d {
+        if k != "tooltip" {
+            add(k, v);
+        }
     }
-    parts.join(", ")
+    if let Some(serde_json::Value::Object(tips)) = d.get("tooltip") {
+        for (k, v) in tips {
+            add(k, v);
+        }
+    }
+    out
 }
 
 const FOCUSABLE: &str = " tabindex=\"0\"";
