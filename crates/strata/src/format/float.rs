@@ -23,18 +23,20 @@ pub fn shortest(v: f64) -> (Vec<u8>, i32) {
     let (mant, exp) = s.split_once(['e', 'E']).unwrap_or((s, "0"));
     let exp: i32 = exp.trim_start_matches('+').parse().unwrap_or(0);
     let mut digits = Vec::with_capacity(17);
-    let mut int_digits = None;
+    // Digits before the point (leading zeros not kept), then after it.
+    let mut point = exp;
+    let mut after = false;
     for b in mant.bytes() {
         match b {
-            b'0'..=b'9' => digits.push(b - b'0'),
-            b'.' => int_digits = Some(digits.len() as i32),
+            b'0' if digits.is_empty() => point -= i32::from(after),
+            b'0'..=b'9' => {
+                digits.push(b - b'0');
+                point += i32::from(!after);
+            }
+            b'.' => after = true,
             _ => {}
         }
     }
-    let mut point = int_digits.unwrap_or(digits.len() as i32) + exp;
-    let lead = digits.iter().take_while(|d| **d == 0).count();
-    digits.drain(..lead);
-    point -= lead as i32;
     while digits.last() == Some(&0) {
         digits.pop();
     }
@@ -44,23 +46,16 @@ pub fn shortest(v: f64) -> (Vec<u8>, i32) {
     // When |v| lies exactly halfway between two shortest candidates, zmij
     // takes the even one and Rust's `{}` the upper one: take the upper one.
     if halfway_above(v.abs(), &digits, point) {
-        let mut i = digits.len();
-        loop {
-            if i == 0 {
-                digits.insert(0, 1);
-                point += 1;
-                break;
-            }
-            i -= 1;
-            if digits[i] == 9 {
-                digits[i] = 0;
-            } else {
-                digits[i] += 1;
-                break;
-            }
-        }
-        while digits.last() == Some(&0) {
+        // Add one unit in the last place; trailing nines carry.
+        while digits.last() == Some(&9) {
             digits.pop();
+        }
+        match digits.last_mut() {
+            Some(d) => *d += 1,
+            None => {
+                digits.push(1);
+                point += 1;
+            }
         }
     }
     (digits, point)
@@ -79,13 +74,15 @@ fn halfway_above(v: f64, digits: &[u8], point: i32) -> bool {
     if tz + e + t != 0 || t.abs() > 60 {
         return false;
     }
-    let odd = (m >> tz) as u128;
-    let five = |k: i32| 5u128.checked_pow(k as u32);
-    if t >= 0 {
-        five(t).and_then(|f| odd.checked_mul(f)) == Some(w)
-    } else {
-        five(-t).and_then(|f| w.checked_mul(f)) == Some(odd)
+    let (mut small, big) = if t >= 0 { ((m >> tz) as u128, w) } else { (w, (m >> tz) as u128) };
+    // small × 5^|t| == big? (5^|t| ≤ 5^60 < 2^140 may overflow: then no.)
+    for _ in 0..t.unsigned_abs() {
+        if small > big {
+            return false;
+        }
+        small *= 5;
     }
+    small == big
 }
 
 /// An f64 written as Rust's `{}` writes it (shortest round-trip digits,
@@ -121,8 +118,12 @@ pub fn plain(v: f64) -> String {
     let digit = |d: &u8| (b'0' + d) as char;
     if point <= 0 {
         out.push_str("0.");
-        out.extend(std::iter::repeat_n('0', (-point) as usize));
-        out.extend(digits.iter().map(digit));
+        for _ in 0..-point {
+            out.push('0');
+        }
+        for d in &digits {
+            out.push(digit(d));
+        }
     } else {
         let p = point as usize;
         for i in 0..p.max(digits.len()) {
@@ -175,7 +176,7 @@ pub fn fixed(v: f64, decimals: usize) -> String {
                 q
             }
         };
-        q.to_string()
+        big_decimal(q, 0)
     };
     if digits.len() <= p {
         digits = "0".repeat(p + 1 - digits.len()) + &digits;
@@ -194,9 +195,6 @@ pub fn fixed(v: f64, decimals: usize) -> String {
 fn big_decimal(n: u128, shift: u32) -> String {
     if n == 0 {
         return "0".into();
-    }
-    if shift < n.leading_zeros() {
-        return (n << shift).to_string();
     }
     // Little-endian base-2^32 limbs.
     let mut limbs: Vec<u32> = (0..4).map(|i| (n >> (32 * i)) as u32).collect();
@@ -372,7 +370,7 @@ fn slow(digits: &[u8], exp: i32) -> f64 {
     den.shl(56);
     let mut q: u64 = 0;
     for bit in (0..=56).rev() {
-        if num.cmp(&den) != std::cmp::Ordering::Less {
+        if !num.less_than(&den) {
             num.sub(&den);
             q |= 1 << bit;
         }
@@ -437,7 +435,11 @@ impl Big {
                 self.0.push(carry);
             }
         }
-        self.0.splice(0..0, std::iter::repeat_n(0, limbs));
+        if limbs > 0 {
+            let mut v = vec![0; limbs];
+            v.extend_from_slice(&self.0);
+            self.0 = v;
+        }
     }
     fn shr1(&mut self) {
         let mut carry = 0;
@@ -453,8 +455,16 @@ impl Big {
             self.0.pop();
         }
     }
-    fn cmp(&self, o: &Big) -> std::cmp::Ordering {
-        self.0.len().cmp(&o.0.len()).then_with(|| self.0.iter().rev().cmp(o.0.iter().rev()))
+    fn less_than(&self, o: &Big) -> bool {
+        if self.0.len() != o.0.len() {
+            return self.0.len() < o.0.len();
+        }
+        for i in (0..self.0.len()).rev() {
+            if self.0[i] != o.0[i] {
+                return self.0[i] < o.0[i];
+            }
+        }
+        false
     }
     /// self -= o, for self >= o.
     fn sub(&mut self, o: &Big) {
