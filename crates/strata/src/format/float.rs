@@ -244,8 +244,10 @@ const KEEP_DIGITS: usize = 800;
 /// power-of-five table: `[+-]` then `inf`, `infinity`, `nan` (any case) or
 /// digits with an optional `.` and an optional exponent `e[+-]digits`.
 /// Short numbers take the exact fast path (Clinger 1990: at most 15 digits
-/// and a power of ten up to 22, both exact in f64); the rest are rounded
-/// from the exact ratio by big-number arithmetic.
+/// and a power of ten up to 22, both exact in f64); up to 19 digits with a
+/// power of ten up to 21 are rounded from the exact ratio in u128 (the
+/// full-precision numbers of exported data stay fast); the rest from the
+/// exact ratio in big-number arithmetic.
 pub fn parse(s: &str) -> Option<f64> {
     let b = s.as_bytes();
     let (neg, b) = match b.first()? {
@@ -267,30 +269,19 @@ pub fn parse(s: &str) -> Option<f64> {
 
 /// An unsigned decimal, the whole of `b`.
 fn decimal(b: &[u8]) -> Option<f64> {
-    let mut digits: Vec<u8> = Vec::new();
-    let mut exp: i64 = 0;
+    let mut acc = Digits { w: 0, count: 0, more: Vec::new(), exp: 0, dropped: false };
     let mut any = false;
-    let mut dropped = false;
     let mut i = 0;
-    let mut push = |d: u8, digits: &mut Vec<u8>, exp: &mut i64| {
-        if digits.is_empty() && d == 0 {
-        } else if digits.len() < KEEP_DIGITS {
-            digits.push(d);
-        } else {
-            *exp += 1;
-            dropped |= d != 0;
-        }
-    };
     while i < b.len() && b[i].is_ascii_digit() {
-        push(b[i] - b'0', &mut digits, &mut exp);
+        acc.push(b[i] - b'0');
         any = true;
         i += 1;
     }
     if i < b.len() && b[i] == b'.' {
         i += 1;
         while i < b.len() && b[i].is_ascii_digit() {
-            exp -= 1;
-            push(b[i] - b'0', &mut digits, &mut exp);
+            acc.exp -= 1;
+            acc.push(b[i] - b'0');
             any = true;
             i += 1;
         }
@@ -314,32 +305,111 @@ fn decimal(b: &[u8]) -> Option<f64> {
         if i == start {
             return None;
         }
-        exp += if neg { -e } else { e };
+        acc.exp += if neg { -e } else { e };
     }
     if i != b.len() {
         return None;
     }
-    if dropped {
-        digits.push(1);
-        exp -= 1;
+    let Digits { mut w, count, more: mut digits, mut exp, dropped } = acc;
+    if count > SHORT_DIGITS {
+        if dropped {
+            digits.push(1);
+            exp -= 1;
+        }
+        while digits.last() == Some(&0) {
+            digits.pop();
+            exp += 1;
+        }
+        let n = digits.len() as i64;
+        if n + exp < -330 {
+            return Some(0.0);
+        }
+        if n + exp > 310 {
+            return Some(f64::INFINITY);
+        }
+        return Some(slow(&digits, exp as i32));
     }
-    while digits.last() == Some(&0) {
-        digits.pop();
+    if w == 0 {
+        return Some(0.0);
+    }
+    while w % 10 == 0 {
+        w /= 10;
         exp += 1;
     }
-    let n = digits.len() as i64;
-    if n == 0 || n + exp < -330 {
+    let mut n = 1;
+    while n < 20 && w >= 10u64.pow(n as u32) {
+        n += 1;
+    }
+    if n + exp < -330 {
         return Some(0.0);
     }
     if n + exp > 310 {
         return Some(f64::INFINITY);
     }
     if n <= 15 && exp.abs() <= 22 {
-        let m = digits.iter().fold(0u64, |a, d| a * 10 + *d as u64) as f64;
+        let m = w as f64;
         let p = POW10[exp.unsigned_abs() as usize];
         return Some(if exp < 0 { m / p } else { m * p });
     }
+    if (-21..=19).contains(&exp) {
+        // Up to 19 digits (below 2^64) and 10^±21 at most: the exact ratio
+        // fits u128 with at least 55 bits of quotient.
+        let (q, sticky, k) = if exp >= 0 {
+            (w as u128 * 10u128.pow(exp as u32), false, 0)
+        } else {
+            let s = 64 + w.leading_zeros();
+            let num = (w as u128) << s;
+            let p = 10u128.pow(exp.unsigned_abs() as u32);
+            (num / p, !num.is_multiple_of(p), s as i32)
+        };
+        // To exactly 64 bits (value = q × 2^-k).
+        let len = 128 - q.leading_zeros() as i32;
+        let (q, sticky, k) = if len > 64 {
+            let sh = len - 64;
+            (q >> sh, sticky || q & ((1u128 << sh) - 1) != 0, k - sh)
+        } else {
+            (q << (64 - len), sticky, k + 64 - len)
+        };
+        return Some(round_bits(q as u64, sticky, k));
+    }
+    let digits: Vec<u8> = w.to_string().bytes().map(|c| c - b'0').collect();
     Some(slow(&digits, exp as i32))
+}
+
+/// Significant digits read so far: up to [`SHORT_DIGITS`] in `w`; past
+/// that all of them in `more` (up to [`KEEP_DIGITS`], then only whether a
+/// dropped one was nonzero); `exp` the power of ten of the last kept one.
+struct Digits {
+    w: u64,
+    count: usize,
+    more: Vec<u8>,
+    exp: i64,
+    dropped: bool,
+}
+
+/// Digits that fit u64 (10^19 < 2^64).
+const SHORT_DIGITS: usize = 19;
+
+impl Digits {
+    fn push(&mut self, d: u8) {
+        if self.count == 0 && d == 0 {
+            return;
+        }
+        self.count += 1;
+        if self.count <= SHORT_DIGITS {
+            self.w = self.w * 10 + d as u64;
+            return;
+        }
+        if self.more.is_empty() {
+            self.more = self.w.to_string().bytes().map(|c| c - b'0').collect();
+        }
+        if self.more.len() < KEEP_DIGITS {
+            self.more.push(d);
+        } else {
+            self.exp += 1;
+            self.dropped |= d != 0;
+        }
+    }
 }
 
 /// 10^0 ..= 10^22, each exact in f64.
@@ -377,6 +447,12 @@ fn slow(digits: &[u8], exp: i32) -> f64 {
         den.shr1();
     }
     let sticky = !num.0.iter().all(|l| *l == 0);
+    round_bits(q, sticky, k)
+}
+
+/// (q + a nonzero fraction if `sticky`) × 2^-k to the nearest f64, ties to
+/// even, for q of 55 to 64 bits.
+fn round_bits(q: u64, sticky: bool, k: i32) -> f64 {
     // Keep 53 bits, or fewer where the result is subnormal (lowest bit 2^-1074).
     let len = 64 - q.leading_zeros() as i32;
     let mut drop = (len - 53).max(k - 1074);
