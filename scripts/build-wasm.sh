@@ -38,6 +38,13 @@ rm -rf www/pkg
 for build in strata-wasm:strata_wasm: strata-wasm:strata_wasm_full:full strata-wasm-arrow:strata_wasm_arrow:; do
   IFS=: read -r crate name features <<<"$build"
   cargo build --quiet --release --target wasm32-unknown-unknown -p "$crate" ${features:+--features "$features"}
+  # Floats are printed and parsed by strata::format::float, not by core's
+  # flt2dec/dec2flt (about 20 KB gzip a module; bench/README.md): a `{}`,
+  # `{:.2}` or `{:?}` of an f64, or a `parse::<f64>()`, brings them back.
+  if grep -qaE 'flt2dec|dec2flt' "$target/wasm32-unknown-unknown/release/${crate//-/_}.wasm"; then
+    echo "build-wasm: $name has core's float printing or parsing (flt2dec/dec2flt) again: write and read f64 through strata::format::float (plain, fixed, parse)" >&2
+    exit 1
+  fi
   wasm-bindgen --target web --no-typescript --out-name "$name" --out-dir www/pkg \
     "$target/wasm32-unknown-unknown/release/${crate//-/_}.wasm"
   "$opt" -Oz --enable-bulk-memory --enable-nontrapping-float-to-int --enable-sign-ext --enable-mutable-globals \

@@ -90,7 +90,7 @@ pub fn check_spec_value(spec: &Value, errors: &mut Vec<Diagnostic>) {
                 if t > crate::scale::MAX_TICKS as f64 {
                     errors.push(too_large(
                         &format!("scales.{}.ticks", crate::expr::path_key(name)),
-                        format!("{t} ticks is more than the {} a scale can show", crate::scale::MAX_TICKS),
+                        format!("{} ticks is more than the {} a scale can show", crate::format::float::Plain(t), crate::scale::MAX_TICKS),
                     ));
                 }
             }
@@ -135,7 +135,7 @@ fn color(v: Option<&Value>, path: &str, errors: &mut Vec<Diagnostic>) {
 fn pixels(v: Option<&Value>, path: &str, max: f64, errors: &mut Vec<Diagnostic>) {
     let Some(x) = v.and_then(Value::as_f64) else { return };
     if !x.is_finite() || x > max {
-        errors.push(too_large(path, format!("{x} pixels is more than the {max} allowed here")));
+        errors.push(too_large(path, format!("{} pixels is more than the {} allowed here", crate::format::float::Plain(x), crate::format::float::Plain(max))));
     }
 }
 

@@ -217,7 +217,11 @@ fn check_width(opts: &RenderOptions) -> Result<(), Errors> {
     if !(w.is_finite() && w > 0.0 && w <= guard::MAX_CHART_PIXELS) {
         return Err(Diagnostic::error(
             "spec.too_large",
-            format!("the width the page asks for, {w} pixels, is not a size above 0 and at most {}", guard::MAX_CHART_PIXELS),
+            format!(
+                "the width the page asks for, {} pixels, is not a size above 0 and at most {}",
+                format::float::Plain(w),
+                format::float::Plain(guard::MAX_CHART_PIXELS)
+            ),
         )
         .at_path("size.width")
         .into());

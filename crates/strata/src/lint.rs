@@ -198,11 +198,11 @@ fn contrast(spec: &Spec) -> Vec<Diagnostic> {
                     "lint.low_contrast",
                     path,
                     format!(
-                        "{role} ({color}) on the {name} background ({}) have a contrast of {:.2}:1, below the 4.5:1 WCAG 2.1 AA \
+                        "{role} ({color}) on the {name} background ({}) have a contrast of {}:1, below the 4.5:1 WCAG 2.1 AA \
                          asks for text; readers with low vision, or on a bright screen, may not make it out; pick a darker or \
                          lighter colour",
                         pal.background,
-                        (ratio * 100.0).floor() / 100.0
+                        crate::format::float::fixed((ratio * 100.0).floor() / 100.0, 2)
                     ),
                 ));
             }
@@ -269,16 +269,16 @@ pub fn parse_css_color(s: &str) -> Option<[f64; 4]> {
     };
     let chan = |p: &str| -> Option<f64> {
         let v = match p.strip_suffix('%') {
-            Some(pc) => pc.parse::<f64>().ok()? / 100.0,
-            None => p.parse::<f64>().ok()? / 255.0,
+            Some(pc) => crate::format::float::parse(pc)? / 100.0,
+            None => crate::format::float::parse(p)? / 255.0,
         };
         v.is_finite().then(|| v.clamp(0.0, 1.0))
     };
     let a = match alpha {
         None => 1.0,
         Some(a) => match a.strip_suffix('%') {
-            Some(pc) => pc.parse::<f64>().ok()? / 100.0,
-            None => a.parse::<f64>().ok()?,
+            Some(pc) => crate::format::float::parse(pc)? / 100.0,
+            None => crate::format::float::parse(a)?,
         }
         .clamp(0.0, 1.0),
     };

@@ -51,3 +51,18 @@ pub fn cbrt(x: f64) -> f64 {
 pub fn hypot(x: f64, y: f64) -> f64 {
     libm::hypot(x, y)
 }
+
+/// `x.clamp(lo, hi)` for floats, without its panic on `lo > hi` (whose
+/// message would bring core's float printing into the page module): the
+/// same comparisons, in the same order, so the same result when `lo <= hi`.
+#[inline]
+pub fn clamp(x: f64, lo: f64, hi: f64) -> f64 {
+    let mut x = x;
+    if x < lo {
+        x = lo;
+    }
+    if x > hi {
+        x = hi;
+    }
+    x
+}

@@ -269,7 +269,7 @@ fn is_number(s: &str) -> bool {
             return false;
         }
     }
-    i == b.len() && s.parse::<f64>().is_ok_and(f64::is_finite)
+    i == b.len() && crate::format::float::parse(s).is_some_and(f64::is_finite)
 }
 
 fn function(name: &str, inner: &str) -> Result<(), &'static str> {

@@ -37,7 +37,7 @@ pub fn round_decimal(x: f64, digits: i64) -> f64 {
     if digits > 30 {
         return x;
     }
-    let s = format!("{}", x.abs());
+    let s = crate::format::float::plain(x.abs());
     let Some(dot) = s.find('.') else { return x };
     let frac = &s[dot + 1..];
     let d = digits as usize;
@@ -65,7 +65,7 @@ pub fn round_decimal(x: f64, digits: i64) -> f64 {
     }
     let int_len = digits_vec.len() - d;
     let text = format!("{}.{}", std::str::from_utf8(&digits_vec[..int_len]).unwrap(), std::str::from_utf8(&digits_vec[int_len..]).unwrap());
-    let v: f64 = text.parse().unwrap_or(x.abs());
+    let v: f64 = crate::format::float::parse(&text).unwrap_or(x.abs());
     if x < 0.0 {
         -v
     } else {

@@ -157,7 +157,7 @@ impl fmt::Display for Tok {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         match self {
             Tok::Int(v) => write!(f, "`{v}`"),
-            Tok::Float(v) => write!(f, "`{v}`"),
+            Tok::Float(v) => write!(f, "`{}`", crate::format::float::Plain(*v)),
             Tok::Str(s) => write!(f, "'{s}'"),
             Tok::Word(w) => write!(f, "`{w}`"),
             Tok::Quoted(w) => write!(f, "\"{w}\""),
@@ -211,12 +211,12 @@ fn lex(text: &str) -> Result<Vec<(Tok, Span)>, ExprError> {
             let s: String = chars[start..i].iter().collect();
             let span = Span { start, end: i };
             let tok = if float {
-                Tok::Float(s.parse().map_err(|_| ExprError::new("not a number", span))?)
+                Tok::Float(crate::format::float::parse(&s).ok_or_else(|| ExprError::new("not a number", span))?)
             } else {
                 match s.parse::<i64>() {
                     Ok(v) => Tok::Int(v),
                     // Integer literals too large for 64 bits are read as approximate numbers.
-                    Err(_) => Tok::Float(s.parse().map_err(|_| ExprError::new("not a number", span))?),
+                    Err(_) => Tok::Float(crate::format::float::parse(&s).ok_or_else(|| ExprError::new("not a number", span))?),
                 }
             };
             out.push((tok, span));

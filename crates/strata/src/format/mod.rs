@@ -11,6 +11,7 @@
 //! decimal representation of the number (the digits a person would type),
 //! as Python babel does; checked against babel in the tests below.
 
+pub mod float;
 mod locales;
 
 use crate::calendar::civil_from_days;
@@ -78,13 +79,8 @@ struct Dec {
 impl Dec {
     /// The shortest decimal that reads back as |v| (what Python's `str` gives).
     fn from_f64(v: f64) -> Dec {
-        let s = format!("{:e}", v.abs());
-        let (mant, exp) = s.split_once('e').unwrap_or((&s, "0"));
-        let exp: i32 = exp.parse().unwrap_or(0);
-        let digits: Vec<u8> = mant.bytes().filter(u8::is_ascii_digit).map(|b| b - b'0').collect();
-        let mut d = Dec { digits, point: exp + 1 };
-        d.trim();
-        d
+        let (digits, point) = float::shortest(v);
+        Dec { digits, point }
     }
 
     fn is_zero(&self) -> bool {

@@ -96,7 +96,11 @@ impl Reader {
             }
         }
         if xy[1].abs() > 90.0 {
-            self.err("shapes.latitude", &format!("{path}[1]"), format!("latitude {} is beyond ±90 (positions are [longitude, latitude])", xy[1]));
+            self.err(
+                "shapes.latitude",
+                &format!("{path}[1]"),
+                format!("latitude {} is beyond ±90 (positions are [longitude, latitude])", crate::format::float::Plain(xy[1])),
+            );
             return None;
         }
         self.vertices += 1;
@@ -154,7 +158,17 @@ impl Reader {
                 ok = false;
             } else if ring.first() != ring.last() {
                 let (f, l) = (ring[0], ring[ring.len() - 1]);
-                self.err("shapes.ring_open", &rp, format!("the ring is not closed: it starts at [{}, {}] and ends at [{}, {}]", f.0, f.1, l.0, l.1));
+                self.err(
+                    "shapes.ring_open",
+                    &rp,
+                    format!(
+                        "the ring is not closed: it starts at [{}, {}] and ends at [{}, {}]",
+                        crate::format::float::Plain(f.0),
+                        crate::format::float::Plain(f.1),
+                        crate::format::float::Plain(l.0),
+                        crate::format::float::Plain(l.1)
+                    ),
+                );
                 ok = false;
             } else {
                 out.push(ring);

@@ -114,7 +114,7 @@ pub fn to_values(col: &Column, as_type: Option<ColumnType>) -> Values {
                         (_, None) => None,
                         (true, Some(ms)) => Some(crate::format::date_label(ms)),
                         (false, Some(x)) if x.fract() == 0.0 && x.abs() < 1e15 => Some(format!("{}", x as i64)),
-                        (false, Some(x)) => Some(format!("{x}")),
+                        (false, Some(x)) => Some(crate::format::float::plain(x)),
                     })
                     .collect(),
             )

@@ -459,7 +459,7 @@ fn num_as_text(layers: &[PlannedLayer], ch: Channel) -> Vec<String> {
 
 fn l_key(x: f64) -> String {
     // Same text as Values::key, so lookups match.
-    format!("{x}")
+    crate::format::float::plain(x)
 }
 
 /// A two-value domain from the spec: numbers, or ISO dates for time scales.
@@ -716,7 +716,7 @@ impl PositionScale {
     pub fn unit(&self, values: &Values, i: usize) -> Option<f64> {
         match (self, values) {
             // Numbers on a category scale are found by their text (as `Values::key` writes it).
-            (PositionScale::Category { .. }, Values::Num(v) | Values::Time(v)) => v.get(i).and_then(|x| self.unit_cat(&format!("{x}"))),
+            (PositionScale::Category { .. }, Values::Num(v) | Values::Time(v)) => v.get(i).and_then(|x| self.unit_cat(&crate::format::float::plain(x))),
             (_, Values::Num(v) | Values::Time(v)) => v.get(i).and_then(|x| self.unit_num(x)),
             (_, Values::Text(v)) => v[i].as_deref().and_then(|s| self.unit_cat(s)),
         }

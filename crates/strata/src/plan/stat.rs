@@ -487,9 +487,12 @@ fn bin_edges(index: usize, b: &BinSpec, xs: &[f64], is_time: bool) -> Result<Vec
     let too_many = |n: f64, key: &str| {
         (n > bin::MAX_BINS as f64).then(|| {
             Errors::from(
-                Diagnostic::error("stat.too_many_bins", format!("this would make {n:.0} bins, more than the {} a histogram may have", bin::MAX_BINS))
-                    .at_path(format!("layers[{index}].stat.bin.{key}"))
-                    .with_hint("give a larger `width`, a smaller `count`, or a `rule`"),
+                Diagnostic::error(
+                    "stat.too_many_bins",
+                    format!("this would make {} bins, more than the {} a histogram may have", crate::format::float::fixed(n, 0), bin::MAX_BINS),
+                )
+                .at_path(format!("layers[{index}].stat.bin.{key}"))
+                .with_hint("give a larger `width`, a smaller `count`, or a `rule`"),
             )
         })
     };
@@ -640,7 +643,7 @@ fn densities(index: usize, d: &crate::spec::DensitySpec, data: LayerData, count_
         Bandwidth::Width(h) => match Some(*h) {
             Some(h) if h > 0.0 && h.is_finite() => density::Bandwidth::Fixed(h),
             _ => {
-                return Err(Diagnostic::error("stat.bad_option", format!("unknown bandwidth {h}"))
+                return Err(Diagnostic::error("stat.bad_option", format!("unknown bandwidth {}", crate::format::float::Plain(*h)))
                     .at_path(format!("layers[{index}].stat.density.bandwidth"))
                     .with_hint("use \"scott\", \"silverman\" or a positive number in the units of x")
                     .into())

@@ -41,7 +41,7 @@ impl Values {
     /// The value of row `i` as text, for grouping keys.
     pub fn key(&self, i: usize) -> Option<String> {
         match self {
-            Values::Num(v) | Values::Time(v) => v.get(i).map(|x| format!("{x}")),
+            Values::Num(v) | Values::Time(v) => v.get(i).map(crate::format::float::plain),
             Values::Text(v) => v[i].clone(),
         }
     }

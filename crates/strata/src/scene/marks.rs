@@ -757,7 +757,7 @@ pub(super) type Box4 = (f64, f64, f64, f64);
 /// of the point it names; none when the text is already by the point.
 pub(super) fn leader(point: (f64, f64), b: Box4, pal: &crate::color::Palette) -> Option<Node> {
     let (px, py) = point;
-    let (qx, qy) = (px.clamp(b.0, b.2), py.clamp(b.1, b.3));
+    let (qx, qy) = (crate::math::clamp(px, b.0, b.2), crate::math::clamp(py, b.1, b.3));
     let len = crate::math::hypot(qx - px, qy - py);
     if len <= 4.0 {
         return None;

@@ -261,13 +261,13 @@ impl Scene {
                 Node::Text { x, y, size, angle, .. } => ("text", vec![*x, *y, *size, *angle]),
             };
             if let Some(v) = nums.iter().find(|v| !v.is_finite()) {
-                out.push(format!("{at} ({kind}): {v}"));
+                out.push(format!("{at} ({kind}): {}", crate::format::float::Plain(*v)));
             }
         }
         let mut out = Vec::new();
         for v in [self.width, self.height] {
             if !v.is_finite() {
-                out.push(format!("scene size: {v}"));
+                out.push(format!("scene size: {}", crate::format::float::Plain(v)));
             }
         }
         for (i, c) in self.children.iter().enumerate() {

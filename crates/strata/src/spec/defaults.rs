@@ -31,9 +31,9 @@ pub fn documented() -> Vec<(&'static str, &'static str, String)> {
         ("window", "rows", WINDOW_ROWS.to_string()),
         ("window", "summary", WINDOW_SUMMARY.word().to_string()),
         ("window", "align", WINDOW_ALIGN.word().to_string()),
-        ("stat", "band", FIT_BAND.to_string()),
-        ("stat", "span", LOESS_SPAN.to_string()),
+        ("stat", "band", crate::format::float::plain(FIT_BAND)),
+        ("stat", "span", crate::format::float::plain(LOESS_SPAN)),
         ("stat", "degree", LOESS_DEGREE.to_string()),
-        ("stat", "p", QUANTILE_P.to_string()),
+        ("stat", "p", crate::format::float::plain(QUANTILE_P)),
     ]
 }

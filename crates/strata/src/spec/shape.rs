@@ -441,8 +441,8 @@ impl Shape {
             Shape::Any => "any value".into(),
             Shape::Text(what) => what.to_string(),
             Shape::Word(ws) => format!("one of {}", join_words(ws)),
-            Shape::Number { min: Some(a), max: Some(b) } => format!("a number from {a} to {b}"),
-            Shape::Number { min: Some(a), .. } => format!("a number of at least {a}"),
+            Shape::Number { min: Some(a), max: Some(b) } => format!("a number from {} to {}", crate::format::float::Plain(*a), crate::format::float::Plain(*b)),
+            Shape::Number { min: Some(a), .. } => format!("a number of at least {}", crate::format::float::Plain(*a)),
             Shape::Number { .. } => "a number".into(),
             Shape::Integer { min, .. } if *min > 0 => format!("a whole number of at least {min}"),
             Shape::Integer { .. } => "a whole number".into(),
@@ -518,7 +518,9 @@ pub fn check(v: &Value, shape: &Shape, path: &str, out: &mut Vec<Diagnostic>) {
         Shape::Number { min, max } => {
             let x = v.as_f64().unwrap_or(f64::NAN);
             if min.is_some_and(|m| x < m) || max.is_some_and(|m| x > m) {
-                out.push(Diagnostic::error("spec.out_of_range", format!("expected {}, found {x}", shape.expected())).at_path(path));
+                out.push(
+                    Diagnostic::error("spec.out_of_range", format!("expected {}, found {}", shape.expected(), crate::format::float::Plain(x))).at_path(path),
+                );
             }
         }
         Shape::Integer { min, max } => match v.as_i64() {

@@ -29,8 +29,19 @@ pub fn num(v: f64) -> String {
         debug_assert!(false, "non-finite number {v} reached the SVG writer");
         return "0".into();
     }
-    let r = (v * 100.0).round() / 100.0;
-    let mut s = format!("{r:.2}");
+    let k = (v * 100.0).round();
+    // Hundredths as an integer: k / 100 to two decimals is exactly the
+    // digits of k (|k| < 2^53 makes the nearest double to k / 100 closer to
+    // it than 0.005, so `{:.2}` of it, as this wrote before, gives them
+    // too; the tests check against Rust std's formatting). Larger numbers,
+    // never met in a chart, take the exact printer.
+    let mut s = if k.abs() < 9_007_199_254_740_992.0 {
+        let k = k as i64;
+        let (int, hundredths) = (k.unsigned_abs() / 100, k.unsigned_abs() % 100);
+        format!("{}{int}.{hundredths:02}", if k < 0 { "-" } else { "" })
+    } else {
+        crate::format::float::fixed(k / 100.0, 2)
+    };
     while s.ends_with('0') {
         s.pop();
     }
@@ -314,6 +325,47 @@ mod tests {
     #[test]
     fn text_is_escaped() {
         assert_eq!(escape("<script>&\"'"), "&lt;script&gt;&amp;&quot;&#39;");
+    }
+
+    /// What `num` wrote before it used integer hundredths: Rust std's
+    /// formatting (`{:.2}`) as the reference.
+    fn num_by_std(v: f64) -> String {
+        let r = (v * 100.0).round() / 100.0;
+        let s = format!("{r:.2}");
+        let s = s.trim_end_matches('0').trim_end_matches('.');
+        if s == "-0" {
+            "0".into()
+        } else {
+            s.into()
+        }
+    }
+
+    #[test]
+    fn num_matches_std_formatting() {
+        let mut x: u64 = 0x2545_f491_4f6c_dd1d;
+        let mut next = || {
+            // xorshift64* (Vigna 2016)
+            x ^= x >> 12;
+            x ^= x << 25;
+            x ^= x >> 27;
+            x.wrapping_mul(0x2545_f491_4f6c_dd1d)
+        };
+        let mut values = vec![0.0, -0.0, 0.005, -0.005, 0.015, 1.005, -1.005, 0.125, -0.004, 1e15, 9.007e13, 9.1e13, 1e300, -1e300, f64::MAX];
+        for k in -2000..2000 {
+            values.push(k as f64 / 1000.0);
+            values.push(k as f64 / 200.0 + 0.0049999);
+        }
+        for _ in 0..1_000_000 {
+            let r = next();
+            values.push(match r % 3 {
+                0 => f64::from_bits(next()),
+                1 => (next() % 200_000_001) as f64 / 1000.0 - 100_000.0,
+                _ => (next() as i64 as f64) / (1u64 << (next() % 64)) as f64,
+            });
+        }
+        for v in values.into_iter().filter(|v| v.is_finite()) {
+            assert_eq!(num(v), num_by_std(v), "{v:e}");
+        }
     }
 }
 

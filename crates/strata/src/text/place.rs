@@ -42,7 +42,7 @@ pub fn spread(want: &[f64], gap: f64, lo: f64, hi: f64) -> Vec<f64> {
     let mut out = want.to_vec();
     let mut k = 0;
     for (s, c) in blocks {
-        let q = (s / c as f64).clamp(lo, upper);
+        let q = crate::math::clamp(s / c as f64, lo, upper);
         for _ in 0..c {
             out[order[k]] = q + k as f64 * gap;
             k += 1;
