@@ -68,15 +68,22 @@ pub fn apply(index: usize, layer: &Layer, geometry: Geometry, mut data: LayerDat
     if layer.arrange == Arrange::Stack || layer.arrange == Arrange::Proportion {
         // Each stack (rows sharing x and panel) by its key, found by hash so
         // that many stacks stay linear: running totals upward and downward.
-        let mut slot_of: HashMap<Option<String>, usize> = HashMap::new();
-        let slots: Vec<usize> = (0..data.len)
-            .map(|i| {
-                let n = slot_of.len();
-                *slot_of.entry(stack_key(&data, i)).or_insert(n)
-            })
-            .collect();
-        let mut up = vec![0.0f64; slot_of.len()];
-        let mut down = vec![0.0f64; slot_of.len()];
+        // (A `HashMap<String, usize>` like the scales' own, and a slot of
+        // its own for rows without a key: one hash map type fewer in the page.)
+        let mut slot_of: HashMap<String, usize> = HashMap::new();
+        let mut keyless: Option<usize> = None;
+        let mut slots: Vec<usize> = Vec::with_capacity(data.len);
+        let mut n = 0;
+        for i in 0..data.len {
+            let slot = match stack_key(&data, i) {
+                Some(k) => *slot_of.entry(k).or_insert(n),
+                None => *keyless.get_or_insert(n),
+            };
+            n = n.max(slot + 1);
+            slots.push(slot);
+        }
+        let mut up = vec![0.0f64; n];
+        let mut down = vec![0.0f64; n];
         let mut top: Vec<Option<f64>> = vec![None; data.len];
         for i in 0..data.len {
             let Some(y) = ys.get(i) else { continue };

@@ -161,16 +161,8 @@ pub fn turn(d: &mut LayerData) {
             d.names.insert(b, n);
         }
     }
-    sort_keys(&mut d.channels);
-    sort_keys(&mut d.names);
-}
-
-/// `IndexMap::sort_keys` through the engine's one sort (`crate::sort`);
-/// keys are distinct, so the order is the same.
-fn sort_keys<V>(m: &mut indexmap::IndexMap<Channel, V>) {
-    let keys: Vec<Channel> = m.keys().copied().collect();
-    let idx = crate::sort::order(keys.len(), &mut |a, b| keys[a].cmp(&keys[b]));
-    crate::sort::permute(idx, &mut |i, j| m.swap_indices(i, j));
+    d.channels.sort_keys();
+    d.names.sort_keys();
 }
 
 /// The spec as a turned chart sees it: the x and y scales, the notes'

@@ -9,7 +9,7 @@ use crate::format::{self, Locale};
 use crate::scale::{PositionScale, SizeScale, Transform};
 use crate::spec::{Geometry, ScaleKind, ScaleSpec, Spec};
 use crate::text;
-use std::collections::{HashMap, HashSet};
+use std::collections::HashMap;
 
 #[derive(Debug, Clone, PartialEq)]
 pub enum ColorScale {
@@ -57,9 +57,10 @@ pub struct Scales {
     pub locale: &'static Locale,
     /// Each colour category's place in the `color` list, for lookups by hash.
     pub color_index: HashMap<String, usize>,
-    /// Chosen colours by category (`scales.color.values`), and the colour
-    /// of every other category (its key `other`).
-    pub color_values: HashMap<String, String>,
+    /// Chosen colours by category (`scales.color.values`), by the
+    /// category's place in the `color` list (as `color_index` gives it),
+    /// and the colour of every other category (its key `other`).
+    pub color_chosen: Vec<Option<String>>,
     pub color_other: Option<String>,
 }
 
@@ -74,7 +75,7 @@ impl Scales {
                 let k = vals.key(i)?;
                 let idx = *self.color_index.get(&k)?;
                 // Chosen colours first, then `other`, then the palette.
-                if let Some(c) = self.color_values.get(&k).or(self.color_other.as_ref()) {
+                if let Some(c) = self.color_chosen.get(idx).and_then(Option::as_ref).or(self.color_other.as_ref()) {
                     return Some(c.clone());
                 }
                 Some(match scheme {
@@ -103,7 +104,7 @@ impl Scales {
         let mut items: Vec<(String, String)> = Vec::new();
         let mut others: Vec<&String> = Vec::new();
         for (i, c) in cats.iter().enumerate() {
-            if self.color_other.is_some() && !self.color_values.contains_key(c) {
+            if self.color_other.is_some() && !self.color_index.get(c.as_str()).is_some_and(|&j| self.color_chosen[j].is_some()) {
                 others.push(c);
                 continue;
             }
@@ -314,14 +315,21 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
     };
 
     let mut color_index = HashMap::new();
+    let mut color_chosen: Vec<Option<String>> = Vec::new();
     if let Some(ColorScale::Categories(cats)) = &color {
+        color_chosen = vec![None; cats.len()];
         for (i, c) in cats.iter().enumerate() {
             color_index.entry(c.clone()).or_insert(i);
         }
+        // A category literally called `other` takes the `other` colour too
+        // (the categories of `color_index`, so a doubled category finds the
+        // first place's colour as the lookup of a row does).
+        for (k, v) in color_spec.values.iter().flatten() {
+            if let Some(&i) = color_index.get(k.as_str()) {
+                color_chosen[i] = Some(v.clone());
+            }
+        }
     }
-    // A category literally called `other` takes the `other` colour too.
-    let color_values: HashMap<String, String> =
-        color_spec.values.iter().flatten().filter(|(k, _)| k.as_str() != OTHER_KEY || cats_has(&color, k)).map(|(k, v)| (k.clone(), v.clone())).collect();
     Ok(Scales {
         x_title: title(Channel::X, &x_spec),
         y_title: title(Channel::Y, &y_spec),
@@ -344,7 +352,7 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
         shape_spec,
         locale,
         color_index,
-        color_values,
+        color_chosen,
         color_other: color_spec.values.as_ref().and_then(|v| v.get(OTHER_KEY).cloned()),
         color_spec,
     })
@@ -372,10 +380,6 @@ pub fn thin_mark_span(ramp: color::Ramp, background: &str) -> (f64, f64) {
     } else {
         (0.0, 0.5)
     }
-}
-
-fn cats_has(color: &Option<ColorScale>, k: &str) -> bool {
-    matches!(color, Some(ColorScale::Categories(c)) if c.iter().any(|x| x == k))
 }
 
 /// Warnings about chosen colours: a `values` key that names no category
@@ -408,11 +412,12 @@ pub fn chosen_color_warnings(scales: &Scales) -> Vec<Diagnostic> {
 }
 
 /// Append the values of `v` not seen yet, in order of first appearance
-/// (a hash set keeps many distinct values linear).
-fn add_distinct(cats: &mut Vec<String>, seen: &mut HashSet<String>, v: &[Option<String>]) {
+/// (a hash map keeps many distinct values linear; each value's place, in
+/// the map type of the scales' `color_index`: one hash map type fewer).
+fn add_distinct(cats: &mut Vec<String>, seen: &mut HashMap<String, usize>, v: &[Option<String>]) {
     for s in v.iter().flatten() {
-        if !seen.contains(s) {
-            seen.insert(s.clone());
+        if !seen.contains_key(s.as_str()) {
+            seen.insert(s.clone(), cats.len());
             cats.push(s.clone());
         }
     }
@@ -425,7 +430,7 @@ fn json_word(v: &serde_json::Value) -> String {
 /// Categories (text) and the numeric range of a channel across layers.
 fn collect(layers: &[PlannedLayer], ch: Channel) -> (Vec<String>, Option<(f64, f64)>) {
     let mut cats: Vec<String> = Vec::new();
-    let mut seen = HashSet::new();
+    let mut seen = HashMap::new();
     let (mut lo, mut hi) = (f64::INFINITY, f64::NEG_INFINITY);
     for l in layers {
         match l.data.get(ch) {
@@ -511,7 +516,7 @@ fn train_position(channels: &[Channel], axis: &str, s: &ScaleSpec, layers: &[Pla
 
 fn train_position_bare(channels: &[Channel], axis: &str, s: &ScaleSpec, layers: &[PlannedLayer]) -> Result<(PositionScale, bool), Errors> {
     let mut cats: Vec<String> = Vec::new();
-    let mut seen = HashSet::new();
+    let mut seen = HashMap::new();
     let (mut lo, mut hi) = (f64::INFINITY, f64::NEG_INFINITY);
     let (mut any_num, mut any_text, mut time) = (false, false, false);
     let mut extent = false;
@@ -645,28 +650,42 @@ fn order_categories(cats: &mut Vec<String>, s: &ScaleSpec, channels: &[Channel],
     use crate::spec::CategoryOrder;
     if let Some(order) = s.order {
         let value_ch = if channels.contains(&Channel::X) { Channel::Y } else { Channel::X };
-        let mut drawn: HashMap<String, f64> = HashMap::new();
+        // Each category's place by hash (the map type of the scales'
+        // `color_index`: one hash map type fewer in the page), its value
+        // drawn (the largest over layers), and this layer's sum in `mine`.
+        let mut place: HashMap<String, usize> = HashMap::new();
+        let mut drawn: Vec<f64> = Vec::new();
+        let mut mine: Vec<Option<f64>> = Vec::new();
         for l in layers {
             let (Some(Values::Text(keys)), Some(v)) = (l.data.get(channels[0]), l.data.get(Channel::Total).or(l.data.get(value_ch))) else { continue };
             let stacked = l.data.get(Channel::Total).is_some();
-            // Keyed like `drawn` (one hash map type fewer in the page).
-            let mut mine: HashMap<String, f64> = HashMap::new();
+            mine.clear();
+            mine.resize(drawn.len(), None);
             for (i, k) in keys.iter().enumerate() {
                 let (Some(k), Some(x)) = (k, v.num(i)) else { continue };
-                match mine.get_mut(k.as_str()) {
-                    Some(e) => *e = if stacked { x } else { *e + x },
+                let j = match place.get(k.as_str()) {
+                    Some(&j) => j,
                     None => {
-                        // 0.0 + x as before: a -0.0 sums to +0.0.
-                        mine.insert(k.clone(), if stacked { x } else { 0.0 + x });
+                        place.insert(k.clone(), drawn.len());
+                        drawn.push(f64::NEG_INFINITY);
+                        mine.push(None);
+                        drawn.len() - 1
                     }
+                };
+                // 0.0 + x as before: a -0.0 sums to +0.0.
+                mine[j] = Some(match mine[j] {
+                    Some(e) if !stacked => e + x,
+                    _ if stacked => x,
+                    _ => 0.0 + x,
+                });
+            }
+            for (d, m) in drawn.iter_mut().zip(&mine) {
+                if let Some(x) = m {
+                    *d = d.max(*x);
                 }
             }
-            for (k, x) in mine {
-                let e = drawn.entry(k).or_insert(f64::NEG_INFINITY);
-                *e = e.max(x);
-            }
         }
-        let at = |c: &String| drawn.get(c).copied().unwrap_or(f64::NEG_INFINITY);
+        let at = |c: &String| place.get(c.as_str()).map_or(f64::NEG_INFINITY, |&j| drawn[j]);
         match order {
             CategoryOrder::Ascending => crate::sort::by(cats, |a, b| at(a).total_cmp(&at(b))),
             CategoryOrder::Descending => crate::sort::by(cats, |a, b| at(b).total_cmp(&at(a))),
