@@ -57,28 +57,30 @@ fn tick_marks(axis: &AxisGuide, f: Frame, pal: &Palette) -> Vec<Node> {
     if !axis.scale.is_discrete() {
         return vec![];
     }
-    let paint = || Paint::stroke(&pal.axis, 1.0);
-    axis.ticks
-        .iter()
-        .map(|t| match axis.side {
-            Side::Bottom => {
-                let x = f.left + t.unit * f.width;
-                Node::Line { x1: x, y1: f.bottom(), x2: x, y2: f.bottom() + TICK_MARK, paint: paint() }
-            }
-            Side::Top => {
-                let x = f.left + t.unit * f.width;
-                Node::Line { x1: x, y1: f.top, x2: x, y2: f.top - TICK_MARK, paint: paint() }
-            }
-            Side::Left => {
-                let y = f.bottom() - t.unit * f.height;
-                Node::Line { x1: f.left, y1: y, x2: f.left - TICK_MARK, y2: y, paint: paint() }
-            }
-            Side::Right => {
-                let y = f.bottom() - t.unit * f.height;
-                Node::Line { x1: f.right(), y1: y, x2: f.right() + TICK_MARK, y2: y, paint: paint() }
-            }
-        })
-        .collect()
+    let (a0, a1) = match axis.side {
+        Side::Bottom => (f.bottom(), f.bottom() + TICK_MARK),
+        Side::Top => (f.top, f.top - TICK_MARK),
+        Side::Left => (f.left, f.left - TICK_MARK),
+        Side::Right => (f.right(), f.right() + TICK_MARK),
+    };
+    tick_lines(&axis.ticks, matches!(axis.side, Side::Bottom | Side::Top), f, a0, a1, &Paint::stroke(&pal.axis, 1.0))
+}
+
+/// A line across each tick from `a0` to `a1` (y for a horizontal axis,
+/// whose lines stand at the ticks' x; x for a vertical one): tick marks and
+/// grid lines alike.
+fn tick_lines(ticks: &[Tick], horizontal: bool, f: Frame, a0: f64, a1: f64, paint: &Paint) -> Vec<Node> {
+    let mut out = Vec::with_capacity(ticks.len());
+    for t in ticks {
+        out.push(if horizontal {
+            let x = f.left + t.unit * f.width;
+            Node::Line { x1: x, y1: a0, x2: x, y2: a1, paint: paint.clone() }
+        } else {
+            let y = f.bottom() - t.unit * f.height;
+            Node::Line { x1: a0, y1: y, x2: a1, y2: y, paint: paint.clone() }
+        });
+    }
+    out
 }
 
 /// Room a title written above a vertical axis takes over the frame (px).
@@ -124,7 +126,11 @@ pub fn zero_line(axis: &AxisGuide, coord: &Coord, pal: &Palette) -> Option<Node>
 
 /// Width of a tick label: its widest line (a wrapped label holds `\n`).
 pub fn label_width(t: &Tick, ts: f64) -> f64 {
-    t.label.split('\n').map(|l| text::width(l, ts, false)).fold(0.0, f64::max)
+    let mut m = 0.0f64;
+    for l in t.label.split('\n') {
+        m = m.max(text::width(l, ts, false));
+    }
+    m
 }
 
 /// Lines of a tick label (a wrapped category label has two).
@@ -144,7 +150,7 @@ fn fits_across(ticks: &[Tick], length: f64, ts: f64) -> bool {
 /// spaced ticks `need` px apart: one below the step their spacing implies,
 /// so the search that follows tries a step or two, not all of them.
 fn first_k(ticks: &[Tick], length: f64, need: f64) -> usize {
-    let gap = ticks.windows(2).map(|w| (w[1].unit - w[0].unit).abs()).fold(f64::INFINITY, f64::min) * length;
+    let gap = spacing(ticks, length);
     if !(gap > 0.0 && gap.is_finite()) {
         return 1;
     }
@@ -153,7 +159,11 @@ fn first_k(ticks: &[Tick], length: f64, need: f64) -> usize {
 
 /// Keep every k-th tick.
 fn every(ticks: &[Tick], k: usize) -> Vec<Tick> {
-    ticks.iter().enumerate().filter(|(i, _)| i % k == 0).map(|(_, t)| t.clone()).collect()
+    let mut out = Vec::with_capacity(ticks.len() / k.max(1) + 1);
+    for t in ticks.iter().step_by(k.max(1)) {
+        out.push(t.clone());
+    }
+    out
 }
 
 /// Ticks of a horizontal axis `length` px long, after thinning, rotating and shortening.
@@ -198,19 +208,39 @@ pub fn bottom_ticks(
 
 /// Least room between neighbouring category ticks on an axis `length` px long.
 fn spacing(ticks: &[Tick], length: f64) -> f64 {
-    ticks.windows(2).map(|w| (w[1].unit - w[0].unit).abs() * length).fold(f64::INFINITY, f64::min)
+    let mut m = f64::INFINITY;
+    for w in ticks.windows(2) {
+        m = m.min((w[1].unit - w[0].unit).abs() * length);
+    }
+    m
 }
 
 fn relabel(ticks: &[Tick], labels: Vec<String>) -> Vec<Tick> {
-    ticks
-        .iter()
-        .zip(labels)
-        .map(|(t, l)| {
-            let mut t = t.clone();
-            t.label = l;
-            t
-        })
-        .collect()
+    let n = labels.len();
+    let mut out = ticks.to_vec();
+    for (t, l) in out.iter_mut().zip(labels) {
+        t.label = l;
+    }
+    out.truncate(n);
+    out
+}
+
+/// The ticks' labels.
+fn tick_labels(ticks: &[Tick]) -> Vec<String> {
+    let mut out = Vec::with_capacity(ticks.len());
+    for t in ticks {
+        out.push(t.label.clone());
+    }
+    out
+}
+
+/// Every label on at most two lines ([`wrap_two`]), `None` when one does not fit.
+fn wrap_all(labels: &[String], max_w: f64, ts: f64) -> Option<Vec<String>> {
+    let mut out = Vec::with_capacity(labels.len());
+    for l in labels {
+        out.push(wrap_two(l, max_w, ts)?);
+    }
+    Some(out)
 }
 
 /// Category labels along a horizontal axis. A label is never dropped while
@@ -227,11 +257,10 @@ fn category_bottom(full: Vec<Tick>, length: f64, max_label_height: f64, ts: f64)
     }
     let room = spacing(&full, length);
     let slot = room - LABEL_GAP;
-    let labels: Vec<String> = full.iter().map(|t| t.label.clone()).collect();
+    let labels = tick_labels(&full);
     // 2. Two lines each.
     if slot > 0.0 {
-        let wrapped: Option<Vec<String>> = labels.iter().map(|l| wrap_two(l, slot, ts)).collect();
-        if let Some(w) = wrapped {
+        if let Some(w) = wrap_all(&labels, slot, ts) {
             return (relabel(&full, w), 0.0);
         }
     }
@@ -256,7 +285,7 @@ fn category_bottom(full: Vec<Tick>, length: f64, max_label_height: f64, ts: f64)
         k += 1;
     }
     let kept = every(&full, k);
-    let labels: Vec<String> = kept.iter().map(|t| t.label.clone()).collect();
+    let labels = tick_labels(&kept);
     (relabel(&kept, shorten_unique(&labels, max_label_height, ts)), -90.0)
 }
 
@@ -412,8 +441,8 @@ pub fn left_ticks(scale: &PositionScale, length: f64, wanted: usize, pattern: Op
             // Two lines where the bands have room for them, else prefixes
             // that tell the categories apart (the axis names them in full).
             let two_lines = spacing(&ticks, length) >= 2.0 * line;
-            let labels: Vec<String> = ticks.iter().map(|t| t.label.clone()).collect();
-            let wrapped: Option<Vec<String>> = if two_lines { labels.iter().map(|l| wrap_two(l, max_width, ts)).collect() } else { None };
+            let labels = tick_labels(&ticks);
+            let wrapped = if two_lines { wrap_all(&labels, max_width, ts) } else { None };
             let short = wrapped.unwrap_or_else(|| shorten_unique(&labels, max_width, ts));
             for (t, l) in ticks.iter_mut().zip(short) {
                 t.label = l;
@@ -429,7 +458,11 @@ pub fn left_ticks(scale: &PositionScale, length: f64, wanted: usize, pattern: Op
 
 /// Widest tick label, for the left margin.
 pub fn widest_label(ticks: &[Tick], ts: f64) -> f64 {
-    ticks.iter().map(|t| label_width(t, ts)).fold(0.0, f64::max)
+    let mut m = 0.0f64;
+    for t in ticks {
+        m = m.max(label_width(t, ts));
+    }
+    m
 }
 
 /// An axis title centred at (x, y), shortened to fit `length`, turned by `angle`.
@@ -457,19 +490,11 @@ pub fn grid(axis: &AxisGuide, coord: &Coord, pal: &Palette) -> Vec<Node> {
         return vec![];
     }
     let f = coord.frame();
-    axis.ticks
-        .iter()
-        .map(|t| match axis.side {
-            Side::Left | Side::Right => {
-                let y = f.bottom() - t.unit * f.height;
-                Node::Line { x1: f.left, y1: y, x2: f.right(), y2: y, paint: Paint::stroke(&pal.grid, 1.0) }
-            }
-            Side::Bottom | Side::Top => {
-                let x = f.left + t.unit * f.width;
-                Node::Line { x1: x, y1: f.top, x2: x, y2: f.bottom(), paint: Paint::stroke(&pal.grid, 1.0) }
-            }
-        })
-        .collect()
+    let paint = Paint::stroke(&pal.grid, 1.0);
+    match axis.side {
+        Side::Left | Side::Right => tick_lines(&axis.ticks, false, f, f.left, f.right(), &paint),
+        Side::Bottom | Side::Top => tick_lines(&axis.ticks, true, f, f.top, f.bottom(), &paint),
+    }
 }
 
 /// Axis line, tick labels and title.
@@ -787,13 +812,11 @@ pub fn column_size(l: &Legend) -> (f64, f64) {
             (w.max(tw), title_height(l) + GRADIENT_LENGTH + ts)
         }
         body => {
-            let labels: Vec<&String> = match body {
-                LegendBody::Swatches(i, _) => i.iter().map(|x| &x.0).collect(),
-                LegendBody::Sizes(i) => i.iter().map(|x| &x.0).collect(),
-                LegendBody::Shapes(i) => i.iter().map(|x| &x.0).collect(),
-                LegendBody::Gradient { .. } => vec![],
-            };
-            let w = labels.iter().map(|s| item_width(s, lead(body), ts)).fold(tw, f64::max);
+            let labels = body_labels(body);
+            let mut w = tw;
+            for s in &labels {
+                w = w.max(item_width(s, lead(body), ts));
+            }
             (w, title_height(l) + row_height(body, ts) * labels.len() as f64)
         }
     }
@@ -812,12 +835,7 @@ fn row_layout(l: &Legend, max_width: f64) -> (Vec<(f64, usize)>, f64, f64) {
     if let LegendBody::Gradient { .. } = body {
         return (vec![], title_height(l) + GRADIENT_THICKNESS + 4.0 + ts * text::LINE_HEIGHT, GRADIENT_LENGTH.max(text::width(&l.title, ts, false)));
     }
-    let labels: Vec<&String> = match body {
-        LegendBody::Swatches(i, _) => i.iter().map(|x| &x.0).collect(),
-        LegendBody::Sizes(i) => i.iter().map(|x| &x.0).collect(),
-        LegendBody::Shapes(i) => i.iter().map(|x| &x.0).collect(),
-        LegendBody::Gradient { .. } => vec![],
-    };
+    let labels = body_labels(body);
     let mut pos = Vec::new();
     let (mut x, mut row, mut widest) = (0.0, 0usize, 0.0f64);
     for s in labels {
@@ -872,12 +890,36 @@ fn symbol(body: &LegendBody, i: usize, cx: f64, cy: f64, pal: &Palette, default_
 }
 
 fn labels_of(body: &LegendBody) -> Vec<String> {
-    match body {
-        LegendBody::Swatches(i, _) => i.iter().map(|x| x.0.clone()).collect(),
-        LegendBody::Sizes(i) => i.iter().map(|x| x.0.clone()).collect(),
-        LegendBody::Shapes(i) => i.iter().map(|x| x.0.clone()).collect(),
-        LegendBody::Gradient { .. } => vec![],
+    let labels = body_labels(body);
+    let mut out = Vec::with_capacity(labels.len());
+    for l in labels {
+        out.push(l.clone());
     }
+    out
+}
+
+/// The item labels of a legend (none for a gradient), in one loop per kind.
+fn body_labels(body: &LegendBody) -> Vec<&String> {
+    let mut out = Vec::new();
+    match body {
+        LegendBody::Swatches(i, _) => {
+            for x in i {
+                out.push(&x.0);
+            }
+        }
+        LegendBody::Sizes(i) => {
+            for x in i {
+                out.push(&x.0);
+            }
+        }
+        LegendBody::Shapes(i) => {
+            for x in i {
+                out.push(&x.0);
+            }
+        }
+        LegendBody::Gradient { .. } => {}
+    }
+    out
 }
 
 fn gradient(l: &Legend, x: f64, y: f64, vertical: bool, pal: &Palette) -> Vec<Node> {
@@ -973,7 +1015,7 @@ fn wrap_legend(l: &Legend, kids: Vec<Node>) -> Node {
 
 /// Room polar labels need around the circle: (horizontal, vertical) in px.
 pub fn polar_margin(angle_ticks: &[Tick], ts: f64) -> (f64, f64) {
-    let widest = angle_ticks.iter().map(|t| label_width(t, ts)).fold(0.0, f64::max);
+    let widest = widest_label(angle_ticks, ts);
     (widest + LABEL_GAP, ts * text::LINE_HEIGHT + LABEL_GAP)
 }
 

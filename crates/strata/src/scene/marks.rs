@@ -40,7 +40,12 @@ fn channel_name(layer: &PlannedLayer, k: Channel) -> &'static str {
 }
 
 pub(super) fn datum(layer: &PlannedLayer, i: usize) -> Datum {
-    let mut chans: Vec<(&Channel, &Values)> = layer.data.channels.iter().filter(|(k, _)| !k.is_drawing_aid()).collect();
+    let mut chans: Vec<(&Channel, &Values)> = Vec::with_capacity(layer.data.channels.len());
+    for (k, v) in &layer.data.channels {
+        if !k.is_drawing_aid() {
+            chans.push((k, v));
+        }
+    }
     if layer.turned {
         // In the spec's order: its x (the plan's y) first.
         let spec_channel = |k: &Channel| match *k {
@@ -52,11 +57,17 @@ pub(super) fn datum(layer: &PlannedLayer, i: usize) -> Datum {
         };
         crate::sort::by(&mut chans, |a, b| spec_channel(a.0).cmp(&spec_channel(b.0)));
     }
-    let mut d: Datum = chans.into_iter().map(|(k, v)| (channel_name(layer, *k).to_string(), v.json(i))).collect();
+    let mut d = Datum::with_capacity(chans.len() + 1);
+    for (k, v) in chans {
+        d.insert(channel_name(layer, *k).to_string(), v.json(i));
+    }
     // `tooltip` columns ride along under one key; the SVG writer turns them into
     // a hover title and makes the mark keyboard-focusable.
     if !layer.data.tooltips.is_empty() && layer.data.tooltips.iter().all(|(_, v)| v.len() == layer.data.len) {
-        let tips: serde_json::Map<String, serde_json::Value> = layer.data.tooltips.iter().map(|(c, v)| (c.clone(), v.json(i))).collect();
+        let mut tips = serde_json::Map::with_capacity(layer.data.tooltips.len());
+        for (c, v) in &layer.data.tooltips {
+            tips.insert(c.clone(), v.json(i));
+        }
         d.insert("tooltip".into(), serde_json::Value::Object(tips));
     }
     d
@@ -112,16 +123,33 @@ const SERIES_CHANNELS: [Channel; 5] = [Channel::Color, Channel::Group, Channel::
 
 /// Rows split into series by colour, group and panel, in order of first appearance.
 fn series(layer: &PlannedLayer) -> Vec<Vec<usize>> {
-    let cols: Vec<&Values> = SERIES_CHANNELS.iter().filter_map(|c| layer.data.get(*c)).collect();
+    let mut cols: Vec<&Values> = Vec::with_capacity(SERIES_CHANNELS.len());
+    for c in SERIES_CHANNELS {
+        if let Some(v) = layer.data.get(c) {
+            cols.push(v);
+        }
+    }
     if cols.is_empty() {
-        return vec![(0..layer.data.len).collect()];
+        let mut all = Vec::with_capacity(layer.data.len);
+        for i in 0..layer.data.len {
+            all.push(i);
+        }
+        return vec![all];
     }
     // Series in order of first appearance, found by hash (many series stay linear).
     let mut series: indexmap::IndexMap<Vec<Option<String>>, Vec<usize>> = indexmap::IndexMap::new();
     for i in 0..layer.data.len {
-        series.entry(cols.iter().map(|v| v.key(i)).collect()).or_default().push(i);
+        let mut key = Vec::with_capacity(cols.len());
+        for v in &cols {
+            key.push(v.key(i));
+        }
+        series.entry(key).or_default().push(i);
     }
-    series.into_values().collect()
+    let mut out = Vec::with_capacity(series.len());
+    for (_, rows) in series {
+        out.push(rows);
+    }
+    out
 }
 
 fn series_datum(layer: &PlannedLayer, first: usize) -> Datum {
@@ -200,14 +228,36 @@ fn error_bar(ctx: &Ctx, ux: f64, a: f64, b: f64, cap: f64, c: &str, datum: Optio
 /// The pixel column coordinate of a unit x (horizontal pixels; vertical when transposed).
 fn columns(ctx: &Ctx, units: &[(f64, f64)]) -> Option<(Vec<f64>, Vec<f64>, f64)> {
     match ctx.coord {
-        Coord::Cartesian(f) => {
-            Some((units.iter().map(|u| f.left + u.0 * f.width).collect(), units.iter().map(|u| f.bottom() - u.1 * f.height).collect(), f.width))
-        }
-        Coord::Transposed(f) => {
-            Some((units.iter().map(|u| f.top + u.0 * f.height).collect(), units.iter().map(|u| f.left + u.1 * f.width).collect(), f.height))
-        }
+        // (`bottom - u * height` is `bottom + u * -height` to the bit.)
+        Coord::Cartesian(f) => Some((affine(units, false, f.left, f.width), affine(units, true, f.bottom(), -f.height), f.width)),
+        Coord::Transposed(f) => Some((affine(units, false, f.top, f.height), affine(units, true, f.left, f.width), f.height)),
         Coord::Polar { .. } => None,
     }
+}
+
+/// `a + v * b` for each point's x (or y, `of_y`): one monomorphic loop for
+/// the four pixel columns above.
+fn affine(units: &[(f64, f64)], of_y: bool, a: f64, b: f64) -> Vec<f64> {
+    let mut out = Vec::with_capacity(units.len());
+    if of_y {
+        for u in units {
+            out.push(a + u.1 * b);
+        }
+    } else {
+        for u in units {
+            out.push(a + u.0 * b);
+        }
+    }
+    out
+}
+
+/// The points at `idx` (the M4 selection), in one loop shared by lines and bands.
+fn pick_points(v: &[(f64, f64)], idx: &[usize]) -> Vec<(f64, f64)> {
+    let mut out = Vec::with_capacity(idx.len());
+    for &i in idx {
+        out.push(v[i]);
+    }
+    out
 }
 
 /// Indices into `units` to draw: all, or the M4 selection when there are
@@ -334,7 +384,7 @@ fn series_units(ctx: &Ctx, layer: &PlannedLayer, rows: &RowSet, ych: Channel) ->
     }
     let n = pts.len();
     match m4_keep(ctx, &pts) {
-        Some(k) => (k.iter().map(|i| pts[*i]).collect(), n, true),
+        Some(k) => (pick_points(&pts, &k), n, true),
         None => (pts, n, false),
     }
 }
@@ -481,8 +531,12 @@ fn band_path(ctx: &Ctx, layer: &PlannedLayer, rows: &[usize], lo: Channel, hi: C
     if !pts.windows(2).all(|w| w[0].0 <= w[1].0) {
         crate::sort::by_f64_key(&mut pts, |p| p.0);
     }
-    let tops: Vec<(f64, f64)> = pts.iter().map(|p| (p.0, p.1)).collect();
-    let bottoms: Vec<(f64, f64)> = pts.iter().map(|p| (p.0, p.2)).collect();
+    let mut tops: Vec<(f64, f64)> = Vec::with_capacity(pts.len());
+    let mut bottoms: Vec<(f64, f64)> = Vec::with_capacity(pts.len());
+    for p in &pts {
+        tops.push((p.0, p.1));
+        bottoms.push((p.0, p.2));
+    }
     // M4 on both edges; keep the union so top and bottom stay paired.
     let keep = match (m4_keep(ctx, &tops), m4_keep(ctx, &bottoms)) {
         (Some(a), Some(b)) => {
@@ -496,7 +550,7 @@ fn band_path(ctx: &Ctx, layer: &PlannedLayer, rows: &[usize], lo: Channel, hi: C
     };
     let pick = |v: &[(f64, f64)]| -> Vec<(f64, f64)> {
         match &keep {
-            Some(k) => k.iter().map(|i| v[*i]).collect(),
+            Some(k) => pick_points(v, k),
             None => v.to_vec(),
         }
     };
@@ -681,7 +735,10 @@ fn boxes(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         if uw > q3 {
             lines.push(seg((xm, q3), (xm, uw)));
         }
-        let dd: Vec<Seg> = lines.iter().flat_map(|l| polyline(l, false)).collect();
+        let mut dd: Vec<Seg> = Vec::new();
+        for l in &lines {
+            dd.extend(polyline(l, false));
+        }
         out.push(Node::Path { d: dd, paint: Paint::stroke(&c, 1.5), datum: None });
         // The box outline.
         let outline = ctx.coord.line(&[(x0, q1), (x1, q1), (x1, q3), (x0, q3)]);
