@@ -247,7 +247,7 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
     let (cats, num) = collect(layers, Channel::Color);
     let color = if color_spec.kind == Some(ScaleKind::Category) || !cats.is_empty() {
         let cats = match &color_spec.domain {
-            Some(d) => d.iter().map(json_word).collect(),
+            Some(d) => json_words(d),
             None if !cats.is_empty() => cats,
             None => num_as_text(layers, Channel::Color),
         };
@@ -368,8 +368,13 @@ const THIN_MARK_CONTRAST: f64 = 3.0;
 /// spread. A ramp's palest end is made for filled areas; on points it all
 /// but vanished on white (found in a user trial).
 pub fn thin_mark_span(ramp: color::Ramp, background: &str) -> (f64, f64) {
-    let ok: Vec<f64> =
-        (0..=100).map(|k| k as f64 / 100.0).filter(|t| color::contrast(&ramp.at(*t), background).is_some_and(|c| c >= THIN_MARK_CONTRAST)).collect();
+    let mut ok: Vec<f64> = Vec::new();
+    for k in 0..=100 {
+        let t = k as f64 / 100.0;
+        if color::contrast(&ramp.at(t), background).is_some_and(|c| c >= THIN_MARK_CONTRAST) {
+            ok.push(t);
+        }
+    }
     let (Some(&lo), Some(&hi)) = (ok.first(), ok.last()) else { return (0.0, 1.0) };
     if hi - lo >= 0.5 {
         return (lo, hi);
@@ -405,7 +410,7 @@ pub fn chosen_color_warnings(scales: &Scales) -> Vec<Diagnostic> {
             .at_path(format!("scales.color.values.{}", crate::expr::path_key(k)));
         out.push(match crate::spec::closest(k, cats.iter().map(String::as_str)) {
             Some(s) => d.with_hint(format!("did you mean `{s}`?")),
-            None => d.with_hint(format!("the categories are: {}", cats.iter().take(12).cloned().collect::<Vec<_>>().join(", "))),
+            None => d.with_hint(format!("the categories are: {}", cats[..cats.len().min(12)].join(", "))),
         });
     }
     out
@@ -425,6 +430,20 @@ fn add_distinct(cats: &mut Vec<String>, seen: &mut HashMap<String, usize>, v: &[
 
 fn json_word(v: &serde_json::Value) -> String {
     v.as_str().map(str::to_string).unwrap_or_else(|| v.to_string())
+}
+
+/// [`json_word`] of each value, in one loop for every list the spec gives.
+fn json_words(list: &[serde_json::Value]) -> Vec<String> {
+    let mut out = Vec::with_capacity(list.len());
+    for v in list {
+        out.push(json_word(v));
+    }
+    out
+}
+
+/// A date (`2024-01-31`) or date-time in ms since 1970 UTC.
+fn date_ms(t: &str) -> Option<f64> {
+    crate::calendar::parse_date(t).map(|d| d as f64 * 86_400_000.0).or_else(|| crate::calendar::parse_datetime(t).map(|ms| ms as f64))
 }
 
 /// Categories (text) and the numeric range of a channel across layers.
@@ -451,15 +470,7 @@ fn collect(layers: &[PlannedLayer], ch: Channel) -> (Vec<String>, Option<(f64, f
 
 /// Distinct numbers of a channel, sorted, as category words.
 fn num_as_text(layers: &[PlannedLayer], ch: Channel) -> Vec<String> {
-    let mut v: Vec<f64> = Vec::new();
-    for l in layers {
-        if let Some(Values::Num(xs) | Values::Time(xs)) = l.data.get(ch) {
-            v.extend(xs.present());
-        }
-    }
-    v.sort_by(f64::total_cmp);
-    v.dedup();
-    v.into_iter().map(l_key).collect()
+    num_as_text_position(layers, &[ch])
 }
 
 fn l_key(x: f64) -> String {
@@ -470,15 +481,12 @@ fn l_key(x: f64) -> String {
 /// A two-value domain from the spec: numbers, or ISO dates for time scales.
 fn explicit_domain(s: &ScaleSpec, axis: &str) -> Result<Option<(f64, f64)>, Errors> {
     let Some(dom) = &s.domain else { return Ok(None) };
-    let nums: Vec<f64> = dom
-        .iter()
-        .filter_map(|v| {
-            v.as_f64().or_else(|| {
-                let t = v.as_str()?;
-                crate::calendar::parse_date(t).map(|d| d as f64 * 86_400_000.0).or_else(|| crate::calendar::parse_datetime(t).map(|ms| ms as f64))
-            })
-        })
-        .collect();
+    let mut nums: Vec<f64> = Vec::with_capacity(dom.len());
+    for v in dom {
+        if let Some(x) = v.as_f64().or_else(|| date_ms(v.as_str()?)) {
+            nums.push(x);
+        }
+    }
     if nums.len() != 2 || dom.len() != 2 {
         return Err(domain_error(axis));
     }
@@ -490,16 +498,10 @@ fn explicit_domain(s: &ScaleSpec, axis: &str) -> Result<Option<(f64, f64)>, Erro
 fn train_position(channels: &[Channel], axis: &str, s: &ScaleSpec, layers: &[PlannedLayer]) -> Result<(PositionScale, bool), Errors> {
     let (scale, nice) = train_position_bare(channels, axis, s, layers)?;
     let Some(crate::spec::Ticks::Values(list)) = &s.ticks else { return Ok((scale, nice)) };
-    let names: Vec<String> = list.iter().map(json_word).collect();
+    let names = json_words(list);
     let mut numbers = Vec::with_capacity(list.len());
     for (i, v) in list.iter().enumerate() {
-        let n = if scale.is_time() {
-            v.as_str().and_then(|t| {
-                crate::calendar::parse_date(t).map(|d| d as f64 * 86_400_000.0).or_else(|| crate::calendar::parse_datetime(t).map(|ms| ms as f64))
-            })
-        } else {
-            v.as_f64()
-        };
+        let n = if scale.is_time() { v.as_str().and_then(date_ms) } else { v.as_f64() };
         match n {
             Some(n) => numbers.push(n),
             None if !scale.is_discrete() => {
@@ -553,7 +555,7 @@ fn train_position_bare(channels: &[Channel], axis: &str, s: &ScaleSpec, layers: 
     let want_category = s.kind == Some(ScaleKind::Category) || (s.kind.is_none() && any_text);
     if want_category {
         if let Some(dom) = &s.domain {
-            cats = dom.iter().map(json_word).collect();
+            cats = json_words(dom);
         } else if !any_text && any_num {
             // Numbers asked to be categories: sorted distinct values.
             cats = num_as_text_position(layers, channels);
@@ -726,7 +728,11 @@ fn num_as_text_position(layers: &[PlannedLayer], channels: &[Channel]) -> Vec<St
     }
     v.sort_by(f64::total_cmp);
     v.dedup();
-    v.into_iter().map(l_key).collect()
+    let mut out = Vec::with_capacity(v.len());
+    for x in v {
+        out.push(l_key(x));
+    }
+    out
 }
 
 impl PositionScale {

@@ -131,8 +131,14 @@ pub fn build(plan: &Plan, opts: &SceneOptions) -> Scene {
     // a quarter of the width; otherwise rows on top.
     let mut legends: Vec<Legend> = guides::legends(scales, guides::SwatchMark::of(&plan.layers), ts);
     // Series named at their line ends need no colour legend.
-    let colour_layers: Vec<_> = plan.layers.iter().filter(|l| l.data.names.contains_key(&Channel::Color)).collect();
-    if !colour_layers.is_empty() && colour_layers.iter().all(|l| names_ends(l)) {
+    let (mut colour_layers, mut all_named) = (0, true);
+    for l in &plan.layers {
+        if l.data.names.contains_key(&Channel::Color) {
+            colour_layers += 1;
+            all_named &= names_ends(l);
+        }
+    }
+    if colour_layers > 0 && all_named {
         legends.retain(|l| l.channel != Channel::Color);
     }
     let mut right = width - pad;
@@ -140,8 +146,13 @@ pub fn build(plan: &Plan, opts: &SceneOptions) -> Scene {
     let mut legend_nodes = Vec::new();
     let mut legend_on_right = false;
     if !legends.is_empty() {
-        let col_w = legends.iter().map(|l| guides::column_size(l).0).fold(0.0, f64::max);
-        let col_h: f64 = legends.iter().map(|l| guides::column_size(l).1 + 12.0).sum();
+        // (The sum from -0.0, as `Iterator::sum` of f64 starts.)
+        let (mut col_w, mut col_h) = (0.0f64, -0.0f64);
+        for l in &legends {
+            let (w, h) = guides::column_size(l);
+            col_w = col_w.max(w);
+            col_h += h + 12.0;
+        }
         let placement_of = |l: &Legend| match l.channel {
             Channel::Size => scales.size_spec.legend,
             Channel::Shape => scales.shape_spec.legend,
@@ -571,14 +582,13 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
     };
     let top = top + 4.0;
     // Room right of the frame for series named at their line ends.
-    let ends_w = plan
-        .layers
-        .iter()
-        .flat_map(|l| {
-            let size = l.style.font_size.filter(|s| s.is_finite() && *s > 0.0).unwrap_or(inp.ts * 11.0 / 12.0);
-            end_names(l).into_iter().map(move |n| text::width(&n, size, false))
-        })
-        .fold(0.0, f64::max);
+    let mut ends_w = 0.0f64;
+    for l in &plan.layers {
+        let size = l.style.font_size.filter(|s| s.is_finite() && *s > 0.0).unwrap_or(inp.ts * 11.0 / 12.0);
+        for n in end_names(l) {
+            ends_w = ends_w.max(text::width(&n, size, false));
+        }
+    }
     let right = if ends_w > 0.0 { (right - ends_w - END_GAP).max(x0 + 40.0) } else { right };
     // First guess of the plot height, for the vertical ticks (and so the left margin).
     let guess_h = (bottom - top - 2.0 * TITLE_SIZE * inp.ts / guides::TICK_SIZE * text::LINE_HEIGHT).max(20.0);
