@@ -296,15 +296,16 @@ pub fn wrap_two(label: &str, max_w: f64, ts: f64) -> Option<String> {
         return Some(label.to_string());
     }
     let words: Vec<&str> = label.split_whitespace().collect();
-    (1..words.len())
-        .map(|k| {
-            let (a, b) = (words[..k].join(" "), words[k..].join(" "));
-            let w = text::width(&a, ts, false).max(text::width(&b, ts, false));
-            (w, format!("{a}\n{b}"))
-        })
-        .filter(|(w, _)| *w <= max_w)
-        .min_by(|x, y| x.0.total_cmp(&y.0))
-        .map(|(_, s)| s)
+    // The first split with the least width, as `min_by` keeps the first.
+    let mut best: Option<(f64, String)> = None;
+    for k in 1..words.len() {
+        let (a, b) = (words[..k].join(" "), words[k..].join(" "));
+        let w = text::width(&a, ts, false).max(text::width(&b, ts, false));
+        if w <= max_w && best.as_ref().is_none_or(|(bw, _)| w.total_cmp(bw).is_lt()) {
+            best = Some((w, format!("{a}\n{b}")));
+        }
+    }
+    best.map(|(_, s)| s)
 }
 
 /// Each label cut to the longest prefix that fits `max_w` px with an
@@ -329,37 +330,37 @@ pub fn unique_prefixes(labels: &[String], max_w: f64, ts: f64) -> Option<Vec<Str
         need[i] = n + 1;
     }
     let ell = text::width("\u{2026}", ts, false);
-    labels
-        .iter()
-        .zip(need)
-        .map(|(l, n)| {
-            if text::width(l, ts, false) <= max_w {
-                return Some(l.clone());
+    let mut out = Vec::with_capacity(labels.len());
+    for (l, n) in labels.iter().zip(need) {
+        if text::width(l, ts, false) <= max_w {
+            out.push(l.clone());
+            continue;
+        }
+        if n >= l.chars().count() {
+            return None; // the whole label is another's prefix, and too long
+        }
+        let mut w = 0.0;
+        let mut cut = 0;
+        let mut end = 0; // byte length of the first `cut` characters
+        for c in l.chars() {
+            let a = text::advance(c, false) * ts;
+            if w + a + ell > max_w {
+                break;
             }
-            let chars: Vec<char> = l.chars().collect();
-            if n >= chars.len() {
-                return None; // the whole label is another's prefix, and too long
-            }
-            let mut w = 0.0;
-            let mut cut = 0;
-            for c in &chars {
-                let a = text::advance(*c, false) * ts;
-                if w + a + ell > max_w {
-                    break;
-                }
-                w += a;
-                cut += 1;
-            }
-            if cut < n {
-                return None;
-            }
-            let head: String = chars[..cut].iter().collect();
-            let trimmed = head.trim_end();
-            // Trimming a trailing space must not undo the telling part.
-            let head = if trimmed.chars().count() >= n { trimmed.to_string() } else { head };
-            Some(format!("{head}\u{2026}"))
-        })
-        .collect()
+            w += a;
+            cut += 1;
+            end += c.len_utf8();
+        }
+        if cut < n {
+            return None;
+        }
+        let head = &l[..end];
+        let trimmed = head.trim_end();
+        // Trimming a trailing space must not undo the telling part.
+        let head = if trimmed.chars().count() >= n { trimmed } else { head };
+        out.push(format!("{head}\u{2026}"));
+    }
+    Some(out)
 }
 
 /// Labels cut to `max_w` px, telling apart: unique prefixes where they fit,
@@ -373,7 +374,10 @@ pub fn shorten_unique(labels: &[String], max_w: f64, ts: f64) -> Vec<String> {
 /// start (and end), marking the cut with an ellipsis.
 pub fn shorten_all(labels: &[String], max_w: f64, ts: f64) -> Vec<String> {
     let fit = |s: &str| text::fit(s, ts, false, max_w);
-    let simple: Vec<String> = labels.iter().map(|l| fit(l)).collect();
+    let mut simple: Vec<String> = Vec::with_capacity(labels.len());
+    for l in labels {
+        simple.push(fit(l));
+    }
     let distinct = |v: &[String]| {
         let mut s: Vec<&String> = v.iter().collect();
         crate::sort::by(&mut s, |a, b| a.cmp(b));
@@ -382,7 +386,10 @@ pub fn shorten_all(labels: &[String], max_w: f64, ts: f64) -> Vec<String> {
     if distinct(&simple) || labels.len() < 2 {
         return simple;
     }
-    let words: Vec<Vec<&str>> = labels.iter().map(|l| l.split(' ').collect()).collect();
+    let mut words: Vec<Vec<&str>> = Vec::with_capacity(labels.len());
+    for l in labels {
+        words.push(l.split(' ').collect());
+    }
     let shortest = words.iter().map(Vec::len).min().unwrap_or(0);
     let mut head = 0;
     while head + 1 < shortest && words.iter().all(|w| w[head] == words[0][head]) {
@@ -392,15 +399,12 @@ pub fn shorten_all(labels: &[String], max_w: f64, ts: f64) -> Vec<String> {
     while head + tail + 1 < shortest && words.iter().all(|w| w[w.len() - 1 - tail] == words[0][words[0].len() - 1 - tail]) {
         tail += 1;
     }
-    let core: Vec<String> = words
-        .iter()
-        .map(|w| {
-            let mid = w[head..w.len() - tail].join(" ");
-            let pre = if head > 0 { "\u{2026}" } else { "" };
-            let post = if tail > 0 { "\u{2026}" } else { "" };
-            fit(&format!("{pre}{mid}{post}"))
-        })
-        .collect();
+    let (pre, post) = (if head > 0 { "\u{2026}" } else { "" }, if tail > 0 { "\u{2026}" } else { "" });
+    let mut core: Vec<String> = Vec::with_capacity(words.len());
+    for w in &words {
+        let mid = w[head..w.len() - tail].join(" ");
+        core.push(fit(&format!("{pre}{mid}{post}")));
+    }
     if distinct(&core) {
         core
     } else {

@@ -313,7 +313,12 @@ fn line_series(layer: &PlannedLayer) -> Vec<RowSet> {
     if SERIES_CHANNELS.iter().all(|c| layer.data.get(*c).is_none()) {
         return vec![RowSet::All(layer.data.len)];
     }
-    series(layer).into_iter().map(RowSet::List).collect()
+    let all = series(layer);
+    let mut out = Vec::with_capacity(all.len());
+    for rows in all {
+        out.push(RowSet::List(rows));
+    }
+    out
 }
 
 /// The pixel column of a unit x, for M4 (None in polar coordinates).
@@ -753,7 +758,14 @@ fn cells(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     let d = &layer.data;
     let (Some(xv), Some(yv)) = (d.get(Channel::X), d.get(Channel::Y)) else { return vec![] };
     let counts = d.get(Channel::Count);
-    let max_count = counts.map(|c| (0..d.len).filter_map(|i| c.num(i)).fold(0.0, f64::max)).unwrap_or(0.0);
+    let mut max_count = 0.0f64;
+    if let Some(c) = counts {
+        for i in 0..d.len {
+            if let Some(x) = c.num(i) {
+                max_count = max_count.max(x);
+            }
+        }
+    }
     let (xb, yb) = (ctx.scales.x.band(), ctx.scales.y.band());
     let mut out = Vec::with_capacity(d.len);
     for i in 0..d.len {
@@ -881,35 +893,48 @@ pub(super) struct Grid {
 const CELL: f64 = 32.0;
 
 impl Grid {
-    fn cells_of(b: Box4) -> impl Iterator<Item = (i64, i64)> {
+    /// The cells a box touches, row by row (x outer, y inner): the first
+    /// and last cell along x and y. A box or segment spanning many cells is
+    /// indexed in at most 64 along each side.
+    fn cells_of(b: Box4) -> (i64, i64, i64, i64) {
         let c = |v: f64| (v / CELL).floor().clamp(-1e6, 1e6) as i64;
         let (x0, x1, y0, y1) = (c(b.0), c(b.2), c(b.1), c(b.3));
-        // A box or segment spanning many cells is indexed in at most 64 along each side.
-        (x0..=x1.min(x0 + 64)).flat_map(move |x| (y0..=y1.min(y0 + 64)).map(move |y| (x, y)))
+        (x0, x1.min(x0 + 64), y0, y1.min(y0 + 64))
     }
     /// Items are numbered: boxes as 2k, segments as 2k + 1.
     pub(super) fn add_box(&mut self, b: Box4) {
         let id = 2 * self.boxes.len();
         self.boxes.push(b);
-        for c in Self::cells_of(b) {
-            self.cells.entry(c).or_default().push(id);
-        }
+        self.index(b, id);
     }
     pub(super) fn add_segment(&mut self, p: (f64, f64), q: (f64, f64)) {
         let id = 2 * self.segs.len() + 1;
         self.segs.push((p, q));
-        for c in Self::cells_of((p.0.min(q.0), p.1.min(q.1), p.0.max(q.0), p.1.max(q.1))) {
-            self.cells.entry(c).or_default().push(id);
+        self.index((p.0.min(q.0), p.1.min(q.1), p.0.max(q.0), p.1.max(q.1)), id);
+    }
+    fn index(&mut self, b: Box4, id: usize) {
+        let (x0, x1, y0, y1) = Self::cells_of(b);
+        for x in x0..=x1 {
+            for y in y0..=y1 {
+                self.cells.entry((x, y)).or_default().push(id);
+            }
         }
     }
     /// Is the box clear of every box and segment stored?
     pub(super) fn free(&self, b: Box4) -> bool {
-        Self::cells_of(b).all(|c| {
-            self.cells.get(&c).is_none_or(|ids| {
-                ids.iter()
-                    .all(|&id| if id % 2 == 0 { !boxes_overlap(self.boxes[id / 2], b) } else { !segment_hits_box(self.segs[id / 2].0, self.segs[id / 2].1, b) })
-            })
-        })
+        let (x0, x1, y0, y1) = Self::cells_of(b);
+        for x in x0..=x1 {
+            for y in y0..=y1 {
+                let Some(ids) = self.cells.get(&(x, y)) else { continue };
+                for &id in ids {
+                    let hit = if id % 2 == 0 { boxes_overlap(self.boxes[id / 2], b) } else { segment_hits_box(self.segs[id / 2].0, self.segs[id / 2].1, b) };
+                    if hit {
+                        return false;
+                    }
+                }
+            }
+        }
+        true
     }
 
     /// Every data mark and label mark under `nodes` as obstacles: boxes of
@@ -1040,7 +1065,12 @@ pub fn end_names(layer: &PlannedLayer) -> Vec<String> {
     if !names_ends(layer) {
         return vec![];
     }
-    let mut out: Vec<String> = series(layer).iter().filter_map(|rows| rows.first()).map(|&i| series_name(layer, i)).collect();
+    let mut out: Vec<String> = Vec::new();
+    for rows in series(layer) {
+        if let Some(&i) = rows.first() {
+            out.push(series_name(layer, i));
+        }
+    }
     out.dedup();
     out
 }
@@ -1108,12 +1138,15 @@ fn end_labels(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     }
     let frame = ctx.coord.frame();
     let line = size * crate::text::LINE_HEIGHT;
-    let want: Vec<f64> = ends.iter().map(|e| e.2).collect();
+    let mut want: Vec<f64> = Vec::with_capacity(ends.len());
+    for e in &ends {
+        want.push(e.2);
+    }
     let at = crate::text::place::spread(&want, line, frame.top + line / 2.0, frame.bottom() - line / 2.0);
     let cap = size * crate::text::CAP;
-    ends.into_iter()
-        .zip(at)
-        .map(|((name, px, _, colour), y)| Node::Text {
+    let mut out = Vec::with_capacity(ends.len());
+    for ((name, px, _, colour), y) in ends.into_iter().zip(at) {
+        out.push(Node::Text {
             x: px + END_GAP,
             y: y + cap / 2.0,
             text: name,
@@ -1123,8 +1156,9 @@ fn end_labels(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
             angle: 0.0,
             fill: readable_on(&colour, &ctx.palette.background),
             class: "strata-label strata-end-label".into(),
-        })
-        .collect()
+        });
+    }
+    out
 }
 
 /// Label marks. Where each goes, in order of preference, keeping off the
