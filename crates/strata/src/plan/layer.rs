@@ -208,12 +208,16 @@ pub fn turn(d: &mut LayerData) {
 /// positions and free panel axes trade places.
 pub fn turn_spec(spec: &Spec) -> Spec {
     let mut s = spec.clone();
-    let (x, y) = (s.scales.shift_remove(&Channel::X), s.scales.shift_remove(&Channel::Y));
-    if let Some(v) = y {
-        s.scales.insert(Channel::X, v);
-    }
-    if let Some(v) = x {
-        s.scales.insert(Channel::Y, v);
+    // The scales renamed in place (no removal code for the spec's map type:
+    // nothing reads the turned spec's scales in order, only by channel).
+    let scales = std::mem::take(&mut s.scales);
+    for (k, v) in scales {
+        let k = match k {
+            Channel::X => Channel::Y,
+            Channel::Y => Channel::X,
+            other => other,
+        };
+        s.scales.insert(k, v);
     }
     for n in &mut s.notes {
         std::mem::swap(&mut n.x, &mut n.y);

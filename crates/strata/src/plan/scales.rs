@@ -100,7 +100,7 @@ impl Scales {
     /// gathered into one item, "Other", after the rest.
     pub fn category_legend(&self) -> Vec<(String, String)> {
         let Some(ColorScale::Categories(cats)) = &self.color else { return Vec::new() };
-        let vals = Values::Text(cats.iter().cloned().map(Some).collect());
+        let vals = Values::texts(cats);
         let mut items: Vec<(String, String)> = Vec::new();
         let mut others: Vec<&String> = Vec::new();
         for (i, c) in cats.iter().enumerate() {

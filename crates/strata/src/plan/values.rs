@@ -27,6 +27,14 @@ impl Values {
     pub fn is_empty(&self) -> bool {
         self.len() == 0
     }
+    /// Text values, every one present (a legend's categories).
+    pub fn texts(list: &[String]) -> Values {
+        let mut out = Vec::with_capacity(list.len());
+        for s in list {
+            out.push(Some(s.clone()));
+        }
+        Values::Text(out)
+    }
     pub fn is_discrete(&self) -> bool {
         matches!(self, Values::Text(_))
     }

@@ -307,7 +307,13 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, names: GridNames, cells: &[Plan], ri
     let band = guides::title_band(inp.ts);
     // Row names read across at the left of each row (bold, up to a fifth of the width).
     let row_names_w = match rows {
-        Some(rows) => (rows.iter().map(|r| text::width(r, inp.ts, true)).fold(0.0, f64::max) + 10.0).min(inp.width * 0.2),
+        Some(rows) => {
+            let mut w = 0.0f64;
+            for r in rows {
+                w = w.max(text::width(r, inp.ts, true));
+            }
+            (w + 10.0).min(inp.width * 0.2)
+        }
         None => 0.0,
     };
     let col_strip = if cols.is_some() { strip(inp.ts) } else { 0.0 };
@@ -748,9 +754,11 @@ fn plot_draw(inp: &PlotInputs, plan: &Plan, lay: &PlotLayout, frame: Frame, draw
             let (a_scale, r_scale, a_spec, r_spec) =
                 if angle_is_x { (&scales.x, &scales.y, &scales.x_spec, &scales.y_spec) } else { (&scales.y, &scales.x, &scales.y_spec, &scales.x_spec) };
             let a_opts = crate::scale::TickOptions { wanted: if narrow { 6 } else { 8 }, pattern: a_spec.format.as_deref(), locale: loc, short: false };
-            let a_ticks = if a_spec.hide { vec![] } else { a_scale.ticks_with(&a_opts) };
+            let mut a_ticks = if a_spec.hide { vec![] } else { a_scale.ticks_with(&a_opts) };
             // A full turn: the last continuous tick would sit on the first.
-            let a_ticks: Vec<crate::scale::Tick> = a_ticks.into_iter().filter(|t| a_scale.is_discrete() || t.unit < 1.0 - 1e-9).collect();
+            if !a_scale.is_discrete() {
+                a_ticks.retain(|t| t.unit < 1.0 - 1e-9);
+            }
             let r_opts = crate::scale::TickOptions { wanted: 4, pattern: r_spec.format.as_deref(), locale: loc, short: false };
             // No layer maps the radius (a donut with no x): no radius ticks.
             let r_channel = if angle_is_x { crate::channel::Channel::Y } else { crate::channel::Channel::X };

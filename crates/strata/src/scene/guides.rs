@@ -623,8 +623,10 @@ fn tick_text(x: f64, y: f64, t: &Tick, anchor: Anchor, pal: &Palette, ts: f64) -
     if !t.label.contains('\n') {
         return label(x, y, &t.label, anchor, &pal.muted, "strata-tick", ts);
     }
-    let lines =
-        t.label.split('\n').enumerate().map(|(k, l)| label(x, y + k as f64 * ts * text::LINE_HEIGHT, l, anchor, &pal.muted, "strata-tick", ts)).collect();
+    let mut lines = Vec::new();
+    for (k, l) in t.label.split('\n').enumerate() {
+        lines.push(label(x, y + k as f64 * ts * text::LINE_HEIGHT, l, anchor, &pal.muted, "strata-tick", ts));
+    }
     Node::group("strata-tick-lines", lines)
 }
 
@@ -733,24 +735,32 @@ pub fn legends(scales: &Scales, mark: SwatchMark, size: f64) -> Vec<Legend> {
         }
         Some(ColorScale::Ramp { lo, hi }) if !hidden(&scales.color_spec) => {
             let (lo, hi) = (*lo, *hi);
-            let colors = (0..GRADIENT_STEPS)
-                .map(|k| scales.ramp_color(lo + (hi - lo) * (k as f64 + 0.5) / GRADIENT_STEPS as f64, lo, hi, scales.color_scheme))
-                .collect();
+            let mut colors = Vec::with_capacity(GRADIENT_STEPS);
+            for k in 0..GRADIENT_STEPS {
+                colors.push(scales.ramp_color(lo + (hi - lo) * (k as f64 + 0.5) / GRADIENT_STEPS as f64, lo, hi, scales.color_scheme));
+            }
             let scale = PositionScale::linear(lo, hi);
             let ticks = scale.ticks_with(&TickOptions { wanted: 3, pattern: scales.color_spec.format.as_deref(), locale: loc, short: false });
             out.push(Legend { title: scales.color_title.clone(), body: LegendBody::Gradient { colors, ticks }, channel: Channel::Color, size });
         }
         Some(ColorScale::Steps { lo, bounds }) if !hidden(&scales.color_spec) => {
             // A stepped legend: one swatch a class, labelled with its break values.
-            let all: Vec<f64> = std::iter::once(*lo).chain(bounds.iter().copied()).collect();
-            let step = all.windows(2).map(|w| w[1] - w[0]).filter(|d| *d > 0.0).fold(f64::INFINITY, f64::min);
+            let mut all: Vec<f64> = Vec::with_capacity(bounds.len() + 1);
+            all.push(*lo);
+            all.extend_from_slice(bounds);
+            let mut step = f64::INFINITY;
+            for w in all.windows(2) {
+                let d = w[1] - w[0];
+                if d > 0.0 {
+                    step = step.min(d);
+                }
+            }
             let pattern = scales.color_spec.format.clone().unwrap_or_else(|| crate::format::default_pattern(if step.is_finite() { step } else { 1.0 }));
             let f = |v: f64| crate::format::number(v, &pattern, loc);
-            let items = bounds
-                .iter()
-                .enumerate()
-                .map(|(i, b)| (format!("{} – {}", f(all[i]), f(*b)), scales.step_color(i, bounds.len(), scales.color_scheme)))
-                .collect();
+            let mut items = Vec::with_capacity(bounds.len());
+            for (i, b) in bounds.iter().enumerate() {
+                items.push((format!("{} – {}", f(all[i]), f(*b)), scales.step_color(i, bounds.len(), scales.color_scheme)));
+            }
             out.push(Legend { title: scales.color_title.clone(), body: LegendBody::Swatches(items, SwatchMark::Square), channel: Channel::Color, size });
         }
         _ => {}
@@ -760,14 +770,22 @@ pub fn legends(scales: &Scales, mark: SwatchMark, size: f64) -> Vec<Legend> {
             let vals = s.legend_values();
             let step = if vals.len() > 1 { vals[1] - vals[0] } else { vals.first().copied().unwrap_or(1.0) };
             let pattern = scales.size_spec.format.clone().unwrap_or_else(|| crate::format::default_pattern(step));
-            let items = vals.iter().filter_map(|v| Some((crate::format::number(*v, &pattern, loc), s.radius(*v)?))).collect();
+            let mut items = Vec::with_capacity(vals.len());
+            for v in &vals {
+                if let Some(r) = s.radius(*v) {
+                    items.push((crate::format::number(*v, &pattern, loc), r));
+                }
+            }
             out.push(Legend { title: scales.size_title.clone(), body: LegendBody::Sizes(items), channel: Channel::Size, size });
         }
     }
     if let Some(cats) = &scales.shape {
         if !hidden(&scales.shape_spec) {
-            let vals = crate::plan::Values::Text(cats.iter().cloned().map(Some).collect());
-            let items = cats.iter().enumerate().map(|(i, c)| (c.clone(), i, merged.then(|| scales.color_of(&vals, i)).flatten())).collect();
+            let vals = crate::plan::Values::texts(cats);
+            let mut items = Vec::with_capacity(cats.len());
+            for (i, c) in cats.iter().enumerate() {
+                items.push((c.clone(), i, merged.then(|| scales.color_of(&vals, i)).flatten()));
+            }
             let l = Legend { title: scales.shape_title.clone(), body: LegendBody::Shapes(items), channel: Channel::Shape, size };
             if merged {
                 out.insert(0, l)
@@ -785,16 +803,25 @@ fn item_width(label: &str, lead: f64, ts: f64) -> f64 {
 
 fn lead(body: &LegendBody) -> f64 {
     match body {
-        LegendBody::Sizes(items) => items.iter().map(|(_, r)| 2.0 * r).fold(SWATCH, f64::max),
+        LegendBody::Sizes(items) => widest_size(items, SWATCH, 0.0),
         _ => SWATCH,
     }
 }
 
 fn row_height(body: &LegendBody, ts: f64) -> f64 {
     match body {
-        LegendBody::Sizes(items) => items.iter().map(|(_, r)| 2.0 * r + 4.0).fold(ts * text::LINE_HEIGHT, f64::max),
+        LegendBody::Sizes(items) => widest_size(items, ts * text::LINE_HEIGHT, 4.0),
         _ => ts * text::LINE_HEIGHT,
     }
+}
+
+/// The largest circle diameter plus `pad` of a size legend, at least `least`.
+fn widest_size(items: &[(String, f64)], least: f64, pad: f64) -> f64 {
+    let mut m = least;
+    for (_, r) in items {
+        m = m.max(2.0 * r + pad);
+    }
+    m
 }
 
 fn title_height(l: &Legend) -> f64 {

@@ -367,10 +367,14 @@ fn series_units(ctx: &Ctx, layer: &PlannedLayer, rows: &RowSet, ych: Channel) ->
                         RowSet::List(v) => m4_stream(v.iter().filter_map(|&i| point((a[i], b[i]))), origin, extent),
                     }
                 }
-                _ => match rows {
-                    RowSet::All(n) => m4_stream((0..*n).filter_map(unit), origin, extent),
-                    RowSet::List(v) => m4_stream(v.iter().filter_map(|&i| unit(i)), origin, extent),
-                },
+                // Through the scales (one streaming pass for both kinds of row set).
+                _ => {
+                    let (n, list) = match rows {
+                        RowSet::All(n) => (*n, None),
+                        RowSet::List(v) => (v.len(), Some(v.as_slice())),
+                    };
+                    m4_stream((0..n).filter_map(|k| unit(list.map_or(k, |v| v[k]))), origin, extent)
+                }
             };
             if let Some((kept, n)) = direct {
                 return (kept, n, true);
