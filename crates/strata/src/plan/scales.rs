@@ -104,7 +104,7 @@ impl Scales {
         let mut items: Vec<(String, String)> = Vec::new();
         let mut others: Vec<&String> = Vec::new();
         for (i, c) in cats.iter().enumerate() {
-            if self.color_other.is_some() && !self.color_index.get(c.as_str()).is_some_and(|&j| self.color_chosen[j].is_some()) {
+            if self.color_other.is_some() && self.color_index.get(c.as_str()).is_none_or(|&j| self.color_chosen[j].is_none()) {
                 others.push(c);
                 continue;
             }
