@@ -194,6 +194,115 @@ impl fmt::Display for Channel {
     }
 }
 
+/// A small map keyed by channel, in insertion order: a layer's columns and
+/// their names. A layer has at most a few dozen channels, so a list searched
+/// from the front is as quick as a hash table and needs no hashing code per
+/// value type. Behaves like an insertion-ordered map: `insert` on a present
+/// key replaces its value in place, `swap_remove` moves the last entry into
+/// the gap, and equality ignores the order.
+#[derive(Clone)]
+pub struct ChannelMap<V>(Vec<(Channel, V)>);
+
+impl<V> Default for ChannelMap<V> {
+    fn default() -> Self {
+        ChannelMap(Vec::new())
+    }
+}
+
+impl<V> ChannelMap<V> {
+    pub fn new() -> Self {
+        ChannelMap(Vec::new())
+    }
+    fn position(&self, ch: Channel) -> Option<usize> {
+        self.0.iter().position(|(k, _)| *k == ch)
+    }
+    pub fn len(&self) -> usize {
+        self.0.len()
+    }
+    pub fn is_empty(&self) -> bool {
+        self.0.is_empty()
+    }
+    pub fn get(&self, ch: &Channel) -> Option<&V> {
+        self.position(*ch).map(|i| &self.0[i].1)
+    }
+    pub fn get_mut(&mut self, ch: &Channel) -> Option<&mut V> {
+        self.position(*ch).map(|i| &mut self.0[i].1)
+    }
+    pub fn contains_key(&self, ch: &Channel) -> bool {
+        self.position(*ch).is_some()
+    }
+    /// Set a channel's value; a present channel keeps its place and its old
+    /// value is returned.
+    pub fn insert(&mut self, ch: Channel, v: V) -> Option<V> {
+        match self.position(ch) {
+            Some(i) => Some(std::mem::replace(&mut self.0[i].1, v)),
+            None => {
+                self.0.push((ch, v));
+                None
+            }
+        }
+    }
+    /// Take a channel out; the last entry moves into its place.
+    pub fn swap_remove(&mut self, ch: &Channel) -> Option<V> {
+        self.position(*ch).map(|i| self.0.swap_remove(i).1)
+    }
+    pub fn iter(&self) -> std::iter::Map<std::slice::Iter<'_, (Channel, V)>, fn(&(Channel, V)) -> (&Channel, &V)> {
+        self.0.iter().map(pair)
+    }
+    pub fn keys(&self) -> impl Iterator<Item = &Channel> {
+        self.0.iter().map(|(k, _)| k)
+    }
+    pub fn values(&self) -> impl Iterator<Item = &V> {
+        self.0.iter().map(|(_, v)| v)
+    }
+    /// The entries in channel order (the enum's), through the engine's one sort.
+    pub fn sort_keys(&mut self) {
+        let idx = crate::sort::order(self.0.len(), &mut |a, b| self.0[a].0.cmp(&self.0[b].0));
+        crate::sort::permute(idx, &mut |i, j| self.0.swap(i, j));
+    }
+}
+
+fn pair<V>(e: &(Channel, V)) -> (&Channel, &V) {
+    (&e.0, &e.1)
+}
+
+impl<V> std::ops::Index<&Channel> for ChannelMap<V> {
+    type Output = V;
+    fn index(&self, ch: &Channel) -> &V {
+        self.get(ch).expect("ChannelMap: no entry for the channel")
+    }
+}
+
+impl<'a, V> IntoIterator for &'a ChannelMap<V> {
+    type Item = (&'a Channel, &'a V);
+    type IntoIter = std::iter::Map<std::slice::Iter<'a, (Channel, V)>, fn(&(Channel, V)) -> (&Channel, &V)>;
+    fn into_iter(self) -> Self::IntoIter {
+        self.iter()
+    }
+}
+
+impl<V> FromIterator<(Channel, V)> for ChannelMap<V> {
+    fn from_iter<I: IntoIterator<Item = (Channel, V)>>(iter: I) -> Self {
+        let mut m = ChannelMap::new();
+        for (k, v) in iter {
+            m.insert(k, v);
+        }
+        m
+    }
+}
+
+impl<V: PartialEq> PartialEq for ChannelMap<V> {
+    fn eq(&self, other: &Self) -> bool {
+        self.len() == other.len() && self.0.iter().all(|(k, v)| other.get(k) == Some(v))
+    }
+}
+
+impl<V: fmt::Debug> fmt::Debug for ChannelMap<V> {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.debug_map().entries(self.iter()).finish()
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -211,5 +320,28 @@ mod tests {
         seen.dedup();
         assert_eq!(seen.len(), n);
         assert_eq!(Channel::from_name("colour"), None);
+    }
+
+    /// The map keeps `indexmap::IndexMap`'s insertion-order rules (the type
+    /// it replaced), checked against an `IndexMap` doing the same steps.
+    #[test]
+    fn channel_map_orders_like_an_insertion_ordered_map() {
+        let mut m = ChannelMap::new();
+        let mut r = indexmap::IndexMap::new();
+        for (k, v) in [(Channel::Y, 1), (Channel::X, 2), (Channel::Color, 3), (Channel::Y, 4), (Channel::Text, 5)] {
+            assert_eq!(m.insert(k, v), r.insert(k, v));
+        }
+        assert_eq!(m.swap_remove(&Channel::X), r.swap_remove(&Channel::X));
+        assert_eq!(m.swap_remove(&Channel::Size), r.swap_remove(&Channel::Size));
+        let pairs = |m: &ChannelMap<i32>| m.iter().map(|(k, v)| (*k, *v)).collect::<Vec<_>>();
+        assert_eq!(pairs(&m), r.iter().map(|(k, v)| (*k, *v)).collect::<Vec<_>>());
+        assert_eq!(m[&Channel::Y], 4);
+        assert!(m.contains_key(&Channel::Color) && !m.contains_key(&Channel::X));
+        m.sort_keys();
+        r.sort_keys();
+        assert_eq!(pairs(&m), r.iter().map(|(k, v)| (*k, *v)).collect::<Vec<_>>());
+        // Equality ignores the order, as IndexMap's does.
+        let other: ChannelMap<i32> = pairs(&m).into_iter().rev().collect();
+        assert_eq!(other, m);
     }
 }

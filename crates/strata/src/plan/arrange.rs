@@ -68,15 +68,22 @@ pub fn apply(index: usize, layer: &Layer, geometry: Geometry, mut data: LayerDat
     if layer.arrange == Arrange::Stack || layer.arrange == Arrange::Proportion {
         // Each stack (rows sharing x and panel) by its key, found by hash so
         // that many stacks stay linear: running totals upward and downward.
-        let mut slot_of: HashMap<Option<String>, usize> = HashMap::new();
-        let slots: Vec<usize> = (0..data.len)
-            .map(|i| {
-                let n = slot_of.len();
-                *slot_of.entry(stack_key(&data, i)).or_insert(n)
-            })
-            .collect();
-        let mut up = vec![0.0f64; slot_of.len()];
-        let mut down = vec![0.0f64; slot_of.len()];
+        // (A `HashMap<String, usize>` like the scales' own, and a slot of
+        // its own for rows without a key: one hash map type fewer in the page.)
+        let mut slot_of: HashMap<String, usize> = HashMap::new();
+        let mut keyless: Option<usize> = None;
+        let mut slots: Vec<usize> = Vec::with_capacity(data.len);
+        let mut n = 0;
+        for i in 0..data.len {
+            let slot = match stack_key(&data, i) {
+                Some(k) => *slot_of.entry(k).or_insert(n),
+                None => *keyless.get_or_insert(n),
+            };
+            n = n.max(slot + 1);
+            slots.push(slot);
+        }
+        let mut up = vec![0.0f64; n];
+        let mut down = vec![0.0f64; n];
         let mut top: Vec<Option<f64>> = vec![None; data.len];
         for i in 0..data.len {
             let Some(y) = ys.get(i) else { continue };
@@ -89,7 +96,10 @@ pub fn apply(index: usize, layer: &Layer, geometry: Geometry, mut data: LayerDat
         // labels report); `y_top` is where its extent ends; `total` is its
         // stack's sum.
         let mut own: Vec<Option<f64>> = ys.iter().collect();
-        let total: Vec<Option<f64>> = (0..data.len).map(|i| ys.get(i).map(|_| up[slots[i]] + down[slots[i]])).collect();
+        let mut total: Vec<Option<f64>> = Vec::with_capacity(data.len);
+        for i in 0..data.len {
+            total.push(ys.get(i).map(|_| up[slots[i]] + down[slots[i]]));
+        }
         if layer.arrange == Arrange::Proportion {
             for i in 0..data.len {
                 let whole = up[slots[i]].abs() + down[slots[i]].abs();
@@ -111,11 +121,15 @@ pub fn apply(index: usize, layer: &Layer, geometry: Geometry, mut data: LayerDat
 /// Marks stack when they share x and panel (or grid cell).
 fn stack_key(data: &LayerData, i: usize) -> Option<String> {
     let x = data.get(Channel::X).and_then(|x| x.key(i));
-    let cell: Vec<String> = Channel::PANEL.iter().filter_map(|c| data.get(*c)).map(|v| v.key(i).unwrap_or_default()).collect();
-    if cell.is_empty() {
-        return x;
+    let mut key: Option<String> = None;
+    for c in Channel::PANEL {
+        if let Some(v) = data.get(c) {
+            let k = key.get_or_insert_with(|| x.clone().unwrap_or_default());
+            k.push('\u{1f}');
+            k.push_str(&v.key(i).unwrap_or_default());
+        }
     }
-    Some(format!("{}\u{1f}{}", x.unwrap_or_default(), cell.join("\u{1f}")))
+    key.or(x)
 }
 
 /// Smallest gap between distinct finite values (1 when there is none).
@@ -135,23 +149,39 @@ fn jitter(index: usize, data: &mut LayerData) {
     let mut rng = SplitMix64::new(JITTER_SEED ^ (index as u64).wrapping_mul(0x9E37_79B9_7F4A_7C15));
     let n = data.len;
     // Draw x then y for each row, so either column's jitter never depends on the other being present.
-    let draws: Vec<(f64, f64)> = (0..n).map(|_| (rng.next_f64() * 2.0 - 1.0, rng.next_f64() * 2.0 - 1.0)).collect();
+    let mut draws: Vec<[f64; 2]> = Vec::with_capacity(n);
+    for _ in 0..n {
+        let dx = rng.next_f64() * 2.0 - 1.0;
+        draws.push([dx, rng.next_f64() * 2.0 - 1.0]);
+    }
     match data.get(Channel::X).cloned() {
         Some(Values::Text(_)) => {
-            data.channels.insert(Channel::XOffset, Values::Num(draws.iter().map(|d| Some(0.3 * d.0)).collect()));
+            let mut off = Vec::with_capacity(n);
+            for d in &draws {
+                off.push(0.3 * d[0]);
+            }
+            data.channels.insert(Channel::XOffset, Values::Num(off.into()));
         }
         Some(Values::Num(v)) => {
-            let r = 0.4 * resolution(&v);
-            data.channels.insert(Channel::X, Values::Num(v.iter().zip(&draws).map(|(x, d)| x.map(|x| x + r * d.0)).collect()));
+            data.channels.insert(Channel::X, Values::Num(moved(&v, &draws, 0)));
         }
         Some(Values::Time(v)) => {
-            let r = 0.4 * resolution(&v);
-            data.channels.insert(Channel::X, Values::Time(v.iter().zip(&draws).map(|(x, d)| x.map(|x| x + r * d.0)).collect()));
+            data.channels.insert(Channel::X, Values::Time(moved(&v, &draws, 0)));
         }
         None => {}
     }
     if let Some(Values::Num(v)) = data.get(Channel::Y).cloned() {
-        let r = 0.4 * resolution(&v);
-        data.channels.insert(Channel::Y, Values::Num(v.iter().zip(&draws).map(|(y, d)| y.map(|y| y + r * d.1)).collect()));
+        data.channels.insert(Channel::Y, Values::Num(moved(&v, &draws, 1)));
     }
+}
+
+/// Jittered values: each present value moved by its row's draw `d[k]`
+/// times 0.4 of the data's resolution; a missing one stays missing (NaN).
+fn moved(v: &Nums, draws: &[[f64; 2]], k: usize) -> Nums {
+    let r = 0.4 * resolution(v);
+    let mut out = Vec::with_capacity(v.len());
+    for (&x, d) in v.raw().iter().zip(draws) {
+        out.push(if x.is_finite() { x + r * d[k] } else { f64::NAN });
+    }
+    out.into()
 }

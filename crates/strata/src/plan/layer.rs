@@ -93,38 +93,77 @@ pub fn with_panel(mut data: LayerData, panels: Option<&Panels>, table: &Table) -
 
 /// Convert a table column to layer values, honouring an `as` override.
 pub fn to_values(col: &Column, as_type: Option<ColumnType>) -> Values {
+    // Plain loops into vectors of their final size: no iterator chain
+    // instantiated per conversion.
     let base = match col {
         // Numbers are shared with the table, not copied.
         Column::Float(v) => Values::Num(v.clone()),
-        Column::Int(v) => Values::Num(match &v.valid {
-            None => v.values.iter().map(|x| *x as f64).collect::<Vec<f64>>().into(),
-            Some(_) => v.iter().map(|v| v.map(|x| x as f64)).collect(),
-        }),
-        Column::Date(v) => Values::Time(v.iter().map(|v| v.map(|d| d * 86_400_000.0)).collect()),
+        Column::Int(v) => {
+            let mut out = Vec::with_capacity(v.values.len());
+            match &v.valid {
+                None => {
+                    for x in &v.values {
+                        out.push(*x as f64);
+                    }
+                }
+                Some(_) => {
+                    for x in v.iter() {
+                        out.push(x.map_or(f64::NAN, |x| x as f64));
+                    }
+                }
+            }
+            Values::Num(out.into())
+        }
+        Column::Date(v) => Values::Time(scaled(v, 86_400_000.0)),
         Column::DateTime(v) => Values::Time(v.clone()),
-        Column::Bool(v) => Values::Text(v.iter().map(|v| v.map(|b| b.to_string())).collect()),
-        Column::Text(v) => Values::Text(v.iter().map(|v| v.map(str::to_string)).collect()),
+        Column::Bool(v) => {
+            let mut out = Vec::with_capacity(v.len());
+            for b in v.iter() {
+                out.push(b.map(|b| b.to_string()));
+            }
+            Values::Text(out)
+        }
+        Column::Text(v) => {
+            let mut out = Vec::with_capacity(v.len());
+            for t in v.iter() {
+                out.push(t.map(str::to_string));
+            }
+            Values::Text(out)
+        }
     };
     match (as_type, base) {
         (Some(ColumnType::Text), v @ (Values::Num(_) | Values::Time(_))) => {
             let time = matches!(v, Values::Time(_));
-            Values::Text(
-                (0..v.len())
-                    .map(|i| match (time, v.num(i)) {
-                        (_, None) => None,
-                        (true, Some(ms)) => Some(crate::format::date_label(ms)),
-                        (false, Some(x)) if x.fract() == 0.0 && x.abs() < 1e15 => Some(format!("{}", x as i64)),
-                        (false, Some(x)) => Some(crate::format::float::plain(x)),
-                    })
-                    .collect(),
-            )
+            let mut out = Vec::with_capacity(v.len());
+            for i in 0..v.len() {
+                out.push(match (time, v.num(i)) {
+                    (_, None) => None,
+                    (true, Some(ms)) => Some(crate::format::date_label(ms)),
+                    (false, Some(x)) if x.fract() == 0.0 && x.abs() < 1e15 => Some(format!("{}", x as i64)),
+                    (false, Some(x)) => Some(crate::format::float::plain(x)),
+                });
+            }
+            Values::Text(out)
         }
         // Whole years read as dates: 1 January of the year, UTC.
         (Some(ColumnType::Date), Values::Num(v)) if v.iter().flatten().all(|y| y.fract() == 0.0 && (1000.0..=2999.0).contains(&y)) => {
-            Values::Time(v.iter().map(|y| y.map(|y| crate::calendar::days_from_civil(y as i64, 1, 1) as f64 * 86_400_000.0)).collect())
+            let mut out = Vec::with_capacity(v.len());
+            for y in v.iter() {
+                out.push(y.map_or(f64::NAN, |y| crate::calendar::days_from_civil(y as i64, 1, 1) as f64 * 86_400_000.0));
+            }
+            Values::Time(out.into())
         }
         (_, v) => v,
     }
+}
+
+/// Every number times `k`, a missing one (any non-finite) as NaN.
+fn scaled(v: &crate::data::Nums, k: f64) -> crate::data::Nums {
+    let mut out = Vec::with_capacity(v.len());
+    for &x in v.raw() {
+        out.push(if x.is_finite() { x * k } else { f64::NAN });
+    }
+    out.into()
 }
 
 /// Whether the chart's bars (or boxes) have categories on y and numbers
@@ -161,28 +200,24 @@ pub fn turn(d: &mut LayerData) {
             d.names.insert(b, n);
         }
     }
-    sort_keys(&mut d.channels);
-    sort_keys(&mut d.names);
-}
-
-/// `IndexMap::sort_keys` through the engine's one sort (`crate::sort`);
-/// keys are distinct, so the order is the same.
-fn sort_keys<V>(m: &mut indexmap::IndexMap<Channel, V>) {
-    let keys: Vec<Channel> = m.keys().copied().collect();
-    let idx = crate::sort::order(keys.len(), &mut |a, b| keys[a].cmp(&keys[b]));
-    crate::sort::permute(idx, &mut |i, j| m.swap_indices(i, j));
+    d.channels.sort_keys();
+    d.names.sort_keys();
 }
 
 /// The spec as a turned chart sees it: the x and y scales, the notes'
 /// positions and free panel axes trade places.
 pub fn turn_spec(spec: &Spec) -> Spec {
     let mut s = spec.clone();
-    let (x, y) = (s.scales.shift_remove(&Channel::X), s.scales.shift_remove(&Channel::Y));
-    if let Some(v) = y {
-        s.scales.insert(Channel::X, v);
-    }
-    if let Some(v) = x {
-        s.scales.insert(Channel::Y, v);
+    // The scales renamed in place (no removal code for the spec's map type:
+    // nothing reads the turned spec's scales in order, only by channel).
+    let scales = std::mem::take(&mut s.scales);
+    for (k, v) in scales {
+        let k = match k {
+            Channel::X => Channel::Y,
+            Channel::Y => Channel::X,
+            other => other,
+        };
+        s.scales.insert(k, v);
     }
     for n in &mut s.notes {
         std::mem::swap(&mut n.x, &mut n.y);

@@ -25,10 +25,10 @@ pub use crate::channel::Channel;
 /// scene reads them from the plan and never from the spec.
 pub use crate::spec::{AngleChannel, Arrange, Coords, Geometry, Note, Placement, PointShape, ScaleSpec, Size, Style};
 
+use crate::channel::ChannelMap;
 use crate::data::Table;
 use crate::error::{Diagnostic, Errors};
 use crate::spec::{Layer, Spec};
-use indexmap::IndexMap;
 
 /// A layer's rows after its statistic and position adjustment, keyed by
 /// channel (`x`, `y`, `color`, ...; the internal channels that statistics,
@@ -38,9 +38,9 @@ use indexmap::IndexMap;
 #[derive(Debug, Clone, PartialEq, Default)]
 pub struct LayerData {
     pub len: usize,
-    pub channels: IndexMap<Channel, Values>,
+    pub channels: ChannelMap<Values>,
     /// The column name behind each channel, for axis titles and legends.
-    pub names: IndexMap<Channel, String>,
+    pub names: ChannelMap<String>,
     /// The layer's `tooltip` columns, row for row (kept by statistics that keep
     /// rows; aggregating ones show their own values instead).
     pub tooltips: Vec<(String, Values)>,

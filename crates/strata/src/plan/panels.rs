@@ -20,7 +20,7 @@ use super::{LayerData, Plan, PlannedLayer};
 use crate::channel::Channel;
 use crate::error::{Diagnostic, Errors};
 use crate::spec::Spec;
-use indexmap::IndexSet;
+use std::collections::HashMap;
 
 /// More panels than this is a mistake (a column of many distinct values
 /// given as `by`, `rows` or `cols`): each would be a few pixels wide.
@@ -37,9 +37,36 @@ pub enum PanelPlans {
     Grid { rows: Option<Vec<String>>, cols: Option<Vec<String>>, cells: Vec<Plan> },
 }
 
+/// Distinct values in order of first appearance, each one's place found by
+/// hash (in the `HashMap<String, usize>` type of the scales' `color_index`:
+/// no set type of its own in the page).
+#[derive(Default)]
+struct Distinct {
+    list: Vec<String>,
+    place: HashMap<String, usize>,
+}
+
+impl Distinct {
+    fn insert(&mut self, k: String) {
+        if !self.place.contains_key(k.as_str()) {
+            self.place.insert(k.clone(), self.list.len());
+            self.list.push(k);
+        }
+    }
+    fn len(&self) -> usize {
+        self.list.len()
+    }
+    fn is_empty(&self) -> bool {
+        self.list.is_empty()
+    }
+    fn get_index_of(&self, k: &str) -> Option<usize> {
+        self.place.get(k).copied()
+    }
+}
+
 /// Distinct values of a channel over every layer, in order of first appearance.
-fn values_of(layers: &[PlannedLayer], channel: Channel) -> IndexSet<String> {
-    let mut keys = IndexSet::new();
+fn values_of(layers: &[PlannedLayer], channel: Channel) -> Distinct {
+    let mut keys = Distinct::default();
     for l in layers {
         if let Some(v) = l.data.get(channel) {
             for i in 0..l.data.len {
@@ -53,7 +80,7 @@ fn values_of(layers: &[PlannedLayer], channel: Channel) -> IndexSet<String> {
 }
 
 /// The panel values, or `None` without panels: (by, rows, cols).
-type Values3 = (Option<IndexSet<String>>, Option<IndexSet<String>>, Option<IndexSet<String>>);
+type Values3 = (Option<Distinct>, Option<Distinct>, Option<Distinct>);
 
 fn panel_values(spec: &Spec, layers: &[PlannedLayer]) -> Option<Values3> {
     let p = spec.panels.as_ref()?;
@@ -89,9 +116,9 @@ pub fn split(spec: &Spec, plan: &Plan) -> Option<PanelPlans> {
             return None;
         }
         let cells = cut(plan, &[(Channel::Panel, &keys)], independent);
-        return Some(PanelPlans::Wrap { names: keys.into_iter().collect(), cells });
+        return Some(PanelPlans::Wrap { names: keys.list, cells });
     }
-    let (n_rows, n_cols) = (rows.as_ref().map_or(1, IndexSet::len), cols.as_ref().map_or(1, IndexSet::len));
+    let (n_rows, n_cols) = (rows.as_ref().map_or(1, Distinct::len), cols.as_ref().map_or(1, Distinct::len));
     if rows.is_none() && cols.is_none() || n_rows == 0 || n_cols == 0 {
         return None;
     }
@@ -103,17 +130,27 @@ pub fn split(spec: &Spec, plan: &Plan) -> Option<PanelPlans> {
         by_channel.push((Channel::PanelCol, c));
     }
     let cells = cut(plan, &by_channel, independent);
-    let list = |s: Option<IndexSet<String>>| s.map(|s| s.into_iter().collect());
-    Some(PanelPlans::Grid { rows: list(rows), cols: list(cols), cells })
+    Some(PanelPlans::Grid { rows: rows.map(|s| s.list), cols: cols.map(|s| s.list), cells })
 }
 
 /// One plan per cell of the grid the channels span (the first channel's
 /// values vary slowest). Each row goes to its cell in one pass.
-fn cut(plan: &Plan, channels: &[(Channel, &IndexSet<String>)], independent: (bool, bool)) -> Vec<Plan> {
-    let n: usize = channels.iter().map(|(_, v)| v.len()).product();
-    let mut layers: Vec<Vec<PlannedLayer>> = (0..n).map(|_| Vec::with_capacity(plan.layers.len())).collect();
+fn cut(plan: &Plan, channels: &[(Channel, &Distinct)], independent: (bool, bool)) -> Vec<Plan> {
+    let mut n = 1;
+    for (_, v) in channels {
+        n *= v.len();
+    }
+    let mut layers: Vec<Vec<PlannedLayer>> = Vec::with_capacity(n);
+    for _ in 0..n {
+        layers.push(Vec::with_capacity(plan.layers.len()));
+    }
     for l in &plan.layers {
-        let cols: Vec<_> = channels.iter().filter_map(|(c, values)| l.data.get(*c).map(|v| (v, *values))).collect();
+        let mut cols = Vec::with_capacity(channels.len());
+        for (c, values) in channels {
+            if let Some(v) = l.data.get(*c) {
+                cols.push((v, *values));
+            }
+        }
         if cols.len() < channels.len() {
             // A layer without its panel channels is drawn in every panel.
             for cell in &mut layers {
@@ -145,28 +182,30 @@ fn cut(plan: &Plan, channels: &[(Channel, &IndexSet<String>)], independent: (boo
             });
         }
     }
-    layers
-        .into_iter()
-        .map(|layers| {
-            let mut scales = plan.scales.clone();
-            if (independent.0 || independent.1) && layers.iter().any(|l| l.data.len > 0) {
-                let mut own = scales.clone();
-                if retrain_positions(&layers, &mut own, independent.0, independent.1).is_ok() {
-                    scales = own;
-                }
+    let mut plans = Vec::with_capacity(layers.len());
+    for layers in layers {
+        let mut scales = plan.scales.clone();
+        if (independent.0 || independent.1) && layers.iter().any(|l| l.data.len > 0) {
+            let mut own = scales.clone();
+            if retrain_positions(&layers, &mut own, independent.0, independent.1).is_ok() {
+                scales = own;
             }
-            // A panel's plan: its rows and scales; the chart-wide options stay on the whole plan.
-            let map = plan.map.as_ref().map(|m| m.for_layers(&layers));
-            Plan { layers, scales, warnings: plan.warnings.clone(), chart: Default::default(), panels: None, map }
-        })
-        .collect()
+        }
+        // A panel's plan: its rows and scales; the chart-wide options stay on the whole plan.
+        let map = plan.map.as_ref().map(|m| m.for_layers(&layers));
+        plans.push(Plan { layers, scales, warnings: plan.warnings.clone(), chart: Default::default(), panels: None, map });
+    }
+    plans
 }
 
 fn take_rows(data: &LayerData, rows: &[usize]) -> LayerData {
-    LayerData {
-        len: rows.len(),
-        channels: data.channels.iter().map(|(c, vals)| (*c, vals.take(rows))).collect(),
-        names: data.names.clone(),
-        tooltips: data.tooltips.iter().map(|(c, vals)| (c.clone(), vals.take(rows))).collect(),
+    let mut channels = crate::channel::ChannelMap::new();
+    for (c, vals) in &data.channels {
+        channels.insert(*c, vals.take(rows));
     }
+    let mut tooltips = Vec::with_capacity(data.tooltips.len());
+    for (c, vals) in &data.tooltips {
+        tooltips.push((c.clone(), vals.take(rows)));
+    }
+    LayerData { len: rows.len(), channels, names: data.names.clone(), tooltips }
 }

@@ -9,7 +9,7 @@ use crate::format::{self, Locale};
 use crate::scale::{PositionScale, SizeScale, Transform};
 use crate::spec::{Geometry, ScaleKind, ScaleSpec, Spec};
 use crate::text;
-use std::collections::{HashMap, HashSet};
+use std::collections::HashMap;
 
 #[derive(Debug, Clone, PartialEq)]
 pub enum ColorScale {
@@ -57,9 +57,10 @@ pub struct Scales {
     pub locale: &'static Locale,
     /// Each colour category's place in the `color` list, for lookups by hash.
     pub color_index: HashMap<String, usize>,
-    /// Chosen colours by category (`scales.color.values`), and the colour
-    /// of every other category (its key `other`).
-    pub color_values: HashMap<String, String>,
+    /// Chosen colours by category (`scales.color.values`), by the
+    /// category's place in the `color` list (as `color_index` gives it),
+    /// and the colour of every other category (its key `other`).
+    pub color_chosen: Vec<Option<String>>,
     pub color_other: Option<String>,
 }
 
@@ -74,7 +75,7 @@ impl Scales {
                 let k = vals.key(i)?;
                 let idx = *self.color_index.get(&k)?;
                 // Chosen colours first, then `other`, then the palette.
-                if let Some(c) = self.color_values.get(&k).or(self.color_other.as_ref()) {
+                if let Some(c) = self.color_chosen.get(idx).and_then(Option::as_ref).or(self.color_other.as_ref()) {
                     return Some(c.clone());
                 }
                 Some(match scheme {
@@ -99,11 +100,11 @@ impl Scales {
     /// gathered into one item, "Other", after the rest.
     pub fn category_legend(&self) -> Vec<(String, String)> {
         let Some(ColorScale::Categories(cats)) = &self.color else { return Vec::new() };
-        let vals = Values::Text(cats.iter().cloned().map(Some).collect());
+        let vals = Values::texts(cats);
         let mut items: Vec<(String, String)> = Vec::new();
         let mut others: Vec<&String> = Vec::new();
         for (i, c) in cats.iter().enumerate() {
-            if self.color_other.is_some() && !self.color_values.contains_key(c) {
+            if self.color_other.is_some() && self.color_index.get(c.as_str()).is_none_or(|&j| self.color_chosen[j].is_none()) {
                 others.push(c);
                 continue;
             }
@@ -246,7 +247,7 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
     let (cats, num) = collect(layers, Channel::Color);
     let color = if color_spec.kind == Some(ScaleKind::Category) || !cats.is_empty() {
         let cats = match &color_spec.domain {
-            Some(d) => d.iter().map(json_word).collect(),
+            Some(d) => json_words(d),
             None if !cats.is_empty() => cats,
             None => num_as_text(layers, Channel::Color),
         };
@@ -314,14 +315,21 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
     };
 
     let mut color_index = HashMap::new();
+    let mut color_chosen: Vec<Option<String>> = Vec::new();
     if let Some(ColorScale::Categories(cats)) = &color {
+        color_chosen = vec![None; cats.len()];
         for (i, c) in cats.iter().enumerate() {
             color_index.entry(c.clone()).or_insert(i);
         }
+        // A category literally called `other` takes the `other` colour too
+        // (the categories of `color_index`, so a doubled category finds the
+        // first place's colour as the lookup of a row does).
+        for (k, v) in color_spec.values.iter().flatten() {
+            if let Some(&i) = color_index.get(k.as_str()) {
+                color_chosen[i] = Some(v.clone());
+            }
+        }
     }
-    // A category literally called `other` takes the `other` colour too.
-    let color_values: HashMap<String, String> =
-        color_spec.values.iter().flatten().filter(|(k, _)| k.as_str() != OTHER_KEY || cats_has(&color, k)).map(|(k, v)| (k.clone(), v.clone())).collect();
     Ok(Scales {
         x_title: title(Channel::X, &x_spec),
         y_title: title(Channel::Y, &y_spec),
@@ -344,7 +352,7 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
         shape_spec,
         locale,
         color_index,
-        color_values,
+        color_chosen,
         color_other: color_spec.values.as_ref().and_then(|v| v.get(OTHER_KEY).cloned()),
         color_spec,
     })
@@ -360,8 +368,13 @@ const THIN_MARK_CONTRAST: f64 = 3.0;
 /// spread. A ramp's palest end is made for filled areas; on points it all
 /// but vanished on white (found in a user trial).
 pub fn thin_mark_span(ramp: color::Ramp, background: &str) -> (f64, f64) {
-    let ok: Vec<f64> =
-        (0..=100).map(|k| k as f64 / 100.0).filter(|t| color::contrast(&ramp.at(*t), background).is_some_and(|c| c >= THIN_MARK_CONTRAST)).collect();
+    let mut ok: Vec<f64> = Vec::new();
+    for k in 0..=100 {
+        let t = k as f64 / 100.0;
+        if color::contrast(&ramp.at(t), background).is_some_and(|c| c >= THIN_MARK_CONTRAST) {
+            ok.push(t);
+        }
+    }
     let (Some(&lo), Some(&hi)) = (ok.first(), ok.last()) else { return (0.0, 1.0) };
     if hi - lo >= 0.5 {
         return (lo, hi);
@@ -372,10 +385,6 @@ pub fn thin_mark_span(ramp: color::Ramp, background: &str) -> (f64, f64) {
     } else {
         (0.0, 0.5)
     }
-}
-
-fn cats_has(color: &Option<ColorScale>, k: &str) -> bool {
-    matches!(color, Some(ColorScale::Categories(c)) if c.iter().any(|x| x == k))
 }
 
 /// Warnings about chosen colours: a `values` key that names no category
@@ -401,18 +410,19 @@ pub fn chosen_color_warnings(scales: &Scales) -> Vec<Diagnostic> {
             .at_path(format!("scales.color.values.{}", crate::expr::path_key(k)));
         out.push(match crate::spec::closest(k, cats.iter().map(String::as_str)) {
             Some(s) => d.with_hint(format!("did you mean `{s}`?")),
-            None => d.with_hint(format!("the categories are: {}", cats.iter().take(12).cloned().collect::<Vec<_>>().join(", "))),
+            None => d.with_hint(format!("the categories are: {}", cats[..cats.len().min(12)].join(", "))),
         });
     }
     out
 }
 
 /// Append the values of `v` not seen yet, in order of first appearance
-/// (a hash set keeps many distinct values linear).
-fn add_distinct(cats: &mut Vec<String>, seen: &mut HashSet<String>, v: &[Option<String>]) {
+/// (a hash map keeps many distinct values linear; each value's place, in
+/// the map type of the scales' `color_index`: one hash map type fewer).
+fn add_distinct(cats: &mut Vec<String>, seen: &mut HashMap<String, usize>, v: &[Option<String>]) {
     for s in v.iter().flatten() {
-        if !seen.contains(s) {
-            seen.insert(s.clone());
+        if !seen.contains_key(s.as_str()) {
+            seen.insert(s.clone(), cats.len());
             cats.push(s.clone());
         }
     }
@@ -422,10 +432,24 @@ fn json_word(v: &serde_json::Value) -> String {
     v.as_str().map(str::to_string).unwrap_or_else(|| v.to_string())
 }
 
+/// [`json_word`] of each value, in one loop for every list the spec gives.
+fn json_words(list: &[serde_json::Value]) -> Vec<String> {
+    let mut out = Vec::with_capacity(list.len());
+    for v in list {
+        out.push(json_word(v));
+    }
+    out
+}
+
+/// A date (`2024-01-31`) or date-time in ms since 1970 UTC.
+fn date_ms(t: &str) -> Option<f64> {
+    crate::calendar::parse_date(t).map(|d| d as f64 * 86_400_000.0).or_else(|| crate::calendar::parse_datetime(t).map(|ms| ms as f64))
+}
+
 /// Categories (text) and the numeric range of a channel across layers.
 fn collect(layers: &[PlannedLayer], ch: Channel) -> (Vec<String>, Option<(f64, f64)>) {
     let mut cats: Vec<String> = Vec::new();
-    let mut seen = HashSet::new();
+    let mut seen = HashMap::new();
     let (mut lo, mut hi) = (f64::INFINITY, f64::NEG_INFINITY);
     for l in layers {
         match l.data.get(ch) {
@@ -446,15 +470,7 @@ fn collect(layers: &[PlannedLayer], ch: Channel) -> (Vec<String>, Option<(f64, f
 
 /// Distinct numbers of a channel, sorted, as category words.
 fn num_as_text(layers: &[PlannedLayer], ch: Channel) -> Vec<String> {
-    let mut v: Vec<f64> = Vec::new();
-    for l in layers {
-        if let Some(Values::Num(xs) | Values::Time(xs)) = l.data.get(ch) {
-            v.extend(xs.present());
-        }
-    }
-    v.sort_by(f64::total_cmp);
-    v.dedup();
-    v.into_iter().map(l_key).collect()
+    num_as_text_position(layers, &[ch])
 }
 
 fn l_key(x: f64) -> String {
@@ -465,15 +481,12 @@ fn l_key(x: f64) -> String {
 /// A two-value domain from the spec: numbers, or ISO dates for time scales.
 fn explicit_domain(s: &ScaleSpec, axis: &str) -> Result<Option<(f64, f64)>, Errors> {
     let Some(dom) = &s.domain else { return Ok(None) };
-    let nums: Vec<f64> = dom
-        .iter()
-        .filter_map(|v| {
-            v.as_f64().or_else(|| {
-                let t = v.as_str()?;
-                crate::calendar::parse_date(t).map(|d| d as f64 * 86_400_000.0).or_else(|| crate::calendar::parse_datetime(t).map(|ms| ms as f64))
-            })
-        })
-        .collect();
+    let mut nums: Vec<f64> = Vec::with_capacity(dom.len());
+    for v in dom {
+        if let Some(x) = v.as_f64().or_else(|| date_ms(v.as_str()?)) {
+            nums.push(x);
+        }
+    }
     if nums.len() != 2 || dom.len() != 2 {
         return Err(domain_error(axis));
     }
@@ -485,16 +498,10 @@ fn explicit_domain(s: &ScaleSpec, axis: &str) -> Result<Option<(f64, f64)>, Erro
 fn train_position(channels: &[Channel], axis: &str, s: &ScaleSpec, layers: &[PlannedLayer]) -> Result<(PositionScale, bool), Errors> {
     let (scale, nice) = train_position_bare(channels, axis, s, layers)?;
     let Some(crate::spec::Ticks::Values(list)) = &s.ticks else { return Ok((scale, nice)) };
-    let names: Vec<String> = list.iter().map(json_word).collect();
+    let names = json_words(list);
     let mut numbers = Vec::with_capacity(list.len());
     for (i, v) in list.iter().enumerate() {
-        let n = if scale.is_time() {
-            v.as_str().and_then(|t| {
-                crate::calendar::parse_date(t).map(|d| d as f64 * 86_400_000.0).or_else(|| crate::calendar::parse_datetime(t).map(|ms| ms as f64))
-            })
-        } else {
-            v.as_f64()
-        };
+        let n = if scale.is_time() { v.as_str().and_then(date_ms) } else { v.as_f64() };
         match n {
             Some(n) => numbers.push(n),
             None if !scale.is_discrete() => {
@@ -511,7 +518,7 @@ fn train_position(channels: &[Channel], axis: &str, s: &ScaleSpec, layers: &[Pla
 
 fn train_position_bare(channels: &[Channel], axis: &str, s: &ScaleSpec, layers: &[PlannedLayer]) -> Result<(PositionScale, bool), Errors> {
     let mut cats: Vec<String> = Vec::new();
-    let mut seen = HashSet::new();
+    let mut seen = HashMap::new();
     let (mut lo, mut hi) = (f64::INFINITY, f64::NEG_INFINITY);
     let (mut any_num, mut any_text, mut time) = (false, false, false);
     let mut extent = false;
@@ -548,7 +555,7 @@ fn train_position_bare(channels: &[Channel], axis: &str, s: &ScaleSpec, layers: 
     let want_category = s.kind == Some(ScaleKind::Category) || (s.kind.is_none() && any_text);
     if want_category {
         if let Some(dom) = &s.domain {
-            cats = dom.iter().map(json_word).collect();
+            cats = json_words(dom);
         } else if !any_text && any_num {
             // Numbers asked to be categories: sorted distinct values.
             cats = num_as_text_position(layers, channels);
@@ -645,28 +652,42 @@ fn order_categories(cats: &mut Vec<String>, s: &ScaleSpec, channels: &[Channel],
     use crate::spec::CategoryOrder;
     if let Some(order) = s.order {
         let value_ch = if channels.contains(&Channel::X) { Channel::Y } else { Channel::X };
-        let mut drawn: HashMap<String, f64> = HashMap::new();
+        // Each category's place by hash (the map type of the scales'
+        // `color_index`: one hash map type fewer in the page), its value
+        // drawn (the largest over layers), and this layer's sum in `mine`.
+        let mut place: HashMap<String, usize> = HashMap::new();
+        let mut drawn: Vec<f64> = Vec::new();
+        let mut mine: Vec<Option<f64>> = Vec::new();
         for l in layers {
             let (Some(Values::Text(keys)), Some(v)) = (l.data.get(channels[0]), l.data.get(Channel::Total).or(l.data.get(value_ch))) else { continue };
             let stacked = l.data.get(Channel::Total).is_some();
-            // Keyed like `drawn` (one hash map type fewer in the page).
-            let mut mine: HashMap<String, f64> = HashMap::new();
+            mine.clear();
+            mine.resize(drawn.len(), None);
             for (i, k) in keys.iter().enumerate() {
                 let (Some(k), Some(x)) = (k, v.num(i)) else { continue };
-                match mine.get_mut(k.as_str()) {
-                    Some(e) => *e = if stacked { x } else { *e + x },
+                let j = match place.get(k.as_str()) {
+                    Some(&j) => j,
                     None => {
-                        // 0.0 + x as before: a -0.0 sums to +0.0.
-                        mine.insert(k.clone(), if stacked { x } else { 0.0 + x });
+                        place.insert(k.clone(), drawn.len());
+                        drawn.push(f64::NEG_INFINITY);
+                        mine.push(None);
+                        drawn.len() - 1
                     }
+                };
+                // 0.0 + x as before: a -0.0 sums to +0.0.
+                mine[j] = Some(match mine[j] {
+                    Some(e) if !stacked => e + x,
+                    _ if stacked => x,
+                    _ => 0.0 + x,
+                });
+            }
+            for (d, m) in drawn.iter_mut().zip(&mine) {
+                if let Some(x) = m {
+                    *d = d.max(*x);
                 }
             }
-            for (k, x) in mine {
-                let e = drawn.entry(k).or_insert(f64::NEG_INFINITY);
-                *e = e.max(x);
-            }
         }
-        let at = |c: &String| drawn.get(c).copied().unwrap_or(f64::NEG_INFINITY);
+        let at = |c: &String| place.get(c.as_str()).map_or(f64::NEG_INFINITY, |&j| drawn[j]);
         match order {
             CategoryOrder::Ascending => crate::sort::by(cats, |a, b| at(a).total_cmp(&at(b))),
             CategoryOrder::Descending => crate::sort::by(cats, |a, b| at(b).total_cmp(&at(a))),
@@ -707,7 +728,11 @@ fn num_as_text_position(layers: &[PlannedLayer], channels: &[Channel]) -> Vec<St
     }
     v.sort_by(f64::total_cmp);
     v.dedup();
-    v.into_iter().map(l_key).collect()
+    let mut out = Vec::with_capacity(v.len());
+    for x in v {
+        out.push(l_key(x));
+    }
+    out
 }
 
 impl PositionScale {

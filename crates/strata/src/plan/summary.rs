@@ -30,9 +30,18 @@ fn slope(pts: &[(f64, f64)]) -> Option<f64> {
     if pts.len() < 3 {
         return None;
     }
-    let (mx, my) = (pts.iter().map(|p| p.0).sum::<f64>() / n, pts.iter().map(|p| p.1).sum::<f64>() / n);
-    let sxx: f64 = pts.iter().map(|p| (p.0 - mx) * (p.0 - mx)).sum();
-    let sxy: f64 = pts.iter().map(|p| (p.0 - mx) * (p.1 - my)).sum();
+    // Plain loops (sums from -0.0, as `Iterator::sum` of f64 starts).
+    let (mut sx, mut sy) = (-0.0f64, -0.0f64);
+    for p in pts {
+        sx += p.0;
+        sy += p.1;
+    }
+    let (mx, my) = (sx / n, sy / n);
+    let (mut sxx, mut sxy) = (-0.0f64, -0.0f64);
+    for p in pts {
+        sxx += (p.0 - mx) * (p.0 - mx);
+        sxy += (p.0 - mx) * (p.1 - my);
+    }
     (sxx > 0.0).then(|| sxy / sxx)
 }
 
@@ -43,8 +52,10 @@ const TREND_SAMPLE: usize = 100_000;
 
 pub fn trend_word(pts: &[(f64, f64)]) -> Option<&'static str> {
     let b = slope(pts)?;
-    let (xlo, xhi) = pts.iter().fold((f64::INFINITY, f64::NEG_INFINITY), |a, p| (a.0.min(p.0), a.1.max(p.0)));
-    let (ylo, yhi) = pts.iter().fold((f64::INFINITY, f64::NEG_INFINITY), |a, p| (a.0.min(p.1), a.1.max(p.1)));
+    let (mut xlo, mut xhi, mut ylo, mut yhi) = (f64::INFINITY, f64::NEG_INFINITY, f64::INFINITY, f64::NEG_INFINITY);
+    for p in pts {
+        (xlo, xhi, ylo, yhi) = (xlo.min(p.0), xhi.max(p.0), ylo.min(p.1), yhi.max(p.1));
+    }
     if yhi <= ylo {
         return Some("stays level");
     }
@@ -112,14 +123,17 @@ pub fn describe(plan: &Plan) -> String {
     let s = &plan.scales;
     let loc = s.locale;
     let mut parts = Vec::new();
-    let mut kinds: Vec<&str> = plan.layers.iter().map(|l| l.geometry.word()).collect();
+    let mut kinds: Vec<&str> = Vec::with_capacity(plan.layers.len());
+    for l in &plan.layers {
+        kinds.push(l.geometry.word());
+    }
     kinds.dedup();
     let mut head = format!("{} chart", kinds.join(" and "));
     if !s.x_title.is_empty() && !s.y_title.is_empty() {
         head.push_str(&format!(" of {} against {}", s.y_title, s.x_title));
     }
     if let Some(ColorScale::Categories(c)) = &s.color {
-        let names: Vec<&str> = c.iter().take(6).map(String::as_str).collect();
+        let names: &[String] = &c[..c.len().min(6)];
         let more = if c.len() > 6 { format!(" and {} more", c.len() - 6) } else { String::new() };
         let by = if s.color_title.is_empty() { String::new() } else { format!(" by {}", s.color_title) };
         head.push_str(&format!(", in {} groups{by} ({}{more})", c.len(), names.join(", ")));
@@ -143,7 +157,12 @@ pub fn describe(plan: &Plan) -> String {
             // past 100,000 rows an evenly spaced, deterministic sample of
             // rows gives the same word without copying millions of points.
             let stride = l.data.len.div_ceil(TREND_SAMPLE).max(1);
-            let pts: Vec<(f64, f64)> = (0..l.data.len).step_by(stride).filter_map(|i| Some((x.num(i)?, ys.get(i)?))).collect();
+            let mut pts: Vec<(f64, f64)> = Vec::with_capacity(l.data.len / stride + 1);
+            for i in (0..l.data.len).step_by(stride) {
+                if let (Some(a), Some(b)) = (x.num(i), ys.get(i)) {
+                    pts.push((a, b));
+                }
+            }
             if let Some(w) = trend_word(&pts) {
                 // The span is read from every row, not from the sample.
                 let (first, last) = e.x_span;

@@ -27,6 +27,14 @@ impl Values {
     pub fn is_empty(&self) -> bool {
         self.len() == 0
     }
+    /// Text values, every one present (a legend's categories).
+    pub fn texts(list: &[String]) -> Values {
+        let mut out = Vec::with_capacity(list.len());
+        for s in list {
+            out.push(Some(s.clone()));
+        }
+        Values::Text(out)
+    }
     pub fn is_discrete(&self) -> bool {
         matches!(self, Values::Text(_))
     }
@@ -47,9 +55,15 @@ impl Values {
     }
     pub fn take(&self, idx: &[usize]) -> Values {
         match self {
-            Values::Num(v) => Values::Num(idx.iter().map(|i| v.get(*i)).collect()),
-            Values::Time(v) => Values::Time(idx.iter().map(|i| v.get(*i)).collect()),
-            Values::Text(v) => Values::Text(idx.iter().map(|i| v[*i].clone()).collect()),
+            Values::Num(v) => Values::Num(take_nums(v, idx)),
+            Values::Time(v) => Values::Time(take_nums(v, idx)),
+            Values::Text(v) => {
+                let mut out = Vec::with_capacity(idx.len());
+                for &i in idx {
+                    out.push(v[i].clone());
+                }
+                Values::Text(out)
+            }
         }
     }
     pub fn num(&self, i: usize) -> Option<f64> {
@@ -58,6 +72,18 @@ impl Values {
             Values::Text(_) => None,
         }
     }
+}
+
+/// The rows `idx` of `v` (a plain loop: no collect instantiated per caller),
+/// a non-finite number read as missing (NaN) as `Nums::get` reads it.
+fn take_nums(v: &Nums, idx: &[usize]) -> Nums {
+    let raw = v.raw();
+    let mut out = Vec::with_capacity(idx.len());
+    for &i in idx {
+        let x = raw[i];
+        out.push(if x.is_finite() { x } else { f64::NAN });
+    }
+    out.into()
 }
 
 fn json_num(x: f64) -> serde_json::Value {

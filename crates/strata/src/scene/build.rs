@@ -131,8 +131,14 @@ pub fn build(plan: &Plan, opts: &SceneOptions) -> Scene {
     // a quarter of the width; otherwise rows on top.
     let mut legends: Vec<Legend> = guides::legends(scales, guides::SwatchMark::of(&plan.layers), ts);
     // Series named at their line ends need no colour legend.
-    let colour_layers: Vec<_> = plan.layers.iter().filter(|l| l.data.names.contains_key(&Channel::Color)).collect();
-    if !colour_layers.is_empty() && colour_layers.iter().all(|l| names_ends(l)) {
+    let (mut colour_layers, mut all_named) = (0, true);
+    for l in &plan.layers {
+        if l.data.names.contains_key(&Channel::Color) {
+            colour_layers += 1;
+            all_named &= names_ends(l);
+        }
+    }
+    if colour_layers > 0 && all_named {
         legends.retain(|l| l.channel != Channel::Color);
     }
     let mut right = width - pad;
@@ -140,8 +146,13 @@ pub fn build(plan: &Plan, opts: &SceneOptions) -> Scene {
     let mut legend_nodes = Vec::new();
     let mut legend_on_right = false;
     if !legends.is_empty() {
-        let col_w = legends.iter().map(|l| guides::column_size(l).0).fold(0.0, f64::max);
-        let col_h: f64 = legends.iter().map(|l| guides::column_size(l).1 + 12.0).sum();
+        // (The sum from -0.0, as `Iterator::sum` of f64 starts.)
+        let (mut col_w, mut col_h) = (0.0f64, -0.0f64);
+        for l in &legends {
+            let (w, h) = guides::column_size(l);
+            col_w = col_w.max(w);
+            col_h += h + 12.0;
+        }
         let placement_of = |l: &Legend| match l.channel {
             Channel::Size => scales.size_spec.legend,
             Channel::Shape => scales.shape_spec.legend,
@@ -296,7 +307,13 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, names: GridNames, cells: &[Plan], ri
     let band = guides::title_band(inp.ts);
     // Row names read across at the left of each row (bold, up to a fifth of the width).
     let row_names_w = match rows {
-        Some(rows) => (rows.iter().map(|r| text::width(r, inp.ts, true)).fold(0.0, f64::max) + 10.0).min(inp.width * 0.2),
+        Some(rows) => {
+            let mut w = 0.0f64;
+            for r in rows {
+                w = w.max(text::width(r, inp.ts, true));
+            }
+            (w + 10.0).min(inp.width * 0.2)
+        }
         None => 0.0,
     };
     let col_strip = if cols.is_some() { strip(inp.ts) } else { 0.0 };
@@ -330,7 +347,10 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, names: GridNames, cells: &[Plan], ri
     let mut widths = vec![cell_w; cells.len()];
     let mut pass = 0;
     let (lays, col_left, col_right, row_top, row_bottom, pw, ph) = loop {
-        let lays: Vec<PlotLayout> = cells.iter().zip(&widths).map(|(p, w)| plot_layout(inp, p, 0.0, *w, 0.0, cell_h - each_strip, false)).collect();
+        let mut lays: Vec<PlotLayout> = Vec::with_capacity(cells.len());
+        for (p, w) in cells.iter().zip(&widths) {
+            lays.push(plot_layout(inp, p, 0.0, *w, 0.0, cell_h - each_strip, false));
+        }
         // Room beside the frame of the panel in row r, column c: left, right,
         // top, bottom. At the grid's outer ends the horizontal labels reach as
         // in a single plot; between columns they share the gap, and take more
@@ -349,17 +369,27 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, names: GridNames, cells: &[Plan], ri
             let h_right = if c == nc - 1 { v_right_w + l.h_reach_right } else { between(over_right) };
             (v_left.max(on(h, h_left)), v_right_w.max(on(h, h_right)), 4.0 + each_strip + on(h && h_top, l.h_axis_h), on(h && !h_top, l.h_axis_h))
         };
-        let col_left: Vec<f64> = (0..nc).map(|c| (0..nr).map(|r| margins(r, c).0).fold(0.0, f64::max)).collect();
-        let col_right: Vec<f64> = (0..nc).map(|c| (0..nr).map(|r| margins(r, c).1).fold(0.0, f64::max)).collect();
-        let row_top: Vec<f64> = (0..nr).map(|r| (0..nc).map(|c| margins(r, c).2).fold(0.0, f64::max)).collect();
-        let row_bottom: Vec<f64> = (0..nr).map(|r| (0..nc).map(|c| margins(r, c).3).fold(0.0, f64::max)).collect();
+        // Each column's widest left and right margins, each row's top and bottom.
+        let (mut col_left, mut col_right) = (vec![0.0f64; nc], vec![0.0f64; nc]);
+        let (mut row_top, mut row_bottom) = (vec![0.0f64; nr], vec![0.0f64; nr]);
+        for r in 0..nr {
+            for c in 0..nc {
+                let m = margins(r, c);
+                col_left[c] = col_left[c].max(m.0);
+                col_right[c] = col_right[c].max(m.1);
+                row_top[r] = row_top[r].max(m.2);
+                row_bottom[r] = row_bottom[r].max(m.3);
+            }
+        }
         let sum = |v: &[f64]| v.iter().sum::<f64>();
         let pw = (((x_end - x_start) - sum(&col_left) - sum(&col_right) - gap_x * (nc - 1) as f64) / nc as f64).max(20.0);
         let ph = (((y_end - y_start) - sum(&row_top) - sum(&row_bottom) - gap_y * (nr - 1) as f64) / nr as f64).max(20.0);
         if pass == 1 || lays.iter().all(|l| l.frame.width + 1.0 >= pw) {
             break (lays, col_left, col_right, row_top, row_bottom, pw, ph);
         }
-        widths = lays.iter().zip(&widths).map(|(l, w)| w + (pw - l.frame.width).max(0.0)).collect();
+        for (w, l) in widths.iter_mut().zip(&lays) {
+            *w += (pw - l.frame.width).max(0.0);
+        }
         pass += 1;
     };
     let mut lefts = Vec::with_capacity(nc);
@@ -462,9 +492,19 @@ fn h_label_overhang(lay: &PlotLayout, ts: f64) -> (f64, f64) {
     let w = |t: &crate::scale::Tick| guides::label_width(t, ts);
     if lay.h_angle != 0.0 {
         let c = crate::math::cos((-lay.h_angle).to_radians());
-        return (lay.h_ticks.iter().map(|t| w(t) * c - t.unit * fw).fold(0.0, f64::max), 0.0);
+        return (max_over(&lay.h_ticks, &|t| w(t) * c - t.unit * fw), 0.0);
     }
-    (lay.h_ticks.iter().map(|t| w(t) / 2.0 - t.unit * fw).fold(0.0, f64::max), lay.h_ticks.iter().map(|t| w(t) / 2.0 - (1.0 - t.unit) * fw).fold(0.0, f64::max))
+    (max_over(&lay.h_ticks, &|t| w(t) / 2.0 - t.unit * fw), max_over(&lay.h_ticks, &|t| w(t) / 2.0 - (1.0 - t.unit) * fw))
+}
+
+/// The largest `f` over the ticks, at least 0 (one loop for every such
+/// measure, rather than an iterator chain for each).
+fn max_over(ticks: &[crate::scale::Tick], f: &dyn Fn(&crate::scale::Tick) -> f64) -> f64 {
+    let mut m = 0.0f64;
+    for t in ticks {
+        m = m.max(f(t));
+    }
+    m
 }
 
 /// What every plot area of a chart shares.
@@ -548,14 +588,13 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
     };
     let top = top + 4.0;
     // Room right of the frame for series named at their line ends.
-    let ends_w = plan
-        .layers
-        .iter()
-        .flat_map(|l| {
-            let size = l.style.font_size.filter(|s| s.is_finite() && *s > 0.0).unwrap_or(inp.ts * 11.0 / 12.0);
-            end_names(l).into_iter().map(move |n| text::width(&n, size, false))
-        })
-        .fold(0.0, f64::max);
+    let mut ends_w = 0.0f64;
+    for l in &plan.layers {
+        let size = l.style.font_size.filter(|s| s.is_finite() && *s > 0.0).unwrap_or(inp.ts * 11.0 / 12.0);
+        for n in end_names(l) {
+            ends_w = ends_w.max(text::width(&n, size, false));
+        }
+    }
     let right = if ends_w > 0.0 { (right - ends_w - END_GAP).max(x0 + 40.0) } else { right };
     // First guess of the plot height, for the vertical ticks (and so the left margin).
     let guess_h = (bottom - top - 2.0 * TITLE_SIZE * inp.ts / guides::TICK_SIZE * text::LINE_HEIGHT).max(20.0);
@@ -616,7 +655,7 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
     // Rotated labels reach left of their ticks: widen the left margin for them.
     let (left, frame_w, h_ticks, h_angle) = if h_angle != 0.0 && h_shown {
         let c = crate::math::cos((-h_angle).to_radians());
-        let reach = h_ticks.iter().map(|t| guides::label_width(t, inp.ts) * c - t.unit * frame_w - (left - x0)).fold(0.0, f64::max);
+        let reach = max_over(&h_ticks, &|t| guides::label_width(t, inp.ts) * c - t.unit * frame_w - (left - x0));
         if reach > 0.0 {
             let (l, w) = (left + reach, (frame_w - reach).max(20.0));
             let (t, a) =
@@ -667,17 +706,12 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
         vec![]
     };
     // Vertical categories in transposed coordinates run top to bottom.
-    let v_ticks = if transposed {
-        v_ticks
-            .into_iter()
-            .map(|mut t| {
-                t.unit = 1.0 - t.unit;
-                t
-            })
-            .collect()
-    } else {
-        v_ticks
-    };
+    let mut v_ticks = v_ticks;
+    if transposed {
+        for t in &mut v_ticks {
+            t.unit = 1.0 - t.unit;
+        }
+    }
     let h_reach_left = frame.left - x0 - if v_right { 0.0 } else { v_axis_w };
     let h_reach_right = (right - frame.right()).max(0.0);
     PlotLayout {
@@ -720,9 +754,11 @@ fn plot_draw(inp: &PlotInputs, plan: &Plan, lay: &PlotLayout, frame: Frame, draw
             let (a_scale, r_scale, a_spec, r_spec) =
                 if angle_is_x { (&scales.x, &scales.y, &scales.x_spec, &scales.y_spec) } else { (&scales.y, &scales.x, &scales.y_spec, &scales.x_spec) };
             let a_opts = crate::scale::TickOptions { wanted: if narrow { 6 } else { 8 }, pattern: a_spec.format.as_deref(), locale: loc, short: false };
-            let a_ticks = if a_spec.hide { vec![] } else { a_scale.ticks_with(&a_opts) };
+            let mut a_ticks = if a_spec.hide { vec![] } else { a_scale.ticks_with(&a_opts) };
             // A full turn: the last continuous tick would sit on the first.
-            let a_ticks: Vec<crate::scale::Tick> = a_ticks.into_iter().filter(|t| a_scale.is_discrete() || t.unit < 1.0 - 1e-9).collect();
+            if !a_scale.is_discrete() {
+                a_ticks.retain(|t| t.unit < 1.0 - 1e-9);
+            }
             let r_opts = crate::scale::TickOptions { wanted: 4, pattern: r_spec.format.as_deref(), locale: loc, short: false };
             // No layer maps the radius (a donut with no x): no radius ticks.
             let r_channel = if angle_is_x { crate::channel::Channel::Y } else { crate::channel::Channel::X };

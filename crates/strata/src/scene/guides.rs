@@ -57,28 +57,30 @@ fn tick_marks(axis: &AxisGuide, f: Frame, pal: &Palette) -> Vec<Node> {
     if !axis.scale.is_discrete() {
         return vec![];
     }
-    let paint = || Paint::stroke(&pal.axis, 1.0);
-    axis.ticks
-        .iter()
-        .map(|t| match axis.side {
-            Side::Bottom => {
-                let x = f.left + t.unit * f.width;
-                Node::Line { x1: x, y1: f.bottom(), x2: x, y2: f.bottom() + TICK_MARK, paint: paint() }
-            }
-            Side::Top => {
-                let x = f.left + t.unit * f.width;
-                Node::Line { x1: x, y1: f.top, x2: x, y2: f.top - TICK_MARK, paint: paint() }
-            }
-            Side::Left => {
-                let y = f.bottom() - t.unit * f.height;
-                Node::Line { x1: f.left, y1: y, x2: f.left - TICK_MARK, y2: y, paint: paint() }
-            }
-            Side::Right => {
-                let y = f.bottom() - t.unit * f.height;
-                Node::Line { x1: f.right(), y1: y, x2: f.right() + TICK_MARK, y2: y, paint: paint() }
-            }
-        })
-        .collect()
+    let (a0, a1) = match axis.side {
+        Side::Bottom => (f.bottom(), f.bottom() + TICK_MARK),
+        Side::Top => (f.top, f.top - TICK_MARK),
+        Side::Left => (f.left, f.left - TICK_MARK),
+        Side::Right => (f.right(), f.right() + TICK_MARK),
+    };
+    tick_lines(&axis.ticks, matches!(axis.side, Side::Bottom | Side::Top), f, a0, a1, &Paint::stroke(&pal.axis, 1.0))
+}
+
+/// A line across each tick from `a0` to `a1` (y for a horizontal axis,
+/// whose lines stand at the ticks' x; x for a vertical one): tick marks and
+/// grid lines alike.
+fn tick_lines(ticks: &[Tick], horizontal: bool, f: Frame, a0: f64, a1: f64, paint: &Paint) -> Vec<Node> {
+    let mut out = Vec::with_capacity(ticks.len());
+    for t in ticks {
+        out.push(if horizontal {
+            let x = f.left + t.unit * f.width;
+            Node::Line { x1: x, y1: a0, x2: x, y2: a1, paint: paint.clone() }
+        } else {
+            let y = f.bottom() - t.unit * f.height;
+            Node::Line { x1: a0, y1: y, x2: a1, y2: y, paint: paint.clone() }
+        });
+    }
+    out
 }
 
 /// Room a title written above a vertical axis takes over the frame (px).
@@ -124,7 +126,11 @@ pub fn zero_line(axis: &AxisGuide, coord: &Coord, pal: &Palette) -> Option<Node>
 
 /// Width of a tick label: its widest line (a wrapped label holds `\n`).
 pub fn label_width(t: &Tick, ts: f64) -> f64 {
-    t.label.split('\n').map(|l| text::width(l, ts, false)).fold(0.0, f64::max)
+    let mut m = 0.0f64;
+    for l in t.label.split('\n') {
+        m = m.max(text::width(l, ts, false));
+    }
+    m
 }
 
 /// Lines of a tick label (a wrapped category label has two).
@@ -144,7 +150,7 @@ fn fits_across(ticks: &[Tick], length: f64, ts: f64) -> bool {
 /// spaced ticks `need` px apart: one below the step their spacing implies,
 /// so the search that follows tries a step or two, not all of them.
 fn first_k(ticks: &[Tick], length: f64, need: f64) -> usize {
-    let gap = ticks.windows(2).map(|w| (w[1].unit - w[0].unit).abs()).fold(f64::INFINITY, f64::min) * length;
+    let gap = spacing(ticks, length);
     if !(gap > 0.0 && gap.is_finite()) {
         return 1;
     }
@@ -153,7 +159,11 @@ fn first_k(ticks: &[Tick], length: f64, need: f64) -> usize {
 
 /// Keep every k-th tick.
 fn every(ticks: &[Tick], k: usize) -> Vec<Tick> {
-    ticks.iter().enumerate().filter(|(i, _)| i % k == 0).map(|(_, t)| t.clone()).collect()
+    let mut out = Vec::with_capacity(ticks.len() / k.max(1) + 1);
+    for t in ticks.iter().step_by(k.max(1)) {
+        out.push(t.clone());
+    }
+    out
 }
 
 /// Ticks of a horizontal axis `length` px long, after thinning, rotating and shortening.
@@ -198,19 +208,39 @@ pub fn bottom_ticks(
 
 /// Least room between neighbouring category ticks on an axis `length` px long.
 fn spacing(ticks: &[Tick], length: f64) -> f64 {
-    ticks.windows(2).map(|w| (w[1].unit - w[0].unit).abs() * length).fold(f64::INFINITY, f64::min)
+    let mut m = f64::INFINITY;
+    for w in ticks.windows(2) {
+        m = m.min((w[1].unit - w[0].unit).abs() * length);
+    }
+    m
 }
 
 fn relabel(ticks: &[Tick], labels: Vec<String>) -> Vec<Tick> {
-    ticks
-        .iter()
-        .zip(labels)
-        .map(|(t, l)| {
-            let mut t = t.clone();
-            t.label = l;
-            t
-        })
-        .collect()
+    let n = labels.len();
+    let mut out = ticks.to_vec();
+    for (t, l) in out.iter_mut().zip(labels) {
+        t.label = l;
+    }
+    out.truncate(n);
+    out
+}
+
+/// The ticks' labels.
+fn tick_labels(ticks: &[Tick]) -> Vec<String> {
+    let mut out = Vec::with_capacity(ticks.len());
+    for t in ticks {
+        out.push(t.label.clone());
+    }
+    out
+}
+
+/// Every label on at most two lines ([`wrap_two`]), `None` when one does not fit.
+fn wrap_all(labels: &[String], max_w: f64, ts: f64) -> Option<Vec<String>> {
+    let mut out = Vec::with_capacity(labels.len());
+    for l in labels {
+        out.push(wrap_two(l, max_w, ts)?);
+    }
+    Some(out)
 }
 
 /// Category labels along a horizontal axis. A label is never dropped while
@@ -227,11 +257,10 @@ fn category_bottom(full: Vec<Tick>, length: f64, max_label_height: f64, ts: f64)
     }
     let room = spacing(&full, length);
     let slot = room - LABEL_GAP;
-    let labels: Vec<String> = full.iter().map(|t| t.label.clone()).collect();
+    let labels = tick_labels(&full);
     // 2. Two lines each.
     if slot > 0.0 {
-        let wrapped: Option<Vec<String>> = labels.iter().map(|l| wrap_two(l, slot, ts)).collect();
-        if let Some(w) = wrapped {
+        if let Some(w) = wrap_all(&labels, slot, ts) {
             return (relabel(&full, w), 0.0);
         }
     }
@@ -256,7 +285,7 @@ fn category_bottom(full: Vec<Tick>, length: f64, max_label_height: f64, ts: f64)
         k += 1;
     }
     let kept = every(&full, k);
-    let labels: Vec<String> = kept.iter().map(|t| t.label.clone()).collect();
+    let labels = tick_labels(&kept);
     (relabel(&kept, shorten_unique(&labels, max_label_height, ts)), -90.0)
 }
 
@@ -267,15 +296,16 @@ pub fn wrap_two(label: &str, max_w: f64, ts: f64) -> Option<String> {
         return Some(label.to_string());
     }
     let words: Vec<&str> = label.split_whitespace().collect();
-    (1..words.len())
-        .map(|k| {
-            let (a, b) = (words[..k].join(" "), words[k..].join(" "));
-            let w = text::width(&a, ts, false).max(text::width(&b, ts, false));
-            (w, format!("{a}\n{b}"))
-        })
-        .filter(|(w, _)| *w <= max_w)
-        .min_by(|x, y| x.0.total_cmp(&y.0))
-        .map(|(_, s)| s)
+    // The first split with the least width, as `min_by` keeps the first.
+    let mut best: Option<(f64, String)> = None;
+    for k in 1..words.len() {
+        let (a, b) = (words[..k].join(" "), words[k..].join(" "));
+        let w = text::width(&a, ts, false).max(text::width(&b, ts, false));
+        if w <= max_w && best.as_ref().is_none_or(|(bw, _)| w.total_cmp(bw).is_lt()) {
+            best = Some((w, format!("{a}\n{b}")));
+        }
+    }
+    best.map(|(_, s)| s)
 }
 
 /// Each label cut to the longest prefix that fits `max_w` px with an
@@ -300,37 +330,37 @@ pub fn unique_prefixes(labels: &[String], max_w: f64, ts: f64) -> Option<Vec<Str
         need[i] = n + 1;
     }
     let ell = text::width("\u{2026}", ts, false);
-    labels
-        .iter()
-        .zip(need)
-        .map(|(l, n)| {
-            if text::width(l, ts, false) <= max_w {
-                return Some(l.clone());
+    let mut out = Vec::with_capacity(labels.len());
+    for (l, n) in labels.iter().zip(need) {
+        if text::width(l, ts, false) <= max_w {
+            out.push(l.clone());
+            continue;
+        }
+        if n >= l.chars().count() {
+            return None; // the whole label is another's prefix, and too long
+        }
+        let mut w = 0.0;
+        let mut cut = 0;
+        let mut end = 0; // byte length of the first `cut` characters
+        for c in l.chars() {
+            let a = text::advance(c, false) * ts;
+            if w + a + ell > max_w {
+                break;
             }
-            let chars: Vec<char> = l.chars().collect();
-            if n >= chars.len() {
-                return None; // the whole label is another's prefix, and too long
-            }
-            let mut w = 0.0;
-            let mut cut = 0;
-            for c in &chars {
-                let a = text::advance(*c, false) * ts;
-                if w + a + ell > max_w {
-                    break;
-                }
-                w += a;
-                cut += 1;
-            }
-            if cut < n {
-                return None;
-            }
-            let head: String = chars[..cut].iter().collect();
-            let trimmed = head.trim_end();
-            // Trimming a trailing space must not undo the telling part.
-            let head = if trimmed.chars().count() >= n { trimmed.to_string() } else { head };
-            Some(format!("{head}\u{2026}"))
-        })
-        .collect()
+            w += a;
+            cut += 1;
+            end += c.len_utf8();
+        }
+        if cut < n {
+            return None;
+        }
+        let head = &l[..end];
+        let trimmed = head.trim_end();
+        // Trimming a trailing space must not undo the telling part.
+        let head = if trimmed.chars().count() >= n { trimmed } else { head };
+        out.push(format!("{head}\u{2026}"));
+    }
+    Some(out)
 }
 
 /// Labels cut to `max_w` px, telling apart: unique prefixes where they fit,
@@ -344,7 +374,10 @@ pub fn shorten_unique(labels: &[String], max_w: f64, ts: f64) -> Vec<String> {
 /// start (and end), marking the cut with an ellipsis.
 pub fn shorten_all(labels: &[String], max_w: f64, ts: f64) -> Vec<String> {
     let fit = |s: &str| text::fit(s, ts, false, max_w);
-    let simple: Vec<String> = labels.iter().map(|l| fit(l)).collect();
+    let mut simple: Vec<String> = Vec::with_capacity(labels.len());
+    for l in labels {
+        simple.push(fit(l));
+    }
     let distinct = |v: &[String]| {
         let mut s: Vec<&String> = v.iter().collect();
         crate::sort::by(&mut s, |a, b| a.cmp(b));
@@ -353,7 +386,10 @@ pub fn shorten_all(labels: &[String], max_w: f64, ts: f64) -> Vec<String> {
     if distinct(&simple) || labels.len() < 2 {
         return simple;
     }
-    let words: Vec<Vec<&str>> = labels.iter().map(|l| l.split(' ').collect()).collect();
+    let mut words: Vec<Vec<&str>> = Vec::with_capacity(labels.len());
+    for l in labels {
+        words.push(l.split(' ').collect());
+    }
     let shortest = words.iter().map(Vec::len).min().unwrap_or(0);
     let mut head = 0;
     while head + 1 < shortest && words.iter().all(|w| w[head] == words[0][head]) {
@@ -363,15 +399,12 @@ pub fn shorten_all(labels: &[String], max_w: f64, ts: f64) -> Vec<String> {
     while head + tail + 1 < shortest && words.iter().all(|w| w[w.len() - 1 - tail] == words[0][words[0].len() - 1 - tail]) {
         tail += 1;
     }
-    let core: Vec<String> = words
-        .iter()
-        .map(|w| {
-            let mid = w[head..w.len() - tail].join(" ");
-            let pre = if head > 0 { "\u{2026}" } else { "" };
-            let post = if tail > 0 { "\u{2026}" } else { "" };
-            fit(&format!("{pre}{mid}{post}"))
-        })
-        .collect();
+    let (pre, post) = (if head > 0 { "\u{2026}" } else { "" }, if tail > 0 { "\u{2026}" } else { "" });
+    let mut core: Vec<String> = Vec::with_capacity(words.len());
+    for w in &words {
+        let mid = w[head..w.len() - tail].join(" ");
+        core.push(fit(&format!("{pre}{mid}{post}")));
+    }
     if distinct(&core) {
         core
     } else {
@@ -412,8 +445,8 @@ pub fn left_ticks(scale: &PositionScale, length: f64, wanted: usize, pattern: Op
             // Two lines where the bands have room for them, else prefixes
             // that tell the categories apart (the axis names them in full).
             let two_lines = spacing(&ticks, length) >= 2.0 * line;
-            let labels: Vec<String> = ticks.iter().map(|t| t.label.clone()).collect();
-            let wrapped: Option<Vec<String>> = if two_lines { labels.iter().map(|l| wrap_two(l, max_width, ts)).collect() } else { None };
+            let labels = tick_labels(&ticks);
+            let wrapped = if two_lines { wrap_all(&labels, max_width, ts) } else { None };
             let short = wrapped.unwrap_or_else(|| shorten_unique(&labels, max_width, ts));
             for (t, l) in ticks.iter_mut().zip(short) {
                 t.label = l;
@@ -429,7 +462,11 @@ pub fn left_ticks(scale: &PositionScale, length: f64, wanted: usize, pattern: Op
 
 /// Widest tick label, for the left margin.
 pub fn widest_label(ticks: &[Tick], ts: f64) -> f64 {
-    ticks.iter().map(|t| label_width(t, ts)).fold(0.0, f64::max)
+    let mut m = 0.0f64;
+    for t in ticks {
+        m = m.max(label_width(t, ts));
+    }
+    m
 }
 
 /// An axis title centred at (x, y), shortened to fit `length`, turned by `angle`.
@@ -457,19 +494,11 @@ pub fn grid(axis: &AxisGuide, coord: &Coord, pal: &Palette) -> Vec<Node> {
         return vec![];
     }
     let f = coord.frame();
-    axis.ticks
-        .iter()
-        .map(|t| match axis.side {
-            Side::Left | Side::Right => {
-                let y = f.bottom() - t.unit * f.height;
-                Node::Line { x1: f.left, y1: y, x2: f.right(), y2: y, paint: Paint::stroke(&pal.grid, 1.0) }
-            }
-            Side::Bottom | Side::Top => {
-                let x = f.left + t.unit * f.width;
-                Node::Line { x1: x, y1: f.top, x2: x, y2: f.bottom(), paint: Paint::stroke(&pal.grid, 1.0) }
-            }
-        })
-        .collect()
+    let paint = Paint::stroke(&pal.grid, 1.0);
+    match axis.side {
+        Side::Left | Side::Right => tick_lines(&axis.ticks, false, f, f.left, f.right(), &paint),
+        Side::Bottom | Side::Top => tick_lines(&axis.ticks, true, f, f.top, f.bottom(), &paint),
+    }
 }
 
 /// Axis line, tick labels and title.
@@ -594,8 +623,10 @@ fn tick_text(x: f64, y: f64, t: &Tick, anchor: Anchor, pal: &Palette, ts: f64) -
     if !t.label.contains('\n') {
         return label(x, y, &t.label, anchor, &pal.muted, "strata-tick", ts);
     }
-    let lines =
-        t.label.split('\n').enumerate().map(|(k, l)| label(x, y + k as f64 * ts * text::LINE_HEIGHT, l, anchor, &pal.muted, "strata-tick", ts)).collect();
+    let mut lines = Vec::new();
+    for (k, l) in t.label.split('\n').enumerate() {
+        lines.push(label(x, y + k as f64 * ts * text::LINE_HEIGHT, l, anchor, &pal.muted, "strata-tick", ts));
+    }
     Node::group("strata-tick-lines", lines)
 }
 
@@ -704,24 +735,32 @@ pub fn legends(scales: &Scales, mark: SwatchMark, size: f64) -> Vec<Legend> {
         }
         Some(ColorScale::Ramp { lo, hi }) if !hidden(&scales.color_spec) => {
             let (lo, hi) = (*lo, *hi);
-            let colors = (0..GRADIENT_STEPS)
-                .map(|k| scales.ramp_color(lo + (hi - lo) * (k as f64 + 0.5) / GRADIENT_STEPS as f64, lo, hi, scales.color_scheme))
-                .collect();
+            let mut colors = Vec::with_capacity(GRADIENT_STEPS);
+            for k in 0..GRADIENT_STEPS {
+                colors.push(scales.ramp_color(lo + (hi - lo) * (k as f64 + 0.5) / GRADIENT_STEPS as f64, lo, hi, scales.color_scheme));
+            }
             let scale = PositionScale::linear(lo, hi);
             let ticks = scale.ticks_with(&TickOptions { wanted: 3, pattern: scales.color_spec.format.as_deref(), locale: loc, short: false });
             out.push(Legend { title: scales.color_title.clone(), body: LegendBody::Gradient { colors, ticks }, channel: Channel::Color, size });
         }
         Some(ColorScale::Steps { lo, bounds }) if !hidden(&scales.color_spec) => {
             // A stepped legend: one swatch a class, labelled with its break values.
-            let all: Vec<f64> = std::iter::once(*lo).chain(bounds.iter().copied()).collect();
-            let step = all.windows(2).map(|w| w[1] - w[0]).filter(|d| *d > 0.0).fold(f64::INFINITY, f64::min);
+            let mut all: Vec<f64> = Vec::with_capacity(bounds.len() + 1);
+            all.push(*lo);
+            all.extend_from_slice(bounds);
+            let mut step = f64::INFINITY;
+            for w in all.windows(2) {
+                let d = w[1] - w[0];
+                if d > 0.0 {
+                    step = step.min(d);
+                }
+            }
             let pattern = scales.color_spec.format.clone().unwrap_or_else(|| crate::format::default_pattern(if step.is_finite() { step } else { 1.0 }));
             let f = |v: f64| crate::format::number(v, &pattern, loc);
-            let items = bounds
-                .iter()
-                .enumerate()
-                .map(|(i, b)| (format!("{} – {}", f(all[i]), f(*b)), scales.step_color(i, bounds.len(), scales.color_scheme)))
-                .collect();
+            let mut items = Vec::with_capacity(bounds.len());
+            for (i, b) in bounds.iter().enumerate() {
+                items.push((format!("{} – {}", f(all[i]), f(*b)), scales.step_color(i, bounds.len(), scales.color_scheme)));
+            }
             out.push(Legend { title: scales.color_title.clone(), body: LegendBody::Swatches(items, SwatchMark::Square), channel: Channel::Color, size });
         }
         _ => {}
@@ -731,14 +770,22 @@ pub fn legends(scales: &Scales, mark: SwatchMark, size: f64) -> Vec<Legend> {
             let vals = s.legend_values();
             let step = if vals.len() > 1 { vals[1] - vals[0] } else { vals.first().copied().unwrap_or(1.0) };
             let pattern = scales.size_spec.format.clone().unwrap_or_else(|| crate::format::default_pattern(step));
-            let items = vals.iter().filter_map(|v| Some((crate::format::number(*v, &pattern, loc), s.radius(*v)?))).collect();
+            let mut items = Vec::with_capacity(vals.len());
+            for v in &vals {
+                if let Some(r) = s.radius(*v) {
+                    items.push((crate::format::number(*v, &pattern, loc), r));
+                }
+            }
             out.push(Legend { title: scales.size_title.clone(), body: LegendBody::Sizes(items), channel: Channel::Size, size });
         }
     }
     if let Some(cats) = &scales.shape {
         if !hidden(&scales.shape_spec) {
-            let vals = crate::plan::Values::Text(cats.iter().cloned().map(Some).collect());
-            let items = cats.iter().enumerate().map(|(i, c)| (c.clone(), i, merged.then(|| scales.color_of(&vals, i)).flatten())).collect();
+            let vals = crate::plan::Values::texts(cats);
+            let mut items = Vec::with_capacity(cats.len());
+            for (i, c) in cats.iter().enumerate() {
+                items.push((c.clone(), i, merged.then(|| scales.color_of(&vals, i)).flatten()));
+            }
             let l = Legend { title: scales.shape_title.clone(), body: LegendBody::Shapes(items), channel: Channel::Shape, size };
             if merged {
                 out.insert(0, l)
@@ -756,16 +803,25 @@ fn item_width(label: &str, lead: f64, ts: f64) -> f64 {
 
 fn lead(body: &LegendBody) -> f64 {
     match body {
-        LegendBody::Sizes(items) => items.iter().map(|(_, r)| 2.0 * r).fold(SWATCH, f64::max),
+        LegendBody::Sizes(items) => widest_size(items, SWATCH, 0.0),
         _ => SWATCH,
     }
 }
 
 fn row_height(body: &LegendBody, ts: f64) -> f64 {
     match body {
-        LegendBody::Sizes(items) => items.iter().map(|(_, r)| 2.0 * r + 4.0).fold(ts * text::LINE_HEIGHT, f64::max),
+        LegendBody::Sizes(items) => widest_size(items, ts * text::LINE_HEIGHT, 4.0),
         _ => ts * text::LINE_HEIGHT,
     }
+}
+
+/// The largest circle diameter plus `pad` of a size legend, at least `least`.
+fn widest_size(items: &[(String, f64)], least: f64, pad: f64) -> f64 {
+    let mut m = least;
+    for (_, r) in items {
+        m = m.max(2.0 * r + pad);
+    }
+    m
 }
 
 fn title_height(l: &Legend) -> f64 {
@@ -787,13 +843,11 @@ pub fn column_size(l: &Legend) -> (f64, f64) {
             (w.max(tw), title_height(l) + GRADIENT_LENGTH + ts)
         }
         body => {
-            let labels: Vec<&String> = match body {
-                LegendBody::Swatches(i, _) => i.iter().map(|x| &x.0).collect(),
-                LegendBody::Sizes(i) => i.iter().map(|x| &x.0).collect(),
-                LegendBody::Shapes(i) => i.iter().map(|x| &x.0).collect(),
-                LegendBody::Gradient { .. } => vec![],
-            };
-            let w = labels.iter().map(|s| item_width(s, lead(body), ts)).fold(tw, f64::max);
+            let labels = body_labels(body);
+            let mut w = tw;
+            for s in &labels {
+                w = w.max(item_width(s, lead(body), ts));
+            }
             (w, title_height(l) + row_height(body, ts) * labels.len() as f64)
         }
     }
@@ -812,12 +866,7 @@ fn row_layout(l: &Legend, max_width: f64) -> (Vec<(f64, usize)>, f64, f64) {
     if let LegendBody::Gradient { .. } = body {
         return (vec![], title_height(l) + GRADIENT_THICKNESS + 4.0 + ts * text::LINE_HEIGHT, GRADIENT_LENGTH.max(text::width(&l.title, ts, false)));
     }
-    let labels: Vec<&String> = match body {
-        LegendBody::Swatches(i, _) => i.iter().map(|x| &x.0).collect(),
-        LegendBody::Sizes(i) => i.iter().map(|x| &x.0).collect(),
-        LegendBody::Shapes(i) => i.iter().map(|x| &x.0).collect(),
-        LegendBody::Gradient { .. } => vec![],
-    };
+    let labels = body_labels(body);
     let mut pos = Vec::new();
     let (mut x, mut row, mut widest) = (0.0, 0usize, 0.0f64);
     for s in labels {
@@ -872,12 +921,36 @@ fn symbol(body: &LegendBody, i: usize, cx: f64, cy: f64, pal: &Palette, default_
 }
 
 fn labels_of(body: &LegendBody) -> Vec<String> {
-    match body {
-        LegendBody::Swatches(i, _) => i.iter().map(|x| x.0.clone()).collect(),
-        LegendBody::Sizes(i) => i.iter().map(|x| x.0.clone()).collect(),
-        LegendBody::Shapes(i) => i.iter().map(|x| x.0.clone()).collect(),
-        LegendBody::Gradient { .. } => vec![],
+    let labels = body_labels(body);
+    let mut out = Vec::with_capacity(labels.len());
+    for l in labels {
+        out.push(l.clone());
     }
+    out
+}
+
+/// The item labels of a legend (none for a gradient), in one loop per kind.
+fn body_labels(body: &LegendBody) -> Vec<&String> {
+    let mut out = Vec::new();
+    match body {
+        LegendBody::Swatches(i, _) => {
+            for x in i {
+                out.push(&x.0);
+            }
+        }
+        LegendBody::Sizes(i) => {
+            for x in i {
+                out.push(&x.0);
+            }
+        }
+        LegendBody::Shapes(i) => {
+            for x in i {
+                out.push(&x.0);
+            }
+        }
+        LegendBody::Gradient { .. } => {}
+    }
+    out
 }
 
 fn gradient(l: &Legend, x: f64, y: f64, vertical: bool, pal: &Palette) -> Vec<Node> {
@@ -973,7 +1046,7 @@ fn wrap_legend(l: &Legend, kids: Vec<Node>) -> Node {
 
 /// Room polar labels need around the circle: (horizontal, vertical) in px.
 pub fn polar_margin(angle_ticks: &[Tick], ts: f64) -> (f64, f64) {
-    let widest = angle_ticks.iter().map(|t| label_width(t, ts)).fold(0.0, f64::max);
+    let widest = widest_label(angle_ticks, ts);
     (widest + LABEL_GAP, ts * text::LINE_HEIGHT + LABEL_GAP)
 }
 

@@ -40,7 +40,12 @@ fn channel_name(layer: &PlannedLayer, k: Channel) -> &'static str {
 }
 
 pub(super) fn datum(layer: &PlannedLayer, i: usize) -> Datum {
-    let mut chans: Vec<(&Channel, &Values)> = layer.data.channels.iter().filter(|(k, _)| !k.is_drawing_aid()).collect();
+    let mut chans: Vec<(&Channel, &Values)> = Vec::with_capacity(layer.data.channels.len());
+    for (k, v) in &layer.data.channels {
+        if !k.is_drawing_aid() {
+            chans.push((k, v));
+        }
+    }
     if layer.turned {
         // In the spec's order: its x (the plan's y) first.
         let spec_channel = |k: &Channel| match *k {
@@ -52,11 +57,17 @@ pub(super) fn datum(layer: &PlannedLayer, i: usize) -> Datum {
         };
         crate::sort::by(&mut chans, |a, b| spec_channel(a.0).cmp(&spec_channel(b.0)));
     }
-    let mut d: Datum = chans.into_iter().map(|(k, v)| (channel_name(layer, *k).to_string(), v.json(i))).collect();
+    let mut d = Datum::with_capacity(chans.len() + 1);
+    for (k, v) in chans {
+        d.insert(channel_name(layer, *k).to_string(), v.json(i));
+    }
     // `tooltip` columns ride along under one key; the SVG writer turns them into
     // a hover title and makes the mark keyboard-focusable.
     if !layer.data.tooltips.is_empty() && layer.data.tooltips.iter().all(|(_, v)| v.len() == layer.data.len) {
-        let tips: serde_json::Map<String, serde_json::Value> = layer.data.tooltips.iter().map(|(c, v)| (c.clone(), v.json(i))).collect();
+        let mut tips = serde_json::Map::with_capacity(layer.data.tooltips.len());
+        for (c, v) in &layer.data.tooltips {
+            tips.insert(c.clone(), v.json(i));
+        }
         d.insert("tooltip".into(), serde_json::Value::Object(tips));
     }
     d
@@ -113,16 +124,33 @@ const SERIES_CHANNELS: [Channel; 5] = [Channel::Color, Channel::Group, Channel::
 
 /// Rows split into series by colour, group and panel, in order of first appearance.
 fn series(layer: &PlannedLayer) -> Vec<Vec<usize>> {
-    let cols: Vec<&Values> = SERIES_CHANNELS.iter().filter_map(|c| layer.data.get(*c)).collect();
+    let mut cols: Vec<&Values> = Vec::with_capacity(SERIES_CHANNELS.len());
+    for c in SERIES_CHANNELS {
+        if let Some(v) = layer.data.get(c) {
+            cols.push(v);
+        }
+    }
     if cols.is_empty() {
-        return vec![(0..layer.data.len).collect()];
+        let mut all = Vec::with_capacity(layer.data.len);
+        for i in 0..layer.data.len {
+            all.push(i);
+        }
+        return vec![all];
     }
     // Series in order of first appearance, found by hash (many series stay linear).
     let mut series: indexmap::IndexMap<Vec<Option<String>>, Vec<usize>> = indexmap::IndexMap::new();
     for i in 0..layer.data.len {
-        series.entry(cols.iter().map(|v| v.key(i)).collect()).or_default().push(i);
+        let mut key = Vec::with_capacity(cols.len());
+        for v in &cols {
+            key.push(v.key(i));
+        }
+        series.entry(key).or_default().push(i);
     }
-    series.into_values().collect()
+    let mut out = Vec::with_capacity(series.len());
+    for (_, rows) in series {
+        out.push(rows);
+    }
+    out
 }
 
 fn series_datum(layer: &PlannedLayer, first: usize) -> Datum {
@@ -201,14 +229,36 @@ fn error_bar(ctx: &Ctx, ux: f64, a: f64, b: f64, cap: f64, c: &str, datum: Optio
 /// The pixel column coordinate of a unit x (horizontal pixels; vertical when transposed).
 fn columns(ctx: &Ctx, units: &[(f64, f64)]) -> Option<(Vec<f64>, Vec<f64>, f64)> {
     match ctx.coord {
-        Coord::Cartesian(f) => {
-            Some((units.iter().map(|u| f.left + u.0 * f.width).collect(), units.iter().map(|u| f.bottom() - u.1 * f.height).collect(), f.width))
-        }
-        Coord::Transposed(f) => {
-            Some((units.iter().map(|u| f.top + u.0 * f.height).collect(), units.iter().map(|u| f.left + u.1 * f.width).collect(), f.height))
-        }
+        // (`bottom - u * height` is `bottom + u * -height` to the bit.)
+        Coord::Cartesian(f) => Some((affine(units, false, f.left, f.width), affine(units, true, f.bottom(), -f.height), f.width)),
+        Coord::Transposed(f) => Some((affine(units, false, f.top, f.height), affine(units, true, f.left, f.width), f.height)),
         Coord::Polar { .. } => None,
     }
+}
+
+/// `a + v * b` for each point's x (or y, `of_y`): one monomorphic loop for
+/// the four pixel columns above.
+fn affine(units: &[(f64, f64)], of_y: bool, a: f64, b: f64) -> Vec<f64> {
+    let mut out = Vec::with_capacity(units.len());
+    if of_y {
+        for u in units {
+            out.push(a + u.1 * b);
+        }
+    } else {
+        for u in units {
+            out.push(a + u.0 * b);
+        }
+    }
+    out
+}
+
+/// The points at `idx` (the M4 selection), in one loop shared by lines and bands.
+fn pick_points(v: &[(f64, f64)], idx: &[usize]) -> Vec<(f64, f64)> {
+    let mut out = Vec::with_capacity(idx.len());
+    for &i in idx {
+        out.push(v[i]);
+    }
+    out
 }
 
 /// Indices into `units` to draw: all, or the M4 selection when there are
@@ -264,7 +314,12 @@ fn line_series(layer: &PlannedLayer) -> Vec<RowSet> {
     if SERIES_CHANNELS.iter().all(|c| layer.data.get(*c).is_none()) {
         return vec![RowSet::All(layer.data.len)];
     }
-    series(layer).into_iter().map(RowSet::List).collect()
+    let all = series(layer);
+    let mut out = Vec::with_capacity(all.len());
+    for rows in all {
+        out.push(RowSet::List(rows));
+    }
+    out
 }
 
 /// The pixel column of a unit x, for M4 (None in polar coordinates).
@@ -313,10 +368,14 @@ fn series_units(ctx: &Ctx, layer: &PlannedLayer, rows: &RowSet, ych: Channel) ->
                         RowSet::List(v) => m4_stream(v.iter().filter_map(|&i| point((a[i], b[i]))), origin, extent),
                     }
                 }
-                _ => match rows {
-                    RowSet::All(n) => m4_stream((0..*n).filter_map(unit), origin, extent),
-                    RowSet::List(v) => m4_stream(v.iter().filter_map(|&i| unit(i)), origin, extent),
-                },
+                // Through the scales (one streaming pass for both kinds of row set).
+                _ => {
+                    let (n, list) = match rows {
+                        RowSet::All(n) => (*n, None),
+                        RowSet::List(v) => (v.len(), Some(v.as_slice())),
+                    };
+                    m4_stream((0..n).filter_map(|k| unit(list.map_or(k, |v| v[k]))), origin, extent)
+                }
             };
             if let Some((kept, n)) = direct {
                 return (kept, n, true);
@@ -335,7 +394,7 @@ fn series_units(ctx: &Ctx, layer: &PlannedLayer, rows: &RowSet, ych: Channel) ->
     }
     let n = pts.len();
     match m4_keep(ctx, &pts) {
-        Some(k) => (k.iter().map(|i| pts[*i]).collect(), n, true),
+        Some(k) => (pick_points(&pts, &k), n, true),
         None => (pts, n, false),
     }
 }
@@ -482,8 +541,12 @@ fn band_path(ctx: &Ctx, layer: &PlannedLayer, rows: &[usize], lo: Channel, hi: C
     if !pts.windows(2).all(|w| w[0].0 <= w[1].0) {
         crate::sort::by_f64_key(&mut pts, |p| p.0);
     }
-    let tops: Vec<(f64, f64)> = pts.iter().map(|p| (p.0, p.1)).collect();
-    let bottoms: Vec<(f64, f64)> = pts.iter().map(|p| (p.0, p.2)).collect();
+    let mut tops: Vec<(f64, f64)> = Vec::with_capacity(pts.len());
+    let mut bottoms: Vec<(f64, f64)> = Vec::with_capacity(pts.len());
+    for p in &pts {
+        tops.push((p.0, p.1));
+        bottoms.push((p.0, p.2));
+    }
     // M4 on both edges; keep the union so top and bottom stay paired.
     let keep = match (m4_keep(ctx, &tops), m4_keep(ctx, &bottoms)) {
         (Some(a), Some(b)) => {
@@ -497,7 +560,7 @@ fn band_path(ctx: &Ctx, layer: &PlannedLayer, rows: &[usize], lo: Channel, hi: C
     };
     let pick = |v: &[(f64, f64)]| -> Vec<(f64, f64)> {
         match &keep {
-            Some(k) => k.iter().map(|i| v[*i]).collect(),
+            Some(k) => pick_points(v, k),
             None => v.to_vec(),
         }
     };
@@ -682,7 +745,10 @@ fn boxes(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         if uw > q3 {
             lines.push(seg((xm, q3), (xm, uw)));
         }
-        let dd: Vec<Seg> = lines.iter().flat_map(|l| polyline(l, false)).collect();
+        let mut dd: Vec<Seg> = Vec::new();
+        for l in &lines {
+            dd.extend(polyline(l, false));
+        }
         out.push(Node::Path { d: dd, paint: Paint::stroke(&c, 1.5), datum: None });
         // The box outline.
         let outline = ctx.coord.line(&[(x0, q1), (x1, q1), (x1, q3), (x0, q3)]);
@@ -697,7 +763,14 @@ fn cells(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     let d = &layer.data;
     let (Some(xv), Some(yv)) = (d.get(Channel::X), d.get(Channel::Y)) else { return vec![] };
     let counts = d.get(Channel::Count);
-    let max_count = counts.map(|c| (0..d.len).filter_map(|i| c.num(i)).fold(0.0, f64::max)).unwrap_or(0.0);
+    let mut max_count = 0.0f64;
+    if let Some(c) = counts {
+        for i in 0..d.len {
+            if let Some(x) = c.num(i) {
+                max_count = max_count.max(x);
+            }
+        }
+    }
     let (xb, yb) = (ctx.scales.x.band(), ctx.scales.y.band());
     let mut out = Vec::with_capacity(d.len);
     for i in 0..d.len {
@@ -825,35 +898,48 @@ pub(super) struct Grid {
 const CELL: f64 = 32.0;
 
 impl Grid {
-    fn cells_of(b: Box4) -> impl Iterator<Item = (i64, i64)> {
+    /// The cells a box touches, row by row (x outer, y inner): the first
+    /// and last cell along x and y. A box or segment spanning many cells is
+    /// indexed in at most 64 along each side.
+    fn cells_of(b: Box4) -> (i64, i64, i64, i64) {
         let c = |v: f64| (v / CELL).floor().clamp(-1e6, 1e6) as i64;
         let (x0, x1, y0, y1) = (c(b.0), c(b.2), c(b.1), c(b.3));
-        // A box or segment spanning many cells is indexed in at most 64 along each side.
-        (x0..=x1.min(x0 + 64)).flat_map(move |x| (y0..=y1.min(y0 + 64)).map(move |y| (x, y)))
+        (x0, x1.min(x0 + 64), y0, y1.min(y0 + 64))
     }
     /// Items are numbered: boxes as 2k, segments as 2k + 1.
     pub(super) fn add_box(&mut self, b: Box4) {
         let id = 2 * self.boxes.len();
         self.boxes.push(b);
-        for c in Self::cells_of(b) {
-            self.cells.entry(c).or_default().push(id);
-        }
+        self.index(b, id);
     }
     pub(super) fn add_segment(&mut self, p: (f64, f64), q: (f64, f64)) {
         let id = 2 * self.segs.len() + 1;
         self.segs.push((p, q));
-        for c in Self::cells_of((p.0.min(q.0), p.1.min(q.1), p.0.max(q.0), p.1.max(q.1))) {
-            self.cells.entry(c).or_default().push(id);
+        self.index((p.0.min(q.0), p.1.min(q.1), p.0.max(q.0), p.1.max(q.1)), id);
+    }
+    fn index(&mut self, b: Box4, id: usize) {
+        let (x0, x1, y0, y1) = Self::cells_of(b);
+        for x in x0..=x1 {
+            for y in y0..=y1 {
+                self.cells.entry((x, y)).or_default().push(id);
+            }
         }
     }
     /// Is the box clear of every box and segment stored?
     pub(super) fn free(&self, b: Box4) -> bool {
-        Self::cells_of(b).all(|c| {
-            self.cells.get(&c).is_none_or(|ids| {
-                ids.iter()
-                    .all(|&id| if id % 2 == 0 { !boxes_overlap(self.boxes[id / 2], b) } else { !segment_hits_box(self.segs[id / 2].0, self.segs[id / 2].1, b) })
-            })
-        })
+        let (x0, x1, y0, y1) = Self::cells_of(b);
+        for x in x0..=x1 {
+            for y in y0..=y1 {
+                let Some(ids) = self.cells.get(&(x, y)) else { continue };
+                for &id in ids {
+                    let hit = if id % 2 == 0 { boxes_overlap(self.boxes[id / 2], b) } else { segment_hits_box(self.segs[id / 2].0, self.segs[id / 2].1, b) };
+                    if hit {
+                        return false;
+                    }
+                }
+            }
+        }
+        true
     }
 
     /// Every data mark and label mark under `nodes` as obstacles: boxes of
@@ -984,7 +1070,12 @@ pub fn end_names(layer: &PlannedLayer) -> Vec<String> {
     if !names_ends(layer) {
         return vec![];
     }
-    let mut out: Vec<String> = series(layer).iter().filter_map(|rows| rows.first()).map(|&i| series_name(layer, i)).collect();
+    let mut out: Vec<String> = Vec::new();
+    for rows in series(layer) {
+        if let Some(&i) = rows.first() {
+            out.push(series_name(layer, i));
+        }
+    }
     out.dedup();
     out
 }
@@ -1052,12 +1143,15 @@ fn end_labels(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     }
     let frame = ctx.coord.frame();
     let line = size * crate::text::LINE_HEIGHT;
-    let want: Vec<f64> = ends.iter().map(|e| e.2).collect();
+    let mut want: Vec<f64> = Vec::with_capacity(ends.len());
+    for e in &ends {
+        want.push(e.2);
+    }
     let at = crate::text::place::spread(&want, line, frame.top + line / 2.0, frame.bottom() - line / 2.0);
     let cap = size * crate::text::CAP;
-    ends.into_iter()
-        .zip(at)
-        .map(|((name, px, _, colour), y)| Node::Text {
+    let mut out = Vec::with_capacity(ends.len());
+    for ((name, px, _, colour), y) in ends.into_iter().zip(at) {
+        out.push(Node::Text {
             x: px + END_GAP,
             y: y + cap / 2.0,
             text: name,
@@ -1067,8 +1161,9 @@ fn end_labels(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
             angle: 0.0,
             fill: readable_on(&colour, &ctx.palette.background),
             class: "strata-label strata-end-label".into(),
-        })
-        .collect()
+        });
+    }
+    out
 }
 
 /// Label marks. Where each goes, in order of preference, keeping off the

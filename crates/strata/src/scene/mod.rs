@@ -238,7 +238,11 @@ impl Node {
 impl Scene {
     /// Every data mark in drawing order.
     pub fn marks(&self) -> Vec<&Node> {
-        self.children.iter().flat_map(|c| c.marks()).collect()
+        let mut out = Vec::new();
+        for c in &self.children {
+            out.extend(c.marks());
+        }
+        out
     }
 
     /// Every node holding a number that is not finite (NaN or an infinity),

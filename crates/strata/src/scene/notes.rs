@@ -74,12 +74,12 @@ const POLAR_STEPS: usize = 64;
 /// Pixel points from unit (x0, y0) to (x1, y1), straight in unit space:
 /// in polar coordinates a line along the angle becomes an arc.
 fn traced(coord: &Coord, (x0, y0): (f64, f64), (x1, y1): (f64, f64)) -> Vec<(f64, f64)> {
-    (0..=POLAR_STEPS)
-        .map(|k| {
-            let t = k as f64 / POLAR_STEPS as f64;
-            coord.point(x0 + (x1 - x0) * t, y0 + (y1 - y0) * t)
-        })
-        .collect()
+    let mut out = Vec::with_capacity(POLAR_STEPS + 1);
+    for k in 0..=POLAR_STEPS {
+        let t = k as f64 / POLAR_STEPS as f64;
+        out.push(coord.point(x0 + (x1 - x0) * t, y0 + (y1 - y0) * t));
+    }
+    out
 }
 
 /// A shaded span: a rectangle, or in polar coordinates a ring sector.
@@ -89,8 +89,10 @@ fn shade(coord: &Coord, x0: f64, x1: f64, y0: f64, y1: f64, paint: Paint) -> Opt
         pts.extend(traced(coord, (x1, y0), (x1, y1)).into_iter().skip(1));
         pts.extend(traced(coord, (x1, y1), (x0, y1)).into_iter().skip(1));
         pts.extend(traced(coord, (x0, y1), (x0, y0)).into_iter().skip(1));
-        let (l, t) = pts.iter().fold((f64::INFINITY, f64::INFINITY), |a, p| (a.0.min(p.0), a.1.min(p.1)));
-        let (r, b) = pts.iter().fold((f64::NEG_INFINITY, f64::NEG_INFINITY), |a, p| (a.0.max(p.0), a.1.max(p.1)));
+        let (mut l, mut t, mut r, mut b) = (f64::INFINITY, f64::INFINITY, f64::NEG_INFINITY, f64::NEG_INFINITY);
+        for p in &pts {
+            (l, t, r, b) = (l.min(p.0), t.min(p.1), r.max(p.0), b.max(p.1));
+        }
         return Some((Node::Path { d: polyline(&pts, true), paint, datum: None }, (l, t, r - l, b - t)));
     }
     match coord.area(x0, x1, y0, y1) {

@@ -36,7 +36,12 @@ pub fn shape_path(i: usize, cx: f64, cy: f64, r: f64) -> Vec<Seg> {
             let p = vec![(-a, -b), (a, -b), (a, -a), (b, -a), (b, a), (a, a), (a, b), (-a, b), (-a, a), (-b, a), (-b, -a), (-a, -a)];
             if SHAPES[i % SHAPES.len()] == MarkShape::Cross {
                 let c = std::f64::consts::FRAC_1_SQRT_2;
-                p.into_iter().map(|(x, y)| (c * (x - y), c * (x + y))).collect()
+                let mut p = p;
+                for q in &mut p {
+                    let (x, y) = *q;
+                    *q = (c * (x - y), c * (x + y));
+                }
+                p
             } else {
                 p
             }
@@ -55,7 +60,10 @@ pub fn shape_path(i: usize, cx: f64, cy: f64, r: f64) -> Vec<Seg> {
             p
         }
     };
-    let at: Vec<(f64, f64)> = pts.iter().map(|(x, y)| (cx + x, cy + y)).collect();
+    let mut at: Vec<(f64, f64)> = Vec::with_capacity(pts.len());
+    for (x, y) in pts {
+        at.push((cx + x, cy + y));
+    }
     polyline(&at, true)
 }
 

@@ -21,7 +21,12 @@ pub fn spread(want: &[f64], gap: f64, lo: f64, hi: f64) -> Vec<f64> {
     if n == 0 {
         return vec![];
     }
-    let mut order: Vec<usize> = (0..n).filter(|i| want[*i].is_finite()).collect();
+    let mut order: Vec<usize> = Vec::with_capacity(n);
+    for (i, w) in want.iter().enumerate() {
+        if w.is_finite() {
+            order.push(i);
+        }
+    }
     crate::sort::by(&mut order, |a, b| want[*a].total_cmp(&want[*b]).then(a.cmp(b)));
     // Blocks of pooled values: (sum, count).
     let mut blocks: Vec<(f64, usize)> = Vec::with_capacity(order.len());
