@@ -10,7 +10,7 @@ use serde_json::{Map, Value};
 
 pub fn read(bytes: &[u8], opts: &ReadOptions) -> Result<Table, Errors> {
     let bytes = bytes.strip_prefix(b"\xEF\xBB\xBF").unwrap_or(bytes);
-    let v: Value = serde_json::from_slice(bytes).map_err(|e| {
+    let v: Value = crate::json::from_slice(bytes).map_err(|e| {
         Diagnostic::error("data.json_syntax", format!("the data is not valid JSON: {}", strip(&e.to_string())))
             .at_data(e.line().max(1) as u64, Some(e.column().max(1) as u64))
     })?;

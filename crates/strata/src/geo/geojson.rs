@@ -249,7 +249,7 @@ pub fn key_text(v: &Value) -> Option<String> {
 
 /// Read GeoJSON bytes; `path` names the source in messages (`shapes`).
 pub fn read_bytes(bytes: &[u8], key: Option<&str>, path: &str) -> Result<Vec<Feature>, Vec<Diagnostic>> {
-    let v: Value = serde_json::from_slice(bytes).map_err(|e| {
+    let v: Value = crate::json::from_slice(bytes).map_err(|e| {
         vec![Diagnostic::error("shapes.json", format!("the shapes are not valid JSON: {e}")).at_path(path).at_data(e.line() as u64, Some(e.column() as u64))]
     })?;
     read(&v, key, path)
