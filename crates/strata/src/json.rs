@@ -15,8 +15,8 @@
 //! read by [`parse_float`], the one place that turns number text into `f64`.
 //! `tests/json_reader.rs` checks all of this against serde_json itself.
 //!
-//! The writer ([`write_str`], [`write_f64`]) writes what `serde_json::to_string`
-//! writes for a string and a float. This module names nothing else in the
+//! The writer ([`write_str`], [`write_f64`], [`to_string`]) writes what
+//! `serde_json::to_string` writes for a string, a float and a value. This module names nothing else in the
 //! crate.
 
 use serde_json::{Map, Number, Value};
@@ -385,6 +385,50 @@ impl Reader<'_> {
     }
 }
 
+/// `v` as compact JSON text, what `v.to_string()` (serde_json's `Display`)
+/// gives.
+pub fn to_string(v: &Value) -> String {
+    let mut out = String::new();
+    write_value(&mut out, v);
+    out
+}
+
+/// Append `v` as compact JSON text.
+pub fn write_value(out: &mut String, v: &Value) {
+    match v {
+        Value::Null => out.push_str("null"),
+        Value::Bool(b) => out.push_str(if *b { "true" } else { "false" }),
+        Value::Number(n) => match (n.as_u64(), n.as_i64(), n.as_f64()) {
+            (Some(u), ..) => out.push_str(&u.to_string()),
+            (None, Some(i), _) => out.push_str(&i.to_string()),
+            (.., f) => write_f64(out, f.unwrap_or(f64::NAN)),
+        },
+        Value::String(s) => write_str(out, s),
+        Value::Array(items) => {
+            out.push('[');
+            for (i, item) in items.iter().enumerate() {
+                if i > 0 {
+                    out.push(',');
+                }
+                write_value(out, item);
+            }
+            out.push(']');
+        }
+        Value::Object(map) => {
+            out.push('{');
+            for (i, (k, item)) in map.iter().enumerate() {
+                if i > 0 {
+                    out.push(',');
+                }
+                write_str(out, k);
+                out.push(':');
+                write_value(out, item);
+            }
+            out.push('}');
+        }
+    }
+}
+
 /// Write `s` as a JSON string, quoted and escaped as serde_json writes it:
 /// `\"`, `\\`, `\b`, `\f`, `\n`, `\r`, `\t`, other control characters as
 /// `\u00xx`, everything else as it is.
@@ -434,9 +478,12 @@ pub fn write_f64(out: &mut String, f: f64) {
         return;
     }
     // `{:e}` gives the shortest round-trip digits (`1.2345e3`); printing
-    // that many digits again rounds an exact tie to even, as zmij does.
+    // that many digits again rounds an exact tie to even, as zmij does, when
+    // those digits still read back to `f` (next to a power of two the
+    // interval below is narrower).
     let shortest = format!("{:e}", f.abs());
-    let sci = format!("{:.*e}", shortest.find('e').unwrap_or(2).saturating_sub(2), f.abs());
+    let even = format!("{:.*e}", shortest.find('e').unwrap_or(2).saturating_sub(2), f.abs());
+    let sci = if even != shortest && parse_float(&even) == f.abs() { even } else { shortest };
     let (mantissa, exp) = sci.split_once('e').unwrap_or((&sci, "0"));
     let digits: String = mantissa.chars().filter(|&c| c != '.').collect();
     // The exponent of the first digit.

@@ -29,6 +29,8 @@ fn same(bytes: &[u8]) {
             assert_eq!(a, b, "{show:?}");
             // `==` ignores key order and the sign of zero; Debug shows both.
             assert_eq!(format!("{a:?}"), format!("{b:?}"), "{show:?}");
+            // And the writer: serde_json's compact text of the value.
+            assert_eq!(strata::json::to_string(a), b.to_string(), "{show:?}");
         }
         (Err(a), Err(b)) => {
             assert_eq!(a.to_string(), b.to_string(), "{show:?}");

@@ -419,7 +419,7 @@ fn add_distinct(cats: &mut Vec<String>, seen: &mut HashSet<String>, v: &[Option<
 }
 
 fn json_word(v: &serde_json::Value) -> String {
-    v.as_str().map(str::to_string).unwrap_or_else(|| v.to_string())
+    v.as_str().map(str::to_string).unwrap_or_else(|| crate::json::to_string(v))
 }
 
 /// Categories (text) and the numeric range of a channel across layers.
