@@ -90,7 +90,7 @@ pub fn from_records(rows: &[Map<String, Value>], opts: &ReadOptions) -> Result<T
                 let ok = match v {
                     Value::Null => col.push(b""),
                     Value::String(s) => col.push(s.as_bytes()),
-                    other => col.push(other.to_string().as_bytes()),
+                    other => col.push(crate::json::to_string(other).as_bytes()),
                 };
                 if !ok {
                     return Err(Diagnostic::error("data.too_large", format!("column `{name}` holds more than 2 GiB of text")).into());
