@@ -240,7 +240,7 @@ pub fn key_text(v: &Value) -> Option<String> {
         Value::Number(n) => Some(match (n.as_i64(), n.as_f64()) {
             (Some(i), _) => i.to_string(),
             (None, Some(f)) if f.fract() == 0.0 && f.abs() < 1e15 => format!("{}", f as i64),
-            _ => n.to_string(),
+            _ => crate::json::to_string(v),
         }),
         Value::Bool(b) => Some(b.to_string()),
         _ => None,
