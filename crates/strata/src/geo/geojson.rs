@@ -88,7 +88,7 @@ impl Reader {
             match a[i].as_f64() {
                 Some(n) if n.is_finite() => *slot = n,
                 _ => {
-                    let what = if a[i].is_array() { "an array (wrong nesting?)".to_string() } else { a[i].to_string() };
+                    let what = if a[i].is_array() { "an array (wrong nesting?)".to_string() } else { crate::json::to_string(&a[i]) };
                     let code = if a[i].is_array() { "shapes.nesting" } else { "shapes.coordinate" };
                     self.err(code, &format!("{path}[{i}]"), format!("a coordinate must be a finite number, found {what}"));
                     return None;
@@ -196,7 +196,7 @@ impl Reader {
                 polys.into_iter().collect::<Option<Vec<_>>>().map(Geometry::MultiPolygon)
             }
             _ => {
-                let found = o.get("type").map(|t| t.to_string()).unwrap_or_else(|| "no type".into());
+                let found = o.get("type").map(crate::json::to_string).unwrap_or_else(|| "no type".into());
                 let mut d = Diagnostic::error("shapes.geometry", format!("unknown geometry type {found}")).at_path(format!("{path}.type"));
                 d = d.with_hint("one of Point, MultiPoint, LineString, MultiLineString, Polygon, MultiPolygon, GeometryCollection");
                 if self.errors.len() < MAX_ERRORS {
