@@ -5,28 +5,9 @@
 //! `{"ok": true, "svg": "...", "table": "<details>...", "warnings": [...]}` or
 //! `{"ok": false, "errors": [{"code", "message", "path", "line", "column", "hint"}]}`.
 
-use serde::Serialize;
 use strata::scene::SceneOptions;
 use strata::{DataBytes, Diagnostic, RenderOptions};
 use wasm_bindgen::prelude::*;
-
-#[derive(Serialize)]
-struct Answer<'a> {
-    ok: bool,
-    #[serde(skip_serializing_if = "Option::is_none")]
-    svg: Option<&'a str>,
-    /// The data table's HTML (empty when the spec asks for none).
-    #[serde(skip_serializing_if = "Option::is_none")]
-    table: Option<&'a str>,
-    #[serde(skip_serializing_if = "Option::is_none")]
-    width: Option<f64>,
-    #[serde(skip_serializing_if = "Option::is_none")]
-    height: Option<f64>,
-    #[serde(skip_serializing_if = "<[Diagnostic]>::is_empty")]
-    warnings: &'a [Diagnostic],
-    #[serde(skip_serializing_if = "<[Diagnostic]>::is_empty")]
-    errors: &'a [Diagnostic],
-}
 
 /// Render `spec` (JSON text) with optional data bytes named `data_name`
 /// (a URL or file name; its extension hints the format). `width` is the
@@ -62,20 +43,57 @@ pub fn render_columns_json(spec: &str, columns: &[u8], width: f64) -> String {
     answer_json(strata::render_columns(spec, columns, &render_options(width)))
 }
 
+/// The answer as JSON text, written by hand (strata::json) rather than
+/// through serde's serializer, which weighed on the page's engine; the bytes
+/// are what `serde_json::to_string` gave for the derived `Serialize` (the
+/// tests below check that against serde_json): `ok`, then `svg`, `table`,
+/// `width`, `height` when drawn, then `warnings` and `errors` when not empty.
 fn answer_json(result: Result<strata::Rendered, strata::Errors>) -> String {
-    let answer = match result {
-        Ok(r) => serde_json::to_string(&Answer {
-            ok: true,
-            svg: Some(&r.svg),
-            table: Some(&r.table),
-            width: Some(r.scene.width),
-            height: Some(r.scene.height),
-            warnings: &r.warnings,
-            errors: &[],
-        }),
-        Err(e) => serde_json::to_string(&Answer { ok: false, svg: None, table: None, width: None, height: None, warnings: &[], errors: &e.0 }),
-    };
-    answer.unwrap_or_else(|_| r#"{"ok":false,"errors":[{"severity":"error","code":"internal","message":"could not encode the answer"}]}"#.to_string())
+    match result {
+        Ok(r) => answer_text(Some((&r.svg, &r.table, r.scene.width, r.scene.height)), &r.warnings, &[]),
+        Err(e) => answer_text(None, &[], &e.0),
+    }
+}
+
+/// The answer's text: `drawn` is the SVG, the table and the size.
+fn answer_text(drawn: Option<(&str, &str, f64, f64)>, warnings: &[Diagnostic], errors: &[Diagnostic]) -> String {
+    use strata::json::{write_f64, write_str};
+    let mut out = String::with_capacity(drawn.map_or(0, |(svg, table, ..)| svg.len() + table.len()) + 200);
+    out.push_str(if drawn.is_some() { "{\"ok\":true" } else { "{\"ok\":false" });
+    if let Some((svg, table, width, height)) = drawn {
+        out.push_str(",\"svg\":");
+        write_str(&mut out, svg);
+        out.push_str(",\"table\":");
+        write_str(&mut out, table);
+        out.push_str(",\"width\":");
+        write_f64(&mut out, width);
+        out.push_str(",\"height\":");
+        write_f64(&mut out, height);
+    }
+    diagnostics_json(&mut out, "warnings", warnings);
+    diagnostics_json(&mut out, "errors", errors);
+    out.push('}');
+    out
+}
+
+/// `{"ok":false,"errors":[...]}`, leaving out an empty list.
+fn errors_json(errors: &[Diagnostic]) -> String {
+    answer_text(None, &[], errors)
+}
+
+/// `,"key":[...]` when `list` is not empty.
+fn diagnostics_json(out: &mut String, key: &str, list: &[Diagnostic]) {
+    if list.is_empty() {
+        return;
+    }
+    out.push_str(&format!(",\"{key}\":["));
+    for (i, d) in list.iter().enumerate() {
+        if i > 0 {
+            out.push(',');
+        }
+        d.write_json(out);
+    }
+    out.push(']');
 }
 
 /// JavaScript entry point for Arrow data: `columns` is what the add-on's
@@ -107,7 +125,7 @@ pub fn table_shape(data: &[u8], data_name: &str) -> String {
     let opts = strata::data::ReadOptions { format: strata::data::format_from_name(data_name), ..Default::default() };
     match strata::data::read(data, &opts) {
         Ok(t) => format!("{{\"ok\":true,\"rows\":{},\"columns\":{}}}", t.num_rows(), t.num_columns()),
-        Err(e) => serde_json::json!({ "ok": false, "errors": e.0 }).to_string(),
+        Err(e) => errors_json(&e.0),
     }
 }
 
@@ -136,25 +154,25 @@ pub fn columns_of_interchange(columns: &[u8]) -> String {
 
 fn columns_answer(table: Result<strata::data::Table, strata::Errors>) -> String {
     use strata::data::Column;
+    use strata::json::write_str;
     match table {
         Ok(t) => {
-            let cols: Vec<serde_json::Value> = t
-                .names()
-                .iter()
-                .zip(t.columns())
-                .map(|(name, c)| {
-                    let kind = match c {
-                        Column::Bool(_) => "bool",
-                        Column::Text(_) => "text",
-                        Column::Date(_) | Column::DateTime(_) => "date",
-                        Column::Int(_) | Column::Float(_) => "number",
-                    };
-                    serde_json::json!({ "name": name, "type": kind })
-                })
-                .collect();
-            serde_json::json!({ "ok": true, "rows": t.num_rows(), "columns": cols }).to_string()
+            let mut out = format!("{{\"ok\":true,\"rows\":{},\"columns\":[", t.num_rows());
+            for (i, (name, c)) in t.names().iter().zip(t.columns()).enumerate() {
+                let kind = match c {
+                    Column::Bool(_) => "bool",
+                    Column::Text(_) => "text",
+                    Column::Date(_) | Column::DateTime(_) => "date",
+                    Column::Int(_) | Column::Float(_) => "number",
+                };
+                out.push_str(if i > 0 { ",{\"name\":" } else { "{\"name\":" });
+                write_str(&mut out, name);
+                out.push_str(&format!(",\"type\":\"{kind}\"}}"));
+            }
+            out.push_str("]}");
+            out
         }
-        Err(e) => serde_json::json!({ "ok": false, "errors": e.0 }).to_string(),
+        Err(e) => errors_json(&e.0),
     }
 }
 
@@ -167,6 +185,101 @@ pub fn version() -> String {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    /// The answer as it was written before `answer_text`: serde's derive
+    /// through `serde_json::to_string` (serde 1.0.229, serde_json 1.0.154 in
+    /// Cargo.lock), the reference the hand-written answer must equal byte for
+    /// byte.
+    #[derive(serde::Serialize)]
+    struct Answer<'a> {
+        ok: bool,
+        #[serde(skip_serializing_if = "Option::is_none")]
+        svg: Option<&'a str>,
+        #[serde(skip_serializing_if = "Option::is_none")]
+        table: Option<&'a str>,
+        #[serde(skip_serializing_if = "Option::is_none")]
+        width: Option<f64>,
+        #[serde(skip_serializing_if = "Option::is_none")]
+        height: Option<f64>,
+        #[serde(skip_serializing_if = "<[Diagnostic]>::is_empty")]
+        warnings: &'a [Diagnostic],
+        #[serde(skip_serializing_if = "<[Diagnostic]>::is_empty")]
+        errors: &'a [Diagnostic],
+    }
+
+    /// A small xorshift generator, so the random cases are the same each run.
+    struct Rng(u64);
+    impl Rng {
+        fn next(&mut self) -> u64 {
+            self.0 ^= self.0 << 13;
+            self.0 ^= self.0 >> 7;
+            self.0 ^= self.0 << 17;
+            self.0
+        }
+        fn below(&mut self, n: u64) -> u64 {
+            self.next() % n
+        }
+        fn text(&mut self) -> String {
+            let pool: Vec<char> = "aZ09 <>&\"\\/'\u{0}\u{1}\u{8}\u{9}\u{a}\u{b}\u{c}\u{d}\u{1f}\u{7f}\u{80}é€\u{2028}\u{2029}😀\u{feff}".chars().collect();
+            (0..self.below(12)).map(|_| pool[self.below(pool.len() as u64) as usize]).collect()
+        }
+        fn float(&mut self) -> f64 {
+            match self.below(8) {
+                // Exact ties between two shortest candidates, powers of two.
+                6 => self.below(1 << 20) as f64 * 2f64.powi(-(self.below(90) as i32)),
+                7 => 2f64.powi(self.below(2000) as i32 - 1000),
+                0 => f64::from_bits(self.next()),
+                1 => self.below(5000) as f64,
+                2 => (self.below(2_000_000) as f64 - 1e6) / 1000.0,
+                3 => [0.0, -0.0, 1e16, 1e15, 9.999e15, 1e17, 1e-5, 1e-4, 1.5e-7, 0.1 + 0.2, f64::MAX, f64::MIN_POSITIVE, 5e-324, f64::NAN, f64::INFINITY]
+                    [self.below(15) as usize],
+                4 => 10f64.powi(self.below(60) as i32 - 30) * (self.below(1000) as f64 + 1.0),
+                _ => f64::from_bits(self.next() >> 12 | 0x4000_0000_0000_0000),
+            }
+        }
+        fn diagnostics(&mut self) -> Vec<Diagnostic> {
+            (0..self.below(4))
+                .map(|_| {
+                    let mut d = if self.below(2) == 0 { Diagnostic::error(&self.text(), self.text()) } else { Diagnostic::warning(&self.text(), self.text()) };
+                    if self.below(2) == 0 {
+                        d = d.at_path(self.text());
+                    }
+                    if self.below(2) == 0 {
+                        d.at.line = Some(self.next() >> self.below(64));
+                        d.at.column = [None, Some(self.next() >> 40)][self.below(2) as usize];
+                    }
+                    if self.below(2) == 0 {
+                        d = d.with_hint(self.text());
+                    }
+                    d
+                })
+                .collect()
+        }
+    }
+
+    #[test]
+    fn the_answer_is_what_serde_json_writes() {
+        let mut rng = Rng(0x5eed_1234_abcd_0001);
+        for _ in 0..3000 {
+            let (svg, table, width, height) = (rng.text(), rng.text(), rng.float(), rng.float());
+            let (warnings, errors) = (rng.diagnostics(), rng.diagnostics());
+            let drawn = rng.below(2) == 0;
+            let ours = answer_text(drawn.then_some((&svg, &table, width, height)), &warnings, &errors);
+            let reference = if drawn {
+                Answer { ok: true, svg: Some(&svg), table: Some(&table), width: Some(width), height: Some(height), warnings: &warnings, errors: &errors }
+            } else {
+                Answer { ok: false, svg: None, table: None, width: None, height: None, warnings: &warnings, errors: &errors }
+            };
+            assert_eq!(ours, serde_json::to_string(&reference).unwrap());
+        }
+        // A float alone, over many bit patterns (ryu's layout in serde_json).
+        for _ in 0..100_000 {
+            let f = rng.float();
+            let mut ours = String::new();
+            strata::json::write_f64(&mut ours, f);
+            assert_eq!(ours, serde_json::to_string(&f).unwrap(), "{f:e}");
+        }
+    }
 
     #[test]
     fn answer_is_json_with_svg() {

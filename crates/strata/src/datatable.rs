@@ -69,7 +69,7 @@ fn shape_table(spec: &Spec, plan: &Plan, l: &PlannedLayer, out: &mut String) -> 
         serde_json::Value::String(s) => s.clone(),
         serde_json::Value::Number(n) => n.as_f64().map(|x| format::value_label_in(x, loc)).unwrap_or_default(),
         serde_json::Value::Null => String::new(),
-        other => other.to_string(),
+        other => crate::json::to_string(other),
     };
     let named = key.as_deref() != Some("name") && m.features.iter().any(|f| f.properties.contains_key("name"));
     let n = m.features.len();

@@ -59,6 +59,35 @@ impl Diagnostic {
         self.hint = Some(hint.into());
         self
     }
+
+    /// Append this diagnostic as a JSON object, the bytes its `Serialize`
+    /// gives through `serde_json::to_string` (the page engine writes its
+    /// answer with this, without serde's serializer):
+    /// `{"severity":"error","code":..,"message":..,"path":..,"line":..,"column":..,"hint":..}`,
+    /// leaving out an empty path and absent parts.
+    pub fn write_json(&self, out: &mut String) {
+        let field = |out: &mut String, key: &str, value: &str| {
+            out.push_str(",\"");
+            out.push_str(key);
+            out.push_str("\":");
+            crate::json::write_str(out, value);
+        };
+        out.push_str(if self.severity == Severity::Error { "{\"severity\":\"error\"" } else { "{\"severity\":\"warning\"" });
+        field(out, "code", &self.code);
+        field(out, "message", &self.message);
+        if !self.at.path.is_empty() {
+            field(out, "path", &self.at.path);
+        }
+        for (key, n) in [("line", self.at.line), ("column", self.at.column)] {
+            if let Some(n) = n {
+                out.push_str(&format!(",\"{key}\":{n}"));
+            }
+        }
+        if let Some(h) = &self.hint {
+            field(out, "hint", h);
+        }
+        out.push('}');
+    }
 }
 
 impl fmt::Display for Diagnostic {

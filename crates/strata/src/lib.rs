@@ -18,7 +18,8 @@
 //!
 //! Libraries the stages share: [`channel`] (the channel names), [`calendar`] (dates), [`stat`]
 //! (numerics), [`scale`] (mapping and ticks), [`format`](mod@format) (labels), [`color`], [`text`]
-//! (measurement), [`math`].
+//! (measurement), [`math`], [`json`] (JSON text to `serde_json::Value` and JSON strings out, without
+//! serde's machinery).
 
 pub mod budget;
 pub mod calendar;
@@ -31,6 +32,7 @@ pub mod expr;
 pub mod format;
 pub mod geo;
 pub mod guard;
+pub mod json;
 pub mod lint;
 pub mod math;
 pub mod plan;

@@ -10,7 +10,7 @@ use std::collections::HashMap;
 
 pub fn read(bytes: &[u8], opts: &ReadOptions) -> Result<Table, Errors> {
     let bytes = bytes.strip_prefix(b"\xEF\xBB\xBF").unwrap_or(bytes);
-    let v: Value = serde_json::from_slice(bytes).map_err(|e| {
+    let v: Value = crate::json::from_slice(bytes).map_err(|e| {
         Diagnostic::error("data.json_syntax", format!("the data is not valid JSON: {}", strip(&e.to_string())))
             .at_data(e.line().max(1) as u64, Some(e.column().max(1) as u64))
     })?;
@@ -121,7 +121,7 @@ pub fn from_records(rows: &[Map<String, Value>], opts: &ReadOptions) -> Result<T
                 let ok = match v {
                     Value::Null => col.push(b""),
                     Value::String(s) => col.push(s.as_bytes()),
-                    other => col.push(other.to_string().as_bytes()),
+                    other => col.push(crate::json::to_string(other).as_bytes()),
                 };
                 if !ok {
                     return Err(Diagnostic::error("data.too_large", format!("column `{name}` holds more than 2 GiB of text")).into());

@@ -88,7 +88,7 @@ impl Reader {
             match a[i].as_f64() {
                 Some(n) if n.is_finite() => *slot = n,
                 _ => {
-                    let what = if a[i].is_array() { "an array (wrong nesting?)".to_string() } else { a[i].to_string() };
+                    let what = if a[i].is_array() { "an array (wrong nesting?)".to_string() } else { crate::json::to_string(&a[i]) };
                     let code = if a[i].is_array() { "shapes.nesting" } else { "shapes.coordinate" };
                     self.err(code, &format!("{path}[{i}]"), format!("a coordinate must be a finite number, found {what}"));
                     return None;
@@ -210,7 +210,7 @@ impl Reader {
                 polys.into_iter().collect::<Option<Vec<_>>>().map(Geometry::MultiPolygon)
             }
             _ => {
-                let found = o.get("type").map(|t| t.to_string()).unwrap_or_else(|| "no type".into());
+                let found = o.get("type").map(crate::json::to_string).unwrap_or_else(|| "no type".into());
                 let mut d = Diagnostic::error("shapes.geometry", format!("unknown geometry type {found}")).at_path(format!("{path}.type"));
                 d = d.with_hint("one of Point, MultiPoint, LineString, MultiLineString, Polygon, MultiPolygon, GeometryCollection");
                 if self.errors.len() < MAX_ERRORS {
@@ -254,7 +254,7 @@ pub fn key_text(v: &Value) -> Option<String> {
         Value::Number(n) => Some(match (n.as_i64(), n.as_f64()) {
             (Some(i), _) => i.to_string(),
             (None, Some(f)) if f.fract() == 0.0 && f.abs() < 1e15 => format!("{}", f as i64),
-            _ => n.to_string(),
+            _ => crate::json::to_string(v),
         }),
         Value::Bool(b) => Some(b.to_string()),
         _ => None,
@@ -263,7 +263,7 @@ pub fn key_text(v: &Value) -> Option<String> {
 
 /// Read GeoJSON bytes; `path` names the source in messages (`shapes`).
 pub fn read_bytes(bytes: &[u8], key: Option<&str>, path: &str) -> Result<Vec<Feature>, Vec<Diagnostic>> {
-    let v: Value = serde_json::from_slice(bytes).map_err(|e| {
+    let v: Value = crate::json::from_slice(bytes).map_err(|e| {
         vec![Diagnostic::error("shapes.json", format!("the shapes are not valid JSON: {e}")).at_path(path).at_data(e.line() as u64, Some(e.column() as u64))]
     })?;
     read(&v, key, path)

@@ -429,7 +429,7 @@ fn add_distinct(cats: &mut Vec<String>, seen: &mut HashMap<String, usize>, v: &[
 }
 
 fn json_word(v: &serde_json::Value) -> String {
-    v.as_str().map(str::to_string).unwrap_or_else(|| v.to_string())
+    v.as_str().map(str::to_string).unwrap_or_else(|| crate::json::to_string(v))
 }
 
 /// [`json_word`] of each value, in one loop for every list the spec gives.

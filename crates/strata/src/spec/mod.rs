@@ -19,7 +19,7 @@ pub use parse::{parse_spec_with, spec_from_value_with, ExtraCheck};
 /// A part of a spec (a layer, a scale...) from JSON text, unchecked: for tests.
 #[cfg(test)]
 pub(crate) fn from_json<T: read::Read>(text: &str) -> Result<T, String> {
-    T::read(&serde_json::from_str(text).map_err(|e| e.to_string())?)
+    T::read(&crate::json::from_str(text).map_err(|e| e.to_string())?)
 }
 pub use suggest::{closest, edit_distance, levenshtein};
 

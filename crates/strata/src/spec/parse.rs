@@ -20,9 +20,7 @@ pub type ExtraCheck<'a> = &'a dyn Fn(&Value) -> Vec<Diagnostic>;
 /// Parse a spec from JSON text. Errors carry the JSON path of the offending
 /// key (`layers[0].draw`) and, for JSON syntax errors, the line and column.
 pub fn parse_spec_with(text: &str, extra: ExtraCheck) -> Result<Spec, Errors> {
-    // From the bytes, as the data reader does: one JSON reader in the
-    // engine, not two (the text is UTF-8 already, so nothing else differs).
-    let value: Value = serde_json::from_slice(text.as_bytes()).map_err(|e| {
+    let value: Value = crate::json::from_str(text).map_err(|e| {
         Diagnostic::error(
             "spec.json_syntax",
             format!("the spec is not valid JSON: {} (spec line {}, column {})", strip_position(&e.to_string()), e.line(), e.column()),

@@ -418,7 +418,7 @@ fn found(v: &Value) -> String {
     match v {
         Value::Null => "null".into(),
         Value::Bool(b) => format!("{b}"),
-        Value::Number(n) => format!("the number {n}"),
+        Value::Number(_) => format!("the number {}", crate::json::to_string(v)),
         Value::String(s) => format!("the text {}", excerpt(format!("{s:?}"))),
         Value::Array(_) => "a list".into(),
         Value::Object(_) => "an object".into(),

@@ -135,7 +135,7 @@ fn value_words(v: &serde_json::Value) -> String {
         serde_json::Value::String(s) => s.clone(),
         serde_json::Value::Number(n) => n.as_f64().map(crate::format::value_label).unwrap_or_default(),
         serde_json::Value::Null => "missing".into(),
-        other => other.to_string(),
+        other => crate::json::to_string(other),
     }
 }
 
