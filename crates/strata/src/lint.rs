@@ -10,7 +10,7 @@ use crate::color::{Palette, HARBOUR};
 use crate::error::Diagnostic;
 use crate::plan::{ColorScale, Plan};
 use crate::scale::PositionScale;
-use crate::spec::{AngleChannel, Coords, Geometry, ScaleKind, Spec, Theme};
+use crate::spec::{AngleChannel, Coords, Geometry, ScaleKind, ScaleSpec, Spec, Theme};
 
 /// Every lint code, for `quiet` and the schema.
 pub const CODES: &[&str] = crate::spec::shape::LINT_CODES;
@@ -26,8 +26,10 @@ fn warn(code: &str, path: impl Into<String>, why: String) -> Diagnostic {
 /// those the spec silences in `quiet`.
 pub fn check(spec: &Spec, plan: Option<&Plan>) -> Vec<Diagnostic> {
     let mut out = Vec::new();
-    let y_spec = spec.scales.get(&Channel::Y).cloned().unwrap_or_default();
-    let x_spec = spec.scales.get(&Channel::X).cloned().unwrap_or_default();
+    // Borrowed, not cloned (a clone of a scale spec is code the page carries).
+    let no_scale = ScaleSpec::default();
+    let y_spec = spec.scales.get(&Channel::Y).unwrap_or(&no_scale);
+    let x_spec = spec.scales.get(&Channel::X).unwrap_or(&no_scale);
     // The value axis of bars is y, unless the plan shows categories on y and numbers on x.
     // A turned plan (horizontal bars) holds the spec's x in its y scale.
     let turned = plan.is_some_and(|p| p.chart.transposed);

@@ -199,7 +199,7 @@ pub fn spec_shape() -> &'static Shape {
             ),
             f!("types", Shape::Map { keys: None, value: &Shape::Word(COLUMN_TYPES) }, "Per-column type overrides: number, text, date, bool."),
             f!("sha256", Shape::Text("a hex SHA-256 digest"), "Hex SHA-256 of the data bytes; data whose digest differs is refused."),
-            f!("rows", list(&Shape::Map { keys: None, value: &(Shape::Any) }), "Inline records, for small tables."),
+            f!("rows", list(&Shape::Map { keys: None, value: &Shape::Any }), "Inline records, for small tables."),
             f!(
                 "delimiter",
                 Shape::Word(&[",", ";", "\t", "|"]),
@@ -442,13 +442,19 @@ fn found(v: &Value) -> String {
     }
 }
 
+/// `a`, `b` or `c` (a loop: no vector of pieces).
 fn join_words(words: &[&str]) -> String {
-    let w: Vec<String> = words.iter().map(|w| format!("`{w}`")).collect();
-    match w.len() {
-        0 => String::new(),
-        1 => w[0].clone(),
-        _ => format!("{} or {}", w[..w.len() - 1].join(", "), w[w.len() - 1]),
+    let mut out = String::new();
+    let n = words.len();
+    for (i, w) in words.iter().enumerate() {
+        if i > 0 {
+            out.push_str(if i + 1 == n { " or " } else { ", " });
+        }
+        out.push('`');
+        out.push_str(w);
+        out.push('`');
     }
+    out
 }
 
 impl Shape {
@@ -467,7 +473,16 @@ impl Shape {
             Shape::List(_) => "a list".into(),
             Shape::Pair(item) => format!("a list of two items, each {}", item.expected()),
             Shape::Map { .. } | Shape::Object(_) => "an object".into(),
-            Shape::Either(alts) => alts.iter().map(|a| a.expected()).collect::<Vec<_>>().join(", or "),
+            Shape::Either(alts) => {
+                let mut out = String::new();
+                for (i, a) in alts.iter().enumerate() {
+                    if i > 0 {
+                        out.push_str(", or ");
+                    }
+                    out.push_str(&a.expected());
+                }
+                out
+            }
             Shape::Def(name) => def_shape(name).expected(),
         }
     }
@@ -575,12 +590,14 @@ pub fn check(v: &Value, shape: &Shape, path: &str, out: &mut Vec<Diagnostic>) {
         }
         Shape::Object(o) => {
             let m: &Map<String, Value> = v.as_object().expect("checked");
-            let names: Vec<&str> = o.fields.iter().map(|f| f.name).collect();
             for (k, x) in m {
                 let p = key_path(path, k);
                 match o.fields.iter().find(|f| f.name == k) {
                     Some(field) => check(x, &field.shape, &p, out),
-                    None => out.push(unknown_key(k, &names, &p)),
+                    None => {
+                        let names: Vec<&str> = o.fields.iter().map(|f| f.name).collect();
+                        out.push(unknown_key(k, &names, &p));
+                    }
                 }
             }
             for field in o.fields.iter().filter(|f| f.required) {
