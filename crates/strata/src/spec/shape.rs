@@ -186,8 +186,9 @@ const fn color() -> Shape {
 }
 
 /// The shape of a whole spec: static data (code that built it at each
-/// check was 11 KB of the page's engine).
-pub fn spec_shape() -> &'static Shape {
+/// check was 11 KB of the page's engine); a copy of the root, whose parts
+/// are references into the table.
+pub fn spec_shape() -> Shape {
     const DATA: Shape = Shape::Either(&[
         Shape::Text("a data URL"),
         obj(&[
@@ -424,7 +425,7 @@ pub fn spec_shape() -> &'static Shape {
             "The numbers behind the marks as a table under the chart: closed (default: a disclosure the reader opens), open, or none.",
         ),
     ]);
-    &SPEC
+    SPEC
 }
 
 // ---------------------------------------------------------------- checking
@@ -524,7 +525,7 @@ fn kind_matches(a: &Shape, v: &Value) -> bool {
 pub fn check(v: &Value, shape: &Shape, path: &str, out: &mut Vec<Diagnostic>) {
     match shape {
         Shape::Any => {}
-        Shape::Def(name) => check(v, &def_shape(name), path, out),
+        Shape::Def(name) => check(v, def_shape(name), path, out),
         // Objects of one type are told apart by their `kind` word (coords:
         // polar or map); the first fitting alternative otherwise.
         Shape::Either(alts) => match alts.iter().find(|a| a.accepts_type(v) && kind_matches(a, v)).or_else(|| alts.iter().find(|a| a.accepts_type(v))) {
@@ -729,7 +730,7 @@ pub fn key_paths() -> Vec<String> {
             Shape::List(item) | Shape::Pair(item) => walk(item, &format!("{path}[]"), out),
             Shape::Map { value, keys, .. } => walk(value, &format!("{path}.{}", if keys.is_some() { "CHANNEL" } else { "NAME" }), out),
             Shape::Either(alts) => alts.iter().for_each(|a| walk(a, path, out)),
-            Shape::Def(name) => walk(&def_shape(name), path, out),
+            Shape::Def(name) => walk(def_shape(name), path, out),
             _ => {}
         }
     }
