@@ -596,7 +596,10 @@ pub fn check(v: &Value, shape: &Shape, path: &str, out: &mut Vec<Diagnostic>) {
                 match o.fields.iter().find(|f| f.name == k) {
                     Some(field) => check(x, &field.shape, &p, out),
                     None => {
-                        let names: Vec<&str> = o.fields.iter().map(|f| f.name).collect();
+                        let mut names = Vec::new();
+                        for f in o.fields {
+                            names.push(f.name);
+                        }
                         out.push(unknown_key(k, &names, &p));
                     }
                 }
@@ -632,12 +635,19 @@ fn wrong_type(shape: &Shape, v: &Value, path: &str) -> Diagnostic {
 }
 
 fn unknown_key(k: &str, names: &[&str], path: &str) -> Diagnostic {
-    let visible: Vec<&str> = names.iter().copied().filter(|n| !n.starts_with('$')).collect();
     let mut d = Diagnostic::error("spec.unknown_key", format!("unknown key `{k}`")).at_path(path);
     d = match (retired_hint(k, names), closest(k, names.iter().copied())) {
         (Some(hint), _) => d.with_hint(hint),
         (None, Some(near)) => d.with_hint(format!("did you mean `{near}`?")),
-        (None, None) => d.with_hint(format!("the keys here are {}", join_words(&visible))),
+        (None, None) => {
+            let mut visible = Vec::new();
+            for n in names {
+                if !n.starts_with('$') {
+                    visible.push(*n);
+                }
+            }
+            d.with_hint(format!("the keys here are {}", join_words(&visible)))
+        }
     };
     d
 }
