@@ -10,7 +10,7 @@ use crate::color::{Palette, HARBOUR};
 use crate::error::Diagnostic;
 use crate::plan::{ColorScale, Plan};
 use crate::scale::PositionScale;
-use crate::spec::{AngleChannel, Coords, Geometry, ScaleKind, Spec, Theme};
+use crate::spec::{AngleChannel, Coords, Geometry, ScaleKind, ScaleSpec, Spec, Theme};
 
 /// Every lint code, for `quiet` and the schema.
 pub const CODES: &[&str] = crate::spec::shape::LINT_CODES;
@@ -26,8 +26,10 @@ fn warn(code: &str, path: impl Into<String>, why: String) -> Diagnostic {
 /// those the spec silences in `quiet`.
 pub fn check(spec: &Spec, plan: Option<&Plan>) -> Vec<Diagnostic> {
     let mut out = Vec::new();
-    let y_spec = spec.scales.get(&Channel::Y).cloned().unwrap_or_default();
-    let x_spec = spec.scales.get(&Channel::X).cloned().unwrap_or_default();
+    // Borrowed, not cloned (a clone of a scale spec is code the page carries).
+    let no_scale = ScaleSpec::default();
+    let y_spec = spec.scales.get(&Channel::Y).unwrap_or(&no_scale);
+    let x_spec = spec.scales.get(&Channel::X).unwrap_or(&no_scale);
     // The value axis of bars is y, unless the plan shows categories on y and numbers on x.
     // A turned plan (horizontal bars) holds the spec's x in its y scale.
     let turned = plan.is_some_and(|p| p.chart.transposed);
@@ -246,8 +248,12 @@ pub fn parse_css_color(s: &str) -> Option<[f64; 4]> {
         if !hex.chars().all(|c| c.is_ascii_hexdigit()) {
             return None;
         }
-        let d: Vec<u32> = hex.chars().map(|c| c.to_digit(16).unwrap()).collect();
-        let (r, g, b, a) = match d.len() {
+        // Digits in a fixed array (no vector): at most 8 are read.
+        let mut d = [0u32; 8];
+        for (i, c) in hex.chars().take(8).enumerate() {
+            d[i] = c.to_digit(16).unwrap_or(0);
+        }
+        let (r, g, b, a) = match hex.len() {
             3 => (d[0] * 17, d[1] * 17, d[2] * 17, 255),
             4 => (d[0] * 17, d[1] * 17, d[2] * 17, d[3] * 17),
             6 => (d[0] * 16 + d[1], d[2] * 16 + d[3], d[4] * 16 + d[5], 255),
@@ -261,10 +267,18 @@ pub fn parse_css_color(s: &str) -> Option<[f64; 4]> {
         Some((m, a)) => (m, Some(a.trim())),
         None => (inner, None),
     };
-    let parts: Vec<&str> = main.split([',', ' ']).map(str::trim).filter(|p| !p.is_empty()).collect();
-    let (parts, alpha) = match (parts.len(), alpha) {
-        (3, a) => (parts, a),
-        (4, None) => (parts[..3].to_vec(), Some(parts[3])),
+    // At most four parts, in a fixed array (no vector).
+    let (mut parts, mut n) = ([""; 4], 0);
+    for p in main.split([',', ' ']).map(str::trim).filter(|p| !p.is_empty()) {
+        if n == 4 {
+            return None;
+        }
+        parts[n] = p;
+        n += 1;
+    }
+    let alpha = match (n, alpha) {
+        (3, a) => a,
+        (4, None) => Some(parts[3]),
         _ => return None,
     };
     let chan = |p: &str| -> Option<f64> {
@@ -397,5 +411,19 @@ mod tests {
         assert_eq!(parse_css_color("rgb(100% 50% 0%)"), Some([1.0, 0.5, 0.0, 1.0]));
         assert_eq!(parse_css_color("oklch(0.5 0.1 20)"), None);
         assert_eq!(parse_css_color("#12"), None);
+        // CSS Color Level 4, 5.2 "The RGB hexadecimal notations": in #rgba
+        // each digit stands doubled (#0f08 is #00ff0088); 5, 7 or 9 digits
+        // are no colour.
+        assert_eq!(parse_css_color("#0f08"), Some([0.0, 1.0, 0.0, 136.0 / 255.0]));
+        assert_eq!(parse_css_color("#ff0000"), Some([1.0, 0.0, 0.0, 1.0]));
+        for bad in ["#", "#12345", "#1234567", "#123456789"] {
+            assert_eq!(parse_css_color(bad), None, "{bad}");
+        }
+        // 5.1 "The RGB functions": the legacy rgba() takes its alpha as a
+        // fourth comma-separated value; five values, or four and a slash,
+        // are no colour.
+        assert_eq!(parse_css_color("rgba(255, 0, 0, 0.5)"), Some([1.0, 0.0, 0.0, 0.5]));
+        assert_eq!(parse_css_color("rgb(1 2 3 4 5)"), None);
+        assert_eq!(parse_css_color("rgb(1 2 3 4 / 0.5)"), None);
     }
 }

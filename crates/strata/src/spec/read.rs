@@ -102,6 +102,48 @@ impl<'a> Obj<'a> {
         }
     }
 
+    /// A word key as its index in `words`, in one function for every word
+    /// enum (a `get` of each would be one function a type). `need`: 0 an
+    /// `Option` (absent or null: `None`), 1 a key with a default (absent:
+    /// `None`), 2 a required key. `None` also after an error, which is kept.
+    #[inline(never)]
+    fn word_at(&self, key: &str, words: &[&str], need: u8) -> Option<usize> {
+        let Some(v) = self.value(key) else {
+            if need == 2 {
+                self.note(key, missing());
+            }
+            return None;
+        };
+        if need == 0 && v.is_null() {
+            return None;
+        }
+        match word_index(v, words) {
+            Ok(i) => Some(i),
+            Err(e) => {
+                self.note(key, e);
+                None
+            }
+        }
+    }
+
+    /// An optional word key: `Option<T>`.
+    #[inline(always)]
+    pub fn word<T: Word>(&self, key: &str) -> Option<T> {
+        self.word_at(key, T::WORDS, 0).map(|i| T::ALL[i].1)
+    }
+
+    /// A word key whose absence means `default`.
+    #[inline(always)]
+    pub fn word_or<T: Word>(&self, key: &str, default: T) -> T {
+        self.word_at(key, T::WORDS, 1).map_or(default, |i| T::ALL[i].1)
+    }
+
+    /// A required word key.
+    #[inline(always)]
+    pub fn word_req<T: Word>(&self, key: &str) -> T {
+        self.word_at(key, T::WORDS, 2).map_or(T::ALL[0].1, |i| T::ALL[i].1)
+    }
+
     /// The value read, when every key read and every key of the object was
     /// read.
     pub fn end<T>(self, out: T) -> Result<T, String> {
@@ -280,24 +322,31 @@ impl<K: ReadKey, T: Read> Read for IndexMap<K, T> {
     }
 }
 
-/// A spec word of the `words!` enums.
-pub(crate) fn word<T: Copy>(v: &Value, all: &[(&'static str, T)]) -> Result<T, String> {
-    word_index(v, all.len(), &|i| all[i].0).map(|i| all[i].1)
+/// A word enum of `words!`: its words and values, in the spec's order.
+pub(crate) trait Word: Copy + 'static {
+    const ALL: &'static [(&'static str, Self)];
+    const WORDS: &'static [&'static str];
 }
 
-/// The index of the word `v` among `n` words (one function for every word list).
-fn word_index(v: &Value, n: usize, word_at: &dyn Fn(usize) -> &'static str) -> Result<usize, String> {
+/// A spec word of the `words!` enums.
+pub(crate) fn word<T: Word>(v: &Value) -> Result<T, String> {
+    word_index(v, T::WORDS).map(|i| T::ALL[i].1)
+}
+
+/// The index of the word `v` among `words` (one function for every word list).
+#[inline(never)]
+fn word_index(v: &Value, words: &[&str]) -> Result<usize, String> {
     let w = v.as_str().ok_or_else(|| wrong(v, "a word"))?;
-    if let Some(i) = (0..n).find(|i| word_at(*i) == w) {
+    if let Some(i) = words.iter().position(|x| *x == w) {
         return Ok(i);
     }
     let mut e = format!("unknown variant `{w}`, expected one of ");
-    for i in 0..n {
+    for (i, x) in words.iter().enumerate() {
         if i > 0 {
             e.push_str(", ");
         }
         e.push('`');
-        e.push_str(word_at(i));
+        e.push_str(x);
         e.push('`');
     }
     Err(e)
@@ -323,7 +372,7 @@ impl Read for Mapping {
             return Ok(Mapping { column: s.clone(), as_type: None });
         }
         let o = Obj::new(v, "a column name or an object such as {\"column\": \"c\", \"as\": \"date\"}")?;
-        let m = Mapping { column: o.get("column"), as_type: o.get("as") };
+        let m = Mapping { column: o.get("column"), as_type: o.word("as") };
         o.end(m)
     }
     fn fallback() -> Self {
@@ -334,7 +383,7 @@ impl Read for Mapping {
 impl Read for Stat {
     fn read(v: &Value) -> Result<Self, String> {
         if v.is_string() {
-            return Ok(match word(v, StatWord::ALL)? {
+            return Ok(match word::<StatWord>(v)? {
                 StatWord::None => Stat::None,
                 StatWord::Count => Stat::Count,
                 StatWord::Box => Stat::Box,
@@ -353,7 +402,7 @@ impl Read for Stat {
 impl Read for Coords {
     fn read(v: &Value) -> Result<Self, String> {
         if v.is_string() {
-            return Ok(match word(v, CoordWord::ALL)? {
+            return Ok(match word::<CoordWord>(v)? {
                 CoordWord::Cartesian => Coords::Cartesian,
                 CoordWord::Polar => Coords::Polar(Polar { kind: PolarKind::Polar, angle: AngleChannel::X, start: 0.0, inner: 0.0 }),
                 CoordWord::Map => Coords::Map(MapCoords::default()),
@@ -371,7 +420,7 @@ impl Read for Coords {
 impl Read for Theme {
     fn read(v: &Value) -> Result<Self, String> {
         if v.is_string() {
-            return Ok(match word(v, ThemeWord::ALL)? {
+            return Ok(match word::<ThemeWord>(v)? {
                 ThemeWord::Auto => Theme::Auto,
                 ThemeWord::Light => Theme::Light,
                 ThemeWord::Dark => Theme::Dark,
@@ -397,7 +446,7 @@ impl Read for Robust {
 impl Read for Bandwidth {
     fn read(v: &Value) -> Result<Self, String> {
         match v {
-            Value::String(_) => word(v, BandwidthRule::ALL).map(Bandwidth::Rule),
+            Value::String(_) => word(v).map(Bandwidth::Rule),
             _ => f64::read(v).map(Bandwidth::Width),
         }
     }
@@ -409,7 +458,7 @@ impl Read for Bandwidth {
 impl Read for Breaks {
     fn read(v: &Value) -> Result<Self, String> {
         match v {
-            Value::String(_) => word(v, BreakMethod::ALL).map(Breaks::Method),
+            Value::String(_) => word(v).map(Breaks::Method),
             _ => Vec::read(v).map(Breaks::List),
         }
     }
@@ -462,8 +511,8 @@ impl Read for Spec {
             size: o.or_default("size"),
             theme: o.or_default("theme"),
             quiet: o.get("quiet"),
-            locale: o.get("locale"),
-            data_table: o.or_default("data_table"),
+            locale: o.word("locale"),
+            data_table: o.word_or("data_table", DataTable::default()),
             unpivot: o.get("unpivot"),
         };
         o.end(s)
@@ -476,7 +525,7 @@ impl Read for DataObject {
         let o = Obj::new(v, "a data URL string or an object with `url`, `format`, `types`, `sha256` or `rows`")?;
         let d = DataObject {
             url: o.get("url"),
-            format: o.get("format"),
+            format: o.word("format"),
             types: o.get("types"),
             sha256: o.get("sha256"),
             rows: o.get("rows"),
@@ -515,7 +564,7 @@ impl Read for Layer {
 impl Layer {
     fn fields(o: &Obj) -> Layer {
         Layer {
-            draw: o.get("draw"),
+            draw: o.word_req("draw"),
             x: o.get("x"),
             y: o.get("y"),
             x_end: o.get("x_end"),
@@ -530,7 +579,7 @@ impl Layer {
             tooltip: o.get("tooltip"),
             style: o.or_default("style"),
             stat: o.or_default("stat"),
-            arrange: o.or_default("arrange"),
+            arrange: o.word_or("arrange", Arrange::default()),
             label_ends: o.or_default("label_ends"),
         }
     }
@@ -546,7 +595,7 @@ impl Read for Style {
             radius: o.get("radius"),
             dash: o.get("dash"),
             share: o.get("share"),
-            shape: o.get("shape"),
+            shape: o.word("shape"),
             font_size: o.get("font_size"),
             every_point: o.get("every_point"),
         };
@@ -560,9 +609,9 @@ impl Read for StatObject {
         let o = Obj::new(v, "`none`, `count`, `box`, or an object with one of `bin`, `summary`, `fit`, `density`, `window`")?;
         let s = StatObject {
             bin: o.get("bin"),
-            summary: o.get("summary"),
-            interval: o.get("interval"),
-            fit: o.get("fit"),
+            summary: o.word("summary"),
+            interval: o.word("interval"),
+            fit: o.word("fit"),
             band: o.get("band"),
             density: o.get("density"),
             window: o.get("window"),
@@ -588,7 +637,7 @@ impl Read for DensitySpec {
 impl Read for WindowSpec {
     fn read(v: &Value) -> Result<Self, String> {
         let o = Obj::new(v, "struct WindowSpec")?;
-        let w = WindowSpec { summary: o.get("summary"), rows: o.get("rows"), align: o.get("align") };
+        let w = WindowSpec { summary: o.word("summary"), rows: o.get("rows"), align: o.word("align") };
         o.end(w)
     }
     fallback_default!();
@@ -598,11 +647,11 @@ impl Read for BinSpec {
     fn read(v: &Value) -> Result<Self, String> {
         let o = Obj::new(v, "struct BinSpec")?;
         let b = BinSpec {
-            rule: o.get("rule"),
+            rule: o.word("rule"),
             width: o.get("width"),
             count: o.get("count"),
             boundary: o.get("boundary"),
-            unit: o.get("unit"),
+            unit: o.word("unit"),
             density: o.get("density"),
         };
         o.end(b)
@@ -614,7 +663,7 @@ impl Read for ScaleSpec {
     fn read(v: &Value) -> Result<Self, String> {
         let o = Obj::new(v, "struct ScaleSpec")?;
         let s = ScaleSpec {
-            kind: o.get("kind"),
+            kind: o.word("kind"),
             domain: o.get("domain"),
             zero: o.get("zero"),
             nice: o.get("nice"),
@@ -623,15 +672,15 @@ impl Read for ScaleSpec {
             format: o.get("format"),
             ticks: o.get("ticks"),
             palette: o.get("palette"),
-            axis: o.get("axis"),
-            legend: o.get("legend"),
+            axis: o.word("axis"),
+            legend: o.word("legend"),
             hide: o.or_default("hide"),
             base: o.get("base"),
             breaks: o.get("breaks"),
             count: o.get("count"),
             middle: o.get("middle"),
             values: o.get("values"),
-            order: o.get("order"),
+            order: o.word("order"),
             top: o.get("top"),
             unit: o.get("unit"),
         };
@@ -644,12 +693,12 @@ impl Read for MapCoords {
     fn read(v: &Value) -> Result<Self, String> {
         let o = Obj::new(v, "struct MapCoords")?;
         let m = MapCoords {
-            kind: o.get("kind"),
-            projection: o.or("projection", default_projection()),
+            kind: o.word_req("kind"),
+            projection: o.word_or("projection", default_projection()),
             center: o.get("center"),
             rotate: o.or_default("rotate"),
             parallels: o.get("parallels"),
-            fit: o.or("fit", default_fit()),
+            fit: o.word_or("fit", default_fit()),
             graticule: o.or("graticule", default_graticule()),
             outline: o.or("outline", default_true()),
         };
@@ -661,7 +710,7 @@ impl Read for MapCoords {
 impl Read for Polar {
     fn read(v: &Value) -> Result<Self, String> {
         let o = Obj::new(v, "struct Polar")?;
-        let p = Polar { kind: o.get("kind"), angle: o.or("angle", default_angle()), start: o.or_default("start"), inner: o.or_default("inner") };
+        let p = Polar { kind: o.word_req("kind"), angle: o.word_or("angle", default_angle()), start: o.or_default("start"), inner: o.or_default("inner") };
         o.end(p)
     }
     fn fallback() -> Self {
@@ -672,7 +721,7 @@ impl Read for Polar {
 impl Read for Panels {
     fn read(v: &Value) -> Result<Self, String> {
         let o = Obj::new(v, "struct Panels")?;
-        let p = Panels { by: o.get("by"), columns: o.get("columns"), rows: o.get("rows"), cols: o.get("cols"), independent: o.get("independent") };
+        let p = Panels { by: o.get("by"), columns: o.get("columns"), rows: o.get("rows"), cols: o.get("cols"), independent: o.word("independent") };
         o.end(p)
     }
     fallback_default!();
@@ -700,7 +749,7 @@ impl Read for ThemeOverrides {
     fn read(v: &Value) -> Result<Self, String> {
         let o = Obj::new(v, "`light`, `dark`, `auto`, or an object of overrides")?;
         let t = ThemeOverrides {
-            base: o.get("base"),
+            base: o.word("base"),
             background: o.get("background"),
             text: o.get("text"),
             muted: o.get("muted"),

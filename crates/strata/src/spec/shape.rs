@@ -12,7 +12,7 @@ use crate::error::Diagnostic;
 use serde_json::{json, Map, Value};
 
 /// What a JSON value must look like.
-#[derive(Debug, Clone)]
+#[derive(Debug, Clone, Copy)]
 pub enum Shape {
     /// Any JSON value.
     Any,
@@ -29,29 +29,29 @@ pub enum Shape {
         max: i64,
     },
     Bool,
-    List(Box<Shape>),
+    List(&'static Shape),
     /// A list of exactly two items of one shape (`[longitude, latitude]`).
-    Pair(Box<Shape>),
+    Pair(&'static Shape),
     /// An object with free keys (or keys from `keys`), each value of one shape.
     Map {
         keys: Option<&'static [&'static str]>,
-        value: Box<Shape>,
+        value: &'static Shape,
     },
     Object(Obj),
     /// Alternatives told apart by the JSON type of the value.
-    Either(Vec<Shape>),
+    Either(&'static [Shape]),
     /// A named shape from [`defs`], written once in the schema's `$defs`.
     Def(&'static str),
 }
 
-#[derive(Debug, Clone)]
+#[derive(Debug, Clone, Copy)]
 pub struct Obj {
-    pub fields: Vec<Field>,
+    pub fields: &'static [Field],
     /// Exactly one of these keys must be present.
     pub exactly_one_of: &'static [&'static str],
 }
 
-#[derive(Debug, Clone)]
+#[derive(Debug, Clone, Copy)]
 pub struct Field {
     pub name: &'static str,
     pub shape: Shape,
@@ -81,23 +81,23 @@ macro_rules! f {
         Field { name: $name, shape: $shape, required: false, doc: doc!($doc) }
     };
 }
-fn req(name: &'static str, shape: Shape, doc: &'static str) -> Field {
+const fn req(name: &'static str, shape: Shape, doc: &'static str) -> Field {
     Field { name, shape, required: true, doc }
 }
-fn obj(fields: Vec<Field>) -> Shape {
+const fn obj(fields: &'static [Field]) -> Shape {
     Shape::Object(Obj { fields, exactly_one_of: &[] })
 }
-fn text() -> Shape {
+const fn text() -> Shape {
     Shape::Text("text")
 }
-fn num(min: Option<f64>, max: Option<f64>) -> Shape {
+const fn num(min: Option<f64>, max: Option<f64>) -> Shape {
     Shape::Number { min, max }
 }
-fn count(min: i64) -> Shape {
+const fn count(min: i64) -> Shape {
     Shape::Integer { min, max: u32::MAX as i64 }
 }
-fn list(s: Shape) -> Shape {
-    Shape::List(Box::new(s))
+const fn list(s: &'static Shape) -> Shape {
+    Shape::List(s)
 }
 
 // ---------------------------------------------------------------- vocabulary
@@ -152,55 +152,65 @@ fn retired_hint(word: &str, accepted: &[&str]) -> Option<String> {
 }
 
 /// Named shapes, written once under `$defs` in the schema.
-pub fn defs() -> Vec<(&'static str, Shape, &'static str)> {
-    vec![
+pub fn defs() -> &'static [(&'static str, Shape, &'static str)] {
+    static DEFS: &[(&str, Shape, &str)] = &[
         (
             "channel",
-            Shape::Either(vec![
+            Shape::Either(&[
                 Shape::Text("a column name"),
-                obj(vec![
+                obj(&[
                     req("column", Shape::Text("a column name"), "The column that feeds this channel."),
                     f!("as", Shape::Word(COLUMN_TYPES), "Read the column as this type for this channel only."),
                 ]),
             ]),
             "A column name, or {\"column\": ..., \"as\": ...} to read it as another type.",
         ),
-        ("position", Shape::Either(vec![num(None, None), Shape::Text("a category or date")]), "A data value: a number, a category, or a date as text."),
+        ("position", Shape::Either(&[num(None, None), Shape::Text("a category or date")]), "A data value: a number, a category, or a date as text."),
         ("color", Shape::Text("a CSS colour"), "A CSS Color Level 4 colour, such as \"#3c7ebe\" or \"rgb(60 126 190)\"."),
-    ]
+    ];
+    DEFS
 }
 
-fn def_shape(name: &str) -> Shape {
-    defs().into_iter().find(|(n, _, _)| *n == name).map(|(_, s, _)| s).expect("known def")
+fn def_shape(name: &str) -> &'static Shape {
+    defs().iter().find(|(n, _, _)| *n == name).map(|(_, s, _)| s).expect("known def")
 }
 
-/// The shape of a whole spec.
+const fn channel() -> Shape {
+    Shape::Def("channel")
+}
+const fn position() -> Shape {
+    Shape::Def("position")
+}
+const fn color() -> Shape {
+    Shape::Def("color")
+}
+
+/// The shape of a whole spec: static data (code that built it at each
+/// check was 11 KB of the page's engine); a copy of the root, whose parts
+/// are references into the table.
 pub fn spec_shape() -> Shape {
-    let channel = || Shape::Def("channel");
-    let position = || Shape::Def("position");
-    let color = || Shape::Def("color");
-    let data = Shape::Either(vec![
+    const DATA: Shape = Shape::Either(&[
         Shape::Text("a data URL"),
-        obj(vec![
+        obj(&[
             f!("url", Shape::Text("a URL"), "Where to fetch the data, relative to the page (or the spec file for the command line)."),
             f!(
                 "format",
                 Shape::Word(DATA_FORMATS),
                 "csv, tsv, arrow (IPC file or stream) or json (an array of records). Default: from the URL's extension, then from the bytes.",
             ),
-            f!("types", Shape::Map { keys: None, value: Box::new(Shape::Word(COLUMN_TYPES)) }, "Per-column type overrides: number, text, date, bool."),
+            f!("types", Shape::Map { keys: None, value: &Shape::Word(COLUMN_TYPES) }, "Per-column type overrides: number, text, date, bool."),
             f!("sha256", Shape::Text("a hex SHA-256 digest"), "Hex SHA-256 of the data bytes; data whose digest differs is refused."),
-            f!("rows", list(Shape::Map { keys: None, value: Box::new(Shape::Any) }), "Inline records, for small tables."),
+            f!("rows", list(&Shape::Map { keys: None, value: &Shape::Any }), "Inline records, for small tables."),
             f!(
                 "delimiter",
                 Shape::Word(&[",", ";", "\t", "|"]),
                 "Field delimiter of delimited text: comma, semicolon, tab or pipe. Default: sniffed from the first lines.",
             ),
             f!("decimal_comma", Shape::Bool, "Numbers use a decimal comma (1,5), as in many semicolon files."),
-            f!("missing", list(Shape::Text("a cell text")), "Cells read as missing values. Default: empty, NA, N/A, null, NULL and -."),
+            f!("missing", list(&Shape::Text("a cell text")), "Cells read as missing values. Default: empty, NA, N/A, null, NULL and -."),
         ]),
     ]);
-    let bin = obj(vec![
+    const BIN: Shape = obj(&[
         f!("rule", Shape::Word(BIN_RULES), "How to choose the bin width: sturges, fd (Freedman-Diaconis), scott, sqrt, rice, doane (default sturges)."),
         f!("width", num(Some(0.0), None), "Bin width in data units; overrides the rule."),
         f!("count", count(1), "Wanted number of bins; overrides the rule."),
@@ -208,24 +218,24 @@ pub fn spec_shape() -> Shape {
         f!("unit", Shape::Word(BIN_UNITS), "For dates: bin by calendar day, week, month, quarter or year."),
         f!("density", Shape::Bool, "Bar heights as a density (count / (n x width)) instead of counts."),
     ]);
-    let density = obj(vec![
+    const DENSITY: Shape = obj(&[
         f!(
             "bandwidth",
-            Shape::Either(vec![Shape::Word(BANDWIDTHS), num(Some(0.0), None)]),
+            Shape::Either(&[Shape::Word(BANDWIDTHS), num(Some(0.0), None)]),
             "A rule, scott or silverman, or a number in data units (default scott).",
         ),
         f!("grid", count(2), "Points at which the density is evaluated (default 256)."),
     ]);
-    let window = obj(vec![
+    const WINDOW: Shape = obj(&[
         f!("summary", Shape::Word(WINDOW_SUMMARIES), "mean or sum over the window, or running_total (default mean)."),
         f!("rows", count(1), "Rows in the window, for mean and sum (default 7)."),
         f!("align", Shape::Word(WINDOW_ALIGN), "Window centred on the row (center) or ending at it (trailing); default center."),
     ]);
-    let stat = Shape::Either(vec![
+    const STAT: Shape = Shape::Either(&[
         Shape::Word(STAT_WORDS),
         Shape::Object(Obj {
-            fields: vec![
-                f!("bin", bin, "Count rows in bins along x."),
+            fields: &[
+                f!("bin", BIN, "Count rows in bins along x."),
                 f!("summary", Shape::Word(SUMMARIES), "Summarise y for each x (and colour/group)."),
                 f!("interval", Shape::Word(INTERVALS), "With summary: an interval around it (ci95, ci90, ci99, ci80, standard_error, min_max, wilson)."),
                 f!("fit", Shape::Word(FITS), "Fit a curve of y on x: linear or loess."),
@@ -233,39 +243,46 @@ pub fn spec_shape() -> Shape {
                 f!("p", num(Some(0.0), Some(1.0)), "With summary quantile: the probability, such as 0.9 (default 0.5)."),
                 f!("span", num(Some(0.0), Some(1.0)), "With fit loess: the share of points in each local fit (default 0.75)."),
                 f!("degree", Shape::Integer { min: 1, max: 2 }, "With fit loess: local polynomial degree, 1 or 2 (default 1)."),
-                f!("robust", Shape::Either(vec![Shape::Bool, count(0)]), "With fit loess: true (3 robustness iterations) or a number of iterations."),
-                f!("density", density, "Kernel density estimate of x."),
-                f!("window", window, "Running summary over neighbouring rows, in x order."),
+                f!("robust", Shape::Either(&[Shape::Bool, count(0)]), "With fit loess: true (3 robustness iterations) or a number of iterations."),
+                f!("density", DENSITY, "Kernel density estimate of x."),
+                f!("window", WINDOW, "Running summary over neighbouring rows, in x order."),
             ],
             exactly_one_of: &["bin", "summary", "fit", "density", "window"],
         }),
     ]);
-    let style = obj(vec![
+    const STYLE: Shape = obj(&[
         f!("color", color(), "Colour of the marks."),
         f!("opacity", num(Some(0.0), Some(1.0)), "Opacity of the marks, 0 to 1."),
         f!("width", num(Some(0.0), None), "Stroke width in pixels for lines and outlines."),
         f!("radius", num(Some(0.0), None), "Point radius in pixels."),
-        f!("dash", list(num(Some(0.0), None)), "Dash pattern in pixels, such as [4, 2]."),
+        f!("dash", list(&num(Some(0.0), None)), "Dash pattern in pixels, such as [4, 2]."),
         f!("share", num(Some(0.0), Some(1.0)), "Share of its slot a bar or box fills, 0 to 1."),
         f!("shape", Shape::Word(POINT_SHAPES), "Shape of points: circle, square, triangle, diamond, plus, cross."),
         f!("font_size", num(Some(0.0), None), "Text size of labels in pixels."),
         f!("every_point", Shape::Bool, "Draw every point even when a scatter is crowded enough to be binned into cells."),
     ]);
-    let mut layer_fields = vec![req("draw", Shape::Word(GEOMETRIES), "The geometry.")];
-    for ch in CHANNELS {
-        layer_fields.push(f!(ch, channel(), "A channel: the column mapped to it."));
-    }
-    layer_fields.extend([
-        f!("tooltip", list(Shape::Text("a column name")), "Columns shown on hover and keyboard focus."),
-        f!("style", style, "Constant styling of the marks; never data-driven."),
-        f!("stat", stat, "The statistic: none (default), count, box, or an object."),
+    const LAYER: Shape = obj(&[
+        req("draw", Shape::Word(GEOMETRIES), "The geometry."),
+        f!("x", channel(), "A channel: the column mapped to it."),
+        f!("y", channel(), "A channel: the column mapped to it."),
+        f!("x_end", channel(), "A channel: the column mapped to it."),
+        f!("y_end", channel(), "A channel: the column mapped to it."),
+        f!("color", channel(), "A channel: the column mapped to it."),
+        f!("size", channel(), "A channel: the column mapped to it."),
+        f!("shape", channel(), "A channel: the column mapped to it."),
+        f!("opacity", channel(), "A channel: the column mapped to it."),
+        f!("text", channel(), "A channel: the column mapped to it."),
+        f!("group", channel(), "A channel: the column mapped to it."),
+        f!("key", channel(), "A channel: the column mapped to it."),
+        f!("tooltip", list(&Shape::Text("a column name")), "Columns shown on hover and keyboard focus."),
+        f!("style", STYLE, "Constant styling of the marks; never data-driven."),
+        f!("stat", STAT, "The statistic: none (default), count, box, or an object."),
         f!("arrange", Shape::Word(ARRANGES), "Position adjustment: none (default), stack, beside, proportion, jitter."),
         f!("label_ends", Shape::Bool, "Line and area layers: name each series at its last point instead of in a legend."),
     ]);
-    let layer = obj(layer_fields);
-    let scale = obj(vec![
+    const SCALE: Shape = obj(&[
         f!("kind", Shape::Word(SCALE_KINDS), "linear, log, sqrt, symlog, time, category, or steps (colour in classes). Default: from the data."),
-        f!("domain", list(Shape::Either(vec![num(None, None), text(), Shape::Bool])), "The values the scale covers: [low, high], or the categories in order."),
+        f!("domain", list(&Shape::Either(&[num(None, None), text(), Shape::Bool])), "The values the scale covers: [low, high], or the categories in order."),
         f!("zero", Shape::Bool, "Include zero in the domain. Default: true for bars and areas, false otherwise."),
         f!("nice", Shape::Bool, "Round the domain out to tick values. Default: true, except for time."),
         f!("reverse", Shape::Bool, "Run the scale the other way."),
@@ -273,7 +290,7 @@ pub fn spec_shape() -> Shape {
         f!("format", Shape::Text("an LDML number or date pattern"), "Label pattern: LDML number (#,##0.0) or date (yyyy-MM-dd) pattern."),
         f!(
             "ticks",
-            Shape::Either(vec![count(0), list(Shape::Either(vec![num(None, None), Shape::Text("a category or date")]))]),
+            Shape::Either(&[count(0), list(&Shape::Either(&[num(None, None), Shape::Text("a category or date")]))]),
             "Wanted number of ticks, or the tick values: numbers, dates as text, or categories.",
         ),
         f!("palette", Shape::Text("a palette name"), "Named palette for colour scales."),
@@ -283,69 +300,69 @@ pub fn spec_shape() -> Shape {
         f!("base", num(Some(0.0), None), "Base of a log scale (default 10)."),
         f!(
             "breaks",
-            Shape::Either(vec![Shape::Word(BreakMethod::WORDS), list(num(None, None))]),
+            Shape::Either(&[Shape::Word(BreakMethod::WORDS), list(&num(None, None))]),
             "Class breaks of a steps colour scale: natural (default), quantile, equal, or a list of numbers.",
         ),
         f!("count", Shape::Integer { min: 2, max: 12 }, "Number of classes of a steps colour scale (default 5)."),
         f!("middle", num(None, None), "Where a diverging colour palette turns, in data units."),
         f!(
             "values",
-            Shape::Map { keys: None, value: Box::new(color()) },
+            Shape::Map { keys: None, value: &color() },
             "Chosen colours of a category colour scale, by category; the key other colours every category not named.",
         ),
         f!("order", Shape::Word(CategoryOrder::WORDS), "Sort a category axis by the value drawn: ascending or descending."),
         f!("top", count(1), "Keep this many categories (after order); gather the rest into Other."),
         f!("unit", text(), "The unit of a value axis, written once, across, above the axis."),
     ]);
-    let coords = Shape::Either(vec![
+    const COORDS: Shape = Shape::Either(&[
         Shape::Word(COORD_WORDS),
-        obj(vec![
+        obj(&[
             req("kind", Shape::Word(PolarKind::WORDS), "polar."),
             f!("angle", Shape::Word(AngleChannel::WORDS), "Which position channel becomes the angle (default x)."),
             f!("start", num(None, None), "Start angle in degrees clockwise from 12 o'clock (default 0)."),
             f!("inner", num(Some(0.0), Some(1.0)), "Inner radius as a fraction of the outer one (default 0)."),
         ]),
-        obj(vec![
+        obj(&[
             req("kind", Shape::Word(MapKind::WORDS), "map: x is longitude and y latitude (WGS 84 degrees)."),
             f!("projection", Shape::Word(ProjectionWord::WORDS), "The projection (default equal_earth)."),
             f!(
                 "center",
-                Shape::Pair(Box::new(num(Some(-180.0), Some(180.0)))),
+                Shape::Pair(&num(Some(-180.0), Some(180.0))),
                 "[longitude, latitude] of the map's centre (default: the middle of the shapes).",
             ),
             f!(
                 "rotate",
-                Shape::Either(vec![num(Some(-360.0), Some(360.0)), list(num(Some(-360.0), Some(360.0)))]),
+                Shape::Either(&[num(Some(-360.0), Some(360.0)), list(&num(Some(-360.0), Some(360.0)))]),
                 "The sphere's turn before projecting, in degrees: λ, or [λ, φ, γ]: by λ about the polar axis, then by φ about the axis through 0°N 90°E, then by γ about the axis through 0°N 0°E; the map's centre is then 0°, 0° of the turned sphere unless `center` says (default none).",
             ),
             f!(
                 "parallels",
-                Shape::Pair(Box::new(num(Some(-90.0), Some(90.0)))),
+                Shape::Pair(&num(Some(-90.0), Some(90.0))),
                 "The two standard parallels of albers and lambert_conformal (default: a sixth in from each end of the shapes' latitudes).",
             ),
             f!("fit", Shape::Word(MapFit::WORDS), "Fit the map to the shapes (default) or to the rows drawn (data)."),
             f!(
                 "graticule",
-                Shape::Either(vec![num(Some(1.0), Some(90.0)), Shape::Bool]),
+                Shape::Either(&[num(Some(1.0), Some(90.0)), Shape::Bool]),
                 "Lines of longitude and latitude every so many degrees, or false (default).",
             ),
             f!("outline", Shape::Bool, "Draw the outline of the sphere (default true)."),
         ]),
     ]);
-    let shapes = obj(vec![
+    const SHAPES: Shape = obj(&[
         f!("url", Shape::Text("a URL"), "Where the GeoJSON (RFC 7946) file is; the host reads it like data.url."),
-        f!("features", list(Shape::Any), "Inline GeoJSON features."),
+        f!("features", list(&Shape::Any), "Inline GeoJSON features."),
         f!("key", Shape::Text("a property name"), "The feature property that names each shape; a region layer's key column matches it."),
         f!("sha256", Shape::Text("64 hexadecimal digits"), "SHA-256 of the shapes' bytes; a mismatch refuses them."),
     ]);
-    let panels = obj(vec![
+    const PANELS: Shape = obj(&[
         f!("by", Shape::Text("a column name"), "One panel per value of this column, wrapped into rows."),
         f!("columns", count(1), "With by: panels per row."),
         f!("rows", Shape::Text("a column name"), "One row of panels per value of this column."),
         f!("cols", Shape::Text("a column name"), "One column of panels per value of this column."),
         f!("independent", Shape::Word(INDEPENDENT), "Which position scales each panel fits to its own data: x, y or both."),
     ]);
-    let note = obj(vec![
+    const NOTE: Shape = obj(&[
         f!("x", position(), "Data position along x: alone, a vertical reference line."),
         f!("y", position(), "Data position along y: alone, a horizontal reference line."),
         f!("x_end", position(), "With x: shade the span from x to x_end."),
@@ -353,14 +370,14 @@ pub fn spec_shape() -> Shape {
         f!("text", text(), "The note's text."),
         f!("pointer", Shape::Bool, "With x and y: a leader line from the text to its point when the text had to move."),
     ]);
-    let size = obj(vec![
+    const SIZE: Shape = obj(&[
         f!("width", num(Some(0.0), None), "Width in pixels. Absent: fill the container and redraw on resize."),
         f!("height", num(Some(0.0), None), "Height in pixels."),
         f!("aspect", num(Some(0.0), None), "Width divided by height, used when height is absent."),
     ]);
-    let theme = Shape::Either(vec![
+    const THEME: Shape = Shape::Either(&[
         Shape::Word(THEME_WORDS),
-        obj(vec![
+        obj(&[
             f!("base", Shape::Word(ThemeBase::WORDS), "The theme these overrides start from (default light)."),
             f!("background", color(), "Background colour."),
             f!("text", color(), "Colour of titles and labels."),
@@ -375,30 +392,30 @@ pub fn spec_shape() -> Shape {
             ),
         ]),
     ]);
-    obj(vec![
+    static SPEC: Shape = obj(&[
         f!("$schema", Shape::Text("a URL"), "The schema this spec follows, for editors; ignored when drawing."),
         f!("title", text(), "The chart's title."),
         f!("subtitle", text(), "A line under the title."),
         f!("source", text(), "Source line under the chart."),
         f!("description", text(), "Author-written text alternative; replaces the automatic summary for screen readers."),
-        f!("data", data, "The table: a URL, or an object."),
-        f!("shapes", shapes, "GeoJSON shapes for region layers: a url or inline features, with the key property."),
-        f!("derive", Shape::Map { keys: None, value: Box::new(Shape::Text("an expression")) }, "New columns from SQL-subset expressions, evaluated in order."),
+        f!("data", DATA, "The table: a URL, or an object."),
+        f!("shapes", SHAPES, "GeoJSON shapes for region layers: a url or inline features, with the key property."),
+        f!("derive", Shape::Map { keys: None, value: &Shape::Text("an expression") }, "New columns from SQL-subset expressions, evaluated in order."),
         f!("where", Shape::Text("an expression"), "A SQL-subset condition; rows where it is TRUE are kept."),
-        req("layers", list(layer), "The layers, drawn in order, later on top."),
-        f!("scales", Shape::Map { keys: Some(CHANNELS), value: Box::new(scale) }, "Scales keyed by channel."),
-        f!("coords", coords, "Coordinate system: cartesian (default), polar, or map."),
-        f!("panels", panels, "Small multiples."),
-        f!("notes", list(note), "Annotations: text, shaded spans, reference lines."),
-        f!("size", size, "The chart's size."),
-        f!("theme", theme, "light, dark, auto (default: follows the reader's preference), or overrides."),
-        f!("quiet", list(Shape::Word(LINT_CODES)), "Lint warnings silenced on purpose, by code."),
+        req("layers", list(&LAYER), "The layers, drawn in order, later on top."),
+        f!("scales", Shape::Map { keys: Some(CHANNELS), value: &SCALE }, "Scales keyed by channel."),
+        f!("coords", COORDS, "Coordinate system: cartesian (default), polar, or map."),
+        f!("panels", PANELS, "Small multiples."),
+        f!("notes", list(&NOTE), "Annotations: text, shaded spans, reference lines."),
+        f!("size", SIZE, "The chart's size."),
+        f!("theme", THEME, "light, dark, auto (default: follows the reader's preference), or overrides."),
+        f!("quiet", list(&Shape::Word(LINT_CODES)), "Lint warnings silenced on purpose, by code."),
         f!("locale", Shape::Word(LOCALES), "Language of number and date labels: en (default), de, fr, es."),
         f!(
             "unpivot",
-            obj(vec![
-                req("columns", list(Shape::Text("a column name")), "The wide columns to turn into rows, in the order their names take."),
-                req("into", Shape::Pair(Box::new(Shape::Text("a column name"))), "The two new columns: the names, then the values."),
+            obj(&[
+                req("columns", list(&Shape::Text("a column name")), "The wide columns to turn into rows, in the order their names take."),
+                req("into", Shape::Pair(&Shape::Text("a column name")), "The two new columns: the names, then the values."),
             ]),
             "Wide columns into long rows, after derive and where.",
         ),
@@ -407,7 +424,8 @@ pub fn spec_shape() -> Shape {
             Shape::Word(DATA_TABLE),
             "The numbers behind the marks as a table under the chart: closed (default: a disclosure the reader opens), open, or none.",
         ),
-    ])
+    ]);
+    SPEC
 }
 
 // ---------------------------------------------------------------- checking
@@ -425,13 +443,19 @@ fn found(v: &Value) -> String {
     }
 }
 
+/// `a`, `b` or `c` (a loop: no vector of pieces).
 fn join_words(words: &[&str]) -> String {
-    let w: Vec<String> = words.iter().map(|w| format!("`{w}`")).collect();
-    match w.len() {
-        0 => String::new(),
-        1 => w[0].clone(),
-        _ => format!("{} or {}", w[..w.len() - 1].join(", "), w[w.len() - 1]),
+    let mut out = String::new();
+    let n = words.len();
+    for (i, w) in words.iter().enumerate() {
+        if i > 0 {
+            out.push_str(if i + 1 == n { " or " } else { ", " });
+        }
+        out.push('`');
+        out.push_str(w);
+        out.push('`');
     }
+    out
 }
 
 impl Shape {
@@ -450,7 +474,16 @@ impl Shape {
             Shape::List(_) => "a list".into(),
             Shape::Pair(item) => format!("a list of two items, each {}", item.expected()),
             Shape::Map { .. } | Shape::Object(_) => "an object".into(),
-            Shape::Either(alts) => alts.iter().map(|a| a.expected()).collect::<Vec<_>>().join(", or "),
+            Shape::Either(alts) => {
+                let mut out = String::new();
+                for (i, a) in alts.iter().enumerate() {
+                    if i > 0 {
+                        out.push_str(", or ");
+                    }
+                    out.push_str(&a.expected());
+                }
+                out
+            }
             Shape::Def(name) => def_shape(name).expected(),
         }
     }
@@ -492,7 +525,7 @@ fn kind_matches(a: &Shape, v: &Value) -> bool {
 pub fn check(v: &Value, shape: &Shape, path: &str, out: &mut Vec<Diagnostic>) {
     match shape {
         Shape::Any => {}
-        Shape::Def(name) => check(v, &def_shape(name), path, out),
+        Shape::Def(name) => check(v, def_shape(name), path, out),
         // Objects of one type are told apart by their `kind` word (coords:
         // polar or map); the first fitting alternative otherwise.
         Shape::Either(alts) => match alts.iter().find(|a| a.accepts_type(v) && kind_matches(a, v)).or_else(|| alts.iter().find(|a| a.accepts_type(v))) {
@@ -560,12 +593,17 @@ pub fn check(v: &Value, shape: &Shape, path: &str, out: &mut Vec<Diagnostic>) {
         }
         Shape::Object(o) => {
             let m: &Map<String, Value> = v.as_object().expect("checked");
-            let names: Vec<&str> = o.fields.iter().map(|f| f.name).collect();
             for (k, x) in m {
                 let p = key_path(path, k);
                 match o.fields.iter().find(|f| f.name == k) {
                     Some(field) => check(x, &field.shape, &p, out),
-                    None => out.push(unknown_key(k, &names, &p)),
+                    None => {
+                        let mut names = Vec::new();
+                        for f in o.fields {
+                            names.push(f.name);
+                        }
+                        out.push(unknown_key(k, &names, &p));
+                    }
                 }
             }
             for field in o.fields.iter().filter(|f| f.required) {
@@ -599,12 +637,19 @@ fn wrong_type(shape: &Shape, v: &Value, path: &str) -> Diagnostic {
 }
 
 fn unknown_key(k: &str, names: &[&str], path: &str) -> Diagnostic {
-    let visible: Vec<&str> = names.iter().copied().filter(|n| !n.starts_with('$')).collect();
     let mut d = Diagnostic::error("spec.unknown_key", format!("unknown key `{k}`")).at_path(path);
     d = match (retired_hint(k, names), closest(k, names.iter().copied())) {
         (Some(hint), _) => d.with_hint(hint),
         (None, Some(near)) => d.with_hint(format!("did you mean `{near}`?")),
-        (None, None) => d.with_hint(format!("the keys here are {}", join_words(&visible))),
+        (None, None) => {
+            let mut visible = Vec::new();
+            for n in names {
+                if !n.starts_with('$') {
+                    visible.push(*n);
+                }
+            }
+            d.with_hint(format!("the keys here are {}", join_words(&visible)))
+        }
     };
     d
 }
@@ -639,7 +684,7 @@ fn schema_of(shape: &Shape, doc: Option<&str>) -> Value {
         }
         Shape::Object(o) => {
             let mut props = Map::new();
-            for f in &o.fields {
+            for f in o.fields {
                 props.insert(f.name.to_string(), schema_of(&f.shape, Some(f.doc)));
             }
             let required: Vec<&str> = o.fields.iter().filter(|f| f.required).map(|f| f.name).collect();
@@ -675,8 +720,8 @@ pub fn json_schema() -> Value {
     // A spec needs at least one layer.
     out["properties"]["layers"]["minItems"] = json!(1);
     let mut defs_map = Map::new();
-    for (name, shape, doc) in defs() {
-        defs_map.insert(name.into(), schema_of(&shape, Some(doc)));
+    for &(name, ref shape, doc) in defs() {
+        defs_map.insert(name.into(), schema_of(shape, Some(doc)));
     }
     out.insert("$defs".into(), Value::Object(defs_map));
     Value::Object(out)
@@ -688,7 +733,7 @@ pub fn key_paths() -> Vec<String> {
     fn walk(shape: &Shape, path: &str, out: &mut Vec<String>) {
         match shape {
             Shape::Object(o) => {
-                for f in &o.fields {
+                for f in o.fields {
                     let p = if path.is_empty() { f.name.to_string() } else { format!("{path}.{}", f.name) };
                     out.push(p.clone());
                     walk(&f.shape, &p, out);
@@ -697,7 +742,7 @@ pub fn key_paths() -> Vec<String> {
             Shape::List(item) | Shape::Pair(item) => walk(item, &format!("{path}[]"), out),
             Shape::Map { value, keys, .. } => walk(value, &format!("{path}.{}", if keys.is_some() { "CHANNEL" } else { "NAME" }), out),
             Shape::Either(alts) => alts.iter().for_each(|a| walk(a, path, out)),
-            Shape::Def(name) => walk(&def_shape(name), path, out),
+            Shape::Def(name) => walk(def_shape(name), path, out),
             _ => {}
         }
     }

@@ -39,9 +39,14 @@ macro_rules! words {
             }
         }
 
+        impl crate::spec::read::Word for $name {
+            const ALL: &'static [(&'static str, $name)] = $name::ALL;
+            const WORDS: &'static [&'static str] = $name::WORDS;
+        }
+
         impl crate::spec::read::Read for $name {
             fn read(v: &serde_json::Value) -> Result<Self, String> {
-                crate::spec::read::word(v, Self::ALL)
+                crate::spec::read::word(v)
             }
             fn fallback() -> Self {
                 Self::ALL[0].1
