@@ -17,7 +17,8 @@
 //!
 //! The writer ([`write_str`], [`write_f64`], [`to_string`]) writes what
 //! `serde_json::to_string` writes for a string, a float and a value. This module names nothing else in the
-//! crate but the engine's one float parser, [`crate::format::float::parse`].
+//! crate but the engine's one float parser, [`crate::format::float::parse`], and writes floats with
+//! zmij, as serde_json does.
 
 use serde_json::{Map, Number, Value};
 use std::fmt;
@@ -470,47 +471,7 @@ pub fn write_f64(out: &mut String, f: f64) {
         out.push_str("null");
         return;
     }
-    if f.is_sign_negative() {
-        out.push('-');
-    }
-    if f == 0.0 {
-        out.push_str("0.0");
-        return;
-    }
-    // `{:e}` gives the shortest round-trip digits (`1.2345e3`); printing
-    // that many digits again rounds an exact tie to even, as zmij does, when
-    // those digits still read back to `f` (next to a power of two the
-    // interval below is narrower).
-    let shortest = format!("{:e}", f.abs());
-    let even = format!("{:.*e}", shortest.find('e').unwrap_or(2).saturating_sub(2), f.abs());
-    let sci = if even != shortest && parse_float(&even) == f.abs() { even } else { shortest };
-    let (mantissa, exp) = sci.split_once('e').unwrap_or((&sci, "0"));
-    let digits: String = mantissa.chars().filter(|&c| c != '.').collect();
-    // The exponent of the first digit.
-    let e: i32 = exp.parse().unwrap_or(0);
-    let n = digits.len() as i32;
-    let zeros = |out: &mut String, k: i32| out.extend(std::iter::repeat_n('0', k.max(0) as usize));
-    if (-5..=15).contains(&e) {
-        if n - 1 <= e {
-            out.push_str(&digits);
-            zeros(out, e + 1 - n);
-            out.push_str(".0");
-        } else if 0 <= e {
-            out.push_str(&digits[..e as usize + 1]);
-            out.push('.');
-            out.push_str(&digits[e as usize + 1..]);
-        } else {
-            out.push_str("0.");
-            zeros(out, -e - 1);
-            out.push_str(&digits);
-        }
-    } else {
-        out.push_str(&digits[..1]);
-        if n > 1 {
-            out.push('.');
-            out.push_str(&digits[1..]);
-        }
-        out.push_str(if e < 0 { "e-" } else { "e+" });
-        out.push_str(&e.abs().to_string());
-    }
+    // serde_json writes a finite f64 with zmij's `format_finite`; so does
+    // this (core's `{:e}` would bring its float printing back into the page).
+    out.push_str(zmij::Buffer::new().format_finite(f));
 }
