@@ -9,7 +9,7 @@ them). str.lower() and str.upper() apply Unicode's full case mappings
 lower(), the Final_Sigma rule of Unicode 3.13 (Table 3-17).
 
 Writes:
-- tests/reference/fixtures/text/case.json: every code point in the covered
+- tests/reference/fixtures/text/case.json: every code point (decimal keys) in the covered
   ranges whose lower or upper case is not itself, with that mapping, a few
   strings (final sigma, Turkish dotted capital I, sharp s, Vietnamese), and
   the spans the final-sigma rule is exact in with their unassigned code points;
@@ -81,7 +81,7 @@ def main():
         for name, got, single, multi in (("lower", c.lower(), lower1, lower_multi), ("upper", c.upper(), upper1, upper_multi)):
             if got == c:
                 continue
-            (lower if name == "lower" else upper)[f"{cp:04X}"] = got
+            (lower if name == "lower" else upper)[str(cp)] = got
             if len(got) == 1:
                 single[cp] = ord(got)
             else:
@@ -94,17 +94,17 @@ def main():
     for lo, hi in IGNORABLE_SPAN:
         for cp in range(lo, hi + 1):
             if unicodedata.category(chr(cp)) == "Cn":
-                if unassigned and int(unassigned[-1][1], 16) == cp - 1:
-                    unassigned[-1][1] = f"{cp:04X}"
+                if unassigned and int(unassigned[-1][1]) == cp - 1:
+                    unassigned[-1][1] = str(cp)
                 else:
-                    unassigned.append([f"{cp:04X}", f"{cp:04X}"])
+                    unassigned.append([str(cp), str(cp)])
     fixture = {
         "source": f"CPython {sys.version.split()[0]} str.lower()/str.upper(), Unicode {unicodedata.unidata_version}",
-        "covered": [[f"{lo:04X}", f"{hi:04X}"] for lo, hi in COVERED],
+        "covered": [[str(lo), str(hi)] for lo, hi in COVERED],
         "lower": lower,
         "upper": upper,
         "strings": [[s, s.lower(), s.upper()] for s in strings],
-        "sigma_spans": [[f"{lo:04X}", f"{hi:04X}"] for lo, hi in IGNORABLE_SPAN],
+        "sigma_spans": [[str(lo), str(hi)] for lo, hi in IGNORABLE_SPAN],
         "unassigned": unassigned,
     }
     os.makedirs(os.path.dirname(FIXTURE), exist_ok=True)

@@ -121,7 +121,7 @@ mod tests {
     }
 
     fn spans(s: &[[String; 2]]) -> Vec<(u32, u32)> {
-        s.iter().map(|[a, b]| (u32::from_str_radix(a, 16).unwrap(), u32::from_str_radix(b, 16).unwrap())).collect()
+        s.iter().map(|[a, b]| (a.parse::<u32>().unwrap(), b.parse::<u32>().unwrap())).collect()
     }
 
     fn covered(f: &Fixture) -> Vec<(u32, u32)> {
@@ -142,7 +142,7 @@ mod tests {
         let mut n = 0;
         for (lo, hi) in covered(&f) {
             for c in (lo..=hi).filter_map(char::from_u32) {
-                let key = format!("{:04X}", c as u32);
+                let key = (c as u32).to_string();
                 let same = c.to_string();
                 assert_eq!(lower(&same), *f.lower.get(&key).unwrap_or(&same), "lower of U+{key}");
                 assert_eq!(upper(&same), *f.upper.get(&key).unwrap_or(&same), "upper of U+{key}");
