@@ -144,9 +144,6 @@ pub fn load_shapes(spec: &Spec, bytes: Option<DataBytes>) -> Result<Option<Vec<g
     geo::geojson::read_bytes(b.bytes, key, "shapes").map(Some).map_err(Errors)
 }
 
-/// Whether this build draws maps (the `maps` feature, part of `full`).
-pub const HAS_MAPS: bool = cfg!(feature = "maps");
-
 /// Whether this build is the full engine (the `full` feature: maps,
 /// expressions, `unpivot`, fitted statistics and box plots).
 /// The page's core engine is not: it refuses what [`spec::needs_full`]

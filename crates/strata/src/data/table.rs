@@ -174,16 +174,7 @@ impl Column {
                 let mut b = ValidBuilder::default();
                 let mut values = Vec::with_capacity(idx.len());
                 for i in idx {
-                    match at(i).and_then(|i| v.get(i)) {
-                        Some(x) => {
-                            values.push(x);
-                            b.valid();
-                        }
-                        None => {
-                            b.missing(values.len());
-                            values.push(0);
-                        }
-                    }
+                    Ints::push_into(&mut values, &mut b, at(i).and_then(|i| v.get(i)));
                 }
                 Column::Int(Ints { values, valid: b.finish() })
             }
@@ -298,6 +289,15 @@ pub struct Ints {
 }
 
 impl Ints {
+    /// One more value (0 in the slot of a missing one), for the builders here.
+    fn push_into(values: &mut Vec<i64>, valid: &mut ValidBuilder, v: Option<i64>) {
+        match v {
+            Some(_) => valid.valid(),
+            None => valid.missing(values.len()),
+        }
+        values.push(v.unwrap_or(0));
+    }
+
     pub fn len(&self) -> usize {
         self.values.len()
     }
@@ -321,16 +321,7 @@ impl FromIterator<Option<i64>> for Ints {
         let mut b = ValidBuilder::default();
         let mut values = Vec::new();
         for v in it {
-            match v {
-                Some(x) => {
-                    values.push(x);
-                    b.valid();
-                }
-                None => {
-                    b.missing(values.len());
-                    values.push(0);
-                }
-            }
+            Ints::push_into(&mut values, &mut b, v);
         }
         Ints { values, valid: b.finish() }
     }

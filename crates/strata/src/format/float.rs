@@ -97,17 +97,28 @@ impl fmt::Display for Plain {
     }
 }
 
-/// `format!("{v}")` for an f64, without core's float formatting.
-pub fn plain(v: f64) -> String {
+/// What `{}` and `{:.N}` write for NaN (`NaN`, no sign) and infinities
+/// (`inf`, `-inf`): true when `out` holds the whole text; otherwise `out`
+/// holds the sign of a finite `v`.
+fn sign_or_special(v: f64, out: &mut String) -> bool {
     if v.is_nan() {
-        return "NaN".into();
+        out.push_str("NaN");
+        return true;
     }
-    let mut out = String::new();
     if v.is_sign_negative() {
         out.push('-');
     }
     if v.is_infinite() {
         out.push_str("inf");
+        return true;
+    }
+    false
+}
+
+/// `format!("{v}")` for an f64, without core's float formatting.
+pub fn plain(v: f64) -> String {
+    let mut out = String::new();
+    if sign_or_special(v, &mut out) {
         return out;
     }
     let (digits, point) = shortest(v);
@@ -140,16 +151,9 @@ pub fn plain(v: f64) -> String {
 /// to `decimals` places (ties to even), without core's float formatting.
 /// `decimals` is at most 20 (larger asks are treated as 20).
 pub fn fixed(v: f64, decimals: usize) -> String {
-    if v.is_nan() {
-        return "NaN".into();
-    }
     let p = decimals.min(20);
     let mut out = String::new();
-    if v.is_sign_negative() {
-        out.push('-');
-    }
-    if v.is_infinite() {
-        out.push_str("inf");
+    if sign_or_special(v, &mut out) {
         return out;
     }
     // |v| = m × 2^e exactly, m < 2^53.
