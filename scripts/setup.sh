@@ -36,9 +36,10 @@ if [ "$want_test" = 1 ]; then
 fi
 
 # npm packages from the lock file: wasm-opt (npm's binaryen; Debian's is too
-# old), which every wasm build needs, and the browser tests' packages.
+# old) and terser (minifies the element and the glue), which every wasm build
+# needs, and the browser tests' packages.
 if [ ! -d tests/browser/node_modules/playwright-core ] ||
    [ tests/browser/package-lock.json -nt tests/browser/node_modules/.package-lock.json ]; then
-  say "installing npm packages (wasm-opt and the browser tests') from the lock file"
+  say "installing npm packages (wasm-opt, terser and the browser tests') from the lock file"
   (cd tests/browser && npm ci --no-audit --no-fund --loglevel=error)
 fi

@@ -14,8 +14,8 @@ export const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '
 export const GALLERY_IDS = [...fs.readFileSync(path.join(ROOT, 'www', 'index.html'), 'utf8').matchAll(/<strata-chart id="([^"]+)"/g)]
   .map((m) => m[1])
   .filter((id) => id !== 'typo');
-/** The element's guess of the charts that need the full engine (FULL_WORDS in www/strata-chart.js). */
-export const FULL_WORDS = new RegExp(fs.readFileSync(path.join(ROOT, 'www', 'strata-chart.js'), 'utf8').match(/const FULL_WORDS = \/(.+)\/;\n/)[1]);
+/** The element's guess of the charts that need the full engine (FULL_WORDS in www/src/strata-chart.js, the readable source). */
+export const FULL_WORDS = new RegExp(fs.readFileSync(path.join(ROOT, 'www', 'src', 'strata-chart.js'), 'utf8').match(/const FULL_WORDS = \/(.+)\/;\n/)[1]);
 /** The gallery's charts that draw with the full engine (maps, expressions, fitted statistics...). */
 export const GALLERY_FULL = [...fs.readFileSync(path.join(ROOT, 'www', 'index.html'), 'utf8').matchAll(/<strata-chart id="([^"]+)"([^>]*)>([^]*?)<\/strata-chart>/g)]
   .filter((m) => GALLERY_IDS.includes(m[1]) && (m[2].includes('shapes-src') || FULL_WORDS.test(m[3])))
@@ -37,8 +37,24 @@ const TYPES = {
   '.arrow': 'application/vnd.apache.arrow.file',
 };
 
+/**
+ * The tests load what ships: www/strata-chart.js and www/strata-downloads.js,
+ * which scripts/build-wasm.sh minifies from www/src/. Stop when they are
+ * missing or older than their source, rather than test a stale element.
+ */
+function checkShippedElement() {
+  for (const name of ['strata-chart.js', 'strata-downloads.js']) {
+    const built = path.join(ROOT, 'www', name);
+    const source = path.join(ROOT, 'www', 'src', name);
+    if (!fs.existsSync(built) || fs.statSync(built).mtimeMs < fs.statSync(source).mtimeMs) {
+      throw new Error(`www/${name} is missing or older than www/src/${name}: run scripts/build-wasm.sh (or scripts/build-wasm.sh --element)`);
+    }
+  }
+}
+
 /** Serve the repository read-only on 127.0.0.1; resolves to { url, close }. */
 export function serve() {
+  checkShippedElement();
   const server = http.createServer((req, res) => {
     const u = new URL(req.url, 'http://127.0.0.1');
     const file = path.normalize(path.join(ROOT, decodeURIComponent(u.pathname)));

@@ -1,6 +1,6 @@
 //! The page's two engines: `spec::needs_full` (which specs the light core
 //! engine refuses) and the element's guess from the spec's text
-//! (`FULL_WORDS` in www/strata-chart.js) agree on every gallery and golden
+//! (`FULL_WORDS` in www/src/strata-chart.js) agree on every gallery and golden
 //! spec, so no chart of ours pays a second drawing; and the paths and words
 //! the core names.
 
@@ -12,8 +12,8 @@ fn root() -> PathBuf {
 
 /// The element's word list, read from the element itself.
 fn full_words() -> regex::Regex {
-    let js = std::fs::read_to_string(root().join("www/strata-chart.js")).unwrap();
-    let start = js.find("const FULL_WORDS = /").expect("FULL_WORDS in www/strata-chart.js") + "const FULL_WORDS = /".len();
+    let js = std::fs::read_to_string(root().join("www/src/strata-chart.js")).unwrap();
+    let start = js.find("const FULL_WORDS = /").expect("FULL_WORDS in www/src/strata-chart.js") + "const FULL_WORDS = /".len();
     let end = start + js[start..].find("/;\n").unwrap();
     regex::Regex::new(&js[start..end]).unwrap()
 }

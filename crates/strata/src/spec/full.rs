@@ -7,7 +7,7 @@
 //! engine instead. [`needs_full`] says so in every build (the core refuses
 //! such a spec with `spec.needs_full_engine` at the path it returns, before
 //! reading any data); `<strata-chart>` guesses the same from the spec's text
-//! with a short word list (`FULL_WORDS` in www/strata-chart.js; the test
+//! with a short word list (`FULL_WORDS` in www/src/strata-chart.js; the test
 //! `full_engine_words` in tests/full_engine.rs holds the two together) and
 //! falls back to the full engine on that error.
 

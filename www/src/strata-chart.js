@@ -11,6 +11,10 @@
 // a message in the chart's place and fire `strata-error`; nothing is thrown.
 // Nothing from the spec or data runs as script or is parsed as HTML; styles
 // go through CSSOM and a constructed sheet, so a strict CSP holds.
+//
+// This is the readable source (www/src/). scripts/build-wasm.sh minifies it
+// into www/strata-chart.js, the file pages load, beside pkg/ and
+// strata-downloads.js: the relative URLs below are from there.
 
 // Engine modules by name: the wasm-bindgen glue's URL; the compiled module
 // sits beside it as `<name>_bg.wasm`.
