@@ -99,7 +99,15 @@ ${script ? `<script type="module" src="${element}"></script>` : ''}
 function writeBefore(rev) {
   const dir = path.join(OUT, 'www-before');
   fs.mkdirSync(dir, { recursive: true });
-  fs.writeFileSync(path.join(dir, 'strata-chart.js'), execFileSync('git', ['-C', ROOT, 'show', `${rev}:www/strata-chart.js`]));
+  const show = (file) => execFileSync('git', ['-C', ROOT, 'show', `${rev}:${file}`], { stdio: ['ignore', 'pipe', 'ignore'] });
+  const out = path.join(dir, 'strata-chart.js');
+  try {
+    // Since the build minifies the element, a revision keeps its source in www/src/: minify it as build-wasm.sh does.
+    fs.writeFileSync(path.join(dir, 'strata-chart.src.js'), show('www/src/strata-chart.js'));
+    execFileSync(path.join(ROOT, 'tests/browser/node_modules/.bin/terser'), [path.join(dir, 'strata-chart.src.js'), '--module', '--ecma', '2020', '--compress', 'passes=2', '--mangle', '--output', out]);
+  } catch {
+    fs.writeFileSync(out, show('www/strata-chart.js'));
+  }
   const pkg = path.join(dir, 'pkg');
   if (!fs.existsSync(pkg)) fs.symlinkSync(path.join(ROOT, 'www', 'pkg'), pkg);
   for (const name of Object.keys(SPECS)) writePages(name, 'www-before/strata-chart.js');
