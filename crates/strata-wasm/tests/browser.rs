@@ -57,6 +57,11 @@ fn the_core_refuses_full_engine_specs_at_their_word() {
         (r#"{"data":{"rows":[{"a":1,"b":2}]},"unpivot":{"columns":["a","b"],"into":["k","v"]},"layers":[{"draw":"bar","x":"k","y":"v"}]}"#, "unpivot"),
         (r#"{"data":{"rows":[{"a":1,"b":2}]},"layers":[{"draw":"line","x":"a","y":"b","stat":{"fit":"linear"}}]}"#, "layers[0].stat.fit"),
         (r#"{"data":{"rows":[{"a":1,"b":2}]},"layers":[{"draw":"line","x":"a","stat":{"density":{}}}]}"#, "layers[0].stat.density"),
+        (r#"{"data":{"rows":[{"a":1,"b":2}]},"coords":"polar","layers":[{"draw":"bar","x":"a","y":"b"}]}"#, "coords"),
+        (
+            r#"{"data":{"rows":[{"a":1,"b":2}]},"scales":{"color":{"kind":"steps"}},"layers":[{"draw":"point","x":"a","y":"b","color":"b"}]}"#,
+            "scales.color.kind",
+        ),
     ] {
         let v: serde_json::Value = serde_json::from_str(&strata_wasm::render(spec, None, "", 640.0, None)).unwrap();
         assert_eq!((v["errors"][0]["code"].as_str(), v["errors"][0]["path"].as_str()), (Some("spec.needs_full_engine"), Some(path)), "{v}");
