@@ -330,13 +330,14 @@ mod tests {
     }
 
     #[test]
-    fn polar_coordinates_and_steps_need_the_full_engine() {
+    fn polar_coordinates_steps_and_panels_need_the_full_engine() {
         // Alone (`cargo test -p strata-wasm`) this is the core engine.
         let rows = r#""data":{"rows":[{"a":"N","b":2,"c":1},{"a":"S","b":3,"c":4}]}"#;
         for (spec, path) in [
             (format!(r#"{{{rows},"coords":"polar","layers":[{{"draw":"bar","x":"a","y":"b"}}]}}"#), "coords"),
             (format!(r#"{{{rows},"coords":{{"kind":"polar","angle":"y"}},"layers":[{{"draw":"bar","y":"b","color":"a","arrange":"stack"}}]}}"#), "coords"),
             (format!(r#"{{{rows},"scales":{{"color":{{"kind":"steps"}}}},"layers":[{{"draw":"point","x":"b","y":"c","color":"c"}}]}}"#), "scales.color.kind"),
+            (format!(r#"{{{rows},"panels":{{"by":"a"}},"layers":[{{"draw":"point","x":"b","y":"c"}}]}}"#), "panels"),
         ] {
             let out = render_json(&spec, None, "", 300.0);
             let v: serde_json::Value = serde_json::from_str(&out).unwrap();

@@ -58,6 +58,7 @@ fn the_core_refuses_full_engine_specs_at_their_word() {
         (r#"{"data":{"rows":[{"a":1,"b":2}]},"layers":[{"draw":"line","x":"a","y":"b","stat":{"fit":"linear"}}]}"#, "layers[0].stat.fit"),
         (r#"{"data":{"rows":[{"a":1,"b":2}]},"layers":[{"draw":"line","x":"a","stat":{"density":{}}}]}"#, "layers[0].stat.density"),
         (r#"{"data":{"rows":[{"a":1,"b":2}]},"coords":"polar","layers":[{"draw":"bar","x":"a","y":"b"}]}"#, "coords"),
+        (r#"{"data":{"rows":[{"a":1,"b":2}]},"panels":{"by":"a"},"layers":[{"draw":"point","x":"a","y":"b"}]}"#, "panels"),
         (
             r#"{"data":{"rows":[{"a":1,"b":2}]},"scales":{"color":{"kind":"steps"}},"layers":[{"draw":"point","x":"a","y":"b","color":"b"}]}"#,
             "scales.color.kind",

@@ -52,14 +52,18 @@ fn gallery_charts_on_the_full_engine() {
             full.push(id);
         }
     }
-    assert_eq!(full, ["boxes", "trend", "weather", "windrose", "seasons", "plots", "rain", "isles-steps", "isles-towns", "isles-globe"]);
+    assert_eq!(full, ["boxes", "trend", "weather", "windrose", "panels", "seasons", "plots", "rain", "isles-steps", "isles-towns", "isles-globe"]);
 }
 
 #[test]
 fn needs_full_names_the_path_and_word() {
     let cases = [
         (r#"{"layers":[{"draw":"line","x":"a","y":"b"}]}"#, None),
-        (r#"{"layers":[{"draw":"bar","x":"a","y":"b","stat":{"summary":"median"}}],"panels":{"by":"c"},"theme":"dark"}"#, None),
+        (r#"{"layers":[{"draw":"bar","x":"a","y":"b","stat":{"summary":"median"}}],"theme":"dark"}"#, None),
+        (r#"{"layers":[{"draw":"bar","x":"a","y":"b","stat":{"summary":"median"}}],"panels":{"by":"c"},"theme":"dark"}"#, Some(("panels", "panels"))),
+        (r#"{"layers":[{"draw":"line","x":"a","y":"b"}],"panels":{"rows":"c","cols":"d","independent":"y"}}"#, Some(("panels", "panels"))),
+        // A column named `panels` is not the word.
+        (r#"{"layers":[{"draw":"line","x":"panels","y":"b","color":"panels"}]}"#, None),
         (r#"{"layers":[{"draw":"bar","x":"a","stat":{"bin":{"density":true}}}]}"#, None),
         // Columns named like the words are not the words.
         (r#"{"layers":[{"draw":"bar","x":"region","y":"box","color":"map","text":"fit"}]}"#, None),

@@ -210,6 +210,9 @@ pub fn build(plan: &Plan, opts: &SceneOptions) -> Scene {
     match &plan.panels {
         None if plan.map.is_some() => children.extend(super::map::draw(plan, &pal, left, top, right, bottom, false)),
         None => children.extend(plot_area(&inputs, plan, left, right, top, bottom)),
+        // Small multiples are the full engine's (feature `panels`): the core
+        // makes no panels (plan::panels::split) and keeps none of their layout.
+        Some(_) if !PANELS => children.extend(plot_area(&inputs, plan, left, right, top, bottom)),
         Some(PanelPlans::Wrap { names, cells }) => children.extend(panel_grid(&inputs, plan, names, cells, right, top, bottom)),
         Some(PanelPlans::Grid { rows, cols, cells }) => {
             children.extend(cell_grid(&inputs, plan, GridNames::Cross { rows: rows.as_deref(), cols: cols.as_deref() }, cells, right, top, bottom))
@@ -223,6 +226,9 @@ pub fn build(plan: &Plan, opts: &SceneOptions) -> Scene {
     let description = chart.description.clone().unwrap_or_default();
     Scene { width, height, label, description, font_family: text::FONT_FAMILY.to_string(), background: pal.background.clone(), classes: theme_class, children }
 }
+
+/// Whether this engine draws small multiples (the full engine's feature).
+const PANELS: bool = cfg!(feature = "panels");
 
 /// Gaps between neighbouring panels, across and down.
 fn panel_gaps(narrow: bool) -> (f64, f64) {

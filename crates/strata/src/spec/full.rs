@@ -3,8 +3,9 @@
 //! The page loads a light core engine, built without the `full` feature
 //! (crates/strata/Cargo.toml): no maps, no `derive`/`where` expressions, no
 //! `unpivot`, no fitted or smoothed statistics (`fit`, `density`, `window`,
-//! `interval`, box plots), no polar coordinates, no `steps` colour scale. A
-//! spec that asks for one of those takes the full engine instead. [`needs_full`] says so in every build (the core refuses
+//! `interval`, box plots), no polar coordinates, no `steps` colour scale,
+//! no small multiples (`panels`). A spec that asks for one of those takes
+//! the full engine instead. [`needs_full`] says so in every build (the core refuses
 //! such a spec with `spec.needs_full_engine` at the path it returns, before
 //! reading any data); `<strata-chart>` guesses the same from the spec's text
 //! with a short word list (`FULL_WORDS` in www/strata-chart.js; the test
@@ -38,6 +39,9 @@ pub fn needs_full(spec: &Spec) -> Option<(String, &'static str)> {
     }
     if spec.unpivot.is_some() {
         return at("unpivot", "unpivot");
+    }
+    if spec.panels.is_some() {
+        return at("panels", "panels");
     }
     if spec.scales.get(&crate::channel::Channel::Color).is_some_and(|c| c.kind == Some(ScaleKind::Steps)) {
         return at("scales.color.kind", "steps");
