@@ -3,7 +3,8 @@
 #
 # Three modules: the core engine (strata-wasm: CSV, TSV, JSON and inline
 # rows; no Arrow code, no maps, no expressions, no unpivot, no fitted
-# statistics or box plots), the full engine (strata-wasm with the `full`
+# statistics or box plots, no polar coordinates, `steps` colour scales or
+# small multiples), the full engine (strata-wasm with the `full`
 # feature), which the element loads instead of the core for specs that need
 # it (strata::spec::needs_full), and the Arrow add-on
 # (strata-wasm-arrow: decodes Arrow IPC into the column interchange the

@@ -78,7 +78,7 @@ function cliSvg(spec, data = path.join(ROOT, 'examples', 'data', 'orchard_harves
   return svg;
 }
 
-test('a page of charts the core draws (a polar one too) loads the core engine alone', async () => {
+test('a page of charts the core draws loads the core engine alone', async () => {
   const status = await page.evaluate(() => [...document.querySelectorAll('strata-chart')].map((el) => el.status));
   assert.deepEqual(status, ['drawn', 'drawn']);
   assert.deepEqual(wasm, ['strata_wasm_bg.wasm']);

@@ -32,7 +32,7 @@ const ENGINE_URLS = {
 // A spec that needs the full engine, by its words (spec::needs_full in
 // crates/strata/src/spec/full.rs; tests/full_engine.rs keeps the two in
 // step). A word this misses costs a second drawing, never a wrong chart.
-const FULL_WORDS = /"(shapes|derive|where|unpivot|fit|window|interval)"\s*:|"density"\s*:\s*\{|"(draw|stat)"\s*:\s*"(region|box)"|"kind"\s*:\s*"map"/;
+const FULL_WORDS = /"(shapes|derive|where|unpivot|fit|window|interval|panels)"\s*:|"density"\s*:\s*\{|"(draw|stat)"\s*:\s*"(region|box)"|"kind"\s*:\s*"(map|polar|steps)"|"coords"\s*:\s*"(map|polar)"/;
 /** Charts the core engine turned away: they draw with the full engine. */
 const needsFull = new WeakSet();
 

@@ -330,6 +330,26 @@ mod tests {
     }
 
     #[test]
+    fn polar_coordinates_steps_and_panels_need_the_full_engine() {
+        // Alone (`cargo test -p strata-wasm`) this is the core engine.
+        let rows = r#""data":{"rows":[{"a":"N","b":2,"c":1},{"a":"S","b":3,"c":4}]}"#;
+        for (spec, path) in [
+            (format!(r#"{{{rows},"coords":"polar","layers":[{{"draw":"bar","x":"a","y":"b"}}]}}"#), "coords"),
+            (format!(r#"{{{rows},"coords":{{"kind":"polar","angle":"y"}},"layers":[{{"draw":"bar","y":"b","color":"a","arrange":"stack"}}]}}"#), "coords"),
+            (format!(r#"{{{rows},"scales":{{"color":{{"kind":"steps"}}}},"layers":[{{"draw":"point","x":"b","y":"c","color":"c"}}]}}"#), "scales.color.kind"),
+            (format!(r#"{{{rows},"panels":{{"by":"a"}},"layers":[{{"draw":"point","x":"b","y":"c"}}]}}"#), "panels"),
+        ] {
+            let out = render_json(&spec, None, "", 300.0);
+            let v: serde_json::Value = serde_json::from_str(&out).unwrap();
+            if strata::HAS_FULL {
+                assert_eq!(v["ok"], true, "{out}");
+            } else {
+                assert_eq!((v["errors"][0]["code"].as_str(), v["errors"][0]["path"].as_str()), (Some("spec.needs_full_engine"), Some(path)), "{out}");
+            }
+        }
+    }
+
+    #[test]
     fn data_sha256_is_checked_against_the_pages_digest() {
         // The digest of these bytes is from GNU coreutils' sha256sum.
         let (csv, hex) = (b"a,b\n1,2\n2,3\n", "fa73cad33d325fdb9aaa6e1f55002c44b198a003931893b07fd25ae36315963f");

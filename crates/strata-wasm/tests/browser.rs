@@ -23,11 +23,14 @@ fn wasm_draws_the_committed_golden_bytes() {
     // The engine compiled to wasm32 and run in Chromium writes the very
     // bytes the native engine recorded under tests/golden/out: float
     // printing, libm maths and hashing give one answer on both targets.
-    // (Box plots are the full engine's: the core refuses them.)
-    let full = [(include_str!("../../../tests/golden/specs/box-summary.json"), include_str!("../../../tests/golden/out/edge-box-summary.svg"))];
+    // (Box plots and polar coordinates are the full engine's: the core
+    // refuses them.)
+    let full = [
+        (include_str!("../../../tests/golden/specs/box-summary.json"), include_str!("../../../tests/golden/out/edge-box-summary.svg")),
+        (include_str!("../../../tests/golden/specs/donut.json"), include_str!("../../../tests/golden/out/edge-donut.svg")),
+    ];
     for (spec, golden) in [
         (include_str!("../../../tests/golden/specs/diverging.json"), include_str!("../../../tests/golden/out/edge-diverging.svg")),
-        (include_str!("../../../tests/golden/specs/donut.json"), include_str!("../../../tests/golden/out/edge-donut.svg")),
         (include_str!("../../../tests/golden/specs/missing-values.json"), include_str!("../../../tests/golden/out/edge-missing-values.svg")),
     ]
     .into_iter()
@@ -57,6 +60,12 @@ fn the_core_refuses_full_engine_specs_at_their_word() {
         (r#"{"data":{"rows":[{"a":1,"b":2}]},"unpivot":{"columns":["a","b"],"into":["k","v"]},"layers":[{"draw":"bar","x":"k","y":"v"}]}"#, "unpivot"),
         (r#"{"data":{"rows":[{"a":1,"b":2}]},"layers":[{"draw":"line","x":"a","y":"b","stat":{"fit":"linear"}}]}"#, "layers[0].stat.fit"),
         (r#"{"data":{"rows":[{"a":1,"b":2}]},"layers":[{"draw":"line","x":"a","stat":{"density":{}}}]}"#, "layers[0].stat.density"),
+        (r#"{"data":{"rows":[{"a":1,"b":2}]},"coords":"polar","layers":[{"draw":"bar","x":"a","y":"b"}]}"#, "coords"),
+        (r#"{"data":{"rows":[{"a":1,"b":2}]},"panels":{"by":"a"},"layers":[{"draw":"point","x":"a","y":"b"}]}"#, "panels"),
+        (
+            r#"{"data":{"rows":[{"a":1,"b":2}]},"scales":{"color":{"kind":"steps"}},"layers":[{"draw":"point","x":"a","y":"b","color":"b"}]}"#,
+            "scales.color.kind",
+        ),
     ] {
         let v: serde_json::Value = serde_json::from_str(&strata_wasm::render(spec, None, "", 640.0, None)).unwrap();
         assert_eq!((v["errors"][0]["code"].as_str(), v["errors"][0]["path"].as_str()), (Some("spec.needs_full_engine"), Some(path)), "{v}");

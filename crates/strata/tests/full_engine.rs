@@ -52,21 +52,35 @@ fn gallery_charts_on_the_full_engine() {
             full.push(id);
         }
     }
-    assert_eq!(full, ["boxes", "trend", "weather", "seasons", "plots", "rain", "isles-steps", "isles-towns", "isles-globe"]);
+    assert_eq!(full, ["boxes", "trend", "weather", "windrose", "panels", "seasons", "plots", "rain", "isles-steps", "isles-towns", "isles-globe"]);
 }
 
 #[test]
 fn needs_full_names_the_path_and_word() {
     let cases = [
         (r#"{"layers":[{"draw":"line","x":"a","y":"b"}]}"#, None),
-        (r#"{"layers":[{"draw":"bar","x":"a","y":"b","stat":{"summary":"median"}}],"panels":{"by":"c"},"theme":"dark"}"#, None),
+        (r#"{"layers":[{"draw":"bar","x":"a","y":"b","stat":{"summary":"median"}}],"theme":"dark"}"#, None),
+        (r#"{"layers":[{"draw":"bar","x":"a","y":"b","stat":{"summary":"median"}}],"panels":{"by":"c"},"theme":"dark"}"#, Some(("panels", "panels"))),
+        (r#"{"layers":[{"draw":"line","x":"a","y":"b"}],"panels":{"rows":"c","cols":"d","independent":"y"}}"#, Some(("panels", "panels"))),
+        // A column named `panels` is not the word.
+        (r#"{"layers":[{"draw":"line","x":"panels","y":"b","color":"panels"}]}"#, None),
         (r#"{"layers":[{"draw":"bar","x":"a","stat":{"bin":{"density":true}}}]}"#, None),
         // Columns named like the words are not the words.
         (r#"{"layers":[{"draw":"bar","x":"region","y":"box","color":"map","text":"fit"}]}"#, None),
         (r#"{"derive":{"c":"a + b"},"layers":[{"draw":"point","x":"a","y":"c"}]}"#, Some(("derive", "derive"))),
         (r#"{"where":"a > 1","layers":[{"draw":"point","x":"a","y":"b"}]}"#, Some(("where", "where"))),
         (r#"{"unpivot":{"columns":["a","b"],"into":["k","v"]},"layers":[{"draw":"line","x":"k","y":"v"}]}"#, Some(("unpivot", "unpivot"))),
-        (r#"{"coords":{"kind":"polar"},"layers":[{"draw":"bar","x":"a","y":"b"}]}"#, None),
+        (r#"{"coords":{"kind":"polar"},"layers":[{"draw":"bar","x":"a","y":"b"}]}"#, Some(("coords", "polar"))),
+        (r#"{"coords":"polar","layers":[{"draw":"bar","x":"a","y":"b"}]}"#, Some(("coords", "polar"))),
+        (r#"{"coords":"map","layers":[{"draw":"point","x":"a","y":"b"}]}"#, Some(("coords", "map"))),
+        (r#"{"coords":"cartesian","layers":[{"draw":"bar","x":"a","y":"b"}]}"#, None),
+        (
+            r#"{"layers":[{"draw":"point","x":"a","y":"b","color":"c"}],"scales":{"color":{"kind":"steps","breaks":"quantile"}}}"#,
+            Some(("scales.color.kind", "steps")),
+        ),
+        (r#"{"layers":[{"draw":"point","x":"a","y":"b","color":"c"}],"scales":{"color":{"kind":"linear"}}}"#, None),
+        // A colour column named `steps` or `polar` is not the word.
+        (r#"{"layers":[{"draw":"point","x":"polar","y":"b","color":"steps"}]}"#, None),
         (r#"{"coords":{"kind":"map"},"layers":[{"draw":"point","x":"a","y":"b"}]}"#, Some(("coords", "map"))),
         (r#"{"shapes":{"features":[]},"layers":[{"draw":"region"}]}"#, Some(("shapes", "shapes"))),
         (r#"{"layers":[{"draw":"point","x":"a","y":"b"},{"draw":"line","x":"a","y":"b","stat":{"fit":"loess"}}]}"#, Some(("layers[1].stat.fit", "fit"))),

@@ -6,8 +6,10 @@
 //! - [`clip`]: seam cutting opposite the centre meridian, pole closure, horizon clipping;
 //! - [`fit`]: a projection fitted to a pixel box, outlines in pixels;
 //! - [`simplify`]: Visvalingam-Whyatt at the output's pixel scale;
-//! - [`classify`]: class breaks for colour in steps (Fisher-Jenks, quantile, equal).
+//! - `classify`: class breaks for colour in steps (Fisher-Jenks, quantile, equal;
+//!   the full engine's, feature `steps`).
 
+#[cfg(feature = "steps")]
 pub mod classify;
 pub mod clip;
 pub mod fit;

@@ -90,18 +90,22 @@ pub fn build(spec: &Spec, table: &Table) -> Result<Plan, Errors> {
     build_with_shapes(spec, table, None)
 }
 
+/// Whether this engine draws small multiples (`panels`): the full engine's
+/// feature `panels`; the core refuses them (spec::needs_full).
+const PANELS: bool = cfg!(feature = "panels");
+
 /// [`build`] with the chart's shapes (read from `shapes` by the caller).
 pub fn build_with_shapes(spec: &Spec, table: &Table, shapes: Option<Vec<crate::geo::geojson::Feature>>) -> Result<Plan, Errors> {
     let mut errors = Vec::new();
     let mut warnings = Vec::new();
     let mut layers = Vec::new();
-    if let Err(e) = layer::check_panels(spec.panels.as_ref(), table) {
+    if let Err(e) = layer::check_panels(spec.panels.as_ref().filter(|_| PANELS), table) {
         errors.extend(e.0);
     }
     // Every layer's channels first: the orientation follows the data of all of them.
     let mut extracted = Vec::with_capacity(spec.layers.len());
     for (i, l) in spec.layers.iter().enumerate() {
-        match layer::extract(i, l, table).map(|d| layer::with_panel(d, spec.panels.as_ref(), table)) {
+        match layer::extract(i, l, table).map(|d| layer::with_panel(d, spec.panels.as_ref().filter(|_| PANELS), table)) {
             Ok(d) => extracted.push(Some(d)),
             Err(e) => {
                 errors.extend(e.0);
@@ -198,7 +202,9 @@ pub fn build_with_shapes(spec: &Spec, table: &Table, shapes: Option<Vec<crate::g
     if !errors.is_empty() {
         return Err(Errors(errors));
     }
-    panels::check_count(spec, &layers)?;
+    if PANELS {
+        panels::check_count(spec, &layers)?;
+    }
     let scales = scales::train(spec, &layers)?;
     warnings.extend(scales::chosen_color_warnings(&scales));
     let map = match map::coords(spec) {
@@ -217,7 +223,7 @@ pub fn build_with_shapes(spec: &Spec, table: &Table, shapes: Option<Vec<crate::g
     let mut chart = Chart::of(spec);
     chart.transposed = turned;
     let mut plan = Plan { layers, scales, warnings, chart, panels: None, map };
-    plan.panels = panels::split(spec, &plan);
+    plan.panels = if PANELS { panels::split(spec, &plan) } else { None };
     if plan.chart.description.is_none() {
         plan.chart.description = Some(summary::describe(&plan));
     }

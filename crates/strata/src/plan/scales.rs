@@ -19,7 +19,9 @@ pub enum ColorScale {
     Ramp { lo: f64, hi: f64 },
     /// Numbers in classes (`kind: steps`): ascending upper bounds, the
     /// last the largest value, and the smallest value; class i takes the
-    /// ramp's colour at (i + 1/2) / classes.
+    /// ramp's colour at (i + 1/2) / classes. The full engine's (feature
+    /// `steps`); the core refuses `kind: steps`.
+    #[cfg(feature = "steps")]
     Steps { lo: f64, bounds: Vec<f64> },
 }
 
@@ -88,6 +90,7 @@ impl Scales {
                 let v = vals.num(i)?;
                 Some(self.ramp_color(v, *lo, *hi, scheme))
             }
+            #[cfg(feature = "steps")]
             (ColorScale::Steps { bounds, .. }, scheme) => {
                 let c = crate::geo::classify::class_of(bounds, vals.num(i)?)?;
                 Some(self.step_color(c, bounds.len(), scheme))
@@ -122,6 +125,7 @@ impl Scales {
     }
 
     /// Colour of class `c` of `n` on a `steps` scale.
+    #[cfg(feature = "steps")]
     pub fn step_color(&self, c: usize, n: usize, scheme: Scheme) -> String {
         let ramp = match scheme {
             Scheme::Ramp(r) => r,
@@ -166,6 +170,7 @@ impl Scales {
 
 /// A `steps` colour scale: class breaks by `breaks` over every layer's
 /// colour values (`geo::classify`), `count` classes (default 5).
+#[cfg(feature = "steps")]
 fn steps(spec: &ScaleSpec, layers: &[PlannedLayer], lo: f64, hi: f64) -> Result<ColorScale, Errors> {
     use crate::geo::classify;
     use crate::spec::{BreakMethod, Breaks};
@@ -253,6 +258,13 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
         };
         (!cats.is_empty()).then_some(ColorScale::Categories(cats))
     } else if let (Some((lo, hi)), Some(ScaleKind::Steps)) = (num, color_spec.kind) {
+        // The core engine: no classes (refused earlier by spec::needs_full).
+        #[cfg(not(feature = "steps"))]
+        {
+            let _ = (lo, hi);
+            return Err(crate::needs_full_engine("scales.color.kind", "steps").into());
+        }
+        #[cfg(feature = "steps")]
         Some(steps(&color_spec, layers, lo, hi)?)
     } else if let Some((lo, hi)) = num {
         let (lo, hi) = explicit_domain(&color_spec, "color")?.unwrap_or((lo, hi));
@@ -272,7 +284,9 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
             Some(ColorScale::Ramp { lo, hi }) if lo < 0.0 && hi > 0.0 => Scheme::Ramp(color::ESTUARY),
             // A `middle` inside the domain asks for a diverging ramp.
             Some(ColorScale::Ramp { lo, hi }) if color_spec.middle.is_some_and(|m| m > lo && m < hi) => Scheme::Ramp(color::ESTUARY),
-            Some(ColorScale::Ramp { .. }) | Some(ColorScale::Steps { .. }) => Scheme::Ramp(color::LAGOON),
+            Some(ColorScale::Ramp { .. }) => Scheme::Ramp(color::LAGOON),
+            #[cfg(feature = "steps")]
+            Some(ColorScale::Steps { .. }) => Scheme::Ramp(color::LAGOON),
             _ => Scheme::Categorical("harbour", &color::HARBOUR),
         },
     };

@@ -210,6 +210,9 @@ pub fn build(plan: &Plan, opts: &SceneOptions) -> Scene {
     match &plan.panels {
         None if plan.map.is_some() => children.extend(super::map::draw(plan, &pal, left, top, right, bottom, false)),
         None => children.extend(plot_area(&inputs, plan, left, right, top, bottom)),
+        // Small multiples are the full engine's (feature `panels`): the core
+        // makes no panels (plan::panels::split) and keeps none of their layout.
+        Some(_) if !PANELS => children.extend(plot_area(&inputs, plan, left, right, top, bottom)),
         Some(PanelPlans::Wrap { names, cells }) => children.extend(panel_grid(&inputs, plan, names, cells, right, top, bottom)),
         Some(PanelPlans::Grid { rows, cols, cells }) => {
             children.extend(cell_grid(&inputs, plan, GridNames::Cross { rows: rows.as_deref(), cols: cols.as_deref() }, cells, right, top, bottom))
@@ -223,6 +226,9 @@ pub fn build(plan: &Plan, opts: &SceneOptions) -> Scene {
     let description = chart.description.clone().unwrap_or_default();
     Scene { width, height, label, description, font_family: text::FONT_FAMILY.to_string(), background: pal.background.clone(), classes: theme_class, children }
 }
+
+/// Whether this engine draws small multiples (the full engine's feature).
+const PANELS: bool = cfg!(feature = "panels");
 
 /// Gaps between neighbouring panels, across and down.
 fn panel_gaps(narrow: bool) -> (f64, f64) {
@@ -533,7 +539,7 @@ fn plot_area(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, botto
 fn axis_titles<'a>(chart: &Chart, scales: &'a crate::plan::Scales) -> (&'a str, &'a str, bool, bool) {
     // Axes: the x scale is horizontal unless the coordinates are transposed.
     let transposed = chart.transposed;
-    let polar = matches!(chart.coords, Coords::Polar(_));
+    let polar = cfg!(feature = "polar") && matches!(chart.coords, Coords::Polar(_));
     let (h_title, v_title, h_spec, v_spec) = if transposed {
         (&scales.y_title, &scales.x_title, &scales.y_spec, &scales.x_spec)
     } else {
@@ -739,16 +745,18 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
 /// horizontal and vertical axes where `draw_h` and `draw_v` say (a grid of
 /// panels draws shared axes only along its edges).
 fn plot_draw(inp: &PlotInputs, plan: &Plan, lay: &PlotLayout, frame: Frame, draw_h: bool, draw_v: bool) -> Vec<Node> {
-    let PlotInputs { chart, pal, narrow, .. } = *inp;
+    let PlotInputs { chart, pal, .. } = *inp;
     let pal = pal.clone();
     let mut children = Vec::new();
     let scales = &lay.scales;
     let transposed = chart.transposed;
-    let polar = matches!(chart.coords, Coords::Polar(_));
+    let polar = cfg!(feature = "polar") && matches!(chart.coords, Coords::Polar(_));
     let (h_scale, v_scale) = if transposed { (&scales.y, &scales.x) } else { (&scales.x, &scales.y) };
-    let loc = inp.loc;
+    #[cfg(feature = "polar")]
+    let (loc, narrow) = (inp.loc, inp.narrow);
     // Polar charts: the angle's labels go around the circle, so inset the frame for them.
-    let (frame, polar_ticks) = match &chart.coords {
+    let (frame, polar_ticks): (Frame, Option<(bool, Vec<crate::scale::Tick>, Vec<_>)>) = match &chart.coords {
+        #[cfg(feature = "polar")]
         Coords::Polar(p) => {
             let angle_is_x = p.angle == crate::plan::AngleChannel::X;
             let (a_scale, r_scale, a_spec, r_spec) =

@@ -2,7 +2,7 @@
 
 use super::Seg;
 use crate::math;
-use crate::plan::{AngleChannel, Coords};
+use crate::plan::Coords;
 
 /// The panel's pixel rectangle.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -27,6 +27,8 @@ pub enum Coord {
     Cartesian(Frame),
     /// The x scale runs down the vertical axis, the y scale across.
     Transposed(Frame),
+    /// The full engine's (feature `polar`); the core refuses polar specs.
+    #[cfg(feature = "polar")]
     Polar {
         frame: Frame,
         angle_is_x: bool,
@@ -37,7 +39,13 @@ pub enum Coord {
 
 /// A shape in pixels for an extent between two unit corners.
 pub enum Area {
-    Rect { x: f64, y: f64, width: f64, height: f64 },
+    Rect {
+        x: f64,
+        y: f64,
+        width: f64,
+        height: f64,
+    },
+    #[cfg_attr(not(feature = "polar"), allow(dead_code))]
     Path(Vec<Seg>),
 }
 
@@ -47,17 +55,25 @@ impl Coord {
             Coords::Cartesian if transposed => Coord::Transposed(frame),
             // A map draws in `scene::map`; marks there never ask this.
             Coords::Cartesian | Coords::Map(_) => Coord::Cartesian(frame),
-            Coords::Polar(p) => Coord::Polar { frame, angle_is_x: p.angle == AngleChannel::X, start: p.start, inner: p.inner.clamp(0.0, 0.95) },
+            // Refused earlier (spec::needs_full): never drawn by the core.
+            #[cfg(not(feature = "polar"))]
+            Coords::Polar(_) => Coord::Cartesian(frame),
+            #[cfg(feature = "polar")]
+            Coords::Polar(p) => Coord::Polar { frame, angle_is_x: p.angle == crate::plan::AngleChannel::X, start: p.start, inner: p.inner.clamp(0.0, 0.95) },
         }
     }
 
     pub fn is_polar(&self) -> bool {
-        matches!(self, Coord::Polar { .. })
+        #[cfg(feature = "polar")]
+        return matches!(self, Coord::Polar { .. });
+        #[cfg(not(feature = "polar"))]
+        false
     }
 
     pub fn frame(&self) -> Frame {
         match self {
             Coord::Cartesian(f) | Coord::Transposed(f) => *f,
+            #[cfg(feature = "polar")]
             Coord::Polar { frame, .. } => *frame,
         }
     }
@@ -67,6 +83,7 @@ impl Coord {
         match *self {
             Coord::Cartesian(f) => (f.left + ux * f.width, f.bottom() - uy * f.height),
             Coord::Transposed(f) => (f.left + uy * f.width, f.top + ux * f.height),
+            #[cfg(feature = "polar")]
             Coord::Polar { frame, angle_is_x, start, inner } => {
                 let (a, r) = if angle_is_x { (ux, uy) } else { (uy, ux) };
                 let (cx, cy, radius) = polar_centre(frame);
@@ -85,6 +102,7 @@ impl Coord {
                 let (bx, by) = self.point(x1, y1);
                 Area::Rect { x: ax.min(bx), y: ay.min(by), width: (ax - bx).abs(), height: (ay - by).abs() }
             }
+            #[cfg(feature = "polar")]
             Coord::Polar { frame, angle_is_x, start, inner } => {
                 let (a0, a1, r0, r1) = if *angle_is_x { (x0, x1, y0, y1) } else { (y0, y1, x0, x1) };
                 let (_, _, radius) = polar_centre(*frame);
@@ -98,6 +116,7 @@ impl Coord {
     /// coordinates each segment is subdivided so it follows the circle.
     pub fn line(&self, units: &[(f64, f64)]) -> Vec<(f64, f64)> {
         match self {
+            #[cfg(feature = "polar")]
             Coord::Polar { .. } => {
                 let mut out = Vec::new();
                 for (i, w) in units.windows(2).enumerate() {
@@ -148,6 +167,7 @@ fn arc_to(out: &mut Vec<Seg>, (cx, cy): (f64, f64), start: f64, a0: f64, a1: f64
 /// An annular sector in pixels: turns a0..a1 (a0 <= a1) between pixel radii
 /// r0 <= r1, outlined with SVG arcs; a wedge from the centre when r0 is
 /// (nearly) zero, a whole ring or disc when it spans a full turn.
+#[cfg(feature = "polar")]
 pub fn sector(centre: (f64, f64, f64), start: f64, a0: f64, a1: f64, r0: f64, r1: f64) -> Vec<Seg> {
     let (cx, cy, _) = centre;
     let c = (cx, cy);

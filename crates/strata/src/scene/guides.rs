@@ -743,6 +743,7 @@ pub fn legends(scales: &Scales, mark: SwatchMark, size: f64) -> Vec<Legend> {
             let ticks = scale.ticks_with(&TickOptions { wanted: 3, pattern: scales.color_spec.format.as_deref(), locale: loc, short: false });
             out.push(Legend { title: scales.color_title.clone(), body: LegendBody::Gradient { colors, ticks }, channel: Channel::Color, size });
         }
+        #[cfg(feature = "steps")]
         Some(ColorScale::Steps { lo, bounds }) if !hidden(&scales.color_spec) => {
             // A stepped legend: one swatch a class, labelled with its break values.
             let mut all: Vec<f64> = Vec::with_capacity(bounds.len() + 1);
@@ -1045,6 +1046,7 @@ fn wrap_legend(l: &Legend, kids: Vec<Node>) -> Node {
 // ---------------------------------------------------------------- polar
 
 /// Room polar labels need around the circle: (horizontal, vertical) in px.
+#[cfg(feature = "polar")]
 pub fn polar_margin(angle_ticks: &[Tick], ts: f64) -> (f64, f64) {
     let widest = widest_label(angle_ticks, ts);
     (widest + LABEL_GAP, ts * text::LINE_HEIGHT + LABEL_GAP)

@@ -232,6 +232,7 @@ fn columns(ctx: &Ctx, units: &[(f64, f64)]) -> Option<(Vec<f64>, Vec<f64>, f64)>
         // (`bottom - u * height` is `bottom + u * -height` to the bit.)
         Coord::Cartesian(f) => Some((affine(units, false, f.left, f.width), affine(units, true, f.bottom(), -f.height), f.width)),
         Coord::Transposed(f) => Some((affine(units, false, f.top, f.height), affine(units, true, f.left, f.width), f.height)),
+        #[cfg(feature = "polar")]
         Coord::Polar { .. } => None,
     }
 }
@@ -327,6 +328,7 @@ fn column_of(ctx: &Ctx) -> Option<(f64, f64)> {
     match ctx.coord {
         Coord::Cartesian(f) => Some((f.left, f.width)),
         Coord::Transposed(f) => Some((f.top, f.height)),
+        #[cfg(feature = "polar")]
         Coord::Polar { .. } => None,
     }
 }

@@ -105,6 +105,7 @@ fn shade(coord: &Coord, x0: f64, x1: f64, y0: f64, y1: f64, paint: Paint) -> Opt
 /// above its top, where the ring runs level; a spoke's text sits along its
 /// outer end, on the inside, so it stays clear of the angle labels.
 /// `along_x`: the line runs along the x scale (a line at one y value).
+#[cfg(feature = "polar")]
 fn polar_text(coord: &Coord, along_x: bool, at: f64) -> Option<(f64, f64, Anchor)> {
     let Coord::Polar { frame, angle_is_x, start, .. } = *coord else { return None };
     let (cx, _, _) = super::coord::polar_centre(frame);
@@ -117,6 +118,12 @@ fn polar_text(coord: &Coord, along_x: bool, at: f64) -> Option<(f64, f64, Anchor
     }
     let (px, py) = if along_x { coord.point(1.0, at) } else { coord.point(at, 1.0) };
     Some(if px >= cx { (px - 4.0, py - 4.0, Anchor::End) } else { (px + 4.0, py - 4.0, Anchor::Start) })
+}
+
+/// The core engine draws no polar coordinates (feature `polar`).
+#[cfg(not(feature = "polar"))]
+fn polar_text(_: &Coord, _: bool, _: f64) -> Option<(f64, f64, Anchor)> {
+    None
 }
 
 /// A dashed reference line between two unit points.

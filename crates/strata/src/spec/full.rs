@@ -3,15 +3,16 @@
 //! The page loads a light core engine, built without the `full` feature
 //! (crates/strata/Cargo.toml): no maps, no `derive`/`where` expressions, no
 //! `unpivot`, no fitted or smoothed statistics (`fit`, `density`, `window`,
-//! `interval`, box plots). A spec that asks for one of those takes the full
-//! engine instead. [`needs_full`] says so in every build (the core refuses
+//! `interval`, box plots), no polar coordinates, no `steps` colour scale,
+//! no small multiples (`panels`). A spec that asks for one of those takes
+//! the full engine instead. [`needs_full`] says so in every build (the core refuses
 //! such a spec with `spec.needs_full_engine` at the path it returns, before
 //! reading any data); `<strata-chart>` guesses the same from the spec's text
 //! with a short word list (`FULL_WORDS` in www/src/strata-chart.js; the test
 //! `full_engine_words` in tests/full_engine.rs holds the two together) and
 //! falls back to the full engine on that error.
 
-use super::{Coords, Geometry, Spec, Stat};
+use super::{Coords, Geometry, ScaleKind, Spec, Stat};
 
 /// The first part of `spec` that only the full engine draws: its JSON path
 /// and the word that asks for it; `None` for a spec the core draws.
@@ -20,8 +21,10 @@ pub fn needs_full(spec: &Spec) -> Option<(String, &'static str)> {
     if spec.shapes.is_some() {
         return at("shapes", "shapes");
     }
-    if let Coords::Map(_) = spec.coords {
-        return at("coords", "map");
+    match spec.coords {
+        Coords::Map(_) => return at("coords", "map"),
+        Coords::Polar(_) => return at("coords", "polar"),
+        Coords::Cartesian => {}
     }
     for (i, l) in spec.layers.iter().enumerate() {
         if l.draw == Geometry::Region {
@@ -36,6 +39,12 @@ pub fn needs_full(spec: &Spec) -> Option<(String, &'static str)> {
     }
     if spec.unpivot.is_some() {
         return at("unpivot", "unpivot");
+    }
+    if spec.panels.is_some() {
+        return at("panels", "panels");
+    }
+    if spec.scales.get(&crate::channel::Channel::Color).is_some_and(|c| c.kind == Some(ScaleKind::Steps)) {
+        return at("scales.color.kind", "steps");
     }
     for (i, l) in spec.layers.iter().enumerate() {
         let path = |key: &str| format!("layers[{i}].{key}");
