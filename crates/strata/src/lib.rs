@@ -33,6 +33,7 @@ pub mod format;
 pub mod geo;
 pub mod guard;
 pub mod json;
+#[cfg(feature = "lint")]
 pub mod lint;
 pub mod math;
 pub mod plan;
@@ -260,6 +261,7 @@ fn render_stages(
     budget::check_output(&svg)?;
     let html_table = datatable::write(spec, &plan);
     let mut warnings = table.warnings;
+    #[cfg(feature = "lint")]
     warnings.extend(lint::check(spec, Some(&plan)));
     warnings.extend(plan.warnings);
     warnings.extend(no_effect(spec));
