@@ -494,7 +494,7 @@ impl Default for MapCoords {
             parallels: None,
             fit: default_fit(),
             graticule: default_graticule(),
-            outline: true,
+            outline: default_true(),
         }
     }
 }
