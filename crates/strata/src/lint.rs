@@ -232,71 +232,12 @@ fn over(fg: [f64; 4], bg: [f64; 3]) -> [f64; 3] {
     [fg[0] * a + bg[0] * (1.0 - a), fg[1] * a + bg[1] * (1.0 - a), fg[2] * a + bg[2] * (1.0 - a)]
 }
 
-/// Parse the CSS colours lint needs (CSS Color Level 4): `#rgb`, `#rgba`,
-/// `#rrggbb`, `#rrggbbaa`, `rgb()`/`rgba()` (comma or space syntax, numbers
-/// or percentages), and the keywords `black`, `white`, `transparent`. Gives
-/// sRGB channels and alpha in 0..1; `None` for anything else (not linted).
+/// The sRGB channels and alpha (0..1) of a colour lint can compare: hex,
+/// `rgb()`/`rgba()`, `black`, `white`, `transparent` (CSS Color Level 4);
+/// `None` for anything else (not linted). One reader with the spec's colour
+/// check: [`crate::color::css::srgb`].
 pub fn parse_css_color(s: &str) -> Option<[f64; 4]> {
-    let s = s.trim().to_ascii_lowercase();
-    match s.as_str() {
-        "black" => return Some([0.0, 0.0, 0.0, 1.0]),
-        "white" => return Some([1.0, 1.0, 1.0, 1.0]),
-        "transparent" => return Some([0.0, 0.0, 0.0, 0.0]),
-        _ => {}
-    }
-    if let Some(hex) = s.strip_prefix('#') {
-        if !hex.chars().all(|c| c.is_ascii_hexdigit()) {
-            return None;
-        }
-        // Digits in a fixed array (no vector): at most 8 are read.
-        let mut d = [0u32; 8];
-        for (i, c) in hex.chars().take(8).enumerate() {
-            d[i] = c.to_digit(16).unwrap_or(0);
-        }
-        let (r, g, b, a) = match hex.len() {
-            3 => (d[0] * 17, d[1] * 17, d[2] * 17, 255),
-            4 => (d[0] * 17, d[1] * 17, d[2] * 17, d[3] * 17),
-            6 => (d[0] * 16 + d[1], d[2] * 16 + d[3], d[4] * 16 + d[5], 255),
-            8 => (d[0] * 16 + d[1], d[2] * 16 + d[3], d[4] * 16 + d[5], d[6] * 16 + d[7]),
-            _ => return None,
-        };
-        return Some([r as f64 / 255.0, g as f64 / 255.0, b as f64 / 255.0, a as f64 / 255.0]);
-    }
-    let inner = s.strip_prefix("rgba(").or_else(|| s.strip_prefix("rgb("))?.strip_suffix(')')?;
-    let (main, alpha) = match inner.split_once('/') {
-        Some((m, a)) => (m, Some(a.trim())),
-        None => (inner, None),
-    };
-    // At most four parts, in a fixed array (no vector).
-    let (mut parts, mut n) = ([""; 4], 0);
-    for p in main.split([',', ' ']).map(str::trim).filter(|p| !p.is_empty()) {
-        if n == 4 {
-            return None;
-        }
-        parts[n] = p;
-        n += 1;
-    }
-    let alpha = match (n, alpha) {
-        (3, a) => a,
-        (4, None) => Some(parts[3]),
-        _ => return None,
-    };
-    let chan = |p: &str| -> Option<f64> {
-        let v = match p.strip_suffix('%') {
-            Some(pc) => crate::format::float::parse(pc)? / 100.0,
-            None => crate::format::float::parse(p)? / 255.0,
-        };
-        v.is_finite().then(|| v.clamp(0.0, 1.0))
-    };
-    let a = match alpha {
-        None => 1.0,
-        Some(a) => match a.strip_suffix('%') {
-            Some(pc) => crate::format::float::parse(pc)? / 100.0,
-            None => crate::format::float::parse(a)?,
-        }
-        .clamp(0.0, 1.0),
-    };
-    Some([chan(parts[0])?, chan(parts[1])?, chan(parts[2])?, a])
+    crate::color::css::srgb(s)
 }
 
 #[cfg(test)]
@@ -425,5 +366,12 @@ mod tests {
         assert_eq!(parse_css_color("rgba(255, 0, 0, 0.5)"), Some([1.0, 0.0, 0.0, 0.5]));
         assert_eq!(parse_css_color("rgb(1 2 3 4 5)"), None);
         assert_eq!(parse_css_color("rgb(1 2 3 4 / 0.5)"), None);
+        // Only colours the spec's check accepts are read; `none` channels and
+        // named colours other than black and white are not compared.
+        assert_eq!(parse_css_color(" RGB(0 0 255 / 25%) "), Some([0.0, 0.0, 1.0, 0.25]));
+        assert_eq!(parse_css_color("#FFF"), Some([1.0; 4]));
+        assert_eq!(parse_css_color("rgb(0 none 0)"), None);
+        assert_eq!(parse_css_color("red"), None);
+        assert_eq!(parse_css_color("rgb(255, 50%, 0)"), None);
     }
 }

@@ -202,6 +202,44 @@ pub fn check(s: &str) -> Result<(), &'static str> {
     Err("it is not a CSS colour name, hex colour or colour function")
 }
 
+/// The sRGB channels and alpha (each 0..1) of a colour that [`check`]
+/// accepts, in the forms whose value needs no colour space conversion
+/// (CSS Color 4, 5.1 and 5.2): `#rgb`, `#rgba`, `#rrggbb`, `#rrggbbaa`,
+/// `rgb()`/`rgba()` (numbers or percentages; `none` is not read), and
+/// `black`, `white`, `transparent`. `None` for any other colour.
+pub fn srgb(s: &str) -> Option<[f64; 4]> {
+    check(s).ok()?;
+    let t = s.trim().to_ascii_lowercase();
+    match t.as_str() {
+        "black" => return Some([0.0, 0.0, 0.0, 1.0]),
+        "white" => return Some([1.0, 1.0, 1.0, 1.0]),
+        "transparent" => return Some([0.0; 4]),
+        _ => {}
+    }
+    let mut c = [0.0, 0.0, 0.0, 1.0];
+    if let Some(hex) = t.strip_prefix('#') {
+        // 3 or 4 digits: each stands doubled (#0f08 is #00ff0088).
+        let short = hex.len() <= 4;
+        for (slot, digits) in c.iter_mut().zip(hex.as_bytes().chunks(if short { 1 } else { 2 })) {
+            let v = digits.iter().fold(0, |a, d| a * 16 + (*d as char).to_digit(16).unwrap_or(0));
+            *slot = f64::from(if short { v * 17 } else { v }) / 255.0;
+        }
+        return Some(c);
+    }
+    let inner = t.strip_prefix("rgba(").or_else(|| t.strip_prefix("rgb("))?.strip_suffix(')')?;
+    // Three channels, then the alpha (after a comma or a slash).
+    let parts = inner.split(|ch: char| ch == ',' || ch == '/' || ch.is_whitespace()).filter(|p| !p.is_empty());
+    for (i, p) in parts.enumerate().take(4) {
+        let (num, unit) = match p.strip_suffix('%') {
+            Some(n) => (n, 100.0),
+            None if i < 3 => (p, 255.0),
+            None => (p, 1.0),
+        };
+        c[i] = (crate::format::float::parse(num)? / unit).clamp(0.0, 1.0);
+    }
+    Some(c)
+}
+
 #[derive(Clone, Copy, PartialEq)]
 enum Kind {
     Number,
