@@ -209,13 +209,7 @@ pub fn check(s: &str) -> Result<(), &'static str> {
 /// `black`, `white`, `transparent`. `None` for any other colour.
 pub fn srgb(s: &str) -> Option<[f64; 4]> {
     check(s).ok()?;
-    let t = s.trim().to_ascii_lowercase();
-    match t.as_str() {
-        "black" => return Some([0.0, 0.0, 0.0, 1.0]),
-        "white" => return Some([1.0, 1.0, 1.0, 1.0]),
-        "transparent" => return Some([0.0; 4]),
-        _ => {}
-    }
+    let t = s.trim();
     let mut c = [0.0, 0.0, 0.0, 1.0];
     if let Some(hex) = t.strip_prefix('#') {
         // 3 or 4 digits: each stands doubled (#0f08 is #00ff0088).
@@ -226,16 +220,40 @@ pub fn srgb(s: &str) -> Option<[f64; 4]> {
         }
         return Some(c);
     }
-    let inner = t.strip_prefix("rgba(").or_else(|| t.strip_prefix("rgb("))?.strip_suffix(')')?;
-    // Three channels, then the alpha (after a comma or a slash).
-    let parts = inner.split(|ch: char| ch == ',' || ch == '/' || ch.is_whitespace()).filter(|p| !p.is_empty());
-    for (i, p) in parts.enumerate().take(4) {
+    let is = |w: &str| t.eq_ignore_ascii_case(w);
+    if is("black") || is("white") || is("transparent") {
+        let v = if is("white") { 1.0 } else { 0.0 };
+        return Some([v, v, v, if is("transparent") { 0.0 } else { 1.0 }]);
+    }
+    let open = t.find('(')?;
+    if !(t[..open].eq_ignore_ascii_case("rgb") || t[..open].eq_ignore_ascii_case("rgba")) {
+        return None;
+    }
+    // The check has seen three channels, then maybe the alpha after a
+    // comma or a slash; the parts are split by bytes (separators are ASCII).
+    let inner = &t[open + 1..t.len() - 1];
+    let b = inner.as_bytes();
+    let sep = |x: u8| x == b',' || x == b'/' || x.is_ascii_whitespace();
+    let (mut at, mut n) = (0, 0);
+    while n < 4 {
+        while at < b.len() && sep(b[at]) {
+            at += 1;
+        }
+        if at == b.len() {
+            break;
+        }
+        let start = at;
+        while at < b.len() && !sep(b[at]) {
+            at += 1;
+        }
+        let p = &inner[start..at];
         let (num, unit) = match p.strip_suffix('%') {
-            Some(n) => (n, 100.0),
-            None if i < 3 => (p, 255.0),
+            Some(x) => (x, 100.0),
+            None if n < 3 => (p, 255.0),
             None => (p, 1.0),
         };
-        c[i] = (crate::format::float::parse(num)? / unit).clamp(0.0, 1.0);
+        c[n] = (crate::format::float::parse(num)? / unit).clamp(0.0, 1.0);
+        n += 1;
     }
     Some(c)
 }
