@@ -159,54 +159,50 @@ fn look_alike(spec: &Spec) -> Vec<Diagnostic> {
 
 fn contrast(spec: &Spec) -> Vec<Diagnostic> {
     let mut out = Vec::new();
-    let themes: Vec<(Palette, &str)> = match &spec.theme {
-        Theme::Light => vec![(Palette::light(), "light")],
-        Theme::Dark => vec![(Palette::dark(), "dark")],
-        Theme::Auto => vec![(Palette::light(), "light"), (Palette::dark(), "dark")],
-        Theme::Custom(o) => {
-            let dark = o.base == Some(crate::spec::ThemeBase::Dark);
-            let mut p = if dark { Palette::dark() } else { Palette::light() };
-            let set = |slot: &mut String, v: &Option<String>| {
-                if let Some(v) = v {
-                    *slot = v.clone();
-                }
-            };
-            set(&mut p.background, &o.background);
-            set(&mut p.text, &o.text);
-            set(&mut p.muted, &o.muted);
-            vec![(p, if dark { "dark" } else { "light" })]
-        }
+    let custom = match &spec.theme {
+        Theme::Custom(o) => Some(o),
+        _ => None,
     };
-    let custom = matches!(spec.theme, Theme::Custom(_));
-    for (pal, name) in &themes {
-        let Some(bg) = parse_css_color(&pal.background) else { continue };
-        let bg = [bg[0], bg[1], bg[2]];
-        let mut slots: Vec<(String, &str, String)> =
-            vec![("theme.text".into(), "titles and labels", pal.text.clone()), ("theme.muted".into(), "subtitles, sources and tick labels", pal.muted.clone())];
-        for (i, l) in spec.layers.iter().enumerate() {
-            if l.draw == Geometry::Label {
-                if let Some(c) = &l.style.color {
-                    slots.push((format!("layers[{i}].style.color"), "label text", c.clone()));
-                }
-            }
+    // The themes a reader may see, light first: no list of palettes built.
+    for dark in [false, true] {
+        let shown = match &spec.theme {
+            Theme::Light => !dark,
+            Theme::Dark => dark,
+            Theme::Auto => true,
+            Theme::Custom(o) => dark == (o.base == Some(crate::spec::ThemeBase::Dark)),
+        };
+        if !shown {
+            continue;
         }
-        for (path, role, color) in slots {
-            let Some(fg) = parse_css_color(&color) else { continue };
-            let fg = over(fg, bg);
-            let ratio = contrast_ratio(fg, bg);
+        let name = if dark { "dark" } else { "light" };
+        let pal = if dark { Palette::dark() } else { Palette::light() };
+        let pick = |over: Option<&Option<String>>, base: &str| -> String { over.and_then(Option::as_ref).map_or_else(|| base.to_string(), String::clone) };
+        let background = pick(custom.map(|o| &o.background), &pal.background);
+        let Some(bg) = parse_css_color(&background) else { continue };
+        let bg = [bg[0], bg[1], bg[2]];
+        let mut one = |path: String, role: &str, color: &str| {
+            let Some(fg) = parse_css_color(color) else { return };
+            let ratio = contrast_ratio(over(fg, bg), bg);
             if ratio < MIN_TEXT_CONTRAST {
-                let path = if path.starts_with("theme.") && !custom { "theme".to_string() } else { path };
                 out.push(warn(
                     "lint.low_contrast",
                     path,
                     format!(
-                        "{role} ({color}) on the {name} background ({}) have a contrast of {}:1, below the 4.5:1 WCAG 2.1 AA \
+                        "{role} ({color}) on the {name} background ({background}) have a contrast of {}:1, below the 4.5:1 WCAG 2.1 AA \
                          asks for text; readers with low vision, or on a bright screen, may not make it out; pick a darker or \
                          lighter colour",
-                        pal.background,
                         crate::format::float::fixed((ratio * 100.0).floor() / 100.0, 2)
                     ),
                 ));
+            }
+        };
+        // The theme's own colours are at `theme` unless the spec set them.
+        let at = |k: &str| if custom.is_some() { format!("theme.{k}") } else { "theme".to_string() };
+        one(at("text"), "titles and labels", &pick(custom.map(|o| &o.text), &pal.text));
+        one(at("muted"), "subtitles, sources and tick labels", &pick(custom.map(|o| &o.muted), &pal.muted));
+        for (i, l) in spec.layers.iter().enumerate() {
+            if let (Geometry::Label, Some(c)) = (l.draw, &l.style.color) {
+                one(format!("layers[{i}].style.color"), "label text", c);
             }
         }
     }
