@@ -260,6 +260,20 @@ impl<K: ReadKey, T: Read> Read for IndexMap<K, T> {
     }
 }
 
+impl<T: Read> Read for Pairs<T> {
+    fn read(v: &Value) -> Result<Self, String> {
+        let o = v.as_object().ok_or_else(|| wrong(v, "a map"))?;
+        let mut out = Vec::with_capacity(o.len());
+        for (k, x) in o {
+            match T::read(x) {
+                Ok(t) => out.push((k.clone(), t)),
+                Err(e) => return Err(at_key(k, &e)),
+            }
+        }
+        Ok(Pairs(out))
+    }
+}
+
 /// A word enum of `words!`: its words and values, in the spec's order.
 pub(crate) trait Word: Copy + 'static {
     const ALL: &'static [(&'static str, Self)];
