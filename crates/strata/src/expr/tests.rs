@@ -7,7 +7,7 @@ use serde_json::json;
 
 fn table(rows: serde_json::Value) -> Table {
     let rows: Vec<serde_json::Map<String, serde_json::Value>> = rows.as_array().unwrap().iter().map(|r| r.as_object().unwrap().clone()).collect();
-    from_rows(&rows, &IndexMap::new()).unwrap()
+    from_rows(&rows, &Default::default()).unwrap()
 }
 
 /// A table from CSV text (integers stay Int64 there; JSON numbers are Float64).

@@ -132,20 +132,29 @@ impl<T> Pairs<T> {
     pub fn get(&self, key: &str) -> Option<&T> {
         self.0.iter().find(|(k, _)| k == key).map(|(_, v)| v)
     }
+    /// Take `key` out, keeping the others' order.
+    pub fn shift_remove(&mut self, key: &str) -> Option<T> {
+        let i = self.0.iter().position(|(k, _)| k == key)?;
+        Some(self.0.remove(i).1)
+    }
+    /// Set `key` to `value`: in its place when it is there, else last.
+    pub fn insert(&mut self, key: String, value: T) {
+        match self.0.iter_mut().find(|(k, _)| *k == key) {
+            Some(slot) => slot.1 = value,
+            None => self.0.push((key, value)),
+        }
+    }
 }
 
 impl<T> FromIterator<(String, T)> for Pairs<T> {
     /// Later values of a key replace earlier ones in its first place, as
     /// in a JSON object.
     fn from_iter<I: IntoIterator<Item = (String, T)>>(items: I) -> Self {
-        let mut out: Vec<(String, T)> = Vec::new();
+        let mut out = Pairs(Vec::new());
         for (k, v) in items {
-            match out.iter_mut().find(|(o, _)| *o == k) {
-                Some(slot) => slot.1 = v,
-                None => out.push((k, v)),
-            }
+            out.insert(k, v);
         }
-        Pairs(out)
+        out
     }
 }
 
@@ -187,8 +196,8 @@ pub struct DataObject {
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub format: Option<DataFormat>,
     /// Per-column type overrides.
-    #[serde(default, skip_serializing_if = "IndexMap::is_empty")]
-    pub types: IndexMap<String, ColumnType>,
+    #[serde(default, skip_serializing_if = "Pairs::is_empty")]
+    pub types: Pairs<ColumnType>,
     /// Hex SHA-256 of the data bytes; a mismatch refuses the data.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub sha256: Option<String>,

@@ -226,15 +226,9 @@ fn at_key(k: &str, e: &str) -> String {
     format!("{k}: {e}")
 }
 
-/// A map key: a column name, or a channel (the keys of `scales`).
+/// A map key: a channel (the keys of `scales`; other maps are [`Pairs`]).
 pub(crate) trait ReadKey: Sized + std::hash::Hash + Eq {
     fn read_key(k: &str) -> Result<Self, String>;
-}
-
-impl ReadKey for String {
-    fn read_key(k: &str) -> Result<Self, String> {
-        Ok(k.to_string())
-    }
 }
 
 impl ReadKey for Channel {
@@ -658,6 +652,14 @@ mod tests {
         assert_eq!(Note::read(&json!([1])).unwrap_err(), "invalid type: sequence, expected struct Note");
         assert_eq!(Style::read(&json!({"colour": "red"})).unwrap_err(), "unknown field `colour`");
         assert!(Layer::read(&json!({"draw": "pie"})).unwrap_err().starts_with("draw: unknown variant `pie`, expected one of `point`"));
+        // Keyed values keep the object's order; a bad value names its key.
+        let p = Pairs::<ColumnType>::read(&json!({"b": "date", "a": "number"})).unwrap();
+        assert_eq!(p.keys().map(String::as_str).collect::<Vec<_>>(), ["b", "a"]);
+        assert_eq!((p.get("a"), p.get("c"), p.len()), (Some(&ColumnType::Number), None, 2));
+        assert_eq!(Pairs::<String>::read(&json!({"k": 1})).unwrap_err(), "k: invalid type: number, expected a string");
+        let mut q: Pairs<u32> = [("x".to_string(), 1), ("y".to_string(), 2), ("x".to_string(), 3)].into_iter().collect();
+        assert_eq!(q.iter().map(|(k, v)| (k.as_str(), *v)).collect::<Vec<_>>(), [("x", 3), ("y", 2)]);
+        assert_eq!((q.shift_remove("x"), q.shift_remove("x"), q.len()), (Some(3), None, 1));
         // Defaults other than the type's own.
         let m = MapCoords::read(&json!({"kind": "map"})).unwrap();
         assert_eq!((m.projection, m.fit, m.outline), (ProjectionWord::EqualEarth, MapFit::Shapes, true));
