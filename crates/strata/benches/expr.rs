@@ -4,7 +4,6 @@
 //! over code written for one expression).
 
 use criterion::{criterion_group, Criterion};
-use indexmap::IndexMap;
 use std::hint::black_box;
 use std::time::Instant;
 use strata::data::{read, ReadOptions, Table};
@@ -29,8 +28,7 @@ fn table() -> Table {
 }
 
 fn language(t: &Table) -> Table {
-    let mut d = IndexMap::new();
-    d.insert("rain_cm".to_string(), "rain_mm / 10.0".to_string());
+    let d: strata::spec::Pairs<String> = [("rain_cm".to_string(), "rain_mm / 10.0".to_string())].into_iter().collect();
     strata::expr::apply(t.clone(), &d, Some("station IN ('North pier', 'Lighthouse') AND rain_mm > 5")).unwrap()
 }
 

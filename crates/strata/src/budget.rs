@@ -14,7 +14,6 @@ use crate::error::{Diagnostic, Errors};
 use crate::plan::{ColorScale, Plan};
 use crate::scale::PositionScale;
 use crate::spec::Spec;
-use indexmap::IndexMap;
 
 /// The most memory a table may take, after reading or deriving.
 pub const MAX_TABLE_BYTES: usize = 256 << 20;
@@ -97,12 +96,12 @@ pub fn apply_derives(mut table: Table, spec: &Spec) -> Result<Table, Errors> {
         };
     }
     for (name, text) in &spec.derive {
-        let one: IndexMap<String, String> = [(name.clone(), text.clone())].into_iter().collect();
+        let one: crate::spec::Pairs<String> = [(name.clone(), text.clone())].into_iter().collect();
         table = crate::expr::apply(table, &one, None)?;
         check_table(&table, &format!("derive.{}", crate::expr::path_key(name)))?;
     }
     if spec.where_.is_some() {
-        table = crate::expr::apply(table, &IndexMap::new(), spec.where_.as_deref())?;
+        table = crate::expr::apply(table, &Default::default(), spec.where_.as_deref())?;
     }
     Ok(table)
 }

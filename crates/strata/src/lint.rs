@@ -159,54 +159,50 @@ fn look_alike(spec: &Spec) -> Vec<Diagnostic> {
 
 fn contrast(spec: &Spec) -> Vec<Diagnostic> {
     let mut out = Vec::new();
-    let themes: Vec<(Palette, &str)> = match &spec.theme {
-        Theme::Light => vec![(Palette::light(), "light")],
-        Theme::Dark => vec![(Palette::dark(), "dark")],
-        Theme::Auto => vec![(Palette::light(), "light"), (Palette::dark(), "dark")],
-        Theme::Custom(o) => {
-            let dark = o.base == Some(crate::spec::ThemeBase::Dark);
-            let mut p = if dark { Palette::dark() } else { Palette::light() };
-            let set = |slot: &mut String, v: &Option<String>| {
-                if let Some(v) = v {
-                    *slot = v.clone();
-                }
-            };
-            set(&mut p.background, &o.background);
-            set(&mut p.text, &o.text);
-            set(&mut p.muted, &o.muted);
-            vec![(p, if dark { "dark" } else { "light" })]
-        }
+    let custom = match &spec.theme {
+        Theme::Custom(o) => Some(o),
+        _ => None,
     };
-    let custom = matches!(spec.theme, Theme::Custom(_));
-    for (pal, name) in &themes {
-        let Some(bg) = parse_css_color(&pal.background) else { continue };
-        let bg = [bg[0], bg[1], bg[2]];
-        let mut slots: Vec<(String, &str, String)> =
-            vec![("theme.text".into(), "titles and labels", pal.text.clone()), ("theme.muted".into(), "subtitles, sources and tick labels", pal.muted.clone())];
-        for (i, l) in spec.layers.iter().enumerate() {
-            if l.draw == Geometry::Label {
-                if let Some(c) = &l.style.color {
-                    slots.push((format!("layers[{i}].style.color"), "label text", c.clone()));
-                }
-            }
+    // The themes a reader may see, light first: no list of palettes built.
+    for dark in [false, true] {
+        let shown = match &spec.theme {
+            Theme::Light => !dark,
+            Theme::Dark => dark,
+            Theme::Auto => true,
+            Theme::Custom(o) => dark == (o.base == Some(crate::spec::ThemeBase::Dark)),
+        };
+        if !shown {
+            continue;
         }
-        for (path, role, color) in slots {
-            let Some(fg) = parse_css_color(&color) else { continue };
-            let fg = over(fg, bg);
-            let ratio = contrast_ratio(fg, bg);
+        let name = if dark { "dark" } else { "light" };
+        let pal = if dark { Palette::dark() } else { Palette::light() };
+        let pick = |over: Option<&Option<String>>, base: &str| -> String { over.and_then(Option::as_ref).map_or_else(|| base.to_string(), String::clone) };
+        let background = pick(custom.map(|o| &o.background), &pal.background);
+        let Some(bg) = parse_css_color(&background) else { continue };
+        let bg = [bg[0], bg[1], bg[2]];
+        let mut one = |path: String, role: &str, color: &str| {
+            let Some(fg) = parse_css_color(color) else { return };
+            let ratio = contrast_ratio(over(fg, bg), bg);
             if ratio < MIN_TEXT_CONTRAST {
-                let path = if path.starts_with("theme.") && !custom { "theme".to_string() } else { path };
                 out.push(warn(
                     "lint.low_contrast",
                     path,
                     format!(
-                        "{role} ({color}) on the {name} background ({}) have a contrast of {}:1, below the 4.5:1 WCAG 2.1 AA \
+                        "{role} ({color}) on the {name} background ({background}) have a contrast of {}:1, below the 4.5:1 WCAG 2.1 AA \
                          asks for text; readers with low vision, or on a bright screen, may not make it out; pick a darker or \
                          lighter colour",
-                        pal.background,
                         crate::format::float::fixed((ratio * 100.0).floor() / 100.0, 2)
                     ),
                 ));
+            }
+        };
+        // The theme's own colours are at `theme` unless the spec set them.
+        let at = |k: &str| if custom.is_some() { format!("theme.{k}") } else { "theme".to_string() };
+        one(at("text"), "titles and labels", &pick(custom.map(|o| &o.text), &pal.text));
+        one(at("muted"), "subtitles, sources and tick labels", &pick(custom.map(|o| &o.muted), &pal.muted));
+        for (i, l) in spec.layers.iter().enumerate() {
+            if let (Geometry::Label, Some(c)) = (l.draw, &l.style.color) {
+                one(format!("layers[{i}].style.color"), "label text", c);
             }
         }
     }
@@ -232,71 +228,12 @@ fn over(fg: [f64; 4], bg: [f64; 3]) -> [f64; 3] {
     [fg[0] * a + bg[0] * (1.0 - a), fg[1] * a + bg[1] * (1.0 - a), fg[2] * a + bg[2] * (1.0 - a)]
 }
 
-/// Parse the CSS colours lint needs (CSS Color Level 4): `#rgb`, `#rgba`,
-/// `#rrggbb`, `#rrggbbaa`, `rgb()`/`rgba()` (comma or space syntax, numbers
-/// or percentages), and the keywords `black`, `white`, `transparent`. Gives
-/// sRGB channels and alpha in 0..1; `None` for anything else (not linted).
+/// The sRGB channels and alpha (0..1) of a colour lint can compare: hex,
+/// `rgb()`/`rgba()`, `black`, `white`, `transparent` (CSS Color Level 4);
+/// `None` for anything else (not linted). One reader with the spec's colour
+/// check: [`crate::color::css::srgb`].
 pub fn parse_css_color(s: &str) -> Option<[f64; 4]> {
-    let s = s.trim().to_ascii_lowercase();
-    match s.as_str() {
-        "black" => return Some([0.0, 0.0, 0.0, 1.0]),
-        "white" => return Some([1.0, 1.0, 1.0, 1.0]),
-        "transparent" => return Some([0.0, 0.0, 0.0, 0.0]),
-        _ => {}
-    }
-    if let Some(hex) = s.strip_prefix('#') {
-        if !hex.chars().all(|c| c.is_ascii_hexdigit()) {
-            return None;
-        }
-        // Digits in a fixed array (no vector): at most 8 are read.
-        let mut d = [0u32; 8];
-        for (i, c) in hex.chars().take(8).enumerate() {
-            d[i] = c.to_digit(16).unwrap_or(0);
-        }
-        let (r, g, b, a) = match hex.len() {
-            3 => (d[0] * 17, d[1] * 17, d[2] * 17, 255),
-            4 => (d[0] * 17, d[1] * 17, d[2] * 17, d[3] * 17),
-            6 => (d[0] * 16 + d[1], d[2] * 16 + d[3], d[4] * 16 + d[5], 255),
-            8 => (d[0] * 16 + d[1], d[2] * 16 + d[3], d[4] * 16 + d[5], d[6] * 16 + d[7]),
-            _ => return None,
-        };
-        return Some([r as f64 / 255.0, g as f64 / 255.0, b as f64 / 255.0, a as f64 / 255.0]);
-    }
-    let inner = s.strip_prefix("rgba(").or_else(|| s.strip_prefix("rgb("))?.strip_suffix(')')?;
-    let (main, alpha) = match inner.split_once('/') {
-        Some((m, a)) => (m, Some(a.trim())),
-        None => (inner, None),
-    };
-    // At most four parts, in a fixed array (no vector).
-    let (mut parts, mut n) = ([""; 4], 0);
-    for p in main.split([',', ' ']).map(str::trim).filter(|p| !p.is_empty()) {
-        if n == 4 {
-            return None;
-        }
-        parts[n] = p;
-        n += 1;
-    }
-    let alpha = match (n, alpha) {
-        (3, a) => a,
-        (4, None) => Some(parts[3]),
-        _ => return None,
-    };
-    let chan = |p: &str| -> Option<f64> {
-        let v = match p.strip_suffix('%') {
-            Some(pc) => crate::format::float::parse(pc)? / 100.0,
-            None => crate::format::float::parse(p)? / 255.0,
-        };
-        v.is_finite().then(|| v.clamp(0.0, 1.0))
-    };
-    let a = match alpha {
-        None => 1.0,
-        Some(a) => match a.strip_suffix('%') {
-            Some(pc) => crate::format::float::parse(pc)? / 100.0,
-            None => crate::format::float::parse(a)?,
-        }
-        .clamp(0.0, 1.0),
-    };
-    Some([chan(parts[0])?, chan(parts[1])?, chan(parts[2])?, a])
+    crate::color::css::srgb(s)
 }
 
 #[cfg(test)]
@@ -425,5 +362,12 @@ mod tests {
         assert_eq!(parse_css_color("rgba(255, 0, 0, 0.5)"), Some([1.0, 0.0, 0.0, 0.5]));
         assert_eq!(parse_css_color("rgb(1 2 3 4 5)"), None);
         assert_eq!(parse_css_color("rgb(1 2 3 4 / 0.5)"), None);
+        // Only colours the spec's check accepts are read; `none` channels and
+        // named colours other than black and white are not compared.
+        assert_eq!(parse_css_color(" RGB(0 0 255 / 25%) "), Some([0.0, 0.0, 1.0, 0.25]));
+        assert_eq!(parse_css_color("#FFF"), Some([1.0; 4]));
+        assert_eq!(parse_css_color("rgb(0 none 0)"), None);
+        assert_eq!(parse_css_color("red"), None);
+        assert_eq!(parse_css_color("rgb(255, 50%, 0)"), None);
     }
 }

@@ -202,6 +202,62 @@ pub fn check(s: &str) -> Result<(), &'static str> {
     Err("it is not a CSS colour name, hex colour or colour function")
 }
 
+/// The sRGB channels and alpha (each 0..1) of a colour that [`check`]
+/// accepts, in the forms whose value needs no colour space conversion
+/// (CSS Color 4, 5.1 and 5.2): `#rgb`, `#rgba`, `#rrggbb`, `#rrggbbaa`,
+/// `rgb()`/`rgba()` (numbers or percentages; `none` is not read), and
+/// `black`, `white`, `transparent`. `None` for any other colour.
+pub fn srgb(s: &str) -> Option<[f64; 4]> {
+    check(s).ok()?;
+    let t = s.trim();
+    let mut c = [0.0, 0.0, 0.0, 1.0];
+    if let Some(hex) = t.strip_prefix('#') {
+        // 3 or 4 digits: each stands doubled (#0f08 is #00ff0088).
+        let short = hex.len() <= 4;
+        for (slot, digits) in c.iter_mut().zip(hex.as_bytes().chunks(if short { 1 } else { 2 })) {
+            let v = digits.iter().fold(0, |a, d| a * 16 + (*d as char).to_digit(16).unwrap_or(0));
+            *slot = f64::from(if short { v * 17 } else { v }) / 255.0;
+        }
+        return Some(c);
+    }
+    let is = |w: &str| t.eq_ignore_ascii_case(w);
+    if is("black") || is("white") || is("transparent") {
+        let v = if is("white") { 1.0 } else { 0.0 };
+        return Some([v, v, v, if is("transparent") { 0.0 } else { 1.0 }]);
+    }
+    let open = t.find('(')?;
+    if !(t[..open].eq_ignore_ascii_case("rgb") || t[..open].eq_ignore_ascii_case("rgba")) {
+        return None;
+    }
+    // The check has seen three channels, then maybe the alpha after a
+    // comma or a slash; the parts are split by bytes (separators are ASCII).
+    let inner = &t[open + 1..t.len() - 1];
+    let b = inner.as_bytes();
+    let sep = |x: u8| x == b',' || x == b'/' || x.is_ascii_whitespace();
+    let (mut at, mut n) = (0, 0);
+    while n < 4 {
+        while at < b.len() && sep(b[at]) {
+            at += 1;
+        }
+        if at == b.len() {
+            break;
+        }
+        let start = at;
+        while at < b.len() && !sep(b[at]) {
+            at += 1;
+        }
+        let p = &inner[start..at];
+        let (num, unit) = match p.strip_suffix('%') {
+            Some(x) => (x, 100.0),
+            None if n < 3 => (p, 255.0),
+            None => (p, 1.0),
+        };
+        c[n] = (crate::format::float::parse(num)? / unit).clamp(0.0, 1.0);
+        n += 1;
+    }
+    Some(c)
+}
+
 #[derive(Clone, Copy, PartialEq)]
 enum Kind {
     Number,

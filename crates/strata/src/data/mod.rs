@@ -24,7 +24,6 @@ pub use table::{Column, Table};
 
 use crate::error::{Diagnostic, Errors};
 use crate::spec::{ColumnType, DataFormat};
-use indexmap::IndexMap;
 
 /// Default row cap.
 pub const DEFAULT_MAX_ROWS: usize = 5_000_000;
@@ -38,7 +37,7 @@ pub struct ReadOptions {
     /// delimited text with a sniffed delimiter).
     pub format: Option<DataFormat>,
     /// Per-column type overrides from `data.types`.
-    pub types: IndexMap<String, ColumnType>,
+    pub types: crate::spec::Pairs<ColumnType>,
     /// Expected hex SHA-256 of the bytes (`data.sha256`); checked before
     /// parsing.
     pub sha256: Option<String>,
@@ -65,7 +64,7 @@ impl Default for ReadOptions {
     fn default() -> Self {
         ReadOptions {
             format: None,
-            types: IndexMap::new(),
+            types: Default::default(),
             sha256: None,
             digest: None,
             delimiter: None,
@@ -205,7 +204,7 @@ fn sniff(bytes: &[u8]) -> DataFormat {
 }
 
 /// Warnings for `data.types` keys that name no column.
-pub(crate) fn unknown_type_keys(types: &IndexMap<String, ColumnType>, names: &[String]) -> Vec<Diagnostic> {
+pub(crate) fn unknown_type_keys(types: &crate::spec::Pairs<ColumnType>, names: &[String]) -> Vec<Diagnostic> {
     let mut out = Vec::new();
     for k in types.keys() {
         if !names.contains(k) {
@@ -238,7 +237,7 @@ pub(crate) fn retype_table(table: Table, opts: &ReadOptions) -> Result<Table, Er
 }
 
 /// Build a table from inline JSON records (`data.rows`).
-pub fn from_rows(rows: &[serde_json::Map<String, serde_json::Value>], types: &IndexMap<String, ColumnType>) -> Result<Table, Errors> {
+pub fn from_rows(rows: &[serde_json::Map<String, serde_json::Value>], types: &crate::spec::Pairs<ColumnType>) -> Result<Table, Errors> {
     let opts = ReadOptions { types: types.clone(), ..Default::default() };
     json::from_records(rows, &opts)
 }

@@ -28,7 +28,6 @@ use crate::data::Column;
 use crate::data::Table;
 use crate::error::{Diagnostic, Errors};
 use eval::{Col, Env};
-use indexmap::IndexMap;
 
 /// A located expression error as a spec diagnostic.
 pub(crate) fn diagnostic(path: &str, text: &str, e: &ExprError) -> Diagnostic {
@@ -47,7 +46,7 @@ pub fn evaluate(table: &Table, text: &str) -> Result<Column, ExprError> {
 /// Add derived columns (in order; each may use the ones before) and keep
 /// the rows where `where_` is TRUE. A derived column with the name of an
 /// existing one replaces it.
-pub fn apply(table: Table, derive: &IndexMap<String, String>, where_: Option<&str>) -> Result<Table, Errors> {
+pub fn apply(table: Table, derive: &crate::spec::Pairs<String>, where_: Option<&str>) -> Result<Table, Errors> {
     if derive.is_empty() && where_.is_none() {
         return Ok(table);
     }

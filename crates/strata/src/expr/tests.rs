@@ -2,11 +2,12 @@
 
 use super::*;
 use crate::data::from_rows;
+use indexmap::IndexMap;
 use serde_json::json;
 
 fn table(rows: serde_json::Value) -> Table {
     let rows: Vec<serde_json::Map<String, serde_json::Value>> = rows.as_array().unwrap().iter().map(|r| r.as_object().unwrap().clone()).collect();
-    from_rows(&rows, &IndexMap::new()).unwrap()
+    from_rows(&rows, &Default::default()).unwrap()
 }
 
 /// A table from CSV text (integers stay Int64 there; JSON numbers are Float64).
@@ -89,7 +90,7 @@ fn in_and_between_with_nulls() {
 #[test]
 fn where_keeps_only_true_rows() {
     let t = truth_pairs();
-    let out = apply(t, &IndexMap::new(), Some("p OR q")).unwrap();
+    let out = apply(t, &Default::default(), Some("p OR q")).unwrap();
     // TRUE rows of the OR table: 5 of 9.
     assert_eq!(out.num_rows(), 5);
 }
@@ -102,7 +103,7 @@ fn derive_chains_and_replaces() {
     d.insert("ratio".to_string(), "a / b".to_string());
     d.insert("twice".to_string(), "half * 2".to_string());
     d.insert("b".to_string(), "b + 1".to_string());
-    let out = apply(t, &d, None).unwrap();
+    let out = apply(t, &d.into_iter().collect(), None).unwrap();
     let ints = |n: &str| match out.by_name(n) {
         Some(Column::Int(v)) => v.iter().collect::<Vec<_>>(),
         c => panic!("{c:?}"),
@@ -126,7 +127,7 @@ fn errors_name_the_spec_path_and_character() {
     d.insert("rain_cm".to_string(), "rainmm / 10".to_string());
     d.insert("later".to_string(), "rain_cm * 2".to_string());
     d.insert("bad".to_string(), "1 +".to_string());
-    let e = apply(t, &d, Some("station > 3")).unwrap_err();
+    let e = apply(t, &d.into_iter().collect(), Some("station > 3")).unwrap_err();
     // Syntax errors come first (parsed up front), then evaluation errors in order;
     // `later` uses the failed `rain_cm` and reports nothing more.
     let paths: Vec<&str> = e.0.iter().map(|d| d.at.path.as_str()).collect();

@@ -57,8 +57,8 @@ pub struct Spec {
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub shapes: Option<Shapes>,
     /// New columns from SQL-subset expressions, evaluated in order.
-    #[serde(default, skip_serializing_if = "IndexMap::is_empty")]
-    pub derive: IndexMap<String, String>,
+    #[serde(default, skip_serializing_if = "Pairs::is_empty")]
+    pub derive: Pairs<String>,
     /// SQL-subset boolean expression that keeps rows.
     #[serde(default, rename = "where", skip_serializing_if = "Option::is_none")]
     pub where_: Option<String>,
@@ -101,6 +101,79 @@ pub struct Unpivot {
     pub into: Vec<String>,
 }
 
+/// Keyed values in the spec's order (`derive`, a scale's `values`): the
+/// keys of one JSON object, so each key once. A list, not a hash map: these
+/// are short and looked up rarely (a map type's insert code was most of
+/// what reading them took in the page's engine).
+#[derive(Debug, Clone, PartialEq)]
+pub struct Pairs<T>(Vec<(String, T)>);
+
+impl<T> Default for Pairs<T> {
+    fn default() -> Self {
+        Pairs(Vec::new())
+    }
+}
+
+impl<T> Pairs<T> {
+    pub fn len(&self) -> usize {
+        self.0.len()
+    }
+    pub fn is_empty(&self) -> bool {
+        self.0.is_empty()
+    }
+    /// The keys and values, in the spec's order.
+    pub fn iter(&self) -> PairsIter<'_, T> {
+        self.into_iter()
+    }
+    pub fn keys(&self) -> impl Iterator<Item = &String> {
+        self.0.iter().map(|(k, _)| k)
+    }
+    /// The value of `key`, if the spec gives one.
+    pub fn get(&self, key: &str) -> Option<&T> {
+        self.0.iter().find(|(k, _)| k == key).map(|(_, v)| v)
+    }
+    /// Take `key` out, keeping the others' order.
+    pub fn shift_remove(&mut self, key: &str) -> Option<T> {
+        let i = self.0.iter().position(|(k, _)| k == key)?;
+        Some(self.0.remove(i).1)
+    }
+    /// Set `key` to `value`: in its place when it is there, else last.
+    pub fn insert(&mut self, key: String, value: T) {
+        match self.0.iter_mut().find(|(k, _)| *k == key) {
+            Some(slot) => slot.1 = value,
+            None => self.0.push((key, value)),
+        }
+    }
+}
+
+impl<T> FromIterator<(String, T)> for Pairs<T> {
+    /// Later values of a key replace earlier ones in its first place, as
+    /// in a JSON object.
+    fn from_iter<I: IntoIterator<Item = (String, T)>>(items: I) -> Self {
+        let mut out = Pairs(Vec::new());
+        for (k, v) in items {
+            out.insert(k, v);
+        }
+        out
+    }
+}
+
+pub type PairsIter<'a, T> = std::iter::Map<std::slice::Iter<'a, (String, T)>, fn(&'a (String, T)) -> (&'a String, &'a T)>;
+
+impl<'a, T> IntoIterator for &'a Pairs<T> {
+    type Item = (&'a String, &'a T);
+    type IntoIter = PairsIter<'a, T>;
+    fn into_iter(self) -> Self::IntoIter {
+        self.0.iter().map(|(k, v)| (k, v))
+    }
+}
+
+impl<T: Serialize> Serialize for Pairs<T> {
+    fn serialize<S: serde::Serializer>(&self, s: S) -> Result<S::Ok, S::Error> {
+        s.collect_map(self.iter())
+    }
+}
+
 fn is_closed(t: &DataTable) -> bool {
     *t == DataTable::Closed
 }
@@ -123,8 +196,8 @@ pub struct DataObject {
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub format: Option<DataFormat>,
     /// Per-column type overrides.
-    #[serde(default, skip_serializing_if = "IndexMap::is_empty")]
-    pub types: IndexMap<String, ColumnType>,
+    #[serde(default, skip_serializing_if = "Pairs::is_empty")]
+    pub types: Pairs<ColumnType>,
     /// Hex SHA-256 of the data bytes; a mismatch refuses the data.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub sha256: Option<String>,
@@ -406,7 +479,7 @@ pub struct ScaleSpec {
     /// Chosen colours of a category colour scale, by category; `other`
     /// colours every category not named.
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub values: Option<IndexMap<String, String>>,
+    pub values: Option<Pairs<String>>,
     /// Categories sorted by the value drawn for them.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub order: Option<CategoryOrder>,
@@ -494,7 +567,7 @@ impl Default for MapCoords {
             parallels: None,
             fit: default_fit(),
             graticule: default_graticule(),
-            outline: true,
+            outline: default_true(),
         }
     }
 }

@@ -1,5 +1,7 @@
 //! The checked spec value to the typed [`Spec`], by hand: each type says
-//! how it reads from a JSON value, each struct with one line per key. (A
+//! how it reads from a JSON value, each struct with one line per key in a
+//! table that one walker ([`fields`]) reads (code per struct was most of
+//! this reader). (A
 //! serde derive did this before; its generated code was about a fifth of the
 //! page's engine.)
 //!
@@ -9,7 +11,7 @@
 //! become `spec.invalid`.
 //!
 //! Adding a spec word: the field in the struct (mod.rs), its line in the
-//! struct's `Read` impl below, and its shape in shape.rs (which also writes
+//! struct's `object!` table below, and its shape in shape.rs (which also writes
 //! the JSON Schema). DEVELOPERS.md says more.
 
 use super::*;
@@ -18,143 +20,101 @@ use serde_json::{Map, Value};
 /// A type read from the spec's JSON value.
 pub(crate) trait Read: Sized {
     fn read(v: &Value) -> Result<Self, String>;
-    /// The value when the key is left out; `None`: the key is required.
-    fn absent() -> Option<Self> {
+}
+
+/// A struct field that a key reads into: the walker of [`fields`] holds
+/// one `&mut dyn Slot` per key, so no code is generated per struct for
+/// finding keys, keeping errors or refusing unknown keys.
+pub(crate) trait Slot {
+    fn put(&mut self, v: &Value) -> Result<(), String>;
+    /// A word field's words, and whether it is an `Option` (null: `None`):
+    /// the walker finds the word, so each word enum's code is only
+    /// [`Slot::set_word`].
+    fn words(&self) -> Option<(&'static [&'static str], bool)> {
         None
     }
-    /// A stand-in after an error, so that an object's fields read one after
-    /// another without an early return each (which made the reader large);
-    /// the error is kept and the object's read fails at [`Obj::end`].
-    fn fallback() -> Self;
+    fn set_word(&mut self, _i: usize) {}
 }
 
-/// `fallback()` as the type's default.
-macro_rules! fallback_default {
-    () => {
-        fn fallback() -> Self {
-            Self::default()
-        }
-    };
-}
-
-/// The keys of one JSON object, read one by one; [`Obj::end`] refuses keys
-/// that no line read.
-pub(crate) struct Obj<'a> {
-    map: &'a Map<String, Value>,
-    read: std::cell::RefCell<Vec<&'a str>>,
-    error: std::cell::RefCell<Option<String>>,
-}
-
-impl<'a> Obj<'a> {
-    pub fn new(v: &'a Value, what: &str) -> Result<Obj<'a>, String> {
-        let map = v.as_object().ok_or_else(|| format!("invalid type: {}, expected {what}", kind(v)))?;
-        Ok(Obj { map, read: Default::default(), error: Default::default() })
-    }
-
-    fn value(&self, key: &str) -> Option<&'a Value> {
-        let (k, v) = self.map.get_key_value(key)?;
-        self.read.borrow_mut().push(k);
-        Some(v)
-    }
-
-    /// Keep the first error (one function for every type: it is large).
-    #[cold]
+impl<T: Read> Slot for T {
     #[inline(never)]
-    fn note(&self, key: &str, e: String) {
-        self.error.borrow_mut().get_or_insert_with(|| format!("{key}: {e}"));
+    fn put(&mut self, v: &Value) -> Result<(), String> {
+        *self = T::read(v)?;
+        Ok(())
     }
+}
 
-    /// The value read, or the type's stand-in after noting the error (one
-    /// error path a type, so each `get` instance stays small).
-    fn fail<T: Read>(&self, key: &str, r: Result<T, String>) -> T {
-        match r {
-            Ok(t) => t,
-            Err(e) => {
-                self.note(key, e);
-                T::fallback()
-            }
+/// A word key's field: `Option<T>` (absent or null: `None`) or `T`.
+pub(crate) struct WordOpt<'a, T>(&'a mut Option<T>);
+pub(crate) struct WordOne<'a, T>(&'a mut T);
+
+impl<T: Word> Slot for WordOpt<'_, T> {
+    fn put(&mut self, _: &Value) -> Result<(), String> {
+        Ok(())
+    }
+    fn words(&self) -> Option<(&'static [&'static str], bool)> {
+        Some((T::WORDS, true))
+    }
+    fn set_word(&mut self, i: usize) {
+        *self.0 = T::ALL.get(i).map(|w| w.1);
+    }
+}
+
+impl<T: Word> Slot for WordOne<'_, T> {
+    fn put(&mut self, _: &Value) -> Result<(), String> {
+        Ok(())
+    }
+    fn words(&self) -> Option<(&'static [&'static str], bool)> {
+        Some((T::WORDS, false))
+    }
+    fn set_word(&mut self, i: usize) {
+        if let Some(w) = T::ALL.get(i) {
+            *self.0 = w.1;
         }
     }
+}
 
-    /// A key whose type says what its absence means (`Option`, `Vec`, maps:
-    /// empty); any other type is required.
-    #[inline(never)]
-    pub fn get<T: Read>(&self, key: &str) -> T {
-        let r = match self.value(key) {
-            Some(v) => T::read(v),
-            None => T::absent().ok_or_else(missing),
+/// Read the object `v` into a struct whose fields start at the values their
+/// keys' absence means: `keys[i]` reads into `slots[i]`. `required`: a bit
+/// per key that must be there. As before this was a table (one line per
+/// key, in order), the first error in `keys`' order is kept, with its key;
+/// keys that no slot takes are refused after that.
+#[inline(never)]
+pub(crate) fn fields(v: &Value, what: &str, keys: &[&str], required: u32, slots: &mut [&mut dyn Slot]) -> Result<(), String> {
+    let map = v.as_object().ok_or_else(|| wrong(v, what))?;
+    let mut seen = 0u32;
+    let mut first: Option<(usize, String)> = None;
+    let mut unknown: Option<&str> = None;
+    for (k, x) in map {
+        let Some(i) = keys.iter().position(|w| *w == k) else {
+            unknown.get_or_insert(k);
+            continue;
         };
-        self.fail(key, r)
-    }
-
-    /// A key whose absence means the type's default.
-    #[inline(never)]
-    pub fn or_default<T: Read + Default>(&self, key: &str) -> T {
-        self.or(key, T::default())
-    }
-
-    /// A key whose absence means `default`.
-    #[inline(never)]
-    pub fn or<T: Read>(&self, key: &str, default: T) -> T {
-        match self.value(key) {
-            Some(v) => self.fail(key, T::read(v)),
-            None => default,
-        }
-    }
-
-    /// A word key as its index in `words`, in one function for every word
-    /// enum (a `get` of each would be one function a type). `need`: 0 an
-    /// `Option` (absent or null: `None`), 1 a key with a default (absent:
-    /// `None`), 2 a required key. `None` also after an error, which is kept.
-    #[inline(never)]
-    fn word_at(&self, key: &str, words: &[&str], need: u8) -> Option<usize> {
-        let Some(v) = self.value(key) else {
-            if need == 2 {
-                self.note(key, missing());
-            }
-            return None;
+        seen |= 1 << i;
+        let slot = &mut slots[i];
+        let read = match slot.words() {
+            None => slot.put(x),
+            Some((_, true)) if x.is_null() => Ok(()),
+            Some((words, _)) => word_index(x, words).map(|w| slot.set_word(w)),
         };
-        if need == 0 && v.is_null() {
-            return None;
-        }
-        match word_index(v, words) {
-            Ok(i) => Some(i),
-            Err(e) => {
-                self.note(key, e);
-                None
+        if let Err(e) = read {
+            if first.as_ref().is_none_or(|(j, _)| i < *j) {
+                first = Some((i, e));
             }
         }
     }
-
-    /// An optional word key: `Option<T>`.
-    #[inline(always)]
-    pub fn word<T: Word>(&self, key: &str) -> Option<T> {
-        self.word_at(key, T::WORDS, 0).map(|i| T::ALL[i].1)
-    }
-
-    /// A word key whose absence means `default`.
-    #[inline(always)]
-    pub fn word_or<T: Word>(&self, key: &str, default: T) -> T {
-        self.word_at(key, T::WORDS, 1).map_or(default, |i| T::ALL[i].1)
-    }
-
-    /// A required word key.
-    #[inline(always)]
-    pub fn word_req<T: Word>(&self, key: &str) -> T {
-        self.word_at(key, T::WORDS, 2).map_or(T::ALL[0].1, |i| T::ALL[i].1)
-    }
-
-    /// The value read, when every key read and every key of the object was
-    /// read.
-    pub fn end<T>(self, out: T) -> Result<T, String> {
-        if let Some(e) = self.error.into_inner() {
-            return Err(e);
+    let missing_key = (0..keys.len()).find(|i| required & !seen & (1 << i) != 0);
+    if let Some(i) = missing_key {
+        if first.as_ref().is_none_or(|(j, _)| i < *j) {
+            first = Some((i, missing()));
         }
-        let read = self.read.borrow();
-        match self.map.keys().find(|k| !read.contains(&k.as_str())) {
-            None => Ok(out),
-            Some(k) => Err(format!("unknown field `{k}`")),
-        }
+    }
+    if let Some((i, e)) = first {
+        return Err(at_key(keys[i], &e));
+    }
+    match unknown {
+        None => Ok(()),
+        Some(k) => Err(format!("unknown field `{k}`")),
     }
 }
 
@@ -183,49 +143,42 @@ impl Read for String {
     fn read(v: &Value) -> Result<Self, String> {
         v.as_str().map(str::to_string).ok_or_else(|| wrong(v, "a string"))
     }
-    fallback_default!();
 }
 
 impl Read for f64 {
     fn read(v: &Value) -> Result<Self, String> {
         v.as_f64().ok_or_else(|| wrong(v, "f64"))
     }
-    fallback_default!();
 }
 
 impl Read for u64 {
     fn read(v: &Value) -> Result<Self, String> {
         v.as_u64().ok_or_else(|| wrong(v, "u64"))
     }
-    fallback_default!();
 }
 
 impl Read for u32 {
     fn read(v: &Value) -> Result<Self, String> {
         v.as_u64().and_then(|n| u32::try_from(n).ok()).ok_or_else(|| wrong(v, "u32"))
     }
-    fallback_default!();
 }
 
 impl Read for bool {
     fn read(v: &Value) -> Result<Self, String> {
         v.as_bool().ok_or_else(|| wrong(v, "a boolean"))
     }
-    fallback_default!();
 }
 
 impl Read for Value {
     fn read(v: &Value) -> Result<Self, String> {
         Ok(v.clone())
     }
-    fallback_default!();
 }
 
 impl Read for Map<String, Value> {
     fn read(v: &Value) -> Result<Self, String> {
         v.as_object().cloned().ok_or_else(|| wrong(v, "a map"))
     }
-    fallback_default!();
 }
 
 impl Read for [f64; 2] {
@@ -235,7 +188,6 @@ impl Read for [f64; 2] {
             _ => Err(wrong(v, "an array of length 2")),
         }
     }
-    fallback_default!();
 }
 
 impl<T: Read> Read for Option<T> {
@@ -246,10 +198,6 @@ impl<T: Read> Read for Option<T> {
         }
         T::read(v).map(Some)
     }
-    fn absent() -> Option<Self> {
-        Some(None)
-    }
-    fallback_default!();
 }
 
 impl<T: Read> Read for Vec<T> {
@@ -266,10 +214,6 @@ impl<T: Read> Read for Vec<T> {
         }
         Ok(out)
     }
-    fn absent() -> Option<Self> {
-        Some(Vec::new())
-    }
-    fallback_default!();
 }
 
 #[inline(never)]
@@ -282,15 +226,9 @@ fn at_key(k: &str, e: &str) -> String {
     format!("{k}: {e}")
 }
 
-/// A map key: a column name, or a channel (the keys of `scales`).
+/// A map key: a channel (the keys of `scales`; other maps are [`Pairs`]).
 pub(crate) trait ReadKey: Sized + std::hash::Hash + Eq {
     fn read_key(k: &str) -> Result<Self, String>;
-}
-
-impl ReadKey for String {
-    fn read_key(k: &str) -> Result<Self, String> {
-        Ok(k.to_string())
-    }
 }
 
 impl ReadKey for Channel {
@@ -314,11 +252,19 @@ impl<K: ReadKey, T: Read> Read for IndexMap<K, T> {
         }
         Ok(out)
     }
-    fn absent() -> Option<Self> {
-        Some(IndexMap::new())
-    }
-    fn fallback() -> Self {
-        IndexMap::new()
+}
+
+impl<T: Read> Read for Pairs<T> {
+    fn read(v: &Value) -> Result<Self, String> {
+        let o = v.as_object().ok_or_else(|| wrong(v, "a map"))?;
+        let mut out = Vec::with_capacity(o.len());
+        for (k, x) in o {
+            match T::read(x) {
+                Ok(t) => out.push((k.clone(), t)),
+                Err(e) => return Err(at_key(k, &e)),
+            }
+        }
+        Ok(Pairs(out))
     }
 }
 
@@ -361,9 +307,6 @@ impl Read for DataRef {
             _ => DataObject::read(v).map(DataRef::Object),
         }
     }
-    fn fallback() -> Self {
-        DataRef::Url(String::new())
-    }
 }
 
 impl Read for Mapping {
@@ -371,12 +314,10 @@ impl Read for Mapping {
         if let Value::String(s) = v {
             return Ok(Mapping { column: s.clone(), as_type: None });
         }
-        let o = Obj::new(v, "a column name or an object such as {\"column\": \"c\", \"as\": \"date\"}")?;
-        let m = Mapping { column: o.get("column"), as_type: o.word("as") };
-        o.end(m)
-    }
-    fn fallback() -> Self {
-        Mapping { column: String::new(), as_type: None }
+        let mut m = Mapping { column: String::new(), as_type: None };
+        let what = "a column name or an object such as {\"column\": \"c\", \"as\": \"date\"}";
+        fields(v, what, &["column", "as"], 1, &mut [&mut m.column, &mut WordOpt(&mut m.as_type)])?;
+        Ok(m)
     }
 }
 
@@ -396,7 +337,6 @@ impl Read for Stat {
         }
         Ok(Stat::Object(o))
     }
-    fallback_default!();
 }
 
 impl Read for Coords {
@@ -414,7 +354,6 @@ impl Read for Coords {
             Polar::read(v).map(Coords::Polar)
         }
     }
-    fallback_default!();
 }
 
 impl Read for Theme {
@@ -428,7 +367,6 @@ impl Read for Theme {
         }
         ThemeOverrides::read(v).map(Theme::Custom)
     }
-    fallback_default!();
 }
 
 impl Read for Robust {
@@ -437,9 +375,6 @@ impl Read for Robust {
             Value::Bool(b) => Ok(Robust::Flag(*b)),
             _ => u64::read(v).map(Robust::Iterations),
         }
-    }
-    fn fallback() -> Self {
-        Robust::Flag(false)
     }
 }
 
@@ -450,9 +385,6 @@ impl Read for Bandwidth {
             _ => f64::read(v).map(Bandwidth::Width),
         }
     }
-    fn fallback() -> Self {
-        Bandwidth::Width(0.0)
-    }
 }
 
 impl Read for Breaks {
@@ -461,9 +393,6 @@ impl Read for Breaks {
             Value::String(_) => word(v).map(Breaks::Method),
             _ => Vec::read(v).map(Breaks::List),
         }
-    }
-    fn fallback() -> Self {
-        Breaks::List(Vec::new())
     }
 }
 
@@ -474,294 +403,230 @@ impl Read for Ticks {
             _ => u32::read(v).map(Ticks::Count),
         }
     }
-    fn fallback() -> Self {
-        Ticks::Count(0)
-    }
 }
 
 // ---------------------------------------------------------------- objects: one line per key
 
-impl Read for Unpivot {
-    fn read(v: &Value) -> Result<Self, String> {
-        let o = Obj::new(v, "struct Unpivot")?;
-        let u = Unpivot { columns: o.get("columns"), into: o.get("into") };
-        o.end(u)
-    }
-    fallback_default!();
-}
-
-impl Read for Spec {
-    fn read(v: &Value) -> Result<Self, String> {
-        let o = Obj::new(v, "a spec object")?;
-        let s = Spec {
-            schema: o.get("$schema"),
-            title: o.get("title"),
-            subtitle: o.get("subtitle"),
-            source: o.get("source"),
-            description: o.get("description"),
-            data: o.get("data"),
-            shapes: o.get("shapes"),
-            derive: o.get("derive"),
-            where_: o.get("where"),
-            layers: o.get("layers"),
-            scales: o.get("scales"),
-            coords: o.or_default("coords"),
-            panels: o.get("panels"),
-            notes: o.get("notes"),
-            size: o.or_default("size"),
-            theme: o.or_default("theme"),
-            quiet: o.get("quiet"),
-            locale: o.word("locale"),
-            data_table: o.word_or("data_table", DataTable::default()),
-            unpivot: o.get("unpivot"),
-        };
-        o.end(s)
-    }
-    fallback_default!();
-}
-
-impl Read for DataObject {
-    fn read(v: &Value) -> Result<Self, String> {
-        let o = Obj::new(v, "a data URL string or an object with `url`, `format`, `types`, `sha256` or `rows`")?;
-        let d = DataObject {
-            url: o.get("url"),
-            format: o.word("format"),
-            types: o.get("types"),
-            sha256: o.get("sha256"),
-            rows: o.get("rows"),
-            delimiter: o.get("delimiter"),
-            decimal_comma: o.or_default("decimal_comma"),
-            missing: o.get("missing"),
-        };
-        o.end(d)
-    }
-    fallback_default!();
-}
-
-impl Read for Shapes {
-    fn read(v: &Value) -> Result<Self, String> {
-        let o = Obj::new(v, "struct Shapes")?;
-        let s = Shapes { url: o.get("url"), features: o.get("features"), key: o.get("key"), sha256: o.get("sha256") };
-        o.end(s)
-    }
-    fallback_default!();
-}
-
-impl Read for Layer {
-    fn read(v: &Value) -> Result<Self, String> {
-        let o = Obj::new(v, "struct Layer")?;
-        let l = Self::fields(&o);
-        o.end(l)
-    }
-    fn fallback() -> Self {
-        // (Never a field itself: layers come in a list.) The reads of an empty
-        // object stand in; their error is dropped with it.
-        let empty = Map::new();
-        Self::fields(&Obj { map: &empty, read: Default::default(), error: Default::default() })
-    }
-}
-
-impl Layer {
-    fn fields(o: &Obj) -> Layer {
-        Layer {
-            draw: o.word_req("draw"),
-            x: o.get("x"),
-            y: o.get("y"),
-            x_end: o.get("x_end"),
-            y_end: o.get("y_end"),
-            color: o.get("color"),
-            size: o.get("size"),
-            shape: o.get("shape"),
-            opacity: o.get("opacity"),
-            text: o.get("text"),
-            group: o.get("group"),
-            key: o.get("key"),
-            tooltip: o.get("tooltip"),
-            style: o.or_default("style"),
-            stat: o.or_default("stat"),
-            arrange: o.word_or("arrange", Arrange::default()),
-            label_ends: o.or_default("label_ends"),
+/// A struct read by [`fields`]: its value when every key is absent, which
+/// keys are required (a bit each), then one line per key, in the order its
+/// errors are kept: `"key": field` for a field that reads itself,
+/// `"key" ? field` for an optional word, `"key" = field` for a word.
+macro_rules! object {
+    ($ty:ident, $what:expr, $start:expr, $required:expr, { $($key:literal $how:tt $field:ident),+ $(,)? }) => {
+        impl Read for $ty {
+            fn read(v: &Value) -> Result<Self, String> {
+                let mut s: $ty = $start;
+                fields(v, $what, &[$($key),+], $required, &mut [$(slot!($how s.$field)),+])?;
+                Ok(s)
+            }
         }
+    };
+}
+
+macro_rules! slot {
+    (: $e:expr) => {
+        &mut $e as &mut dyn Slot
+    };
+    (? $e:expr) => {
+        &mut WordOpt(&mut $e) as &mut dyn Slot
+    };
+    (= $e:expr) => {
+        &mut WordOne(&mut $e) as &mut dyn Slot
+    };
+}
+
+object!(Unpivot, "struct Unpivot", Unpivot::default(), 0, { "columns": columns, "into": into });
+
+object!(Spec, "a spec object", Spec::default(), 0, {
+    "$schema": schema,
+    "title": title,
+    "subtitle": subtitle,
+    "source": source,
+    "description": description,
+    "data": data,
+    "shapes": shapes,
+    "derive": derive,
+    "where": where_,
+    "layers": layers,
+    "scales": scales,
+    "coords": coords,
+    "panels": panels,
+    "notes": notes,
+    "size": size,
+    "theme": theme,
+    "quiet": quiet,
+    "locale" ? locale,
+    "data_table" = data_table,
+    "unpivot": unpivot,
+});
+
+object!(DataObject, "a data URL string or an object with `url`, `format`, `types`, `sha256` or `rows`", DataObject::default(), 0, {
+    "url": url,
+    "format" ? format,
+    "types": types,
+    "sha256": sha256,
+    "rows": rows,
+    "delimiter": delimiter,
+    "decimal_comma": decimal_comma,
+    "missing": missing,
+});
+
+object!(Shapes, "struct Shapes", Shapes::default(), 0, { "url": url, "features": features, "key": key, "sha256": sha256 });
+
+/// A layer with every key absent (`draw`, required, stands in as the first word).
+fn blank_layer() -> Layer {
+    Layer {
+        draw: Geometry::ALL[0].1,
+        x: None,
+        y: None,
+        x_end: None,
+        y_end: None,
+        color: None,
+        size: None,
+        shape: None,
+        opacity: None,
+        text: None,
+        group: None,
+        key: None,
+        tooltip: Vec::new(),
+        style: Style::default(),
+        stat: Stat::default(),
+        arrange: Arrange::default(),
+        label_ends: false,
     }
 }
 
-impl Read for Style {
-    fn read(v: &Value) -> Result<Self, String> {
-        let o = Obj::new(v, "struct Style")?;
-        let s = Style {
-            color: o.get("color"),
-            opacity: o.get("opacity"),
-            width: o.get("width"),
-            radius: o.get("radius"),
-            dash: o.get("dash"),
-            share: o.get("share"),
-            shape: o.word("shape"),
-            font_size: o.get("font_size"),
-            every_point: o.get("every_point"),
-        };
-        o.end(s)
-    }
-    fallback_default!();
-}
+object!(Layer, "struct Layer", blank_layer(), 1, {
+    "draw" = draw,
+    "x": x,
+    "y": y,
+    "x_end": x_end,
+    "y_end": y_end,
+    "color": color,
+    "size": size,
+    "shape": shape,
+    "opacity": opacity,
+    "text": text,
+    "group": group,
+    "key": key,
+    "tooltip": tooltip,
+    "style": style,
+    "stat": stat,
+    "arrange" = arrange,
+    "label_ends": label_ends,
+});
 
-impl Read for StatObject {
-    fn read(v: &Value) -> Result<Self, String> {
-        let o = Obj::new(v, "`none`, `count`, `box`, or an object with one of `bin`, `summary`, `fit`, `density`, `window`")?;
-        let s = StatObject {
-            bin: o.get("bin"),
-            summary: o.word("summary"),
-            interval: o.word("interval"),
-            fit: o.word("fit"),
-            band: o.get("band"),
-            density: o.get("density"),
-            window: o.get("window"),
-            p: o.get("p"),
-            span: o.get("span"),
-            degree: o.get("degree"),
-            robust: o.get("robust"),
-        };
-        o.end(s)
-    }
-    fallback_default!();
-}
+object!(Style, "struct Style", Style::default(), 0, {
+    "color": color,
+    "opacity": opacity,
+    "width": width,
+    "radius": radius,
+    "dash": dash,
+    "share": share,
+    "shape" ? shape,
+    "font_size": font_size,
+    "every_point": every_point,
+});
 
-impl Read for DensitySpec {
-    fn read(v: &Value) -> Result<Self, String> {
-        let o = Obj::new(v, "struct DensitySpec")?;
-        let d = DensitySpec { bandwidth: o.get("bandwidth"), grid: o.get("grid") };
-        o.end(d)
-    }
-    fallback_default!();
-}
+object!(StatObject, "`none`, `count`, `box`, or an object with one of `bin`, `summary`, `fit`, `density`, `window`", StatObject::default(), 0, {
+    "bin": bin,
+    "summary" ? summary,
+    "interval" ? interval,
+    "fit" ? fit,
+    "band": band,
+    "density": density,
+    "window": window,
+    "p": p,
+    "span": span,
+    "degree": degree,
+    "robust": robust,
+});
 
-impl Read for WindowSpec {
-    fn read(v: &Value) -> Result<Self, String> {
-        let o = Obj::new(v, "struct WindowSpec")?;
-        let w = WindowSpec { summary: o.word("summary"), rows: o.get("rows"), align: o.word("align") };
-        o.end(w)
-    }
-    fallback_default!();
-}
+object!(DensitySpec, "struct DensitySpec", DensitySpec::default(), 0, { "bandwidth": bandwidth, "grid": grid });
 
-impl Read for BinSpec {
-    fn read(v: &Value) -> Result<Self, String> {
-        let o = Obj::new(v, "struct BinSpec")?;
-        let b = BinSpec {
-            rule: o.word("rule"),
-            width: o.get("width"),
-            count: o.get("count"),
-            boundary: o.get("boundary"),
-            unit: o.word("unit"),
-            density: o.get("density"),
-        };
-        o.end(b)
-    }
-    fallback_default!();
-}
+object!(WindowSpec, "struct WindowSpec", WindowSpec::default(), 0, { "summary" ? summary, "rows": rows, "align" ? align });
 
-impl Read for ScaleSpec {
-    fn read(v: &Value) -> Result<Self, String> {
-        let o = Obj::new(v, "struct ScaleSpec")?;
-        let s = ScaleSpec {
-            kind: o.word("kind"),
-            domain: o.get("domain"),
-            zero: o.get("zero"),
-            nice: o.get("nice"),
-            reverse: o.or_default("reverse"),
-            title: o.get("title"),
-            format: o.get("format"),
-            ticks: o.get("ticks"),
-            palette: o.get("palette"),
-            axis: o.word("axis"),
-            legend: o.word("legend"),
-            hide: o.or_default("hide"),
-            base: o.get("base"),
-            breaks: o.get("breaks"),
-            count: o.get("count"),
-            middle: o.get("middle"),
-            values: o.get("values"),
-            order: o.word("order"),
-            top: o.get("top"),
-            unit: o.get("unit"),
-        };
-        o.end(s)
-    }
-    fallback_default!();
-}
+object!(BinSpec, "struct BinSpec", BinSpec::default(), 0, {
+    "rule" ? rule,
+    "width": width,
+    "count": count,
+    "boundary": boundary,
+    "unit" ? unit,
+    "density": density,
+});
 
-impl Read for MapCoords {
-    fn read(v: &Value) -> Result<Self, String> {
-        let o = Obj::new(v, "struct MapCoords")?;
-        let m = MapCoords {
-            kind: o.word_req("kind"),
-            projection: o.word_or("projection", default_projection()),
-            center: o.get("center"),
-            rotate: o.or_default("rotate"),
-            parallels: o.get("parallels"),
-            fit: o.word_or("fit", default_fit()),
-            graticule: o.or("graticule", default_graticule()),
-            outline: o.or("outline", default_true()),
-        };
-        o.end(m)
-    }
-    fallback_default!();
-}
+object!(ScaleSpec, "struct ScaleSpec", ScaleSpec::default(), 0, {
+    "kind" ? kind,
+    "domain": domain,
+    "zero": zero,
+    "nice": nice,
+    "reverse": reverse,
+    "title": title,
+    "format": format,
+    "ticks": ticks,
+    "palette": palette,
+    "axis" ? axis,
+    "legend" ? legend,
+    "hide": hide,
+    "base": base,
+    "breaks": breaks,
+    "count": count,
+    "middle": middle,
+    "values": values,
+    "order" ? order,
+    "top": top,
+    "unit": unit,
+});
 
-impl Read for Polar {
-    fn read(v: &Value) -> Result<Self, String> {
-        let o = Obj::new(v, "struct Polar")?;
-        let p = Polar { kind: o.word_req("kind"), angle: o.word_or("angle", default_angle()), start: o.or_default("start"), inner: o.or_default("inner") };
-        o.end(p)
-    }
-    fn fallback() -> Self {
-        Polar { kind: PolarKind::Polar, angle: default_angle(), start: 0.0, inner: 0.0 }
-    }
-}
+// `MapCoords::default()` holds the defaults of `projection`, `fit`,
+// `graticule` and `outline`; `kind` (required) has one word.
+object!(MapCoords, "struct MapCoords", MapCoords::default(), 1, {
+    "kind" = kind,
+    "projection" = projection,
+    "center": center,
+    "rotate": rotate,
+    "parallels": parallels,
+    "fit" = fit,
+    "graticule": graticule,
+    "outline": outline,
+});
 
-impl Read for Panels {
-    fn read(v: &Value) -> Result<Self, String> {
-        let o = Obj::new(v, "struct Panels")?;
-        let p = Panels { by: o.get("by"), columns: o.get("columns"), rows: o.get("rows"), cols: o.get("cols"), independent: o.word("independent") };
-        o.end(p)
-    }
-    fallback_default!();
-}
+object!(Polar, "struct Polar", Polar { kind: PolarKind::Polar, angle: default_angle(), start: 0.0, inner: 0.0 }, 1, {
+    "kind" = kind,
+    "angle" = angle,
+    "start": start,
+    "inner": inner,
+});
 
-impl Read for Note {
-    fn read(v: &Value) -> Result<Self, String> {
-        let o = Obj::new(v, "struct Note")?;
-        let n = Note { x: o.get("x"), y: o.get("y"), x_end: o.get("x_end"), y_end: o.get("y_end"), text: o.get("text"), pointer: o.or_default("pointer") };
-        o.end(n)
-    }
-    fallback_default!();
-}
+object!(Panels, "struct Panels", Panels::default(), 0, {
+    "by": by,
+    "columns": columns,
+    "rows": rows,
+    "cols": cols,
+    "independent" ? independent,
+});
 
-impl Read for Size {
-    fn read(v: &Value) -> Result<Self, String> {
-        let o = Obj::new(v, "struct Size")?;
-        let s = Size { width: o.get("width"), height: o.get("height"), aspect: o.get("aspect") };
-        o.end(s)
-    }
-    fallback_default!();
-}
+object!(Note, "struct Note", Note::default(), 0, {
+    "x": x,
+    "y": y,
+    "x_end": x_end,
+    "y_end": y_end,
+    "text": text,
+    "pointer": pointer,
+});
 
-impl Read for ThemeOverrides {
-    fn read(v: &Value) -> Result<Self, String> {
-        let o = Obj::new(v, "`light`, `dark`, `auto`, or an object of overrides")?;
-        let t = ThemeOverrides {
-            base: o.word("base"),
-            background: o.get("background"),
-            text: o.get("text"),
-            muted: o.get("muted"),
-            grid: o.get("grid"),
-            axis: o.get("axis"),
-            mark: o.get("mark"),
-            font_size: o.get("font_size"),
-        };
-        o.end(t)
-    }
-    fallback_default!();
-}
+object!(Size, "struct Size", Size::default(), 0, { "width": width, "height": height, "aspect": aspect });
+
+object!(ThemeOverrides, "`light`, `dark`, `auto`, or an object of overrides", ThemeOverrides::default(), 0, {
+    "base" ? base,
+    "background": background,
+    "text": text,
+    "muted": muted,
+    "grid": grid,
+    "axis": axis,
+    "mark": mark,
+    "font_size": font_size,
+});
 
 #[cfg(test)]
 mod tests {
@@ -779,8 +644,22 @@ mod tests {
             "x: invalid type: number, expected a column name or an object such as {\"column\": \"c\", \"as\": \"date\"}"
         );
         assert_eq!(Layer::read(&json!({"x": "a"})).unwrap_err(), "draw: missing field");
+        // The first error in the table's key order, whatever the object's
+        // order; a missing key counts at its place; unknown keys after all.
+        assert_eq!(Layer::read(&json!({"zz": 1, "y": true, "x": 3, "draw": "bar"})).unwrap_err().split(':').next(), Some("x"));
+        assert_eq!(Layer::read(&json!({"y": true, "x": 3})).unwrap_err(), "draw: missing field");
+        assert_eq!(Layer::read(&json!({"draw": "bar", "zz": 1, "yy": 2})).unwrap_err(), "unknown field `zz`");
+        assert_eq!(Note::read(&json!([1])).unwrap_err(), "invalid type: sequence, expected struct Note");
         assert_eq!(Style::read(&json!({"colour": "red"})).unwrap_err(), "unknown field `colour`");
         assert!(Layer::read(&json!({"draw": "pie"})).unwrap_err().starts_with("draw: unknown variant `pie`, expected one of `point`"));
+        // Keyed values keep the object's order; a bad value names its key.
+        let p = Pairs::<ColumnType>::read(&json!({"b": "date", "a": "number"})).unwrap();
+        assert_eq!(p.keys().map(String::as_str).collect::<Vec<_>>(), ["b", "a"]);
+        assert_eq!((p.get("a"), p.get("c"), p.len()), (Some(&ColumnType::Number), None, 2));
+        assert_eq!(Pairs::<String>::read(&json!({"k": 1})).unwrap_err(), "k: invalid type: number, expected a string");
+        let mut q: Pairs<u32> = [("x".to_string(), 1), ("y".to_string(), 2), ("x".to_string(), 3)].into_iter().collect();
+        assert_eq!(q.iter().map(|(k, v)| (k.as_str(), *v)).collect::<Vec<_>>(), [("x", 3), ("y", 2)]);
+        assert_eq!((q.shift_remove("x"), q.shift_remove("x"), q.len()), (Some(3), None, 1));
         // Defaults other than the type's own.
         let m = MapCoords::read(&json!({"kind": "map"})).unwrap();
         assert_eq!((m.projection, m.fit, m.outline), (ProjectionWord::EqualEarth, MapFit::Shapes, true));

@@ -48,9 +48,6 @@ macro_rules! words {
             fn read(v: &serde_json::Value) -> Result<Self, String> {
                 crate::spec::read::word(v)
             }
-            fn fallback() -> Self {
-                Self::ALL[0].1
-            }
         }
     };
 }
