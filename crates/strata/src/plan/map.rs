@@ -177,7 +177,7 @@ pub fn resolve(spec: &Spec, m: &MapCoords, features: Option<Vec<Feature>>, layer
         }
         if n_unmatched > 0 {
             let mut names: Vec<&str> = by_key.keys().copied().collect();
-            names.sort_unstable();
+            crate::sort::by(&mut names, |a, b| a.cmp(b));
             let listed: Vec<String> = unmatched
                 .iter()
                 .map(|k| match closest(k, names.iter().copied()) {

@@ -268,7 +268,7 @@ pub fn draw(plan: &Plan, pal: &Palette, left: f64, top: f64, right: f64, bottom:
                     let r = layer.data.get(Channel::Size).and_then(|v| plan.scales.radius_of(v, i)).unwrap_or(layer.style.radius.unwrap_or(3.5));
                     order.push((i, xy, r));
                 }
-                order.sort_by(|a, b| b.2.total_cmp(&a.2).then(a.0.cmp(&b.0)));
+                crate::sort::by(&mut order, |a, b| b.2.total_cmp(&a.2).then(a.0.cmp(&b.0)));
                 for (i, (cx, cy), r) in order {
                     let c = layer
                         .data
