@@ -187,7 +187,7 @@ pub fn resolve(spec: &Spec, m: &MapCoords, features: Option<Vec<Feature>>, layer
                 .collect();
             let key_name = spec.shapes.as_ref().and_then(|s| s.key.clone()).unwrap_or_else(|| "key".into());
             warnings.push(
-                Diagnostic::warning("map.unmatched", format!("{n_unmatched} row(s) match no shape by `{key_name}`: {}", listed.join(", ")))
+                Diagnostic::warning("map.unmatched", format!("{n_unmatched} row(s) match no shape by `{key_name}`: {}", crate::join(&listed, ", ")))
                     .at_path(format!("layers[{}].key", l.index)),
             );
         }
