@@ -138,5 +138,39 @@ fn line_svg(c: &mut Criterion) {
     g.finish();
 }
 
-criterion_group!(benches, histogram, kde, loess, line_svg);
+/// strata::sort (the engine's own radix and merge sorts) beside the standard
+/// library's stable sort they replace, on the same input in the same run.
+fn sorts(c: &mut Criterion) {
+    let xs = normals(10_000_000, 6);
+    let mut r = SplitMix64::new(7);
+    let pts: Vec<(f64, f64)> = (0..1_000_000).map(|i| (r.next_f64(), i as f64)).collect();
+    let ascending: Vec<(f64, f64)> = (0..10_000_000).map(|i| (i as f64, 0.0)).collect();
+    let words: Vec<u32> = (0..100_000).map(|_| (r.next_f64() * 5000.0) as u32).collect();
+    let mut g = c.benchmark_group("sort");
+    g.sample_size(10).warm_up_time(Duration::from_millis(300)).measurement_time(Duration::from_secs(3));
+    g.bench_function("f64_10m_normal_std", |b| b.iter(|| black_box(xs.clone()).sort_by(f64::total_cmp)));
+    g.bench_function("f64_10m_normal_strata", |b| b.iter(|| strata::sort::f64s(&mut black_box(xs.clone()))));
+    g.bench_function("quantile_10m_strata", |b| b.iter(|| strata::stat::quantile::quantile(black_box(&xs), 0.9, strata::stat::quantile::Method::Type7)));
+    g.bench_function("points_1m_by_x_std", |b| b.iter(|| black_box(pts.clone()).sort_by(|a, b| a.0.total_cmp(&b.0))));
+    g.bench_function("points_1m_by_x_strata", |b| b.iter(|| strata::sort::by_x(&mut black_box(pts.clone()))));
+    g.bench_function("points_10m_ascending_std", |b| b.iter(|| black_box(ascending.clone()).sort_by(|a, b| a.0.total_cmp(&b.0))));
+    g.bench_function("points_10m_ascending_strata", |b| b.iter(|| strata::sort::by_x(&mut black_box(ascending.clone()))));
+    g.bench_function("by_100k_std", |b| b.iter(|| black_box(words.clone()).sort()));
+    // What strata::sort::by did before: std's stable sort of positions
+    // through a `dyn` comparator, then the permutation.
+    g.bench_function("by_100k_std_positions", |b| {
+        b.iter(|| {
+            let mut v = black_box(words.clone());
+            let cmp: &mut dyn FnMut(usize, usize) -> std::cmp::Ordering = &mut |a, b| v[a].cmp(&v[b]);
+            let mut idx: Vec<usize> = (0..v.len()).collect();
+            idx.sort_by(|a, b| cmp(*a, *b));
+            strata::sort::permute(idx, &mut |i, j| v.swap(i, j));
+            v
+        })
+    });
+    g.bench_function("by_100k_strata", |b| b.iter(|| strata::sort::by(&mut black_box(words.clone()), |a, b| a.cmp(b))));
+    g.finish();
+}
+
+criterion_group!(benches, histogram, kde, loess, line_svg, sorts);
 criterion_main!(benches);

@@ -35,8 +35,8 @@ pub fn apply(table: Table, u: &Unpivot) -> Result<Table, Errors> {
             None => {
                 let d = Diagnostic::error("spec.unknown_column", format!("there is no column `{c}` in the data")).at_path(path);
                 errors.push(match crate::spec::closest(c, names.iter().map(String::as_str)) {
-                    Some(s) => d.with_hint(format!("did you mean `{s}`? The columns are: {}", names.join(", "))),
-                    None => d.with_hint(format!("the columns are: {}", names.join(", "))),
+                    Some(s) => d.with_hint(format!("did you mean `{s}`? The columns are: {}", crate::join(&names, ", "))),
+                    None => d.with_hint(format!("the columns are: {}", crate::join(&names, ", "))),
                 });
             }
         }

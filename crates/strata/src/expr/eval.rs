@@ -305,10 +305,12 @@ fn column(name: &str, quoted: bool, span: Span, env: &Env) -> R {
         let needs_quotes = |c: &str| !c.chars().all(|ch| ch.is_alphanumeric() || ch == '_') || c.is_empty();
         let show = |c: &str| if needs_quotes(c) { format!("\"{}\"", c.replace('"', "\"\"")) } else { c.to_string() };
         err = match near {
-            Some(s) => err.hint(format!("did you mean {}? The columns are: {}", show(s), env.names.iter().map(|c| show(c)).collect::<Vec<_>>().join(", "))),
+            Some(s) => {
+                err.hint(format!("did you mean {}? The columns are: {}", show(s), crate::join(&env.names.iter().map(|c| show(c)).collect::<Vec<_>>(), ", ")))
+            }
             None => err.hint(format!(
                 "the columns are: {}; text values need single quotes, such as '{name}'",
-                env.names.iter().map(|c| show(c)).collect::<Vec<_>>().join(", ")
+                crate::join(&env.names.iter().map(|c| show(c)).collect::<Vec<_>>(), ", ")
             )),
         };
         return Err(err);

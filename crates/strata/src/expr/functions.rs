@@ -197,9 +197,9 @@ pub fn call(name: &str, args: &[Expr], span: Span, env: &Env) -> Result<Col, Exp
         _ => {
             let mut e = ExprError::new(format!("there is no function `{name}`"), span);
             if let Some(s) = crate::spec::closest(name, NAMES.iter().copied()) {
-                e = e.hint(format!("did you mean {s}()? The functions are: {}", NAMES.join(", ")));
+                e = e.hint(format!("did you mean {s}()? The functions are: {}", crate::join(&NAMES, ", ")));
             } else {
-                e = e.hint(format!("the functions are: {}", NAMES.join(", ")));
+                e = e.hint(format!("the functions are: {}", crate::join(&NAMES, ", ")));
             }
             Err(e)
         }

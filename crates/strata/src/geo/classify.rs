@@ -21,7 +21,7 @@ pub const NATURAL_MAX: usize = 4000;
 
 fn sorted_finite(xs: &[f64]) -> Vec<f64> {
     let mut v: Vec<f64> = xs.iter().copied().filter(|x| x.is_finite()).collect();
-    v.sort_by(f64::total_cmp);
+    crate::sort::f64s(&mut v);
     v
 }
 

@@ -135,7 +135,7 @@ fn stack_key(data: &LayerData, i: usize) -> Option<String> {
 /// Smallest gap between distinct finite values (1 when there is none).
 pub(super) fn resolution(v: &Nums) -> f64 {
     let mut s: Vec<f64> = v.present().collect();
-    s.sort_by(f64::total_cmp);
+    crate::sort::f64s(&mut s);
     s.dedup();
     let r = s.windows(2).map(|w| w[1] - w[0]).filter(|d| *d > 0.0).fold(f64::INFINITY, f64::min);
     if r.is_finite() {

@@ -121,7 +121,7 @@ pub fn palette(theme: &Theme) -> (Palette, String) {
             set(&mut p.grid, &o.grid, "grid");
             set(&mut p.axis, &o.axis, "axis");
             set(&mut p.mark, &o.mark, "mark");
-            (p, classes.join(" "))
+            (p, crate::join(&classes, " "))
         }
     }
 }

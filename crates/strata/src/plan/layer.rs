@@ -289,8 +289,8 @@ pub fn gather_top(data: &mut [Option<LayerData>], ch: Channel, n: usize) {
 fn unknown_column(col: &str, names: &[String], path: String) -> Diagnostic {
     let d = Diagnostic::error("spec.unknown_column", format!("there is no column `{col}` in the data")).at_path(path);
     match crate::spec::closest(col, names.iter().map(String::as_str)) {
-        Some(s) => d.with_hint(format!("did you mean `{s}`? The columns are: {}", names.join(", "))),
-        None => d.with_hint(format!("the columns are: {}", names.join(", "))),
+        Some(s) => d.with_hint(format!("did you mean `{s}`? The columns are: {}", crate::join(names, ", "))),
+        None => d.with_hint(format!("the columns are: {}", crate::join(names, ", "))),
     }
 }
 

@@ -177,7 +177,7 @@ pub fn resolve(spec: &Spec, m: &MapCoords, features: Option<Vec<Feature>>, layer
         }
         if n_unmatched > 0 {
             let mut names: Vec<&str> = by_key.keys().copied().collect();
-            names.sort_unstable();
+            crate::sort::by(&mut names, |a, b| a.cmp(b));
             let listed: Vec<String> = unmatched
                 .iter()
                 .map(|k| match closest(k, names.iter().copied()) {
@@ -187,7 +187,7 @@ pub fn resolve(spec: &Spec, m: &MapCoords, features: Option<Vec<Feature>>, layer
                 .collect();
             let key_name = spec.shapes.as_ref().and_then(|s| s.key.clone()).unwrap_or_else(|| "key".into());
             warnings.push(
-                Diagnostic::warning("map.unmatched", format!("{n_unmatched} row(s) match no shape by `{key_name}`: {}", listed.join(", ")))
+                Diagnostic::warning("map.unmatched", format!("{n_unmatched} row(s) match no shape by `{key_name}`: {}", crate::join(&listed, ", ")))
                     .at_path(format!("layers[{}].key", l.index)),
             );
         }

@@ -277,7 +277,7 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
             Errors::from(
                 Diagnostic::error("spec.unknown_palette", format!("there is no palette called `{name}`"))
                     .at_path("scales.color.palette")
-                    .with_hint(format!("the palettes are: {}", Scheme::names().join(", "))),
+                    .with_hint(format!("the palettes are: {}", crate::join(&Scheme::names(), ", "))),
             )
         })?,
         None => match color {
@@ -424,7 +424,7 @@ pub fn chosen_color_warnings(scales: &Scales) -> Vec<Diagnostic> {
             .at_path(format!("scales.color.values.{}", crate::expr::path_key(k)));
         out.push(match crate::spec::closest(k, cats.iter().map(String::as_str)) {
             Some(s) => d.with_hint(format!("did you mean `{s}`?")),
-            None => d.with_hint(format!("the categories are: {}", cats[..cats.len().min(12)].join(", "))),
+            None => d.with_hint(format!("the categories are: {}", crate::join(&cats[..cats.len().min(12)], ", "))),
         });
     }
     out
@@ -740,7 +740,7 @@ fn num_as_text_position(layers: &[PlannedLayer], channels: &[Channel]) -> Vec<St
             }
         }
     }
-    v.sort_by(f64::total_cmp);
+    crate::sort::f64s(&mut v);
     v.dedup();
     let mut out = Vec::with_capacity(v.len());
     for x in v {

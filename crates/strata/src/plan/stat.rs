@@ -804,7 +804,7 @@ fn scatter_tiles(data: &LayerData) -> Option<LayerData> {
                 counts[k] += 1;
             }
         }
-        touched.sort_unstable();
+        crate::sort::usizes(&mut touched);
         for &idx in &touched {
             let (r, c, k) = (idx / nx, idx % nx, counts[idx]);
             out.row(

@@ -128,7 +128,7 @@ pub fn describe(plan: &Plan) -> String {
         kinds.push(l.geometry.word());
     }
     kinds.dedup();
-    let mut head = format!("{} chart", kinds.join(" and "));
+    let mut head = format!("{} chart", crate::join(&kinds, " and "));
     if !s.x_title.is_empty() && !s.y_title.is_empty() {
         head.push_str(&format!(" of {} against {}", s.y_title, s.x_title));
     }
@@ -136,7 +136,7 @@ pub fn describe(plan: &Plan) -> String {
         let names: &[String] = &c[..c.len().min(6)];
         let more = if c.len() > 6 { format!(" and {} more", c.len() - 6) } else { String::new() };
         let by = if s.color_title.is_empty() { String::new() } else { format!(" by {}", s.color_title) };
-        head.push_str(&format!(", in {} groups{by} ({}{more})", c.len(), names.join(", ")));
+        head.push_str(&format!(", in {} groups{by} ({}{more})", c.len(), crate::join(names, ", ")));
     }
     parts.push(head);
     for l in &plan.layers {
@@ -186,7 +186,7 @@ pub fn describe(plan: &Plan) -> String {
             said.push(p);
         }
     }
-    let mut out = said.join(". ");
+    let mut out = crate::join(&said, ". ");
     out.push('.');
     crate::text::case::capitalise_first(&out)
 }

@@ -245,7 +245,7 @@ impl PositionScale {
             // Chosen ticks: those inside the domain, whatever the room (`wanted` is not asked).
             let tol = 1e-9 * (b - a).abs();
             let mut t = ticks::kept(m.to_vec(), &|v| v.is_finite() && v >= a - tol && v <= b + tol);
-            t.sort_by(f64::total_cmp);
+            crate::sort::f64s(&mut t);
             t.dedup();
             if *time {
                 return (t, TickStep::Chosen);
@@ -284,7 +284,7 @@ impl PositionScale {
                 if inside(0.0) {
                     t.push(0.0);
                 }
-                t.sort_by(f64::total_cmp);
+                crate::sort::f64s(&mut t);
                 let k = t.len().div_ceil(wanted.max(2)).max(1);
                 (ticks::every_kth(t, k), TickStep::Varied)
             }

@@ -453,7 +453,7 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, names: GridNames, cells: &[Plan], ri
             out.push(Node::Group {
                 class: "strata-facet".into(),
                 role: Some("graphics-object".into()),
-                label: Some(format!("panel {}", says.join(", "))),
+                label: Some(format!("panel {}", crate::join(&says, ", "))),
                 children: kids,
             });
         }

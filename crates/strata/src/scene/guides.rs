@@ -299,7 +299,7 @@ pub fn wrap_two(label: &str, max_w: f64, ts: f64) -> Option<String> {
     // The first split with the least width, as `min_by` keeps the first.
     let mut best: Option<(f64, String)> = None;
     for k in 1..words.len() {
-        let (a, b) = (words[..k].join(" "), words[k..].join(" "));
+        let (a, b) = (crate::join(&words[..k], " "), crate::join(&words[k..], " "));
         let w = text::width(&a, ts, false).max(text::width(&b, ts, false));
         if w <= max_w && best.as_ref().is_none_or(|(bw, _)| w.total_cmp(bw).is_lt()) {
             best = Some((w, format!("{a}\n{b}")));
@@ -402,7 +402,7 @@ pub fn shorten_all(labels: &[String], max_w: f64, ts: f64) -> Vec<String> {
     let (pre, post) = (if head > 0 { "\u{2026}" } else { "" }, if tail > 0 { "\u{2026}" } else { "" });
     let mut core: Vec<String> = Vec::with_capacity(words.len());
     for w in &words {
-        let mid = w[head..w.len() - tail].join(" ");
+        let mid = crate::join(&w[head..w.len() - tail], " ");
         core.push(fit(&format!("{pre}{mid}{post}")));
     }
     if distinct(&core) {

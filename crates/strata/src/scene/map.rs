@@ -199,12 +199,9 @@ pub fn draw(plan: &Plan, pal: &Palette, left: f64, top: f64, right: f64, bottom:
                 // in order along great circles, cut at the seam.
                 let (Some(x), Some(y)) = (layer.data.get(Channel::X), layer.data.get(Channel::Y)) else { continue };
                 let series_of = |i: usize| {
-                    [Channel::Color, Channel::Group]
-                        .iter()
-                        .filter_map(|c| layer.data.get(*c))
-                        .map(|v| v.key(i).unwrap_or_default())
-                        .collect::<Vec<_>>()
-                        .join("\u{1f}")
+                    let keys =
+                        [Channel::Color, Channel::Group].iter().filter_map(|c| layer.data.get(*c)).map(|v| v.key(i).unwrap_or_default()).collect::<Vec<_>>();
+                    crate::join(&keys, "\u{1f}")
                 };
                 let mut order: Vec<String> = Vec::new();
                 let mut series: std::collections::HashMap<String, (usize, Vec<(f64, f64)>)> = std::collections::HashMap::new();
@@ -268,7 +265,7 @@ pub fn draw(plan: &Plan, pal: &Palette, left: f64, top: f64, right: f64, bottom:
                     let r = layer.data.get(Channel::Size).and_then(|v| plan.scales.radius_of(v, i)).unwrap_or(layer.style.radius.unwrap_or(3.5));
                     order.push((i, xy, r));
                 }
-                order.sort_by(|a, b| b.2.total_cmp(&a.2).then(a.0.cmp(&b.0)));
+                crate::sort::by(&mut order, |a, b| b.2.total_cmp(&a.2).then(a.0.cmp(&b.0)));
                 for (i, (cx, cy), r) in order {
                     let c = layer
                         .data

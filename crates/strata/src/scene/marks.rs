@@ -554,7 +554,7 @@ fn band_path(ctx: &Ctx, layer: &PlannedLayer, rows: &[usize], lo: Channel, hi: C
         (Some(a), Some(b)) => {
             let mut k = a;
             k.extend(b);
-            k.sort_unstable();
+            crate::sort::usizes(&mut k);
             k.dedup();
             Some(k)
         }

@@ -437,7 +437,7 @@ pub fn loess_band(xs: &[f64], ys: &[f64], robust: &[f64], opts: &LoessOptions, a
 pub fn bisquare_weights(ys: &[f64], fitted: &[f64]) -> Vec<f64> {
     let abs: Vec<f64> = ys.iter().zip(fitted).map(|(y, f)| (y - f).abs()).collect();
     let mut sorted = abs.clone();
-    sorted.sort_by(f64::total_cmp);
+    crate::sort::f64s(&mut sorted);
     let med = super::quantile::median_sorted(&sorted).unwrap_or(0.0);
     abs.iter()
         .map(|r| {

@@ -40,7 +40,7 @@ pub fn m4_indices(px: &[f64], py: &[f64]) -> Vec<usize> {
         }
         let last = j - 1;
         let mut four = [first, lo, hi, last];
-        four.sort_unstable();
+        crate::sort::usizes(&mut four);
         for k in four {
             if keep.last() != Some(&k) {
                 keep.push(k);

@@ -61,7 +61,7 @@ pub fn std_dev(xs: &[f64], ddof: usize) -> Option<f64> {
 /// A sorted copy of the finite values.
 pub fn sorted_finite(xs: &[f64]) -> Vec<f64> {
     let mut v: Vec<f64> = xs.iter().copied().filter(|x| x.is_finite()).collect();
-    v.sort_by(f64::total_cmp);
+    crate::sort::f64s(&mut v);
     v
 }
 

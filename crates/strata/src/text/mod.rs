@@ -53,7 +53,7 @@ pub fn advance(c: char, bold: bool) -> f64 {
 pub fn readable_name(name: &str) -> String {
     let spaced = name.replace('_', " ");
     let words: Vec<&str> = spaced.split_whitespace().collect();
-    let joined = words.join(" ");
+    let joined = crate::join(&words, " ");
     case::capitalise_first(&joined)
 }
 
