@@ -242,6 +242,20 @@ impl<V> ChannelMap<V> {
             }
         }
     }
+    /// A channel's value, added at the end as `V::default()` when missing.
+    pub fn get_or_default(&mut self, ch: Channel) -> &mut V
+    where
+        V: Default,
+    {
+        let i = match self.position(ch) {
+            Some(i) => i,
+            None => {
+                self.0.push((ch, V::default()));
+                self.0.len() - 1
+            }
+        };
+        &mut self.0[i].1
+    }
     /// Take a channel out; the last entry moves into its place.
     pub fn swap_remove(&mut self, ch: &Channel) -> Option<V> {
         self.position(*ch).map(|i| self.0.swap_remove(i).1)
@@ -278,6 +292,15 @@ impl<'a, V> IntoIterator for &'a ChannelMap<V> {
     type IntoIter = std::iter::Map<std::slice::Iter<'a, (Channel, V)>, fn(&(Channel, V)) -> (&Channel, &V)>;
     fn into_iter(self) -> Self::IntoIter {
         self.iter()
+    }
+}
+
+impl<V> IntoIterator for ChannelMap<V> {
+    type Item = (Channel, V);
+    type IntoIter = std::vec::IntoIter<(Channel, V)>;
+    /// The entries in insertion order.
+    fn into_iter(self) -> Self::IntoIter {
+        self.0.into_iter()
     }
 }
 

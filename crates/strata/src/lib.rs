@@ -32,6 +32,7 @@ pub mod expr;
 pub mod format;
 pub mod geo;
 pub mod guard;
+pub mod index;
 pub mod json;
 #[cfg(feature = "lint")]
 pub mod lint;

@@ -558,22 +558,22 @@ pub(crate) fn type_word(t: ColumnType) -> &'static str {
 /// Make header names unique and non-empty; returns warnings for renamed ones.
 pub fn unique_names(raw: Vec<String>) -> (Vec<String>, Vec<String>) {
     let mut out: Vec<String> = Vec::with_capacity(raw.len());
-    // The map type the category scale indexes with (no hash set of its own).
-    let mut seen: std::collections::HashMap<String, usize> = std::collections::HashMap::new();
+    // Names taken, found by the engine's one hash index.
+    let mut seen = crate::index::Places::new();
     let mut notes = Vec::new();
     for (i, name) in raw.into_iter().enumerate() {
         let base = if name.trim().is_empty() { format!("column_{}", i + 1) } else { name.clone() };
         let mut candidate = base.clone();
         let mut k = 2;
-        while seen.contains_key(&candidate) {
+        while seen.get(&out, &candidate).is_some() {
             candidate = format!("{base}_{k}");
             k += 1;
         }
         if candidate != name {
             notes.push(format!("header {} `{}` renamed to `{}`", i + 1, name, candidate));
         }
-        seen.insert(candidate.clone(), i);
         out.push(candidate);
+        seen.add(&out, i);
     }
     (out, notes)
 }

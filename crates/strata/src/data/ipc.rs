@@ -24,7 +24,6 @@ use super::table::{Column, Ints, TextBuilder};
 use super::{Nums, ReadOptions, Table};
 use crate::error::{Diagnostic, Errors};
 use arrow_ipc as fb;
-use std::collections::HashMap;
 
 fn invalid(msg: impl Into<String>) -> Errors {
     Diagnostic::error("data.arrow_invalid", format!("the Arrow IPC data is damaged: {}", msg.into()))
@@ -525,7 +524,7 @@ pub fn read(bytes: &[u8], opts: &ReadOptions) -> Result<Table, Errors> {
     for f in &fields {
         dictionary_fields(*f, &mut dict_fields);
     }
-    let mut dict_types: HashMap<i64, Val> = HashMap::new();
+    let (mut type_ids, mut types) = (Ids::default(), Vec::new());
     for f in &dict_fields {
         let Some(v) = val_of(f) else {
             let t = f.type_type().variant_name().unwrap_or("unknown").trim_end_matches('_');
@@ -533,10 +532,13 @@ pub fn read(bytes: &[u8], opts: &ReadOptions) -> Result<Table, Errors> {
                 .with_hint("write dictionary-encoded columns only of strings, numbers, dates or times")
                 .into());
         };
-        dict_types.insert(f.dictionary().map(|d| d.id()).unwrap_or_default(), v);
+        match type_ids.place(f.dictionary().map(|d| d.id()).unwrap_or_default()) {
+            Ok(j) => types[j] = v,
+            Err(_) => types.push(v),
+        }
     }
     let keep: Vec<Option<Val>> = fields.iter().map(val_of).collect();
-    let mut dicts: HashMap<i64, Column> = HashMap::new();
+    let (mut dict_ids, mut dicts): (Ids, Vec<Option<Column>>) = Default::default();
     let mut parts: Vec<Vec<Column>> = vec![Vec::new(); fields.len()];
     // The row cap before any column is decoded (a batch's length bounds
     // what its columns allocate; a dictionary's is under the cap too).
@@ -552,14 +554,17 @@ pub fn read(bytes: &[u8], opts: &ReadOptions) -> Result<Table, Errors> {
     for m in &messages {
         if let Some(d) = m.msg.header_as_dictionary_batch() {
             let Some(rb) = d.data() else { continue };
-            let v = *dict_types.get(&d.id()).ok_or_else(|| invalid("a dictionary batch has an id no field uses"))?;
+            let v = *type_ids.get(d.id()).map(|j| &types[j]).ok_or_else(|| invalid("a dictionary batch has an id no field uses"))?;
             let mut batch = Batch::new(rb, m.body, m.v5())?;
             let col = batch.column(v, "dictionary")?;
-            let col = match dicts.remove(&d.id()) {
+            let col = match dict_ids.get(d.id()).and_then(|j| dicts[j].take()) {
                 Some(old) if d.isDelta() => Column::concat(vec![old, col]).ok_or_else(|| invalid("a dictionary delta is of another type"))?,
                 _ => col,
             };
-            dicts.insert(d.id(), col);
+            match dict_ids.place(d.id()) {
+                Ok(j) => dicts[j] = Some(col),
+                Err(_) => dicts.push(Some(col)),
+            }
         } else if let Some(rb) = m.msg.header_as_record_batch() {
             let mut batch = Batch::new(rb, m.body, m.v5())?;
             let len = rb.length() as usize;
@@ -579,7 +584,10 @@ pub fn read(bytes: &[u8], opts: &ReadOptions) -> Result<Table, Errors> {
                         let Column::Int(keys) = batch.column(Val::Int { bytes, signed: true }, name)? else {
                             return Err(invalid(format!("column `{name}` has a damaged dictionary index")));
                         };
-                        let values = dicts.get(&d.id()).ok_or_else(|| invalid(format!("column `{name}` uses a dictionary that was not sent")))?;
+                        let values = dict_ids
+                            .get(d.id())
+                            .and_then(|j| dicts[j].as_ref())
+                            .ok_or_else(|| invalid(format!("column `{name}` uses a dictionary that was not sent")))?;
                         let n = values.len();
                         let mut idx = Vec::with_capacity(keys.len());
                         for k in keys.iter() {
@@ -647,6 +655,34 @@ fn empty(v: Val) -> Column {
         Val::Date { .. } => Column::Date(Vec::<f64>::new().into()),
         Val::Timestamp { .. } => Column::DateTime(Vec::<f64>::new().into()),
         Val::Null | Val::Utf8 { .. } | Val::Utf8View => Column::Text(Default::default()),
+    }
+}
+
+/// Dictionary ids, each to its place in the caller's lists (found by the
+/// engine's one hash index).
+#[derive(Default)]
+struct Ids {
+    index: crate::index::Index,
+    ids: Vec<i64>,
+}
+
+impl Ids {
+    fn hash(h: crate::index::Hasher, id: i64) -> u64 {
+        h.u64(id as u64).finish()
+    }
+    fn get(&self, id: i64) -> Option<usize> {
+        self.index.find(Self::hash(self.index.hasher(), id), &|j| self.ids[j as usize] == id).map(|j| j as usize)
+    }
+    /// `Ok(place)` of a known id, or `Err(place)` after adding it at the end.
+    fn place(&mut self, id: i64) -> Result<usize, usize> {
+        let ids = &self.ids;
+        match self.index.find_or_insert(&|h| Self::hash(h, id), &|j| ids[j as usize] == id, ids.len() as u32, &|j, h| Self::hash(h, ids[j as usize])) {
+            Ok(j) => Ok(j as usize),
+            Err(j) => {
+                self.ids.push(id);
+                Err(j as usize)
+            }
+        }
     }
 }
 

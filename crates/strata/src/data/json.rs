@@ -6,7 +6,6 @@ use super::{ReadOptions, Table};
 use crate::error::{Diagnostic, Errors};
 use crate::spec::ColumnType;
 use serde_json::{Map, Value};
-use std::collections::HashMap;
 
 pub fn read(bytes: &[u8], opts: &ReadOptions) -> Result<Table, Errors> {
     let bytes = bytes.strip_prefix(b"\xEF\xBB\xBF").unwrap_or(bytes);
@@ -61,16 +60,13 @@ pub fn from_records(rows: &[Map<String, Value>], opts: &ReadOptions) -> Result<T
     if rows.len() > opts.max_rows {
         return Err(too_many_rows(opts.max_rows));
     }
-    // The names in order of first appearance (a map of the same type as
-    // the category scale's index, so no hash table code of its own).
+    // The names in order of first appearance (found by the engine's one
+    // hash index).
     let mut names: Vec<String> = Vec::new();
-    let mut seen: HashMap<String, usize> = HashMap::new();
+    let mut seen = crate::index::Places::new();
     for r in rows {
         for k in r.keys() {
-            if !seen.contains_key(k.as_str()) {
-                seen.insert(k.clone(), names.len());
-                names.push(k.clone());
-            }
+            seen.push(&mut names, k);
         }
     }
     let (unique, notes) = unique_names(names.clone());

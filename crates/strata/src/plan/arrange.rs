@@ -15,7 +15,6 @@ use super::{LayerData, Nums, Values};
 use crate::channel::Channel;
 use crate::spec::{Arrange, Geometry, Layer};
 use crate::stat::rng::SplitMix64;
-use std::collections::HashMap;
 
 /// Seed of the jitter generator; the layer index is mixed in.
 const JITTER_SEED: u64 = 0x5354_5241_5441_0001;
@@ -68,15 +67,21 @@ pub fn apply(index: usize, layer: &Layer, geometry: Geometry, mut data: LayerDat
     if layer.arrange == Arrange::Stack || layer.arrange == Arrange::Proportion {
         // Each stack (rows sharing x and panel) by its key, found by hash so
         // that many stacks stay linear: running totals upward and downward.
-        // (A `HashMap<String, usize>` like the scales' own, and a slot of
-        // its own for rows without a key: one hash map type fewer in the page.)
-        let mut slot_of: HashMap<String, usize> = HashMap::new();
+        // (Keys found by the engine's one hash index, and a slot of its
+        // own for rows without a key.)
+        let (mut slot_of, mut keys, mut key_slot) = (crate::index::Places::new(), Vec::new(), Vec::new());
         let mut keyless: Option<usize> = None;
         let mut slots: Vec<usize> = Vec::with_capacity(data.len);
         let mut n = 0;
         for i in 0..data.len {
             let slot = match stack_key(&data, i) {
-                Some(k) => *slot_of.entry(k).or_insert(n),
+                Some(k) => {
+                    let j = slot_of.push(&mut keys, &k);
+                    if j == key_slot.len() {
+                        key_slot.push(n);
+                    }
+                    key_slot[j]
+                }
                 None => *keyless.get_or_insert(n),
             };
             n = n.max(slot + 1);

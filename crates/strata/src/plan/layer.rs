@@ -242,8 +242,8 @@ pub const OTHER: &str = "Other";
 /// a summary of "Other" covers all of their rows. Ties keep the data's order.
 pub fn gather_top(data: &mut [Option<LayerData>], ch: Channel, n: usize) {
     // Totals in order of first appearance; `index` finds a category's
-    // (a `HashMap<String, usize>` like the scales' own: no map type of its own).
-    let mut index: std::collections::HashMap<String, usize> = std::collections::HashMap::new();
+    // place in `names` (the engine's one hash index).
+    let (mut index, mut names) = (crate::index::Places::new(), Vec::new());
     let mut totals: Vec<f64> = Vec::new();
     for d in data.iter().flatten() {
         let Some(Values::Text(cats)) = d.get(ch) else { continue };
@@ -255,14 +255,10 @@ pub fn gather_top(data: &mut [Option<LayerData>], ch: Channel, n: usize) {
                 Some(v) => v.num(i).unwrap_or(0.0),
                 None => 1.0,
             };
-            let at = match index.get(c.as_str()) {
-                Some(&j) => j,
-                None => {
-                    index.insert(c.clone(), totals.len());
-                    totals.push(0.0);
-                    totals.len() - 1
-                }
-            };
+            let at = index.push(&mut names, c);
+            if at == totals.len() {
+                totals.push(0.0);
+            }
             totals[at] += add;
         }
     }
@@ -277,7 +273,7 @@ pub fn gather_top(data: &mut [Option<LayerData>], ch: Channel, n: usize) {
     for d in data.iter_mut().flatten() {
         if let Some(Values::Text(cats)) = d.channels.get_mut(&ch) {
             for c in cats.iter_mut().flatten() {
-                if !index.get(c.as_str()).is_some_and(|&j| keep[j]) {
+                if !index.get(&names, c).is_some_and(|j| keep[j]) {
                     *c = OTHER.to_string();
                 }
             }

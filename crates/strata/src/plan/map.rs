@@ -89,19 +89,14 @@ impl MapPlan {
     /// The same map for a panel's rows: each region layer's rows matched
     /// to the shapes again (a panel keeps only its own rows).
     pub fn for_layers(&self, layers: &[PlannedLayer]) -> MapPlan {
-        let mut by_key: std::collections::HashMap<&str, usize> = std::collections::HashMap::with_capacity(self.features.len());
-        for (fi, f) in self.features.iter().enumerate() {
-            if let Some(k) = &f.key {
-                by_key.entry(k.as_str()).or_insert(fi);
-            }
-        }
+        let by_key = KeyIndex::of(&self.features);
         let rows = layers
             .iter()
             .map(|l| {
                 let keys = l.data.get(Channel::Key).filter(|_| l.geometry == Geometry::Region)?;
                 let mut of_feature = vec![None; self.features.len()];
                 for i in 0..l.data.len {
-                    if let Some(&fi) = keys.key(i).as_deref().and_then(|k| by_key.get(k)) {
+                    if let Some(fi) = keys.key(i).as_deref().and_then(|k| by_key.get(&self.features, k)) {
                         of_feature[fi].get_or_insert(i);
                     }
                 }
@@ -109,6 +104,28 @@ impl MapPlan {
             })
             .collect();
         MapPlan { rows, ..self.clone() }
+    }
+}
+
+/// Each key's first feature, found by the engine's one hash index.
+struct KeyIndex(crate::index::Index);
+
+impl KeyIndex {
+    fn hash(h: crate::index::Hasher, k: &str) -> u64 {
+        h.bytes(k.as_bytes()).finish()
+    }
+    fn of(features: &[Feature]) -> KeyIndex {
+        let key = |j: u32| features[j as usize].key.as_deref();
+        let mut ix = crate::index::Index::with_capacity(features.len());
+        for (fi, f) in features.iter().enumerate() {
+            if let Some(k) = f.key.as_deref() {
+                let _ = ix.find_or_insert(&|h| Self::hash(h, k), &|j| key(j) == Some(k), fi as u32, &|j, h| Self::hash(h, key(j).unwrap_or_default()));
+            }
+        }
+        KeyIndex(ix)
+    }
+    fn get(&self, features: &[Feature], k: &str) -> Option<usize> {
+        self.0.find(Self::hash(self.0.hasher(), k), &|j| features[j as usize].key.as_deref() == Some(k)).map(|j| j as usize)
     }
 }
 
@@ -150,19 +167,14 @@ pub fn resolve(spec: &Spec, m: &MapCoords, features: Option<Vec<Feature>>, layer
             rows.push(None);
             continue;
         };
-        let mut by_key: std::collections::HashMap<&str, usize> = std::collections::HashMap::with_capacity(features.len());
-        for (fi, f) in features.iter().enumerate() {
-            if let Some(k) = &f.key {
-                by_key.entry(k.as_str()).or_insert(fi);
-            }
-        }
+        let by_key = KeyIndex::of(&features);
         let mut of_feature = vec![None; features.len()];
         let mut unmatched: Vec<String> = Vec::new();
         let mut n_unmatched = 0usize;
         for i in 0..l.data.len {
             let Some(k) = keys.key(i) else { continue };
-            match by_key.get(k.as_str()) {
-                Some(&fi) => {
+            match by_key.get(&features, &k) {
+                Some(fi) => {
                     if of_feature[fi].is_none() {
                         of_feature[fi] = Some(i);
                     }
@@ -176,7 +188,8 @@ pub fn resolve(spec: &Spec, m: &MapCoords, features: Option<Vec<Feature>>, layer
             }
         }
         if n_unmatched > 0 {
-            let mut names: Vec<&str> = by_key.keys().copied().collect();
+            // Every key (a repeated one changes no suggestion).
+            let mut names: Vec<&str> = features.iter().filter_map(|f| f.key.as_deref()).collect();
             crate::sort::by(&mut names, |a, b| a.cmp(b));
             let listed: Vec<String> = unmatched
                 .iter()

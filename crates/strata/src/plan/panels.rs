@@ -20,7 +20,6 @@ use super::{LayerData, Plan, PlannedLayer};
 use crate::channel::Channel;
 use crate::error::{Diagnostic, Errors};
 use crate::spec::Spec;
-use std::collections::HashMap;
 
 /// More panels than this is a mistake (a column of many distinct values
 /// given as `by`, `rows` or `cols`): each would be a few pixels wide.
@@ -38,20 +37,16 @@ pub enum PanelPlans {
 }
 
 /// Distinct values in order of first appearance, each one's place found by
-/// hash (in the `HashMap<String, usize>` type of the scales' `color_index`:
-/// no set type of its own in the page).
+/// hash ([`crate::index::Places`], the engine's one hash index).
 #[derive(Default)]
 struct Distinct {
     list: Vec<String>,
-    place: HashMap<String, usize>,
+    place: crate::index::Places,
 }
 
 impl Distinct {
     fn insert(&mut self, k: String) {
-        if !self.place.contains_key(k.as_str()) {
-            self.place.insert(k.clone(), self.list.len());
-            self.list.push(k);
-        }
+        self.place.push(&mut self.list, &k);
     }
     fn len(&self) -> usize {
         self.list.len()
@@ -60,7 +55,7 @@ impl Distinct {
         self.list.is_empty()
     }
     fn get_index_of(&self, k: &str) -> Option<usize> {
-        self.place.get(k).copied()
+        self.place.get(&self.list, k)
     }
 }
 

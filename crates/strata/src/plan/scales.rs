@@ -6,10 +6,10 @@ use crate::channel::Channel;
 use crate::color::{self, Scheme};
 use crate::error::{Diagnostic, Errors};
 use crate::format::{self, Locale};
+use crate::index::Places;
 use crate::scale::{PositionScale, SizeScale, Transform};
 use crate::spec::{Geometry, ScaleKind, ScaleSpec, Spec};
 use crate::text;
-use std::collections::HashMap;
 
 #[derive(Debug, Clone, PartialEq)]
 pub enum ColorScale {
@@ -57,8 +57,8 @@ pub struct Scales {
     pub shape_spec: ScaleSpec,
     /// Locale of every label (`locale` in the spec).
     pub locale: &'static Locale,
-    /// Each colour category's place in the `color` list, for lookups by hash.
-    pub color_index: HashMap<String, usize>,
+    /// Each colour category's (first) place in the `color` list, for lookups by hash.
+    pub color_index: Places,
     /// Chosen colours by category (`scales.color.values`), by the
     /// category's place in the `color` list (as `color_index` gives it),
     /// and the colour of every other category (its key `other`).
@@ -75,7 +75,7 @@ impl Scales {
         match (self.color.as_ref()?, self.color_scheme) {
             (ColorScale::Categories(cats), scheme) => {
                 let k = vals.key(i)?;
-                let idx = *self.color_index.get(&k)?;
+                let idx = self.color_index.get(cats, &k)?;
                 // Chosen colours first, then `other`, then the palette.
                 if let Some(c) = self.color_chosen.get(idx).and_then(Option::as_ref).or(self.color_other.as_ref()) {
                     return Some(c.clone());
@@ -107,7 +107,7 @@ impl Scales {
         let mut items: Vec<(String, String)> = Vec::new();
         let mut others: Vec<&String> = Vec::new();
         for (i, c) in cats.iter().enumerate() {
-            if self.color_other.is_some() && self.color_index.get(c.as_str()).is_none_or(|&j| self.color_chosen[j].is_none()) {
+            if self.color_other.is_some() && self.color_index.get(cats, c).is_none_or(|j| self.color_chosen[j].is_none()) {
                 others.push(c);
                 continue;
             }
@@ -328,18 +328,16 @@ pub fn train(spec: &Spec, layers: &[PlannedLayer]) -> Result<Scales, Errors> {
         None
     };
 
-    let mut color_index = HashMap::new();
+    let mut color_index = Places::new();
     let mut color_chosen: Vec<Option<String>> = Vec::new();
     if let Some(ColorScale::Categories(cats)) = &color {
         color_chosen = vec![None; cats.len()];
-        for (i, c) in cats.iter().enumerate() {
-            color_index.entry(c.clone()).or_insert(i);
-        }
+        color_index = Places::of(cats);
         // A category literally called `other` takes the `other` colour too
         // (the categories of `color_index`, so a doubled category finds the
         // first place's colour as the lookup of a row does).
         for (k, v) in color_spec.values.iter().flatten() {
-            if let Some(&i) = color_index.get(k.as_str()) {
+            if let Some(i) = color_index.get(cats, k) {
                 color_chosen[i] = Some(v.clone());
             }
         }
@@ -417,7 +415,7 @@ pub fn chosen_color_warnings(scales: &Scales) -> Vec<Diagnostic> {
     // `color_index` holds exactly these categories (one hash map type fewer in the page).
     let mut out = Vec::new();
     for k in values.keys() {
-        if k == OTHER_KEY || scales.color_index.contains_key(k.as_str()) {
+        if k == OTHER_KEY || scales.color_index.get(cats, k).is_some() {
             continue;
         }
         let d = Diagnostic::warning("spec.unknown_category", format!("`{k}` is not a category of the colour column, so its colour is not used"))
@@ -431,14 +429,11 @@ pub fn chosen_color_warnings(scales: &Scales) -> Vec<Diagnostic> {
 }
 
 /// Append the values of `v` not seen yet, in order of first appearance
-/// (a hash map keeps many distinct values linear; each value's place, in
-/// the map type of the scales' `color_index`: one hash map type fewer).
-fn add_distinct(cats: &mut Vec<String>, seen: &mut HashMap<String, usize>, v: &[Option<String>]) {
+/// (found by hash in [`Places`], the engine's one hash index: many
+/// distinct values stay linear).
+fn add_distinct(cats: &mut Vec<String>, seen: &mut Places, v: &[Option<String>]) {
     for s in v.iter().flatten() {
-        if !seen.contains_key(s.as_str()) {
-            seen.insert(s.clone(), cats.len());
-            cats.push(s.clone());
-        }
+        seen.push(cats, s);
     }
 }
 
@@ -463,7 +458,7 @@ fn date_ms(t: &str) -> Option<f64> {
 /// Categories (text) and the numeric range of a channel across layers.
 fn collect(layers: &[PlannedLayer], ch: Channel) -> (Vec<String>, Option<(f64, f64)>) {
     let mut cats: Vec<String> = Vec::new();
-    let mut seen = HashMap::new();
+    let mut seen = Places::new();
     let (mut lo, mut hi) = (f64::INFINITY, f64::NEG_INFINITY);
     for l in layers {
         match l.data.get(ch) {
@@ -532,7 +527,7 @@ fn train_position(channels: &[Channel], axis: &str, s: &ScaleSpec, layers: &[Pla
 
 fn train_position_bare(channels: &[Channel], axis: &str, s: &ScaleSpec, layers: &[PlannedLayer]) -> Result<(PositionScale, bool), Errors> {
     let mut cats: Vec<String> = Vec::new();
-    let mut seen = HashMap::new();
+    let mut seen = Places::new();
     let (mut lo, mut hi) = (f64::INFINITY, f64::NEG_INFINITY);
     let (mut any_num, mut any_text, mut time) = (false, false, false);
     let mut extent = false;
@@ -666,10 +661,9 @@ fn order_categories(cats: &mut Vec<String>, s: &ScaleSpec, channels: &[Channel],
     use crate::spec::CategoryOrder;
     if let Some(order) = s.order {
         let value_ch = if channels.contains(&Channel::X) { Channel::Y } else { Channel::X };
-        // Each category's place by hash (the map type of the scales'
-        // `color_index`: one hash map type fewer in the page), its value
+        // Each category's place by hash (in `names`, found by `place`), its value
         // drawn (the largest over layers), and this layer's sum in `mine`.
-        let mut place: HashMap<String, usize> = HashMap::new();
+        let (mut place, mut names) = (Places::new(), Vec::new());
         let mut drawn: Vec<f64> = Vec::new();
         let mut mine: Vec<Option<f64>> = Vec::new();
         for l in layers {
@@ -679,15 +673,11 @@ fn order_categories(cats: &mut Vec<String>, s: &ScaleSpec, channels: &[Channel],
             mine.resize(drawn.len(), None);
             for (i, k) in keys.iter().enumerate() {
                 let (Some(k), Some(x)) = (k, v.num(i)) else { continue };
-                let j = match place.get(k.as_str()) {
-                    Some(&j) => j,
-                    None => {
-                        place.insert(k.clone(), drawn.len());
-                        drawn.push(f64::NEG_INFINITY);
-                        mine.push(None);
-                        drawn.len() - 1
-                    }
-                };
+                let j = place.push(&mut names, k);
+                if j == drawn.len() {
+                    drawn.push(f64::NEG_INFINITY);
+                    mine.push(None);
+                }
                 // 0.0 + x as before: a -0.0 sums to +0.0.
                 mine[j] = Some(match mine[j] {
                     Some(e) if !stacked => e + x,
@@ -701,7 +691,7 @@ fn order_categories(cats: &mut Vec<String>, s: &ScaleSpec, channels: &[Channel],
                 }
             }
         }
-        let at = |c: &String| place.get(c.as_str()).map_or(f64::NEG_INFINITY, |&j| drawn[j]);
+        let at = |c: &String| place.get(&names, c).map_or(f64::NEG_INFINITY, |j| drawn[j]);
         match order {
             CategoryOrder::Ascending => crate::sort::by(cats, |a, b| at(a).total_cmp(&at(b))),
             CategoryOrder::Descending => crate::sort::by(cats, |a, b| at(b).total_cmp(&at(a))),

@@ -13,7 +13,7 @@
 //! outlier (`part` = `outlier`).
 
 use super::{LayerData, Values};
-use crate::channel::Channel;
+use crate::channel::{Channel, ChannelMap};
 use crate::error::{Diagnostic, Errors};
 use crate::spec::defaults;
 use crate::spec::{
@@ -21,7 +21,6 @@ use crate::spec::{
     WindowSummary,
 };
 use crate::stat::{self, bin, density, fit, summary, tukey, window};
-use indexmap::IndexMap;
 
 /// Discrete channels a statistic groups by (when they hold text), in order.
 const GROUP_CHANNELS: [Channel; 6] = [Channel::Color, Channel::Group, Channel::Shape, Channel::Panel, Channel::PanelRow, Channel::PanelCol];
@@ -196,40 +195,52 @@ fn x_and_group_keys(data: &LayerData) -> Vec<Channel> {
 }
 
 /// Rows grouped by the given channels, in order of first appearance.
-fn group_rows(data: &LayerData, keys: &[Channel]) -> IndexMap<Vec<Option<String>>, Vec<usize>> {
-    let mut groups: IndexMap<Vec<Option<String>>, Vec<usize>> = IndexMap::new();
+fn group_rows(data: &LayerData, keys: &[Channel]) -> Groups {
     let cols: Vec<&Values> = keys.iter().map(|k| &data.channels[k]).collect();
-    for i in 0..data.len {
-        let key: Vec<Option<String>> = cols.iter().map(|c| c.key(i)).collect();
-        groups.entry(key).or_default().push(i);
+    Groups(crate::index::group_rows(data.len, &|i| cols.iter().map(|c| c.key(i)).collect()))
+}
+
+/// Groups, each its key and rows, in order of first appearance.
+struct Groups(Vec<(Vec<Option<String>>, Vec<usize>)>);
+
+impl Groups {
+    fn values(&self) -> impl Iterator<Item = &Vec<usize>> {
+        self.0.iter().map(|g| &g.1)
     }
-    groups
+}
+
+impl<'a> IntoIterator for &'a Groups {
+    type Item = &'a (Vec<Option<String>>, Vec<usize>);
+    type IntoIter = std::slice::Iter<'a, (Vec<Option<String>>, Vec<usize>)>;
+    fn into_iter(self) -> Self::IntoIter {
+        self.0.iter()
+    }
 }
 
 /// Output rows under construction: for each, the input row whose group
 /// channels it copies.
 struct Out {
     from: Vec<usize>,
-    num: IndexMap<Channel, Vec<Option<f64>>>,
-    text: IndexMap<Channel, Vec<Option<String>>>,
+    num: ChannelMap<Vec<Option<f64>>>,
+    text: ChannelMap<Vec<Option<String>>>,
 }
 
 impl Out {
     fn new() -> Self {
-        Out { from: vec![], num: IndexMap::new(), text: IndexMap::new() }
+        Out { from: vec![], num: ChannelMap::new(), text: ChannelMap::new() }
     }
     fn row(&mut self, from: usize, nums: &[(Channel, Option<f64>)]) {
         let n = self.from.len();
         self.from.push(from);
         for (k, v) in nums {
-            let col = self.num.entry(*k).or_insert_with(|| vec![None; n]);
+            let col = self.num.get_or_default(*k);
             col.resize(n, None);
             col.push(*v);
         }
     }
     fn text(&mut self, key: Channel, v: &str) {
         let n = self.from.len();
-        let col = self.text.entry(key).or_default();
+        let col = self.text.get_or_default(key);
         col.resize(n - 1, None);
         col.push(Some(v.to_string()));
     }

@@ -82,7 +82,7 @@ pub enum PositionScale {
     /// `index` finds a value's band by hash (made by [`PositionScale::category`]),
     /// so placing n rows on k categories is O(n), not O(n k).
     /// `marks`: the categories the spec asks to label (`ticks: [...]`); the others keep their band, unlabelled.
-    Category { values: Vec<String>, padding: f64, index: std::collections::HashMap<String, usize>, marks: Option<std::sync::Arc<[String]>> },
+    Category { values: Vec<String>, padding: f64, index: crate::index::Places, marks: Option<std::sync::Arc<[String]>> },
 }
 
 /// Tick values chosen in the spec, in data units (ms for time).
@@ -130,10 +130,7 @@ impl PositionScale {
 
     /// A category scale over `values` (the first of any repeated value counts).
     pub fn category(values: Vec<String>, padding: f64) -> PositionScale {
-        let mut index = std::collections::HashMap::with_capacity(values.len());
-        for (i, v) in values.iter().enumerate() {
-            index.entry(v.clone()).or_insert(i);
-        }
+        let index = crate::index::Places::of(&values);
         PositionScale::Category { values, padding, index, marks: None }
     }
 
@@ -151,7 +148,7 @@ impl PositionScale {
     pub fn unit_cat(&self, v: &str) -> Option<f64> {
         match self {
             PositionScale::Category { values, index, .. } => {
-                let i = *index.get(v)?;
+                let i = index.get(values, v)?;
                 Some((i as f64 + 0.5) / values.len() as f64)
             }
             PositionScale::Continuous { .. } => None,

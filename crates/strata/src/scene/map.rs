@@ -204,21 +204,22 @@ pub fn draw(plan: &Plan, pal: &Palette, left: f64, top: f64, right: f64, bottom:
                     crate::join(&keys, "\u{1f}")
                 };
                 let mut order: Vec<String> = Vec::new();
-                let mut series: std::collections::HashMap<String, (usize, Vec<(f64, f64)>)> = std::collections::HashMap::new();
+                // `series[j]` is series `order[j]`'s first row and points.
+                let mut places = crate::index::Places::new();
+                let mut series: Vec<(usize, Vec<(f64, f64)>)> = Vec::new();
                 for i in 0..layer.data.len {
                     let (Some(lon), Some(lat)) = (x.num(i), y.num(i)) else { continue };
                     if lat.abs() > 90.0 || !lon.is_finite() {
                         continue;
                     }
                     let k = series_of(i);
-                    let e = series.entry(k.clone()).or_insert_with(|| {
-                        order.push(k);
-                        (i, Vec::new())
-                    });
-                    e.1.push((lon, lat));
+                    let j = places.push(&mut order, &k);
+                    if j == series.len() {
+                        series.push((i, Vec::new()));
+                    }
+                    series[j].1.push((lon, lat));
                 }
-                for k in &order {
-                    let (first, path) = &series[k];
+                for (first, path) in &series {
                     if path.len() < 2 {
                         continue;
                     }

@@ -138,14 +138,13 @@ fn series(layer: &PlannedLayer) -> Vec<Vec<usize>> {
         return vec![all];
     }
     // Series in order of first appearance, found by hash (many series stay linear).
-    let mut series: indexmap::IndexMap<Vec<Option<String>>, Vec<usize>> = indexmap::IndexMap::new();
-    for i in 0..layer.data.len {
+    let series = crate::index::group_rows(layer.data.len, &|i| {
         let mut key = Vec::with_capacity(cols.len());
         for v in &cols {
             key.push(v.key(i));
         }
-        series.entry(key).or_default().push(i);
-    }
+        key
+    });
     let mut out = Vec::with_capacity(series.len());
     for (_, rows) in series {
         out.push(rows);
@@ -889,10 +888,13 @@ pub(super) fn segment_hits_box(p: (f64, f64), q: (f64, f64), b: Box4) -> bool {
 
 /// Boxes and segments indexed by the 32 px cells they touch, so that each
 /// new label is checked against its neighbours only (lookups by hash, as
-/// the house asks: thousands of labels stay near linear).
+/// the house asks: thousands of labels stay near linear): `cells[k]` is
+/// cell `keys[k]`'s items, `k` found by `index`.
 #[derive(Default)]
 pub(super) struct Grid {
-    cells: std::collections::HashMap<(i64, i64), Vec<usize>>,
+    index: crate::index::Index,
+    keys: Vec<(i64, i64)>,
+    cells: Vec<Vec<usize>>,
     boxes: Vec<Box4>,
     segs: Vec<((f64, f64), (f64, f64))>,
 }
@@ -907,6 +909,9 @@ impl Grid {
         let c = |v: f64| (v / CELL).floor().clamp(-1e6, 1e6) as i64;
         let (x0, x1, y0, y1) = (c(b.0), c(b.2), c(b.1), c(b.3));
         (x0, x1.min(x0 + 64), y0, y1.min(y0 + 64))
+    }
+    fn hash(h: crate::index::Hasher, (x, y): (i64, i64)) -> u64 {
+        h.u64(x as u64).u64(y as u64).finish()
     }
     /// Items are numbered: boxes as 2k, segments as 2k + 1.
     pub(super) fn add_box(&mut self, b: Box4) {
@@ -923,7 +928,14 @@ impl Grid {
         let (x0, x1, y0, y1) = Self::cells_of(b);
         for x in x0..=x1 {
             for y in y0..=y1 {
-                self.cells.entry((x, y)).or_default().push(id);
+                let (keys, c) = (&self.keys, (x, y));
+                match self.index.find_or_insert(&|h| Self::hash(h, c), &|k| keys[k as usize] == c, keys.len() as u32, &|k, h| Self::hash(h, keys[k as usize])) {
+                    Ok(k) => self.cells[k as usize].push(id),
+                    Err(_) => {
+                        self.keys.push(c);
+                        self.cells.push(vec![id]);
+                    }
+                }
             }
         }
     }
@@ -932,7 +944,8 @@ impl Grid {
         let (x0, x1, y0, y1) = Self::cells_of(b);
         for x in x0..=x1 {
             for y in y0..=y1 {
-                let Some(ids) = self.cells.get(&(x, y)) else { continue };
+                let Some(k) = self.index.find(Self::hash(self.index.hasher(), (x, y)), &|k| self.keys[k as usize] == (x, y)) else { continue };
+                let ids = &self.cells[k as usize];
                 for &id in ids {
                     let hit = if id % 2 == 0 { boxes_overlap(self.boxes[id / 2], b) } else { segment_hits_box(self.segs[id / 2].0, self.segs[id / 2].1, b) };
                     if hit {
