@@ -1,10 +1,7 @@
-//! One hash index for the engine's maps that need hashing (category
-//! places, column names, groups and series, stacks, the label grid, map
-//! keys), so the page's engine carries one copy of the probing code instead
-//! of a hash table's insert, find and rehash for each key and value type.
-//! (The readers' text dictionaries, `data::table::TextBuilder`, the hot
-//! path of a large CSV, keep their own `hashbrown` table: through this
-//! index a 1.4M-row CSV with text read 4-7 % slower; bench/README.md.)
+//! One hash index for every map of the engine that needs hashing (text
+//! dictionaries, category places, groups, the label grid), so the page's
+//! engine carries one copy of the probing code instead of a hash table's
+//! insert, find and rehash for each key and value type.
 //!
 //! [`Index`] is not generic: it maps a key's hash to a `u32` id the caller
 //! chooses (usually the key's place in a `Vec` the caller keeps, which also
@@ -14,8 +11,8 @@
 //!
 //! Open addressing with linear probing, at most three quarters full: a
 //! slot is a byte (empty, or 7 bits of the hash, so most slots of a run are
-//! passed without comparing keys) and a `u32` id, 5 bytes a slot. The hash
-//! has no secret key (nothing on the page gives one), so keys crafted to collide could make probing quadratic; an insert that
+//! passed without comparing keys) and a `u32` id, 5 bytes a slot. The hash has no secret key (nothing on the page gives one), so
+//! keys crafted to collide could make probing quadratic; an insert that
 //! probes more than [`LONG_PROBE`] slots draws a new seed and hashes every
 //! entry again (at most [`RESEEDS`] times an index), so keys colliding under
 //! one seed are spread by the next.
@@ -138,6 +135,19 @@ impl Index {
     /// the hasher they are given (`entry` is called when the table grows or
     /// draws a new seed, never for `new`, which may not be stored yet).
     pub fn find_or_insert(&mut self, key: &dyn Fn(Hasher) -> u64, eq: &dyn Fn(u32) -> bool, new: u32, entry: &dyn Fn(u32, Hasher) -> u64) -> Result<u32, u32> {
+        self.find_or_insert_inline(key, eq, new, entry)
+    }
+    /// [`find_or_insert`](Self::find_or_insert) compiled into its caller,
+    /// where the closures are known: for the hot path only (the text
+    /// dictionaries of the readers), as each caller gets a copy.
+    #[inline(always)]
+    pub fn find_or_insert_inline(
+        &mut self,
+        key: &dyn Fn(Hasher) -> u64,
+        eq: &dyn Fn(u32) -> bool,
+        new: u32,
+        entry: &dyn Fn(u32, Hasher) -> u64,
+    ) -> Result<u32, u32> {
         // At most three quarters full.
         if 4 * (self.len as usize + 1) > 3 * self.tags.len() {
             self.rebuild((2 * self.tags.len()).max(8), entry);
@@ -163,7 +173,7 @@ impl Index {
     }
     /// `Ok(id)` when found, else `Err(the empty slot ending the run)`, with the
     /// slots looked at.
-    #[inline]
+    #[inline(always)]
     fn probe(&self, hash: u64, eq: &dyn Fn(u32) -> bool) -> (Result<u32, usize>, usize) {
         if self.tags.is_empty() {
             return (Err(0), 0);
@@ -298,9 +308,10 @@ pub(crate) fn probes() -> u64 {
 /// `n` distinct 16-byte keys whose hashes under a fresh index's seed are
 /// all the same: the first 8-byte word is free, the second solved for (each
 /// step of [`Hasher::bytes`] can be undone), as an attacker knowing the
-/// hash would craft them.
+/// hash would craft them. `ascii`: only keys of bytes below 0x80 (valid
+/// UTF-8, so they can be text cells), found by trying first words.
 #[cfg(test)]
-pub(crate) fn colliding_keys(n: usize) -> Vec<Vec<u8>> {
+pub(crate) fn colliding_keys(n: usize, ascii: bool) -> Vec<Vec<u8>> {
     // PRIME's inverse mod 2^64 by Newton's iteration.
     let mut inv: u64 = PRIME;
     for _ in 0..6 {
@@ -313,11 +324,14 @@ pub(crate) fn colliding_keys(n: usize) -> Vec<Vec<u8>> {
     let mut c: u64 = 0;
     while out.len() < n {
         c += 1;
-        // Seven bits a byte: distinct first words.
+        // Seven bits a byte: every first word is ASCII, and distinct.
         let first: [u8; 8] = std::array::from_fn(|b| (c >> (7 * b)) as u8 & 0x7f);
         let mut h = start ^ 16u64.wrapping_mul(PRIME);
         h = (h ^ u64::from_le_bytes(first)).wrapping_mul(PRIME).rotate_left(29);
         let second = (target.rotate_right(29).wrapping_mul(inv) ^ h).to_le_bytes();
+        if ascii && second.iter().any(|b| *b >= 0x80) {
+            continue;
+        }
         let mut k = first.to_vec();
         k.extend_from_slice(&second);
         out.push(k);
@@ -410,7 +424,7 @@ mod tests {
     /// index must stay linear.
     #[test]
     fn crafted_collisions_do_not_go_quadratic() {
-        let keys = colliding_keys(20_000);
+        let keys = colliding_keys(20_000, false);
         let start = Index::new().hasher();
         // They do collide under the first seed.
         for k in &keys[..100] {

@@ -653,6 +653,39 @@ mod tests {
         ReadOptions::default()
     }
 
+    /// A hostile text column: cells crafted so that their hashes collide
+    /// under the dictionary index's first seed (crate::index::colliding_keys),
+    /// each twice in a row so the reader keeps a dictionary. Reading stays linear in
+    /// probes (n cells colliding would cost n * n / 2 without the index's
+    /// reseed): counted, not timed.
+    #[test]
+    fn colliding_text_cells_stay_linear() {
+        let keys = crate::index::colliding_keys(5000, true);
+        let mut csv = b"v\n".to_vec();
+        for k in keys.iter().flat_map(|k| [k, k]) {
+            csv.push(b'"');
+            for &c in k {
+                if c == b'"' {
+                    csv.push(b'"');
+                }
+                csv.push(c);
+            }
+            csv.extend_from_slice(b"\"\n");
+        }
+        let before = crate::index::probes();
+        let t = read(&csv, b',', &opts()).unwrap();
+        let probes = crate::index::probes() - before;
+        let Some(Column::Text(col)) = t.by_name("v") else { panic!("{:?}", t.by_name("v")) };
+        assert_eq!((col.len(), col.dict_len()), (10_000, 5000));
+        assert_eq!(col.get(14).map(str::as_bytes), Some(&keys[7][..]));
+        assert_eq!(col.get(15).map(str::as_bytes), Some(&keys[7][..]));
+        // Linear: a few probes a cell, plus the colliding run before the
+        // reseed (up to LONG_PROBE keys, looked up and inserted), where
+        // quadratic would be about 5000 * 5000 = 2.5e7.
+        let long = crate::index::LONG_PROBE as u64;
+        assert!(probes < 20 * 10_000 + long * long, "{probes} probes for 10,000 cells");
+    }
+
     fn t(s: &str) -> Table {
         read(s.as_bytes(), b',', &opts()).unwrap()
     }

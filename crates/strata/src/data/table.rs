@@ -450,30 +450,15 @@ impl FromIterator<Option<String>> for Text {
     }
 }
 
-/// Builds a [`Text`] column: a hash table of codes finds a value already
-/// seen (lookups by value go through a hash table, never a search a row).
+/// Builds a [`Text`] column: a hash index of codes finds a value already
+/// seen (lookups by value go through [`crate::index::Index`], never a
+/// search a row).
 #[derive(Default)]
 pub struct TextBuilder {
     codes: Vec<u32>,
     dict: Vec<u8>,
     ends: Vec<u32>,
-    seen: hashbrown::HashTable<u32>,
-}
-
-/// FNV-1a over 8-byte words: fast, and the same on every platform (no
-/// random seed, so nothing depends on the run).
-#[inline]
-fn hash(b: &[u8]) -> u64 {
-    let mut h: u64 = 0xcbf2_9ce4_8422_2325 ^ b.len() as u64;
-    let mut chunks = b.chunks_exact(8);
-    for c in &mut chunks {
-        h = (h ^ u64::from_le_bytes([c[0], c[1], c[2], c[3], c[4], c[5], c[6], c[7]])).wrapping_mul(0x0000_0100_0000_01b3).rotate_left(29);
-    }
-    for &x in chunks.remainder() {
-        h = (h ^ x as u64).wrapping_mul(0x0000_0100_0000_01b3);
-    }
-    // Spread the high bits down: the table uses both ends of the hash.
-    h ^ (h >> 32)
+    seen: crate::index::Index,
 }
 
 impl TextBuilder {
@@ -495,24 +480,24 @@ impl TextBuilder {
             self.codes.push(MISSING);
             return true;
         };
-        let h = hash(v);
-        let (dict, ends) = (&self.dict, &self.ends);
-        if let Some(&k) = self.seen.find(h, |&k| Self::entry(dict, ends, k) == v) {
-            self.codes.push(k);
-            return true;
-        }
-        let Ok(end) = u32::try_from(self.dict.len() + v.len()) else {
-            // Past 4 GiB of distinct text: the row reads as missing (every
-            // row still gets a code), and the caller is told.
-            self.codes.push(MISSING);
-            return false;
+        let TextBuilder { codes, dict, ends, seen } = self;
+        let eq = |k: u32| Self::entry(dict, ends, k) == v;
+        let Ok(end) = u32::try_from(dict.len() + v.len()) else {
+            // Past 4 GiB of distinct text: a new value reads as missing
+            // (every row still gets a code), and the caller is told.
+            let found = seen.find(seen.hasher().bytes(v).finish(), &eq);
+            codes.push(found.unwrap_or(MISSING));
+            return found.is_some();
         };
-        let k = self.ends.len() as u32;
-        self.dict.extend_from_slice(v);
-        self.ends.push(end);
-        let (dict, ends) = (&self.dict, &self.ends);
-        self.seen.insert_unique(h, k, |&k| hash(Self::entry(dict, ends, k)));
-        self.codes.push(k);
+        let new = ends.len() as u32;
+        match seen.find_or_insert_inline(&|h| h.bytes(v).finish(), &eq, new, &|k, h| h.bytes(Self::entry(dict, ends, k)).finish()) {
+            Ok(k) => codes.push(k),
+            Err(k) => {
+                dict.extend_from_slice(v);
+                ends.push(end);
+                codes.push(k);
+            }
+        }
         true
     }
     /// The column; `Err(code)` names the first dictionary value that is not UTF-8.
