@@ -105,8 +105,8 @@ pub fn hex_to_oklab(s: &str) -> Option<[f64; 3]> {
 /// at constant lightness and hue until the colour fits sRGB.
 pub fn oklch_to_hex(l: f64, c: f64, h: f64) -> String {
     let lab = |c: f64| {
-        let t = h.to_radians();
-        [l, c * math::cos(t), c * math::sin(t)]
+        let (sin, cos) = math::sin_cos_deg(h);
+        [l, c * cos, c * sin]
     };
     let fits = |rgb: [f64; 3]| rgb.iter().all(|v| (-1e-6..=1.0 + 1e-6).contains(v));
     let mut rgb = oklab_to_linear(lab(c));
@@ -256,8 +256,8 @@ pub const ESTUARY: Ramp =
 pub const RAMPS: [Ramp; 7] = [LAGOON, LOAM, HEATHER, CROSSING, RIDGE, DUSK, ESTUARY];
 
 fn oklch_to_lab(s: [f64; 3]) -> [f64; 3] {
-    let t = s[2].to_radians();
-    [s[0], s[1] * math::cos(t), s[1] * math::sin(t)]
+    let (sin, cos) = math::sin_cos_deg(s[2]);
+    [s[0], s[1] * cos, s[1] * sin]
 }
 
 impl Ramp {

@@ -497,7 +497,7 @@ fn h_label_overhang(lay: &PlotLayout, ts: f64) -> (f64, f64) {
     let fw = lay.frame.width;
     let w = |t: &crate::scale::Tick| guides::label_width(t, ts);
     if lay.h_angle != 0.0 {
-        let c = crate::math::cos((-lay.h_angle).to_radians());
+        let c = crate::math::sin_cos_deg(-lay.h_angle).1;
         return (max_over(&lay.h_ticks, &|t| w(t) * c - t.unit * fw), 0.0);
     }
     (max_over(&lay.h_ticks, &|t| w(t) / 2.0 - t.unit * fw), max_over(&lay.h_ticks, &|t| w(t) / 2.0 - (1.0 - t.unit) * fw))
@@ -660,7 +660,7 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
     };
     // Rotated labels reach left of their ticks: widen the left margin for them.
     let (left, frame_w, h_ticks, h_angle) = if h_angle != 0.0 && h_shown {
-        let c = crate::math::cos((-h_angle).to_radians());
+        let c = crate::math::sin_cos_deg(-h_angle).1;
         let reach = max_over(&h_ticks, &|t| guides::label_width(t, inp.ts) * c - t.unit * frame_w - (left - x0));
         if reach > 0.0 {
             let (l, w) = (left + reach, (frame_w - reach).max(20.0));

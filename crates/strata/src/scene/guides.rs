@@ -266,7 +266,7 @@ fn category_bottom(full: Vec<Tick>, length: f64, max_label_height: f64, ts: f64)
     }
     // 3. Turned: every label keeps its own tick.
     for angle in [ROTATION, -90.0] {
-        let sin = crate::math::sin((-angle).to_radians());
+        let sin = crate::math::sin_cos_deg(-angle).0;
         if room >= ts * text::LINE_HEIGHT / sin {
             let max_w = max_label_height / sin;
             return (relabel(&full, shorten_unique(&labels, max_w, ts)), angle);
@@ -645,7 +645,7 @@ pub fn bottom_labels_height(ticks: &[Tick], angle: f64, ts: f64) -> f64 {
     if angle == 0.0 {
         ticks.iter().map(label_lines).max().unwrap_or(1) as f64 * ts * text::LINE_HEIGHT
     } else {
-        let s = crate::math::sin((-angle).to_radians());
+        let s = crate::math::sin_cos_deg(-angle).0;
         widest_label(ticks, ts) * s + ts * text::LINE_HEIGHT * s
     }
 }
@@ -1149,7 +1149,7 @@ mod tests {
         let (t, a) = bottom_ticks(&s, 400.0, 6, None, en, 60.0, TICK_SIZE);
         assert_eq!(a, ROTATION);
         assert_eq!(t.len(), 12);
-        let max_w = 60.0 / crate::math::sin((-ROTATION).to_radians());
+        let max_w = 60.0 / crate::math::sin_cos_deg(-ROTATION).0;
         assert!(t.iter().all(|t| text::width(&t.label, TICK_SIZE, false) <= max_w + 1e-9 && t.label.contains('\u{2026}')));
         // Cut at the end they would all read "Orchard bl…"; the shared words go instead.
         assert_eq!(t[3].label, "\u{2026}3");

@@ -49,13 +49,13 @@ pub fn shape_path(i: usize, cx: f64, cy: f64, r: f64) -> Vec<Seg> {
         MarkShape::Star => {
             // Five points; ten triangles of sides s and 0.4 s at 36
             // degrees have area 10 x 0.5 x 0.4 s^2 sin 36.
-            let sin36 = math::sin(std::f64::consts::PI / 5.0);
+            let sin36 = math::sin_cos_deg(36.0).0;
             let s = (area / (2.0 * sin36)).sqrt();
             let mut p = Vec::new();
             for k in 0..10 {
-                let ang = std::f64::consts::PI / 5.0 * k as f64 - std::f64::consts::FRAC_PI_2;
+                let (sin, cos) = math::sin_cos_deg(36.0 * k as f64 - 90.0);
                 let rr = if k % 2 == 0 { s } else { s * 0.4 };
-                p.push((rr * math::cos(ang), rr * math::sin(ang)));
+                p.push((rr * cos, rr * sin));
             }
             p
         }
