@@ -13,6 +13,7 @@
 //! falls back to the full engine on that error.
 
 use super::{Coords, Geometry, ScaleKind, Spec, Stat};
+use serde_json::Value;
 
 /// The first part of `spec` that only the full engine draws: its JSON path
 /// and the word that asks for it; `None` for a spec the core draws.
@@ -66,6 +67,57 @@ pub fn needs_full(spec: &Spec) -> Option<(String, &'static str)> {
                     continue;
                 };
                 return Some((path(&format!("stat.{word}")), word));
+            }
+            _ => {}
+        }
+    }
+    None
+}
+
+/// [`needs_full`] on the checked JSON value, before it is read: the same
+/// path and word for every spec the shape check accepts (tests/full_engine.rs
+/// holds the two together). The core engine refuses with it, so it never
+/// reads the parts only the full engine draws and leaves their readers out.
+pub fn needs_full_value(v: &Value) -> Option<(String, &'static str)> {
+    // The shape check accepts no null: a key that is there is set.
+    let has = |key: &str| v.get(key).is_some();
+    let at = |path: &str, word| Some((path.to_string(), word));
+    let layers = v.get("layers").and_then(Value::as_array).map_or(&[][..], Vec::as_slice);
+    if has("shapes") {
+        return at("shapes", "shapes");
+    }
+    match v.get("coords") {
+        Some(Value::String(w)) if w == "polar" => return at("coords", "polar"),
+        Some(Value::String(w)) if w == "map" => return at("coords", "map"),
+        Some(c @ Value::Object(_)) => return at("coords", if c.get("kind").and_then(Value::as_str) == Some("map") { "map" } else { "polar" }),
+        _ => {}
+    }
+    let draw = |l: &Value, w: &str| l.get("draw").and_then(Value::as_str) == Some(w);
+    if let Some(i) = layers.iter().position(|l| draw(l, "region")) {
+        return Some((format!("layers[{i}].draw"), "region"));
+    }
+    if v.get("derive").and_then(Value::as_object).is_some_and(|d| !d.is_empty()) {
+        return at("derive", "derive");
+    }
+    for key in ["where", "unpivot", "panels"] {
+        if has(key) {
+            return Some((key.to_string(), key));
+        }
+    }
+    if v.get("scales").and_then(|s| s.get("color")).and_then(|c| c.get("kind")).and_then(Value::as_str) == Some("steps") {
+        return at("scales.color.kind", "steps");
+    }
+    for (i, l) in layers.iter().enumerate() {
+        let path = |key: &str| format!("layers[{i}].{key}");
+        if draw(l, "box") {
+            return Some((path("draw"), "box"));
+        }
+        match l.get("stat") {
+            Some(Value::String(w)) if w == "box" => return Some((path("stat"), "box")),
+            Some(o @ Value::Object(_)) => {
+                if let Some(word) = ["fit", "density", "window", "interval"].into_iter().find(|w| o.get(*w).is_some()) {
+                    return Some((path(&format!("stat.{word}")), word));
+                }
             }
             _ => {}
         }
