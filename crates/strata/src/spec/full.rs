@@ -27,10 +27,8 @@ pub fn needs_full(spec: &Spec) -> Option<(String, &'static str)> {
         Coords::Polar(_) => return at("coords", "polar"),
         Coords::Cartesian => {}
     }
-    for (i, l) in spec.layers.iter().enumerate() {
-        if l.draw == Geometry::Region {
-            return Some((format!("layers[{i}].draw"), "region"));
-        }
+    if let Some(i) = spec.layers.iter().position(|l| l.draw == Geometry::Region) {
+        return layer_at(i, "", "draw", "region");
     }
     if !spec.derive.is_empty() {
         return at("derive", "derive");
@@ -48,12 +46,11 @@ pub fn needs_full(spec: &Spec) -> Option<(String, &'static str)> {
         return at("scales.color.kind", "steps");
     }
     for (i, l) in spec.layers.iter().enumerate() {
-        let path = |key: &str| format!("layers[{i}].{key}");
         if l.draw == Geometry::Box {
-            return Some((path("draw"), "box"));
+            return layer_at(i, "", "draw", "box");
         }
         match &l.stat {
-            Stat::Box => return Some((path("stat"), "box")),
+            Stat::Box => return layer_at(i, "", "stat", "box"),
             Stat::Object(o) => {
                 let word = if o.fit.is_some() {
                     "fit"
@@ -66,7 +63,7 @@ pub fn needs_full(spec: &Spec) -> Option<(String, &'static str)> {
                 } else {
                     continue;
                 };
-                return Some((path(&format!("stat.{word}")), word));
+                return layer_at(i, "stat.", word, word);
             }
             _ => {}
         }
@@ -94,7 +91,7 @@ pub fn needs_full_value(v: &Value) -> Option<(String, &'static str)> {
     }
     let draw = |l: &Value, w: &str| l.get("draw").and_then(Value::as_str) == Some(w);
     if let Some(i) = layers.iter().position(|l| draw(l, "region")) {
-        return Some((format!("layers[{i}].draw"), "region"));
+        return layer_at(i, "", "draw", "region");
     }
     if v.get("derive").and_then(Value::as_object).is_some_and(|d| !d.is_empty()) {
         return at("derive", "derive");
@@ -108,19 +105,24 @@ pub fn needs_full_value(v: &Value) -> Option<(String, &'static str)> {
         return at("scales.color.kind", "steps");
     }
     for (i, l) in layers.iter().enumerate() {
-        let path = |key: &str| format!("layers[{i}].{key}");
         if draw(l, "box") {
-            return Some((path("draw"), "box"));
+            return layer_at(i, "", "draw", "box");
         }
         match l.get("stat") {
-            Some(Value::String(w)) if w == "box" => return Some((path("stat"), "box")),
+            Some(Value::String(w)) if w == "box" => return layer_at(i, "", "stat", "box"),
             Some(o @ Value::Object(_)) => {
                 if let Some(word) = ["fit", "density", "window", "interval"].into_iter().find(|w| o.get(*w).is_some()) {
-                    return Some((path(&format!("stat.{word}")), word));
+                    return layer_at(i, "stat.", word, word);
                 }
             }
             _ => {}
         }
     }
     None
+}
+
+/// The answer for a part of layer `i`: `layers[i].{prefix}{key}` and the word.
+#[inline(never)]
+fn layer_at(i: usize, prefix: &str, key: &str, word: &'static str) -> Option<(String, &'static str)> {
+    Some((format!("layers[{i}].{prefix}{key}"), word))
 }
