@@ -5,9 +5,13 @@
 //! `unpivot`, no fitted or smoothed statistics (`fit`, `density`, `window`,
 //! `interval`, box plots), no polar coordinates, no `steps` colour scale,
 //! no small multiples (`panels`). A spec that asks for one of those takes
-//! the full engine instead. [`needs_full`] says so in every build (the core refuses
-//! such a spec with `spec.needs_full_engine` at the path it returns, before
-//! reading any data); `<strata-chart>` guesses the same from the spec's text
+//! the full engine instead. [`needs_full`] says so in every build; the core
+//! refuses such a spec with `spec.needs_full_engine` at the path that
+//! [`needs_full_value`] returns from the checked JSON value, after the
+//! shape check (so a mistake anywhere is still reported, located, by both
+//! engines) and before reading it, so the readers of those parts are not
+//! in the core (spec/read.rs: the lines under `feature = "full"`);
+//! `<strata-chart>` guesses the same from the spec's text
 //! with a short word list (`FULL_WORDS` in www/src/strata-chart.js; the test
 //! `full_engine_words` in tests/full_engine.rs holds the two together) and
 //! falls back to the full engine on that error.
