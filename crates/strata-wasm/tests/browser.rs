@@ -126,3 +126,19 @@ fn the_core_checks_data_sha256_against_the_pages_digest() {
         assert_eq!((v["errors"][0]["code"].as_str(), v["errors"][0]["path"].as_str()), (Some("data.sha256_unchecked"), Some("data.sha256")), "{v}");
     }
 }
+
+#[wasm_bindgen_test]
+fn a_mistake_in_a_full_engine_part_comes_back_located_from_either_engine() {
+    // The core checks every key's shape before it refuses a full-engine
+    // part (from the JSON value, unread), so a mistake there is answered,
+    // located, by both engines alike; never `spec.needs_full_engine`, on
+    // which the element would switch engines.
+    for (spec, code, path) in [
+        (r#"{"layers":[{"draw":"line","x":"a","y":"b","stat":{"window":{"rows":2.5}}}]}"#, "spec.wrong_type", "layers[0].stat.window.rows"),
+        (r#"{"layers":[{"draw":"point","x":"a","y":"b"}],"panels":{"by":"a","colums":2}}"#, "spec.unknown_key", "panels.colums"),
+    ] {
+        let v: serde_json::Value = serde_json::from_str(&strata_wasm::render(spec, None, "", 640.0, None)).unwrap();
+        assert_eq!(v["errors"].as_array().map(Vec::len), Some(1), "{v}");
+        assert_eq!((v["errors"][0]["code"].as_str(), v["errors"][0]["path"].as_str()), (Some(code), Some(path)), "{v}");
+    }
+}

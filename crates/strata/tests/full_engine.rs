@@ -32,6 +32,9 @@ fn full_engine_words() {
             let Ok(spec) = strata::parse_spec(&text) else { continue };
             let rust = strata::spec::needs_full(&spec);
             assert_eq!(words.is_match(&text), rust.is_some(), "{}: needs_full says {rust:?}", f.display());
+            // The core engine refuses from the JSON value, before reading.
+            let value: serde_json::Value = serde_json::from_str(&text).unwrap();
+            assert_eq!(strata::spec::needs_full_value(&value), rust, "{}", f.display());
             checked += 1;
         }
     }
@@ -94,6 +97,72 @@ fn needs_full_names_the_path_and_word() {
         let spec = strata::parse_spec(text).unwrap_or_else(|e| panic!("{text}: {e}"));
         let got = strata::spec::needs_full(&spec);
         assert_eq!(got.as_ref().map(|(p, w)| (p.as_str(), *w)), want, "{text}");
+        let value: serde_json::Value = serde_json::from_str(text).unwrap();
+        assert_eq!(strata::spec::needs_full_value(&value), got, "the core's refusal from the value, on {text}");
         assert_eq!(words.is_match(text), want.is_some(), "the element's words on {text}");
+    }
+}
+
+/// The core engine refuses from the checked JSON value (`needs_full_value`,
+/// before reading), the full engine reads: both name the first full-engine
+/// part alike, in `needs_full`'s order, when a spec has several.
+#[test]
+fn the_value_and_the_read_spec_name_the_same_first_part() {
+    let layer = |draw: &str, stat: &str| format!(r#"{{"draw":"{draw}","x":"a","y":"b"{stat}}}"#);
+    let parts: [(&str, String); 9] = [
+        ("shapes", r#""shapes":{"features":[]}"#.into()),
+        ("coords", r#""coords":{"kind":"map","projection":"mercator"}"#.into()),
+        ("derive", r#""derive":{"c":"a + b"}"#.into()),
+        ("where", r#""where":"a > 1""#.into()),
+        ("unpivot", r#""unpivot":{"columns":["a"],"into":["k","v"]}"#.into()),
+        ("panels", r#""panels":{"by":"a"}"#.into()),
+        ("steps", r#""scales":{"color":{"kind":"steps","count":4}}"#.into()),
+        ("region", r#""coords":"cartesian""#.into()),
+        ("none", r#""derive":{}"#.into()),
+    ];
+    let layers = [
+        layer("point", ""),
+        layer("line", r#","stat":{"summary":"mean","interval":"ci95"}"#),
+        layer("box", r#","stat":"box""#),
+        layer("bar", r#","stat":"box""#),
+        layer("region", ""),
+        layer("line", r#","stat":{"window":{"rows":3,"align":"trailing"}}"#),
+        layer("area", r#","stat":{"density":{"bandwidth":"silverman"}}"#),
+        layer("line", r#","stat":{"fit":"loess","span":0.5,"band":0.9}"#),
+    ];
+    let mut checked = 0;
+    // Every pair of top-level parts with every pair of layers.
+    for (_, a) in &parts {
+        for (_, b) in &parts {
+            for l1 in &layers {
+                for l2 in &layers {
+                    let text = if a == b { format!(r#"{{{a},"layers":[{l1},{l2}]}}"#) } else { format!(r#"{{{a},{b},"layers":[{l1},{l2}]}}"#) };
+                    let value: serde_json::Value = serde_json::from_str(&text).unwrap();
+                    let Ok(spec) = strata::spec_from_value(&value) else { continue };
+                    assert_eq!(strata::spec::needs_full_value(&value), strata::spec::needs_full(&spec), "{text}");
+                    checked += 1;
+                }
+            }
+        }
+    }
+    assert!(checked > 2000, "{checked}");
+}
+
+/// A spec whose full-engine part has a mistake gets the mistake, located,
+/// from either engine (the core checks every key's shape before it
+/// refuses), never `spec.needs_full_engine`; the page shows it as is.
+#[test]
+fn a_mistake_in_a_full_engine_part_is_located_first() {
+    let cases = [
+        (r#"{"layers":[{"draw":"line","x":"a","y":"b","stat":{"window":{"rows":2.5}}}]}"#, "layers[0].stat.window.rows", "spec.wrong_type"),
+        (r#"{"layers":[{"draw":"point","x":"a","y":"b"}],"coords":{"kind":"polar","angle":"z"}}"#, "coords.angle", "spec.unknown_word"),
+        (r#"{"layers":[{"draw":"point","x":"a","y":"b"}],"panels":{"by":"a","colums":2}}"#, "panels.colums", "spec.unknown_key"),
+        (r#"{"layers":[{"draw":"point","x":"a","y":"b"}],"unpivot":{"columns":"a","into":["k","v"]}}"#, "unpivot.columns", "spec.wrong_type"),
+        (r#"{"layers":[{"draw":"region","key":"k"}],"shapes":{"features":[],"kye":"id"}}"#, "shapes.kye", "spec.unknown_key"),
+    ];
+    for (text, path, code) in cases {
+        let e = strata::parse_spec(text).unwrap_err().0;
+        assert_eq!((e[0].at.path.as_str(), e[0].code.as_str()), (path, code), "{text}: {e:?}");
+        assert!(e.iter().all(|d| d.code != "spec.needs_full_engine"), "{text}: {e:?}");
     }
 }

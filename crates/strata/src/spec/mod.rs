@@ -13,7 +13,7 @@ mod read;
 pub mod shape;
 mod suggest;
 
-pub use full::needs_full;
+pub use full::{needs_full, needs_full_value};
 pub use parse::{parse_spec_with, spec_from_value_with, ExtraCheck};
 
 /// A part of a spec (a layer, a scale...) from JSON text, unchecked: for tests.
@@ -623,6 +623,7 @@ pub struct Polar {
     pub inner: f64,
 }
 
+#[cfg(feature = "full")]
 fn default_angle() -> AngleChannel {
     AngleChannel::X
 }

@@ -48,6 +48,14 @@ pub fn spec_from_value_with(value: &Value, extra: ExtraCheck) -> Result<Spec, Er
     if !errors.is_empty() {
         return Err(Errors(errors));
     }
+    // The core engine refuses a part only the full engine draws here,
+    // before reading it, so its readers are not in the core (the page then
+    // draws the chart with the full engine). A spec with errors got them
+    // above, in either engine, with their paths.
+    #[cfg(not(feature = "full"))]
+    if let Some((path, word)) = super::needs_full_value(value) {
+        return Err(crate::needs_full_engine(&path, word).into());
+    }
     // The shape check has already reported every problem with its path; a
     // value it accepts reads (tests/spec_schema.rs holds this on thousands
     // of mutations), so a failure here has no better path to give.

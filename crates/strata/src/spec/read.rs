@@ -340,6 +340,7 @@ impl Read for Stat {
 }
 
 impl Read for Coords {
+    #[cfg(feature = "full")]
     fn read(v: &Value) -> Result<Self, String> {
         if v.is_string() {
             return Ok(match word::<CoordWord>(v)? {
@@ -352,6 +353,15 @@ impl Read for Coords {
             MapCoords::read(v).map(Coords::Map)
         } else {
             Polar::read(v).map(Coords::Polar)
+        }
+    }
+
+    /// The core engine refused polar and map coordinates before reading.
+    #[cfg(not(feature = "full"))]
+    fn read(v: &Value) -> Result<Self, String> {
+        match word::<CoordWord>(v)? {
+            CoordWord::Cartesian => Ok(Coords::Cartesian),
+            _ => Err("the core engine leaves out polar and map coordinates".into()),
         }
     }
 }
@@ -378,6 +388,7 @@ impl Read for Robust {
     }
 }
 
+#[cfg(feature = "full")]
 impl Read for Bandwidth {
     fn read(v: &Value) -> Result<Self, String> {
         match v {
@@ -410,13 +421,15 @@ impl Read for Ticks {
 /// A struct read by [`fields`]: its value when every key is absent, which
 /// keys are required (a bit each), then one line per key, in the order its
 /// errors are kept: `"key": field` for a field that reads itself,
-/// `"key" ? field` for an optional word, `"key" = field` for a word.
+/// `"key" ? field` for an optional word, `"key" = field` for a word. A
+/// line under `#[cfg(feature = "full")]` is a key the core engine refuses
+/// before reading (`needs_full_value`), so its reader is not in the core.
 macro_rules! object {
-    ($ty:ident, $what:expr, $start:expr, $required:expr, { $($key:literal $how:tt $field:ident),+ $(,)? }) => {
+    ($ty:ident, $what:expr, $start:expr, $required:expr, { $($(#[$m:meta])* $key:literal $how:tt $field:ident),+ $(,)? }) => {
         impl Read for $ty {
             fn read(v: &Value) -> Result<Self, String> {
                 let mut s: $ty = $start;
-                fields(v, $what, &[$($key),+], $required, &mut [$(slot!($how s.$field)),+])?;
+                fields(v, $what, &[$($(#[$m])* $key),+], $required, &mut [$($(#[$m])* slot!($how s.$field)),+])?;
                 Ok(s)
             }
         }
@@ -435,6 +448,7 @@ macro_rules! slot {
     };
 }
 
+#[cfg(feature = "full")]
 object!(Unpivot, "struct Unpivot", Unpivot::default(), 0, { "columns": columns, "into": into });
 
 object!(Spec, "a spec object", Spec::default(), 0, {
@@ -444,12 +458,16 @@ object!(Spec, "a spec object", Spec::default(), 0, {
     "source": source,
     "description": description,
     "data": data,
+    #[cfg(feature = "full")]
     "shapes": shapes,
+    #[cfg(feature = "full")]
     "derive": derive,
+    #[cfg(feature = "full")]
     "where": where_,
     "layers": layers,
     "scales": scales,
     "coords": coords,
+    #[cfg(feature = "full")]
     "panels": panels,
     "notes": notes,
     "size": size,
@@ -457,6 +475,7 @@ object!(Spec, "a spec object", Spec::default(), 0, {
     "quiet": quiet,
     "locale" ? locale,
     "data_table" = data_table,
+    #[cfg(feature = "full")]
     "unpivot": unpivot,
 });
 
@@ -471,6 +490,7 @@ object!(DataObject, "a data URL string or an object with `url`, `format`, `types
     "missing": missing,
 });
 
+#[cfg(feature = "full")]
 object!(Shapes, "struct Shapes", Shapes::default(), 0, { "url": url, "features": features, "key": key, "sha256": sha256 });
 
 /// A layer with every key absent (`draw`, required, stands in as the first word).
@@ -531,10 +551,14 @@ object!(Style, "struct Style", Style::default(), 0, {
 object!(StatObject, "`none`, `count`, `box`, or an object with one of `bin`, `summary`, `fit`, `density`, `window`", StatObject::default(), 0, {
     "bin": bin,
     "summary" ? summary,
+    #[cfg(feature = "full")]
     "interval" ? interval,
+    #[cfg(feature = "full")]
     "fit" ? fit,
     "band": band,
+    #[cfg(feature = "full")]
     "density": density,
+    #[cfg(feature = "full")]
     "window": window,
     "p": p,
     "span": span,
@@ -542,8 +566,10 @@ object!(StatObject, "`none`, `count`, `box`, or an object with one of `bin`, `su
     "robust": robust,
 });
 
+#[cfg(feature = "full")]
 object!(DensitySpec, "struct DensitySpec", DensitySpec::default(), 0, { "bandwidth": bandwidth, "grid": grid });
 
+#[cfg(feature = "full")]
 object!(WindowSpec, "struct WindowSpec", WindowSpec::default(), 0, { "summary" ? summary, "rows": rows, "align" ? align });
 
 object!(BinSpec, "struct BinSpec", BinSpec::default(), 0, {
@@ -578,6 +604,7 @@ object!(ScaleSpec, "struct ScaleSpec", ScaleSpec::default(), 0, {
     "unit": unit,
 });
 
+#[cfg(feature = "full")]
 // `MapCoords::default()` holds the defaults of `projection`, `fit`,
 // `graticule` and `outline`; `kind` (required) has one word.
 object!(MapCoords, "struct MapCoords", MapCoords::default(), 1, {
@@ -591,6 +618,7 @@ object!(MapCoords, "struct MapCoords", MapCoords::default(), 1, {
     "outline": outline,
 });
 
+#[cfg(feature = "full")]
 object!(Polar, "struct Polar", Polar { kind: PolarKind::Polar, angle: default_angle(), start: 0.0, inner: 0.0 }, 1, {
     "kind" = kind,
     "angle" = angle,
@@ -598,6 +626,7 @@ object!(Polar, "struct Polar", Polar { kind: PolarKind::Polar, angle: default_an
     "inner": inner,
 });
 
+#[cfg(feature = "full")]
 object!(Panels, "struct Panels", Panels::default(), 0, {
     "by": by,
     "columns": columns,
@@ -661,7 +690,10 @@ mod tests {
         assert_eq!(q.iter().map(|(k, v)| (k.as_str(), *v)).collect::<Vec<_>>(), [("x", 3), ("y", 2)]);
         assert_eq!((q.shift_remove("x"), q.shift_remove("x"), q.len()), (Some(3), None, 1));
         // Defaults other than the type's own.
-        let m = MapCoords::read(&json!({"kind": "map"})).unwrap();
-        assert_eq!((m.projection, m.fit, m.outline), (ProjectionWord::EqualEarth, MapFit::Shapes, true));
+        #[cfg(feature = "full")]
+        {
+            let m = MapCoords::read(&json!({"kind": "map"})).unwrap();
+            assert_eq!((m.projection, m.fit, m.outline), (ProjectionWord::EqualEarth, MapFit::Shapes, true));
+        }
     }
 }
