@@ -437,7 +437,7 @@ fn found(v: &Value) -> String {
         Value::Null => "null".into(),
         Value::Bool(b) => format!("{b}"),
         Value::Number(_) => format!("the number {}", crate::json::to_string(v)),
-        Value::String(s) => format!("the text {}", excerpt(format!("{s:?}"))),
+        Value::String(s) => format!("the text {}", excerpt(quoted(s))),
         Value::Array(_) => "a list".into(),
         Value::Object(_) => "an object".into(),
     }
@@ -502,9 +502,17 @@ impl Shape {
     }
 }
 
+/// `s` in double quotes with JSON's escapes (the spec is JSON; and Rust's
+/// `{:?}` would bring core's Unicode printable tables into the page).
+fn quoted(s: &str) -> String {
+    let mut q = String::new();
+    crate::json::write_str(&mut q, s);
+    q
+}
+
 fn key_path(path: &str, key: &str) -> String {
     let plain = !key.is_empty() && key.chars().all(|c| c.is_alphanumeric() || c == '_' || c == '$');
-    let seg = if plain { key.to_string() } else { format!("{key:?}") };
+    let seg = if plain { key.to_string() } else { quoted(key) };
     if path.is_empty() {
         seg
     } else {
