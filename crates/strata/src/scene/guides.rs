@@ -538,23 +538,6 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
                 kids.push(axis_title(f.left + f.width / 2.0, y, axis.title, f.width, 0.0, pal, ts));
             }
         }
-        Side::Left => {
-            if axis.scale.is_discrete() {
-                kids.push(Node::Line { x1: f.left, y1: f.top, x2: f.left, y2: f.bottom(), paint: Paint::stroke(&pal.axis, 1.0) });
-            }
-            kids.extend(tick_marks(axis, f, pal));
-            for t in &axis.ticks {
-                let y = f.bottom() - t.unit * f.height;
-                let first = y + ts * text::CAP / 2.0 - (label_lines(t) - 1) as f64 * ts * text::LINE_HEIGHT / 2.0;
-                kids.push(named(axis, t, tick_text(f.left - GAP, first, t, Anchor::End, pal, ts)));
-            }
-            if !axis.title.is_empty() && axis.title_above {
-                kids.push(title_above(axis, f, pal, label_width));
-            } else if !axis.title.is_empty() {
-                let x = f.left - GAP - label_width - GAP - ts * (text::LINE_HEIGHT - text::ASCENT);
-                kids.push(axis_title(x, f.top + f.height / 2.0, axis.title, f.height, -90.0, pal, ts));
-            }
-        }
         Side::Top => {
             kids.push(Node::Line { x1: f.left, y1: f.top, x2: f.right(), y2: f.top, paint: Paint::stroke(&pal.axis, 1.0) });
             kids.extend(tick_marks(axis, f, pal));
@@ -587,23 +570,27 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
                 kids.push(axis_title(f.left + f.width / 2.0, y, axis.title, f.width, 0.0, pal, ts));
             }
         }
-        Side::Right => {
+        // Left and right: mirror images about the frame's edge (`s` the
+        // outward sign; `a - b` is `a + -1 * b` to the bit).
+        Side::Left | Side::Right => {
+            let (edge, s, anchor) = if axis.side == Side::Right { (f.right(), 1.0, Anchor::Start) } else { (f.left, -1.0, Anchor::End) };
             if axis.scale.is_discrete() {
-                kids.push(Node::Line { x1: f.right(), y1: f.top, x2: f.right(), y2: f.bottom(), paint: Paint::stroke(&pal.axis, 1.0) });
+                kids.push(Node::Line { x1: edge, y1: f.top, x2: edge, y2: f.bottom(), paint: Paint::stroke(&pal.axis, 1.0) });
             }
             kids.extend(tick_marks(axis, f, pal));
             for t in &axis.ticks {
                 let y = f.bottom() - t.unit * f.height;
                 let first = y + ts * text::CAP / 2.0 - (label_lines(t) - 1) as f64 * ts * text::LINE_HEIGHT / 2.0;
-                kids.push(named(axis, t, tick_text(f.right() + GAP, first, t, Anchor::Start, pal, ts)));
+                kids.push(named(axis, t, tick_text(edge + s * GAP, first, t, anchor, pal, ts)));
             }
             if !axis.title.is_empty() && axis.title_above {
                 kids.push(title_above(axis, f, pal, label_width));
             } else if !axis.title.is_empty() {
-                // Turned to read downward, the line's top faces right: its
-                // baseline sits the line's depth below ascent from the left.
-                let x = f.right() + GAP + label_width + GAP + ts * (text::LINE_HEIGHT - text::ASCENT);
-                kids.push(axis_title(x, f.top + f.height / 2.0, axis.title, f.height, 90.0, pal, ts));
+                // Turned to read along the axis (upward on the left, downward
+                // on the right, the line's top facing out): its baseline sits
+                // the line's depth below ascent from the inner side.
+                let x = edge + s * GAP + s * label_width + s * GAP + s * (ts * (text::LINE_HEIGHT - text::ASCENT));
+                kids.push(axis_title(x, f.top + f.height / 2.0, axis.title, f.height, 90.0 * s, pal, ts));
             }
         }
     }

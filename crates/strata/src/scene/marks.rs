@@ -73,6 +73,7 @@ pub(super) fn datum(layer: &PlannedLayer, i: usize) -> Datum {
     d
 }
 
+#[inline(never)]
 fn color_of(ctx: &Ctx, layer: &PlannedLayer, i: usize) -> String {
     if let Some(c) = layer.data.get(Channel::Color).and_then(|vals| ctx.scales.color_of(vals, i)) {
         return c;
@@ -82,6 +83,7 @@ fn color_of(ctx: &Ctx, layer: &PlannedLayer, i: usize) -> String {
 
 /// Unit position on x of row i (band centre for categories), moved by any
 /// jitter offset (a fraction of the band).
+#[inline(never)]
 fn ux(ctx: &Ctx, layer: &PlannedLayer, v: &Values, i: usize) -> Option<f64> {
     let u = ctx.scales.x.unit(v, i)?;
     let off = layer.data.get(Channel::XOffset).and_then(|o| o.num(i)).unwrap_or(0.0);
@@ -153,6 +155,7 @@ fn series(layer: &PlannedLayer) -> Vec<Vec<usize>> {
     out
 }
 
+#[inline(never)]
 fn series_datum(layer: &PlannedLayer, first: usize) -> Datum {
     let mut d = Datum::new();
     for (k, v) in &layer.data.channels {
@@ -213,6 +216,7 @@ fn mark_shape(s: PointShape) -> MarkShape {
 }
 
 /// A vertical (in data terms) segment from a to b at x with caps `cap` px wide.
+#[inline(never)]
 fn error_bar(ctx: &Ctx, ux: f64, a: f64, b: f64, cap: f64, c: &str, datum: Option<Datum>) -> Node {
     let p0 = ctx.coord.point(ux, a);
     let p1 = ctx.coord.point(ux, b);
@@ -352,7 +356,9 @@ fn series_units(ctx: &Ctx, layer: &PlannedLayer, rows: &RowSet, ych: Channel) ->
     };
     if let Some((origin, extent)) = column_of(ctx) {
         if rows.len() as f64 > 4.0 * extent.max(1.0) {
-            // Numbers on linear scales without offsets: map straight from the slices.
+            // Numbers on linear scales without offsets: map straight from the
+            // slices; others through the scales. One streaming pass (one copy
+            // of the M4 loop) for both, over either kind of row set.
             let direct = match (xv, yv, &ctx.scales.x, &ctx.scales.y, off) {
                 (
                     Values::Num(a) | Values::Time(a),
@@ -360,25 +366,27 @@ fn series_units(ctx: &Ctx, layer: &PlannedLayer, rows: &RowSet, ych: Channel) ->
                     PositionScale::Continuous { lo: xl, hi: xh, transform: Transform::Linear, .. },
                     PositionScale::Continuous { lo: yl, hi: yh, transform: Transform::Linear, .. },
                     None,
-                ) if xh != xl && yh != yl => {
-                    let (xl, yl) = (*xl, *yl);
-                    let (xs, ys) = (xh - xl, yh - yl);
-                    let (a, b) = (a.raw(), b.raw());
-                    let point = |(x, y): (f64, f64)| (x.is_finite() && y.is_finite()).then(|| ((x - xl) / xs, (y - yl) / ys));
-                    match rows {
-                        RowSet::All(_) => m4_stream(a.iter().zip(b).filter_map(|(x, y)| point((*x, *y))), origin, extent),
-                        RowSet::List(v) => m4_stream(v.iter().filter_map(|&i| point((a[i], b[i]))), origin, extent),
-                    }
-                }
-                // Through the scales (one streaming pass for both kinds of row set).
-                _ => {
-                    let (n, list) = match rows {
-                        RowSet::All(n) => (*n, None),
-                        RowSet::List(v) => (v.len(), Some(v.as_slice())),
-                    };
-                    m4_stream((0..n).filter_map(|k| unit(list.map_or(k, |v| v[k]))), origin, extent)
-                }
+                ) if xh != xl && yh != yl => Some((a.raw(), b.raw(), *xl, xh - xl, *yl, yh - yl)),
+                _ => None,
             };
+            let (n, list) = match rows {
+                RowSet::All(n) => (*n, None),
+                RowSet::List(v) => (v.len(), Some(v.as_slice())),
+            };
+            let direct = m4_stream(
+                (0..n).filter_map(|k| {
+                    let i = list.map_or(k, |v| v[k]);
+                    match direct {
+                        Some((a, b, xl, xs, yl, ys)) => {
+                            let (x, y) = (a[i], b[i]);
+                            (x.is_finite() && y.is_finite()).then(|| ((x - xl) / xs, (y - yl) / ys))
+                        }
+                        None => unit(i),
+                    }
+                }),
+                origin,
+                extent,
+            );
             if let Some((kept, n)) = direct {
                 return (kept, n, true);
             }
@@ -582,6 +590,7 @@ fn band_path(ctx: &Ctx, layer: &PlannedLayer, rows: &[usize], lo: Channel, hi: C
 /// The unit extent across x of row i: a share of the band for categories,
 /// x..x_end when an end is given, or 1 % of the axis; split among colour
 /// categories when the layer is arranged `beside`.
+#[inline(never)]
 fn x_extent(ctx: &Ctx, layer: &PlannedLayer, i: usize, fraction: f64, beside: &[String]) -> Option<(f64, f64)> {
     let xv = layer.data.get(Channel::X)?;
     let cx = ux(ctx, layer, xv, i)?;
@@ -621,6 +630,7 @@ fn beside_keys(ctx: &Ctx, layer: &PlannedLayer) -> Vec<String> {
     }
 }
 
+#[inline(never)]
 fn rect_node(ctx: &Ctx, x0: f64, x1: f64, y0: f64, y1: f64, paint: Paint, datum: Option<Datum>) -> Node {
     match ctx.coord.area(x0, x1, y0, y1) {
         Area::Rect { x, y, width, height } => Node::Rect { x, y, width, height, paint, datum },

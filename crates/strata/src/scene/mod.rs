@@ -61,9 +61,11 @@ impl Paint {
     pub fn numbers(&self) -> Vec<f64> {
         self.stroke_width.into_iter().chain(self.opacity).chain(self.dash.iter().flatten().copied()).collect()
     }
+    #[inline(never)]
     pub fn fill(c: &str) -> Self {
         Paint { fill: Some(c.to_string()), ..Default::default() }
     }
+    #[inline(never)]
     pub fn stroke(c: &str, width: f64) -> Self {
         Paint { fill: Some("none".into()), stroke: Some(c.to_string()), stroke_width: Some(width), ..Default::default() }
     }
