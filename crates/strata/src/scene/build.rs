@@ -113,7 +113,7 @@ pub fn build(plan: &Plan, opts: &SceneOptions) -> Scene {
     }
     if !header.is_empty() {
         top += if narrow { 4.0 } else { 8.0 };
-        children.push(Node::Group { class: "strata-header".into(), role: None, label: None, children: header });
+        children.push(Node::group("strata-header", header));
     }
 
     // Footer: the source line.
@@ -123,7 +123,7 @@ pub fn build(plan: &Plan, opts: &SceneOptions) -> Scene {
         let lines = text::wrap(&format!("Source: {s}"), size, false, width - 2.0 * pad);
         let h = lines.len() as f64 * size * text::LINE_HEIGHT;
         let (nodes, _) = text_block(&lines, pad, bottom - h, size, false, &pal.muted, "strata-source");
-        children.push(Node::Group { class: "strata-footer".into(), role: None, label: None, children: nodes });
+        children.push(Node::group("strata-footer", nodes));
         bottom -= h + 6.0;
     }
 
@@ -219,7 +219,7 @@ pub fn build(plan: &Plan, opts: &SceneOptions) -> Scene {
         }
     }
     if !legend_nodes.is_empty() {
-        children.push(Node::Group { class: "strata-legends".into(), role: None, label: None, children: legend_nodes });
+        children.push(Node::group("strata-legends", legend_nodes));
     }
 
     let label = chart.title.clone().unwrap_or_else(|| default_label(plan));
@@ -486,7 +486,7 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, names: GridNames, cells: &[Plan], ri
         titles.push(guides::axis_title(x, (span_top + span_bottom) / 2.0, v_title, span_bottom - span_top, angle, inp.pal, inp.ts));
     }
     if !titles.is_empty() {
-        out.push(Node::Group { class: "strata-axis-titles".into(), role: None, label: None, children: titles });
+        out.push(Node::group("strata-axis-titles", titles));
     }
     out
 }
@@ -653,6 +653,7 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
     let right = if v_right { right - v_axis_w } else { right };
     let frame_w = (right - left).max(20.0);
     let max_label_h = (bottom - top) * 0.3;
+    |w: f64| guides::bottom_ticks(h_scale, w, wanted(h_spec, w, if narrow { 70.0 } else { 90.0 }), h_spec.format.as_deref(), loc, max_label_h, inp.ts);
     let (h_ticks, h_angle) = if h_shown {
         guides::bottom_ticks(h_scale, frame_w, wanted(h_spec, frame_w, if narrow { 70.0 } else { 90.0 }), h_spec.format.as_deref(), loc, max_label_h, inp.ts)
     } else {
@@ -794,7 +795,7 @@ fn plot_draw(inp: &PlotInputs, plan: &Plan, lay: &PlotLayout, frame: Frame, draw
     }
     if !polar {
         let grid = guides::grid(value_axis, &coord, &pal);
-        children.push(Node::Group { class: "strata-grid".into(), role: None, label: None, children: grid });
+        children.push(Node::group("strata-grid", grid));
     }
     let ctx = Ctx { scales, coord, default_color: &pal.mark, text_size: inp.ts, palette: &pal, layers: &plan.layers };
     let mut layers = Vec::new();

@@ -121,7 +121,7 @@ pub fn zero_line(axis: &AxisGuide, coord: &Coord, pal: &Palette) -> Option<Node>
             Node::Line { x1: x, y1: f.top, x2: x, y2: f.bottom(), paint: Paint::stroke(&pal.text, width) }
         }
     };
-    Some(Node::Group { class: "strata-zero".into(), role: None, label: None, children: vec![line] })
+    Some(Node::group("strata-zero", vec![line]))
 }
 
 /// Width of a tick label: its widest line (a wrapped label holds `\n`).
@@ -1083,7 +1083,7 @@ pub fn polar(coord: &Coord, angle_is_x: bool, angle_ticks: &[Tick], radius_ticks
         labels.push(label(lx, baseline, &t.label, anchor, &pal.muted, "strata-tick", ts));
     }
     vec![
-        Node::Group { class: "strata-grid".into(), role: None, label: None, children: grid },
+        Node::group("strata-grid", grid),
         Node::Group { class: "strata-axis strata-axis-polar".into(), role: None, label: Some("polar axes".into()), children: labels },
     ]
 }

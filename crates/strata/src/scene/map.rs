@@ -149,10 +149,10 @@ pub fn draw(plan: &Plan, pal: &Palette, left: f64, top: f64, right: f64, bottom:
                 class: "strata-legend-label".into(),
             },
         ];
-        out.push(Node::Group { class: "strata-legend strata-no-data".into(), role: None, label: None, children: entry });
+        out.push(Node::group("strata-legend strata-no-data", entry));
     }
     if !back.is_empty() {
-        out.push(Node::Group { class: "strata-map-frame".into(), role: None, label: None, children: back });
+        out.push(Node::group("strata-map-frame", back));
     }
 
     for (li, layer) in plan.layers.iter().enumerate() {
@@ -293,7 +293,7 @@ pub fn draw(plan: &Plan, pal: &Palette, left: f64, top: f64, right: f64, bottom:
     }
     let notes = map_notes(plan, &p, &fitted, pal, bx);
     if !notes.is_empty() {
-        out.push(Node::Group { class: "strata-notes".into(), role: None, label: None, children: notes });
+        out.push(Node::group("strata-notes", notes));
     }
     out
 }

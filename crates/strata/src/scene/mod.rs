@@ -218,6 +218,7 @@ pub enum Node {
 }
 
 impl Node {
+    #[inline(never)]
     pub fn group(class: &str, children: Vec<Node>) -> Node {
         Node::Group { class: class.to_string(), role: None, label: None, children }
     }
