@@ -470,17 +470,7 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, names: GridNames, cells: &[Plan], ri
     if v_above {
         let y = strip_top - guides::title_above_height(inp.ts) + inp.ts * text::ASCENT;
         let (x, anchor) = if v_right { (right, Anchor::End) } else { (inp.left, Anchor::Start) };
-        titles.push(Node::Text {
-            x,
-            y,
-            text: v_title.to_string(),
-            size: inp.ts,
-            anchor,
-            bold: false,
-            angle: 0.0,
-            fill: inp.pal.text.clone(),
-            class: "strata-axis-title".into(),
-        });
+        titles.push(Node::text(x, y, v_title.to_string(), inp.ts, anchor, inp.pal.text.clone(), "strata-axis-title"));
     } else if !v_title.is_empty() {
         let (x, angle) = if v_right { (right - inp.ts * text::ASCENT, 90.0) } else { (inp.left + inp.ts * text::ASCENT, -90.0) };
         titles.push(guides::axis_title(x, (span_top + span_bottom) / 2.0, v_title, span_bottom - span_top, angle, inp.pal, inp.ts));
@@ -653,7 +643,6 @@ fn plot_layout(inp: &PlotInputs, plan: &Plan, x0: f64, right: f64, top: f64, bot
     let right = if v_right { right - v_axis_w } else { right };
     let frame_w = (right - left).max(20.0);
     let max_label_h = (bottom - top) * 0.3;
-    |w: f64| guides::bottom_ticks(h_scale, w, wanted(h_spec, w, if narrow { 70.0 } else { 90.0 }), h_spec.format.as_deref(), loc, max_label_h, inp.ts);
     let (h_ticks, h_angle) = if h_shown {
         guides::bottom_ticks(h_scale, frame_w, wanted(h_spec, frame_w, if narrow { 70.0 } else { 90.0 }), h_spec.format.as_deref(), loc, max_label_h, inp.ts)
     } else {

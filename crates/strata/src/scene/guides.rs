@@ -97,7 +97,7 @@ fn title_above(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> N
         Side::Right => (f.right() + GAP + label_width, Anchor::End),
         _ => (f.left - GAP - label_width, Anchor::Start),
     };
-    Node::Text { x, y, text: axis.title.to_string(), size: ts, anchor, bold: false, angle: 0.0, fill: pal.text.clone(), class: "strata-axis-title".into() }
+    Node::text(x, y, axis.title.to_string(), ts, anchor, pal.text.clone(), "strata-axis-title")
 }
 
 /// A stronger line at zero along the value axis, when its domain spans or
@@ -485,7 +485,7 @@ pub fn axis_title(x: f64, y: f64, title: &str, length: f64, angle: f64, pal: &Pa
 }
 
 fn label(x: f64, y: f64, s: &str, anchor: Anchor, fill: &str, class: &str, ts: f64) -> Node {
-    Node::Text { x, y, text: s.to_string(), size: ts, anchor, bold: false, angle: 0.0, fill: fill.to_string(), class: class.to_string() }
+    Node::text(x, y, s.to_string(), ts, anchor, fill.to_string(), class)
 }
 
 /// Grid lines for continuous scales (drawn under the marks).
@@ -873,17 +873,7 @@ fn row_layout(l: &Legend, max_width: f64) -> (Vec<(f64, usize)>, f64, f64) {
 
 fn legend_title(l: &Legend, x: f64, y: f64, pal: &Palette) -> Option<Node> {
     let ts = l.size;
-    (!l.title.is_empty()).then(|| Node::Text {
-        x,
-        y: y + ts * text::ASCENT,
-        text: l.title.clone(),
-        size: ts,
-        anchor: Anchor::Start,
-        bold: false,
-        angle: 0.0,
-        fill: pal.text.clone(),
-        class: "strata-legend-title".into(),
-    })
+    (!l.title.is_empty()).then(|| Node::text(x, y + ts * text::ASCENT, l.title.clone(), ts, Anchor::Start, pal.text.clone(), "strata-legend-title"))
 }
 
 fn symbol(body: &LegendBody, i: usize, cx: f64, cy: f64, pal: &Palette, default_color: &str) -> Node {

@@ -816,17 +816,15 @@ fn cells(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     // scatter drawn as tiles, or any tiles shaded by count).
     if d.get(Channel::Color).is_none() && max_count > 0.0 && !out.is_empty() {
         let f = ctx.coord.frame();
-        out.push(Node::Text {
-            x: f.right() - 4.0,
-            y: f.top + 12.0,
-            text: format!("Tiles shaded by number of points (darkest: {})", crate::format::value_label(max_count)),
-            size: 11.0,
-            anchor: Anchor::End,
-            bold: false,
-            angle: 0.0,
-            fill: ctx.default_color.to_string(),
-            class: "strata-note".into(),
-        });
+        out.push(Node::text(
+            f.right() - 4.0,
+            f.top + 12.0,
+            format!("Tiles shaded by number of points (darkest: {})", crate::format::value_label(max_count)),
+            11.0,
+            Anchor::End,
+            ctx.default_color.to_string(),
+            "strata-note",
+        ));
     }
     out
 }
@@ -1163,17 +1161,15 @@ fn end_labels(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     let cap = size * crate::text::CAP;
     let mut out = Vec::with_capacity(ends.len());
     for ((name, px, _, colour), y) in ends.into_iter().zip(at) {
-        out.push(Node::Text {
-            x: px + END_GAP,
-            y: y + cap / 2.0,
-            text: name,
+        out.push(Node::text(
+            px + END_GAP,
+            y + cap / 2.0,
+            name,
             size,
-            anchor: Anchor::Start,
-            bold: false,
-            angle: 0.0,
-            fill: readable_on(&colour, &ctx.palette.background),
-            class: "strata-label strata-end-label".into(),
-        });
+            Anchor::Start,
+            readable_on(&colour, &ctx.palette.background),
+            "strata-label strata-end-label",
+        ));
     }
     out
 }
@@ -1295,7 +1291,7 @@ fn labels(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         // A label on the background in the theme's text colour follows the
         // theme (dark mode restyles it); inside a mark it keeps its contrast.
         let class = if on_background && fill == pal.text { "strata-label strata-label-text" } else { "strata-label" };
-        out.push(Node::Text { x, y, text, size, anchor, bold: false, angle: 0.0, fill, class: class.into() });
+        out.push(Node::text(x, y, text, size, anchor, fill, class));
     }
     out
 }
@@ -1313,17 +1309,7 @@ fn centred_labels(ctx: &Ctx, layer: &PlannedLayer, size: f64) -> Vec<Node> {
         let (Some(a), Some(b)) = (ux(ctx, layer, xv, i), ctx.scales.y.unit(yv, i)) else { continue };
         let Some(text) = label_text(tv, i) else { continue };
         let (x, y) = ctx.coord.point(a, b);
-        out.push(Node::Text {
-            x,
-            y: y - 4.0,
-            text,
-            size,
-            anchor: Anchor::Middle,
-            bold: false,
-            angle: 0.0,
-            fill: color_of(ctx, layer, i),
-            class: "strata-label".into(),
-        });
+        out.push(Node::text(x, y - 4.0, text, size, Anchor::Middle, color_of(ctx, layer, i), "strata-label"));
     }
     out
 }

@@ -218,6 +218,12 @@ pub enum Node {
 }
 
 impl Node {
+    /// A text, neither bold nor turned.
+    #[inline(never)]
+    pub fn text(x: f64, y: f64, text: String, size: f64, anchor: Anchor, fill: String, class: &str) -> Node {
+        Node::Text { x, y, text, size, anchor, bold: false, angle: 0.0, fill, class: class.to_string() }
+    }
+
     #[inline(never)]
     pub fn group(class: &str, children: Vec<Node>) -> Node {
         Node::Group { class: class.to_string(), role: None, label: None, children }

@@ -150,17 +150,7 @@ pub fn draw(notes: &[Note], scales: &Scales, coord: &Coord, pal: &Palette, size:
     let mut texts = Vec::new();
     // The data and the texts already placed: a note's text keeps off both.
     let mut taken = Grid::of_marks(marks);
-    let label = |x: f64, y: f64, s: &str, anchor: Anchor| Node::Text {
-        x,
-        y,
-        text: s.to_string(),
-        size,
-        anchor,
-        bold: false,
-        angle: 0.0,
-        fill: pal.text.clone(),
-        class: "strata-note".into(),
-    };
+    let label = |x: f64, y: f64, s: &str, anchor: Anchor| Node::text(x, y, s.to_string(), size, anchor, pal.text.clone(), "strata-note");
     for n in notes {
         let ux = n.x.as_ref().and_then(|v| unit(&scales.x, v));
         let uxe = n.x_end.as_ref().and_then(|v| unit(&scales.x, v));
