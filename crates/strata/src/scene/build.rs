@@ -38,17 +38,7 @@ fn text_block(lines: &[String], x: f64, top: f64, size: f64, bold: bool, fill: &
     let mut y = top;
     let mut out = Vec::new();
     for l in lines {
-        out.push(Node::Text {
-            x,
-            y: y + size * text::ASCENT,
-            text: l.clone(),
-            size,
-            anchor: Anchor::Start,
-            bold,
-            angle: 0.0,
-            fill: fill.to_string(),
-            class: class.to_string(),
-        });
+        out.push(Node::styled_text(x, y + size * text::ASCENT, l.clone(), size, Anchor::Start, bold, 0.0, fill.to_string(), class));
         y += size * text::LINE_HEIGHT;
     }
     (out, y)
@@ -246,7 +236,7 @@ fn strip(ts: f64) -> f64 {
 
 /// The words naming a panel, row or column: bold, across, no background.
 fn strip_text(x: f64, y: f64, words: String, anchor: Anchor, pal: &Palette, size: f64) -> Node {
-    Node::Text { x, y, text: words, size, anchor, bold: true, angle: 0.0, fill: pal.text.clone(), class: "strata-panel-title".into() }
+    Node::styled_text(x, y, words, size, anchor, true, 0.0, pal.text.clone(), "strata-panel-title")
 }
 
 /// Small multiples by `panels.by`: one panel per value, `panels.columns`

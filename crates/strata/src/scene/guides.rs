@@ -74,10 +74,10 @@ fn tick_lines(ticks: &[Tick], horizontal: bool, f: Frame, a0: f64, a1: f64, pain
     for t in ticks {
         out.push(if horizontal {
             let x = f.left + t.unit * f.width;
-            Node::Line { x1: x, y1: a0, x2: x, y2: a1, paint: paint.clone() }
+            Node::line(x, a0, x, a1, paint.clone())
         } else {
             let y = f.bottom() - t.unit * f.height;
-            Node::Line { x1: a0, y1: y, x2: a1, y2: y, paint: paint.clone() }
+            Node::line(a0, y, a1, y, paint.clone())
         });
     }
     out
@@ -114,11 +114,11 @@ pub fn zero_line(axis: &AxisGuide, coord: &Coord, pal: &Palette) -> Option<Node>
     let line = match axis.side {
         Side::Left | Side::Right => {
             let y = f.bottom() - u * f.height;
-            Node::Line { x1: f.left, y1: y, x2: f.right(), y2: y, paint: Paint::stroke(&pal.text, width) }
+            Node::line(f.left, y, f.right(), y, Paint::stroke(&pal.text, width))
         }
         Side::Bottom | Side::Top => {
             let x = f.left + u * f.width;
-            Node::Line { x1: x, y1: f.top, x2: x, y2: f.bottom(), paint: Paint::stroke(&pal.text, width) }
+            Node::line(x, f.top, x, f.bottom(), Paint::stroke(&pal.text, width))
         }
     };
     Some(Node::group("strata-zero", vec![line]))
@@ -471,17 +471,7 @@ pub fn widest_label(ticks: &[Tick], ts: f64) -> f64 {
 
 /// An axis title centred at (x, y), shortened to fit `length`, turned by `angle`.
 pub fn axis_title(x: f64, y: f64, title: &str, length: f64, angle: f64, pal: &Palette, ts: f64) -> Node {
-    Node::Text {
-        x,
-        y,
-        text: text::fit(title, ts, false, length),
-        size: ts,
-        anchor: Anchor::Middle,
-        bold: false,
-        angle,
-        fill: pal.text.clone(),
-        class: "strata-axis-title".into(),
-    }
+    Node::styled_text(x, y, text::fit(title, ts, false, length), ts, Anchor::Middle, false, angle, pal.text.clone(), "strata-axis-title")
 }
 
 fn label(x: f64, y: f64, s: &str, anchor: Anchor, fill: &str, class: &str, ts: f64) -> Node {
@@ -508,24 +498,14 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
     let baseline = ts * text::ASCENT;
     match axis.side {
         Side::Bottom => {
-            kids.push(Node::Line { x1: f.left, y1: f.bottom(), x2: f.right(), y2: f.bottom(), paint: Paint::stroke(&pal.axis, 1.0) });
+            kids.push(Node::line(f.left, f.bottom(), f.right(), f.bottom(), Paint::stroke(&pal.axis, 1.0)));
             kids.extend(tick_marks(axis, f, pal));
             for t in &axis.ticks {
                 let x = f.left + t.unit * f.width;
                 if axis.angle != 0.0 {
                     // Rotated about the label's end, just below the tick.
                     let y = f.bottom() + GAP + ts * text::CAP / 2.0;
-                    let text = Node::Text {
-                        x: x + ts * 0.3,
-                        y,
-                        text: t.label.clone(),
-                        size: ts,
-                        anchor: Anchor::End,
-                        bold: false,
-                        angle: axis.angle,
-                        fill: pal.muted.clone(),
-                        class: "strata-tick".into(),
-                    };
+                    let text = Node::styled_text(x + ts * 0.3, y, t.label.clone(), ts, Anchor::End, false, axis.angle, pal.muted.clone(), "strata-tick");
                     kids.push(named(axis, t, text));
                 } else {
                     let y = f.bottom() + GAP + baseline - ts * (text::LINE_HEIGHT - 1.0) / 2.0;
@@ -539,24 +519,15 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
             }
         }
         Side::Top => {
-            kids.push(Node::Line { x1: f.left, y1: f.top, x2: f.right(), y2: f.top, paint: Paint::stroke(&pal.axis, 1.0) });
+            kids.push(Node::line(f.left, f.top, f.right(), f.top, Paint::stroke(&pal.axis, 1.0)));
             kids.extend(tick_marks(axis, f, pal));
             let labels_h = bottom_labels_height(&axis.ticks, axis.angle, ts);
             for t in &axis.ticks {
                 let x = f.left + t.unit * f.width;
                 if axis.angle != 0.0 {
                     // Rotated about the label's start, just above the tick, reading upward.
-                    let text = Node::Text {
-                        x: x - ts * 0.3,
-                        y: f.top - GAP - ts * text::CAP / 2.0 + ts * text::CAP,
-                        text: t.label.clone(),
-                        size: ts,
-                        anchor: Anchor::Start,
-                        bold: false,
-                        angle: axis.angle,
-                        fill: pal.muted.clone(),
-                        class: "strata-tick".into(),
-                    };
+                    let y = f.top - GAP - ts * text::CAP / 2.0 + ts * text::CAP;
+                    let text = Node::styled_text(x - ts * 0.3, y, t.label.clone(), ts, Anchor::Start, false, axis.angle, pal.muted.clone(), "strata-tick");
                     kids.push(named(axis, t, text));
                 } else {
                     // The last line sits where a one-line label would.
@@ -575,7 +546,7 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
         Side::Left | Side::Right => {
             let (edge, s, anchor) = if axis.side == Side::Right { (f.right(), 1.0, Anchor::Start) } else { (f.left, -1.0, Anchor::End) };
             if axis.scale.is_discrete() {
-                kids.push(Node::Line { x1: edge, y1: f.top, x2: edge, y2: f.bottom(), paint: Paint::stroke(&pal.axis, 1.0) });
+                kids.push(Node::line(edge, f.top, edge, f.bottom(), Paint::stroke(&pal.axis, 1.0)));
             }
             kids.extend(tick_marks(axis, f, pal));
             for t in &axis.ticks {
@@ -881,9 +852,7 @@ fn symbol(body: &LegendBody, i: usize, cx: f64, cy: f64, pal: &Palette, default_
         LegendBody::Swatches(items, SwatchMark::Square) => {
             Node::Rect { x: cx - SWATCH / 2.0, y: cy - SWATCH / 2.0, width: SWATCH, height: SWATCH, paint: Paint::fill(&items[i].1), datum: None }
         }
-        LegendBody::Swatches(items, SwatchMark::Line) => {
-            Node::Line { x1: cx - SWATCH / 2.0 - 2.0, y1: cy, x2: cx + SWATCH / 2.0 + 2.0, y2: cy, paint: Paint::stroke(&items[i].1, 2.5) }
-        }
+        LegendBody::Swatches(items, SwatchMark::Line) => Node::line(cx - SWATCH / 2.0 - 2.0, cy, cx + SWATCH / 2.0 + 2.0, cy, Paint::stroke(&items[i].1, 2.5)),
         LegendBody::Swatches(items, SwatchMark::Dot) => Node::Circle { cx, cy, r: SWATCH / 2.0 - 0.5, paint: Paint::fill(&items[i].1), datum: None },
         LegendBody::Sizes(items) => {
             let mut p = Paint::fill(default_color);
@@ -891,9 +860,7 @@ fn symbol(body: &LegendBody, i: usize, cx: f64, cy: f64, pal: &Palette, default_
             let _ = pal;
             Node::Circle { cx, cy, r: items[i].1, paint: p, datum: None }
         }
-        LegendBody::Shapes(items) => {
-            Node::Path { d: shape_path(items[i].1, cx, cy, SWATCH / 2.0), paint: Paint::fill(items[i].2.as_deref().unwrap_or(&pal.muted)), datum: None }
-        }
+        LegendBody::Shapes(items) => Node::path(shape_path(items[i].1, cx, cy, SWATCH / 2.0), Paint::fill(items[i].2.as_deref().unwrap_or(&pal.muted)), None),
         LegendBody::Gradient { .. } => Node::group("strata-empty", vec![]),
     }
 }
@@ -1046,13 +1013,13 @@ pub fn polar(coord: &Coord, angle_is_x: bool, angle_ticks: &[Tick], radius_ticks
         let (x, y) = at(0.0, t.unit);
         let r = ((x - cx) * (x - cx) + (y - cy) * (y - cy)).sqrt();
         if let Some(d) = super::coord::circle((cx, cy, r), 0.0, r) {
-            grid.push(Node::Path { d, paint: Paint::stroke(&pal.grid, 1.0), datum: None });
+            grid.push(Node::path(d, Paint::stroke(&pal.grid, 1.0), None));
         }
     }
     for t in angle_ticks {
         let (x0, y0) = at(t.unit, 0.0);
         let (x1, y1) = at(t.unit, 1.0);
-        grid.push(Node::Line { x1: x0, y1: y0, x2: x1, y2: y1, paint: Paint::stroke(&pal.grid, 1.0) });
+        grid.push(Node::line(x0, y0, x1, y1, Paint::stroke(&pal.grid, 1.0)));
     }
     let mut labels = Vec::new();
     for t in angle_ticks {

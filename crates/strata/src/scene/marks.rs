@@ -195,7 +195,7 @@ fn points(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         // Size and shape scales (plan/scales.rs): area-true radius, shape by category.
         let r = layer.data.get(Channel::Size).and_then(|v| ctx.scales.radius_of(v, i)).unwrap_or(r);
         if let Some(k) = layer.data.get(Channel::Shape).and_then(|v| ctx.scales.shape_of(v, i)).or(fixed_shape) {
-            out.push(Node::Path { d: shape_path(k, cx, cy, r), paint, datum: Some(datum(layer, i)) });
+            out.push(Node::path(shape_path(k, cx, cy, r), paint, Some(datum(layer, i))));
             continue;
         }
         out.push(Node::Circle { cx, cy, r, paint, datum: Some(datum(layer, i)) });
@@ -225,7 +225,7 @@ fn error_bar(ctx: &Ctx, ux: f64, a: f64, b: f64, cap: f64, c: &str, datum: Optio
     let (c0, c1) = capped(p0);
     let (d0, d1) = capped(p1);
     let d = vec![Seg::Move(p0.0, p0.1), Seg::Line(p1.0, p1.1), Seg::Move(c0.0, c0.1), Seg::Line(c1.0, c1.1), Seg::Move(d0.0, d0.1), Seg::Line(d1.0, d1.1)];
-    Node::Path { d, paint: Paint::stroke(c, 1.5), datum }
+    Node::path(d, Paint::stroke(c, 1.5), datum)
 }
 
 // ------------------------------------------------------------ lines
@@ -493,7 +493,7 @@ fn lines(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         if reduced {
             d.insert("drawn_points".into(), serde_json::Value::from(drawn.len()));
         }
-        out.push(Node::Path { d: polyline(&px, false), paint, datum: Some(d) });
+        out.push(Node::path(polyline(&px, false), paint, Some(d)));
     }
     out
 }
@@ -582,7 +582,7 @@ fn band_path(ctx: &Ctx, layer: &PlannedLayer, rows: &[usize], lo: Channel, hi: C
     paint.opacity = Some(opacity);
     let mut d = series_datum(layer, rows[0]);
     d.insert("points".into(), serde_json::Value::from(pts.len()));
-    Some(Node::Path { d: polyline(&outline, true), paint, datum: Some(d) })
+    Some(Node::path(polyline(&outline, true), paint, Some(d)))
 }
 
 // ------------------------------------------------------------ bars
@@ -634,7 +634,7 @@ fn beside_keys(ctx: &Ctx, layer: &PlannedLayer) -> Vec<String> {
 fn rect_node(ctx: &Ctx, x0: f64, x1: f64, y0: f64, y1: f64, paint: Paint, datum: Option<Datum>) -> Node {
     match ctx.coord.area(x0, x1, y0, y1) {
         Area::Rect { x, y, width, height } => Node::Rect { x, y, width, height, paint, datum },
-        Area::Path(p) => Node::Path { d: p, paint, datum },
+        Area::Path(p) => Node::path(p, paint, datum),
     }
 }
 
@@ -690,7 +690,7 @@ fn segments(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         let mut paint = Paint::stroke(&color_of(ctx, layer, i), width);
         paint.opacity = layer.style.opacity;
         paint.dash = layer.style.dash.clone();
-        out.push(Node::Path { d: polyline(&px, false), paint, datum: Some(datum(layer, i)) });
+        out.push(Node::path(polyline(&px, false), paint, Some(datum(layer, i))));
     }
     out
 }
@@ -761,10 +761,10 @@ fn boxes(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         for l in &lines {
             dd.extend(polyline(l, false));
         }
-        out.push(Node::Path { d: dd, paint: Paint::stroke(&c, 1.5), datum: None });
+        out.push(Node::path(dd, Paint::stroke(&c, 1.5), None));
         // The box outline.
         let outline = ctx.coord.line(&[(x0, q1), (x1, q1), (x1, q3), (x0, q3)]);
-        out.push(Node::Path { d: polyline(&outline, true), paint: Paint::stroke(&c, 1.5), datum: None });
+        out.push(Node::path(polyline(&outline, true), Paint::stroke(&c, 1.5), None));
     }
     out
 }
@@ -848,7 +848,7 @@ pub(super) fn leader(point: (f64, f64), b: Box4, pal: &crate::color::Palette) ->
     let t = 3.0 / len;
     let mut paint = Paint::stroke(&pal.muted, 1.0);
     paint.opacity = Some(0.9);
-    Some(Node::Line { x1: qx, y1: qy, x2: px + (qx - px) * t, y2: py + (qy - py) * t, paint })
+    Some(Node::line(qx, qy, px + (qx - px) * t, py + (qy - py) * t, paint))
 }
 
 pub(super) fn text_box(x: f64, y: f64, w: f64, size: f64, anchor: Anchor) -> Box4 {

@@ -218,10 +218,27 @@ pub enum Node {
 }
 
 impl Node {
+    #[inline(never)]
+    pub fn line(x1: f64, y1: f64, x2: f64, y2: f64, paint: Paint) -> Node {
+        Node::Line { x1, y1, x2, y2, paint }
+    }
+
+    #[inline(never)]
+    pub fn path(d: Vec<Seg>, paint: Paint, datum: Option<Datum>) -> Node {
+        Node::Path { d, paint, datum }
+    }
+
     /// A text, neither bold nor turned.
     #[inline(never)]
     pub fn text(x: f64, y: f64, text: String, size: f64, anchor: Anchor, fill: String, class: &str) -> Node {
-        Node::Text { x, y, text, size, anchor, bold: false, angle: 0.0, fill, class: class.to_string() }
+        Node::styled_text(x, y, text, size, anchor, false, 0.0, fill, class)
+    }
+
+    /// A text, bold or not, turned by `angle` degrees.
+    #[allow(clippy::too_many_arguments)]
+    #[inline(never)]
+    pub fn styled_text(x: f64, y: f64, text: String, size: f64, anchor: Anchor, bold: bool, angle: f64, fill: String, class: &str) -> Node {
+        Node::Text { x, y, text, size, anchor, bold, angle, fill, class: class.to_string() }
     }
 
     #[inline(never)]

@@ -93,7 +93,7 @@ fn shade(coord: &Coord, x0: f64, x1: f64, y0: f64, y1: f64, paint: Paint) -> Opt
         for p in &pts {
             (l, t, r, b) = (l.min(p.0), t.min(p.1), r.max(p.0), b.max(p.1));
         }
-        return Some((Node::Path { d: polyline(&pts, true), paint, datum: None }, (l, t, r - l, b - t)));
+        return Some((Node::path(polyline(&pts, true), paint, None), (l, t, r - l, b - t)));
     }
     match coord.area(x0, x1, y0, y1) {
         Area::Rect { x, y, width, height } => Some((Node::Rect { x, y, width, height, paint, datum: None }, (x, y, width, height))),
@@ -133,9 +133,9 @@ fn reference(coord: &Coord, a: (f64, f64), b: (f64, f64), pal: &Palette) -> (Nod
     let (p, q) = (coord.point(a.0, a.1), coord.point(b.0, b.1));
     if coord.is_polar() {
         let d = polyline(&traced(coord, a, b), false);
-        return (Node::Path { d, paint, datum: None }, p, q);
+        return (Node::path(d, paint, None), p, q);
     }
-    (Node::Line { x1: p.0, y1: p.1, x2: q.0, y2: q.1, paint }, p, q)
+    (Node::line(p.0, p.1, q.0, q.1, paint), p, q)
 }
 
 /// The notes of a plot area, drawn over its marks (`marks`: the plot's
