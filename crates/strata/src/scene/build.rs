@@ -440,12 +440,7 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, names: GridNames, cells: &[Plan], ri
             } else {
                 kids.extend(plot_draw(inp, &cells[i], &lays[i], frame, draw_h(r, c), draw_v(r, c)));
             }
-            out.push(Node::Group {
-                class: "strata-facet".into(),
-                role: Some("graphics-object".into()),
-                label: Some(format!("panel {}", says.join(", "))),
-                children: kids,
-            });
+            out.push(Node::named_group("strata-facet".into(), Some("graphics-object"), Some(format!("panel {}", says.join(", "))), kids));
         }
     }
 
@@ -782,12 +777,12 @@ fn plot_draw(inp: &PlotInputs, plan: &Plan, lay: &PlotLayout, frame: Frame, draw
         let marks = layer_marks(&ctx, l);
         // A label layer's leader lines are not labels.
         let n = if l.geometry == crate::plan::Geometry::Label { marks.iter().filter(|m| !matches!(m, Node::Line { .. })).count() } else { marks.len() };
-        layers.push(Node::Group {
-            class: format!("strata-layer strata-{}", l.geometry.word()),
-            role: Some("graphics-object".into()),
-            label: Some(format!("layer {}: {} {}{}", l.index + 1, n, l.geometry.word(), if n == 1 { "" } else { "s" })),
-            children: marks,
-        });
+        layers.push(Node::named_group(
+            format!("strata-layer strata-{}", l.geometry.word()),
+            Some("graphics-object"),
+            Some(format!("layer {}: {} {}{}", l.index + 1, n, l.geometry.word(), if n == 1 { "" } else { "s" })),
+            marks,
+        ));
     }
     if lay.h_shown && draw_h {
         children.push(guides::axis(&h_axis, frame, &pal, 0.0));
@@ -798,7 +793,7 @@ fn plot_draw(inp: &PlotInputs, plan: &Plan, lay: &PlotLayout, frame: Frame, draw
     // Notes go over the marks, inside the plot.
     let notes = super::notes::draw(&chart.notes, scales, &coord, &pal, inp.ts, &layers);
     layers.extend(notes);
-    children.push(Node::Group { class: "strata-panel".into(), role: Some("graphics-object".into()), label: Some(panel_label(plan)), children: layers });
+    children.push(Node::named_group("strata-panel".into(), Some("graphics-object"), Some(panel_label(plan)), layers));
     // Polar: the radius's labels over the wedges, on a halo.
     if let Some((angle_is_x, _, r_ticks)) = &polar_ticks {
         children.extend(guides::polar_radius_labels(&coord, *angle_is_x, r_ticks, &pal, inp.ts));

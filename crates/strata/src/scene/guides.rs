@@ -572,7 +572,7 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
         Side::Right => ("strata-axis strata-axis-right", "vertical axis"),
     };
     let title = if axis.title.is_empty() { label.to_string() } else { format!("{label}: {}", axis.title) };
-    Node::Group { class: class.into(), role: None, label: Some(title), children: kids }
+    Node::named_group(class.into(), None, Some(title), kids)
 }
 
 /// A tick label at (x, first baseline): one text, or a wrapped label's
@@ -984,7 +984,7 @@ fn wrap_legend(l: &Legend, kids: Vec<Node>) -> Node {
         _ => "colour",
     };
     let label = if l.title.is_empty() { format!("{what} legend") } else { format!("{what} legend: {}", l.title) };
-    Node::Group { class: format!("strata-legend strata-legend-{}", l.channel), role: Some("group".into()), label: Some(label), children: kids }
+    Node::named_group(format!("strata-legend strata-legend-{}", l.channel), Some("group"), Some(label), kids)
 }
 
 // ---------------------------------------------------------------- polar
@@ -1039,10 +1039,7 @@ pub fn polar(coord: &Coord, angle_is_x: bool, angle_ticks: &[Tick], radius_ticks
         let baseline = ly + ts * (0.35 + 0.45 * uy);
         labels.push(label(lx, baseline, &t.label, anchor, &pal.muted, "strata-tick", ts));
     }
-    vec![
-        Node::group("strata-grid", grid),
-        Node::Group { class: "strata-axis strata-axis-polar".into(), role: None, label: Some("polar axes".into()), children: labels },
-    ]
+    vec![Node::group("strata-grid", grid), Node::named_group("strata-axis strata-axis-polar".into(), None, Some("polar axes".into()), labels)]
 }
 
 /// The radius's tick labels along the starting spoke, drawn over the marks
@@ -1061,15 +1058,10 @@ pub fn polar_radius_labels(coord: &Coord, angle_is_x: bool, radius_ticks: &[Tick
         let (top, h) = (ly - ts * text::ASCENT - 2.0, ts * text::LINE_HEIGHT + 4.0);
         let mut paint = Paint::fill(&pal.background);
         paint.opacity = Some(0.85);
-        kids.push(Node::Group {
-            class: "strata-halo".into(),
-            role: None,
-            label: None,
-            children: vec![Node::Rect { x: lx - 2.0, y: top, width: w + 4.0, height: h, paint, datum: None }],
-        });
+        kids.push(Node::group("strata-halo", vec![Node::Rect { x: lx - 2.0, y: top, width: w + 4.0, height: h, paint, datum: None }]));
         kids.push(label(lx, ly, &t.label, Anchor::Start, &pal.muted, "strata-tick", ts));
     }
-    (!kids.is_empty()).then(|| Node::Group { class: "strata-axis strata-axis-radius".into(), role: None, label: Some("radius axis".into()), children: kids })
+    (!kids.is_empty()).then(|| Node::named_group("strata-axis strata-axis-radius".into(), None, Some("radius axis".into()), kids))
 }
 
 #[cfg(test)]

@@ -289,7 +289,7 @@ pub fn draw(plan: &Plan, pal: &Palette, left: f64, top: f64, right: f64, bottom:
             // Other geometries have no place on a map (the plan warned).
             _ => {}
         }
-        out.push(Node::Group { class: format!("strata-layer strata-{}", layer.geometry.word()), role: Some("list".into()), label: None, children: marks });
+        out.push(Node::named_group(format!("strata-layer strata-{}", layer.geometry.word()), Some("list"), None, marks));
     }
     let notes = map_notes(plan, &p, &fitted, pal, bx);
     if !notes.is_empty() {

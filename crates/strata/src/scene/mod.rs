@@ -243,7 +243,13 @@ impl Node {
 
     #[inline(never)]
     pub fn group(class: &str, children: Vec<Node>) -> Node {
-        Node::Group { class: class.to_string(), role: None, label: None, children }
+        Node::named_group(class.to_string(), None, None, children)
+    }
+
+    /// A group with an ARIA role and label.
+    #[inline(never)]
+    pub fn named_group(class: String, role: Option<&str>, label: Option<String>, children: Vec<Node>) -> Node {
+        Node::Group { class, role: role.map(str::to_string), label, children }
     }
 
     /// Every data mark below this node, depth first.

@@ -270,7 +270,7 @@ pub fn draw(notes: &[Note], scales: &Scales, coord: &Coord, pal: &Palette, size:
     let mut children = spans;
     children.extend(lines);
     children.extend(texts);
-    Some(Node::Group { class: "strata-notes".into(), role: Some("graphics-object".into()), label: Some("notes".into()), children })
+    Some(Node::named_group("strata-notes".into(), Some("graphics-object"), Some("notes".into()), children))
 }
 
 #[cfg(test)]
