@@ -54,6 +54,21 @@ fn cell(v: &Values, i: usize, pattern: Option<&str>, loc: &Locale) -> (String, b
     }
 }
 
+/// One header cell.
+fn th(out: &mut String, name: &str) {
+    out.push_str("<th scope=\"col\">");
+    out.push_str(&escape(name));
+    out.push_str("</th>");
+}
+
+/// One body cell: row `i` of `v`, numbers marked for right alignment.
+fn td(out: &mut String, v: &Values, i: usize, pattern: Option<&str>, loc: &Locale) {
+    let (text, num) = cell(v, i, pattern, loc);
+    out.push_str(if num { "<td class=\"strata-num\">" } else { "<td>" });
+    out.push_str(&escape(&text));
+    out.push_str("</td>");
+}
+
 /// A base map (a `region` layer without `key`) has no rows of its own: its
 /// table lists the shapes, by the `shapes.key` property, and by their
 /// `name` property when they have one.
@@ -77,7 +92,7 @@ fn shape_table(spec: &Spec, plan: &Plan, l: &PlannedLayer, out: &mut String) -> 
     let rows = if n == 1 { "1 shape".to_string() } else { format!("{} shapes", format::value_label_in(n as f64, loc)) };
     let more = if n > shown { format!(", the first {} shown", format::value_label_in(shown as f64, loc)) } else { String::new() };
     out.push_str(&format!("<table><caption>Layer {}: region, base map ({rows}{more})</caption><thead><tr>", l.index + 1));
-    out.push_str(&format!("<th scope=\"col\">{}</th>", escape(key.as_deref().unwrap_or("shape"))));
+    th(out, key.as_deref().unwrap_or("shape"));
     if named {
         out.push_str("<th scope=\"col\">name</th>");
     }
@@ -104,19 +119,22 @@ fn layer_table(spec: &Spec, plan: &Plan, l: &PlannedLayer, out: &mut String) {
     let d = &l.data;
     let loc = plan.scales.locale;
     let boxes = l.geometry == crate::spec::Geometry::Box;
-    let header = |ch: Channel| match (ch, d.get(Channel::XEnd).is_some()) {
-        // A box row spans its whiskers; an outlier row holds one value in y.
-        (Channel::Y, _) if boxes => "lower whisker or outlier".to_string(),
-        (Channel::YEnd, _) if boxes => "upper whisker".to_string(),
-        // A range along x (bins, tiles): "from" and "to" read better than a bare start.
-        (Channel::X, true) => format!("{} from", d.names.get(&Channel::X).map(String::as_str).unwrap_or("x")),
-        (Channel::XEnd, true) => format!("{} to", d.names.get(&Channel::X).map(String::as_str).unwrap_or("x")),
-        // A proportion's y is the row's share of its stack.
-        (Channel::Y, _) if l.arrange == crate::spec::Arrange::Proportion && d.get(Channel::YTop).is_some() => {
-            format!("{} (share)", d.names.get(&Channel::Y).map(String::as_str).unwrap_or("y"))
-        }
-        (Channel::Total, _) => format!("{} (total)", d.names.get(&Channel::Y).map(String::as_str).unwrap_or("y")),
-        _ => d.names.get(&ch).cloned().unwrap_or_else(|| added_name(ch, d)),
+    let header = |ch: Channel| {
+        let (of, suffix) = match (ch, d.get(Channel::XEnd).is_some()) {
+            // A box row spans its whiskers; an outlier row holds one value in y.
+            (Channel::Y, _) if boxes => return "lower whisker or outlier".to_string(),
+            (Channel::YEnd, _) if boxes => return "upper whisker".to_string(),
+            // A range along x (bins, tiles): "from" and "to" read better than a bare start.
+            (Channel::X, true) => (Channel::X, " from"),
+            (Channel::XEnd, true) => (Channel::X, " to"),
+            // A proportion's y is the row's share of its stack.
+            (Channel::Y, _) if l.arrange == crate::spec::Arrange::Proportion && d.get(Channel::YTop).is_some() => (Channel::Y, " (share)"),
+            (Channel::Total, _) => (Channel::Y, " (total)"),
+            _ => return d.names.get(&ch).cloned().unwrap_or_else(|| added_name(ch, d)),
+        };
+        let mut name = d.names.get(&of).cloned().unwrap_or_else(|| of.name().to_string());
+        name.push_str(suffix);
+        name
     };
     let mut cols: Vec<(String, Channel, &Values)> = Vec::new();
     for (&k, v) in &d.channels {
@@ -138,10 +156,10 @@ fn layer_table(spec: &Spec, plan: &Plan, l: &PlannedLayer, out: &mut String) {
     let more = if d.len > shown { format!(", the first {} shown", format::value_label_in(shown as f64, loc)) } else { String::new() };
     out.push_str(&format!("<table><caption>Layer {}: {} ({rows}{more})</caption><thead><tr>", l.index + 1, escape(l.geometry.word())));
     for (name, _, _) in &cols {
-        out.push_str(&format!("<th scope=\"col\">{}</th>", escape(name)));
+        th(out, name);
     }
     for (c, _) in &tips {
-        out.push_str(&format!("<th scope=\"col\">{}</th>", escape(c)));
+        th(out, c);
     }
     out.push_str("</tr></thead><tbody>");
     // A turned layer's x is the spec's y (`PlannedLayer::turned`).
@@ -163,16 +181,10 @@ fn layer_table(spec: &Spec, plan: &Plan, l: &PlannedLayer, out: &mut String) {
     for i in 0..shown {
         out.push_str("<tr>");
         for ((_, _, v), p) in cols.iter().zip(&patterns) {
-            let (text, num) = cell(v, i, *p, loc);
-            out.push_str(if num { "<td class=\"strata-num\">" } else { "<td>" });
-            out.push_str(&escape(&text));
-            out.push_str("</td>");
+            td(out, v, i, *p, loc);
         }
         for (c, v) in &tips {
-            let (text, num) = cell(v, i, crate::plan::is_year_column(c, v).then_some(crate::plan::YEAR_PATTERN), loc);
-            out.push_str(if num { "<td class=\"strata-num\">" } else { "<td>" });
-            out.push_str(&escape(&text));
-            out.push_str("</td>");
+            td(out, v, i, crate::plan::is_year_column(c, v).then_some(crate::plan::YEAR_PATTERN), loc);
         }
         out.push_str("</tr>");
     }

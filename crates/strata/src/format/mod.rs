@@ -609,51 +609,45 @@ pub fn date(ms: f64, pattern: &str, loc: &Locale) -> String {
         }
         i += n;
         let m = (c.month - 1) as usize;
-        match ch {
-            'y' | 'u' => {
-                if n == 2 {
-                    out.push_str(&pad(c.year.rem_euclid(100), 2));
-                } else {
-                    out.push_str(&pad(c.year, n));
-                }
-            }
-            'M' | 'L' => {
-                let alone = ch == 'L';
-                match n {
-                    1 => out.push_str(&c.month.to_string()),
-                    2 => out.push_str(&pad(c.month as i64, 2)),
-                    3 => out.push_str(if alone { loc.months_short_alone[m] } else { loc.months_short[m] }),
-                    _ => out.push_str(if alone { loc.months_wide_alone[m] } else { loc.months_wide[m] }),
-                }
-            }
-            'd' => out.push_str(&pad(c.day as i64, n.min(2))),
-            'E' => out.push_str(if n >= 4 { loc.days_wide[c.weekday as usize] } else { loc.days_short[c.weekday as usize] }),
-            'H' => out.push_str(&pad(c.hour as i64, n.min(2))),
-            'h' => {
-                let h = if c.hour.is_multiple_of(12) { 12 } else { c.hour % 12 };
-                out.push_str(&pad(h as i64, n.min(2)));
-            }
-            'm' => out.push_str(&pad(c.minute as i64, n.min(2))),
-            's' => out.push_str(&pad(c.second as i64, n.min(2))),
+        let q = (c.month - 1) / 3;
+        // Numbers: the value and its zero-padded width, written by one `pad`.
+        let (v, width) = match ch {
+            'y' | 'u' if n == 2 => (c.year.rem_euclid(100), 2),
+            'y' | 'u' => (c.year, n),
+            'M' | 'L' if n <= 2 => (c.month as i64, n),
+            'd' => (c.day as i64, n.min(2)),
+            'H' => (c.hour as i64, n.min(2)),
+            'h' => ((if c.hour.is_multiple_of(12) { 12 } else { c.hour % 12 }) as i64, n.min(2)),
+            'm' => (c.minute as i64, n.min(2)),
+            's' => (c.second as i64, n.min(2)),
+            'Q' | 'q' if n <= 2 => (q as i64 + 1, n),
             'S' => {
-                let frac = format!("{:03}", c.millisecond);
+                let frac = pad(c.millisecond as i64, 3);
                 out.push_str(&frac[..n.min(3)]);
+                continue;
             }
-            'a' => out.push_str(loc.am_pm[usize::from(c.hour >= 12)]),
-            'Q' | 'q' => {
-                let q = (c.month - 1) / 3;
-                match n {
-                    1 => out.push_str(&(q + 1).to_string()),
-                    2 => out.push_str(&pad(q as i64 + 1, 2)),
-                    _ => out.push_str(loc.quarters_short[q as usize]),
-                }
+            _ => {
+                let word = match ch {
+                    'M' if n == 3 => loc.months_short[m],
+                    'L' if n == 3 => loc.months_short_alone[m],
+                    'M' => loc.months_wide[m],
+                    'L' => loc.months_wide_alone[m],
+                    'E' if n >= 4 => loc.days_wide[c.weekday as usize],
+                    'E' => loc.days_short[c.weekday as usize],
+                    'a' => loc.am_pm[usize::from(c.hour >= 12)],
+                    'Q' | 'q' => loc.quarters_short[q as usize],
+                    other => {
+                        for _ in 0..n {
+                            out.push(other);
+                        }
+                        continue;
+                    }
+                };
+                out.push_str(word);
+                continue;
             }
-            other => {
-                for _ in 0..n {
-                    out.push(other);
-                }
-            }
-        }
+        };
+        out.push_str(&pad(v, width));
     }
     out
 }

@@ -38,17 +38,7 @@ fn text_block(lines: &[String], x: f64, top: f64, size: f64, bold: bool, fill: &
     let mut y = top;
     let mut out = Vec::new();
     for l in lines {
-        out.push(Node::Text {
-            x,
-            y: y + size * text::ASCENT,
-            text: l.clone(),
-            size,
-            anchor: Anchor::Start,
-            bold,
-            angle: 0.0,
-            fill: fill.to_string(),
-            class: class.to_string(),
-        });
+        out.push(Node::styled_text(x, y + size * text::ASCENT, l.clone(), size, Anchor::Start, bold, 0.0, fill.to_string(), class));
         y += size * text::LINE_HEIGHT;
     }
     (out, y)
@@ -113,7 +103,7 @@ pub fn build(plan: &Plan, opts: &SceneOptions) -> Scene {
     }
     if !header.is_empty() {
         top += if narrow { 4.0 } else { 8.0 };
-        children.push(Node::Group { class: "strata-header".into(), role: None, label: None, children: header });
+        children.push(Node::group("strata-header", header));
     }
 
     // Footer: the source line.
@@ -123,7 +113,7 @@ pub fn build(plan: &Plan, opts: &SceneOptions) -> Scene {
         let lines = text::wrap(&format!("Source: {s}"), size, false, width - 2.0 * pad);
         let h = lines.len() as f64 * size * text::LINE_HEIGHT;
         let (nodes, _) = text_block(&lines, pad, bottom - h, size, false, &pal.muted, "strata-source");
-        children.push(Node::Group { class: "strata-footer".into(), role: None, label: None, children: nodes });
+        children.push(Node::group("strata-footer", nodes));
         bottom -= h + 6.0;
     }
 
@@ -219,7 +209,7 @@ pub fn build(plan: &Plan, opts: &SceneOptions) -> Scene {
         }
     }
     if !legend_nodes.is_empty() {
-        children.push(Node::Group { class: "strata-legends".into(), role: None, label: None, children: legend_nodes });
+        children.push(Node::group("strata-legends", legend_nodes));
     }
 
     let label = chart.title.clone().unwrap_or_else(|| default_label(plan));
@@ -246,7 +236,7 @@ fn strip(ts: f64) -> f64 {
 
 /// The words naming a panel, row or column: bold, across, no background.
 fn strip_text(x: f64, y: f64, words: String, anchor: Anchor, pal: &Palette, size: f64) -> Node {
-    Node::Text { x, y, text: words, size, anchor, bold: true, angle: 0.0, fill: pal.text.clone(), class: "strata-panel-title".into() }
+    Node::styled_text(x, y, words, size, anchor, true, 0.0, pal.text.clone(), "strata-panel-title")
 }
 
 /// Small multiples by `panels.by`: one panel per value, `panels.columns`
@@ -450,12 +440,7 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, names: GridNames, cells: &[Plan], ri
             } else {
                 kids.extend(plot_draw(inp, &cells[i], &lays[i], frame, draw_h(r, c), draw_v(r, c)));
             }
-            out.push(Node::Group {
-                class: "strata-facet".into(),
-                role: Some("graphics-object".into()),
-                label: Some(format!("panel {}", crate::join(&says, ", "))),
-                children: kids,
-            });
+            out.push(Node::named_group("strata-facet".into(), Some("graphics-object"), Some(format!("panel {}", crate::join(&says, ", "))), kids));
         }
     }
 
@@ -470,23 +455,13 @@ fn cell_grid(inp: &PlotInputs, plan: &Plan, names: GridNames, cells: &[Plan], ri
     if v_above {
         let y = strip_top - guides::title_above_height(inp.ts) + inp.ts * text::ASCENT;
         let (x, anchor) = if v_right { (right, Anchor::End) } else { (inp.left, Anchor::Start) };
-        titles.push(Node::Text {
-            x,
-            y,
-            text: v_title.to_string(),
-            size: inp.ts,
-            anchor,
-            bold: false,
-            angle: 0.0,
-            fill: inp.pal.text.clone(),
-            class: "strata-axis-title".into(),
-        });
+        titles.push(Node::text(x, y, v_title.to_string(), inp.ts, anchor, inp.pal.text.clone(), "strata-axis-title"));
     } else if !v_title.is_empty() {
         let (x, angle) = if v_right { (right - inp.ts * text::ASCENT, 90.0) } else { (inp.left + inp.ts * text::ASCENT, -90.0) };
         titles.push(guides::axis_title(x, (span_top + span_bottom) / 2.0, v_title, span_bottom - span_top, angle, inp.pal, inp.ts));
     }
     if !titles.is_empty() {
-        out.push(Node::Group { class: "strata-axis-titles".into(), role: None, label: None, children: titles });
+        out.push(Node::group("strata-axis-titles", titles));
     }
     out
 }
@@ -794,7 +769,7 @@ fn plot_draw(inp: &PlotInputs, plan: &Plan, lay: &PlotLayout, frame: Frame, draw
     }
     if !polar {
         let grid = guides::grid(value_axis, &coord, &pal);
-        children.push(Node::Group { class: "strata-grid".into(), role: None, label: None, children: grid });
+        children.push(Node::group("strata-grid", grid));
     }
     let ctx = Ctx { scales, coord, default_color: &pal.mark, text_size: inp.ts, palette: &pal, layers: &plan.layers };
     let mut layers = Vec::new();
@@ -802,12 +777,12 @@ fn plot_draw(inp: &PlotInputs, plan: &Plan, lay: &PlotLayout, frame: Frame, draw
         let marks = layer_marks(&ctx, l);
         // A label layer's leader lines are not labels.
         let n = if l.geometry == crate::plan::Geometry::Label { marks.iter().filter(|m| !matches!(m, Node::Line { .. })).count() } else { marks.len() };
-        layers.push(Node::Group {
-            class: format!("strata-layer strata-{}", l.geometry.word()),
-            role: Some("graphics-object".into()),
-            label: Some(format!("layer {}: {} {}{}", l.index + 1, n, l.geometry.word(), if n == 1 { "" } else { "s" })),
-            children: marks,
-        });
+        layers.push(Node::named_group(
+            format!("strata-layer strata-{}", l.geometry.word()),
+            Some("graphics-object"),
+            Some(format!("layer {}: {} {}{}", l.index + 1, n, l.geometry.word(), if n == 1 { "" } else { "s" })),
+            marks,
+        ));
     }
     if lay.h_shown && draw_h {
         children.push(guides::axis(&h_axis, frame, &pal, 0.0));
@@ -818,7 +793,7 @@ fn plot_draw(inp: &PlotInputs, plan: &Plan, lay: &PlotLayout, frame: Frame, draw
     // Notes go over the marks, inside the plot.
     let notes = super::notes::draw(&chart.notes, scales, &coord, &pal, inp.ts, &layers);
     layers.extend(notes);
-    children.push(Node::Group { class: "strata-panel".into(), role: Some("graphics-object".into()), label: Some(panel_label(plan)), children: layers });
+    children.push(Node::named_group("strata-panel".into(), Some("graphics-object"), Some(panel_label(plan)), layers));
     // Polar: the radius's labels over the wedges, on a halo.
     if let Some((angle_is_x, _, r_ticks)) = &polar_ticks {
         children.extend(guides::polar_radius_labels(&coord, *angle_is_x, r_ticks, &pal, inp.ts));

@@ -79,6 +79,7 @@ impl Coord {
     }
 
     /// Pixel position of unit coordinates (ux along x's scale, uy along y's).
+    #[inline(never)]
     pub fn point(&self, ux: f64, uy: f64) -> (f64, f64) {
         match *self {
             Coord::Cartesian(f) => (f.left + ux * f.width, f.bottom() - uy * f.height),

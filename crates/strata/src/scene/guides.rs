@@ -74,10 +74,10 @@ fn tick_lines(ticks: &[Tick], horizontal: bool, f: Frame, a0: f64, a1: f64, pain
     for t in ticks {
         out.push(if horizontal {
             let x = f.left + t.unit * f.width;
-            Node::Line { x1: x, y1: a0, x2: x, y2: a1, paint: paint.clone() }
+            Node::line(x, a0, x, a1, paint.clone())
         } else {
             let y = f.bottom() - t.unit * f.height;
-            Node::Line { x1: a0, y1: y, x2: a1, y2: y, paint: paint.clone() }
+            Node::line(a0, y, a1, y, paint.clone())
         });
     }
     out
@@ -97,7 +97,7 @@ fn title_above(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> N
         Side::Right => (f.right() + GAP + label_width, Anchor::End),
         _ => (f.left - GAP - label_width, Anchor::Start),
     };
-    Node::Text { x, y, text: axis.title.to_string(), size: ts, anchor, bold: false, angle: 0.0, fill: pal.text.clone(), class: "strata-axis-title".into() }
+    Node::text(x, y, axis.title.to_string(), ts, anchor, pal.text.clone(), "strata-axis-title")
 }
 
 /// A stronger line at zero along the value axis, when its domain spans or
@@ -114,14 +114,14 @@ pub fn zero_line(axis: &AxisGuide, coord: &Coord, pal: &Palette) -> Option<Node>
     let line = match axis.side {
         Side::Left | Side::Right => {
             let y = f.bottom() - u * f.height;
-            Node::Line { x1: f.left, y1: y, x2: f.right(), y2: y, paint: Paint::stroke(&pal.text, width) }
+            Node::line(f.left, y, f.right(), y, Paint::stroke(&pal.text, width))
         }
         Side::Bottom | Side::Top => {
             let x = f.left + u * f.width;
-            Node::Line { x1: x, y1: f.top, x2: x, y2: f.bottom(), paint: Paint::stroke(&pal.text, width) }
+            Node::line(x, f.top, x, f.bottom(), Paint::stroke(&pal.text, width))
         }
     };
-    Some(Node::Group { class: "strata-zero".into(), role: None, label: None, children: vec![line] })
+    Some(Node::group("strata-zero", vec![line]))
 }
 
 /// Width of a tick label: its widest line (a wrapped label holds `\n`).
@@ -471,21 +471,11 @@ pub fn widest_label(ticks: &[Tick], ts: f64) -> f64 {
 
 /// An axis title centred at (x, y), shortened to fit `length`, turned by `angle`.
 pub fn axis_title(x: f64, y: f64, title: &str, length: f64, angle: f64, pal: &Palette, ts: f64) -> Node {
-    Node::Text {
-        x,
-        y,
-        text: text::fit(title, ts, false, length),
-        size: ts,
-        anchor: Anchor::Middle,
-        bold: false,
-        angle,
-        fill: pal.text.clone(),
-        class: "strata-axis-title".into(),
-    }
+    Node::styled_text(x, y, text::fit(title, ts, false, length), ts, Anchor::Middle, false, angle, pal.text.clone(), "strata-axis-title")
 }
 
 fn label(x: f64, y: f64, s: &str, anchor: Anchor, fill: &str, class: &str, ts: f64) -> Node {
-    Node::Text { x, y, text: s.to_string(), size: ts, anchor, bold: false, angle: 0.0, fill: fill.to_string(), class: class.to_string() }
+    Node::text(x, y, s.to_string(), ts, anchor, fill.to_string(), class)
 }
 
 /// Grid lines for continuous scales (drawn under the marks).
@@ -508,24 +498,14 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
     let baseline = ts * text::ASCENT;
     match axis.side {
         Side::Bottom => {
-            kids.push(Node::Line { x1: f.left, y1: f.bottom(), x2: f.right(), y2: f.bottom(), paint: Paint::stroke(&pal.axis, 1.0) });
+            kids.push(Node::line(f.left, f.bottom(), f.right(), f.bottom(), Paint::stroke(&pal.axis, 1.0)));
             kids.extend(tick_marks(axis, f, pal));
             for t in &axis.ticks {
                 let x = f.left + t.unit * f.width;
                 if axis.angle != 0.0 {
                     // Rotated about the label's end, just below the tick.
                     let y = f.bottom() + GAP + ts * text::CAP / 2.0;
-                    let text = Node::Text {
-                        x: x + ts * 0.3,
-                        y,
-                        text: t.label.clone(),
-                        size: ts,
-                        anchor: Anchor::End,
-                        bold: false,
-                        angle: axis.angle,
-                        fill: pal.muted.clone(),
-                        class: "strata-tick".into(),
-                    };
+                    let text = Node::styled_text(x + ts * 0.3, y, t.label.clone(), ts, Anchor::End, false, axis.angle, pal.muted.clone(), "strata-tick");
                     kids.push(named(axis, t, text));
                 } else {
                     let y = f.bottom() + GAP + baseline - ts * (text::LINE_HEIGHT - 1.0) / 2.0;
@@ -538,42 +518,16 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
                 kids.push(axis_title(f.left + f.width / 2.0, y, axis.title, f.width, 0.0, pal, ts));
             }
         }
-        Side::Left => {
-            if axis.scale.is_discrete() {
-                kids.push(Node::Line { x1: f.left, y1: f.top, x2: f.left, y2: f.bottom(), paint: Paint::stroke(&pal.axis, 1.0) });
-            }
-            kids.extend(tick_marks(axis, f, pal));
-            for t in &axis.ticks {
-                let y = f.bottom() - t.unit * f.height;
-                let first = y + ts * text::CAP / 2.0 - (label_lines(t) - 1) as f64 * ts * text::LINE_HEIGHT / 2.0;
-                kids.push(named(axis, t, tick_text(f.left - GAP, first, t, Anchor::End, pal, ts)));
-            }
-            if !axis.title.is_empty() && axis.title_above {
-                kids.push(title_above(axis, f, pal, label_width));
-            } else if !axis.title.is_empty() {
-                let x = f.left - GAP - label_width - GAP - ts * (text::LINE_HEIGHT - text::ASCENT);
-                kids.push(axis_title(x, f.top + f.height / 2.0, axis.title, f.height, -90.0, pal, ts));
-            }
-        }
         Side::Top => {
-            kids.push(Node::Line { x1: f.left, y1: f.top, x2: f.right(), y2: f.top, paint: Paint::stroke(&pal.axis, 1.0) });
+            kids.push(Node::line(f.left, f.top, f.right(), f.top, Paint::stroke(&pal.axis, 1.0)));
             kids.extend(tick_marks(axis, f, pal));
             let labels_h = bottom_labels_height(&axis.ticks, axis.angle, ts);
             for t in &axis.ticks {
                 let x = f.left + t.unit * f.width;
                 if axis.angle != 0.0 {
                     // Rotated about the label's start, just above the tick, reading upward.
-                    let text = Node::Text {
-                        x: x - ts * 0.3,
-                        y: f.top - GAP - ts * text::CAP / 2.0 + ts * text::CAP,
-                        text: t.label.clone(),
-                        size: ts,
-                        anchor: Anchor::Start,
-                        bold: false,
-                        angle: axis.angle,
-                        fill: pal.muted.clone(),
-                        class: "strata-tick".into(),
-                    };
+                    let y = f.top - GAP - ts * text::CAP / 2.0 + ts * text::CAP;
+                    let text = Node::styled_text(x - ts * 0.3, y, t.label.clone(), ts, Anchor::Start, false, axis.angle, pal.muted.clone(), "strata-tick");
                     kids.push(named(axis, t, text));
                 } else {
                     // The last line sits where a one-line label would.
@@ -587,23 +541,27 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
                 kids.push(axis_title(f.left + f.width / 2.0, y, axis.title, f.width, 0.0, pal, ts));
             }
         }
-        Side::Right => {
+        // Left and right: mirror images about the frame's edge (`s` the
+        // outward sign; `a - b` is `a + -1 * b` to the bit).
+        Side::Left | Side::Right => {
+            let (edge, s, anchor) = if axis.side == Side::Right { (f.right(), 1.0, Anchor::Start) } else { (f.left, -1.0, Anchor::End) };
             if axis.scale.is_discrete() {
-                kids.push(Node::Line { x1: f.right(), y1: f.top, x2: f.right(), y2: f.bottom(), paint: Paint::stroke(&pal.axis, 1.0) });
+                kids.push(Node::line(edge, f.top, edge, f.bottom(), Paint::stroke(&pal.axis, 1.0)));
             }
             kids.extend(tick_marks(axis, f, pal));
             for t in &axis.ticks {
                 let y = f.bottom() - t.unit * f.height;
                 let first = y + ts * text::CAP / 2.0 - (label_lines(t) - 1) as f64 * ts * text::LINE_HEIGHT / 2.0;
-                kids.push(named(axis, t, tick_text(f.right() + GAP, first, t, Anchor::Start, pal, ts)));
+                kids.push(named(axis, t, tick_text(edge + s * GAP, first, t, anchor, pal, ts)));
             }
             if !axis.title.is_empty() && axis.title_above {
                 kids.push(title_above(axis, f, pal, label_width));
             } else if !axis.title.is_empty() {
-                // Turned to read downward, the line's top faces right: its
-                // baseline sits the line's depth below ascent from the left.
-                let x = f.right() + GAP + label_width + GAP + ts * (text::LINE_HEIGHT - text::ASCENT);
-                kids.push(axis_title(x, f.top + f.height / 2.0, axis.title, f.height, 90.0, pal, ts));
+                // Turned to read along the axis (upward on the left, downward
+                // on the right, the line's top facing out): its baseline sits
+                // the line's depth below ascent from the inner side.
+                let x = edge + s * GAP + s * label_width + s * GAP + s * (ts * (text::LINE_HEIGHT - text::ASCENT));
+                kids.push(axis_title(x, f.top + f.height / 2.0, axis.title, f.height, 90.0 * s, pal, ts));
             }
         }
     }
@@ -614,7 +572,7 @@ pub fn axis(axis: &AxisGuide, f: Frame, pal: &Palette, label_width: f64) -> Node
         Side::Right => ("strata-axis strata-axis-right", "vertical axis"),
     };
     let title = if axis.title.is_empty() { label.to_string() } else { format!("{label}: {}", axis.title) };
-    Node::Group { class: class.into(), role: None, label: Some(title), children: kids }
+    Node::named_group(class.into(), None, Some(title), kids)
 }
 
 /// A tick label at (x, first baseline): one text, or a wrapped label's
@@ -886,17 +844,7 @@ fn row_layout(l: &Legend, max_width: f64) -> (Vec<(f64, usize)>, f64, f64) {
 
 fn legend_title(l: &Legend, x: f64, y: f64, pal: &Palette) -> Option<Node> {
     let ts = l.size;
-    (!l.title.is_empty()).then(|| Node::Text {
-        x,
-        y: y + ts * text::ASCENT,
-        text: l.title.clone(),
-        size: ts,
-        anchor: Anchor::Start,
-        bold: false,
-        angle: 0.0,
-        fill: pal.text.clone(),
-        class: "strata-legend-title".into(),
-    })
+    (!l.title.is_empty()).then(|| Node::text(x, y + ts * text::ASCENT, l.title.clone(), ts, Anchor::Start, pal.text.clone(), "strata-legend-title"))
 }
 
 fn symbol(body: &LegendBody, i: usize, cx: f64, cy: f64, pal: &Palette, default_color: &str) -> Node {
@@ -904,9 +852,7 @@ fn symbol(body: &LegendBody, i: usize, cx: f64, cy: f64, pal: &Palette, default_
         LegendBody::Swatches(items, SwatchMark::Square) => {
             Node::Rect { x: cx - SWATCH / 2.0, y: cy - SWATCH / 2.0, width: SWATCH, height: SWATCH, paint: Paint::fill(&items[i].1), datum: None }
         }
-        LegendBody::Swatches(items, SwatchMark::Line) => {
-            Node::Line { x1: cx - SWATCH / 2.0 - 2.0, y1: cy, x2: cx + SWATCH / 2.0 + 2.0, y2: cy, paint: Paint::stroke(&items[i].1, 2.5) }
-        }
+        LegendBody::Swatches(items, SwatchMark::Line) => Node::line(cx - SWATCH / 2.0 - 2.0, cy, cx + SWATCH / 2.0 + 2.0, cy, Paint::stroke(&items[i].1, 2.5)),
         LegendBody::Swatches(items, SwatchMark::Dot) => Node::Circle { cx, cy, r: SWATCH / 2.0 - 0.5, paint: Paint::fill(&items[i].1), datum: None },
         LegendBody::Sizes(items) => {
             let mut p = Paint::fill(default_color);
@@ -914,9 +860,7 @@ fn symbol(body: &LegendBody, i: usize, cx: f64, cy: f64, pal: &Palette, default_
             let _ = pal;
             Node::Circle { cx, cy, r: items[i].1, paint: p, datum: None }
         }
-        LegendBody::Shapes(items) => {
-            Node::Path { d: shape_path(items[i].1, cx, cy, SWATCH / 2.0), paint: Paint::fill(items[i].2.as_deref().unwrap_or(&pal.muted)), datum: None }
-        }
+        LegendBody::Shapes(items) => Node::path(shape_path(items[i].1, cx, cy, SWATCH / 2.0), Paint::fill(items[i].2.as_deref().unwrap_or(&pal.muted)), None),
         LegendBody::Gradient { .. } => Node::group("strata-empty", vec![]),
     }
 }
@@ -1040,7 +984,7 @@ fn wrap_legend(l: &Legend, kids: Vec<Node>) -> Node {
         _ => "colour",
     };
     let label = if l.title.is_empty() { format!("{what} legend") } else { format!("{what} legend: {}", l.title) };
-    Node::Group { class: format!("strata-legend strata-legend-{}", l.channel), role: Some("group".into()), label: Some(label), children: kids }
+    Node::named_group(format!("strata-legend strata-legend-{}", l.channel), Some("group"), Some(label), kids)
 }
 
 // ---------------------------------------------------------------- polar
@@ -1069,13 +1013,13 @@ pub fn polar(coord: &Coord, angle_is_x: bool, angle_ticks: &[Tick], radius_ticks
         let (x, y) = at(0.0, t.unit);
         let r = ((x - cx) * (x - cx) + (y - cy) * (y - cy)).sqrt();
         if let Some(d) = super::coord::circle((cx, cy, r), 0.0, r) {
-            grid.push(Node::Path { d, paint: Paint::stroke(&pal.grid, 1.0), datum: None });
+            grid.push(Node::path(d, Paint::stroke(&pal.grid, 1.0), None));
         }
     }
     for t in angle_ticks {
         let (x0, y0) = at(t.unit, 0.0);
         let (x1, y1) = at(t.unit, 1.0);
-        grid.push(Node::Line { x1: x0, y1: y0, x2: x1, y2: y1, paint: Paint::stroke(&pal.grid, 1.0) });
+        grid.push(Node::line(x0, y0, x1, y1, Paint::stroke(&pal.grid, 1.0)));
     }
     let mut labels = Vec::new();
     for t in angle_ticks {
@@ -1095,10 +1039,7 @@ pub fn polar(coord: &Coord, angle_is_x: bool, angle_ticks: &[Tick], radius_ticks
         let baseline = ly + ts * (0.35 + 0.45 * uy);
         labels.push(label(lx, baseline, &t.label, anchor, &pal.muted, "strata-tick", ts));
     }
-    vec![
-        Node::Group { class: "strata-grid".into(), role: None, label: None, children: grid },
-        Node::Group { class: "strata-axis strata-axis-polar".into(), role: None, label: Some("polar axes".into()), children: labels },
-    ]
+    vec![Node::group("strata-grid", grid), Node::named_group("strata-axis strata-axis-polar".into(), None, Some("polar axes".into()), labels)]
 }
 
 /// The radius's tick labels along the starting spoke, drawn over the marks
@@ -1117,15 +1058,10 @@ pub fn polar_radius_labels(coord: &Coord, angle_is_x: bool, radius_ticks: &[Tick
         let (top, h) = (ly - ts * text::ASCENT - 2.0, ts * text::LINE_HEIGHT + 4.0);
         let mut paint = Paint::fill(&pal.background);
         paint.opacity = Some(0.85);
-        kids.push(Node::Group {
-            class: "strata-halo".into(),
-            role: None,
-            label: None,
-            children: vec![Node::Rect { x: lx - 2.0, y: top, width: w + 4.0, height: h, paint, datum: None }],
-        });
+        kids.push(Node::group("strata-halo", vec![Node::Rect { x: lx - 2.0, y: top, width: w + 4.0, height: h, paint, datum: None }]));
         kids.push(label(lx, ly, &t.label, Anchor::Start, &pal.muted, "strata-tick", ts));
     }
-    (!kids.is_empty()).then(|| Node::Group { class: "strata-axis strata-axis-radius".into(), role: None, label: Some("radius axis".into()), children: kids })
+    (!kids.is_empty()).then(|| Node::named_group("strata-axis strata-axis-radius".into(), None, Some("radius axis".into()), kids))
 }
 
 #[cfg(test)]

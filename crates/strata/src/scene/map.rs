@@ -123,14 +123,14 @@ pub fn draw(plan: &Plan, pal: &Palette, left: f64, top: f64, right: f64, bottom:
         let g = Pieces { lines: clip::graticule(&p, step), ..Default::default() };
         let lines = to_px(g).lines.iter().flat_map(|l| clip_to_box(l, bx)).collect();
         let d = ring_segs(&Pieces { lines, ..Default::default() });
-        back.push(Node::Path { d, paint: Paint::stroke(&pal.grid, 0.75), datum: None });
+        back.push(Node::path(d, Paint::stroke(&pal.grid, 0.75), None));
     }
     if m.outline {
         // The sphere's edge, when the whole of it is in view.
         let o = Pieces { rings: vec![clip::outline(&p)], ..Default::default() };
         let px = to_px(o);
         if fit::bounds([&px]).is_some_and(|b| b.0 >= bx.0 && b.1 >= bx.1 && b.2 <= bx.2 && b.3 <= bx.3) {
-            back.push(Node::Path { d: ring_segs(&px), paint: Paint::stroke(&pal.axis, 1.0), datum: None });
+            back.push(Node::path(ring_segs(&px), Paint::stroke(&pal.axis, 1.0), None));
         }
     }
     if no_data {
@@ -149,10 +149,10 @@ pub fn draw(plan: &Plan, pal: &Palette, left: f64, top: f64, right: f64, bottom:
                 class: "strata-legend-label".into(),
             },
         ];
-        out.push(Node::Group { class: "strata-legend strata-no-data".into(), role: None, label: None, children: entry });
+        out.push(Node::group("strata-legend strata-no-data", entry));
     }
     if !back.is_empty() {
-        out.push(Node::Group { class: "strata-map-frame".into(), role: None, label: None, children: back });
+        out.push(Node::group("strata-map-frame", back));
     }
 
     for (li, layer) in plan.layers.iter().enumerate() {
@@ -191,7 +191,7 @@ pub fn draw(plan: &Plan, pal: &Palette, left: f64, top: f64, right: f64, bottom:
                         even_odd: true,
                         ..Default::default()
                     };
-                    marks.push(Node::Path { d: ring_segs(&px), paint, datum: Some(d) });
+                    marks.push(Node::path(ring_segs(&px), paint, Some(d)));
                 }
             }
             Geometry::Line | Geometry::Step => {
@@ -233,7 +233,7 @@ pub fn draw(plan: &Plan, pal: &Palette, left: f64, top: f64, right: f64, bottom:
                         .unwrap_or_else(|| pal.mark.clone());
                     let mut paint = Paint::stroke(&c, layer.style.width.unwrap_or(2.0));
                     paint.dash = layer.style.dash.clone();
-                    marks.push(Node::Path { d, paint, datum: Some(datum(layer, *first)) });
+                    marks.push(Node::path(d, paint, Some(datum(layer, *first))));
                 }
             }
             Geometry::Label => {
@@ -287,11 +287,11 @@ pub fn draw(plan: &Plan, pal: &Palette, left: f64, top: f64, right: f64, bottom:
             // Other geometries have no place on a map (the plan warned).
             _ => {}
         }
-        out.push(Node::Group { class: format!("strata-layer strata-{}", layer.geometry.word()), role: Some("list".into()), label: None, children: marks });
+        out.push(Node::named_group(format!("strata-layer strata-{}", layer.geometry.word()), Some("list"), None, marks));
     }
     let notes = map_notes(plan, &p, &fitted, pal, bx);
     if !notes.is_empty() {
-        out.push(Node::Group { class: "strata-notes".into(), role: None, label: None, children: notes });
+        out.push(Node::group("strata-notes", notes));
     }
     out
 }
@@ -342,7 +342,7 @@ fn map_notes(plan: &Plan, p: &View, fitted: &fit::Fitted, pal: &Palette, bx: (f6
                             out.push(text(top.0 + 4.0, top.1 + 12.0, &label));
                         }
                     }
-                    out.push(Node::Path { d: ring_segs(&px), paint, datum: None });
+                    out.push(Node::path(ring_segs(&px), paint, None));
                 }
             }
             (None, Some(a), None, b) => {
@@ -356,7 +356,7 @@ fn map_notes(plan: &Plan, p: &View, fitted: &fit::Fitted, pal: &Palette, bx: (f6
                             out.push(text(left.0 + 4.0, left.1 - 4.0, &label));
                         }
                     }
-                    out.push(Node::Path { d: ring_segs(&px), paint, datum: None });
+                    out.push(Node::path(ring_segs(&px), paint, None));
                 }
             }
             (Some(x0), Some(y0), Some(x1), Some(y1)) => {
@@ -377,7 +377,7 @@ fn map_notes(plan: &Plan, p: &View, fitted: &fit::Fitted, pal: &Palette, bx: (f6
                 if let (Some(b), false) = (fit::bounds([&px]), label.is_empty()) {
                     out.push(text(b.0 + 4.0, b.1 + 14.0, &label));
                 }
-                out.insert(0, Node::Path { d: ring_segs(&px), paint, datum: None });
+                out.insert(0, Node::path(ring_segs(&px), paint, None));
             }
             _ => {}
         }

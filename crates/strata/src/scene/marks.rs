@@ -73,6 +73,7 @@ pub(super) fn datum(layer: &PlannedLayer, i: usize) -> Datum {
     d
 }
 
+#[inline(never)]
 fn color_of(ctx: &Ctx, layer: &PlannedLayer, i: usize) -> String {
     if let Some(c) = layer.data.get(Channel::Color).and_then(|vals| ctx.scales.color_of(vals, i)) {
         return c;
@@ -82,6 +83,7 @@ fn color_of(ctx: &Ctx, layer: &PlannedLayer, i: usize) -> String {
 
 /// Unit position on x of row i (band centre for categories), moved by any
 /// jitter offset (a fraction of the band).
+#[inline(never)]
 fn ux(ctx: &Ctx, layer: &PlannedLayer, v: &Values, i: usize) -> Option<f64> {
     let u = ctx.scales.x.unit(v, i)?;
     let off = layer.data.get(Channel::XOffset).and_then(|o| o.num(i)).unwrap_or(0.0);
@@ -152,6 +154,7 @@ fn series(layer: &PlannedLayer) -> Vec<Vec<usize>> {
     out
 }
 
+#[inline(never)]
 fn series_datum(layer: &PlannedLayer, first: usize) -> Datum {
     let mut d = Datum::new();
     for (k, v) in &layer.data.channels {
@@ -191,7 +194,7 @@ fn points(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         // Size and shape scales (plan/scales.rs): area-true radius, shape by category.
         let r = layer.data.get(Channel::Size).and_then(|v| ctx.scales.radius_of(v, i)).unwrap_or(r);
         if let Some(k) = layer.data.get(Channel::Shape).and_then(|v| ctx.scales.shape_of(v, i)).or(fixed_shape) {
-            out.push(Node::Path { d: shape_path(k, cx, cy, r), paint, datum: Some(datum(layer, i)) });
+            out.push(Node::path(shape_path(k, cx, cy, r), paint, Some(datum(layer, i))));
             continue;
         }
         out.push(Node::Circle { cx, cy, r, paint, datum: Some(datum(layer, i)) });
@@ -212,6 +215,7 @@ fn mark_shape(s: PointShape) -> MarkShape {
 }
 
 /// A vertical (in data terms) segment from a to b at x with caps `cap` px wide.
+#[inline(never)]
 fn error_bar(ctx: &Ctx, ux: f64, a: f64, b: f64, cap: f64, c: &str, datum: Option<Datum>) -> Node {
     let p0 = ctx.coord.point(ux, a);
     let p1 = ctx.coord.point(ux, b);
@@ -220,7 +224,7 @@ fn error_bar(ctx: &Ctx, ux: f64, a: f64, b: f64, cap: f64, c: &str, datum: Optio
     let (c0, c1) = capped(p0);
     let (d0, d1) = capped(p1);
     let d = vec![Seg::Move(p0.0, p0.1), Seg::Line(p1.0, p1.1), Seg::Move(c0.0, c0.1), Seg::Line(c1.0, c1.1), Seg::Move(d0.0, d0.1), Seg::Line(d1.0, d1.1)];
-    Node::Path { d, paint: Paint::stroke(c, 1.5), datum }
+    Node::path(d, Paint::stroke(c, 1.5), datum)
 }
 
 // ------------------------------------------------------------ lines
@@ -351,7 +355,9 @@ fn series_units(ctx: &Ctx, layer: &PlannedLayer, rows: &RowSet, ych: Channel) ->
     };
     if let Some((origin, extent)) = column_of(ctx) {
         if rows.len() as f64 > 4.0 * extent.max(1.0) {
-            // Numbers on linear scales without offsets: map straight from the slices.
+            // Numbers on linear scales without offsets: map straight from the
+            // slices; others through the scales. One streaming pass (one copy
+            // of the M4 loop) for both, over either kind of row set.
             let direct = match (xv, yv, &ctx.scales.x, &ctx.scales.y, off) {
                 (
                     Values::Num(a) | Values::Time(a),
@@ -359,25 +365,27 @@ fn series_units(ctx: &Ctx, layer: &PlannedLayer, rows: &RowSet, ych: Channel) ->
                     PositionScale::Continuous { lo: xl, hi: xh, transform: Transform::Linear, .. },
                     PositionScale::Continuous { lo: yl, hi: yh, transform: Transform::Linear, .. },
                     None,
-                ) if xh != xl && yh != yl => {
-                    let (xl, yl) = (*xl, *yl);
-                    let (xs, ys) = (xh - xl, yh - yl);
-                    let (a, b) = (a.raw(), b.raw());
-                    let point = |(x, y): (f64, f64)| (x.is_finite() && y.is_finite()).then(|| ((x - xl) / xs, (y - yl) / ys));
-                    match rows {
-                        RowSet::All(_) => m4_stream(a.iter().zip(b).filter_map(|(x, y)| point((*x, *y))), origin, extent),
-                        RowSet::List(v) => m4_stream(v.iter().filter_map(|&i| point((a[i], b[i]))), origin, extent),
-                    }
-                }
-                // Through the scales (one streaming pass for both kinds of row set).
-                _ => {
-                    let (n, list) = match rows {
-                        RowSet::All(n) => (*n, None),
-                        RowSet::List(v) => (v.len(), Some(v.as_slice())),
-                    };
-                    m4_stream((0..n).filter_map(|k| unit(list.map_or(k, |v| v[k]))), origin, extent)
-                }
+                ) if xh != xl && yh != yl => Some((a.raw(), b.raw(), *xl, xh - xl, *yl, yh - yl)),
+                _ => None,
             };
+            let (n, list) = match rows {
+                RowSet::All(n) => (*n, None),
+                RowSet::List(v) => (v.len(), Some(v.as_slice())),
+            };
+            let direct = m4_stream(
+                (0..n).filter_map(|k| {
+                    let i = list.map_or(k, |v| v[k]);
+                    match direct {
+                        Some((a, b, xl, xs, yl, ys)) => {
+                            let (x, y) = (a[i], b[i]);
+                            (x.is_finite() && y.is_finite()).then(|| ((x - xl) / xs, (y - yl) / ys))
+                        }
+                        None => unit(i),
+                    }
+                }),
+                origin,
+                extent,
+            );
             if let Some((kept, n)) = direct {
                 return (kept, n, true);
             }
@@ -484,7 +492,7 @@ fn lines(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         if reduced {
             d.insert("drawn_points".into(), serde_json::Value::from(drawn.len()));
         }
-        out.push(Node::Path { d: polyline(&px, false), paint, datum: Some(d) });
+        out.push(Node::path(polyline(&px, false), paint, Some(d)));
     }
     out
 }
@@ -573,7 +581,7 @@ fn band_path(ctx: &Ctx, layer: &PlannedLayer, rows: &[usize], lo: Channel, hi: C
     paint.opacity = Some(opacity);
     let mut d = series_datum(layer, rows[0]);
     d.insert("points".into(), serde_json::Value::from(pts.len()));
-    Some(Node::Path { d: polyline(&outline, true), paint, datum: Some(d) })
+    Some(Node::path(polyline(&outline, true), paint, Some(d)))
 }
 
 // ------------------------------------------------------------ bars
@@ -581,6 +589,7 @@ fn band_path(ctx: &Ctx, layer: &PlannedLayer, rows: &[usize], lo: Channel, hi: C
 /// The unit extent across x of row i: a share of the band for categories,
 /// x..x_end when an end is given, or 1 % of the axis; split among colour
 /// categories when the layer is arranged `beside`.
+#[inline(never)]
 fn x_extent(ctx: &Ctx, layer: &PlannedLayer, i: usize, fraction: f64, beside: &[String]) -> Option<(f64, f64)> {
     let xv = layer.data.get(Channel::X)?;
     let cx = ux(ctx, layer, xv, i)?;
@@ -620,10 +629,11 @@ fn beside_keys(ctx: &Ctx, layer: &PlannedLayer) -> Vec<String> {
     }
 }
 
+#[inline(never)]
 fn rect_node(ctx: &Ctx, x0: f64, x1: f64, y0: f64, y1: f64, paint: Paint, datum: Option<Datum>) -> Node {
     match ctx.coord.area(x0, x1, y0, y1) {
         Area::Rect { x, y, width, height } => Node::Rect { x, y, width, height, paint, datum },
-        Area::Path(p) => Node::Path { d: p, paint, datum },
+        Area::Path(p) => Node::path(p, paint, datum),
     }
 }
 
@@ -679,7 +689,7 @@ fn segments(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         let mut paint = Paint::stroke(&color_of(ctx, layer, i), width);
         paint.opacity = layer.style.opacity;
         paint.dash = layer.style.dash.clone();
-        out.push(Node::Path { d: polyline(&px, false), paint, datum: Some(datum(layer, i)) });
+        out.push(Node::path(polyline(&px, false), paint, Some(datum(layer, i))));
     }
     out
 }
@@ -750,10 +760,10 @@ fn boxes(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         for l in &lines {
             dd.extend(polyline(l, false));
         }
-        out.push(Node::Path { d: dd, paint: Paint::stroke(&c, 1.5), datum: None });
+        out.push(Node::path(dd, Paint::stroke(&c, 1.5), None));
         // The box outline.
         let outline = ctx.coord.line(&[(x0, q1), (x1, q1), (x1, q3), (x0, q3)]);
-        out.push(Node::Path { d: polyline(&outline, true), paint: Paint::stroke(&c, 1.5), datum: None });
+        out.push(Node::path(polyline(&outline, true), Paint::stroke(&c, 1.5), None));
     }
     out
 }
@@ -805,17 +815,15 @@ fn cells(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     // scatter drawn as tiles, or any tiles shaded by count).
     if d.get(Channel::Color).is_none() && max_count > 0.0 && !out.is_empty() {
         let f = ctx.coord.frame();
-        out.push(Node::Text {
-            x: f.right() - 4.0,
-            y: f.top + 12.0,
-            text: format!("Tiles shaded by number of points (darkest: {})", crate::format::value_label(max_count)),
-            size: 11.0,
-            anchor: Anchor::End,
-            bold: false,
-            angle: 0.0,
-            fill: ctx.default_color.to_string(),
-            class: "strata-note".into(),
-        });
+        out.push(Node::text(
+            f.right() - 4.0,
+            f.top + 12.0,
+            format!("Tiles shaded by number of points (darkest: {})", crate::format::value_label(max_count)),
+            11.0,
+            Anchor::End,
+            ctx.default_color.to_string(),
+            "strata-note",
+        ));
     }
     out
 }
@@ -839,7 +847,7 @@ pub(super) fn leader(point: (f64, f64), b: Box4, pal: &crate::color::Palette) ->
     let t = 3.0 / len;
     let mut paint = Paint::stroke(&pal.muted, 1.0);
     paint.opacity = Some(0.9);
-    Some(Node::Line { x1: qx, y1: qy, x2: px + (qx - px) * t, y2: py + (qy - py) * t, paint })
+    Some(Node::line(qx, qy, px + (qx - px) * t, py + (qy - py) * t, paint))
 }
 
 pub(super) fn text_box(x: f64, y: f64, w: f64, size: f64, anchor: Anchor) -> Box4 {
@@ -1166,17 +1174,15 @@ fn end_labels(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
     let cap = size * crate::text::CAP;
     let mut out = Vec::with_capacity(ends.len());
     for ((name, px, _, colour), y) in ends.into_iter().zip(at) {
-        out.push(Node::Text {
-            x: px + END_GAP,
-            y: y + cap / 2.0,
-            text: name,
+        out.push(Node::text(
+            px + END_GAP,
+            y + cap / 2.0,
+            name,
             size,
-            anchor: Anchor::Start,
-            bold: false,
-            angle: 0.0,
-            fill: readable_on(&colour, &ctx.palette.background),
-            class: "strata-label strata-end-label".into(),
-        });
+            Anchor::Start,
+            readable_on(&colour, &ctx.palette.background),
+            "strata-label strata-end-label",
+        ));
     }
     out
 }
@@ -1298,7 +1304,7 @@ fn labels(ctx: &Ctx, layer: &PlannedLayer) -> Vec<Node> {
         // A label on the background in the theme's text colour follows the
         // theme (dark mode restyles it); inside a mark it keeps its contrast.
         let class = if on_background && fill == pal.text { "strata-label strata-label-text" } else { "strata-label" };
-        out.push(Node::Text { x, y, text, size, anchor, bold: false, angle: 0.0, fill, class: class.into() });
+        out.push(Node::text(x, y, text, size, anchor, fill, class));
     }
     out
 }
@@ -1316,17 +1322,7 @@ fn centred_labels(ctx: &Ctx, layer: &PlannedLayer, size: f64) -> Vec<Node> {
         let (Some(a), Some(b)) = (ux(ctx, layer, xv, i), ctx.scales.y.unit(yv, i)) else { continue };
         let Some(text) = label_text(tv, i) else { continue };
         let (x, y) = ctx.coord.point(a, b);
-        out.push(Node::Text {
-            x,
-            y: y - 4.0,
-            text,
-            size,
-            anchor: Anchor::Middle,
-            bold: false,
-            angle: 0.0,
-            fill: color_of(ctx, layer, i),
-            class: "strata-label".into(),
-        });
+        out.push(Node::text(x, y - 4.0, text, size, Anchor::Middle, color_of(ctx, layer, i), "strata-label"));
     }
     out
 }

@@ -61,9 +61,11 @@ impl Paint {
     pub fn numbers(&self) -> Vec<f64> {
         self.stroke_width.into_iter().chain(self.opacity).chain(self.dash.iter().flatten().copied()).collect()
     }
+    #[inline(never)]
     pub fn fill(c: &str) -> Self {
         Paint { fill: Some(c.to_string()), ..Default::default() }
     }
+    #[inline(never)]
     pub fn stroke(c: &str, width: f64) -> Self {
         Paint { fill: Some("none".into()), stroke: Some(c.to_string()), stroke_width: Some(width), ..Default::default() }
     }
@@ -216,8 +218,38 @@ pub enum Node {
 }
 
 impl Node {
+    #[inline(never)]
+    pub fn line(x1: f64, y1: f64, x2: f64, y2: f64, paint: Paint) -> Node {
+        Node::Line { x1, y1, x2, y2, paint }
+    }
+
+    #[inline(never)]
+    pub fn path(d: Vec<Seg>, paint: Paint, datum: Option<Datum>) -> Node {
+        Node::Path { d, paint, datum }
+    }
+
+    /// A text, neither bold nor turned.
+    #[inline(never)]
+    pub fn text(x: f64, y: f64, text: String, size: f64, anchor: Anchor, fill: String, class: &str) -> Node {
+        Node::styled_text(x, y, text, size, anchor, false, 0.0, fill, class)
+    }
+
+    /// A text, bold or not, turned by `angle` degrees.
+    #[allow(clippy::too_many_arguments)]
+    #[inline(never)]
+    pub fn styled_text(x: f64, y: f64, text: String, size: f64, anchor: Anchor, bold: bool, angle: f64, fill: String, class: &str) -> Node {
+        Node::Text { x, y, text, size, anchor, bold, angle, fill, class: class.to_string() }
+    }
+
+    #[inline(never)]
     pub fn group(class: &str, children: Vec<Node>) -> Node {
-        Node::Group { class: class.to_string(), role: None, label: None, children }
+        Node::named_group(class.to_string(), None, None, children)
+    }
+
+    /// A group with an ARIA role and label.
+    #[inline(never)]
+    pub fn named_group(class: String, role: Option<&str>, label: Option<String>, children: Vec<Node>) -> Node {
+        Node::Group { class, role: role.map(str::to_string), label, children }
     }
 
     /// Every data mark below this node, depth first.

@@ -93,7 +93,7 @@ fn shade(coord: &Coord, x0: f64, x1: f64, y0: f64, y1: f64, paint: Paint) -> Opt
         for p in &pts {
             (l, t, r, b) = (l.min(p.0), t.min(p.1), r.max(p.0), b.max(p.1));
         }
-        return Some((Node::Path { d: polyline(&pts, true), paint, datum: None }, (l, t, r - l, b - t)));
+        return Some((Node::path(polyline(&pts, true), paint, None), (l, t, r - l, b - t)));
     }
     match coord.area(x0, x1, y0, y1) {
         Area::Rect { x, y, width, height } => Some((Node::Rect { x, y, width, height, paint, datum: None }, (x, y, width, height))),
@@ -133,9 +133,9 @@ fn reference(coord: &Coord, a: (f64, f64), b: (f64, f64), pal: &Palette) -> (Nod
     let (p, q) = (coord.point(a.0, a.1), coord.point(b.0, b.1));
     if coord.is_polar() {
         let d = polyline(&traced(coord, a, b), false);
-        return (Node::Path { d, paint, datum: None }, p, q);
+        return (Node::path(d, paint, None), p, q);
     }
-    (Node::Line { x1: p.0, y1: p.1, x2: q.0, y2: q.1, paint }, p, q)
+    (Node::line(p.0, p.1, q.0, q.1, paint), p, q)
 }
 
 /// The notes of a plot area, drawn over its marks (`marks`: the plot's
@@ -150,17 +150,7 @@ pub fn draw(notes: &[Note], scales: &Scales, coord: &Coord, pal: &Palette, size:
     let mut texts = Vec::new();
     // The data and the texts already placed: a note's text keeps off both.
     let mut taken = Grid::of_marks(marks);
-    let label = |x: f64, y: f64, s: &str, anchor: Anchor| Node::Text {
-        x,
-        y,
-        text: s.to_string(),
-        size,
-        anchor,
-        bold: false,
-        angle: 0.0,
-        fill: pal.text.clone(),
-        class: "strata-note".into(),
-    };
+    let label = |x: f64, y: f64, s: &str, anchor: Anchor| Node::text(x, y, s.to_string(), size, anchor, pal.text.clone(), "strata-note");
     for n in notes {
         let ux = n.x.as_ref().and_then(|v| unit(&scales.x, v));
         let uxe = n.x_end.as_ref().and_then(|v| unit(&scales.x, v));
@@ -280,7 +270,7 @@ pub fn draw(notes: &[Note], scales: &Scales, coord: &Coord, pal: &Palette, size:
     let mut children = spans;
     children.extend(lines);
     children.extend(texts);
-    Some(Node::Group { class: "strata-notes".into(), role: Some("graphics-object".into()), label: Some("notes".into()), children })
+    Some(Node::named_group("strata-notes".into(), Some("graphics-object"), Some("notes".into()), children))
 }
 
 #[cfg(test)]
