@@ -112,6 +112,8 @@ pub fn render(spec: &str, data: Option<Vec<u8>>, data_name: &str, width: f64, di
 }
 
 /// [`render`] with the bytes of `shapes.url` (the element fetches them).
+/// Only the full engine draws maps, so the core leaves this entry out.
+#[cfg(feature = "full")]
 #[wasm_bindgen]
 pub fn render_with_shapes(spec: &str, data: Option<Vec<u8>>, data_name: &str, shapes: Option<Vec<u8>>, width: f64) -> String {
     render_json_with_shapes(spec, data.as_deref(), data_name, shapes.as_deref(), width)
