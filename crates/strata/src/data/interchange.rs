@@ -204,9 +204,15 @@ fn decode(b: &[u8]) -> Option<([u8; 32], Result<Table, Errors>)> {
     for _ in 0..ncols {
         names.push(r.str()?.to_string());
         let col = match r.u8()? {
-            1 => Column::Float(r.f64s(rows)?.into()),
-            4 => Column::Date(r.f64s(rows)?.into()),
-            5 => Column::DateTime(r.f64s(rows)?.into()),
+            // The three number kinds share one read.
+            k @ (1 | 4 | 5) => {
+                let v = r.f64s(rows)?.into();
+                match k {
+                    1 => Column::Float(v),
+                    4 => Column::Date(v),
+                    _ => Column::DateTime(v),
+                }
+            }
             2 => {
                 let valid = match r.u8()? {
                     0 => None,
