@@ -437,7 +437,9 @@ fn tokenize(bytes: &[u8], delimiter: u8, max_rows: usize, names: &[String], forc
         if let Some((open, field)) = open_quote(&bytes[last..], delimiter) {
             let at = last + open;
             let line = line_of_byte(bytes, at);
-            errors.retain(|e| e.at.line.is_some_and(|l| l < line));
+            // The row errors come in line order: keep those before the quote.
+            let keep = errors.iter().take_while(|e| e.at.line.is_some_and(|l| l < line)).count();
+            errors.truncate(keep);
             errors.push(
                 Diagnostic::error("data.unterminated_quote", "a quoted field is never closed: expected a closing `\"` before the end of the data")
                     .at_data(line, Some(field as u64 + 1))

@@ -218,9 +218,9 @@ fn decode(b: &[u8]) -> Option<([u8; 32], Result<Table, Errors>)> {
                     0 => None,
                     1 => {
                         let b = r.array(rows, 1)?;
-                        let mut v = vec![false; rows];
-                        for (x, c) in v.iter_mut().zip(b) {
-                            *x = *c != 0;
+                        let mut v = Vec::with_capacity(rows);
+                        for c in b {
+                            v.push(*c != 0);
                         }
                         Some(v)
                     }
@@ -231,14 +231,14 @@ fn decode(b: &[u8]) -> Option<([u8; 32], Result<Table, Errors>)> {
             }
             3 => {
                 let b = r.array(rows, 1)?;
-                let mut v = vec![None; rows];
-                for (x, c) in v.iter_mut().zip(b) {
-                    *x = match c {
+                let mut v = Vec::with_capacity(rows);
+                for c in b {
+                    v.push(match c {
                         0 => Some(false),
                         1 => Some(true),
                         2 => None,
                         _ => return None,
-                    };
+                    });
                 }
                 Column::Bool(v)
             }
