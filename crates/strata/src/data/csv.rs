@@ -28,6 +28,14 @@ pub(crate) fn for_each_record<F>(bytes: &[u8], delimiter: u8, mut f: F) -> Optio
 where
     F: FnMut(usize, &[u8], &[usize]) -> bool,
 {
+    each_record(bytes, delimiter, &mut f)
+}
+
+/// [`for_each_record`]'s one copy: the callback is called once per record
+/// (not per cell), so a dynamic call costs nothing measurable and the
+/// record loop is not repeated for every caller.
+#[inline(never)]
+fn each_record(bytes: &[u8], delimiter: u8, f: &mut dyn FnMut(usize, &[u8], &[usize]) -> bool) -> Option<Option<usize>> {
     let mut rdr = ReaderBuilder::new().delimiter(delimiter).build();
     let mut out = vec![0u8; 1 << 16];
     let mut ends = vec![0usize; 64];
@@ -206,6 +214,61 @@ fn mismatch(bytes: &[u8], start: usize, k: usize, name: &str, t: Option<ColumnTy
         .with_hint(format!("fix the cell, make it empty for a missing value, or drop `{name}` from `data.types`"))
 }
 
+/// An Int sink meets its first float cell `f`: the integers so far as
+/// floats. Integers convert to f64 exactly rounded, as their text would
+/// parse; only `-0` needs its sign back. Out of line: once per column.
+#[cold]
+#[inline(never)]
+fn ints_to_floats(vals: &[i64], neg_zero: &[usize], mut nulls: Option<Vec<bool>>, f: f64) -> Sink {
+    let mut fv = ints_as_f64(vals);
+    for &i in neg_zero {
+        fv[i] = -0.0;
+    }
+    fv.push(f);
+    push_valid(&mut nulls);
+    Sink::Float { vals: fv, nulls }
+}
+
+/// A Date sink meets its first date-time `t`: dates widen to date-times at
+/// midnight UTC, as columns::build does. Out of line: once per column.
+#[cold]
+#[inline(never)]
+fn dates_to_datetimes(vals: &[i32], mut nulls: Option<Vec<bool>>, t: i64) -> Sink {
+    let mut tv = Vec::with_capacity(vals.len() + 1);
+    for d in vals {
+        tv.push(*d as i64 * 86_400_000);
+    }
+    tv.push(t);
+    push_valid(&mut nulls);
+    Sink::DateTime { vals: tv, nulls }
+}
+
+#[cold]
+#[inline(never)]
+fn ragged_row(bytes: &[u8], start: usize, n: usize, ncols: usize) -> Diagnostic {
+    Diagnostic::error("data.ragged_row", format!("this row has {n} fields but the header has {ncols}"))
+        .at_data(line_at(bytes, start), Some(n.min(ncols) as u64 + 1))
+        .with_hint(if n > ncols {
+            "quote fields that hold the delimiter, or add the missing header names"
+        } else {
+            "every row needs as many fields as the header; leave a field empty for a missing value"
+        })
+}
+
+#[cold]
+#[inline(never)]
+fn too_many_rows(bytes: &[u8], start: usize, max_rows: usize) -> Diagnostic {
+    Diagnostic::error("data.too_many_rows", format!("the data has more than {max_rows} rows, the row cap"))
+        .at_data(line_at(bytes, start), None)
+        .with_hint("raise the row cap (`ReadOptions::max_rows`) where the data is loaded, or filter the file before charting it")
+}
+
+#[cold]
+#[inline(never)]
+fn text_too_large() -> Diagnostic {
+    Diagnostic::error("data.too_large", "a column holds more than 2 GiB of text, more than one column can hold")
+}
+
 /// What reading the records gives: one sink per header cell.
 struct Parsed {
     sinks: Vec<Sink>,
@@ -245,16 +308,7 @@ fn tokenize(bytes: &[u8], delimiter: u8, max_rows: usize, names: &[String], forc
             return true;
         }
         if ends.len() != ncols {
-            let n = ends.len();
-            errors.push(
-                Diagnostic::error("data.ragged_row", format!("this row has {n} fields but the header has {ncols}"))
-                    .at_data(line_at(bytes, start), Some(n.min(ncols) as u64 + 1))
-                    .with_hint(if n > ncols {
-                        "quote fields that hold the delimiter, or add the missing header names"
-                    } else {
-                        "every row needs as many fields as the header; leave a field empty for a missing value"
-                    }),
-            );
+            errors.push(ragged_row(bytes, start, ends.len(), ncols));
             return errors.len() < MAX_LISTED;
         }
         if !errors.is_empty() {
@@ -263,11 +317,7 @@ fn tokenize(bytes: &[u8], delimiter: u8, max_rows: usize, names: &[String], forc
         let row = rows;
         rows += 1;
         if rows > max_rows {
-            fatal = Some(
-                Diagnostic::error("data.too_many_rows", format!("the data has more than {max_rows} rows, the row cap"))
-                    .at_data(line_at(bytes, start), None)
-                    .with_hint("raise the row cap (`ReadOptions::max_rows`) where the data is loaded, or filter the file before charting it"),
-            );
+            fatal = Some(too_many_rows(bytes, start, max_rows));
             return false;
         }
         if sinks.is_empty() {
@@ -285,10 +335,7 @@ fn tokenize(bytes: &[u8], delimiter: u8, max_rows: usize, names: &[String], forc
             match sink {
                 Sink::Text(col) => {
                     if !col.push(cell) {
-                        fatal = Some(
-                            Diagnostic::error("data.too_large", "a column holds more than 2 GiB of text, more than one column can hold")
-                                .at_data(line_at(bytes, start), None),
-                        );
+                        fatal = Some(text_too_large().at_data(line_at(bytes, start), None));
                         return false;
                     }
                 }
@@ -303,16 +350,7 @@ fn tokenize(bytes: &[u8], delimiter: u8, max_rows: usize, names: &[String], forc
                         vals.push(v);
                         push_valid(nulls);
                     } else if let Some(f) = parse_float(cell, dc) {
-                        // Integers convert to f64 exactly rounded, as their
-                        // text would parse; only `-0` needs its sign back.
-                        let mut fv = ints_as_f64(vals);
-                        for &i in neg_zero.iter() {
-                            fv[i] = -0.0;
-                        }
-                        fv.push(f);
-                        let mut n = nulls.take();
-                        push_valid(&mut n);
-                        *sink = Sink::Float { vals: fv, nulls: n };
+                        *sink = ints_to_floats(vals, neg_zero, nulls.take(), f);
                     } else if is_not_finite(cell, dc) {
                         vals.push(0);
                         push_null(nulls, row);
@@ -365,16 +403,7 @@ fn tokenize(bytes: &[u8], delimiter: u8, max_rows: usize, names: &[String], forc
                         vals.push(v);
                         push_valid(nulls);
                     } else if let Some(t) = parse_datetime(cell) {
-                        // Dates widen to date-times at midnight UTC, as
-                        // columns::build does.
-                        let mut tv = vec![0i64; vals.len()];
-                        for (x, d) in tv.iter_mut().zip(vals.iter()) {
-                            *x = *d as i64 * 86_400_000;
-                        }
-                        tv.push(t);
-                        let mut n = nulls.take();
-                        push_valid(&mut n);
-                        *sink = Sink::DateTime { vals: tv, nulls: n };
+                        *sink = dates_to_datetimes(vals, nulls.take(), t);
                     } else if forced[k].is_some() {
                         fatal = Some(mismatch(bytes, start, k, &names[k], forced[k], cell, EXPECT_DATE));
                         return false;
@@ -408,7 +437,9 @@ fn tokenize(bytes: &[u8], delimiter: u8, max_rows: usize, names: &[String], forc
         if let Some((open, field)) = open_quote(&bytes[last..], delimiter) {
             let at = last + open;
             let line = line_of_byte(bytes, at);
-            errors.retain(|e| e.at.line.is_some_and(|l| l < line));
+            // The row errors come in line order: keep those before the quote.
+            let keep = errors.iter().take_while(|e| e.at.line.is_some_and(|l| l < line)).count();
+            errors.truncate(keep);
             errors.push(
                 Diagnostic::error("data.unterminated_quote", "a quoted field is never closed: expected a closing `\"` before the end of the data")
                     .at_data(line, Some(field as u64 + 1))
@@ -452,7 +483,7 @@ fn tokenize(bytes: &[u8], delimiter: u8, max_rows: usize, names: &[String], forc
             true
         });
         if too_large {
-            return Err(Diagnostic::error("data.too_large", "a column holds more than 2 GiB of text, more than one column can hold").into());
+            return Err(text_too_large().into());
         }
         for (col, k) in cols.into_iter().zip(redo) {
             sinks[k] = Sink::Text(col);

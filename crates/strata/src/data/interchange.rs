@@ -204,17 +204,23 @@ fn decode(b: &[u8]) -> Option<([u8; 32], Result<Table, Errors>)> {
     for _ in 0..ncols {
         names.push(r.str()?.to_string());
         let col = match r.u8()? {
-            1 => Column::Float(r.f64s(rows)?.into()),
-            4 => Column::Date(r.f64s(rows)?.into()),
-            5 => Column::DateTime(r.f64s(rows)?.into()),
+            // The three number kinds share one read.
+            k @ (1 | 4 | 5) => {
+                let v = r.f64s(rows)?.into();
+                match k {
+                    1 => Column::Float(v),
+                    4 => Column::Date(v),
+                    _ => Column::DateTime(v),
+                }
+            }
             2 => {
                 let valid = match r.u8()? {
                     0 => None,
                     1 => {
                         let b = r.array(rows, 1)?;
-                        let mut v = vec![false; rows];
-                        for (x, c) in v.iter_mut().zip(b) {
-                            *x = *c != 0;
+                        let mut v = Vec::with_capacity(rows);
+                        for c in b {
+                            v.push(*c != 0);
                         }
                         Some(v)
                     }
@@ -225,14 +231,14 @@ fn decode(b: &[u8]) -> Option<([u8; 32], Result<Table, Errors>)> {
             }
             3 => {
                 let b = r.array(rows, 1)?;
-                let mut v = vec![None; rows];
-                for (x, c) in v.iter_mut().zip(b) {
-                    *x = match c {
+                let mut v = Vec::with_capacity(rows);
+                for c in b {
+                    v.push(match c {
                         0 => Some(false),
                         1 => Some(true),
                         2 => None,
                         _ => return None,
-                    };
+                    });
                 }
                 Column::Bool(v)
             }

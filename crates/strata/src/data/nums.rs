@@ -110,7 +110,11 @@ impl FromIterator<Option<f64>> for Nums {
 
 impl From<Vec<Option<f64>>> for Nums {
     fn from(v: Vec<Option<f64>>) -> Nums {
-        v.into_iter().collect()
+        let mut out = Vec::with_capacity(v.len());
+        for x in &v {
+            out.push(x.unwrap_or(f64::NAN));
+        }
+        out.into()
     }
 }
 

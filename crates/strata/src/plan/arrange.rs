@@ -100,7 +100,10 @@ pub fn apply(index: usize, layer: &Layer, geometry: Geometry, mut data: LayerDat
         // `y` keeps each row's own value (what the data table, tooltips and
         // labels report); `y_top` is where its extent ends; `total` is its
         // stack's sum.
-        let mut own: Vec<Option<f64>> = ys.iter().collect();
+        let mut own: Vec<Option<f64>> = Vec::with_capacity(ys.len());
+        for i in 0..ys.len() {
+            own.push(ys.get(i));
+        }
         let mut total: Vec<Option<f64>> = Vec::with_capacity(data.len);
         for i in 0..data.len {
             total.push(ys.get(i).map(|_| up[slots[i]] + down[slots[i]]));

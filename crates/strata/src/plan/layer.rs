@@ -8,12 +8,12 @@ use crate::error::{Diagnostic, Errors};
 use crate::spec::{ColumnType, Geometry, IndependentAxes, Layer, Panels, Spec};
 
 pub fn extract(index: usize, layer: &Layer, table: &Table) -> Result<LayerData, Errors> {
-    let names = table.column_names();
+    let names = table.names();
     let mut out = LayerData { len: table.num_rows(), ..Default::default() };
     let mut errors = Vec::new();
     for (ch, channel) in layer.channels() {
         let Some(pos) = names.iter().position(|n| *n == channel.column) else {
-            errors.push(unknown_column(&channel.column, &names, format!("layers[{index}].{ch}")));
+            errors.push(unknown_column(&channel.column, names, format!("layers[{index}].{ch}")));
             continue;
         };
         let values = to_values(table.column(pos), channel.as_type);
@@ -33,7 +33,7 @@ pub fn extract(index: usize, layer: &Layer, table: &Table) -> Result<LayerData, 
     for (j, col) in layer.tooltip.iter().enumerate() {
         match names.iter().position(|n| n == col) {
             Some(pos) => out.tooltips.push((col.clone(), to_values(table.column(pos), None))),
-            None => errors.push(unknown_column(col, &names, format!("layers[{index}].tooltip[{j}]"))),
+            None => errors.push(unknown_column(col, names, format!("layers[{index}].tooltip[{j}]"))),
         }
     }
     if errors.is_empty() {
@@ -56,11 +56,11 @@ pub fn check_panels(panels: Option<&Panels>, table: &Table) -> Result<(), Errors
                 .with_hint("give `by` (with `columns`) for one wrapped row of panels per value, or `rows`/`cols` for a grid, not both"),
         );
     }
-    let names = table.column_names();
+    let names = table.names();
     for (column, path) in [(&p.by, "panels.by"), (&p.rows, "panels.rows"), (&p.cols, "panels.cols")] {
         if let Some(c) = column {
             if !names.iter().any(|n| n == c) {
-                errors.push(unknown_column(c, &names, path.into()));
+                errors.push(unknown_column(c, names, path.into()));
             }
         }
     }
@@ -82,7 +82,7 @@ pub fn with_panel(mut data: LayerData, panels: Option<&Panels>, table: &Table) -
         Some(by) => [(Channel::Panel, Some(by)), (Channel::PanelRow, None), (Channel::PanelCol, None)],
         None => [(Channel::Panel, None), (Channel::PanelRow, p.rows.as_ref()), (Channel::PanelCol, p.cols.as_ref())],
     };
-    let names = table.column_names();
+    let names = table.names();
     for (channel, column) in wanted {
         let Some(pos) = column.and_then(|c| names.iter().position(|n| n == c)) else { continue };
         data.channels.insert(channel, to_values(table.column(pos), Some(ColumnType::Text)));

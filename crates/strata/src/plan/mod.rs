@@ -140,24 +140,23 @@ pub fn build_with_shapes(spec: &Spec, table: &Table, shapes: Option<Vec<crate::g
     }
     // The layer each statistic runs as: bars under `top` without a
     // statistic sum what was gathered.
-    let run: Vec<Layer> = spec
-        .layers
-        .iter()
-        .map(|l| {
-            if summed.contains(&Channel::X) && l.draw == Geometry::Bar && l.stat == crate::spec::Stat::None {
-                Layer {
-                    stat: crate::spec::Stat::Object(crate::spec::StatObject { summary: Some(crate::spec::SummaryWord::Sum), ..Default::default() }),
-                    ..l.clone()
-                }
-            } else {
-                l.clone()
-            }
-        })
-        .collect();
+    // (Plain loops into pre-sized vectors: no iterator code per vector.)
+    let mut run: Vec<Layer> = Vec::with_capacity(spec.layers.len());
+    for l in &spec.layers {
+        let mut l = l.clone();
+        if summed.contains(&Channel::X) && l.draw == Geometry::Bar && l.stat == crate::spec::Stat::None {
+            l.stat = crate::spec::Stat::Object(crate::spec::StatObject { summary: Some(crate::spec::SummaryWord::Sum), ..Default::default() });
+        }
+        run.push(l);
+    }
     // A density over a count histogram is scaled to its counts, so the
     // histogram's statistic runs first (issue 12 item 11).
-    let over: Vec<Option<usize>> = (0..run.len()).map(|i| stat::count_histogram_of(&run, i)).collect();
-    let mut stated: Vec<Option<Result<stat::Stated, Errors>>> = (0..run.len()).map(|_| None).collect();
+    let mut over: Vec<Option<usize>> = Vec::with_capacity(run.len());
+    let mut stated: Vec<Option<Result<stat::Stated, Errors>>> = Vec::with_capacity(run.len());
+    for i in 0..run.len() {
+        over.push(stat::count_histogram_of(&run, i));
+        stated.push(None);
+    }
     for pass in 0..2 {
         for i in 0..run.len() {
             if over[i].is_some() != (pass == 1) {

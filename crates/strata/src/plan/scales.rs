@@ -178,12 +178,17 @@ fn steps(spec: &ScaleSpec, layers: &[PlannedLayer], lo: f64, hi: f64) -> Result<
     let mut xs = Vec::new();
     for l in layers {
         if let Some(v) = l.data.get(Channel::Color) {
-            xs.extend((0..v.len()).filter_map(|i| v.num(i)));
+            for i in 0..v.len() {
+                if let Some(x) = v.num(i) {
+                    xs.push(x);
+                }
+            }
         }
     }
     let bounds = match &spec.breaks {
         Some(Breaks::List(b)) => {
-            let mut b: Vec<f64> = b.iter().copied().filter(|x| x.is_finite()).collect();
+            let mut b: Vec<f64> = b.clone();
+            b.retain(|x| x.is_finite());
             if b.windows(2).any(|w| w[0] >= w[1]) {
                 return Err(Diagnostic::error("spec.bad_breaks", "the breaks must be numbers in increasing order").at_path("scales.color.breaks").into());
             }

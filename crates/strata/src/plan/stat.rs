@@ -76,7 +76,15 @@ pub fn on_counts(hist_index: usize, hist: &Layer, stated: &LayerData) -> OnCount
     }
     let (a, b) = if stated.get(Channel::XEnd).is_some() { (Channel::X, Channel::XEnd) } else { (Channel::BinStart, Channel::BinEnd) };
     let (Some(a), Some(b)) = (stated.get(a), stated.get(b)) else { return OnCounts::Warn(hist_index) };
-    let widths: Vec<f64> = (0..stated.len).filter_map(|i| Some(b.num(i)? - a.num(i)?)).filter(|w| w.is_finite() && *w > 0.0).collect();
+    let mut widths: Vec<f64> = Vec::new();
+    for i in 0..stated.len {
+        if let (Some(hi), Some(lo)) = (b.num(i), a.num(i)) {
+            let w = hi - lo;
+            if w.is_finite() && w > 0.0 {
+                widths.push(w);
+            }
+        }
+    }
     let (lo, hi) = widths.iter().fold((f64::INFINITY, 0.0f64), |(lo, hi), w| (lo.min(*w), hi.max(*w)));
     if widths.is_empty() || hi - lo > 1e-9 * hi {
         return OnCounts::Warn(hist_index);
@@ -183,7 +191,13 @@ fn object(index: usize, layer: &Layer, o: &StatObject, data: LayerData, count_wi
 
 /// The group channels present with text values.
 fn group_keys(data: &LayerData) -> Vec<Channel> {
-    GROUP_CHANNELS.iter().copied().filter(|c| data.get(*c).is_some_and(Values::is_discrete)).collect()
+    let mut keys = Vec::new();
+    for c in GROUP_CHANNELS {
+        if data.get(c).is_some_and(Values::is_discrete) {
+            keys.push(c);
+        }
+    }
+    keys
 }
 
 /// `x` (when mapped) and the discrete group channels: what count, summary
@@ -275,7 +289,14 @@ fn name_of(data: &LayerData, ch: Channel) -> String {
 }
 
 fn nums_of(v: &Values, rows: &[usize]) -> Vec<f64> {
-    rows.iter().filter_map(|i| v.num(*i)).filter(|x| x.is_finite()).collect()
+    // (A plain loop: no iterator code per caller.)
+    let mut out = Vec::with_capacity(rows.len());
+    for &i in rows {
+        if let Some(x) = v.num(i) {
+            out.push(x);
+        }
+    }
+    out
 }
 
 fn need<'a>(index: usize, data: &'a LayerData, ch: Channel, what: &str) -> Result<&'a Values, Errors> {
@@ -381,8 +402,15 @@ fn summarise(index: usize, layer: &Layer, o: &StatObject, word: SummaryWord, dat
 fn booleans_as_numbers(data: &mut LayerData, ch: Channel) {
     if let Some(Values::Text(v)) = data.get(ch) {
         if v.iter().flatten().all(|s| s == "true" || s == "false") && v.iter().any(Option::is_some) {
-            let nums = v.iter().map(|s| s.as_deref().map(|s| if s == "true" { 1.0 } else { 0.0 })).collect();
-            data.channels.insert(ch, Values::Num(nums));
+            let mut nums = Vec::with_capacity(v.len());
+            for s in v {
+                nums.push(match s.as_deref() {
+                    Some("true") => 1.0,
+                    Some(_) => 0.0,
+                    None => f64::NAN,
+                });
+            }
+            data.channels.insert(ch, Values::Num(nums.into()));
         }
     }
 }
@@ -396,8 +424,12 @@ fn y_is_time(v: &Values) -> bool {
 fn binned(index: usize, layer: &Layer, b: &BinSpec, data: LayerData) -> Result<LayerData, Errors> {
     let x = need_numeric(index, &data, Channel::X, "a `bin` statistic")?;
     let is_time = matches!(x, Values::Time(_));
-    let all: Vec<usize> = (0..data.len).collect();
-    let xs = nums_of(x, &all);
+    let mut xs = Vec::with_capacity(data.len);
+    for i in 0..data.len {
+        if let Some(v) = x.num(i) {
+            xs.push(v);
+        }
+    }
     let edges = bin_edges(index, b, &xs, is_time)?;
     let keys = group_keys(&data);
     let groups = group_rows(&data, &keys);
@@ -406,7 +438,7 @@ fn binned(index: usize, layer: &Layer, b: &BinSpec, data: LayerData) -> Result<L
     let edge_channels = matches!(layer.draw, Geometry::Bar | Geometry::Cell);
     let mut out = Out::new();
     for rows in groups.values() {
-        let gx: Vec<f64> = rows.iter().filter_map(|i| x.num(*i)).collect();
+        let gx = nums_of(x, rows);
         let counts = bin::histogram(&gx, &edges);
         let sums = weights.map(|w| {
             let (mut px, mut pw) = (vec![], vec![]);
@@ -582,7 +614,12 @@ fn fitted(index: usize, layer: &Layer, o: &StatObject, kind: FitWord, data: Laye
     let with_band = level > 0.0 && loess_opts.is_none();
     let mut out = Out::new();
     for rows in groups.values() {
-        let mut pts: Vec<(f64, f64)> = rows.iter().filter_map(|i| Some((x.num(*i)?, y.num(*i)?))).collect();
+        let mut pts: Vec<(f64, f64)> = Vec::with_capacity(rows.len());
+        for &i in rows {
+            if let (Some(a), Some(b)) = (x.num(i), y.num(i)) {
+                pts.push((a, b));
+            }
+        }
         crate::sort::by_x(&mut pts);
         let (xs, ys): (Vec<f64>, Vec<f64>) = pts.into_iter().unzip();
         if xs.len() < 2 || xs[0] == xs[xs.len() - 1] {
