@@ -203,15 +203,14 @@ fn radix<T: Copy>(v: &mut [T], key: impl Fn(&T) -> u64) {
 mod tests {
     use super::*;
 
-    /// SplitMix64, for the random inputs.
-    struct Rng(u64);
+    /// The random inputs: the engine's own SplitMix64 (stat::rng).
+    struct Rng(crate::stat::rng::SplitMix64);
     impl Rng {
+        fn new(seed: u64) -> Self {
+            Rng(crate::stat::rng::SplitMix64::new(seed))
+        }
         fn next(&mut self) -> u64 {
-            self.0 = self.0.wrapping_add(0x9e37_79b9_7f4a_7c15);
-            let mut z = self.0;
-            z = (z ^ (z >> 30)).wrapping_mul(0xbf58_476d_1ce4_e5b9);
-            z = (z ^ (z >> 27)).wrapping_mul(0x94d0_49bb_1331_11eb);
-            z ^ (z >> 31)
+            self.0.next_u64()
         }
         fn below(&mut self, n: u64) -> u64 {
             self.next() % n
@@ -260,7 +259,7 @@ mod tests {
     #[test]
     #[allow(clippy::unnecessary_sort_by)] // the reference is `sort_by` itself, with the same comparator
     fn order_and_by_match_std_sort_by() {
-        let mut r = Rng(1);
+        let mut r = Rng::new(1);
         for n in lengths() {
             let keys: Vec<u32> = (0..n).map(|_| r.below(1 + n as u64 / 3) as u32).collect();
             for keys in shapes(&keys, |v| v.sort()) {
@@ -285,7 +284,7 @@ mod tests {
     // and many ties; compared bit for bit.
     #[test]
     fn f64s_match_std_total_cmp() {
-        let mut r = Rng(2);
+        let mut r = Rng::new(2);
         let bits = |v: &[f64]| v.iter().map(|x| x.to_bits()).collect::<Vec<_>>();
         for n in lengths() {
             let xs: Vec<f64> = (0..n).map(|_| r.float()).collect();
@@ -304,7 +303,7 @@ mod tests {
     // position.
     #[test]
     fn points_and_f64_keys_match_std_sort_by() {
-        let mut r = Rng(3);
+        let mut r = Rng::new(3);
         for n in lengths() {
             let xs: Vec<f64> = (0..n).map(|_| r.float()).collect();
             for xs in shapes(&xs, |v| v.sort_by(f64::total_cmp)) {
@@ -326,7 +325,7 @@ mod tests {
     // range of positions (below 2^53) so that every digit takes part.
     #[test]
     fn usizes_match_std_sort() {
-        let mut r = Rng(4);
+        let mut r = Rng::new(4);
         for n in lengths() {
             let v: Vec<usize> = (0..n).map(|i| if i % 3 == 0 { r.below(5) as usize } else { (r.next() >> 11) as usize }).collect();
             for v in shapes(&v, |v| v.sort()) {
