@@ -343,14 +343,11 @@ pub(crate) fn colliding_keys(n: usize, ascii: bool) -> Vec<Vec<u8>> {
 mod tests {
     use super::*;
 
-    /// A tiny deterministic generator (xorshift64*) for the property tests.
-    struct Rng(u64);
+    /// The property tests' generator: the engine's own SplitMix64 (stat::rng).
+    struct Rng(crate::stat::rng::SplitMix64);
     impl Rng {
         fn next(&mut self) -> u64 {
-            self.0 ^= self.0 >> 12;
-            self.0 ^= self.0 << 25;
-            self.0 ^= self.0 >> 27;
-            self.0.wrapping_mul(0x2545_f491_4f6c_dd1d)
+            self.0.next_u64()
         }
     }
 
@@ -361,7 +358,7 @@ mod tests {
     #[test]
     fn agrees_with_std_hash_map_on_random_sequences_with_collisions() {
         for (seed, hash_bits) in [(1u64, 2u32), (2, 5), (3, 64), (4, 1), (5, 12)] {
-            let mut rng = Rng(seed.wrapping_mul(0x9e37_79b9_7f4a_7c15) | 1);
+            let mut rng = Rng(crate::stat::rng::SplitMix64::new(seed));
             let mut reference: std::collections::HashMap<u64, u32> = std::collections::HashMap::new();
             let mut keys: Vec<u64> = Vec::new();
             let mut ix = Index::new();
