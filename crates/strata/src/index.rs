@@ -11,8 +11,9 @@
 //!
 //! Open addressing with linear probing, at most three quarters full: a
 //! slot is a byte (empty, or 7 bits of the hash, so most slots of a run are
-//! passed without comparing keys) and a `u32` id, 5 bytes a slot. The hash has no secret key (nothing on the page gives one), so
-//! keys crafted to collide could make probing quadratic; an insert that
+//! passed without comparing keys) and a `u32` id, 5 bytes a slot. The hash
+//! has no secret key (nothing on the page gives one), so keys crafted to
+//! collide could make probing quadratic; an insert that
 //! probes more than [`LONG_PROBE`] slots draws a new seed and hashes every
 //! entry again (at most [`RESEEDS`] times an index), so keys colliding under
 //! one seed are spread by the next.

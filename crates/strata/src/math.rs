@@ -73,14 +73,13 @@ fn kernel_sin(x: f64) -> f64 {
     const S4: f64 = 2.755_731_370_707_006_767_89e-6;
     const S5: f64 = -2.505_076_025_340_686_341_95e-8;
     const S6: f64 = 1.589_690_995_211_550_102_21e-10;
+    if x == 0.0 {
+        return x; // keeps -0.0
+    }
     let z = x * x;
     let w = z * z;
     let r = S2 + z * (S3 + z * S4) + z * w * (S5 + z * S6);
-    let v = z * x;
-    if x == 0.0 {
-        return x;
-    }
-    x + v * (S1 + z * r)
+    x + z * x * (S1 + z * r)
 }
 
 /// cos(x) for |x| <= pi/4 (msun's `__kernel_cos` with no tail).
